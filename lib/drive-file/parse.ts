@@ -1,0 +1,61 @@
+import type { z } from "zod"
+import { driveFileSchema, type DriveFile } from "./schema"
+
+export type ParseDriveFileResult =
+  | { ok: true; file: DriveFile }
+  | { ok: false; path: string; message: string }
+
+/** Path of the whole document, used when the file itself is not an object. */
+export const ROOT_PATH = "file"
+
+/** ["samples", 3, "lat"] -> "samples[3].lat" */
+export function formatIssuePath(path: ReadonlyArray<PropertyKey>): string {
+  let out = ""
+  for (const key of path) {
+    if (typeof key === "number") out += `[${key}]`
+    else out += out === "" ? String(key) : `.${String(key)}`
+  }
+  return out === "" ? ROOT_PATH : out
+}
+
+/** ["samples", 3, "lat"] -> "samples.3.lat", the key style of the API's `fields`. */
+export function formatFieldKey(path: ReadonlyArray<PropertyKey>): string {
+  return path.length === 0 ? ROOT_PATH : path.map(String).join(".")
+}
+
+/** zod's generic wording turned into the plain kind used across the drive file. */
+export function issueMessage(issue: z.core.$ZodIssue): string {
+  // Our schemas give every check its own message; this only catches zod's stock wording.
+  if (!issue.message.startsWith("Invalid")) return issue.message
+  switch (issue.code) {
+    case "unrecognized_keys":
+      return `has unknown keys: ${issue.keys.join(", ")}`
+    case "invalid_type":
+      if (issue.input === undefined) return "is required"
+      return issue.expected === "int" ? "must be a whole number" : `must be of type ${issue.expected}`
+    default:
+      return issue.message
+  }
+}
+
+/** One line for the CLI and the API: `samples[3].lat: must be between -90 and 90`. */
+export function formatParseError(error: { path: string; message: string }): string {
+  return `${error.path}: ${error.message}`
+}
+
+/** Zod issues -> `{ "samples.3.lat": "must be between -90 and 90" }` (first message per field). */
+export function zodIssuesToFields(issues: ReadonlyArray<z.core.$ZodIssue>): Record<string, string> {
+  const fields: Record<string, string> = {}
+  for (const issue of issues) {
+    const key = formatFieldKey(issue.path)
+    if (!(key in fields)) fields[key] = issueMessage(issue)
+  }
+  return fields
+}
+
+export function parseDriveFile(input: unknown): ParseDriveFileResult {
+  const result = driveFileSchema.safeParse(input)
+  if (result.success) return { ok: true, file: result.data }
+  const issue = result.error.issues[0]!
+  return { ok: false, path: formatIssuePath(issue.path), message: issueMessage(issue) }
+}
