@@ -1,0 +1,52 @@
+import type { ResolvedProfile } from "@/lib/drive-file/profile"
+
+export type Verdict = "met" | "short" | "not_met" | "unverified"
+
+export type ConditionKey =
+  | "cleared"
+  | "time-limit"
+  | "qualifying-time"
+  | "following-time"
+  | "verified"
+  | "harsh-events"
+  | "data-gaps"
+
+export interface Condition {
+  key: ConditionKey
+  /** Short plain label for a meter or report row. */
+  label: string
+  met: boolean
+  value: number | null
+  required: number | null
+  unit: "s" | "mph" | "events"
+  /** Advisory conditions are reported but never change the verdict. */
+  advisory: boolean
+  /** One plain sentence when not met. */
+  reason?: string
+}
+
+export interface Score {
+  verdict: Verdict
+  /** One sentence per unmet condition that decides the verdict. */
+  reasons: string[]
+  /** Sentences about advisory conditions (harsh events, data gaps); they never change the verdict. */
+  notes: string[]
+  durationSeconds: number
+  distanceMeters: number
+  gapSeconds: number
+  qualifyingSeconds: number
+  followingSeconds: number
+  qualifyingSecondsBeforeClear: number
+  followingSecondsBeforeClear: number
+  clearedAtSeconds: number | null
+  harshEvents: { accel: number; decel: number }
+  samplesUsed: number
+  /** Samples not used: over the accuracy limit plus repeated timestamps. */
+  samplesDropped: number
+  samplesDroppedForAccuracy: number
+  duplicateSamples: number
+  startedAtMs: number | null
+  endedAtMs: number | null
+  conditions: Condition[]
+  profile: ResolvedProfile
+}
