@@ -1,0 +1,32 @@
+import { z } from "zod"
+import { requireRole } from "@/app/_server/auth"
+import { parseQuery, route } from "@/app/_server/route"
+import { getDb } from "@/db/client"
+import { listReviewQueue, parseReviewCursor } from "@/db/queries/reviews"
+import { AppError } from "@/lib/errors"
+
+export const GET = route(async (req) => {
+  const { user } = await requireRole("shop_lead")
+  const { cursor } = parseQuery(req, z.object({ cursor: z.string().max(200).optional() }))
+  const parsed = parseReviewCursor(cursor)
+  if (parsed === null) throw new AppError("validation_failed", "cursor: is not one this server gave out", { cursor: "is invalid" })
+  const { rows, nextCursor } = await listReviewQueue(getDb(), user.shopId, parsed)
+  return Response.json({
+    drives: rows.map((r) => {
+      const score = r.result as { reasons?: string[]; harshEvents?: { accel: number; decel: number } }
+      return {
+        id: r.id,
+        jobId: r.job_id,
+        taskId: r.task_id,
+        roNumber: r.ro_number,
+        vehicleDescription: r.vehicle_description,
+        verdict: r.verdict,
+        reasons: score.reasons ?? [],
+        harshEvents: score.harshEvents ?? { accel: 0, decel: 0 },
+        driverName: r.driver_name,
+        finishedAt: r.finished_at,
+      }
+    }),
+    nextCursor,
+  })
+})

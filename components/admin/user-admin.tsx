@@ -1,0 +1,118 @@
+"use client"
+
+import { zodResolver } from "@hookform/resolvers/zod"
+import { UserPlus } from "lucide-react"
+import { useState } from "react"
+import { useForm } from "react-hook-form"
+import { Button } from "@/components/ui/button"
+import { Card } from "@/components/ui/card"
+import { Field, Input, Select } from "@/components/ui/field"
+import { ROLE_LABEL, ROLES, type Role } from "@/lib/auth/roles"
+import { newUserSchema, type NewUserInput } from "@/lib/validation/user"
+
+type Person = { id: string; email: string; name: string; role: Role; disabled: boolean }
+
+export function UserAdmin({ meId, initialUsers }: { meId: string; initialUsers: Person[] }) {
+  const [users, setUsers] = useState(initialUsers)
+  const [problem, setProblem] = useState<string | null>(null)
+  const form = useForm<NewUserInput>({
+    resolver: zodResolver(newUserSchema),
+    defaultValues: { email: "", name: "", role: "technician", password: "" },
+  })
+
+  async function send(url: string, method: string, body: unknown) {
+    setProblem(null)
+    const res = await fetch(url, { method, headers: { "content-type": "application/json" }, body: JSON.stringify(body) })
+    const json = await res.json().catch(() => null)
+    if (!res.ok) {
+      setProblem(json?.error?.message ?? "That did not work.")
+      return null
+    }
+    return json.user as Person
+  }
+
+  async function add(values: NewUserInput) {
+    const created = await send("/api/users", "POST", values)
+    if (created) {
+      setUsers((list) => [...list, created].sort((a, b) => a.name.localeCompare(b.name)))
+      form.reset()
+    }
+  }
+
+  async function change(id: string, changes: Partial<Pick<Person, "role" | "disabled">>) {
+    const updated = await send(`/api/users/${id}`, "PATCH", changes)
+    if (updated) setUsers((list) => list.map((u) => (u.id === id ? updated : u)))
+  }
+
+  const { errors, isSubmitting } = form.formState
+  return (
+    <div className="grid gap-4 lg:grid-cols-[2fr_1fr]">
+      <Card className="p-0">
+        <ul className="divide-y divide-graphite-200 dark:divide-asphalt-700">
+          {users.map((u) => (
+            <li key={u.id} className="flex flex-wrap items-center gap-3 p-3" data-testid={`person-${u.email}`}>
+              <div className="min-w-40 flex-1">
+                <p className="font-semibold">
+                  {u.name} {u.disabled ? <span className="ml-1 rounded bg-graphite-200 px-2 py-0.5 text-xs dark:bg-asphalt-700">Disabled</span> : null}
+                </p>
+                <p className="text-sm text-graphite-600 dark:text-graphite-300">{u.email}</p>
+              </div>
+              <label className="sr-only" htmlFor={`role-${u.id}`}>
+                Role of {u.name}
+              </label>
+              <Select
+                id={`role-${u.id}`}
+                className="w-40"
+                value={u.role}
+                disabled={u.id === meId}
+                onChange={(e) => change(u.id, { role: e.target.value as Role })}
+              >
+                {ROLES.map((r) => (
+                  <option key={r} value={r}>
+                    {ROLE_LABEL[r]}
+                  </option>
+                ))}
+              </Select>
+              <Button variant={u.disabled ? "outline" : "ghost"} disabled={u.id === meId} onClick={() => change(u.id, { disabled: !u.disabled })}>
+                {u.disabled ? "Enable" : "Disable"}
+              </Button>
+            </li>
+          ))}
+        </ul>
+      </Card>
+      <Card>
+        <h2 className="mb-3 flex items-center gap-2 text-lg font-bold">
+          <UserPlus aria-hidden className="size-5" /> Add a person
+        </h2>
+        <form onSubmit={form.handleSubmit(add)} className="space-y-3" noValidate>
+          <Field label="Name" htmlFor="new-name" error={errors.name?.message}>
+            <Input id="new-name" {...form.register("name")} />
+          </Field>
+          <Field label="E-mail" htmlFor="new-email" error={errors.email?.message}>
+            <Input id="new-email" type="email" {...form.register("email")} />
+          </Field>
+          <Field label="Role" htmlFor="new-role">
+            <Select id="new-role" {...form.register("role")}>
+              {ROLES.map((r) => (
+                <option key={r} value={r}>
+                  {ROLE_LABEL[r]}
+                </option>
+              ))}
+            </Select>
+          </Field>
+          <Field label="First password" htmlFor="new-password" error={errors.password?.message} hint="At least 12 characters. Share it in person.">
+            <Input id="new-password" type="password" autoComplete="new-password" {...form.register("password")} />
+          </Field>
+          {problem ? (
+            <p role="alert" className="font-medium text-stop-600 dark:text-stop-400">
+              {problem}
+            </p>
+          ) : null}
+          <Button type="submit" className="w-full" disabled={isSubmitting}>
+            Add
+          </Button>
+        </form>
+      </Card>
+    </div>
+  )
+}

@@ -1,0 +1,30 @@
+// Lucia v3 is unmaintained upstream: it is kept behind this one module so that it can be swapped.
+import { NodePostgresAdapter } from "@lucia-auth/adapter-postgresql"
+import { Lucia, TimeSpan } from "lucia"
+import type pg from "pg"
+import type { Role } from "./roles"
+
+export type SessionUser = { id: string; email: string; name: string; role: Role; shopId: string; disabled: boolean }
+
+export function createLucia(pool: pg.Pool, { secure }: { secure: boolean }) {
+  return new Lucia(new NodePostgresAdapter(pool, { user: "app_user", session: "user_session" }), {
+    sessionExpiresIn: new TimeSpan(12, "h"),
+    sessionCookie: { name: "straightaway_session", expires: false, attributes: { secure, sameSite: "lax", path: "/" } },
+    getUserAttributes: (row) => ({
+      email: row.email,
+      name: row.name,
+      role: row.role,
+      shopId: row.shop_id,
+      disabled: row.disabled,
+    }),
+  })
+}
+
+export type Auth = ReturnType<typeof createLucia>
+
+declare module "lucia" {
+  interface Register {
+    Lucia: Auth
+    DatabaseUserAttributes: { email: string; name: string; role: Role; shop_id: string; disabled: boolean }
+  }
+}

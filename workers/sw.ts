@@ -1,0 +1,49 @@
+/// <reference lib="webworker" />
+// Straightaway's service worker: the app shell and Next's static chunks are precached; pages and their data
+// are served network-first with the last good copy kept, so the recorder opens with no network after one visit.
+// Writes (POST) are never cached: the recorder's outbox in IndexedDB replays them.
+import { clientsClaim } from "workbox-core"
+import { ExpirationPlugin } from "workbox-expiration"
+import { cleanupOutdatedCaches, precacheAndRoute } from "workbox-precaching"
+import { registerRoute } from "workbox-routing"
+import { CacheFirst, NetworkFirst } from "workbox-strategies"
+
+declare const self: ServiceWorkerGlobalScope & { __WB_MANIFEST: Array<{ url: string; revision: string | null }> }
+
+precacheAndRoute(self.__WB_MANIFEST)
+cleanupOutdatedCaches()
+clientsClaim()
+
+// A waiting worker takes over only when the page asks (never in the middle of a drive).
+self.addEventListener("message", (event) => {
+  if (event.data?.type === "SKIP_WAITING") void self.skipWaiting()
+})
+
+const PAGES = "straightaway-pages"
+
+registerRoute(
+  ({ request, url }) => request.mode === "navigate" && url.origin === self.location.origin,
+  new NetworkFirst({
+    cacheName: PAGES,
+    networkTimeoutSeconds: 4,
+    plugins: [new ExpirationPlugin({ maxEntries: 60, maxAgeSeconds: 14 * 24 * 3600 })],
+  }),
+)
+
+// React Server Component payloads for client-side navigation between cached pages.
+registerRoute(
+  ({ request, url }) => url.origin === self.location.origin && request.headers.get("RSC") === "1",
+  new NetworkFirst({ cacheName: "straightaway-rsc", networkTimeoutSeconds: 4, plugins: [new ExpirationPlugin({ maxEntries: 120 })] }),
+)
+
+// Read-only API data the recorder needs offline (jobs, profiles, the drive list): last good copy.
+registerRoute(
+  ({ request, url }) =>
+    request.method === "GET" && url.origin === self.location.origin && /^\/api\/(jobs|profiles|drives|session)(\/|$|\?)/.test(url.pathname),
+  new NetworkFirst({ cacheName: "straightaway-api", networkTimeoutSeconds: 4, plugins: [new ExpirationPlugin({ maxEntries: 200 })] }),
+)
+
+registerRoute(
+  ({ url }) => url.origin === self.location.origin && /\.(png|svg|ico|webmanifest)$/.test(url.pathname),
+  new CacheFirst({ cacheName: "straightaway-assets", plugins: [new ExpirationPlugin({ maxEntries: 40 })] }),
+)
