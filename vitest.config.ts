@@ -6,6 +6,7 @@ const alias = { "@": fileURLToPath(new URL(".", import.meta.url)) }
 export default defineConfig({
   resolve: { alias },
   test: {
+    reporters: ["default", "./tests/summary-reporter.ts"],
     projects: [
       { resolve: { alias }, test: { name: "unit", include: ["tests/unit/**/*.test.ts"], environment: "node" } },
       {

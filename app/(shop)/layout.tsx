@@ -4,6 +4,7 @@ import { requirePageRole } from "@/app/_server/auth"
 import { BottomNav, SideNav } from "@/components/shell/app-nav"
 import { Logo } from "@/components/shell/logo"
 import { navItemsFor } from "@/components/shell/nav-items"
+import { QueryProvider } from "@/components/shell/query-provider"
 import { SignOutButton } from "@/components/shell/sign-out-button"
 import { ThemeToggle } from "@/components/shell/theme-toggle"
 import { ROLE_LABEL } from "@/lib/auth/roles"
@@ -30,7 +31,9 @@ export default async function ShopLayout({ children }: { children: ReactNode }) 
       </header>
       <div className="flex flex-1">
         <SideNav items={items} />
-        <main className="min-w-0 flex-1 px-4 pt-4 pb-24 md:pb-8">{children}</main>
+        <main className="min-w-0 flex-1 px-4 pt-4 pb-24 md:pb-8">
+          <QueryProvider>{children}</QueryProvider>
+        </main>
       </div>
       <BottomNav items={items} />
     </div>

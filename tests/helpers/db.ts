@@ -1,0 +1,60 @@
+import { randomUUID } from "node:crypto"
+import { createDb, type Db } from "@/db/client"
+import { hashPassword } from "@/lib/auth/password"
+import type { Role } from "@/lib/auth/roles"
+import { testEnv } from "./env"
+
+export const TEST_PASSWORD = "correct-horse-battery-9"
+
+let db: Db | undefined
+export function testDb(): Db {
+  db ??= createDb(testEnv().databaseUrl)
+  return db
+}
+
+let passwordHash: Promise<string> | undefined
+
+export type TestUser = { id: string; email: string; name: string; role: Role; shopId: string; password: string }
+export type TestShop = { shopId: string; admin: TestUser; lead: TestUser; tech: TestUser; codriver: TestUser }
+
+/** A fresh shop with one person per role; every test makes its own, so tests never share rows. */
+export async function createTestShop(label = "Test"): Promise<TestShop> {
+  passwordHash ??= hashPassword(TEST_PASSWORD)
+  const hash = await passwordHash
+  const tag = randomUUID().slice(0, 8)
+  const { id: shopId } = await testDb()
+    .insertInto("shop")
+    .values({ name: `${label} shop ${tag}`, settings: JSON.stringify({ units: "imperial", tirePressureTolerancePsi: 3 }) })
+    .returning("id")
+    .executeTakeFirstOrThrow()
+  const make = async (role: Role, key: string): Promise<TestUser> => {
+    const user = { id: randomUUID(), email: `${key}-${tag}@test.invalid`, name: `${key} ${tag}`, role, shopId }
+    await testDb()
+      .insertInto("app_user")
+      .values({ id: user.id, shop_id: shopId, email: user.email, name: user.name, role, password_hash: hash })
+      .execute()
+    return { ...user, password: TEST_PASSWORD }
+  }
+  return {
+    shopId,
+    admin: await make("admin", "admin"),
+    lead: await make("shop_lead", "lead"),
+    tech: await make("technician", "tech"),
+    codriver: await make("co_driver", "codriver"),
+  }
+}
+
+/** Condition profiles like the demo seed's, for a test shop. */
+export async function createTestProfile(shopId: string, key = "forward-radar", settings: Record<string, unknown> = {}) {
+  const profile = await testDb()
+    .insertInto("condition_profile")
+    .values({ shop_id: shopId, key, name: `Profile ${key}`, sensor: "forward_radar" })
+    .returning("id")
+    .executeTakeFirstOrThrow()
+  const version = await testDb()
+    .insertInto("condition_profile_version")
+    .values({ shop_id: shopId, profile_id: profile.id, version: 1, settings: JSON.stringify(settings) })
+    .returning("id")
+    .executeTakeFirstOrThrow()
+  return { profileId: profile.id, versionId: version.id }
+}

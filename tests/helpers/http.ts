@@ -1,0 +1,56 @@
+import { testEnv } from "./env"
+
+let addressCounter = 0
+/** A distinct client address per test client (the test server trusts X-Forwarded-For), so throttling stays per test. */
+export function freshClientAddress() {
+  addressCounter += 1
+  return `test-client-${process.pid}-${addressCounter}`
+}
+
+export type ApiResponse<T = any> = { status: number; headers: Headers; body: T; text: string }
+
+/** A small HTTP client that keeps one session cookie, like a browser tab. */
+export class ApiClient {
+  cookie: string | null = null
+  constructor(readonly address = freshClientAddress()) {}
+
+  async request<T = any>(method: string, path: string, body?: unknown, init: { raw?: string | Uint8Array; headers?: Record<string, string> } = {}): Promise<ApiResponse<T>> {
+    const headers: Record<string, string> = { "x-forwarded-for": this.address, ...init.headers }
+    if (this.cookie) headers.cookie = this.cookie
+    let payload: string | Uint8Array | undefined = init.raw
+    if (body !== undefined) {
+      headers["content-type"] ??= "application/json"
+      payload = JSON.stringify(body)
+    }
+    const res = await fetch(`${testEnv().baseUrl}${path}`, { method, headers, body: payload as BodyInit | undefined, redirect: "manual" })
+    const setCookie = res.headers.get("set-cookie")
+    if (setCookie) {
+      const pair = setCookie.split(";")[0]!
+      this.cookie = pair.endsWith("=") ? null : pair
+    }
+    const text = await res.text()
+    let parsed: unknown = text
+    if ((res.headers.get("content-type") ?? "").includes("json") && text) parsed = JSON.parse(text)
+    return { status: res.status, headers: res.headers, body: parsed as T, text }
+  }
+
+  get<T = any>(path: string) {
+    return this.request<T>("GET", path)
+  }
+  post<T = any>(path: string, body?: unknown) {
+    return this.request<T>("POST", path, body ?? {})
+  }
+  patch<T = any>(path: string, body: unknown) {
+    return this.request<T>("PATCH", path, body)
+  }
+  delete<T = any>(path: string) {
+    return this.request<T>("DELETE", path)
+  }
+}
+
+export async function signedIn(user: { email: string; password: string }) {
+  const client = new ApiClient()
+  const res = await client.post("/api/session", { email: user.email, password: user.password })
+  if (res.status !== 200) throw new Error(`sign-in as ${user.email} failed: ${res.status} ${res.text}`)
+  return client
+}
