@@ -1,0 +1,88 @@
+import { getPreciseDistance } from "geolib"
+import fc from "fast-check"
+import { describe, expect, it } from "vitest"
+import { geodesicDistanceM, scoreDrive } from "@/lib/scoring"
+import { T0, drive } from "../helpers/drive"
+
+const dms = (d: number, m: number, s: number) => Math.sign(d) * (Math.abs(d) + m / 60 + s / 3600)
+// Geoscience Australia, "Vincenty's Inverse" worked example (check-values §3a)
+const FLINDERS_PEAK = { lat: dms(-37, 57, 3.7203), lon: dms(144, 25, 29.5244) }
+const BUNINYONG = { lat: dms(-37, 39, 10.1561), lon: dms(143, 55, 35.3839) }
+const GA_DISTANCE_M = 54972.271
+
+// geolib 3.3.14 returns NaN for accuracy 0 (check-values §3c), so the reference uses 1e-6.
+const geolibM = (a: { lat: number; lon: number }, b: { lat: number; lon: number }) =>
+  getPreciseDistance({ latitude: a.lat, longitude: a.lon }, { latitude: b.lat, longitude: b.lon }, 1e-6)
+
+describe("geodesic distance (Vincenty, WGS-84)", () => {
+  it("matches the Geoscience Australia example Flinders Peak -> Buninyong, 54 972.271 m, to 1 mm", () => {
+    expect(Math.abs(geodesicDistanceM(FLINDERS_PEAK.lat, FLINDERS_PEAK.lon, BUNINYONG.lat, BUNINYONG.lon) - GA_DISTANCE_M)).toBeLessThan(0.001)
+    expect(Math.abs(geolibM(FLINDERS_PEAK, BUNINYONG) - GA_DISTANCE_M)).toBeLessThan(0.001)
+  })
+
+  it("scores a two-sample track Flinders Peak -> Buninyong within 0.2 % of 54 972.271 m (Geoscience Australia)", () => {
+    const s = scoreDrive(
+      drive([
+        { t: T0, ...FLINDERS_PEAK },
+        { t: T0 + 3_600_000, ...BUNINYONG },
+      ]),
+    )
+    expect(Math.abs(s.distanceMeters - GA_DISTANCE_M) / GA_DISTANCE_M).toBeLessThan(0.002)
+  })
+
+  // Karney, geographiclib geodtest.c testcases[0..2] (check-values §3b)
+  it.each([
+    [35.60777, -139.44815, -11.17491, -69.95921, 8935244.5604818305],
+    [55.52454, 106.05087, 77.03196, 197.18234, 4105086.1713924406],
+    [-21.97856, 142.59065, 41.84138, 98.56635, 8394328.894657671],
+  ])("matches Karney's geodesic test case (%f, %f) -> (%f, %f) = %f m", (lat1, lon1, lat2, lon2, s12) => {
+    const d = geodesicDistanceM(lat1, lon1, lat2, lon2)
+    expect(Math.abs(d - s12) / s12).toBeLessThan(0.002)
+    expect(Math.abs(d - s12)).toBeLessThan(0.001)
+  })
+
+  // geolib's own test, Berlin -> Dortmund, Karney gives 422 591.5505 m (check-values §3c)
+  it("matches Berlin -> Dortmund 422 591.5505 m (Karney; geolib test suite)", () => {
+    expect(geodesicDistanceM(52.518611, 13.408056, 51.519475, 7.46694444)).toBeCloseTo(422591.5505, 3)
+  })
+
+  // Karney geodesic (WGS-84), check-values §3c
+  it("matches short Karney oracles: 1° lat at the equator, 0.001° steps", () => {
+    expect(geodesicDistanceM(0, 0, 1, 0)).toBeCloseTo(110574.3886, 3)
+    expect(geodesicDistanceM(0, 0, 0, 1)).toBeCloseTo(111319.4908, 3)
+    expect(geodesicDistanceM(45, 0, 45.001, 0)).toBeCloseTo(111.1318, 3)
+    expect(geodesicDistanceM(40, -75, 40, -74.999)).toBeCloseTo(85.3939, 3)
+  })
+
+  it("agrees with geolib getPreciseDistance on GPS-sized steps, across the 180° meridian too", () => {
+    fc.assert(
+      fc.property(
+        // GPS-like coordinates (7 decimals); geolib itself gives NaN for sub-nanometre inputs
+        fc.integer({ min: -800_000_000, max: 800_000_000 }).map((x) => x / 1e7),
+        fc.integer({ min: -1_800_000_000, max: 1_800_000_000 }).map((x) => x / 1e7),
+        fc.integer({ min: -100_000, max: 100_000 }).map((x) => x / 1e7),
+        fc.integer({ min: 1, max: 100_000 }).map((x) => x / 1e7),
+        (lat, lon, dLat, dLon) => {
+          let lon2 = lon + dLon
+          if (lon2 > 180) lon2 -= 360
+          if (lon2 < -180) lon2 += 360
+          const a = { lat, lon }
+          const b = { lat: lat + dLat, lon: lon2 }
+          expect(Math.abs(geodesicDistanceM(a.lat, a.lon, b.lat, b.lon) - geolibM(a, b))).toBeLessThan(2e-6)
+        },
+      ),
+    )
+    const a = { lat: 10, lon: 179.9999 }
+    const b = { lat: 10, lon: -179.9999 }
+    expect(geodesicDistanceM(a.lat, a.lon, b.lat, b.lon)).toBeCloseTo(geolibM(a, b), 5)
+  })
+
+  it("gives 0 for coincident points and a finite value where Vincenty does not converge", () => {
+    expect(geodesicDistanceM(44, -92, 44, -92)).toBe(0)
+    // Nearly antipodal: geolib returns NaN here; we fall back to the mean-radius great circle.
+    expect(Number.isNaN(geolibM({ lat: 0, lon: 0 }, { lat: 0.5, lon: 179.7 }))).toBe(true)
+    const d = geodesicDistanceM(0, 0, 0.5, 179.7)
+    expect(d).toBeGreaterThan(19_900_000)
+    expect(d).toBeLessThan(20_040_000)
+  })
+})
