@@ -35,7 +35,7 @@ const env = {
   DATABASE_URL: databaseUrl,
   APP_SECRET: appSecret(testRoot),
   APP_URL: `http://127.0.0.1:${port}`,
-  BASE_URL: `http://127.0.0.1:${port}`,
+  TEST_BASE_URL: `http://127.0.0.1:${port}`,
   CHROMIUM_PATH: chromium,
   TRUST_PROXY: "1",
   NODE_ENV: "production",
@@ -49,7 +49,7 @@ try {
   run(npx("tsx"), ["db/migrate.ts"], { env })
   ensureBuild()
   server = startChild(npx("next"), ["start", "-H", "127.0.0.1", "-p", String(port)], { env, name: "next" })
-  await waitForHttp(`${env.BASE_URL}/api/health`, 60_000)
+  await waitForHttp(`${env.TEST_BASE_URL}/api/health`, 60_000)
   const args = ["run", ...process.argv.slice(2)]
   const res = run(npx("vitest"), args, { env: { ...env, NODE_ENV: "test" }, check: false })
   code = res.status ?? 1
