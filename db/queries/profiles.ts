@@ -1,0 +1,143 @@
+import type { Kysely, Transaction } from "kysely"
+import { resolveProfile, type Profile, type ResolvedProfile } from "@/lib/drive-file"
+import type { Db } from "../client"
+import type { Database } from "../types"
+
+type Executor = Db | Kysely<Database> | Transaction<Database>
+
+/** A profile at one version, settings resolved (every drive-file profile key filled). */
+export type ProfileVersionInfo = {
+  profileId: string
+  key: string
+  name: string
+  sensor: string | null
+  version: number
+  versionId: string
+  settings: ResolvedProfile
+}
+
+function versionQuery(db: Executor, shopId: string) {
+  return db
+    .selectFrom("condition_profile as p")
+    .innerJoin("condition_profile_version as v", (j) =>
+      j.onRef("v.profile_id", "=", "p.id").onRef("v.version", "=", "p.current_version").on("v.shop_id", "=", shopId),
+    )
+    .select(["p.id as profileId", "p.key", "p.name", "p.sensor", "v.version", "v.id as versionId", "v.settings"])
+    .where("p.shop_id", "=", shopId)
+}
+
+function toInfo(row: { profileId: string; key: string; name: string; sensor: string | null; version: number; versionId: string; settings: Record<string, unknown> }): ProfileVersionInfo {
+  return { ...row, settings: resolveProfile(row.settings as Profile) }
+}
+
+/** The current version of the profile a job task uses; undefined when the task has none or is not in the shop. */
+export async function findProfileVersionForTask(db: Executor, taskId: string, shopId: string): Promise<ProfileVersionInfo | undefined> {
+  const row = await versionQuery(db, shopId)
+    .innerJoin("job_task as t", (j) => j.onRef("t.profile_id", "=", "p.id").on("t.shop_id", "=", shopId))
+    .where("t.id", "=", taskId)
+    .executeTakeFirst()
+  return row ? toInfo(row) : undefined
+}
+
+/** The current version of the shop's profile with this key (archived ones too: old links keep working). */
+export async function findCurrentProfileVersionByKey(db: Executor, key: string, shopId: string): Promise<ProfileVersionInfo | undefined> {
+  const row = await versionQuery(db, shopId).where("p.key", "=", key).executeTakeFirst()
+  return row ? toInfo(row) : undefined
+}
+
+export async function findCurrentProfileVersionById(db: Executor, profileId: string, shopId: string): Promise<ProfileVersionInfo | undefined> {
+  const row = await versionQuery(db, shopId).where("p.id", "=", profileId).executeTakeFirst()
+  return row ? toInfo(row) : undefined
+}
+
+/** A profile version by its id (what a drive points at), shop-checked. */
+export async function findProfileVersionById(db: Executor, versionId: string, shopId: string): Promise<ProfileVersionInfo | undefined> {
+  const row = await db
+    .selectFrom("condition_profile_version as v")
+    .innerJoin("condition_profile as p", "p.id", "v.profile_id")
+    .select(["p.id as profileId", "p.key", "p.name", "p.sensor", "v.version", "v.id as versionId", "v.settings"])
+    .where("v.id", "=", versionId)
+    .where("v.shop_id", "=", shopId)
+    .executeTakeFirst()
+  return row ? toInfo(row) : undefined
+}
+
+export async function listProfiles(db: Executor, shopId: string, { includeArchived = true } = {}) {
+  let q = versionQuery(db, shopId).select(["p.archived", "p.created_at as createdAt", "v.created_at as versionCreatedAt"])
+  if (!includeArchived) q = q.where("p.archived", "=", false)
+  const rows = await q.orderBy("p.archived").orderBy("p.name").execute()
+  return rows.map((r) => ({ ...toInfo(r), archived: r.archived, createdAt: r.createdAt, versionCreatedAt: r.versionCreatedAt }))
+}
+
+export function listProfileVersions(db: Executor, profileId: string, shopId: string) {
+  return db
+    .selectFrom("condition_profile_version as v")
+    .leftJoin("app_user as u", (j) => j.onRef("u.id", "=", "v.created_by").on("u.shop_id", "=", shopId))
+    .select(["v.id", "v.version", "v.settings", "v.created_at as createdAt", "u.name as createdByName"])
+    .where("v.profile_id", "=", profileId)
+    .where("v.shop_id", "=", shopId)
+    .orderBy("v.version", "desc")
+    .execute()
+}
+
+export function findProfileInShop(db: Executor, profileId: string, shopId: string) {
+  return db.selectFrom("condition_profile").selectAll().where("id", "=", profileId).where("shop_id", "=", shopId).executeTakeFirst()
+}
+
+export function findProfileByKey(db: Executor, key: string, shopId: string) {
+  return db.selectFrom("condition_profile").select(["id"]).where("key", "=", key).where("shop_id", "=", shopId).executeTakeFirst()
+}
+
+/** The profile a new task of this sensor gets by default: the shop's oldest active profile for the sensor. */
+export function findDefaultProfileForSensor(db: Executor, sensor: string, shopId: string) {
+  return db
+    .selectFrom("condition_profile")
+    .select(["id"])
+    .where("shop_id", "=", shopId)
+    .where("sensor", "=", sensor)
+    .where("archived", "=", false)
+    .orderBy("created_at")
+    .orderBy("key")
+    .executeTakeFirst()
+}
+
+export async function insertProfile(
+  db: Executor,
+  input: { shopId: string; key: string; name: string; sensor: string | null; settings: ResolvedProfile; userId: string },
+) {
+  const profile = await db
+    .insertInto("condition_profile")
+    .values({ shop_id: input.shopId, key: input.key, name: input.name, sensor: input.sensor, current_version: 1 })
+    .returning(["id"])
+    .executeTakeFirstOrThrow()
+  await db
+    .insertInto("condition_profile_version")
+    .values({ shop_id: input.shopId, profile_id: profile.id, version: 1, settings: JSON.stringify(input.settings), created_by: input.userId })
+    .execute()
+  return profile.id
+}
+
+/**
+ * Adds a version and makes it current. Old versions are never changed, so a drive that points at one keeps
+ * the settings it was scored with. Locks the profile row so two edits cannot take the same number.
+ */
+export async function insertProfileVersion(db: Transaction<Database>, profileId: string, shopId: string, settings: ResolvedProfile, userId: string) {
+  const profile = await db
+    .selectFrom("condition_profile")
+    .select(["current_version"])
+    .where("id", "=", profileId)
+    .where("shop_id", "=", shopId)
+    .forUpdate()
+    .executeTakeFirstOrThrow()
+  const version = profile.current_version + 1
+  await db
+    .insertInto("condition_profile_version")
+    .values({ shop_id: shopId, profile_id: profileId, version, settings: JSON.stringify(settings), created_by: userId })
+    .execute()
+  await db.updateTable("condition_profile").set({ current_version: version }).where("id", "=", profileId).where("shop_id", "=", shopId).execute()
+  return version
+}
+
+export function updateProfileFields(db: Executor, profileId: string, shopId: string, changes: { name?: string; sensor?: string | null; archived?: boolean }) {
+  return db.updateTable("condition_profile").set(changes).where("id", "=", profileId).where("shop_id", "=", shopId).execute()
+}

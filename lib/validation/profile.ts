@@ -1,0 +1,50 @@
+import { z } from "zod"
+import { profileSchema } from "@/lib/drive-file"
+import { SENSORS } from "@/lib/validation/job"
+
+export const profileKeySchema = z
+  .string()
+  .trim()
+  .toLowerCase()
+  .min(2, "must be at least 2 characters")
+  .max(60, "must be at most 60 characters")
+  .regex(/^[a-z0-9]+(-[a-z0-9]+)*$/, "must be lower-case letters and digits joined by dashes (e.g. forward-radar)")
+
+/** Profile settings are a drive file's `profile`; stored resolved (every key filled) in each version. */
+export const profileSettingsSchema = profileSchema
+
+export const newProfileSchema = z.object({
+  key: profileKeySchema.optional(),
+  name: z.string().trim().min(1, "is required").max(120, "must be at most 120 characters"),
+  sensor: z.enum(SENSORS).nullable().optional(),
+  settings: profileSettingsSchema.default({}),
+})
+export type NewProfile = z.output<typeof newProfileSchema>
+
+export const profileChangeSchema = z
+  .object({
+    name: z.string().trim().min(1, "is required").max(120).optional(),
+    sensor: z.enum(SENSORS).nullable().optional(),
+    archived: z.boolean().optional(),
+    settings: profileSettingsSchema.optional(),
+  })
+  .refine((v) => Object.values(v).some((x) => x !== undefined), "Nothing to change.")
+export type ProfileChange = z.output<typeof profileChangeSchema>
+
+export function keyFromName(name: string): string {
+  const key = name
+    .toLowerCase()
+    .normalize("NFKD")
+    .replace(/[^a-z0-9]+/g, "-")
+    .replace(/^-+|-+$/g, "")
+    .slice(0, 60)
+    .replace(/-+$/g, "")
+  return key.length >= 2 ? key : `profile-${key || "x"}`
+}
+
+export const shopSettingsSchema = z
+  .object({
+    units: z.enum(["imperial", "metric"]).optional(),
+    tirePressureTolerancePsi: z.number().min(0.5, "must be at least 0.5 psi").max(15, "must be at most 15 psi").optional(),
+  })
+  .refine((v) => Object.values(v).some((x) => x !== undefined), "Nothing to change.")
