@@ -1,0 +1,142 @@
+import { z } from "zod"
+import { vinSchema } from "@/lib/validation/vin"
+
+export const SENSORS = ["forward_radar", "forward_camera", "corner_radar", "rear_radar", "surround_camera", "other"] as const
+export const METHODS = ["dynamic", "static", "both"] as const
+export const REASONS = [
+  "removed_and_reinstalled",
+  "replaced",
+  "bumper_or_grille_work",
+  "windshield_replaced",
+  "wheel_alignment",
+  "fault_code",
+  "service_bulletin",
+  "other",
+] as const
+export const JOB_STATUSES = ["open", "drive", "review", "complete", "redo"] as const
+
+export type Sensor = (typeof SENSORS)[number]
+export type Method = (typeof METHODS)[number]
+export type Reason = (typeof REASONS)[number]
+export type JobStatusValue = (typeof JOB_STATUSES)[number]
+
+export const SENSOR_LABEL: Record<Sensor, string> = {
+  forward_radar: "Forward radar",
+  forward_camera: "Forward camera",
+  corner_radar: "Corner radar",
+  rear_radar: "Rear radar",
+  surround_camera: "Surround camera",
+  other: "Other sensor",
+}
+export const METHOD_LABEL: Record<Method, string> = {
+  dynamic: "Drive learn (dynamic)",
+  static: "Target set-up (static)",
+  both: "Static, then a drive",
+}
+export const REASON_LABEL: Record<Reason, string> = {
+  removed_and_reinstalled: "Sensor removed and put back",
+  replaced: "Sensor replaced",
+  bumper_or_grille_work: "Bumper or grille work",
+  windshield_replaced: "Windshield replaced",
+  wheel_alignment: "Wheel alignment",
+  fault_code: "Fault code set",
+  service_bulletin: "Service bulletin",
+  other: "Other reason",
+}
+export const JOB_STATUS_LABEL: Record<JobStatusValue, string> = {
+  open: "Open",
+  drive: "Driving",
+  review: "Needs review",
+  complete: "Complete",
+  redo: "Drive again",
+}
+
+// Forms send "" for an empty optional box; the API treats "" and a missing key alike.
+const optionalText = (max: number) =>
+  z
+    .string()
+    .trim()
+    .max(max, `must be at most ${max} characters`)
+    .optional()
+    .nullable()
+    .transform((v) => (v ? v : null))
+
+const optionalEmail = z
+  .string()
+  .trim()
+  .max(254)
+  .optional()
+  .nullable()
+  .refine((v) => !v || z.email().safeParse(v).success, "must be an e-mail address")
+  .transform((v) => (v ? v.toLowerCase() : null))
+
+const optionalYear = z
+  .union([z.number(), z.string()])
+  .optional()
+  .nullable()
+  .transform((v, ctx) => {
+    if (v === undefined || v === null || v === "") return null
+    const n = typeof v === "number" ? v : Number(v)
+    if (!Number.isInteger(n) || n < 1980 || n > 2100) {
+      ctx.addIssue({ code: "custom", message: "must be a model year between 1980 and 2100" })
+      return z.NEVER
+    }
+    return n
+  })
+
+export const roNumberSchema = z.string().trim().min(1, "is required").max(40, "must be at most 40 characters")
+
+export const customerSchema = z.object({
+  name: z.string().trim().min(1, "is required").max(120, "must be at most 120 characters"),
+  email: optionalEmail,
+  phone: optionalText(40),
+})
+
+export const vehicleSchema = z.object({
+  vin: vinSchema,
+  year: optionalYear,
+  make: optionalText(60),
+  model: optionalText(60),
+  plate: optionalText(20),
+})
+
+export const taskSchema = z.object({
+  id: z.uuid().optional(),
+  sensor: z.enum(SENSORS, { error: "must be one of " + SENSORS.join(", ") }),
+  method: z.enum(METHODS, { error: "must be one of " + METHODS.join(", ") }),
+  reason: z.enum(REASONS, { error: "must be one of " + REASONS.join(", ") }),
+  profileId: z.uuid().optional().nullable(),
+})
+
+export const newJobSchema = z.object({
+  roNumber: roNumberSchema,
+  customer: customerSchema,
+  vehicle: vehicleSchema,
+  tasks: z.array(taskSchema).min(1, "add at least one calibration").max(12, "at most 12 calibrations per job"),
+})
+export type NewJobInput = z.input<typeof newJobSchema>
+export type NewJob = z.output<typeof newJobSchema>
+
+/** PATCH: every part optional; `tasks` replaces the list (tasks keep their id; a task without one is new). */
+export const jobChangeSchema = z
+  .object({
+    roNumber: roNumberSchema.optional(),
+    customer: customerSchema.optional(),
+    vehicle: vehicleSchema.optional(),
+    tasks: newJobSchema.shape.tasks.optional(),
+  })
+  .refine((v) => Object.values(v).some((x) => x !== undefined), "Nothing to change.")
+export type JobChange = z.output<typeof jobChangeSchema>
+
+export const JOB_SORTS = ["createdAt", "updatedAt", "roNumber", "customer", "status"] as const
+export type JobSort = (typeof JOB_SORTS)[number]
+
+export const jobListQuerySchema = z.object({
+  status: z.enum(JOB_STATUSES, { error: "must be one of " + JOB_STATUSES.join(", ") }).optional(),
+  q: z.string().trim().max(100).optional(),
+  cursor: z.string().max(400).optional(),
+  sort: z.enum(JOB_SORTS).default("createdAt"),
+  dir: z.enum(["asc", "desc"]).default("desc"),
+  limit: z.coerce.number().int().min(1).max(100).default(25),
+})
+export type JobListQuery = z.output<typeof jobListQuerySchema>
