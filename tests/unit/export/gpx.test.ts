@@ -24,16 +24,21 @@ function validate(xml: string): { ok: boolean; output: string } {
   return { ok: r.status === 0, output: `${r.stdout}${r.stderr}` }
 }
 
-function readBack(xml: string) {
+interface ReadBackFeature {
+  geometry: { type: string; coordinates: unknown } | null
+  properties: Record<string, unknown> | null
+}
+
+function readBack(xml: string): { features: ReadBackFeature[] } {
   const doc = new DOMParser().parseFromString(xml, "text/xml")
-  return gpxToGeoJson(doc as unknown as Document)
+  return gpxToGeoJson(doc as unknown as Document) as unknown as { features: ReadBackFeature[] }
 }
 
 function trackCoordinates(fc: ReturnType<typeof readBack>): number[][] {
   const track = fc.features.find((f) => f.geometry?.type === "LineString" || f.geometry?.type === "MultiLineString")!
   const g = track.geometry!
-  if (g.type === "LineString") return g.coordinates
-  if (g.type === "MultiLineString") return g.coordinates.flat()
+  if (g.type === "LineString") return g.coordinates as number[][]
+  if (g.type === "MultiLineString") return (g.coordinates as number[][][]).flat()
   throw new Error("no track")
 }
 
