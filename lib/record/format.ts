@@ -1,0 +1,69 @@
+import type { Verdict } from "@/lib/scoring/types"
+import { mToMi } from "@/lib/units"
+
+export const VERDICT_WORD: Record<Verdict, string> = { met: "Met", short: "Short", not_met: "Not met", unverified: "Unverified" }
+
+/** Minutes with one decimal; below the requirement it rounds down, so a shortfall never reads as met (as the scorer words it). */
+export function formatMinutes(seconds: number, requiredSeconds = Infinity): string {
+  const m = seconds / 60
+  return (seconds < requiredSeconds ? Math.floor(m * 10) / 10 : Math.round(m * 10) / 10).toFixed(1)
+}
+
+export function formatMiles(meters: number): string {
+  return mToMi(meters).toFixed(1)
+}
+
+export function formatDuration(seconds: number): string {
+  const total = Math.round(seconds)
+  const h = Math.floor(total / 3600)
+  const m = Math.floor((total % 3600) / 60)
+  const s = total % 60
+  return h > 0 ? `${h} h ${m} min` : `${m} min ${String(s).padStart(2, "0")} s`
+}
+
+export const SENSOR_LABEL: Record<string, string> = {
+  forward_radar: "Forward radar",
+  forward_camera: "Forward camera",
+  corner_radar: "Corner radar",
+  rear_radar: "Rear radar",
+  surround_camera: "Surround camera",
+  other: "Other sensor",
+}
+
+export const METHOD_LABEL: Record<string, string> = { dynamic: "Drive learn (dynamic)", static: "Static", both: "Static and drive learn" }
+
+export const REASON_LABEL: Record<string, string> = {
+  removed_and_reinstalled: "Sensor removed and put back",
+  replaced: "Sensor replaced",
+  bumper_or_grille_work: "Bumper or grille work",
+  windshield_replaced: "Windshield replaced",
+  wheel_alignment: "Wheel alignment",
+  fault_code: "Fault code",
+  service_bulletin: "Service bulletin",
+  other: "Other",
+}
+
+export const MARK_LABEL: Record<string, string> = {
+  "lead-on": "Lead on",
+  gap: "Gap",
+  "lead-off": "Lead off",
+  cleared: "Cleared",
+  stopped: "Stopped",
+  verified: "Verified",
+  "verify-failed": "Verify failed",
+  note: "Note",
+}
+
+export function describeVehicle(v: { year: number | null; make: string | null; model: string | null } | null, fallback?: string | null) {
+  if (!v) return fallback ?? "Vehicle not named"
+  return [v.year, v.make, v.model].filter(Boolean).join(" ") || fallback || "Vehicle not named"
+}
+
+/** The cautions every record carries, in our own words. */
+export const RECORD_CAUTIONS = [
+  "The vehicle's own confirmation that the learn is complete, and the vehicle maker's calibration procedure, govern. This record does not replace either.",
+  "This record documents how the drive went. It does not certify that the sensor is aimed or working.",
+  "If a warning light, fault code or odd driver-assist behaviour appears later, stop relying on the system and bring the vehicle back.",
+] as const
+
+export const DECISION_WORD = { approve: "Approved", redo: "Sent back for another drive" } as const

@@ -1,0 +1,6 @@
+export { buildDriveRecordPdf, toWinAnsi } from "./pdf"
+export { checklistRows } from "./checklist"
+export { computeTimeline, projectTrack, thinTimeline, STATE_LABEL } from "./timeline"
+export type { StretchState, TimelinePoint, TrackPath } from "./timeline"
+export * from "./format"
+export type { ChecklistRow, RecordData, RecordMark, RecordPhoto } from "./types"

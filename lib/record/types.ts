@@ -1,0 +1,46 @@
+import type { Score } from "@/lib/scoring/types"
+import type { TimelinePoint } from "./timeline"
+
+export interface RecordPhoto {
+  filename: string
+  contentType: string
+  bytes: Uint8Array
+}
+
+export interface RecordMark {
+  t: number
+  kind: string
+  gapFt: number | null
+  text: string | null
+  byName: string | null
+}
+
+export interface ChecklistRow {
+  label: string
+  value: string
+  /** null = shown for information, not a pass/fail check. */
+  ok: boolean | null
+}
+
+/** Everything the drive record shows, as plain data: the PDF, the share page and the detail page read this. */
+export interface RecordData {
+  driveId: string
+  shopName: string
+  job: { roNumber: string; customerName: string } | null
+  vehicle: { vin: string; year: number | null; make: string | null; model: string | null; plate: string | null } | null
+  vehicleDescription: string | null
+  task: { sensor: string; method: string; reason: string } | null
+  profileName: string | null
+  checklist: { rows: ChecklistRow[]; notes: string; completedBy: string | null; completedAt: string | null } | null
+  photos: RecordPhoto[]
+  score: Score
+  timeline: TimelinePoint[]
+  marks: RecordMark[]
+  driverName: string | null
+  coDriverName: string | null
+  markLoggers: string[]
+  review: { decision: "approve" | "redo"; note: string; reviewerName: string | null; at: string } | null
+  startedAt: string | null
+  finishedAt: string | null
+  generatedAt: string
+}

@@ -1,0 +1,133 @@
+import { PDFParse } from "pdf-parse"
+import { describe, expect, it } from "vitest"
+import { resolveProfile } from "@/lib/drive-file/profile"
+import { buildDriveRecordPdf, checklistRows, computeTimeline, formatMinutes, projectTrack, toWinAnsi, type RecordData } from "@/lib/record"
+import { scoreDrive } from "@/lib/scoring"
+import { generateDrive } from "@/lib/tracks"
+import { withCheckDigit } from "@/lib/vin"
+
+// A 1x1 PNG (PNG spec, ISO/IEC 15948: signature, IHDR, IDAT, IEND).
+const PNG_1X1 = Uint8Array.from(
+  Buffer.from("iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mNk+M9QDwADhgGAWjR9awAAAABJRU5ErkJggg==", "base64"),
+)
+
+async function pdfText(bytes: Uint8Array) {
+  const parser = new PDFParse({ data: Buffer.from(bytes) })
+  try {
+    return (await parser.getText()).text
+  } finally {
+    await parser.destroy()
+  }
+}
+
+function recordFor(pattern: "met" | "short", vin: string): RecordData {
+  const file = generateDrive({ seed: pattern === "met" ? 11 : 12, pattern, minutes: pattern === "met" ? 18 : 9 })
+  const score = scoreDrive(file)
+  return {
+    driveId: "5d7c2a9e-1b3f-4e8a-9c6d-0f1e2d3c4b5a",
+    shopName: "Juniper Flats Body Works",
+    job: { roNumber: "RO-7731", customerName: "Ines Marrow" },
+    vehicle: { vin, year: 2024, make: "Corvane", model: "Tessel", plate: "QX 4410" },
+    vehicleDescription: null,
+    task: { sensor: "forward_radar", method: "dynamic", reason: "bumper_or_grille_work" },
+    profileName: "Forward radar, drive learn",
+    checklist: {
+      rows: checklistRows({
+        faultCodes: { none: true, expected: [] },
+        tires: { unit: "psi", placard: 35, fl: 35, fr: 34, rl: 35, rr: 36 },
+        loadNormal: true,
+        fuelLevel: "3/4",
+        sensorClean: true,
+        mountUndamaged: true,
+        alignmentChecked: true,
+        notes: "",
+      }),
+      notes: "Cover wiped before the drive.",
+      completedBy: "Ada Fenwick",
+      completedAt: "2026-03-02T09:00:00.000Z",
+    },
+    photos: [{ filename: "mount.png", contentType: "image/png", bytes: PNG_1X1 }],
+    score,
+    timeline: computeTimeline(file.samples, file.marks, resolveProfile(file.profile)),
+    marks: file.marks.map((m) => ({ t: m.t, kind: m.kind, gapFt: m.gapFt ?? null, text: m.text ?? null, byName: "Ada Fenwick" })),
+    driverName: "Ada Fenwick",
+    coDriverName: "Cyril Oduya",
+    markLoggers: ["Ada Fenwick"],
+    review: null,
+    startedAt: "2026-03-02T09:10:00.000Z",
+    finishedAt: "2026-03-02T09:30:00.000Z",
+    generatedAt: "2026-03-02T10:00:00.000Z",
+  }
+}
+
+describe("drive record PDF", () => {
+  it("holds the VIN, the verdict word and the qualifying minutes of a short drive", async () => {
+    const vin = withCheckDigit("1C4RJFBG0FC625797")
+    const data = recordFor("short", vin)
+    expect(data.score.verdict).toBe("short")
+    const text = await pdfText(await buildDriveRecordPdf(data))
+    expect(text).toContain(vin)
+    expect(text).toContain("Short")
+    const qualifying = formatMinutes(data.score.qualifyingSecondsBeforeClear, 600)
+    expect(text).toContain(`${qualifying} min (10.0 min needed)`)
+    expect(text).toContain("RO-7731")
+    expect(text).toContain("Bumper or grille work")
+    // The cautions travel with every record.
+    expect(text).toContain("does not certify")
+    expect(text).toContain("maker's calibration procedure")
+  })
+
+  it("shows a met drive as Met with its function-check speed and the reviewer's decision", async () => {
+    const data = recordFor("met", withCheckDigit("2HGFB2F50DH512345"))
+    data.review = { decision: "approve", note: "Clean drive.", reviewerName: "Bo Lindqvist", at: "2026-03-02T11:00:00.000Z" }
+    expect(data.score.verdict).toBe("met")
+    const text = await pdfText(await buildDriveRecordPdf(data))
+    expect(text).toContain("Met")
+    expect(text).toContain("Approved by Bo Lindqvist")
+    const verified = data.score.conditions.find((c) => c.key === "verified")!
+    expect(text).toContain(`at ${verified.value} mph`)
+    expect(text).toContain("Cyril Oduya")
+  })
+
+  it("still builds when a photo's bytes are not an image", async () => {
+    const data = recordFor("short", withCheckDigit("1C4RJFBG0FC625797"))
+    data.photos = [{ filename: "broken.jpg", contentType: "image/jpeg", bytes: new Uint8Array([1, 2, 3]) }]
+    const text = await pdfText(await buildDriveRecordPdf(data))
+    expect(text).toContain("broken.jpg could not be read")
+  })
+})
+
+describe("record helpers", () => {
+  it("rounds minutes down while short of the need, so 599 s never reads as 10.0", () => {
+    expect(formatMinutes(599, 600)).toBe("9.9")
+    expect(formatMinutes(600, 600)).toBe("10.0")
+  })
+
+  it("turns characters the standard PDF fonts lack into plain look-alikes", () => {
+    expect(toWinAnsi("speed ≥ 35 mph → ok, 3.4 m/s²")).toBe("speed >= 35 mph -> ok, 3.4 m/s²")
+    expect(toWinAnsi("漢")).toBe("?")
+  })
+
+  it("fails a tire more than the tolerance off its placard pressure", () => {
+    const rows = checklistRows({ tires: { unit: "psi", placard: 35, fl: 35, fr: 35, rl: 31, rr: 35 } }, 3)
+    expect(rows.find((r) => r.label.startsWith("Tire"))!.ok).toBe(false)
+    const kpa = checklistRows({ tires: { unit: "kPa", placard: 240, fl: 260, fr: 240, rl: 240, rr: 240 } }, 3)
+    // NIST SP 811: 1 psi = 6.894757 kPa, so 3 psi = 20.68 kPa; 20 kPa off is inside.
+    expect(kpa.find((r) => r.label.startsWith("Tire"))!.ok).toBe(true)
+  })
+
+  it("colours the track by state and keeps it inside the box", () => {
+    const file = generateDrive({ seed: 5, pattern: "met", minutes: 16 })
+    const timeline = computeTimeline(file.samples, file.marks, resolveProfile(file.profile))
+    const paths = projectTrack(timeline, 300, 200, 10)
+    const states = new Set(paths.map((p) => p.state))
+    expect(states.has("qualifying") || states.has("following")).toBe(true)
+    expect(states.has("following")).toBe(true)
+    for (const p of paths) for (const [x, y] of p.points) {
+      expect(x).toBeGreaterThanOrEqual(9.99)
+      expect(x).toBeLessThanOrEqual(290.01)
+      expect(y).toBeGreaterThanOrEqual(9.99)
+      expect(y).toBeLessThanOrEqual(190.01)
+    }
+  })
+})
