@@ -176,6 +176,8 @@ export interface MarkTable {
   text: string | null
   created_by: string | null
   created_at: GeneratedTimestamp
+  /** Arrival order, for marks logged at the same millisecond. */
+  seq: Generated<number>
 }
 
 export interface ScoreTable {

@@ -1,0 +1,72 @@
+import "server-only"
+import type { Db } from "@/db/client"
+import {
+  findCurrentProfileVersion,
+  findJobForDrive,
+  findTaskForDrive,
+  findUserInShop,
+  type NewDriveValues,
+} from "@/db/queries/drives"
+import type { DriveActor } from "@/lib/access/drive"
+import { resolveProfile, type Profile } from "@/lib/drive-file"
+import { validationFailed } from "@/lib/errors"
+import type { CreateDriveInput } from "@/lib/validation/drive"
+
+/**
+ * Checks what a new drive refers to (job, task, co-driver, profile: all in the actor's shop; anything
+ * else is a 400 naming the field, never a hint about other shops) and freezes the profile it is held to:
+ * the task's condition profile (current version), else `profileKey`, else `profile`, else the defaults.
+ */
+export async function resolveNewDrive(
+  db: Db,
+  actor: DriveActor,
+  id: string,
+  input: Pick<CreateDriveInput, "jobId" | "taskId" | "vehicleDescription" | "profileKey" | "profile" | "coDriverId">,
+  driverId = actor.id,
+): Promise<NewDriveValues> {
+  let jobId = input.jobId ?? null
+  let taskProfileId: string | null = null
+  if (input.taskId) {
+    const task = await findTaskForDrive(db, input.taskId, actor.shopId)
+    if (!task) validationFailed({ taskId: "is not a task of a job in this shop" })
+    if (jobId && task.job_id !== jobId) validationFailed({ taskId: "belongs to another job" })
+    jobId = task.job_id
+    taskProfileId = task.profile_id
+  }
+  let vehicleDescription = input.vehicleDescription?.trim() || null
+  if (jobId) {
+    const job = await findJobForDrive(db, jobId, actor.shopId)
+    if (!job) validationFailed({ jobId: "is not a job of this shop" })
+    vehicleDescription ??= [job.year, job.make, job.model].filter(Boolean).join(" ") + ` (VIN ${job.vin})`
+  }
+  let coDriverId: string | null = null
+  if (input.coDriverId) {
+    const co = await findUserInShop(db, input.coDriverId, actor.shopId)
+    if (!co || co.disabled) validationFailed({ coDriverId: "is not a person in this shop" })
+    coDriverId = co.id
+  }
+
+  let profileVersionId: string | null = null
+  let profile: Profile | undefined = input.profile
+  const version = taskProfileId
+    ? await findCurrentProfileVersion(db, actor.shopId, { profileId: taskProfileId })
+    : input.profileKey
+      ? await findCurrentProfileVersion(db, actor.shopId, { key: input.profileKey })
+      : undefined
+  if (input.profileKey && !taskProfileId && !version) validationFailed({ profileKey: "is not a condition profile of this shop" })
+  if (version) {
+    profileVersionId = version.version_id
+    profile = version.settings as Profile
+  }
+  return {
+    id,
+    shopId: actor.shopId,
+    jobId,
+    taskId: input.taskId ?? null,
+    vehicleDescription,
+    profileVersionId,
+    profile: resolveProfile(profile) as unknown as Record<string, unknown>,
+    driverId,
+    coDriverId,
+  }
+}

@@ -1,0 +1,111 @@
+// Steps shared by the drive route handlers: load with access rules, the drive's JSON shape, scoring
+// from the stored data, and the job status that follows. Route handlers stay a few lines each.
+import "server-only"
+import type { Db } from "@/db/client"
+import { loadDriveFile } from "@/db/queries/drive-file"
+import {
+  findDriveInShop,
+  findJobTaskDrives,
+  markDriveFinished,
+  setDriveVerdict,
+  setJobStatus,
+} from "@/db/queries/drives"
+import { upsertScore } from "@/db/queries/scores"
+import type { Drive } from "@/db/types"
+import {
+  canFinishDrive,
+  canRecordOnDrive,
+  canSeeDrive,
+  jobStatusAfterFinish,
+  type DriveAccessFacts,
+  type DriveActor,
+  type TaskDriveFacts,
+} from "@/lib/access/drive"
+import { AppError, notFound } from "@/lib/errors"
+import { scoreDrive, type Score } from "@/lib/scoring"
+
+export function accessFacts(drive: Drive): DriveAccessFacts {
+  return {
+    shopId: drive.shop_id,
+    driverId: drive.driver_id,
+    coDriverId: drive.co_driver_id,
+    status: drive.status,
+    reviewStatus: drive.review_status,
+  }
+}
+
+export type DriveNeed = "see" | "record" | "finish"
+
+/** The drive if the actor may `need` it: 404 when they may not see it, 403 when they see it but may not act. */
+export async function loadDriveFor(db: Db, driveId: string, actor: DriveActor, need: DriveNeed): Promise<Drive> {
+  const drive = await findDriveInShop(db, driveId, actor.shopId)
+  if (!drive || !canSeeDrive(actor, accessFacts(drive))) notFound("That drive")
+  if (need === "record" && !canRecordOnDrive(actor, accessFacts(drive))) {
+    throw new AppError("forbidden", "Only the drive's driver, its co-driver or a shop lead can record on it.")
+  }
+  if (need === "finish" && !canFinishDrive(actor, accessFacts(drive))) {
+    throw new AppError("forbidden", "Only the drive's driver or a shop lead can finish it.")
+  }
+  return drive
+}
+
+export function driveJson(drive: Drive, extra: Record<string, unknown> = {}) {
+  return {
+    id: drive.id,
+    jobId: drive.job_id,
+    taskId: drive.task_id,
+    vehicleDescription: drive.vehicle_description,
+    profile: drive.profile,
+    profileVersionId: drive.profile_version_id,
+    driverId: drive.driver_id,
+    coDriverId: drive.co_driver_id,
+    status: drive.status,
+    source: drive.source,
+    verdict: drive.verdict,
+    reviewStatus: drive.review_status,
+    createdAt: drive.created_at,
+    finishedAt: drive.finished_at,
+    ...extra,
+  }
+}
+
+/** Scores the stored samples and marks against the drive's frozen profile. */
+export async function scoreStoredDrive(db: Db, driveId: string, shopId: string): Promise<Score> {
+  return scoreDrive(await loadDriveFile(db, driveId, shopId))
+}
+
+/**
+ * Finish (or score again after late data): store the score and verdict, mark the drive finished,
+ * and move its job on. Call inside a transaction.
+ */
+export async function finishAndScore(trx: Db, drive: Drive): Promise<{ drive: Drive; score: Score }> {
+  const score = await scoreStoredDrive(trx, drive.id, drive.shop_id)
+  await upsertScore(trx, drive.id, drive.shop_id, score)
+  const finished = await markDriveFinished(trx, drive.id, drive.shop_id, score.verdict)
+  if (finished.job_id) await updateJobAfterFinish(trx, finished.job_id, finished.shop_id)
+  return { drive: finished, score }
+}
+
+/** Late samples or marks on a finished drive that no one has reviewed yet: score it again. */
+export async function rescoreFinishedDrive(trx: Db, drive: Drive): Promise<void> {
+  if (drive.status !== "finished") return
+  const score = await scoreStoredDrive(trx, drive.id, drive.shop_id)
+  await upsertScore(trx, drive.id, drive.shop_id, score)
+  await setDriveVerdict(trx, drive.id, drive.shop_id, score.verdict)
+  if (drive.job_id) await updateJobAfterFinish(trx, drive.job_id, drive.shop_id)
+}
+
+async function updateJobAfterFinish(trx: Db, jobId: string, shopId: string) {
+  const { tasks, drives } = await findJobTaskDrives(trx, jobId, shopId)
+  const latestByTask = new Map<string | null, (typeof drives)[number]>()
+  for (const d of drives) latestByTask.set(d.task_id, d) // ascending by start: the last one wins
+  const toFacts = (d: (typeof drives)[number] | undefined): TaskDriveFacts["latest"] =>
+    d ? { status: d.status, verdict: d.verdict, harshEvents: Number(d.harsh_events), reviewStatus: d.review_status } : null
+  const facts: TaskDriveFacts[] =
+    tasks.length > 0
+      ? tasks.map((t) => ({ needsDrive: t.method !== "static", latest: toFacts(latestByTask.get(t.id)) }))
+      : [{ needsDrive: true, latest: toFacts(drives.at(-1)) }]
+  // Drives on the job without a task count for the job as a whole.
+  if (tasks.length > 0 && latestByTask.has(null)) facts.push({ needsDrive: false, latest: toFacts(latestByTask.get(null)) })
+  await setJobStatus(trx, jobId, shopId, jobStatusAfterFinish(facts))
+}

@@ -1,0 +1,57 @@
+import { randomUUID } from "node:crypto"
+import { requireRole } from "@/app/_server/auth"
+import { parseJson, parseQuery, route } from "@/app/_server/route"
+import { getDb } from "@/db/client"
+import { driveIdTaken, findDriveInShop, insertDrive, listDrives, setJobStatus } from "@/db/queries/drives"
+import { canSeeDrive } from "@/lib/access/drive"
+import { AppError } from "@/lib/errors"
+import { createDriveSchema, listDrivesQuery, parseDriveCursor } from "@/lib/validation/drive"
+import { accessFacts, driveJson } from "./_service"
+import { resolveNewDrive } from "./_new-drive"
+
+export const GET = route(async (req) => {
+  const { user } = await requireRole()
+  const query = parseQuery(req, listDrivesQuery)
+  const cursor = parseDriveCursor(query.cursor)
+  if (cursor === null) throw new AppError("validation_failed", "cursor: is not one this server gave out", { cursor: "is invalid" })
+  const { rows, nextCursor } = await listDrives(getDb(), user.shopId, {
+    verdict: query.verdict,
+    status: query.status,
+    coDriverId: user.role === "co_driver" ? user.id : undefined,
+    cursor,
+  })
+  return Response.json({
+    drives: rows.map((r) =>
+      driveJson(r, {
+        roNumber: r.ro_number,
+        driverName: r.driver_name,
+        coDriverName: r.co_driver_name,
+        sensor: r.task_sensor,
+      }),
+    ),
+    nextCursor,
+  })
+})
+
+export const POST = route(async (req) => {
+  const { user } = await requireRole("technician", "shop_lead")
+  const input = await parseJson(req, createDriveSchema)
+  const db = getDb()
+  const id = input.id ?? randomUUID()
+  const existing = await findDriveInShop(db, id, user.shopId)
+  if (existing) {
+    // The same client id again (a retried start): the drive as it is, not a second one.
+    if (!canSeeDrive(user, accessFacts(existing))) throw new AppError("conflict", "That drive id is taken; start with a new one.")
+    return Response.json({ drive: driveJson(existing) }, { status: 200 })
+  }
+  if (await driveIdTaken(db, id)) throw new AppError("conflict", "That drive id is taken; start with a new one.")
+  const values = await resolveNewDrive(db, user, id, input)
+  const made = await db.transaction().execute(async (trx) => {
+    const inserted = await insertDrive(trx, values)
+    if (inserted && values.jobId) await setJobStatus(trx, values.jobId, user.shopId, "drive")
+    return inserted
+  })
+  const drive = await findDriveInShop(db, id, user.shopId)
+  if (!drive) throw new AppError("conflict", "That drive id is taken; start with a new one.")
+  return Response.json({ drive: driveJson(drive) }, { status: made ? 201 : 200 })
+})

@@ -1,0 +1,206 @@
+import { sql } from "kysely"
+import type { Db } from "../client"
+import type { Drive, DriveStatus, JobStatus, VerdictValue } from "../types"
+
+export const DRIVE_PAGE_SIZE = 50
+
+export async function findDriveInShop(db: Db, driveId: string, shopId: string): Promise<Drive | undefined> {
+  return db.selectFrom("drive").selectAll().where("id", "=", driveId).where("shop_id", "=", shopId).executeTakeFirst()
+}
+
+/** Whether a drive id exists in any shop: only to refuse reusing it, never to read another shop's row. */
+export async function driveIdTaken(db: Db, driveId: string): Promise<boolean> {
+  const row = await db.selectFrom("drive").select("id").where("id", "=", driveId).executeTakeFirst()
+  return row !== undefined
+}
+
+export interface NewDriveValues {
+  id: string
+  shopId: string
+  jobId: string | null
+  taskId: string | null
+  vehicleDescription: string | null
+  profileVersionId: string | null
+  profile: Record<string, unknown>
+  driverId: string
+  coDriverId: string | null
+  status?: DriveStatus
+  source?: "recorder" | "import"
+}
+
+/** Inserts the drive unless its id exists already; returns whether this call made it. */
+export async function insertDrive(db: Db, v: NewDriveValues): Promise<boolean> {
+  const rows = await db
+    .insertInto("drive")
+    .values({
+      id: v.id,
+      shop_id: v.shopId,
+      job_id: v.jobId,
+      task_id: v.taskId,
+      vehicle_description: v.vehicleDescription,
+      profile_version_id: v.profileVersionId,
+      profile: JSON.stringify(v.profile),
+      driver_id: v.driverId,
+      co_driver_id: v.coDriverId,
+      status: v.status ?? "recording",
+      source: v.source ?? "recorder",
+    })
+    .onConflict((oc) => oc.column("id").doNothing())
+    .returning("id")
+    .execute()
+  return rows.length === 1
+}
+
+export interface DriveListFilter {
+  verdict?: VerdictValue
+  status?: DriveStatus
+  /** Co-drivers see only drives that name them. */
+  coDriverId?: string
+  cursor?: { createdAt: string; id: string }
+}
+
+/** Newest first; the cursor is the last row's `createdAt|id` with PostgreSQL's microseconds. */
+export async function listDrives(db: Db, shopId: string, filter: DriveListFilter) {
+  let q = db
+    .selectFrom("drive")
+    .leftJoin("job", (j) => j.onRef("job.id", "=", "drive.job_id").on("job.shop_id", "=", shopId))
+    .leftJoin("app_user as driver", (j) => j.onRef("driver.id", "=", "drive.driver_id").on("driver.shop_id", "=", shopId))
+    .leftJoin("app_user as co", (j) => j.onRef("co.id", "=", "drive.co_driver_id").on("co.shop_id", "=", shopId))
+    .leftJoin("job_task as task", (j) => j.onRef("task.id", "=", "drive.task_id").on("task.shop_id", "=", shopId))
+    .selectAll("drive")
+    .select([
+      "job.ro_number",
+      "driver.name as driver_name",
+      "co.name as co_driver_name",
+      "task.sensor as task_sensor",
+      sql<string>`to_char(drive.created_at at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.US"Z"')`.as("cursor_time"),
+    ])
+    .where("drive.shop_id", "=", shopId)
+    .orderBy("drive.created_at", "desc")
+    .orderBy("drive.id", "desc")
+    .limit(DRIVE_PAGE_SIZE + 1)
+  if (filter.verdict) q = q.where("drive.verdict", "=", filter.verdict)
+  if (filter.status) q = q.where("drive.status", "=", filter.status)
+  if (filter.coDriverId) q = q.where("drive.co_driver_id", "=", filter.coDriverId)
+  if (filter.cursor) {
+    const { createdAt, id } = filter.cursor
+    q = q.where(sql<boolean>`(drive.created_at, drive.id) < (${createdAt}::timestamptz, ${id}::uuid)`)
+  }
+  const rows = await q.execute()
+  const page = rows.slice(0, DRIVE_PAGE_SIZE)
+  const last = page.at(-1)
+  const nextCursor = rows.length > DRIVE_PAGE_SIZE && last ? `${last.cursor_time}|${last.id}` : null
+  return { rows: page, nextCursor }
+}
+
+export async function countDriveData(db: Db, driveId: string, shopId: string) {
+  const [samples, marks] = await Promise.all([
+    db
+      .selectFrom("sample")
+      .select((eb) => eb.fn.countAll<number>().as("n"))
+      .where("drive_id", "=", driveId)
+      .where("shop_id", "=", shopId)
+      .executeTakeFirstOrThrow(),
+    db
+      .selectFrom("mark")
+      .select((eb) => eb.fn.countAll<number>().as("n"))
+      .where("drive_id", "=", driveId)
+      .where("shop_id", "=", shopId)
+      .executeTakeFirstOrThrow(),
+  ])
+  return { samples: Number(samples.n), marks: Number(marks.n) }
+}
+
+export async function markDriveFinished(db: Db, driveId: string, shopId: string, verdict: VerdictValue): Promise<Drive> {
+  return db
+    .updateTable("drive")
+    .set({ status: "finished", verdict, finished_at: sql<Date>`coalesce(finished_at, now())` })
+    .where("id", "=", driveId)
+    .where("shop_id", "=", shopId)
+    .returningAll()
+    .executeTakeFirstOrThrow()
+}
+
+export async function setDriveVerdict(db: Db, driveId: string, shopId: string, verdict: VerdictValue) {
+  await db.updateTable("drive").set({ verdict }).where("id", "=", driveId).where("shop_id", "=", shopId).execute()
+}
+
+// ---- what a drive needs from jobs, tasks, profiles and people (all filtered by shop) ----
+
+export async function findJobForDrive(db: Db, jobId: string, shopId: string) {
+  return db
+    .selectFrom("job")
+    .innerJoin("vehicle", "vehicle.id", "job.vehicle_id")
+    .select(["job.id", "job.status", "job.ro_number", "vehicle.year", "vehicle.make", "vehicle.model", "vehicle.vin"])
+    .where("job.id", "=", jobId)
+    .where("job.shop_id", "=", shopId)
+    .executeTakeFirst()
+}
+
+export async function findTaskForDrive(db: Db, taskId: string, shopId: string) {
+  return db
+    .selectFrom("job_task")
+    .select(["id", "job_id", "sensor", "method", "profile_id"])
+    .where("id", "=", taskId)
+    .where("shop_id", "=", shopId)
+    .executeTakeFirst()
+}
+
+/** The current version of a condition profile, by id or by key. */
+export async function findCurrentProfileVersion(db: Db, shopId: string, by: { profileId: string } | { key: string }) {
+  let q = db
+    .selectFrom("condition_profile as p")
+    .innerJoin("condition_profile_version as v", (j) =>
+      j.onRef("v.profile_id", "=", "p.id").onRef("v.version", "=", "p.current_version").on("v.shop_id", "=", shopId),
+    )
+    .select(["v.id as version_id", "v.settings", "p.key", "p.name", "v.version"])
+    .where("p.shop_id", "=", shopId)
+  q = "profileId" in by ? q.where("p.id", "=", by.profileId) : q.where("p.key", "=", by.key).where("p.archived", "=", false)
+  return q.executeTakeFirst()
+}
+
+export async function findUserInShop(db: Db, userId: string, shopId: string) {
+  return db
+    .selectFrom("app_user")
+    .select(["id", "role", "name", "disabled"])
+    .where("id", "=", userId)
+    .where("shop_id", "=", shopId)
+    .executeTakeFirst()
+}
+
+export async function setJobStatus(db: Db, jobId: string, shopId: string, status: JobStatus) {
+  await db
+    .updateTable("job")
+    .set({ status, updated_at: sql<Date>`now()` })
+    .where("id", "=", jobId)
+    .where("shop_id", "=", shopId)
+    .execute()
+}
+
+/** Each task of the job with its latest drive (by start) and that drive's harsh-event count. */
+export async function findJobTaskDrives(db: Db, jobId: string, shopId: string) {
+  const tasks = await db
+    .selectFrom("job_task")
+    .select(["id", "method"])
+    .where("job_id", "=", jobId)
+    .where("shop_id", "=", shopId)
+    .execute()
+  const drives = await db
+    .selectFrom("drive")
+    .leftJoin("score", (j) => j.onRef("score.drive_id", "=", "drive.id").on("score.shop_id", "=", shopId))
+    .select([
+      "drive.task_id",
+      "drive.status",
+      "drive.verdict",
+      "drive.review_status",
+      "drive.created_at",
+      sql<number>`coalesce((score.result->'harshEvents'->>'accel')::int, 0) + coalesce((score.result->'harshEvents'->>'decel')::int, 0)`.as(
+        "harsh_events",
+      ),
+    ])
+    .where("drive.job_id", "=", jobId)
+    .where("drive.shop_id", "=", shopId)
+    .orderBy("drive.created_at", "asc")
+    .execute()
+  return { tasks, drives }
+}

@@ -1,0 +1,59 @@
+import type { ApiMark, Mark } from "@/lib/drive-file/schema"
+import type { Db } from "../client"
+
+/** Stores marks by their client-made ids in one statement; an id seen before is a duplicate. */
+export async function insertMarks(
+  trx: Db,
+  driveId: string,
+  shopId: string,
+  marks: readonly ApiMark[],
+  createdBy: string | null,
+): Promise<{ accepted: number; duplicates: number }> {
+  if (marks.length === 0) return { accepted: 0, duplicates: 0 }
+  const rows = await trx
+    .insertInto("mark")
+    .values(
+      marks.map((m) => ({
+        id: m.id,
+        drive_id: driveId,
+        shop_id: shopId,
+        t: m.t,
+        kind: m.kind,
+        gap_ft: m.gapFt ?? null,
+        text: m.text ?? null,
+        created_by: createdBy,
+      })),
+    )
+    .onConflict((oc) => oc.column("id").doNothing())
+    .returning("id")
+    .execute()
+  return { accepted: rows.length, duplicates: marks.length - rows.length }
+}
+
+/** Removes one mark (the recorder's undo). Returns whether a mark went. */
+export async function deleteMark(db: Db, driveId: string, shopId: string, markId: string): Promise<boolean> {
+  const res = await db
+    .deleteFrom("mark")
+    .where("id", "=", markId)
+    .where("drive_id", "=", driveId)
+    .where("shop_id", "=", shopId)
+    .executeTakeFirst()
+  return Number(res.numDeletedRows) > 0
+}
+
+export async function listMarks(db: Db, driveId: string, shopId: string): Promise<Array<Mark & { id: string }>> {
+  const rows = await db
+    .selectFrom("mark")
+    .select(["id", "t", "kind", "gap_ft", "text"])
+    .where("drive_id", "=", driveId)
+    .where("shop_id", "=", shopId)
+    .orderBy("t", "asc")
+    .orderBy("seq", "asc")
+    .execute()
+  return rows.map((r) => {
+    const m: Mark & { id: string } = { id: r.id, t: r.t, kind: r.kind as Mark["kind"] }
+    if (r.gap_ft !== null) m.gapFt = r.gap_ft
+    if (r.text !== null) m.text = r.text
+    return m
+  })
+}

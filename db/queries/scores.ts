@@ -1,0 +1,21 @@
+import type { Score } from "@/lib/scoring/types"
+import type { Db } from "../client"
+
+export async function findScore(db: Db, driveId: string, shopId: string): Promise<Score | undefined> {
+  const row = await db
+    .selectFrom("score")
+    .select("result")
+    .where("drive_id", "=", driveId)
+    .where("shop_id", "=", shopId)
+    .executeTakeFirst()
+  return row?.result as Score | undefined
+}
+
+export async function upsertScore(db: Db, driveId: string, shopId: string, score: Score) {
+  const result = JSON.stringify(score)
+  await db
+    .insertInto("score")
+    .values({ drive_id: driveId, shop_id: shopId, verdict: score.verdict, result })
+    .onConflict((oc) => oc.column("drive_id").doUpdateSet({ verdict: score.verdict, result, scored_at: new Date() }))
+    .execute()
+}

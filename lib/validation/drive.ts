@@ -1,0 +1,66 @@
+import { z } from "zod"
+import { apiMarkSchema, profileSchema, sampleSchema } from "@/lib/drive-file/schema"
+
+/** Samples in one POST; the recorder sends far fewer (a few seconds' worth, or 1,000 when catching up). */
+export const MAX_SAMPLES_PER_BATCH = 10_000
+export const MAX_MARKS_PER_POST = 500
+/** Drive files sent to import or score: a long drive at 10 Hz is a few MB; room to spare. */
+export const MAX_DRIVE_FILE_BYTES = 20 * 1024 * 1024
+
+const uuid = z.uuid({ error: "must be a UUID" })
+
+export const createDriveSchema = z.object({
+  id: uuid.optional(),
+  jobId: uuid.optional(),
+  taskId: uuid.optional(),
+  vehicleDescription: z.string().trim().max(200, { error: "must be at most 200 characters" }).optional(),
+  profileKey: z.string().trim().min(1).max(100).optional(),
+  profile: profileSchema.optional(),
+  coDriverId: z.string().min(1).max(100).nullable().optional(),
+})
+export type CreateDriveInput = z.output<typeof createDriveSchema>
+
+export const sampleBatchSchema = z.object({
+  batchId: z
+    .string({ error: "is required" })
+    .min(1, { error: "is required" })
+    .max(100, { error: "must be at most 100 characters" }),
+  samples: z
+    .array(sampleSchema, { error: "must be an array" })
+    .max(MAX_SAMPLES_PER_BATCH, { error: `must hold at most ${MAX_SAMPLES_PER_BATCH} samples` }),
+})
+export type SampleBatchInput = z.output<typeof sampleBatchSchema>
+
+export const markBatchSchema = z.object({
+  marks: z
+    .array(apiMarkSchema, { error: "must be an array" })
+    .max(MAX_MARKS_PER_POST, { error: `must hold at most ${MAX_MARKS_PER_POST} marks` }),
+})
+
+export const VERDICT_FILTERS = ["met", "short", "not_met", "unverified"] as const
+export const STATUS_FILTERS = ["recording", "finished"] as const
+
+export const listDrivesQuery = z.object({
+  verdict: z.enum(VERDICT_FILTERS, { error: `must be one of ${VERDICT_FILTERS.join(", ")}` }).optional(),
+  status: z.enum(STATUS_FILTERS, { error: `must be one of ${STATUS_FILTERS.join(", ")}` }).optional(),
+  cursor: z.string().max(200).optional(),
+})
+
+export const driveFileFormatQuery = z.object({
+  format: z.enum(["drive", "gpx", "csv"], { error: "must be drive, gpx or csv" }).default("drive"),
+})
+
+export const importQuery = z.object({
+  jobId: uuid.optional(),
+  taskId: uuid.optional(),
+})
+
+/** `createdAt|id` of the last row of a page; null = not a cursor this server gives out. */
+export function parseDriveCursor(cursor: string | undefined): { createdAt: string; id: string } | undefined | null {
+  if (!cursor) return undefined
+  const [createdAt, id] = cursor.split("|")
+  // The time keeps PostgreSQL's microseconds so that no row is skipped or repeated between pages.
+  if (!createdAt || !id || !/^\d{4}-\d\d-\d\dT\d\d:\d\d:\d\d(\.\d{1,6})?Z$/.test(createdAt)) return null
+  if (!/^[0-9a-f-]{36}$/i.test(id)) return null
+  return { createdAt, id }
+}

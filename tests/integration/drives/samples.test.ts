@@ -1,0 +1,118 @@
+import { randomUUID } from "node:crypto"
+import { beforeAll, describe, expect, it } from "vitest"
+import { createTestShop, testDb, type TestShop } from "../../helpers/db"
+import { signedIn, type ApiClient } from "../../helpers/http"
+import { addPerson, sampleRun, startDrive } from "./helpers"
+
+async function storedSamples(driveId: string) {
+  return testDb().selectFrom("sample").selectAll().where("drive_id", "=", driveId).orderBy("t").execute()
+}
+
+describe("POST /api/drives/:id/samples", () => {
+  let shop: TestShop
+  let tech: ApiClient
+  beforeAll(async () => {
+    shop = await createTestShop("Samples")
+    tech = await signedIn(shop.tech)
+  })
+
+  it("counts a batch sent twice once", async () => {
+    const drive = await startDrive(tech)
+    const samples = sampleRun(40)
+    const batchId = randomUUID()
+    const first = await tech.post(`/api/drives/${drive.id}/samples`, { batchId, samples })
+    expect(first.status).toBe(200)
+    expect(first.body).toMatchObject({ accepted: 40, duplicates: 0 })
+    const again = await tech.post(`/api/drives/${drive.id}/samples`, { batchId, samples })
+    expect(again.status).toBe(200)
+    expect(again.body.replayed).toBe(true)
+    const rows = await storedSamples(drive.id)
+    expect(rows).toHaveLength(40)
+    expect(rows.map((r) => r.t)).toEqual(samples.map((s) => s.t))
+    expect(rows[7]).toMatchObject({ lat: samples[7]!.lat, lon: samples[7]!.lon, speed: samples[7]!.speed, accuracy: samples[7]!.accuracy })
+  })
+
+  it("stores the union of overlapping batches, each time once", async () => {
+    const drive = await startDrive(tech)
+    const samples = sampleRun(60)
+    const a = await tech.post(`/api/drives/${drive.id}/samples`, { batchId: "a", samples: samples.slice(0, 40) })
+    const b = await tech.post(`/api/drives/${drive.id}/samples`, { batchId: "b", samples: samples.slice(25, 60) })
+    expect(a.body).toMatchObject({ accepted: 40, duplicates: 0 })
+    expect(b.body).toMatchObject({ accepted: 20, duplicates: 15 })
+    const rows = await storedSamples(drive.id)
+    expect(rows.map((r) => r.t)).toEqual(samples.map((s) => s.t))
+  })
+
+  it("stores nothing of a batch with one bad sample and names it", async () => {
+    const drive = await startDrive(tech)
+    const samples: unknown[] = sampleRun(10)
+    samples[3] = { ...(samples[3] as object), lat: 91 }
+    const res = await tech.post(`/api/drives/${drive.id}/samples`, { batchId: "bad", samples })
+    expect(res.status).toBe(400)
+    expect(res.body.error.code).toBe("validation_failed")
+    expect(res.body.error.fields).toHaveProperty(["samples.3.lat"])
+    expect(res.body.error.fields["samples.3.lat"]).toMatch(/between -90 and 90/)
+    expect(await storedSamples(drive.id)).toHaveLength(0)
+    // The batch id was not used up by the failure: the corrected batch goes in whole.
+    const fixed = await tech.post(`/api/drives/${drive.id}/samples`, { batchId: "bad", samples: sampleRun(10) })
+    expect(fixed.body).toMatchObject({ accepted: 10, duplicates: 0 })
+  })
+
+  it("keeps the first copy of a time sent twice in one batch", async () => {
+    const drive = await startDrive(tech)
+    const [s0, s1] = sampleRun(2)
+    const res = await tech.post(`/api/drives/${drive.id}/samples`, {
+      batchId: "dup",
+      samples: [s0, s1, { ...s1!, lat: s1!.lat + 0.001 }],
+    })
+    expect(res.body).toMatchObject({ accepted: 2, duplicates: 1 })
+    const rows = await storedSamples(drive.id)
+    expect(rows[1]!.lat).toBe(s1!.lat)
+  })
+
+  it("answers 404 to another shop and to a co-driver the drive does not name", async () => {
+    const drive = await startDrive(tech)
+    const other = await createTestShop("Other")
+    const outsider = await signedIn(other.lead)
+    const res = await outsider.post(`/api/drives/${drive.id}/samples`, { batchId: "x", samples: sampleRun(3) })
+    expect(res.status).toBe(404)
+    expect(res.text).not.toContain(drive.id)
+    const co = await signedIn(shop.codriver)
+    expect((await co.post(`/api/drives/${drive.id}/samples`, { batchId: "x", samples: sampleRun(3) })).status).toBe(404)
+    expect(await storedSamples(drive.id)).toHaveLength(0)
+  })
+
+  it("lets the named co-driver record, and refuses a technician who is neither driver nor co-driver", async () => {
+    const drive = await startDrive(tech, { coDriverId: shop.codriver.id })
+    const co = await signedIn(shop.codriver)
+    expect((await co.post(`/api/drives/${drive.id}/samples`, { batchId: "c", samples: sampleRun(3) })).status).toBe(200)
+    const tech2 = await signedIn(await addPerson(shop.shopId, "technician", shop.tech))
+    expect((await tech2.post(`/api/drives/${drive.id}/samples`, { batchId: "d", samples: sampleRun(3) })).status).toBe(403)
+  })
+
+  it("takes late samples after Finish and scores again, and refuses them once reviewed", async () => {
+    const drive = await startDrive(tech)
+    const samples = sampleRun(30)
+    await tech.post(`/api/drives/${drive.id}/samples`, { batchId: "1", samples: samples.slice(0, 10) })
+    const finished = await tech.post(`/api/drives/${drive.id}/finish`)
+    expect(finished.status).toBe(200)
+    expect(finished.body.score.samplesUsed).toBe(10)
+    const late = await tech.post(`/api/drives/${drive.id}/samples`, { batchId: "2", samples: samples.slice(10) })
+    expect(late.status).toBe(200)
+    const score = await tech.get(`/api/drives/${drive.id}/score`)
+    expect(score.body.samplesUsed).toBe(30)
+    await testDb().updateTable("drive").set({ review_status: "approved" }).where("id", "=", drive.id).execute()
+    const closed = await tech.post(`/api/drives/${drive.id}/samples`, { batchId: "3", samples: sampleRun(2, 9, Date.UTC(2026, 0, 2)) })
+    expect(closed.status).toBe(409)
+    expect(closed.body.error.code).toBe("conflict")
+  })
+
+  it("answers 400 for malformed JSON and a missing batch id", async () => {
+    const drive = await startDrive(tech)
+    const raw = await tech.request("POST", `/api/drives/${drive.id}/samples`, undefined, { raw: "{not json", headers: { "content-type": "application/json" } })
+    expect(raw.status).toBe(400)
+    const noBatch = await tech.post(`/api/drives/${drive.id}/samples`, { samples: sampleRun(2) })
+    expect(noBatch.status).toBe(400)
+    expect(noBatch.body.error.fields).toHaveProperty(["batchId"])
+  })
+})
