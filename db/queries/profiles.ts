@@ -141,3 +141,32 @@ export async function insertProfileVersion(db: Transaction<Database>, profileId:
 export function updateProfileFields(db: Executor, profileId: string, shopId: string, changes: { name?: string; sensor?: string | null; archived?: boolean }) {
   return db.updateTable("condition_profile").set(changes).where("id", "=", profileId).where("shop_id", "=", shopId).execute()
 }
+
+export function profileVersionJson(p: ProfileVersionInfo) {
+  return { id: p.profileId, key: p.key, name: p.name, sensor: p.sensor, version: p.version, versionId: p.versionId, settings: p.settings }
+}
+
+/** GET /api/profiles/:id's body: the profile at its current version, and every version newest first. */
+export async function loadProfileDetail(db: Executor, profileId: string, shopId: string) {
+  const [profile, current, versions] = await Promise.all([
+    findProfileInShop(db, profileId, shopId),
+    findCurrentProfileVersionById(db, profileId, shopId),
+    listProfileVersions(db, profileId, shopId),
+  ])
+  if (!profile || !current) return undefined
+  return {
+    profile: { ...profileVersionJson(current), archived: profile.archived, createdAt: profile.created_at },
+    versions: versions.map((v) => ({
+      id: v.id,
+      version: v.version,
+      settings: resolveProfile(v.settings as Profile),
+      createdAt: v.createdAt,
+      createdBy: v.createdByName,
+    })),
+  }
+}
+
+export function isDuplicateProfileKey(error: unknown) {
+  const e = error as { code?: string; constraint?: string } | null
+  return e?.code === "23505" && e.constraint === "condition_profile_shop_key_uq"
+}

@@ -1,4 +1,5 @@
 import { z } from "zod"
+import { AppError } from "@/lib/errors"
 import { vinSchema } from "@/lib/validation/vin"
 
 export const SENSORS = ["forward_radar", "forward_camera", "corner_radar", "rear_radar", "surround_camera", "other"] as const
@@ -140,3 +141,7 @@ export const jobListQuerySchema = z.object({
   limit: z.coerce.number().int().min(1).max(100).default(25),
 })
 export type JobListQuery = z.output<typeof jobListQuerySchema>
+
+export function duplicateRoError(roNumber: string) {
+  return new AppError("conflict", `RO ${roNumber} is already a job in this shop.`, { roNumber: "is already used by another job" })
+}

@@ -1,0 +1,55 @@
+import type { Kysely, Transaction } from "kysely"
+import type { Db } from "../client"
+import type { Database } from "../types"
+
+type Executor = Db | Kysely<Database> | Transaction<Database>
+
+export function insertPendingAttachment(
+  db: Executor,
+  a: { id: string; shopId: string; jobId: string; taskId: string | null; filename: string; contentType: string; size: number; objectKey: string; userId: string },
+) {
+  return db
+    .insertInto("attachment")
+    .values({
+      id: a.id,
+      shop_id: a.shopId,
+      job_id: a.jobId,
+      task_id: a.taskId,
+      filename: a.filename,
+      content_type: a.contentType,
+      size: a.size,
+      object_key: a.objectKey,
+      uploaded_by: a.userId,
+    })
+    .returningAll()
+    .executeTakeFirstOrThrow()
+}
+
+export function findAttachmentInShop(db: Executor, id: string, shopId: string) {
+  return db.selectFrom("attachment").selectAll().where("id", "=", id).where("shop_id", "=", shopId).executeTakeFirst()
+}
+
+export function markAttachmentComplete(db: Executor, id: string, shopId: string, size: number) {
+  return db
+    .updateTable("attachment")
+    .set({ status: "complete", size, completed_at: new Date() })
+    .where("id", "=", id)
+    .where("shop_id", "=", shopId)
+    .returningAll()
+    .executeTakeFirstOrThrow()
+}
+
+export function deleteAttachment(db: Executor, id: string, shopId: string) {
+  return db.deleteFrom("attachment").where("id", "=", id).where("shop_id", "=", shopId).execute()
+}
+
+export function listCompleteAttachmentsForJob(db: Executor, jobId: string, shopId: string) {
+  return db
+    .selectFrom("attachment")
+    .selectAll()
+    .where("job_id", "=", jobId)
+    .where("shop_id", "=", shopId)
+    .where("status", "=", "complete")
+    .orderBy("created_at")
+    .execute()
+}
