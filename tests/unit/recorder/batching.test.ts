@@ -1,0 +1,48 @@
+import fc from "fast-check"
+import { describe, expect, it } from "vitest"
+import { PERSIST_EVERY_MS, PERSIST_MAX_SAMPLES, groupBatchId, groupForSending, shouldPersist } from "@/lib/recorder/batching"
+
+describe("shouldPersist", () => {
+  it("writes once the oldest buffered sample is a second old, or the buffer is full", () => {
+    expect(shouldPersist(0, null, 10_000)).toBe(false)
+    expect(shouldPersist(3, 10_000, 10_000 + PERSIST_EVERY_MS - 1)).toBe(false)
+    expect(shouldPersist(3, 10_000, 10_000 + PERSIST_EVERY_MS)).toBe(true)
+    expect(shouldPersist(PERSIST_MAX_SAMPLES, 10_000, 10_000)).toBe(true)
+  })
+})
+
+describe("groupForSending", () => {
+  const item = (key: string | null, size: number, id: string) => ({ key, size, id })
+  it("joins neighbours of one kind up to the limit and keeps order", () => {
+    const items = [item("s", 5, "a"), item("s", 5, "b"), item("s", 5, "c"), item("m", 1, "d"), item("s", 2, "e")]
+    const groups = groupForSending(items, (i) => i.key, (i) => i.size, 10)
+    expect(groups.map((g) => g.items.map((i) => i.id))).toEqual([["a", "b"], ["c"], ["d"], ["e"]])
+  })
+
+  it("never splits, never drops and never reorders an item", () => {
+    fc.assert(
+      fc.property(
+        fc.array(fc.record({ key: fc.constantFrom("s", "m", null), size: fc.integer({ min: 1, max: 30 }) }), { maxLength: 60 }),
+        fc.integer({ min: 1, max: 50 }),
+        (raw, max) => {
+          const items = raw.map((r, i) => ({ ...r, id: String(i) }))
+          const groups = groupForSending(items, (i) => i.key, (i) => i.size, max)
+          const flat = groups.flatMap((g) => g.items.map((i) => i.id))
+          return (
+            flat.join() === items.map((i) => i.id).join() &&
+            groups.every((g) => g.items.length === 1 || (g.size <= max && new Set(g.items.map((i) => i.key)).size === 1 && g.items[0]!.key !== null))
+          )
+        },
+      ),
+    )
+  })
+})
+
+describe("groupBatchId", () => {
+  it("keeps a single piece's id and names a group by its ends and size", () => {
+    expect(groupBatchId(["only"])).toBe("only")
+    const a = groupBatchId(["11111111-aaaa", "22222222-bbbb", "33333333-cccc"])
+    expect(a).toBe("11111111-aaaa~33333333~3")
+    expect(groupBatchId(["11111111-aaaa", "22222222-bbbb"])).not.toBe(a)
+  })
+})
