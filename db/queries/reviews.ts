@@ -58,3 +58,127 @@ export function parseReviewCursor(cursor: string | undefined) {
   if (!finishedAt || !id || Number.isNaN(Date.parse(finishedAt)) || !/^[0-9a-f-]{36}$/i.test(id)) return null
   return { finishedAt, id }
 }
+
+// ---- deciding a review ----
+
+export type ReviewDecisionInput = { driveId: string; shopId: string; decision: "approve" | "redo"; note: string; reviewerId: string }
+
+/**
+ * Stores the decision and closes the drive's review, only when nobody reviewed it first (the guard
+ * `review_status is null` makes two leads deciding at once safe). Returns undefined when it lost that race.
+ * Call inside a transaction.
+ */
+export async function insertReviewDecision(trx: Db, input: ReviewDecisionInput) {
+  const drive = await trx
+    .updateTable("drive")
+    .set({ review_status: input.decision === "approve" ? "approved" : "redo" })
+    .where("id", "=", input.driveId)
+    .where("shop_id", "=", input.shopId)
+    .where("status", "=", "finished")
+    .where("review_status", "is", null)
+    .returningAll()
+    .executeTakeFirst()
+  if (!drive) return undefined
+  const review = await trx
+    .insertInto("review")
+    .values({ shop_id: input.shopId, drive_id: input.driveId, decision: input.decision, note: input.note, reviewer_id: input.reviewerId })
+    .returningAll()
+    .executeTakeFirstOrThrow()
+  return { drive, review }
+}
+
+/** The latest review of a drive with the reviewer's name. */
+export async function findLatestReview(db: Db, driveId: string, shopId: string) {
+  return db
+    .selectFrom("review")
+    .leftJoin("app_user as u", (j) => j.onRef("u.id", "=", "review.reviewer_id").on("u.shop_id", "=", shopId))
+    .select(["review.decision", "review.note", "review.created_at", "u.name as reviewer_name"])
+    .where("review.drive_id", "=", driveId)
+    .where("review.shop_id", "=", shopId)
+    .orderBy("review.created_at", "desc")
+    .executeTakeFirst()
+}
+
+/** Name and e-mail of a person in the shop (the technician a redo goes back to). */
+export async function findShopPerson(db: Db, userId: string, shopId: string) {
+  return db
+    .selectFrom("app_user")
+    .select(["id", "name", "email", "disabled"])
+    .where("id", "=", userId)
+    .where("shop_id", "=", shopId)
+    .executeTakeFirst()
+}
+
+// ---- what the drive record and the detail page read ----
+
+/** The drive with its shop, job, vehicle, task, profile and people, all inside the shop. */
+export async function findDriveRecordHead(db: Db, driveId: string, shopId: string) {
+  return db
+    .selectFrom("drive")
+    .innerJoin("shop", "shop.id", "drive.shop_id")
+    .leftJoin("job", (j) => j.onRef("job.id", "=", "drive.job_id").on("job.shop_id", "=", shopId))
+    .leftJoin("vehicle", (j) => j.onRef("vehicle.id", "=", "job.vehicle_id").on("vehicle.shop_id", "=", shopId))
+    .leftJoin("job_task as task", (j) => j.onRef("task.id", "=", "drive.task_id").on("task.shop_id", "=", shopId))
+    .leftJoin("condition_profile_version as pv", (j) => j.onRef("pv.id", "=", "drive.profile_version_id").on("pv.shop_id", "=", shopId))
+    .leftJoin("condition_profile as p", (j) => j.onRef("p.id", "=", "pv.profile_id").on("p.shop_id", "=", shopId))
+    .leftJoin("app_user as driver", (j) => j.onRef("driver.id", "=", "drive.driver_id").on("driver.shop_id", "=", shopId))
+    .leftJoin("app_user as co", (j) => j.onRef("co.id", "=", "drive.co_driver_id").on("co.shop_id", "=", shopId))
+    .selectAll("drive")
+    .select([
+      "shop.name as shop_name",
+      "shop.settings as shop_settings",
+      "job.ro_number",
+      "job.customer_name",
+      "job.customer_email",
+      "job.status as job_status",
+      "vehicle.vin",
+      "vehicle.year as vehicle_year",
+      "vehicle.make as vehicle_make",
+      "vehicle.model as vehicle_model",
+      "vehicle.plate as vehicle_plate",
+      "task.sensor as task_sensor",
+      "task.method as task_method",
+      "task.reason as task_reason",
+      "p.name as profile_name",
+      "pv.version as profile_version",
+      "driver.name as driver_name",
+      "co.name as co_driver_name",
+    ])
+    .where("drive.id", "=", driveId)
+    .where("drive.shop_id", "=", shopId)
+    .executeTakeFirst()
+}
+
+/** Marks with the name of whoever logged each one, by time then arrival. */
+export async function listMarksWithLoggers(db: Db, driveId: string, shopId: string) {
+  return db
+    .selectFrom("mark")
+    .leftJoin("app_user as u", (j) => j.onRef("u.id", "=", "mark.created_by").on("u.shop_id", "=", shopId))
+    .select(["mark.id", "mark.t", "mark.kind", "mark.gap_ft", "mark.text", "u.name as by_name"])
+    .where("mark.drive_id", "=", driveId)
+    .where("mark.shop_id", "=", shopId)
+    .orderBy("mark.t")
+    .orderBy("mark.created_at")
+    .execute()
+}
+
+/** Finished photos of the job that belong to the drive's task (or to the job as a whole). */
+export async function listRecordPhotos(db: Db, jobId: string, taskId: string | null, shopId: string) {
+  let q = db
+    .selectFrom("attachment")
+    .select(["id", "filename", "content_type", "object_key", "size", "task_id"])
+    .where("job_id", "=", jobId)
+    .where("shop_id", "=", shopId)
+    .where("status", "=", "complete")
+    .where("content_type", "in", ["image/jpeg", "image/png"])
+  q = taskId ? q.where((eb) => eb.or([eb("task_id", "=", taskId), eb("task_id", "is", null)])) : q
+  return q.orderBy("created_at").limit(12).execute()
+}
+
+/**
+ * The shop a drive belongs to, for a share link only: the link's signature (made with the app secret)
+ * is what grants access, so this is the one lookup by drive id alone. Every read after it filters by shop.
+ */
+export async function findSharedDriveShop(db: Db, driveId: string) {
+  return db.selectFrom("drive").select(["id", "shop_id", "status"]).where("id", "=", driveId).executeTakeFirst()
+}

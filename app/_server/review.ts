@@ -1,0 +1,79 @@
+import "server-only"
+import type { Db } from "@/db/client"
+import { findJobTaskDrives, setJobStatus } from "@/db/queries/drives"
+import { insertNotification } from "@/db/queries/notifications"
+import { findDriveRecordHead, findShopPerson, insertReviewDecision } from "@/db/queries/reviews"
+import type { Drive } from "@/db/types"
+import { jobStatusAfterFinish, type TaskDriveFacts } from "@/lib/access/drive"
+import { AppError } from "@/lib/errors"
+import { describeVehicle } from "@/lib/record"
+import type { ReviewInput } from "@/lib/validation/review"
+import { env } from "@/lib/env"
+import { sendMailQuietly } from "./mail"
+
+/**
+ * The lead's decision: close the review, move the job (redo reopens it; approve completes it once every
+ * task that needs a drive is done), and on a redo tell the driver in the app and by e-mail.
+ */
+export async function decideReview(db: Db, drive: Drive, reviewer: { id: string; name: string; shopId: string }, input: ReviewInput) {
+  if (drive.status !== "finished") throw new AppError("conflict", "The drive is still being recorded; review it once it is finished.")
+  if (drive.review_status !== null) throw new AppError("conflict", "This drive has been reviewed already.")
+  const head = await findDriveRecordHead(db, drive.id, reviewer.shopId)
+  const what = `${head?.ro_number ? `RO ${head.ro_number}, ` : ""}${describeVehicle(
+    head?.vin ? { year: head.vehicle_year, make: head.vehicle_make, model: head.vehicle_model } : null,
+    drive.vehicle_description,
+  )}`
+
+  const result = await db.transaction().execute(async (trx) => {
+    const decided = await insertReviewDecision(trx, { driveId: drive.id, shopId: reviewer.shopId, decision: input.decision, note: input.note, reviewerId: reviewer.id })
+    if (!decided) throw new AppError("conflict", "This drive has been reviewed already.")
+    if (decided.drive.job_id) {
+      const status = input.decision === "redo" ? "redo" : await jobStatusAfterApproval(trx, decided.drive.job_id, reviewer.shopId)
+      await setJobStatus(trx, decided.drive.job_id, reviewer.shopId, status)
+    }
+    if (input.decision === "redo" && decided.drive.driver_id !== reviewer.id) {
+      await insertNotification(trx, {
+        shopId: reviewer.shopId,
+        userId: decided.drive.driver_id,
+        message: `${reviewer.name} sent back your drive (${what}): ${input.note}`,
+        link: `/drives/${drive.id}`,
+      })
+    }
+    return decided
+  })
+
+  if (input.decision === "redo") {
+    const driver = await findShopPerson(db, drive.driver_id, reviewer.shopId)
+    if (driver && !driver.disabled && driver.id !== reviewer.id) {
+      await sendMailQuietly({
+        to: driver.email,
+        subject: `Drive sent back: ${what}`,
+        text: [
+          `Hello ${driver.name},`,
+          "",
+          `${reviewer.name} sent back your calibration drive for ${what}.`,
+          "",
+          `Note: ${input.note}`,
+          "",
+          "The job is open again for another drive. See the drive here:",
+          `${env().APP_URL.replace(/\/$/, "")}/drives/${drive.id}`,
+        ].join("\n"),
+      })
+    }
+  }
+  return result
+}
+
+async function jobStatusAfterApproval(trx: Db, jobId: string, shopId: string) {
+  const { tasks, drives } = await findJobTaskDrives(trx, jobId, shopId)
+  const latestByTask = new Map<string | null, (typeof drives)[number]>()
+  for (const d of drives) latestByTask.set(d.task_id, d)
+  const toFacts = (d: (typeof drives)[number] | undefined): TaskDriveFacts["latest"] =>
+    d ? { status: d.status, verdict: d.verdict, harshEvents: Number(d.harsh_events), reviewStatus: d.review_status } : null
+  const facts: TaskDriveFacts[] =
+    tasks.length > 0
+      ? tasks.map((t) => ({ needsDrive: t.method !== "static", latest: toFacts(latestByTask.get(t.id)) }))
+      : [{ needsDrive: true, latest: toFacts(drives.at(-1)) }]
+  if (tasks.length > 0 && latestByTask.has(null)) facts.push({ needsDrive: false, latest: toFacts(latestByTask.get(null)) })
+  return jobStatusAfterFinish(facts)
+}

@@ -1,0 +1,38 @@
+import { z } from "zod"
+import { requireRole } from "@/app/_server/auth"
+import { sendMail } from "@/app/_server/mail"
+import { loadRecordData, recordFilename } from "@/app/_server/record-data"
+import { parseJson, parseParams, route, uuidParam } from "@/app/_server/route"
+import { getDb } from "@/db/client"
+import { AppError } from "@/lib/errors"
+import { buildDriveRecordPdf, describeVehicle, RECORD_CAUTIONS, VERDICT_WORD } from "@/lib/record"
+import { recordEmailSchema } from "@/lib/validation/review"
+import { loadDriveFor } from "../../../_service"
+
+const params = z.object({ driveId: uuidParam })
+
+export const POST = route<{ driveId: string }>(async (req, ctx) => {
+  const { user } = await requireRole("shop_lead")
+  const { driveId } = await parseParams(ctx.params, params)
+  const { to } = await parseJson(req, recordEmailSchema)
+  const db = getDb()
+  await loadDriveFor(db, driveId, user, "see")
+  const loaded = await loadRecordData(db, driveId, user.shopId)
+  if (!loaded?.data) throw new AppError("conflict", "The record is made once the drive is finished and scored.")
+  const { head, data } = loaded
+  const vehicle = describeVehicle(data.vehicle, data.vehicleDescription)
+  await sendMail({
+    to,
+    subject: `Drive record: ${vehicle}${head.ro_number ? `, RO ${head.ro_number}` : ""}`,
+    text: [
+      `Attached is the record of the calibration drive for ${vehicle}${data.vehicle ? ` (VIN ${data.vehicle.vin})` : ""}.`,
+      `Verdict: ${VERDICT_WORD[data.score.verdict]}.`,
+      "",
+      ...RECORD_CAUTIONS,
+      "",
+      `${data.shopName}`,
+    ].join("\n"),
+    attachments: [{ filename: recordFilename(head), contentType: "application/pdf", content: await buildDriveRecordPdf(data) }],
+  })
+  return Response.json({ sent: true, to }, { status: 202 })
+})

@@ -1,0 +1,23 @@
+import { loadSharedRecord, recordFilename } from "@/app/_server/record-data"
+import { route } from "@/app/_server/route"
+import { getDb } from "@/db/client"
+import { AppError } from "@/lib/errors"
+import { buildDriveRecordPdf } from "@/lib/record"
+
+// The customer's PDF behind a share link: no session, the signed token is the permission.
+export const GET = route<{ token: string }>(async (_req, ctx) => {
+  const { token } = await ctx.params
+  const shared = await loadSharedRecord(getDb(), token)
+  if (!shared.ok) {
+    throw new AppError("not_found", shared.reason === "expired" ? "This link has expired; ask the shop for a new one." : "This link is not valid.")
+  }
+  const pdf = await buildDriveRecordPdf(shared.data)
+  return new Response(Buffer.from(pdf), {
+    headers: {
+      "content-type": "application/pdf",
+      "content-disposition": `inline; filename="${recordFilename(shared.head)}"`,
+      "cache-control": "private, no-store",
+      "referrer-policy": "no-referrer",
+    },
+  })
+})

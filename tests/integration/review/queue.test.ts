@@ -1,0 +1,51 @@
+import { describe, expect, it } from "vitest"
+import { createTestShop } from "../../helpers/db"
+import { signedIn } from "../../helpers/http"
+import { insertJob, insertScoredDrive } from "./fixtures"
+
+const minutesAgo = (m: number) => new Date(Date.now() - m * 60_000)
+
+describe("GET /api/review", () => {
+  it("holds exactly the finished, unreviewed drives that are not met or had harsh events, oldest first", async () => {
+    const shop = await createTestShop("Queue")
+    const other = await createTestShop("Other")
+    const job = await insertJob(shop)
+
+    const met = await insertScoredDrive(shop, { pattern: "met", seed: 101, finishedAt: minutesAgo(50), job })
+    const short = await insertScoredDrive(shop, { pattern: "short", seed: 102, finishedAt: minutesAgo(40), job })
+    const never = await insertScoredDrive(shop, { pattern: "never-cleared", seed: 103, finishedAt: minutesAgo(45) })
+    const harsh = await insertScoredDrive(shop, { pattern: "harsh", seed: 104, finishedAt: minutesAgo(30) })
+    const unverified = await insertScoredDrive(shop, { pattern: "unverified", seed: 105, finishedAt: minutesAgo(20) })
+    await insertScoredDrive(shop, { pattern: "short", seed: 106, status: "recording" })
+    await insertScoredDrive(shop, { pattern: "short", seed: 107, finishedAt: minutesAgo(60), reviewStatus: "redo" })
+    await insertScoredDrive(shop, { pattern: "never-cleared", seed: 108, finishedAt: minutesAgo(65), reviewStatus: "approved" })
+    await insertScoredDrive(other, { pattern: "short", seed: 109, finishedAt: minutesAgo(70) })
+
+    // The generated patterns score as intended (drive-file.md verdict rules).
+    expect(met.score.verdict).toBe("met")
+    expect(met.score.harshEvents.accel + met.score.harshEvents.decel).toBe(0)
+    expect(short.score.verdict).toBe("short")
+    expect(never.score.verdict).toBe("not_met")
+    expect(harsh.score.harshEvents.accel + harsh.score.harshEvents.decel).toBeGreaterThan(0)
+    expect(unverified.score.verdict).toBe("unverified")
+
+    const lead = await signedIn(shop.lead)
+    const res = await lead.get("/api/review")
+    expect(res.status).toBe(200)
+    expect(res.body.drives.map((d: { id: string }) => d.id)).toEqual([never.id, short.id, harsh.id, unverified.id])
+    const first = res.body.drives[1]
+    expect(first.verdict).toBe("short")
+    expect(first.reasons.length).toBeGreaterThan(0)
+    expect(first.roNumber).toBe(job.roNumber)
+  })
+
+  it("is for shop leads and admins only", async () => {
+    const shop = await createTestShop("QueueRoles")
+    for (const user of [shop.tech, shop.codriver]) {
+      const res = await (await signedIn(user)).get("/api/review")
+      expect(res.status).toBe(403)
+      expect(res.body.error.code).toBe("forbidden")
+    }
+    expect((await (await signedIn(shop.admin)).get("/api/review")).status).toBe(200)
+  })
+})
