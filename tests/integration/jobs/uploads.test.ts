@@ -1,0 +1,119 @@
+import { beforeAll, describe, expect, it } from "vitest"
+import { createTestShop, testDb, type TestShop } from "../../helpers/db"
+import { signedIn } from "../../helpers/http"
+import { createJob, JPEG_START, objectExists, putToPresignedUrl, TINY_PNG } from "./helpers"
+
+let shop: TestShop
+let job: { id: string; tasks: { id: string }[] }
+
+beforeAll(async () => {
+  shop = await createTestShop("Uploads")
+  job = await createJob(await signedIn(shop.lead))
+})
+
+const MB = 1024 * 1024
+
+async function objectKeyOf(attachmentId: string) {
+  const row = await testDb().selectFrom("attachment").select("object_key").where("id", "=", attachmentId).executeTakeFirst()
+  return row?.object_key
+}
+
+describe("POST /api/uploads", () => {
+  it("refuses a file over 15 MB with a 413", async () => {
+    const tech = await signedIn(shop.tech)
+    const res = await tech.post("/api/uploads", { jobId: job.id, filename: "big.jpg", contentType: "image/jpeg", size: 15 * MB + 1 })
+    expect(res.status).toBe(413)
+    expect(res.body.error.code).toBe("too_large")
+    const ok = await tech.post("/api/uploads", { jobId: job.id, filename: "edge.jpg", contentType: "image/jpeg", size: 15 * MB })
+    expect(ok.status).toBe(201)
+  })
+
+  it("refuses a type that is not a photo or PDF with a 400", async () => {
+    const tech = await signedIn(shop.tech)
+    for (const contentType of ["application/zip", "image/gif", "text/html"]) {
+      const res = await tech.post("/api/uploads", { jobId: job.id, filename: "x.bin", contentType, size: 100 })
+      expect(res.status).toBe(400)
+      expect(res.body.error.fields.contentType).toMatch(/must be one of/)
+    }
+  })
+
+  it("refuses another shop's job (404) and co-drivers (403)", async () => {
+    const other = await createTestShop("Uploads other")
+    const otherJob = await createJob(await signedIn(other.lead))
+    const tech = await signedIn(shop.tech)
+    expect((await tech.post("/api/uploads", { jobId: otherJob.id, filename: "a.png", contentType: "image/png", size: 10 })).status).toBe(404)
+    const codriver = await signedIn(shop.codriver)
+    expect((await codriver.post("/api/uploads", { jobId: job.id, filename: "a.png", contentType: "image/png", size: 10 })).status).toBe(403)
+  })
+})
+
+describe("POST /api/uploads/:id/complete", () => {
+  it("completes a PNG whose bytes are a PNG, and lists it on the job with a link that redirects to the file", async () => {
+    const tech = await signedIn(shop.tech)
+    const start = await tech.post("/api/uploads", { jobId: job.id, taskId: job.tasks[0].id, filename: "tires.png", contentType: "image/png", size: TINY_PNG.length })
+    expect(start.status).toBe(201)
+    await putToPresignedUrl(start.body.uploadUrl, "image/png", TINY_PNG)
+    const done = await tech.post(`/api/uploads/${start.body.attachmentId}/complete`)
+    expect(done.status).toBe(200)
+    expect(done.body.attachment).toMatchObject({ id: start.body.attachmentId, taskId: job.tasks[0].id, contentType: "image/png", size: TINY_PNG.length })
+    expect(done.body.attachment.thumbnailUrl).toContain(start.body.attachmentId)
+
+    const detail = await tech.get(`/api/jobs/${job.id}`)
+    expect(detail.body.job.attachments.map((a: { id: string }) => a.id)).toContain(start.body.attachmentId)
+
+    const link = await tech.get(done.body.attachment.url)
+    expect(link.status).toBe(302)
+    const file = await fetch(link.headers.get("location")!)
+    expect(file.status).toBe(200)
+    expect(Buffer.from(await file.arrayBuffer()).equals(TINY_PNG)).toBe(true)
+
+    const otherShop = await createTestShop("Attachment other")
+    expect((await (await signedIn(otherShop.lead)).get(done.body.attachment.url)).status).toBe(404)
+  })
+
+  it("completes a JPEG whose bytes start FF D8 FF", async () => {
+    const tech = await signedIn(shop.tech)
+    const start = await tech.post("/api/uploads", { jobId: job.id, filename: "face.jpg", contentType: "image/jpeg", size: JPEG_START.length })
+    await putToPresignedUrl(start.body.uploadUrl, "image/jpeg", JPEG_START)
+    const done = await tech.post(`/api/uploads/${start.body.attachmentId}/complete`)
+    expect(done.status).toBe(200)
+    expect(done.body.attachment.contentType).toBe("image/jpeg")
+  })
+
+  it("refuses a file whose bytes are not the declared type, and removes it from the object store", async () => {
+    const tech = await signedIn(shop.tech)
+    const start = await tech.post("/api/uploads", { jobId: job.id, filename: "scan.pdf", contentType: "application/pdf", size: TINY_PNG.length })
+    expect(start.status).toBe(201)
+    await putToPresignedUrl(start.body.uploadUrl, "application/pdf", TINY_PNG)
+    const key = (await objectKeyOf(start.body.attachmentId))!
+    expect(await objectExists(key)).toBe(true)
+
+    const done = await tech.post(`/api/uploads/${start.body.attachmentId}/complete`)
+    expect(done.status).toBe(400)
+    expect(done.body.error.message).toMatch(/image\/png, not application\/pdf/)
+    expect(await objectExists(key)).toBe(false) // HeadObject through the S3 SDK: gone
+    expect(await objectKeyOf(start.body.attachmentId)).toBeUndefined()
+    const detail = await tech.get(`/api/jobs/${job.id}`)
+    expect(detail.body.job.attachments.map((a: { id: string }) => a.id)).not.toContain(start.body.attachmentId)
+  })
+
+  it("refuses text dressed as a photo", async () => {
+    const tech = await signedIn(shop.tech)
+    const bytes = Buffer.from("<html>not a photo</html>")
+    const start = await tech.post("/api/uploads", { jobId: job.id, filename: "photo.webp", contentType: "image/webp", size: bytes.length })
+    await putToPresignedUrl(start.body.uploadUrl, "image/webp", bytes)
+    const key = (await objectKeyOf(start.body.attachmentId))!
+    const done = await tech.post(`/api/uploads/${start.body.attachmentId}/complete`)
+    expect(done.status).toBe(400)
+    expect(await objectExists(key)).toBe(false)
+  })
+
+  it("answers 400 while nothing was uploaded yet, and keeps the upload open", async () => {
+    const tech = await signedIn(shop.tech)
+    const start = await tech.post("/api/uploads", { jobId: job.id, filename: "later.png", contentType: "image/png", size: TINY_PNG.length })
+    const early = await tech.post(`/api/uploads/${start.body.attachmentId}/complete`)
+    expect(early.status).toBe(400)
+    await putToPresignedUrl(start.body.uploadUrl, "image/png", TINY_PNG)
+    expect((await tech.post(`/api/uploads/${start.body.attachmentId}/complete`)).status).toBe(200)
+  })
+})
