@@ -13,7 +13,11 @@ export async function listReviewQueue(db: Db, shopId: string, cursor?: { finishe
     .innerJoin("score", "score.drive_id", "drive.id")
     .leftJoin("app_user as driver", "driver.id", "drive.driver_id")
     .leftJoin("job", (j) => j.onRef("job.id", "=", "drive.job_id").on("job.shop_id", "=", shopId))
+    .leftJoin("vehicle", (j) => j.onRef("vehicle.id", "=", "job.vehicle_id").on("vehicle.shop_id", "=", shopId))
     .select([
+      "vehicle.year as vehicle_year",
+      "vehicle.make as vehicle_make",
+      "vehicle.model as vehicle_model",
       "drive.id",
       "drive.job_id",
       "drive.task_id",

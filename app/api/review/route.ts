@@ -20,6 +20,7 @@ export const GET = route(async (req) => {
         taskId: r.task_id,
         roNumber: r.ro_number,
         vehicleDescription: r.vehicle_description,
+        vehicle: r.vehicle_make || r.vehicle_model ? { year: r.vehicle_year, make: r.vehicle_make, model: r.vehicle_model } : null,
         verdict: r.verdict,
         reasons: score.reasons ?? [],
         harshEvents: score.harshEvents ?? { accel: 0, decel: 0 },

@@ -1,0 +1,187 @@
+import { Download, Radio } from "lucide-react"
+import type { Metadata } from "next"
+import { notFound } from "next/navigation"
+import { requirePageRole } from "@/app/_server/auth"
+import { loadRecordData } from "@/app/_server/record-data"
+import { SpeedChart, type ChartMark, type Stretch } from "@/components/charts/speed-chart"
+import { VerdictBadge } from "@/components/drives/verdict-badge"
+import { RecordSummary } from "@/components/record/record-summary"
+import { TrackSvg } from "@/components/record/track-svg"
+import { MarkTimeline } from "@/components/review/mark-timeline"
+import { RecordActions } from "@/components/review/record-actions"
+import { ReviewActions } from "@/components/review/review-actions"
+import { buttonVariants } from "@/components/ui/button"
+import { Card } from "@/components/ui/card"
+import { PageHeader } from "@/components/ui/page-header"
+import { getDb } from "@/db/client"
+import { listRecordPhotos } from "@/db/queries/reviews"
+import { canSeeDrive } from "@/lib/access/drive"
+import { hasRole } from "@/lib/auth/roles"
+import { DECISION_WORD, describeVehicle, METHOD_LABEL, REASON_LABEL, SENSOR_LABEL, thinTimeline } from "@/lib/record"
+
+export const metadata: Metadata = { title: "Drive" }
+export const dynamic = "force-dynamic"
+
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i
+
+export default async function DrivePage({ params }: { params: Promise<{ driveId: string }> }) {
+  const me = await requirePageRole()
+  const { driveId } = await params
+  if (!UUID.test(driveId)) notFound()
+  const db = getDb()
+  const loaded = await loadRecordData(db, driveId, me.shopId, { photos: false })
+  if (!loaded) notFound()
+  const { head, data } = loaded
+  const facts = { shopId: head.shop_id, driverId: head.driver_id, coDriverId: head.co_driver_id, status: head.status, reviewStatus: head.review_status }
+  if (!canSeeDrive(me, facts)) notFound()
+  const isLead = hasRole(me.role, ["shop_lead"])
+  const title = head.ro_number ? `RO ${head.ro_number}` : "Unplanned drive"
+  const vehicle = describeVehicle(head.vin ? { year: head.vehicle_year, make: head.vehicle_make, model: head.vehicle_model } : null, head.vehicle_description)
+
+  if (!data) {
+    return (
+      <>
+        <PageHeader title={title} description={vehicle} />
+        <Card className="flex items-center gap-3">
+          <Radio aria-hidden className="size-6" />
+          <p>This drive is still being recorded. Its verdict, chart and record appear once it is finished.</p>
+        </Card>
+      </>
+    )
+  }
+
+  const photos = head.job_id ? await listRecordPhotos(db, head.job_id, head.task_id, me.shopId) : []
+  const t0 = data.score.startedAtMs ?? data.marks[0]?.t ?? 0
+  const points = thinTimeline(data.timeline, 900)
+  const following: Stretch[] = []
+  for (let i = 0; i < data.timeline.length; i++) {
+    const p = data.timeline[i]!
+    const next = data.timeline[i + 1]
+    if (p.state !== "following" || !next) continue
+    const last = following.at(-1)
+    if (last && Math.abs(last.toMin - p.tS / 60) < 1e-9) last.toMin = next.tS / 60
+    else following.push({ fromMin: p.tS / 60, toMin: next.tS / 60 })
+  }
+  const chartMarks: ChartMark[] = data.marks
+    .filter((m) => m.kind !== "gap" && m.kind !== "note")
+    .map((m) => ({ min: Math.round(((m.t - t0) / 60_000) * 100) / 100, label: m.kind.replace("-", " ") }))
+  const profile = data.score.profile
+
+  return (
+    <>
+      <PageHeader
+        title={title}
+        description={
+          <>
+            {vehicle}
+            {head.vin ? <> · VIN <span className="font-mono">{head.vin}</span></> : null}
+          </>
+        }
+        actions={<VerdictBadge verdict={data.score.verdict} size="lg" />}
+      />
+      <div className="grid gap-4 lg:grid-cols-[3fr_2fr]">
+        <div className="min-w-0 space-y-4">
+          <RecordSummary score={data.score} />
+          <Card>
+            <h2 className="mb-2 text-lg font-semibold">Speed over time</h2>
+            <SpeedChart
+              points={points.map((p) => ({ min: Math.round((p.tS / 60) * 1000) / 1000, mph: p.speedMph == null ? null : Math.round(p.speedMph * 10) / 10 }))}
+              minSpeedMph={profile?.minSpeedMph ?? 35}
+              maxSpeedMph={profile?.maxSpeedMph ?? null}
+              following={following}
+              marks={chartMarks}
+            />
+          </Card>
+          <Card>
+            <h2 className="mb-2 text-lg font-semibold">Track</h2>
+            <TrackSvg timeline={data.timeline} />
+          </Card>
+          <Card>
+            <h2 className="mb-2 text-lg font-semibold">Marks</h2>
+            <MarkTimeline marks={data.marks} startMs={t0} />
+          </Card>
+        </div>
+        <div className="min-w-0 space-y-4">
+          {isLead ? (
+            <Card>
+              <h2 className="mb-2 text-lg font-semibold">Review</h2>
+              {data.review ? (
+                <p data-testid="review-decision">
+                  {DECISION_WORD[data.review.decision]} by {data.review.reviewerName ?? "a shop lead"}
+                  {data.review.note ? `: ${data.review.note}` : ""}
+                </p>
+              ) : head.status === "finished" ? (
+                <ReviewActions driveId={head.id} />
+              ) : null}
+            </Card>
+          ) : data.review ? (
+            <Card>
+              <h2 className="mb-1 text-lg font-semibold">Review</h2>
+              <p data-testid="review-decision">
+                {DECISION_WORD[data.review.decision]} by {data.review.reviewerName ?? "a shop lead"}
+                {data.review.note ? `: ${data.review.note}` : ""}
+              </p>
+            </Card>
+          ) : null}
+          <Card>
+            <h2 className="mb-2 text-lg font-semibold">Drive record</h2>
+            <RecordActions driveId={head.id} canShare={isLead} customerEmail={head.customer_email} />
+          </Card>
+          <Card className="space-y-1">
+            <h2 className="mb-1 text-lg font-semibold">Who drove and who logged</h2>
+            <p>Driver: {data.driverName ?? "Not recorded"}</p>
+            <p>Co-driver: {data.coDriverName ?? "None"}</p>
+            <p>Marks logged by: {data.markLoggers.join(", ") || "Nobody"}</p>
+          </Card>
+          {data.task ? (
+            <Card className="space-y-1">
+              <h2 className="mb-1 text-lg font-semibold">Calibration</h2>
+              <p>{SENSOR_LABEL[data.task.sensor] ?? data.task.sensor}</p>
+              <p>{METHOD_LABEL[data.task.method] ?? data.task.method}</p>
+              <p>Reason: {REASON_LABEL[data.task.reason] ?? data.task.reason}</p>
+              {data.profileName ? <p>Condition profile: {data.profileName}</p> : null}
+            </Card>
+          ) : null}
+          <Card>
+            <h2 className="mb-2 text-lg font-semibold">Checks before the drive</h2>
+            {data.checklist ? (
+              <ul className="divide-y divide-graphite-100 dark:divide-asphalt-700">
+                {data.checklist.rows.map((r) => (
+                  <li key={r.label} className="flex justify-between gap-3 py-1.5 text-sm">
+                    <span>{r.label}</span>
+                    <span className={r.ok === false ? "font-semibold text-stop-600 dark:text-stop-400" : ""}>
+                      {r.value}
+                      {r.ok === false ? " (check)" : ""}
+                    </span>
+                  </li>
+                ))}
+              </ul>
+            ) : (
+              <p className="text-graphite-600 dark:text-graphite-300">No checklist recorded.</p>
+            )}
+            {photos.length ? (
+              <div className="mt-3 grid grid-cols-3 gap-2">
+                {photos.map((p) => (
+                  <a key={p.id} href={`/api/attachments/${p.id}`} target="_blank" rel="noopener" className="block">
+                    {/* eslint-disable-next-line @next/next/no-img-element -- presigned object URLs, not optimisable */}
+                    <img src={`/api/attachments/${p.id}?variant=thumbnail`} alt={p.filename} loading="lazy" className="aspect-square w-full rounded-lg object-cover" />
+                  </a>
+                ))}
+              </div>
+            ) : null}
+          </Card>
+          <Card>
+            <h2 className="mb-2 text-lg font-semibold">Download the drive</h2>
+            <div className="flex flex-wrap gap-2">
+              {(["drive", "gpx", "csv"] as const).map((f) => (
+                <a key={f} className={buttonVariants({ variant: "outline", size: "sm" })} href={`/api/drives/${head.id}/file?format=${f}`}>
+                  <Download aria-hidden className="size-4" /> {f === "drive" ? "Drive file" : f.toUpperCase()}
+                </a>
+              ))}
+            </div>
+          </Card>
+        </div>
+      </div>
+    </>
+  )
+}

@@ -1,0 +1,66 @@
+"use client"
+
+import { Check, Undo2 } from "lucide-react"
+import { useRouter } from "next/navigation"
+import { useState } from "react"
+import { Button } from "@/components/ui/button"
+import { Field, Textarea } from "@/components/ui/field"
+
+/** Approve or Send back; sending back needs a note saying what to do differently. */
+export function ReviewActions({ driveId }: { driveId: string }) {
+  const router = useRouter()
+  const [note, setNote] = useState("")
+  const [problem, setProblem] = useState<string | null>(null)
+  const [noteError, setNoteError] = useState<string | null>(null)
+  const [busy, setBusy] = useState(false)
+
+  async function decide(decision: "approve" | "redo") {
+    setProblem(null)
+    setNoteError(null)
+    if (decision === "redo" && !note.trim()) {
+      setNoteError("Write a note: what should the technician do differently?")
+      return
+    }
+    setBusy(true)
+    try {
+      const res = await fetch(`/api/drives/${driveId}/review`, {
+        method: "POST",
+        headers: { "content-type": "application/json" },
+        body: JSON.stringify({ decision, note }),
+      })
+      const json = await res.json().catch(() => null)
+      if (!res.ok) {
+        if (json?.error?.fields?.note) setNoteError(json.error.fields.note)
+        else setProblem(json?.error?.message ?? "That did not work. Try again.")
+        return
+      }
+      router.push("/review")
+      router.refresh()
+    } catch {
+      setProblem("No connection. Try again when you are back online.")
+    } finally {
+      setBusy(false)
+    }
+  }
+
+  return (
+    <div className="space-y-3" data-testid="review-actions">
+      <Field label="Note for the technician" htmlFor="review-note" error={noteError ?? undefined} hint="Needed to send the drive back; optional to approve.">
+        <Textarea id="review-note" value={note} maxLength={2000} onChange={(e) => setNote(e.target.value)} placeholder="e.g. Too little time behind a lead vehicle; follow at 120-150 ft on the highway loop." />
+      </Field>
+      {problem ? (
+        <p role="alert" className="font-medium text-stop-600 dark:text-stop-400">
+          {problem}
+        </p>
+      ) : null}
+      <div className="flex flex-wrap gap-2">
+        <Button variant="follow" disabled={busy} onClick={() => decide("approve")}>
+          <Check aria-hidden className="size-5" /> Approve
+        </Button>
+        <Button variant="outline" disabled={busy} onClick={() => decide("redo")}>
+          <Undo2 aria-hidden className="size-5" /> Send back
+        </Button>
+      </div>
+    </div>
+  )
+}
