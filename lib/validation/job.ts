@@ -106,7 +106,12 @@ export const taskSchema = z.object({
   sensor: z.enum(SENSORS, { error: "must be one of " + SENSORS.join(", ") }),
   method: z.enum(METHODS, { error: "must be one of " + METHODS.join(", ") }),
   reason: z.enum(REASONS, { error: "must be one of " + REASONS.join(", ") }),
-  profileId: z.uuid().optional().nullable(),
+  // "" (a form's blank choice) = not named: the current or the sensor's default profile.
+  profileId: z
+    .union([z.uuid("must be a condition profile id"), z.literal("")])
+    .optional()
+    .nullable()
+    .transform((v) => (v === "" ? undefined : v)),
 })
 
 export const newJobSchema = z.object({

@@ -1,0 +1,32 @@
+import type { Metadata } from "next"
+import { notFound } from "next/navigation"
+import { requirePageRole } from "@/app/_server/auth"
+import { JobForm } from "@/components/jobs/job-form"
+import { PageHeader } from "@/components/ui/page-header"
+import { getDb } from "@/db/client"
+import { loadJobDetail } from "@/db/queries/jobs"
+import type { Method, Reason, Sensor } from "@/lib/validation/job"
+
+export const metadata: Metadata = { title: "Edit job" }
+
+export default async function EditJobPage({ params }: { params: Promise<{ jobId: string }> }) {
+  const user = await requirePageRole("technician", "shop_lead")
+  const { jobId } = await params
+  if (!/^[0-9a-f-]{36}$/i.test(jobId)) notFound()
+  const job = await loadJobDetail(getDb(), jobId, user.shopId)
+  if (!job) notFound()
+  return (
+    <div className="mx-auto max-w-3xl">
+      <PageHeader title={`Edit RO ${job.roNumber}`} />
+      <JobForm
+        jobId={job.id}
+        initial={{
+          roNumber: job.roNumber,
+          customer: { name: job.customer.name, email: job.customer.email ?? "", phone: job.customer.phone ?? "" },
+          vehicle: { vin: job.vehicle.vin, year: job.vehicle.year ?? "", make: job.vehicle.make ?? "", model: job.vehicle.model ?? "", plate: job.vehicle.plate ?? "" },
+          tasks: job.tasks.map((t) => ({ id: t.id, sensor: t.sensor as Sensor, method: t.method as Method, reason: t.reason as Reason, profileId: t.profile?.id ?? "" })),
+        }}
+      />
+    </div>
+  )
+}

@@ -1,0 +1,191 @@
+"use client"
+
+import { zodResolver } from "@hookform/resolvers/zod"
+import { useQuery, useQueryClient } from "@tanstack/react-query"
+import { Plus, Trash2 } from "lucide-react"
+import { useRouter } from "next/navigation"
+import { useState } from "react"
+import { useFieldArray, useForm, type FieldPath } from "react-hook-form"
+import { Button } from "@/components/ui/button"
+import { Card } from "@/components/ui/card"
+import { Field, Input, Select } from "@/components/ui/field"
+import {
+  METHOD_LABEL,
+  METHODS,
+  newJobSchema,
+  REASON_LABEL,
+  REASONS,
+  SENSOR_LABEL,
+  SENSORS,
+  type NewJob,
+  type NewJobInput,
+} from "@/lib/validation/job"
+import { ApiError, apiFetch } from "./api"
+import { VinField } from "./vin-field"
+
+type ProfileOption = { id: string; name: string; sensor: string | null; version: number; archived: boolean }
+
+export type JobFormValues = NewJobInput & { tasks: (NewJobInput["tasks"][number] & { id?: string })[] }
+
+const BLANK: JobFormValues = {
+  roNumber: "",
+  customer: { name: "", email: "", phone: "" },
+  vehicle: { vin: "", year: "", make: "", model: "", plate: "" },
+  tasks: [{ sensor: "forward_radar", method: "dynamic", reason: "bumper_or_grille_work" }],
+}
+
+/** New job (POST) or, with `jobId`, an edit of one (PATCH). The same zod schema checks here and on the server. */
+export function JobForm({ jobId, initial }: { jobId?: string; initial?: JobFormValues }) {
+  const router = useRouter()
+  const queryClient = useQueryClient()
+  const [problem, setProblem] = useState<string | null>(null)
+  const form = useForm<NewJobInput, unknown, NewJob>({
+    resolver: zodResolver(newJobSchema),
+    defaultValues: initial ?? BLANK,
+    mode: "onTouched",
+  })
+  const tasks = useFieldArray({ control: form.control, name: "tasks" })
+  const profiles = useQuery({
+    queryKey: ["profiles"],
+    queryFn: () => apiFetch<{ profiles: ProfileOption[] }>("/api/profiles"),
+  })
+  const { errors, isSubmitting } = form.formState
+  const vin = form.watch("vehicle.vin") ?? ""
+
+  async function save(values: NewJob) {
+    setProblem(null)
+    // A blank profile choice leaves the task with its current (or the sensor's default) profile.
+    const body = { ...values, tasks: values.tasks.map((t) => ({ ...t, profileId: t.profileId || undefined })) }
+    try {
+      const { job } = await apiFetch<{ job: { id: string } }>(jobId ? `/api/jobs/${jobId}` : "/api/jobs", {
+        method: jobId ? "PATCH" : "POST",
+        body,
+      })
+      await queryClient.invalidateQueries({ queryKey: ["jobs"] })
+      await queryClient.invalidateQueries({ queryKey: ["job", job.id] })
+      router.push(`/jobs/${job.id}`)
+      router.refresh()
+    } catch (error) {
+      if (error instanceof ApiError && error.fields) {
+        for (const [path, message] of Object.entries(error.fields)) form.setError(path as FieldPath<NewJobInput>, { message })
+      }
+      setProblem(error instanceof Error ? error.message : "That did not work.")
+    }
+  }
+
+  const err = (path: string) => {
+    const parts = path.split(".")
+    let node: unknown = errors
+    for (const p of parts) node = (node as Record<string, unknown> | undefined)?.[p]
+    return (node as { message?: string } | undefined)?.message
+  }
+
+  return (
+    <form onSubmit={form.handleSubmit(save)} className="space-y-4" noValidate>
+      <Card className="space-y-3">
+        <h2 className="text-lg font-bold">Repair order</h2>
+        <Field label="RO number" htmlFor="roNumber" error={err("roNumber")}>
+          <Input id="roNumber" autoComplete="off" {...form.register("roNumber")} />
+        </Field>
+        <Field label="Customer name" htmlFor="customer-name" error={err("customer.name")}>
+          <Input id="customer-name" autoComplete="off" {...form.register("customer.name")} />
+        </Field>
+        <div className="grid gap-3 sm:grid-cols-2">
+          <Field label="Customer e-mail" htmlFor="customer-email" error={err("customer.email")} hint="For the drive record.">
+            <Input id="customer-email" type="email" inputMode="email" autoComplete="off" {...form.register("customer.email")} />
+          </Field>
+          <Field label="Customer phone" htmlFor="customer-phone" error={err("customer.phone")}>
+            <Input id="customer-phone" type="tel" inputMode="tel" autoComplete="off" {...form.register("customer.phone")} />
+          </Field>
+        </div>
+      </Card>
+
+      <Card className="space-y-3">
+        <h2 className="text-lg font-bold">Vehicle</h2>
+        <VinField value={vin} serverError={err("vehicle.vin")} {...form.register("vehicle.vin")} />
+        <div className="grid grid-cols-2 gap-3 sm:grid-cols-4">
+          <Field label="Year" htmlFor="vehicle-year" error={err("vehicle.year")} hint="Blank: from the VIN">
+            <Input id="vehicle-year" inputMode="numeric" autoComplete="off" {...form.register("vehicle.year")} />
+          </Field>
+          <Field label="Make" htmlFor="vehicle-make" error={err("vehicle.make")}>
+            <Input id="vehicle-make" autoComplete="off" {...form.register("vehicle.make")} />
+          </Field>
+          <Field label="Model" htmlFor="vehicle-model" error={err("vehicle.model")}>
+            <Input id="vehicle-model" autoComplete="off" {...form.register("vehicle.model")} />
+          </Field>
+          <Field label="Plate" htmlFor="vehicle-plate" error={err("vehicle.plate")}>
+            <Input id="vehicle-plate" autoComplete="off" {...form.register("vehicle.plate")} />
+          </Field>
+        </div>
+      </Card>
+
+      <Card className="space-y-3">
+        <h2 className="text-lg font-bold">Calibrations</h2>
+        {err("tasks") ? <p className="text-sm font-medium text-stop-600">{err("tasks")}</p> : null}
+        {tasks.fields.map((field, i) => (
+          <fieldset key={field.id} className="space-y-3 rounded-lg border border-graphite-200 p-3 dark:border-asphalt-700" data-testid={`task-${i}`}>
+            <legend className="px-1 text-sm font-semibold">Calibration {i + 1}</legend>
+            <div className="grid gap-3 sm:grid-cols-3">
+              <Field label="Sensor" htmlFor={`task-${i}-sensor`} error={err(`tasks.${i}.sensor`)}>
+                <Select id={`task-${i}-sensor`} {...form.register(`tasks.${i}.sensor`)}>
+                  {SENSORS.map((s) => (
+                    <option key={s} value={s}>
+                      {SENSOR_LABEL[s]}
+                    </option>
+                  ))}
+                </Select>
+              </Field>
+              <Field label="Method" htmlFor={`task-${i}-method`} error={err(`tasks.${i}.method`)}>
+                <Select id={`task-${i}-method`} {...form.register(`tasks.${i}.method`)}>
+                  {METHODS.map((m) => (
+                    <option key={m} value={m}>
+                      {METHOD_LABEL[m]}
+                    </option>
+                  ))}
+                </Select>
+              </Field>
+              <Field label="Why" htmlFor={`task-${i}-reason`} error={err(`tasks.${i}.reason`)}>
+                <Select id={`task-${i}-reason`} {...form.register(`tasks.${i}.reason`)}>
+                  {REASONS.map((r) => (
+                    <option key={r} value={r}>
+                      {REASON_LABEL[r]}
+                    </option>
+                  ))}
+                </Select>
+              </Field>
+            </div>
+            <Field label="Condition profile" htmlFor={`task-${i}-profile`} error={err(`tasks.${i}.profileId`)}>
+              <Select id={`task-${i}-profile`} {...form.register(`tasks.${i}.profileId`)}>
+                <option value="">{jobId ? "Keep (or the sensor's default)" : "The sensor's default"}</option>
+                {(profiles.data?.profiles ?? [])
+                  .filter((p) => !p.archived)
+                  .map((p) => (
+                    <option key={p.id} value={p.id}>
+                      {p.name} (version {p.version})
+                    </option>
+                  ))}
+              </Select>
+            </Field>
+            {tasks.fields.length > 1 ? (
+              <Button variant="ghost" size="sm" onClick={() => tasks.remove(i)}>
+                <Trash2 aria-hidden className="size-4" /> Remove calibration {i + 1}
+              </Button>
+            ) : null}
+          </fieldset>
+        ))}
+        <Button variant="outline" onClick={() => tasks.append({ sensor: "forward_radar", method: "dynamic", reason: "bumper_or_grille_work" })}>
+          <Plus aria-hidden className="size-5" /> Add a calibration
+        </Button>
+      </Card>
+
+      {problem ? (
+        <p role="alert" className="font-medium text-stop-600 dark:text-stop-400">
+          {problem}
+        </p>
+      ) : null}
+      <Button type="submit" variant="signal" size="lg" className="w-full sm:w-auto" disabled={isSubmitting}>
+        {isSubmitting ? "Saving…" : jobId ? "Save changes" : "Open the job"}
+      </Button>
+    </form>
+  )
+}

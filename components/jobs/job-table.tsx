@@ -1,0 +1,237 @@
+"use client"
+
+import { keepPreviousData, useQuery } from "@tanstack/react-query"
+import {
+  createColumnHelper,
+  rowPaginationFeature,
+  rowSortingFeature,
+  tableFeatures,
+  useTable,
+  type PaginationState,
+  type SortingState,
+} from "@tanstack/react-table"
+import { ArrowDown, ArrowUp, ArrowUpDown, ChevronLeft, ChevronRight, Search } from "lucide-react"
+import Link from "next/link"
+import { useEffect, useMemo, useState } from "react"
+import { Button } from "@/components/ui/button"
+import { Input, Select } from "@/components/ui/field"
+import { JOB_STATUS_LABEL, JOB_STATUSES, SENSOR_LABEL, type JobSort, type Sensor } from "@/lib/validation/job"
+import { apiFetch } from "./api"
+import { JobStatusBadge } from "./job-status"
+
+export type JobRow = {
+  id: string
+  roNumber: string
+  status: string
+  customer: { name: string }
+  vehicle: { vin: string; year: number | null; make: string | null; model: string | null; plate: string | null }
+  sensors: string[]
+  createdAt: string
+}
+type JobPage = { jobs: JobRow[]; nextCursor: string | null; total: number }
+
+// Sorting and paging happen on the server; the table only keeps their state.
+const features = tableFeatures({ rowSortingFeature, rowPaginationFeature })
+const helper = createColumnHelper<typeof features, JobRow>()
+const columns = helper.columns([
+  helper.accessor("roNumber", {
+    id: "roNumber",
+    header: "RO",
+    cell: (info) => (
+      <Link href={`/jobs/${info.row.original.id}`} className="inline-flex min-h-12 items-center font-semibold underline-offset-4 hover:underline">
+        {info.getValue()}
+      </Link>
+    ),
+  }),
+  helper.accessor((row) => row.customer.name, { id: "customer", header: "Customer" }),
+  helper.accessor((row) => vehicleText(row.vehicle), {
+    id: "vehicle",
+    header: "Vehicle",
+    enableSorting: false,
+    cell: (info) => (
+      <span>
+        {info.getValue()}
+        <span className="block font-mono text-xs text-graphite-500 dark:text-graphite-300">…{info.row.original.vehicle.vin.slice(-8)}</span>
+      </span>
+    ),
+  }),
+  helper.accessor((row) => row.sensors.map((s) => SENSOR_LABEL[s as Sensor] ?? s).join(", "), {
+    id: "sensors",
+    header: "Calibrations",
+    enableSorting: false,
+  }),
+  helper.accessor("status", { id: "status", header: "Status", cell: (info) => <JobStatusBadge status={info.getValue()} /> }),
+  helper.accessor("createdAt", {
+    id: "createdAt",
+    header: "Opened",
+    cell: (info) => new Date(info.getValue()).toLocaleDateString(undefined, { month: "short", day: "numeric" }),
+  }),
+])
+
+const emptyRows: JobRow[] = []
+
+export function vehicleText(v: JobRow["vehicle"]) {
+  return [v.year, v.make, v.model].filter(Boolean).join(" ") || "Vehicle"
+}
+
+export function JobTable() {
+  const [sorting, setSorting] = useState<SortingState>([{ id: "createdAt", desc: true }])
+  const [pagination, setPagination] = useState<PaginationState>({ pageIndex: 0, pageSize: 20 })
+  const [status, setStatus] = useState("")
+  const [searchBox, setSearchBox] = useState("")
+  const [q, setQ] = useState("")
+  // Keyset paging: the cursor for page n is the nextCursor the server gave with page n-1.
+  const [cursors, setCursors] = useState<(string | null)[]>([null])
+
+  useEffect(() => {
+    const timer = setTimeout(() => setQ(searchBox.trim()), 300)
+    return () => clearTimeout(timer)
+  }, [searchBox])
+
+  const sort = (sorting[0]?.id ?? "createdAt") as JobSort
+  const dir = sorting[0]?.desc === false ? "asc" : "desc"
+  const filterKey = `${status}|${q}|${sort}|${dir}|${pagination.pageSize}`
+  useEffect(() => {
+    setCursors([null])
+    setPagination((p) => ({ ...p, pageIndex: 0 }))
+  }, [filterKey])
+
+  const cursor = cursors[pagination.pageIndex] ?? null
+  const params = useMemo(() => {
+    const p = new URLSearchParams({ sort, dir, limit: String(pagination.pageSize) })
+    if (status) p.set("status", status)
+    if (q) p.set("q", q)
+    if (cursor) p.set("cursor", cursor)
+    return p.toString()
+  }, [sort, dir, pagination.pageSize, status, q, cursor])
+
+  const result = useQuery({
+    queryKey: ["jobs", { status, q, sort, dir, pageSize: pagination.pageSize, cursor }],
+    queryFn: () => apiFetch<JobPage>(`/api/jobs?${params}`),
+    placeholderData: keepPreviousData,
+  })
+
+  useEffect(() => {
+    const next = result.data?.nextCursor
+    if (next && !result.isPlaceholderData) {
+      setCursors((list) => {
+        const copy = list.slice(0, pagination.pageIndex + 1)
+        copy[pagination.pageIndex + 1] = next
+        return copy
+      })
+    }
+  }, [result.data, result.isPlaceholderData, pagination.pageIndex])
+
+  const table = useTable({
+    features,
+    columns,
+    data: result.data?.jobs ?? emptyRows,
+    rowCount: result.data?.total,
+    state: { sorting, pagination },
+    onSortingChange: setSorting,
+    onPaginationChange: setPagination,
+    manualSorting: true,
+    manualPagination: true,
+    enableMultiSort: false,
+    enableSortingRemoval: false,
+  })
+
+  const total = result.data?.total ?? 0
+  const first = total === 0 ? 0 : pagination.pageIndex * pagination.pageSize + 1
+  const last = Math.min(total, (pagination.pageIndex + 1) * pagination.pageSize)
+  const canNext = Boolean(cursors[pagination.pageIndex + 1]) && !result.isPlaceholderData
+
+  return (
+    <div className="space-y-3">
+      <div className="flex flex-wrap gap-2">
+        <div className="relative min-w-56 flex-1">
+          <Search aria-hidden className="pointer-events-none absolute top-1/2 left-3 size-5 -translate-y-1/2 text-graphite-400" />
+          <label htmlFor="job-search" className="sr-only">
+            Search jobs
+          </label>
+          <Input
+            id="job-search"
+            type="search"
+            className="pl-10"
+            placeholder="RO, customer, VIN, plate…"
+            value={searchBox}
+            onChange={(e) => setSearchBox(e.target.value)}
+          />
+        </div>
+        <label htmlFor="job-status" className="sr-only">
+          Status
+        </label>
+        <Select id="job-status" className="w-auto min-w-40" value={status} onChange={(e) => setStatus(e.target.value)}>
+          <option value="">Every status</option>
+          {JOB_STATUSES.map((s) => (
+            <option key={s} value={s}>
+              {JOB_STATUS_LABEL[s]}
+            </option>
+          ))}
+        </Select>
+      </div>
+
+      <div className="overflow-x-auto rounded-xl border border-graphite-200 bg-white dark:border-asphalt-700 dark:bg-asphalt-800">
+        <table className="w-full min-w-[40rem] text-left text-sm" aria-busy={result.isFetching}>
+          <thead className="border-b border-graphite-200 dark:border-asphalt-700">
+            {table.getHeaderGroups().map((group) => (
+              <tr key={group.id}>
+                {group.headers.map((header) => {
+                  const sorted = header.column.getIsSorted()
+                  const Icon = sorted === "asc" ? ArrowUp : sorted === "desc" ? ArrowDown : ArrowUpDown
+                  return (
+                    <th
+                      key={header.id}
+                      scope="col"
+                      className="px-3 py-1 font-semibold text-graphite-600 dark:text-graphite-300"
+                      aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : undefined}
+                    >
+                      {header.column.getCanSort() ? (
+                        <button type="button" className="inline-flex min-h-12 items-center gap-1" onClick={header.column.getToggleSortingHandler()}>
+                          <table.FlexRender header={header} />
+                          <Icon aria-hidden className="size-4" />
+                          <span className="sr-only">{sorted ? `sorted ${sorted === "asc" ? "ascending" : "descending"}` : "sort"}</span>
+                        </button>
+                      ) : (
+                        <table.FlexRender header={header} />
+                      )}
+                    </th>
+                  )
+                })}
+              </tr>
+            ))}
+          </thead>
+          <tbody className="divide-y divide-graphite-100 dark:divide-asphalt-700">
+            {table.getRowModel().rows.map((row) => (
+              <tr key={row.id} data-testid="job-row">
+                {row.getAllCells().map((cell) => (
+                  <td key={cell.id} className="px-3 py-1 align-middle">
+                    <table.FlexRender cell={cell} />
+                  </td>
+                ))}
+              </tr>
+            ))}
+          </tbody>
+        </table>
+        {result.isError ? <p className="p-4 font-medium text-stop-600">{(result.error as Error).message}</p> : null}
+        {result.data && total === 0 ? (
+          <p className="p-4 text-graphite-600 dark:text-graphite-300">{q || status ? "No job matches." : "No jobs yet. Open the first one."}</p>
+        ) : null}
+      </div>
+
+      <div className="flex items-center justify-between gap-2">
+        <p className="text-sm text-graphite-600 tabular dark:text-graphite-300">
+          {total ? `${first}–${last} of ${total}` : ""}
+        </p>
+        <div className="flex gap-2">
+          <Button variant="outline" aria-label="Previous page" disabled={pagination.pageIndex === 0} onClick={() => table.previousPage()}>
+            <ChevronLeft aria-hidden className="size-5" />
+          </Button>
+          <Button variant="outline" aria-label="Next page" disabled={!canNext} onClick={() => table.nextPage()}>
+            <ChevronRight aria-hidden className="size-5" />
+          </Button>
+        </div>
+      </div>
+    </div>
+  )
+}
