@@ -21,14 +21,59 @@ self.addEventListener("message", (event) => {
 
 const PAGES = "straightaway-pages"
 
+// A page that redirected (to sign-in, say) must never be kept as the page that was asked for.
+const notRedirected = {
+  cacheWillUpdate: async ({ response }: { response: Response }) => (response.ok && !response.redirected ? response : null),
+}
+
+// The recorder keeps its drive in `?drive=`: every recorder address is served by the one cached /record page,
+// which finds the drive in IndexedDB. So a reload in the middle of a drive with no network still opens it.
+const recorderPages = new NetworkFirst({
+  cacheName: PAGES,
+  networkTimeoutSeconds: 4,
+  matchOptions: { ignoreSearch: true },
+  plugins: [notRedirected, new ExpirationPlugin({ maxEntries: 60, maxAgeSeconds: 14 * 24 * 3600 })],
+})
+registerRoute(
+  ({ request, url }) => request.mode === "navigate" && url.origin === self.location.origin && url.pathname.startsWith("/record"),
+  async (options) => {
+    try {
+      return await recorderPages.handle(options)
+    } catch {
+      const cache = await caches.open(PAGES)
+      return (await cache.match("/record", { ignoreSearch: true })) ?? Response.error()
+    }
+  },
+)
+
 registerRoute(
   ({ request, url }) => request.mode === "navigate" && url.origin === self.location.origin,
   new NetworkFirst({
     cacheName: PAGES,
     networkTimeoutSeconds: 4,
-    plugins: [new ExpirationPlugin({ maxEntries: 60, maxAgeSeconds: 14 * 24 * 3600 })],
+    plugins: [notRedirected, new ExpirationPlugin({ maxEntries: 60, maxAgeSeconds: 14 * 24 * 3600 })],
   }),
 )
+
+// Signed-in pages asked for by the app (the recorder and the drive list), fetched once so they open offline
+// even if they were never visited on this phone.
+self.addEventListener("message", (event) => {
+  if (event.data?.type !== "WARM" || !Array.isArray(event.data.urls)) return
+  event.waitUntil(
+    (async () => {
+      const cache = await caches.open(PAGES)
+      for (const url of event.data.urls as string[]) {
+        if (typeof url !== "string" || !url.startsWith("/")) continue
+        try {
+          const res = await fetch(url, { credentials: "same-origin" })
+          if (res.ok && !res.redirected) await cache.put(url, res)
+        } catch {
+          // offline: the next visit warms it
+        }
+      }
+    })(),
+  )
+})
 
 // React Server Component payloads for client-side navigation between cached pages.
 registerRoute(
@@ -40,7 +85,7 @@ registerRoute(
 registerRoute(
   ({ request, url }) =>
     request.method === "GET" && url.origin === self.location.origin && /^\/api\/(jobs|profiles|drives|session)(\/|$|\?)/.test(url.pathname),
-  new NetworkFirst({ cacheName: "straightaway-api", networkTimeoutSeconds: 4, plugins: [new ExpirationPlugin({ maxEntries: 200 })] }),
+  new NetworkFirst({ cacheName: "straightaway-api", networkTimeoutSeconds: 4, plugins: [notRedirected, new ExpirationPlugin({ maxEntries: 200 })] }),
 )
 
 registerRoute(

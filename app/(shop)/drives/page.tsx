@@ -1,0 +1,111 @@
+import { CircleDot } from "lucide-react"
+import Link from "next/link"
+import { requirePageRole } from "@/app/_server/auth"
+import { VerdictBadge } from "@/components/drives/verdict-badge"
+import { buttonVariants } from "@/components/ui/button"
+import { cn } from "@/components/ui/cn"
+import { PageHeader } from "@/components/ui/page-header"
+import { getDb } from "@/db/client"
+import { listDrives } from "@/db/queries/drives"
+import { listDrivesQuery, parseDriveCursor } from "@/lib/validation/drive"
+
+export const metadata = { title: "Drives" }
+
+const FILTERS = [
+  { label: "All", query: "" },
+  { label: "Recording", query: "status=recording" },
+  { label: "Met", query: "verdict=met" },
+  { label: "Short", query: "verdict=short" },
+  { label: "Not met", query: "verdict=not_met" },
+  { label: "Unverified", query: "verdict=unverified" },
+]
+
+function when(d: Date | string) {
+  return new Date(d).toLocaleString("en-US", { dateStyle: "medium", timeStyle: "short" })
+}
+
+export default async function DrivesPage({ searchParams }: { searchParams: Promise<Record<string, string | undefined>> }) {
+  const user = await requirePageRole()
+  const parsed = listDrivesQuery.safeParse(await searchParams)
+  const query = parsed.success ? parsed.data : {}
+  const cursor = parseDriveCursor(query.cursor) ?? undefined
+  const { rows, nextCursor } = await listDrives(getDb(), user.shopId, {
+    verdict: query.verdict,
+    status: query.status,
+    coDriverId: user.role === "co_driver" ? user.id : undefined,
+    cursor,
+  })
+  const current = query.verdict ? `verdict=${query.verdict}` : query.status ? `status=${query.status}` : ""
+  const canRecord = user.role !== "co_driver"
+  return (
+    <div className="mx-auto max-w-3xl">
+      <PageHeader
+        title="Drives"
+        description={user.role === "co_driver" ? "Drives that name you as co-driver." : "Every calibration drive of the shop, newest first."}
+        actions={
+          canRecord ? (
+            <Link href="/record" className={buttonVariants({ variant: "signal" })}>
+              <CircleDot aria-hidden className="size-5" /> Record a drive
+            </Link>
+          ) : null
+        }
+      />
+      <nav aria-label="Filter drives" className="mb-3 flex gap-2 overflow-x-auto pb-1">
+        {FILTERS.map((f) => (
+          <Link
+            key={f.label}
+            href={f.query ? `/drives?${f.query}` : "/drives"}
+            aria-current={current === f.query ? "page" : undefined}
+            className={cn(
+              "flex min-h-12 shrink-0 items-center rounded-full border-2 px-4 text-sm font-semibold",
+              current === f.query
+                ? "border-graphite-900 bg-graphite-900 text-white dark:border-signal-400 dark:bg-signal-400 dark:text-graphite-950"
+                : "border-graphite-300 dark:border-graphite-600",
+            )}
+          >
+            {f.label}
+          </Link>
+        ))}
+      </nav>
+      {rows.length === 0 ? (
+        <p className="rounded-xl border border-dashed border-graphite-300 p-6 text-center text-graphite-600 dark:border-graphite-600 dark:text-graphite-300">
+          No drives here yet.
+        </p>
+      ) : (
+        <ul className="divide-y divide-graphite-200 overflow-hidden rounded-xl border border-graphite-200 bg-white dark:divide-asphalt-700 dark:border-asphalt-700 dark:bg-asphalt-800" data-testid="drive-list">
+          {rows.map((d) => {
+            const href = d.status === "recording" && user.role === "co_driver" ? `/record/${d.id}/co-driver` : `/drives/${d.id}`
+            return (
+              <li key={d.id}>
+                <Link href={href} className="flex min-h-16 items-center gap-3 px-4 py-3 hover:bg-graphite-50 dark:hover:bg-asphalt-700" data-drive-id={d.id}>
+                  <div className="min-w-0 flex-1">
+                    <p className="truncate font-semibold">
+                      {d.ro_number ? `RO ${d.ro_number}` : "Unplanned"}
+                      {d.vehicle_description ? ` · ${d.vehicle_description}` : ""}
+                    </p>
+                    <p className="truncate text-sm text-graphite-600 dark:text-graphite-300">
+                      {when(d.created_at)} · {d.driver_name ?? "Unknown driver"}
+                      {d.co_driver_name ? ` with ${d.co_driver_name}` : ""}
+                      {d.source === "import" ? " · imported" : ""}
+                    </p>
+                  </div>
+                  <VerdictBadge verdict={d.status === "recording" ? null : d.verdict} />
+                </Link>
+              </li>
+            )
+          })}
+        </ul>
+      )}
+      {nextCursor ? (
+        <div className="mt-4 text-center">
+          <Link
+            className={buttonVariants({ variant: "outline" })}
+            href={`/drives?${new URLSearchParams({ ...(query.verdict ? { verdict: query.verdict } : {}), ...(query.status ? { status: query.status } : {}), cursor: nextCursor })}`}
+          >
+            Older drives
+          </Link>
+        </div>
+      ) : null}
+    </div>
+  )
+}

@@ -1,0 +1,52 @@
+"use client"
+import { RefreshCw } from "lucide-react"
+import { useEffect, useState } from "react"
+import { Workbox } from "workbox-window"
+import { getActiveDrive } from "@/lib/recorder/idb-outbox"
+
+/** Pages the recorder needs with no network, fetched into the worker's cache once signed in. */
+const WARM_URLS = ["/record", "/drives"]
+
+/**
+ * Registers /sw.js. When a new worker is waiting it offers a reload, but never while a drive is
+ * being recorded on this phone (the offer waits until the drive is finished).
+ */
+export function ServiceWorkerRegistration() {
+  const [wb, setWb] = useState<Workbox | null>(null)
+  const [waiting, setWaiting] = useState(false)
+  const [driving, setDriving] = useState(true)
+
+  useEffect(() => {
+    if (!("serviceWorker" in navigator) || process.env.NODE_ENV !== "production") return
+    const workbox = new Workbox("/sw.js", { scope: "/" })
+    workbox.addEventListener("waiting", () => setWaiting(true))
+    workbox.addEventListener("activated", () => void workbox.messageSW({ type: "WARM", urls: WARM_URLS }))
+    void workbox.register().then(() => workbox.messageSW({ type: "WARM", urls: WARM_URLS }).catch(() => {}))
+    setWb(workbox)
+  }, [])
+
+  useEffect(() => {
+    if (!waiting) return
+    const check = () => void getActiveDrive().then((id) => setDriving(Boolean(id)))
+    check()
+    const timer = setInterval(check, 5000)
+    return () => clearInterval(timer)
+  }, [waiting])
+
+  if (!waiting || driving || !wb) return null
+  return (
+    <div role="status" className="fixed inset-x-3 bottom-3 z-50 flex items-center gap-3 rounded-xl bg-asphalt-700 p-3 text-white shadow-lg">
+      <span className="flex-1">A new version of Straightaway is ready.</span>
+      <button
+        type="button"
+        className="flex min-h-12 items-center gap-2 rounded-lg bg-signal-400 px-4 font-bold text-graphite-950"
+        onClick={() => {
+          wb.addEventListener("controlling", () => window.location.reload())
+          wb.messageSkipWaiting()
+        }}
+      >
+        <RefreshCw aria-hidden className="size-5" /> Reload
+      </button>
+    </div>
+  )
+}

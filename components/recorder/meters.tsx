@@ -1,0 +1,125 @@
+"use client"
+import { Gauge, Hourglass, Link2, Timer, TriangleAlert, UsersRound } from "lucide-react"
+import type { ReactNode } from "react"
+import { cn } from "@/components/ui/cn"
+import { mpsToMph } from "@/lib/units"
+import { useRecorder } from "./use-recorder"
+
+function minutes(seconds: number) {
+  return (seconds / 60).toFixed(1)
+}
+
+function Meter({ label, icon, value, unit, detail, tone = "plain", testId, raw }: {
+  label: string
+  icon: ReactNode
+  value: string
+  unit: string
+  detail?: string
+  tone?: "plain" | "signal" | "teal" | "stop"
+  testId: string
+  raw?: number | null
+}) {
+  const tones = {
+    plain: "border-asphalt-700",
+    signal: "border-signal-400",
+    teal: "border-teal-400",
+    stop: "border-stop-400",
+  }
+  return (
+    <div className={cn("rounded-xl border-2 bg-asphalt-800 p-3", tones[tone])} data-testid={testId} data-value={raw ?? ""}>
+      <div className="flex items-center gap-1.5 text-sm font-semibold text-graphite-300">
+        {icon}
+        {label}
+      </div>
+      <div className="tabular text-5xl leading-tight font-bold text-white">
+        {value}
+        <span className="ml-1 text-xl font-semibold text-graphite-300">{unit}</span>
+      </div>
+      {detail ? <div className="text-sm text-graphite-300">{detail}</div> : null}
+    </div>
+  )
+}
+
+/** The live meters: big numerals, readable at arm's length, every state with a word and an icon. */
+export function Meters() {
+  const meta = useRecorder((s) => s.meta)
+  const score = useRecorder((s) => s.score)
+  const speedMps = useRecorder((s) => s.speedMps)
+  const left = useRecorder((s) => s.minutesLeft)
+  const nowMs = useRecorder((s) => s.nowMs)
+  if (!meta) return null
+  const p = meta.profile
+  const mph = speedMps === null ? null : mpsToMph(speedMps)
+  const inBand = mph !== null && mph >= p.minSpeedMph && (p.maxSpeedMph === null || mph <= p.maxSpeedMph)
+  const band = p.maxSpeedMph === null ? `${p.minSpeedMph}+ mph` : `${p.minSpeedMph}–${p.maxSpeedMph} mph`
+  const elapsedS = Math.max(0, (nowMs - meta.startedAtMs) / 1000)
+  const harsh = (score?.harshEvents.accel ?? 0) + (score?.harshEvents.decel ?? 0)
+  const q = score?.qualifyingSecondsBeforeClear ?? 0
+  const f = score?.followingSecondsBeforeClear ?? 0
+  return (
+    <div className="grid grid-cols-2 gap-2">
+      <Meter
+        testId="meter-speed"
+        raw={speedMps}
+        label={inBand ? "Speed: qualifying" : "Speed: not qualifying"}
+        icon={<Gauge aria-hidden className="size-4" />}
+        value={mph === null ? "—" : Math.round(mph).toString()}
+        unit="mph"
+        detail={`band ${band}`}
+        tone={inBand ? "signal" : "plain"}
+      />
+      <Meter
+        testId="meter-qualifying"
+        raw={score?.qualifyingSeconds ?? 0}
+        label="Qualifying"
+        icon={<Timer aria-hidden className="size-4" />}
+        value={minutes(q)}
+        unit="min"
+        detail={`of ${p.minQualifyingMinutes} min`}
+        tone={q >= p.minQualifyingMinutes * 60 ? "signal" : "plain"}
+      />
+      <Meter
+        testId="meter-following"
+        raw={score?.followingSeconds ?? 0}
+        label="Following"
+        icon={<Link2 aria-hidden className="size-4" />}
+        value={minutes(f)}
+        unit="min"
+        detail={`of ${p.minFollowingMinutes} min, gap ${p.leadGapFt.min}–${p.leadGapFt.max} ft`}
+        tone={f >= p.minFollowingMinutes * 60 ? "teal" : "plain"}
+      />
+      <Meter
+        testId="meter-elapsed"
+        raw={elapsedS}
+        label="Elapsed"
+        icon={<Hourglass aria-hidden className="size-4" />}
+        value={minutes(elapsedS)}
+        unit="min"
+        detail={`usual 10–${p.maxDriveMinutes} min`}
+        tone={elapsedS >= p.maxDriveMinutes * 60 ? "stop" : "plain"}
+      />
+      <Meter
+        testId="meter-left"
+        raw={left?.minutesLeft ?? null}
+        label="Predicted left"
+        icon={<UsersRound aria-hidden className="size-4" />}
+        value={left?.minutesLeft === null || left === null ? "—" : left.minutesLeft.toFixed(0)}
+        unit="min"
+        detail={left?.minutesLeft === null || left === null ? "after some qualifying time" : "at the rate so far"}
+      />
+      <Meter
+        testId="meter-harsh"
+        raw={harsh}
+        label="Harsh events"
+        icon={<TriangleAlert aria-hidden className="size-4" />}
+        value={String(harsh)}
+        unit=""
+        detail={`${score?.harshEvents.accel ?? 0} speeding up · ${score?.harshEvents.decel ?? 0} braking`}
+        tone={harsh > 0 ? "signal" : "plain"}
+      />
+      <div className="col-span-2 text-xs text-graphite-400" data-testid="live-score" data-samples-used={score?.samplesUsed ?? 0} data-duration={score?.durationSeconds ?? 0} data-verdict={score?.verdict ?? ""}>
+        {score?.samplesUsed ?? 0} samples used · {Math.round(score?.distanceMeters ?? 0)} m
+      </div>
+    </div>
+  )
+}

@@ -1,0 +1,75 @@
+"use client"
+import { useEffect, useState } from "react"
+import { getActiveDrive } from "@/lib/recorder/idb-outbox"
+import { FinishScreen } from "./finish-screen"
+import { RecordingScreen } from "./recording-screen"
+import { StartFlow, type StartChoice } from "./start-flow"
+import { getRecorder, useRecorder } from "./use-recorder"
+
+/** The drive id lives in the address (`/record?drive=...`) so that a reload, online or not, finds the drive. */
+function driveIdFromLocation(): string | null {
+  const url = new URL(window.location.href)
+  const fromQuery = url.searchParams.get("drive")
+  if (fromQuery) return fromQuery
+  const m = /^\/record\/([0-9a-f-]{36})/i.exec(url.pathname)
+  return m ? m[1]! : null
+}
+
+export function RecorderApp({ coDriver = false }: { coDriver?: boolean }) {
+  const meta = useRecorder((s) => s.meta)
+  const [phase, setPhase] = useState<"loading" | "start" | "drive" | "missing">("loading")
+
+  useEffect(() => {
+    const recorder = getRecorder()
+    const onOnline = () => void recorder.flushNow()
+    window.addEventListener("online", onOnline)
+    void (async () => {
+      const id = driveIdFromLocation() ?? (coDriver ? null : await getActiveDrive()) ?? null
+      if (id && (await recorder.load(id))) {
+        if (!driveIdFromLocation()) window.history.replaceState(null, "", `/record?drive=${id}`)
+        setPhase("drive")
+        return
+      }
+      if (coDriver && id) {
+        const body = await fetch(`/api/drives/${id}`, { credentials: "same-origin" }).then((r) => (r.ok ? r.json() : null)).catch(() => null)
+        if (body?.drive) {
+          await recorder.joinAsCoDriver(id, body.drive.profile, body.drive.vehicleDescription ?? "Drive")
+          setPhase("drive")
+          return
+        }
+        setPhase("missing")
+        return
+      }
+      void recorder.flush() // anything left from an earlier drive goes out on app start
+      setPhase("start")
+    })()
+    const onHide = () => void recorder.persistBuffer(true)
+    window.addEventListener("pagehide", onHide)
+    return () => {
+      window.removeEventListener("online", onOnline)
+      window.removeEventListener("pagehide", onHide)
+    }
+  }, [coDriver])
+
+  async function start(choice: StartChoice) {
+    const id = crypto.randomUUID()
+    window.history.replaceState(null, "", `/record?drive=${id}`)
+    await getRecorder().start({ id, ...choice, coDriverId: null })
+    setPhase("drive")
+  }
+
+  if (phase === "loading") return <p className="text-graphite-300">Opening the recorder…</p>
+  if (phase === "missing") return <p className="text-graphite-300">This drive is not one you can log marks on, or it has not reached the server yet.</p>
+  if (phase === "start") return <StartFlow onStart={(c) => void start(c)} />
+  if (meta && meta.status !== "recording" && meta.role !== "co-driver") {
+    return (
+      <FinishScreen
+        onNewDrive={() => {
+          window.history.replaceState(null, "", "/record")
+          window.location.reload()
+        }}
+      />
+    )
+  }
+  return <RecordingScreen />
+}

@@ -1,0 +1,44 @@
+"use client"
+import { CloudOff, CloudUpload, CircleCheck, TriangleAlert } from "lucide-react"
+import { getRecorder, useRecorder } from "./use-recorder"
+
+function clock(ms: number | null) {
+  return ms ? new Date(ms).toLocaleTimeString([], { hour: "2-digit", minute: "2-digit", second: "2-digit" }) : "not yet"
+}
+
+/** Samples waiting, last synced, and any write the server refused (kept here until someone looks). */
+export function SyncStatus() {
+  const sync = useRecorder((s) => s.sync)
+  const waiting = sync.waitingSamples + sync.waitingOther
+  const Icon = sync.failed.length ? TriangleAlert : sync.state === "waiting" ? CloudOff : waiting ? CloudUpload : CircleCheck
+  const word =
+    sync.state === "signed-out"
+      ? "Signed out: sign in again to send"
+      : sync.state === "waiting"
+        ? "No network: saved on this phone"
+        : waiting
+          ? "Sending"
+          : "All sent"
+  return (
+    <div className="rounded-lg bg-asphalt-800 px-3 py-2 text-sm text-graphite-200" data-testid="sync-status" data-waiting={sync.waitingSamples} data-state={sync.state}>
+      <div className="flex items-center gap-2">
+        <Icon aria-hidden className="size-5 shrink-0" />
+        <span className="font-semibold">{word}</span>
+        <span className="ml-auto tabular">
+          {sync.waitingSamples} samples waiting · last synced {clock(sync.lastSyncedAt)}
+        </span>
+      </div>
+      {sync.failed.map((f) => (
+        <div key={f.key} className="mt-2 flex items-center gap-2 rounded bg-stop-700/40 p-2 text-stop-400" role="alert">
+          <TriangleAlert aria-hidden className="size-4 shrink-0" />
+          <span className="flex-1">
+            The server refused {f.type === "samples" ? `${f.samples.length} samples` : f.type.replace("-", " ")}: {f.failed?.message}
+          </span>
+          <button className="min-h-12 rounded border border-stop-400 px-3" onClick={() => void getRecorder().retryFailed(f.key)}>
+            Try again
+          </button>
+        </div>
+      ))}
+    </div>
+  )
+}

@@ -1,0 +1,43 @@
+import type { Sample } from "@/lib/drive-file/schema"
+
+/** The parts of a GeolocationPosition a sample needs (so this stays testable without a browser). */
+export interface PositionLike {
+  timestamp: number
+  coords: { latitude: number; longitude: number; speed: number | null; accuracy: number | null }
+}
+
+const finiteOrNull = (v: number | null | undefined) => (typeof v === "number" && Number.isFinite(v) && v >= 0 ? v : null)
+
+/**
+ * A fix as a drive-file sample. NOTE: some browsers give NaN or a negative speed when they have
+ * none; that is stored as null so the scorer derives speed from positions.
+ */
+export function positionToSample(p: PositionLike): Sample {
+  return {
+    t: Math.round(p.timestamp),
+    lat: p.coords.latitude,
+    lon: p.coords.longitude,
+    speed: finiteOrNull(p.coords.speed),
+    accuracy: finiteOrNull(p.coords.accuracy),
+  }
+}
+
+export type GpsState = "waiting" | "ok" | "poor" | "no-fix" | "denied" | "unavailable"
+
+/** Plain words for the crew. */
+export function gpsMessage(state: GpsState, accuracyM: number | null, maxAccuracyM: number): string | null {
+  switch (state) {
+    case "waiting":
+      return "Finding your position…"
+    case "denied":
+      return "Location is blocked for Straightaway. Allow location in the browser's site settings, then come back."
+    case "unavailable":
+      return "This phone cannot give a position. Try another phone or browser."
+    case "no-fix":
+      return "No position for a while. Keep the phone where it can see the sky (on the dash, not in a pocket)."
+    case "poor":
+      return `Position is rough (±${Math.round(accuracyM ?? 0)} m). Samples rougher than ±${maxAccuracyM} m do not count.`
+    default:
+      return null
+  }
+}
