@@ -1,0 +1,83 @@
+import { Download } from "lucide-react"
+import type { Metadata } from "next"
+import Link from "next/link"
+import { requirePageRole } from "@/app/_server/auth"
+import { loadNumbersDrives } from "@/app/_server/numbers"
+import { TimeToClearChart, TopReasonsChart, VerdictMixChart } from "@/components/numbers/numbers-charts"
+import { buttonVariants } from "@/components/ui/button"
+import { Card } from "@/components/ui/card"
+import { cn } from "@/components/ui/cn"
+import { PageHeader } from "@/components/ui/page-header"
+import { getDb } from "@/db/client"
+import { computeNumbers } from "@/lib/numbers"
+
+export const metadata: Metadata = { title: "Numbers" }
+export const dynamic = "force-dynamic"
+
+const RANGES = [30, 90, 365] as const
+
+export default async function NumbersPage({ searchParams }: { searchParams: Promise<{ days?: string }> }) {
+  const me = await requirePageRole("shop_lead")
+  const asked = Number((await searchParams).days)
+  const days = (RANGES as readonly number[]).includes(asked) ? asked : 90
+  const drives = await loadNumbersDrives(getDb(), me.shopId, days)
+  const numbers = computeNumbers(drives)
+  return (
+    <>
+      <PageHeader
+        title="Numbers"
+        description={`${numbers.drives} finished ${numbers.drives === 1 ? "drive" : "drives"} in the last ${days} days.`}
+        actions={
+          <a className={buttonVariants({ variant: "outline", size: "sm" })} href={`/api/numbers?format=csv&days=${days}`} data-testid="numbers-csv">
+            <Download aria-hidden className="size-4" /> CSV
+          </a>
+        }
+      />
+      <nav className="mb-4 flex gap-2" aria-label="Period">
+        {RANGES.map((r) => (
+          <Link key={r} href={`/numbers?days=${r}`} aria-current={r === days ? "page" : undefined} className={cn(buttonVariants({ variant: r === days ? "primary" : "ghost", size: "sm" }))}>
+            {r} days
+          </Link>
+        ))}
+      </nav>
+      {numbers.drives === 0 ? (
+        <Card>No finished drives in this period yet.</Card>
+      ) : (
+        <div className="grid gap-4 xl:grid-cols-2">
+          <TimeToClearChart data={numbers.timeToClear} />
+          <VerdictMixChart data={numbers.verdictMix} />
+          <TopReasonsChart data={numbers.topReasons} />
+          <Card className="overflow-x-auto p-0">
+            <table className="w-full text-left text-sm" data-testid="per-technician">
+              <caption className="px-3 pt-3 text-left text-lg font-semibold">Per technician</caption>
+              <thead>
+                <tr className="border-b border-graphite-200 text-graphite-600 dark:border-asphalt-700 dark:text-graphite-300">
+                  <th className="px-3 py-2 font-medium">Technician</th>
+                  <th className="px-3 py-2 font-medium">Drives</th>
+                  <th className="px-3 py-2 font-medium">Met</th>
+                  <th className="px-3 py-2 font-medium">Median to clear</th>
+                  <th className="px-3 py-2 font-medium">Harsh events</th>
+                  <th className="px-3 py-2 font-medium">Sent back</th>
+                </tr>
+              </thead>
+              <tbody>
+                {numbers.perTechnician.map((t) => (
+                  <tr key={t.technicianId} className="border-b border-graphite-100 last:border-0 dark:border-asphalt-700">
+                    <td className="px-3 py-2">{t.name}</td>
+                    <td className="tabular px-3 py-2">{t.drives}</td>
+                    <td className="tabular px-3 py-2">
+                      {t.met} ({Math.round(t.metShare * 100)} %)
+                    </td>
+                    <td className="tabular px-3 py-2">{t.medianMinutesToClear == null ? "—" : `${t.medianMinutesToClear} min`}</td>
+                    <td className="tabular px-3 py-2">{t.harshEvents}</td>
+                    <td className="tabular px-3 py-2">{t.sentBack}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </Card>
+        </div>
+      )}
+    </>
+  )
+}

@@ -1,0 +1,27 @@
+import "server-only"
+import type { Db } from "@/db/client"
+import { listDrivesForNumbers } from "@/db/queries/numbers"
+import type { NumbersDrive, NumbersVerdict } from "@/lib/numbers"
+
+export const NUMBERS_DEFAULT_DAYS = 90
+
+/** The shop's finished drives of the last `days` days as plain rows for lib/numbers. */
+export async function loadNumbersDrives(db: Db, shopId: string, days: number): Promise<NumbersDrive[]> {
+  const since = new Date(Date.now() - days * 86_400_000)
+  const rows = await listDrivesForNumbers(db, shopId, since)
+  return rows.map((r) => ({
+    driveId: r.id,
+    finishedAt: new Date(r.finished_at ?? 0).toISOString(),
+    verdict: (r.verdict ?? "not_met") as NumbersVerdict,
+    profileName: r.profile_name ?? "Profile set on the drive",
+    technicianId: r.driver_id,
+    technicianName: r.driver_name ?? "Former staff",
+    clearedAtSeconds: r.cleared_at_seconds == null ? null : Number(r.cleared_at_seconds),
+    durationSeconds: Number(r.duration_seconds),
+    qualifyingSecondsBeforeClear: Number(r.qualifying_seconds),
+    followingSecondsBeforeClear: Number(r.following_seconds),
+    harshEvents: Number(r.harsh_events),
+    unmetConditions: r.unmet_conditions ?? [],
+    reviewStatus: r.review_status,
+  }))
+}

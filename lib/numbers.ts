@@ -1,0 +1,216 @@
+// The shop's numbers, from plain rows: pure aggregation, no I/O. Times are in seconds in, minutes out.
+import { csvField } from "@/lib/export/csv"
+
+export type NumbersVerdict = "met" | "short" | "not_met" | "unverified"
+
+export interface NumbersDrive {
+  driveId: string
+  finishedAt: string
+  verdict: NumbersVerdict
+  profileName: string
+  technicianId: string
+  technicianName: string
+  /** From the first kept sample to the cleared mark; null when the learn never cleared. */
+  clearedAtSeconds: number | null
+  durationSeconds: number
+  qualifyingSecondsBeforeClear: number
+  followingSecondsBeforeClear: number
+  harshEvents: number
+  /** Keys of the conditions that were not met (the score's conditions). */
+  unmetConditions: string[]
+  reviewStatus: "approved" | "redo" | null
+}
+
+export const VERDICTS: NumbersVerdict[] = ["met", "short", "not_met", "unverified"]
+
+export const CONDITION_PROBLEM: Record<string, string> = {
+  cleared: "Learn never reported complete",
+  "time-limit": "Timed out",
+  "qualifying-time": "Too little qualifying time",
+  "following-time": "Too little following time",
+  verified: "Function not seen working",
+  "harsh-events": "Harsh braking or acceleration",
+  "data-gaps": "Position data gaps",
+}
+
+/**
+ * Percentile by linear interpolation between closest ranks, the "C = 1" variant (Hyndman & Fan 1996
+ * definition 7; the default of R, NumPy and spreadsheet PERCENTILE.INC). p in [0, 100].
+ */
+export function percentile(values: readonly number[], p: number): number | null {
+  if (values.length === 0) return null
+  const sorted = [...values].sort((a, b) => a - b)
+  const x = (p / 100) * (sorted.length - 1)
+  const lo = Math.floor(x)
+  const hi = Math.min(lo + 1, sorted.length - 1)
+  return sorted[lo]! + (x - lo) * (sorted[hi]! - sorted[lo]!)
+}
+
+/** Bins of minutes to clear: [0,5), [5,10) ... [30, ∞). */
+export const CLEAR_BINS_MIN = [0, 5, 10, 15, 20, 25, 30] as const
+
+export function clearBinLabel(i: number) {
+  const lo = CLEAR_BINS_MIN[i]!
+  const hi = CLEAR_BINS_MIN[i + 1]
+  return hi === undefined ? `${lo}+ min` : `${lo}-${hi} min`
+}
+
+export interface TimeToClear {
+  profileName: string
+  drives: number
+  cleared: number
+  medianMinutes: number | null
+  p90Minutes: number | null
+  /** Count of cleared drives per CLEAR_BINS_MIN bin. */
+  bins: number[]
+}
+
+export function timeToClearByProfile(drives: readonly NumbersDrive[]): TimeToClear[] {
+  const groups = groupBy(drives, (d) => d.profileName)
+  return [...groups.entries()]
+    .map(([profileName, list]) => {
+      const minutes = list.filter((d) => d.clearedAtSeconds != null).map((d) => d.clearedAtSeconds! / 60)
+      const bins = CLEAR_BINS_MIN.map(() => 0)
+      for (const m of minutes) {
+        let i = CLEAR_BINS_MIN.length - 1
+        while (i > 0 && m < CLEAR_BINS_MIN[i]!) i--
+        bins[i]! += 1
+      }
+      return {
+        profileName,
+        drives: list.length,
+        cleared: minutes.length,
+        medianMinutes: round1(percentile(minutes, 50)),
+        p90Minutes: round1(percentile(minutes, 90)),
+        bins,
+      }
+    })
+    .sort((a, b) => b.drives - a.drives || a.profileName.localeCompare(b.profileName))
+}
+
+/** Monday (UTC) of the ISO 8601 week holding the instant, as YYYY-MM-DD. */
+export function isoWeekStart(iso: string): string {
+  const d = new Date(iso)
+  const day = (d.getUTCDay() + 6) % 7 // Monday = 0 (ISO 8601 numbers Monday as day 1)
+  const monday = new Date(Date.UTC(d.getUTCFullYear(), d.getUTCMonth(), d.getUTCDate() - day))
+  return monday.toISOString().slice(0, 10)
+}
+
+export type VerdictMixRow = { weekStart: string; total: number } & Record<NumbersVerdict, number>
+
+export function verdictMixByWeek(drives: readonly NumbersDrive[]): VerdictMixRow[] {
+  const rows = new Map<string, VerdictMixRow>()
+  for (const d of drives) {
+    const weekStart = isoWeekStart(d.finishedAt)
+    const row = rows.get(weekStart) ?? { weekStart, total: 0, met: 0, short: 0, not_met: 0, unverified: 0 }
+    row[d.verdict] += 1
+    row.total += 1
+    rows.set(weekStart, row)
+  }
+  return [...rows.values()].sort((a, b) => a.weekStart.localeCompare(b.weekStart))
+}
+
+export type ReasonCount = { key: string; label: string; drives: number; share: number }
+
+export function topReasons(drives: readonly NumbersDrive[], limit = 7): ReasonCount[] {
+  const counts = new Map<string, number>()
+  for (const d of drives) for (const key of new Set(d.unmetConditions)) counts.set(key, (counts.get(key) ?? 0) + 1)
+  return [...counts.entries()]
+    .map(([key, n]) => ({ key, label: CONDITION_PROBLEM[key] ?? key, drives: n, share: drives.length ? n / drives.length : 0 }))
+    .sort((a, b) => b.drives - a.drives || a.key.localeCompare(b.key))
+    .slice(0, limit)
+}
+
+export type TechnicianNumbers = {
+  technicianId: string
+  name: string
+  drives: number
+  met: number
+  metShare: number
+  medianMinutesToClear: number | null
+  harshEvents: number
+  sentBack: number
+}
+
+export function perTechnician(drives: readonly NumbersDrive[]): TechnicianNumbers[] {
+  return [...groupBy(drives, (d) => d.technicianId).entries()]
+    .map(([technicianId, list]) => {
+      const met = list.filter((d) => d.verdict === "met").length
+      return {
+        technicianId,
+        name: list[0]!.technicianName,
+        drives: list.length,
+        met,
+        metShare: met / list.length,
+        medianMinutesToClear: round1(percentile(list.filter((d) => d.clearedAtSeconds != null).map((d) => d.clearedAtSeconds! / 60), 50)),
+        harshEvents: list.reduce((n, d) => n + d.harshEvents, 0),
+        sentBack: list.filter((d) => d.reviewStatus === "redo").length,
+      }
+    })
+    .sort((a, b) => b.drives - a.drives || a.name.localeCompare(b.name))
+}
+
+export function computeNumbers(drives: readonly NumbersDrive[]) {
+  return {
+    drives: drives.length,
+    timeToClear: timeToClearByProfile(drives),
+    verdictMix: verdictMixByWeek(drives),
+    topReasons: topReasons(drives),
+    perTechnician: perTechnician(drives),
+  }
+}
+export type Numbers = ReturnType<typeof computeNumbers>
+
+export const NUMBERS_CSV_COLUMNS = [
+  "drive_id",
+  "finished_at",
+  "technician",
+  "profile",
+  "verdict",
+  "minutes_to_clear",
+  "qualifying_minutes_before_clear",
+  "following_minutes_before_clear",
+  "duration_minutes",
+  "harsh_events",
+  "review",
+  "unmet_conditions",
+] as const
+
+/** One line per drive (RFC 4180, CRLF), for a spreadsheet. */
+export function numbersToCsv(drives: readonly NumbersDrive[]): string {
+  const lines = [NUMBERS_CSV_COLUMNS.join(",")]
+  for (const d of drives) {
+    lines.push(
+      [
+        d.driveId,
+        d.finishedAt,
+        csvField(d.technicianName),
+        csvField(d.profileName),
+        d.verdict,
+        d.clearedAtSeconds == null ? "" : (d.clearedAtSeconds / 60).toFixed(1),
+        (d.qualifyingSecondsBeforeClear / 60).toFixed(1),
+        (d.followingSecondsBeforeClear / 60).toFixed(1),
+        (d.durationSeconds / 60).toFixed(1),
+        String(d.harshEvents),
+        d.reviewStatus ?? "",
+        csvField(d.unmetConditions.join(" ")),
+      ].join(","),
+    )
+  }
+  return lines.join("\r\n") + "\r\n"
+}
+
+function groupBy<T>(list: readonly T[], key: (t: T) => string) {
+  const map = new Map<string, T[]>()
+  for (const item of list) {
+    const k = key(item)
+    const group = map.get(k)
+    if (group) group.push(item)
+    else map.set(k, [item])
+  }
+  return map
+}
+
+function round1(x: number | null) {
+  return x == null ? null : Math.round(x * 10) / 10
+}
