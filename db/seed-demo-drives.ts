@@ -1,4 +1,216 @@
+// Demo jobs and finished, scored drives for the first demo shop. All invented: customers, makes and
+// models, VINs (valid check digits from lib/vin), and tracks made by lib/tracks. Idempotent: a job whose
+// RO number exists is left alone, so re-running changes nothing.
+import { randomUUID } from "node:crypto"
+import { resolveProfile } from "@/lib/drive-file/profile"
+import { scoreDrive } from "@/lib/scoring"
+import { generateDrive, type DrivePattern } from "@/lib/tracks"
+import { withCheckDigit } from "@/lib/vin"
 import type { Db } from "./client"
 
-/** Demo jobs and recorded drives for the first shop (filled in once the track generator lands). */
-export async function seedDemoJobsAndDrives(_db: Db, _shopId: string) {}
+type Outcome = "none" | "approved" | "redo"
+type DemoDrive = { pattern: DrivePattern; minutes: number; daysAgo: number; seed: number; review?: Outcome; note?: string }
+type DemoJob = {
+  ro: string
+  customer: { name: string; email: string; phone: string }
+  vehicle: { vin: string; year: number; make: string; model: string; plate: string }
+  task: { sensor: string; method: string; reason: string; profileKey: string }
+  drives: DemoDrive[]
+}
+
+// Position 7 is a letter and position 10 the model-year code (49 CFR 565.15): R = 2024, S = 2025, P = 2023, N = 2022.
+const JOBS: DemoJob[] = [
+  {
+    ro: "RO-24101",
+    customer: { name: "Ines Marrow", email: "ines.marrow@example.invalid", phone: "555-0141" },
+    vehicle: { vin: withCheckDigit("7SACT2A10RM104417"), year: 2024, make: "Corvane", model: "Tessel", plate: "KTR 2210" },
+    task: { sensor: "forward_radar", method: "dynamic", reason: "bumper_or_grille_work", profileKey: "forward-radar" },
+    drives: [{ pattern: "met", minutes: 18, daysAgo: 2, seed: 4101 }],
+  },
+  {
+    ro: "RO-24102",
+    customer: { name: "Oskar Lindgrove", email: "o.lindgrove@example.invalid", phone: "555-0172" },
+    vehicle: { vin: withCheckDigit("7SAHS4B10SM208833"), year: 2025, make: "Halden", model: "Strata", plate: "PLV 0915" },
+    task: { sensor: "forward_radar", method: "dynamic", reason: "removed_and_reinstalled", profileKey: "forward-radar" },
+    drives: [{ pattern: "short", minutes: 9, daysAgo: 1, seed: 4102 }],
+  },
+  {
+    ro: "RO-24103",
+    customer: { name: "Perpetua Aldane", email: "p.aldane@example.invalid", phone: "555-0118" },
+    vehicle: { vin: withCheckDigit("7SAMV3C10PM331207"), year: 2023, make: "Mirro", model: "Vantage", plate: "DKE 4471" },
+    task: { sensor: "forward_camera", method: "dynamic", reason: "windshield_replaced", profileKey: "forward-camera" },
+    drives: [{ pattern: "never-cleared", minutes: 31, daysAgo: 1, seed: 4103 }],
+  },
+  {
+    ro: "RO-24104",
+    customer: { name: "Benedikt Oyelaran", email: "b.oyelaran@example.invalid", phone: "555-0190" },
+    vehicle: { vin: withCheckDigit("7SAVP5D10RM412650"), year: 2024, make: "Ostrava", model: "Pike", plate: "RNM 7302" },
+    task: { sensor: "forward_radar", method: "dynamic", reason: "replaced", profileKey: "forward-radar" },
+    drives: [{ pattern: "harsh", minutes: 18, daysAgo: 0, seed: 4104 }],
+  },
+  {
+    ro: "RO-24105",
+    customer: { name: "Saoirse Kettleby", email: "s.kettleby@example.invalid", phone: "555-0133" },
+    vehicle: { vin: withCheckDigit("7SAKA2E10NM509981"), year: 2022, make: "Kestrel", model: "Ardent", plate: "TWB 1184" },
+    task: { sensor: "corner_radar", method: "dynamic", reason: "bumper_or_grille_work", profileKey: "corner-radar" },
+    drives: [{ pattern: "unverified", minutes: 17, daysAgo: 0, seed: 4105 }],
+  },
+  {
+    ro: "RO-24098",
+    customer: { name: "Tobiah Quennell", email: "t.quennell@example.invalid", phone: "555-0157" },
+    vehicle: { vin: withCheckDigit("7SANW6F10SM611472"), year: 2025, make: "Norvale", model: "Quill", plate: "HJC 5529" },
+    task: { sensor: "forward_radar", method: "dynamic", reason: "wheel_alignment", profileKey: "forward-radar" },
+    drives: [
+      { pattern: "short", minutes: 10, daysAgo: 9, seed: 4098, review: "redo", note: "Too little time behind a lead; use the ring road and follow at 120-150 ft." },
+      { pattern: "met", minutes: 20, daysAgo: 8, seed: 4099 },
+    ],
+  },
+  {
+    ro: "RO-24087",
+    customer: { name: "Marisol Brackwater", email: "m.brackwater@example.invalid", phone: "555-0164" },
+    vehicle: { vin: withCheckDigit("7SACT2A10PM702318"), year: 2023, make: "Corvane", model: "Tessel", plate: "GLX 8803" },
+    task: { sensor: "rear_radar", method: "dynamic", reason: "bumper_or_grille_work", profileKey: "rear-radar" },
+    drives: [{ pattern: "harsh", minutes: 19, daysAgo: 20, seed: 4087, review: "approved", note: "Hard stop for a turning truck; the learn itself is fine." }],
+  },
+  {
+    ro: "RO-24071",
+    customer: { name: "Emeric Dunstable", email: "e.dunstable@example.invalid", phone: "555-0129" },
+    vehicle: { vin: withCheckDigit("7SAHS4B10RM803364"), year: 2024, make: "Halden", model: "Strata", plate: "VQS 3317" },
+    task: { sensor: "forward_radar", method: "dynamic", reason: "fault_code", profileKey: "forward-radar" },
+    drives: [
+      { pattern: "never-cleared", minutes: 12, daysAgo: 34, seed: 4071, review: "redo", note: "Never cleared; check the fault codes again before the next drive." },
+      { pattern: "met", minutes: 22, daysAgo: 33, seed: 4072 },
+    ],
+  },
+]
+
+export async function seedDemoJobsAndDrives(db: Db, shopId: string) {
+  const people = await db.selectFrom("app_user").select(["id", "role", "email"]).where("shop_id", "=", shopId).orderBy("email").execute()
+  const tech = people.find((p) => p.role === "technician")
+  const codriver = people.find((p) => p.role === "co_driver")
+  const lead = people.find((p) => p.role === "shop_lead") ?? people.find((p) => p.role === "admin")
+  if (!tech || !lead) return
+  const existing = new Set(
+    (await db.selectFrom("job").select("ro_number").where("shop_id", "=", shopId).where("ro_number", "in", JOBS.map((j) => j.ro)).execute()).map((r) => r.ro_number),
+  )
+  const profiles = await db
+    .selectFrom("condition_profile as p")
+    .innerJoin("condition_profile_version as v", (j) => j.onRef("v.profile_id", "=", "p.id").onRef("v.version", "=", "p.current_version"))
+    .select(["p.id", "p.key", "v.id as version_id", "v.settings"])
+    .where("p.shop_id", "=", shopId)
+    .execute()
+
+  for (const demo of JOBS.filter((j) => !existing.has(j.ro))) {
+    const profile = profiles.find((p) => p.key === demo.task.profileKey)
+    const resolved = resolveProfile((profile?.settings ?? {}) as never)
+    await db.transaction().execute(async (trx) => {
+      const vehicle = await trx.insertInto("vehicle").values({ shop_id: shopId, ...demo.vehicle }).returning("id").executeTakeFirstOrThrow()
+      const job = await trx
+        .insertInto("job")
+        .values({
+          shop_id: shopId,
+          ro_number: demo.ro,
+          customer_name: demo.customer.name,
+          customer_email: demo.customer.email,
+          customer_phone: demo.customer.phone,
+          vehicle_id: vehicle.id,
+          created_by: lead.id,
+          created_at: daysAgo(Math.max(...demo.drives.map((d) => d.daysAgo)) + 0.2),
+        })
+        .onConflict((oc) => oc.columns(["shop_id", "ro_number"]).doNothing())
+        .returning("id")
+        .executeTakeFirst()
+      if (!job) return
+      const task = await trx
+        .insertInto("job_task")
+        .values({ shop_id: shopId, job_id: job.id, sensor: demo.task.sensor, method: demo.task.method, reason: demo.task.reason, profile_id: profile?.id ?? null })
+        .returning("id")
+        .executeTakeFirstOrThrow()
+      await trx
+        .insertInto("checklist")
+        .values({
+          task_id: task.id,
+          shop_id: shopId,
+          data: JSON.stringify({
+            faultCodes: { none: true, expected: [] },
+            tires: { unit: "psi", placard: 35, fl: 35, fr: 35, rl: 34, rr: 35 },
+            loadNormal: true,
+            fuelLevel: "3/4",
+            sensorClean: true,
+            mountUndamaged: true,
+            alignmentChecked: demo.task.reason === "wheel_alignment" ? true : null,
+            notes: "Sensor cover wiped; no codes before the drive.",
+          }),
+          completed_by: tech.id,
+        })
+        .execute()
+
+      let jobStatus: "complete" | "review" | "redo" = "complete"
+      for (const d of demo.drives) {
+        const startMs = Math.floor(daysAgo(d.daysAgo).getTime() / 60_000) * 60_000
+        const file = generateDrive({ seed: d.seed, pattern: d.pattern, minutes: d.minutes, startMs, profile: resolved })
+        const score = scoreDrive(file)
+        const driveId = randomUUID()
+        const needsReview = score.verdict !== "met" || score.harshEvents.accel + score.harshEvents.decel > 0
+        const reviewStatus = d.review === "approved" ? "approved" : d.review === "redo" ? "redo" : null
+        await trx
+          .insertInto("drive")
+          .values({
+            id: driveId,
+            shop_id: shopId,
+            job_id: job.id,
+            task_id: task.id,
+            vehicle_description: null,
+            profile_version_id: profile?.version_id ?? null,
+            profile: JSON.stringify(resolved),
+            driver_id: tech.id,
+            co_driver_id: codriver?.id ?? null,
+            status: "finished",
+            verdict: score.verdict,
+            review_status: reviewStatus,
+            created_at: new Date(startMs),
+            finished_at: new Date(score.endedAtMs ?? startMs),
+          })
+          .execute()
+        const samples = file.samples.map((s) => ({ drive_id: driveId, shop_id: shopId, t: s.t, lat: s.lat, lon: s.lon, speed: s.speed ?? null, accuracy: s.accuracy ?? null }))
+        for (let i = 0; i < samples.length; i += 5000) await trx.insertInto("sample").values(samples.slice(i, i + 5000)).execute()
+        const loggedByCoDriver = new Set(["lead-on", "gap", "lead-off", "note"])
+        await trx
+          .insertInto("mark")
+          .values(
+            file.marks.map((m) => ({
+              id: randomUUID(),
+              drive_id: driveId,
+              shop_id: shopId,
+              t: m.t,
+              kind: m.kind,
+              gap_ft: m.gapFt ?? null,
+              text: m.text ?? null,
+              created_by: loggedByCoDriver.has(m.kind) && codriver ? codriver.id : tech.id,
+            })),
+          )
+          .execute()
+        await trx.insertInto("score").values({ drive_id: driveId, shop_id: shopId, verdict: score.verdict, result: JSON.stringify(score) }).execute()
+        const reviewedAt = new Date((score.endedAtMs ?? startMs) + 3 * 3_600_000)
+        if (d.review && d.review !== "none") {
+          await trx
+            .insertInto("review")
+            .values({ shop_id: shopId, drive_id: driveId, decision: d.review === "approved" ? "approve" : "redo", note: d.note ?? "", reviewer_id: lead.id, created_at: reviewedAt })
+            .execute()
+          if (d.review === "redo") {
+            await trx
+              .insertInto("notification")
+              .values({ shop_id: shopId, user_id: tech.id, message: `Your drive on ${demo.ro} was sent back: ${d.note ?? ""}`, link: `/drives/${driveId}`, created_at: reviewedAt, read_at: reviewedAt })
+              .execute()
+          }
+        }
+        jobStatus = reviewStatus === "redo" ? "redo" : reviewStatus === "approved" || !needsReview ? "complete" : "review"
+      }
+      await trx.updateTable("job").set({ status: jobStatus }).where("id", "=", job.id).where("shop_id", "=", shopId).execute()
+    })
+  }
+}
+
+function daysAgo(days: number) {
+  return new Date(Date.now() - days * 86_400_000 - 2 * 3_600_000)
+}
