@@ -2,7 +2,8 @@
 // To add a figure: write `export const myFigure: BenchFigure = {...}` in scripts/bench/<topic>.ts
 // and append it below. Give it `requiresEnv` (e.g. ["DATABASE_URL"] for ingestToRawInsertRatio,
 // ["BENCH_BASE_URL"] for syncSecondsFor36k) and it is reported as skipped when that is absent.
+import { ingestToRawInsertRatio, syncSecondsFor36k } from "./drives"
 import { samplesScoredPerSecond, scoreToParseRatio } from "./scoring"
 import type { BenchFigure } from "./types"
 
-export const figures: BenchFigure[] = [scoreToParseRatio, samplesScoredPerSecond]
+export const figures: BenchFigure[] = [scoreToParseRatio, samplesScoredPerSecond, ingestToRawInsertRatio, syncSecondsFor36k]

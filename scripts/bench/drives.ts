@@ -1,0 +1,156 @@
+// Drive ingest figures: they need the running app (BASE_URL) and its database (DATABASE_URL), e.g.
+//   /work/notes/devserver.sh-style slot, or `npm start` in one shell and
+//   BASE_URL=http://127.0.0.1:3000 DATABASE_URL=postgres://... npm run bench
+// Each run makes a throwaway shop and deletes it (and its drives) at the end.
+import { randomUUID } from "node:crypto"
+import pg from "pg"
+import { createDb, type Db } from "@/db/client"
+import { hashPassword } from "@/lib/auth/password"
+import type { Sample } from "@/lib/drive-file"
+import { flushOutbox, makeItem, memoryOutboxStore, type Transport } from "@/lib/recorder/outbox"
+import { SEND_MAX_SAMPLES } from "@/lib/recorder/batching"
+import { hourAt10Hz } from "./scoring"
+import type { BenchContext, BenchFigure } from "./types"
+
+interface Rig {
+  db: Db
+  shopId: string
+  userId: string
+  transport: Transport
+  cleanup(): Promise<void>
+}
+
+/** A throwaway shop with one technician, signed in over HTTP. */
+async function rig(ctx: BenchContext): Promise<Rig> {
+  return ctx.memo("drives-rig", async () => {
+    const baseUrl = ctx.env.BASE_URL!
+    const db = createDb(ctx.env.DATABASE_URL)
+    const { id: shopId } = await db.insertInto("shop").values({ name: `Bench shop ${randomUUID().slice(0, 8)}`, settings: "{}" }).returning("id").executeTakeFirstOrThrow()
+    const userId = randomUUID()
+    const email = `bench-${userId.slice(0, 8)}@bench.invalid`
+    const password = `bench-${randomUUID()}`
+    await db.insertInto("app_user").values({ id: userId, shop_id: shopId, email, name: "Bench technician", role: "technician", password_hash: await hashPassword(password) }).execute()
+    const address = `bench-${process.pid}-${Date.now()}`
+    const signIn = await fetch(`${baseUrl}/api/session`, {
+      method: "POST",
+      headers: { "content-type": "application/json", "x-forwarded-for": address },
+      body: JSON.stringify({ email, password }),
+    })
+    if (!signIn.ok) throw new Error(`bench sign-in failed: ${signIn.status}`)
+    const cookie = signIn.headers.get("set-cookie")!.split(";")[0]!
+    const transport: Transport = {
+      async request(method, path, body) {
+        const res = await fetch(`${baseUrl}${path}`, {
+          method,
+          headers: { cookie, "x-forwarded-for": address, ...(body === undefined ? {} : { "content-type": "application/json" }) },
+          body: body === undefined ? undefined : JSON.stringify(body),
+        })
+        const text = await res.text()
+        return { status: res.status, body: text ? JSON.parse(text) : null }
+      },
+    }
+    return {
+      db,
+      shopId,
+      userId,
+      transport,
+      async cleanup() {
+        await db.deleteFrom("sample").where("shop_id", "=", shopId).execute()
+        await db.deleteFrom("drive").where("shop_id", "=", shopId).execute()
+        await db.deleteFrom("app_user").where("shop_id", "=", shopId).execute()
+        await db.deleteFrom("shop").where("id", "=", shopId).execute()
+        await db.destroy()
+      },
+    }
+  })
+}
+
+async function newDrive(r: Rig): Promise<string> {
+  const id = randomUUID()
+  const res = await r.transport.request("POST", "/api/drives", { id, vehicleDescription: "Bench drive" })
+  if (res.status !== 201) throw new Error(`bench drive failed: ${res.status}`)
+  return id
+}
+
+function chunks<T>(list: readonly T[], size: number): T[][] {
+  const out: T[][] = []
+  for (let i = 0; i < list.length; i += size) out.push(list.slice(i, i + size))
+  return out
+}
+
+/** A raw multi-row INSERT ... VALUES through pg, the same rows and batch size as the API gets. */
+async function rawInsert(databaseUrl: string, driveId: string, shopId: string, samples: readonly Sample[]) {
+  const client = new pg.Client({ connectionString: databaseUrl })
+  await client.connect()
+  try {
+    const t0 = performance.now()
+    for (const batch of chunks(samples, SEND_MAX_SAMPLES)) {
+      const values: unknown[] = []
+      const rows = batch.map((s, i) => {
+        values.push(driveId, shopId, s.t, s.lat, s.lon, s.speed ?? null, s.accuracy ?? null)
+        const b = i * 7
+        return `($${b + 1},$${b + 2},$${b + 3},$${b + 4},$${b + 5},$${b + 6},$${b + 7})`
+      })
+      await client.query(`insert into sample (drive_id, shop_id, t, lat, lon, speed, accuracy) values ${rows.join(",")}`, values)
+    }
+    return performance.now() - t0
+  } finally {
+    await client.end()
+  }
+}
+
+export const ingestToRawInsertRatio: BenchFigure = {
+  name: "ingestToRawInsertRatio",
+  target: ">= 0.5",
+  requiresEnv: ["BASE_URL", "DATABASE_URL"],
+  async run(ctx) {
+    const r = await rig(ctx)
+    const { file } = hourAt10Hz(ctx)
+    const apiDrive = await newDrive(r)
+    const t0 = performance.now()
+    let n = 0
+    for (const batch of chunks(file.samples, SEND_MAX_SAMPLES)) {
+      const res = await r.transport.request("POST", `/api/drives/${apiDrive}/samples`, { batchId: `bench-${n++}`, samples: batch })
+      if (res.status !== 200) throw new Error(`ingest failed: ${res.status} ${JSON.stringify(res.body)}`)
+    }
+    const apiMs = performance.now() - t0
+    const rawDrive = await newDrive(r)
+    const rawMs = await rawInsert(ctx.env.DATABASE_URL!, rawDrive, r.shopId, file.samples)
+    const apiRate = file.samples.length / (apiMs / 1000)
+    const rawRate = file.samples.length / (rawMs / 1000)
+    return apiRate / rawRate
+  },
+  meets: (v) => v >= 0.5,
+}
+
+export const syncSecondsFor36k: BenchFigure = {
+  name: "syncSecondsFor36k",
+  target: "< 10",
+  unit: "s",
+  requiresEnv: ["BASE_URL", "DATABASE_URL"],
+  async run(ctx) {
+    const r = await rig(ctx)
+    const { file } = hourAt10Hz(ctx)
+    // As the recorder leaves it after an hour offline: the drive's start, then one piece per second.
+    const driveId = randomUUID()
+    const store = memoryOutboxStore()
+    let now = 1
+    await store.put([makeItem(driveId, { type: "create-drive", body: { vehicleDescription: "Bench sync" } }, now++)])
+    await store.put(
+      chunks(file.samples, 10).map((piece, i) => makeItem(driveId, { type: "samples", batchId: `p${i}-${randomUUID().slice(0, 8)}`, samples: piece }, now++)),
+    )
+    const t0 = performance.now()
+    const outcome = await flushOutbox(store, r.transport)
+    const seconds = (performance.now() - t0) / 1000
+    if (outcome.kind !== "done" || store.items.size !== 0) throw new Error(`sync did not finish: ${JSON.stringify(outcome)}`)
+    const { n } = await r.db
+      .selectFrom("sample")
+      .select((eb) => eb.fn.countAll<string>().as("n"))
+      .where("drive_id", "=", driveId)
+      .executeTakeFirstOrThrow()
+    if (Number(n) !== file.samples.length) throw new Error(`sync stored ${n} of ${file.samples.length} samples`)
+    await r.cleanup()
+    return seconds
+  },
+  meets: (v) => v < 10,
+}
