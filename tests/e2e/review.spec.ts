@@ -1,0 +1,71 @@
+import { PDFParse } from "pdf-parse"
+import type { Browser } from "playwright-core"
+import { afterAll, beforeAll, describe, expect, it } from "vitest"
+import { launchBrowser, newPhoneContext, signInPage } from "../helpers/browser"
+import { createTestShop, testDb, type TestShop } from "../helpers/db"
+import { insertJob, insertScoredDrive } from "../integration/review/fixtures"
+
+let browser: Browser
+let shop: TestShop
+
+beforeAll(async () => {
+  browser = await launchBrowser()
+  shop = await createTestShop("E2EReview")
+})
+afterAll(async () => {
+  await browser?.close()
+})
+
+describe("reviewing a drive on a phone", () => {
+  it("sends a short drive back with a note, sees it leave the queue, and opens the record", async () => {
+    const job = await insertJob(shop)
+    const short = await insertScoredDrive(shop, { pattern: "short", seed: 601, job, finishedAt: new Date(Date.now() - 3_600_000) })
+    const other = await insertScoredDrive(shop, { pattern: "never-cleared", seed: 602, finishedAt: new Date(Date.now() - 1_800_000) })
+    expect(short.score.verdict).toBe("short")
+
+    const context = await newPhoneContext(browser)
+    const page = await context.newPage()
+    await signInPage(page, shop.lead.email, shop.lead.password)
+    expect(new URL(page.url()).pathname).toBe("/review")
+
+    const item = page.locator(`li[data-drive-id="${short.id}"]`)
+    await item.waitFor()
+    expect(await item.locator("[data-verdict]").getAttribute("data-verdict")).toBe("short")
+    expect(await page.locator(`li[data-drive-id="${other.id}"]`).count()).toBe(1)
+    await item.getByRole("link").click()
+    await page.waitForURL(`**/drives/${short.id}`)
+
+    await page.getByTestId("speed-chart").waitFor()
+    expect(await page.getByTestId("track-svg").count()).toBe(1)
+    expect(await page.locator('[data-condition="qualifying-time"]').textContent()).toContain("Not met")
+
+    // Sending back without a note is stopped with a plain message.
+    await page.getByRole("button", { name: "Send back" }).click()
+    await page.getByRole("alert").filter({ hasText: "Write a note" }).waitFor()
+
+    const note = "Only a few minutes at speed; take the highway loop and follow at 120-150 ft."
+    await page.getByLabel("Note for the technician").fill(note)
+    await page.getByRole("button", { name: "Send back" }).click()
+    await page.waitForURL("**/review")
+    await page.locator(`li[data-drive-id="${other.id}"]`).waitFor()
+    expect(await page.locator(`li[data-drive-id="${short.id}"]`).count()).toBe(0)
+
+    const row = await testDb().selectFrom("drive").select("review_status").where("id", "=", short.id).executeTakeFirstOrThrow()
+    expect(row.review_status).toBe("redo")
+
+    // The decision shows on the drive, and the record opens as a PDF holding the VIN.
+    await page.goto(`/drives/${short.id}`)
+    expect(await page.getByTestId("review-decision").textContent()).toContain(note)
+    const href = await page.getByTestId("open-record").getAttribute("href")
+    expect(href).toBe(`/api/drives/${short.id}/record`)
+    const pdf = await context.request.get(href!)
+    expect(pdf.status()).toBe(200)
+    expect(pdf.headers()["content-type"]).toBe("application/pdf")
+    const parser = new PDFParse({ data: await pdf.body() })
+    const text = (await parser.getText()).text
+    await parser.destroy()
+    expect(text).toContain(job.vin)
+    expect(text).toContain("Sent back for another drive")
+    await context.close()
+  })
+})
