@@ -6,7 +6,7 @@ import { findDriveRecordHead, findShopPerson, insertReviewDecision } from "@/db/
 import type { Drive } from "@/db/types"
 import { jobStatusAfterFinish, type TaskDriveFacts } from "@/lib/access/drive"
 import { AppError } from "@/lib/errors"
-import { describeVehicle } from "@/lib/record"
+import { describeVehicle, roLabel } from "@/lib/record"
 import type { ReviewInput } from "@/lib/validation/review"
 import { env } from "@/lib/env"
 import { sendMailQuietly } from "./mail"
@@ -19,7 +19,7 @@ export async function decideReview(db: Db, drive: Drive, reviewer: { id: string;
   if (drive.status !== "finished") throw new AppError("conflict", "The drive is still being recorded; review it once it is finished.")
   if (drive.review_status !== null) throw new AppError("conflict", "This drive has been reviewed already.")
   const head = await findDriveRecordHead(db, drive.id, reviewer.shopId)
-  const what = `${head?.ro_number ? `RO ${head.ro_number}, ` : ""}${describeVehicle(
+  const what = `${head?.ro_number ? `${roLabel(head.ro_number)}, ` : ""}${describeVehicle(
     head?.vin ? { year: head.vehicle_year, make: head.vehicle_make, model: head.vehicle_model } : null,
     drive.vehicle_description,
   )}`

@@ -22,7 +22,7 @@ export function TimeToClearChart({ data }: { data: Numbers["timeToClear"] }) {
     <Card>
       <h2 className="text-lg font-semibold">Time to clear, by condition profile</h2>
       <p className="mb-2 text-sm text-graphite-600 dark:text-graphite-300">
-        Drives per band of minutes from start to the cleared mark. {profiles.map((p) => `${p.profileName}: median ${p.medianMinutes ?? "—"} min (${p.cleared} of ${p.drives} cleared)`).join(" · ")}
+        Drives per band of minutes from start to the cleared mark. {profiles.map((p) => (p.cleared ? `${p.profileName}: median ${p.medianMinutes} min (${p.cleared} of ${p.drives} cleared)` : `${p.profileName}: none of ${p.drives} cleared`)).join(" · ")}
       </p>
       <div className="h-64" data-testid="chart-time-to-clear">
         <ResponsiveContainer width="100%" height="100%">

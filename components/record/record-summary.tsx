@@ -2,19 +2,8 @@ import { CircleCheck, CircleMinus, CircleX } from "lucide-react"
 import { VerdictBadge } from "@/components/drives/verdict-badge"
 import { Card } from "@/components/ui/card"
 import type { Condition, Score } from "@/lib/scoring"
-import { formatDuration, formatMiles, formatMinutes } from "@/lib/record"
+import { formatConditionRequirement, formatConditionValue, formatDuration, formatMiles, formatMinutes } from "@/lib/record"
 
-export function conditionValue(c: Pick<Condition, "value" | "required" | "unit">) {
-  if (c.value == null) return "—"
-  return c.unit === "s" ? `${formatMinutes(c.value, c.required ?? Infinity)} min` : `${c.value} ${c.unit}`
-}
-
-export function conditionRequirement(c: Pick<Condition, "key" | "required" | "unit">) {
-  if (c.required == null) return "—"
-  if (c.unit === "s") return c.key === "time-limit" ? `at most ${formatMinutes(c.required, 0)} min` : `${formatMinutes(c.required, 0)} min`
-  if (c.unit === "mph") return `${c.required} mph or faster`
-  return c.required === 0 ? "none" : `${c.required} ${c.unit}`
-}
 
 /** The verdict with its reasons, the key figures and every condition with value and requirement. */
 export function RecordSummary({ score }: { score: Score }) {
@@ -76,8 +65,8 @@ export function RecordSummary({ score }: { score: Score }) {
             {score.conditions.map((c) => (
               <tr key={c.key} className="border-b border-graphite-100 last:border-0 dark:border-asphalt-700" data-condition={c.key}>
                 <td className="px-3 py-2">{c.label}</td>
-                <td className="tabular px-3 py-2">{conditionValue(c)}</td>
-                <td className="tabular px-3 py-2">{conditionRequirement(c)}</td>
+                <td className="tabular px-3 py-2">{formatConditionValue(c).replace(/^-$/, "—")}</td>
+                <td className="tabular px-3 py-2">{formatConditionRequirement(c).replace(/^-$/, "—")}</td>
                 <td className="px-3 py-2">
                   {c.met ? (
                     <span className="inline-flex items-center gap-1 text-teal-700 dark:text-teal-300">

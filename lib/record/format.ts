@@ -67,3 +67,25 @@ export const RECORD_CAUTIONS = [
 ] as const
 
 export const DECISION_WORD = { approve: "Approved", redo: "Sent back for another drive" } as const
+
+type ConditionLike = { key: string; value: number | null; required: number | null; unit: string }
+
+/** A condition's value in the unit people read it in: minutes for times, seconds for data gaps. */
+export function formatConditionValue(c: ConditionLike): string {
+  if (c.value == null) return "-"
+  if (c.unit === "s") return c.key === "data-gaps" ? `${Math.round(c.value)} s` : `${formatMinutes(c.value, c.required ?? Infinity)} min`
+  return `${c.value} ${c.unit}`
+}
+
+export function formatConditionRequirement(c: ConditionLike): string {
+  if (c.required == null) return "-"
+  if (c.key === "data-gaps" || (c.unit === "events" && c.required === 0)) return "none"
+  if (c.unit === "s") return c.key === "time-limit" ? `at most ${formatMinutes(c.required, 0)} min` : `${formatMinutes(c.required, 0)} min`
+  if (c.unit === "mph") return `${c.required} mph or faster`
+  return `${c.required} ${c.unit}`
+}
+
+/** RO numbers are stored as the shop writes them; add "RO" only when the number lacks it. */
+export function roLabel(ro: string): string {
+  return /^ro\b/i.test(ro) ? ro : `RO ${ro}`
+}

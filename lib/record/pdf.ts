@@ -2,6 +2,8 @@ import { PDFDocument, type PDFFont, type PDFImage, type PDFPage, rgb, StandardFo
 import {
   DECISION_WORD,
   describeVehicle,
+  formatConditionRequirement,
+  formatConditionValue,
   formatDuration,
   formatMiles,
   formatMinutes,
@@ -113,14 +115,16 @@ class Writer {
   row(label: string, value: string, opts: { valueColor?: RGB; mark?: string } = {}) {
     const labelW = 190
     const lines = this.wrap(value, this.font, 10, CONTENT_W - labelW - 30)
-    this.ensure(lines.length * 13.5 + 2)
+    const labelLines = this.wrap(label, this.bold, 10, labelW - 10)
+    const height = Math.max(lines.length, labelLines.length) * 13.5
+    this.ensure(height + 2)
     const top = this.y
-    this.page.drawText(toWinAnsi(label), { x: MARGIN, y: top - 10, size: 10, font: this.bold, color: MUTED })
+    labelLines.forEach((line, i) => this.page.drawText(line, { x: MARGIN, y: top - 10 - i * 13.5, size: 10, font: this.bold, color: MUTED }))
     lines.forEach((line, i) =>
       this.page.drawText(line, { x: MARGIN + labelW, y: top - 10 - i * 13.5, size: 10, font: this.font, color: opts.valueColor ?? INK }),
     )
     if (opts.mark) this.page.drawText(toWinAnsi(opts.mark), { x: PAGE_W - MARGIN - 24, y: top - 10, size: 9, font: this.bold, color: opts.valueColor ?? INK })
-    this.y = top - lines.length * 13.5 - 3
+    this.y = top - height - 3
   }
 }
 
@@ -216,9 +220,10 @@ export async function buildDriveRecordPdf(data: RecordData): Promise<Uint8Array>
 
   w.heading("Every condition")
   for (const c of score.conditions ?? []) {
-    const value = c.value == null ? "-" : c.unit === "s" ? `${formatMinutes(c.value, c.required ?? Infinity)} min` : `${c.value} ${c.unit}`
-    const required = c.required == null ? "" : c.unit === "s" ? `; limit or need ${formatMinutes(c.required, 0)} min` : `; need ${c.required} ${c.unit}`
-    w.row(c.label, `${value}${required}${c.advisory ? " (for information)" : ""}`, { mark: c.met ? "OK" : c.advisory ? "NOTE" : "NO" })
+    const required = formatConditionRequirement(c)
+    w.row(c.label, `${formatConditionValue(c)}${required === "-" ? "" : `; needed: ${required}`}${c.advisory ? " (for information)" : ""}`, {
+      mark: c.met ? "OK" : c.advisory ? "NOTE" : "NO",
+    })
   }
 
   drawTrack(w, data)
@@ -262,9 +267,9 @@ export async function buildDriveRecordPdf(data: RecordData): Promise<Uint8Array>
 function drawTrack(w: Writer, data: RecordData) {
   const points = thinTimeline(data.timeline, 1500)
   if (points.length < 2) return
-  w.heading("Track")
   const height = 220
-  w.ensure(height + 24)
+  w.ensure(height + 80) // keep the heading with its picture
+  w.heading("Track")
   const top = w.y
   const paths = projectTrack(points, CONTENT_W, height, 10)
   w.page.drawRectangle({ x: MARGIN, y: top - height, width: CONTENT_W, height, borderColor: RULE, borderWidth: 0.75 })

@@ -1,7 +1,18 @@
 import { PDFParse } from "pdf-parse"
 import { describe, expect, it } from "vitest"
 import { resolveProfile } from "@/lib/drive-file/profile"
-import { buildDriveRecordPdf, checklistRows, computeTimeline, formatMinutes, projectTrack, toWinAnsi, type RecordData } from "@/lib/record"
+import {
+  buildDriveRecordPdf,
+  checklistRows,
+  computeTimeline,
+  formatConditionRequirement,
+  formatConditionValue,
+  formatMinutes,
+  projectTrack,
+  roLabel,
+  toWinAnsi,
+  type RecordData,
+} from "@/lib/record"
 import { scoreDrive } from "@/lib/scoring"
 import { generateDrive } from "@/lib/tracks"
 import { withCheckDigit } from "@/lib/vin"
@@ -101,6 +112,19 @@ describe("record helpers", () => {
   it("rounds minutes down while short of the need, so 599 s never reads as 10.0", () => {
     expect(formatMinutes(599, 600)).toBe("9.9")
     expect(formatMinutes(600, 600)).toBe("10.0")
+  })
+
+  it("words each condition's value and need in the unit people read", () => {
+    expect(formatConditionValue({ key: "qualifying-time", value: 342, required: 600, unit: "s" })).toBe("5.7 min")
+    expect(formatConditionRequirement({ key: "time-limit", value: 0, required: 1800, unit: "s" })).toBe("at most 30.0 min")
+    expect(formatConditionValue({ key: "data-gaps", value: 12.4, required: 0, unit: "s" })).toBe("12 s")
+    expect(formatConditionRequirement({ key: "data-gaps", value: 0, required: 0, unit: "s" })).toBe("none")
+    expect(formatConditionRequirement({ key: "verified", value: 40, required: 25, unit: "mph" })).toBe("25 mph or faster")
+  })
+
+  it("adds RO to a repair order number only when it lacks it", () => {
+    expect(roLabel("RO-24102")).toBe("RO-24102")
+    expect(roLabel("24102")).toBe("RO 24102")
   })
 
   it("turns characters the standard PDF fonts lack into plain look-alikes", () => {

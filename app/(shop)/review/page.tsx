@@ -7,7 +7,7 @@ import { Card } from "@/components/ui/card"
 import { PageHeader } from "@/components/ui/page-header"
 import { getDb } from "@/db/client"
 import { listReviewQueue } from "@/db/queries/reviews"
-import { describeVehicle } from "@/lib/record"
+import { describeVehicle, roLabel } from "@/lib/record"
 
 export const metadata: Metadata = { title: "Review" }
 export const dynamic = "force-dynamic"
@@ -34,7 +34,7 @@ export default async function ReviewPage() {
       ) : (
         <ul className="space-y-3" data-testid="review-queue">
           {rows.map((r) => {
-            const score = r.result as { reasons?: string[]; harshEvents?: { accel: number; decel: number } }
+            const score = r.result as { reasons?: string[]; notes?: string[]; harshEvents?: { accel: number; decel: number } }
             const harsh = (score.harshEvents?.accel ?? 0) + (score.harshEvents?.decel ?? 0)
             return (
               <li key={r.id} data-drive-id={r.id}>
@@ -50,12 +50,12 @@ export default async function ReviewPage() {
                         ) : null}
                       </div>
                       <p className="font-semibold">
-                        {r.ro_number ? `RO ${r.ro_number}` : "Unplanned drive"}
+                        {r.ro_number ? roLabel(r.ro_number) : "Unplanned drive"}
                         {" · "}
                         {describeVehicle(r.vehicle_make || r.vehicle_model ? { year: r.vehicle_year, make: r.vehicle_make, model: r.vehicle_model } : null, r.vehicle_description)}
                       </p>
                       <ul className="list-disc pl-5 text-sm text-graphite-700 dark:text-graphite-200">
-                        {(score.reasons ?? []).slice(0, 3).map((reason) => (
+                        {[...(score.reasons ?? []), ...(score.notes ?? [])].slice(0, 3).map((reason) => (
                           <li key={reason}>{reason}</li>
                         ))}
                       </ul>

@@ -7,7 +7,7 @@ import { Logo } from "@/components/shell/logo"
 import { buttonVariants } from "@/components/ui/button"
 import { Card } from "@/components/ui/card"
 import { getDb } from "@/db/client"
-import { DECISION_WORD, describeVehicle, METHOD_LABEL, REASON_LABEL, RECORD_CAUTIONS, SENSOR_LABEL } from "@/lib/record"
+import { DECISION_WORD, describeVehicle, roLabel, METHOD_LABEL, REASON_LABEL, RECORD_CAUTIONS, SENSOR_LABEL } from "@/lib/record"
 
 export const dynamic = "force-dynamic"
 export const metadata: Metadata = { title: "Drive record", robots: { index: false, follow: false }, referrer: "no-referrer" }
@@ -57,7 +57,7 @@ function SharedRecord({ token, shared }: { token: string; shared: Extract<Awaite
         <h1 className="text-2xl font-bold tracking-tight">{describeVehicle(data.vehicle, data.vehicleDescription)}</h1>
         <p className="text-graphite-700 dark:text-graphite-200">
           {data.vehicle ? <>VIN <span className="tabular font-mono">{data.vehicle.vin}</span></> : null}
-          {data.job ? <> · RO {data.job.roNumber}</> : null}
+          {data.job ? <> · {roLabel(data.job.roNumber)}</> : null}
         </p>
         {data.task ? (
           <p className="text-graphite-700 dark:text-graphite-200">

@@ -17,7 +17,7 @@ import { getDb } from "@/db/client"
 import { listRecordPhotos } from "@/db/queries/reviews"
 import { canSeeDrive } from "@/lib/access/drive"
 import { hasRole } from "@/lib/auth/roles"
-import { DECISION_WORD, describeVehicle, METHOD_LABEL, REASON_LABEL, SENSOR_LABEL, thinTimeline } from "@/lib/record"
+import { DECISION_WORD, describeVehicle, roLabel, METHOD_LABEL, REASON_LABEL, SENSOR_LABEL, thinTimeline } from "@/lib/record"
 
 export const metadata: Metadata = { title: "Drive" }
 export const dynamic = "force-dynamic"
@@ -35,7 +35,7 @@ export default async function DrivePage({ params }: { params: Promise<{ driveId:
   const facts = { shopId: head.shop_id, driverId: head.driver_id, coDriverId: head.co_driver_id, status: head.status, reviewStatus: head.review_status }
   if (!canSeeDrive(me, facts)) notFound()
   const isLead = hasRole(me.role, ["shop_lead"])
-  const title = head.ro_number ? `RO ${head.ro_number}` : "Unplanned drive"
+  const title = head.ro_number ? roLabel(head.ro_number) : "Unplanned drive"
   const vehicle = describeVehicle(head.vin ? { year: head.vehicle_year, make: head.vehicle_make, model: head.vehicle_model } : null, head.vehicle_description)
 
   if (!data) {

@@ -5,7 +5,7 @@ import { loadRecordData, recordFilename } from "@/app/_server/record-data"
 import { parseJson, parseParams, route, uuidParam } from "@/app/_server/route"
 import { getDb } from "@/db/client"
 import { AppError } from "@/lib/errors"
-import { buildDriveRecordPdf, describeVehicle, RECORD_CAUTIONS, VERDICT_WORD } from "@/lib/record"
+import { buildDriveRecordPdf, describeVehicle, roLabel, RECORD_CAUTIONS, VERDICT_WORD } from "@/lib/record"
 import { recordEmailSchema } from "@/lib/validation/review"
 import { loadDriveFor } from "../../../_service"
 
@@ -23,7 +23,7 @@ export const POST = route<{ driveId: string }>(async (req, ctx) => {
   const vehicle = describeVehicle(data.vehicle, data.vehicleDescription)
   await sendMail({
     to,
-    subject: `Drive record: ${vehicle}${head.ro_number ? `, RO ${head.ro_number}` : ""}`,
+    subject: `Drive record: ${vehicle}${head.ro_number ? `, ${roLabel(head.ro_number)}` : ""}`,
     text: [
       `Attached is the record of the calibration drive for ${vehicle}${data.vehicle ? ` (VIN ${data.vehicle.vin})` : ""}.`,
       `Verdict: ${VERDICT_WORD[data.score.verdict]}.`,
