@@ -4,7 +4,6 @@ import { notFound } from "next/navigation"
 import { requirePageRole } from "@/app/_server/auth"
 import { loadRecordData } from "@/app/_server/record-data"
 import { SpeedChart, type ChartMark, type Stretch } from "@/components/charts/speed-chart"
-import { VerdictBadge } from "@/components/drives/verdict-badge"
 import { RecordSummary } from "@/components/record/record-summary"
 import { TrackSvg } from "@/components/record/track-svg"
 import { MarkTimeline } from "@/components/review/mark-timeline"
@@ -77,7 +76,6 @@ export default async function DrivePage({ params }: { params: Promise<{ driveId:
             {head.vin ? <> · VIN <span className="font-mono">{head.vin}</span></> : null}
           </>
         }
-        actions={<VerdictBadge verdict={data.score.verdict} size="lg" />}
       />
       <div className="grid gap-4 lg:grid-cols-[3fr_2fr]">
         <div className="min-w-0 space-y-4">
