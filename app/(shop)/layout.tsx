@@ -1,6 +1,7 @@
 import Link from "next/link"
 import type { ReactNode } from "react"
 import { requirePageRole } from "@/app/_server/auth"
+import { NotificationBell } from "@/components/notifications/notification-bell"
 import { BottomNav, SideNav } from "@/components/shell/app-nav"
 import { Logo } from "@/components/shell/logo"
 import { navItemsFor } from "@/components/shell/nav-items"
@@ -25,6 +26,7 @@ export default async function ShopLayout({ children }: { children: ReactNode }) 
           <span className="hidden text-sm text-graphite-600 sm:inline dark:text-graphite-300" data-testid="signed-in-as">
             {user.name} · {ROLE_LABEL[user.role]}
           </span>
+          <NotificationBell />
           <ThemeToggle />
           <SignOutButton />
         </div>
