@@ -1,5 +1,7 @@
 import { CircleAlert, CircleCheck, CircleHelp, CircleX, Radio } from "lucide-react"
-import { cn } from "@/components/ui/cn"
+
+// Plain class joining (no tailwind-merge) keeps this badge light enough for the recorder bundle.
+const cx = (...parts: Array<string | false | null | undefined>) => parts.filter(Boolean).join(" ")
 
 export type VerdictValue = "met" | "short" | "not_met" | "unverified"
 
@@ -51,7 +53,7 @@ export function VerdictBadge({
     return (
       <span
         data-verdict="recording"
-        className={cn(
+        className={cx(
           "inline-flex items-center rounded-full border-2 border-dashed border-graphite-400 font-semibold text-graphite-700 dark:text-graphite-200",
           sizing,
           className,
@@ -66,7 +68,7 @@ export function VerdictBadge({
   return (
     <span
       data-verdict={verdict}
-      className={cn("inline-flex items-center rounded-full border-2 font-semibold", sizing, look, className)}
+      className={cx("inline-flex items-center rounded-full border-2 font-semibold", sizing, look, className)}
     >
       <Icon aria-hidden className={iconSize} />
       {word}

@@ -1,7 +1,7 @@
 "use client"
 import { RefreshCw } from "lucide-react"
 import { useEffect, useState } from "react"
-import { Workbox } from "workbox-window"
+import type { Workbox } from "workbox-window"
 import { getActiveDrive } from "@/lib/recorder/idb-outbox"
 
 /** Pages the recorder needs with no network, fetched into the worker's cache once signed in. */
@@ -18,11 +18,14 @@ export function ServiceWorkerRegistration() {
 
   useEffect(() => {
     if (!("serviceWorker" in navigator) || process.env.NODE_ENV !== "production") return
-    const workbox = new Workbox("/sw.js", { scope: "/" })
-    workbox.addEventListener("waiting", () => setWaiting(true))
-    workbox.addEventListener("activated", () => void workbox.messageSW({ type: "WARM", urls: WARM_URLS }))
-    void workbox.register().then(() => workbox.messageSW({ type: "WARM", urls: WARM_URLS }).catch(() => {}))
-    setWb(workbox)
+    // Loaded after the page is up, so it never weighs on the recorder's first load.
+    void import("workbox-window").then(({ Workbox }) => {
+      const workbox = new Workbox("/sw.js", { scope: "/" })
+      workbox.addEventListener("waiting", () => setWaiting(true))
+      workbox.addEventListener("activated", () => void workbox.messageSW({ type: "WARM", urls: WARM_URLS }))
+      void workbox.register().then(() => workbox.messageSW({ type: "WARM", urls: WARM_URLS }).catch(() => {}))
+      setWb(workbox)
+    })
   }, [])
 
   useEffect(() => {

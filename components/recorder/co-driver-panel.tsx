@@ -1,10 +1,11 @@
 "use client"
 import { CircleCheck, CircleStop, CircleX, Link2, Link2Off, Pencil, Ruler, ShieldCheck, Undo2 } from "lucide-react"
 import { useState, type ReactNode } from "react"
-import { cn } from "@/components/ui/cn"
 import type { MarkKind } from "@/lib/drive-file/schema"
 import { roundGapFt, timeGap, type TimeGap } from "@/lib/recorder/time-gap"
 import { getRecorder, useRecorder } from "./use-recorder"
+
+const cx = (...parts: Array<string | false | null | undefined>) => parts.filter(Boolean).join(" ")
 
 const buzz = (pattern: number | number[] = 40) => {
   try {
@@ -36,7 +37,7 @@ function Big({ children, onClick, tone = "plain", testId, disabled }: { children
       data-testid={testId}
       disabled={disabled}
       onClick={onClick}
-      className={cn("flex min-h-16 items-center justify-center gap-2 rounded-xl px-3 text-lg font-bold disabled:opacity-40", tones[tone])}
+      className={cx("flex min-h-16 items-center justify-center gap-2 rounded-xl px-3 text-lg font-bold disabled:opacity-40", tones[tone])}
     >
       {children}
     </button>

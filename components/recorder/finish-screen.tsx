@@ -1,6 +1,5 @@
 "use client"
 import { ShieldAlert } from "lucide-react"
-import Link from "next/link"
 import { VerdictBadge } from "@/components/drives/verdict-badge"
 import { SyncStatus } from "./sync-status"
 import { useRecorder } from "./use-recorder"
@@ -37,9 +36,9 @@ export function FinishScreen({ onNewDrive }: { onNewDrive: () => void }) {
       </p>
       <SyncStatus />
       <div className="grid grid-cols-2 gap-2">
-        <Link href="/drives" className="flex min-h-14 items-center justify-center rounded-xl bg-asphalt-700 font-semibold">
+        <a href="/drives" className="flex min-h-14 items-center justify-center rounded-xl bg-asphalt-700 font-semibold">
           All drives
-        </Link>
+        </a>
         <button type="button" onClick={onNewDrive} className="min-h-14 rounded-xl bg-signal-400 font-bold text-graphite-950">
           New drive
         </button>

@@ -1,9 +1,10 @@
 "use client"
 import { Gauge, Hourglass, Link2, Timer, TriangleAlert, UsersRound } from "lucide-react"
 import type { ReactNode } from "react"
-import { cn } from "@/components/ui/cn"
 import { mpsToMph } from "@/lib/units"
 import { useRecorder } from "./use-recorder"
+
+const cx = (...parts: Array<string | false | null | undefined>) => parts.filter(Boolean).join(" ")
 
 function minutes(seconds: number) {
   return (seconds / 60).toFixed(1)
@@ -26,7 +27,7 @@ function Meter({ label, icon, value, unit, detail, tone = "plain", testId, raw }
     stop: "border-stop-400",
   }
   return (
-    <div className={cn("rounded-xl border-2 bg-asphalt-800 p-3", tones[tone])} data-testid={testId} data-value={raw ?? ""}>
+    <div className={cx("rounded-xl border-2 bg-asphalt-800 p-3", tones[tone])} data-testid={testId} data-value={raw ?? ""}>
       <div className="flex items-center gap-1.5 text-sm font-semibold text-graphite-300">
         {icon}
         {label}

@@ -1,10 +1,13 @@
 "use client"
-import { useEffect, useState } from "react"
+import { lazy, Suspense, useEffect, useState } from "react"
 import { getActiveDrive } from "@/lib/recorder/idb-outbox"
-import { FinishScreen } from "./finish-screen"
-import { RecordingScreen } from "./recording-screen"
 import { StartFlow, type StartChoice } from "./start-flow"
 import { getRecorder, useRecorder } from "./use-recorder"
+
+// Split off: the start flow is what a first visit needs; these load (from the worker's cache offline) when used.
+const RecordingScreen = lazy(() => import("./recording-screen").then((m) => ({ default: m.RecordingScreen })))
+const FinishScreen = lazy(() => import("./finish-screen").then((m) => ({ default: m.FinishScreen })))
+const opening = <p className="text-graphite-300">Opening the recorder…</p>
 
 /** The drive id lives in the address (`/record?drive=...`) so that a reload, online or not, finds the drive. */
 function driveIdFromLocation(): string | null {
@@ -63,13 +66,19 @@ export function RecorderApp({ coDriver = false }: { coDriver?: boolean }) {
   if (phase === "start") return <StartFlow onStart={(c) => void start(c)} />
   if (meta && meta.status !== "recording" && meta.role !== "co-driver") {
     return (
-      <FinishScreen
-        onNewDrive={() => {
-          window.history.replaceState(null, "", "/record")
-          window.location.reload()
-        }}
-      />
+      <Suspense fallback={opening}>
+        <FinishScreen
+          onNewDrive={() => {
+            window.history.replaceState(null, "", "/record")
+            window.location.reload()
+          }}
+        />
+      </Suspense>
     )
   }
-  return <RecordingScreen />
+  return (
+    <Suspense fallback={opening}>
+      <RecordingScreen />
+    </Suspense>
+  )
 }
