@@ -1,6 +1,7 @@
 // Drive ingest figures: they need the running app (BASE_URL) and its database (DATABASE_URL), e.g.
-//   /work/notes/devserver.sh-style slot, or `npm start` in one shell and
-//   BASE_URL=http://127.0.0.1:3000 DATABASE_URL=postgres://... npm run bench
+// `npm start` in one shell, then in another
+//   BASE_URL=http://127.0.0.1:3000 DATABASE_URL=postgres://postgres@127.0.0.1:54329/straightaway npm run bench
+// Without them the two figures are reported as skipped.
 // Each run makes a throwaway shop and deletes it (and its drives) at the end.
 import { randomUUID } from "node:crypto"
 import pg from "pg"
