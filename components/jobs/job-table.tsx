@@ -171,7 +171,7 @@ export function JobTable() {
         </Select>
       </div>
 
-      <div className="overflow-x-auto rounded-xl border border-graphite-200 bg-white dark:border-asphalt-700 dark:bg-asphalt-800">
+      <div className="relative overflow-x-auto rounded-xl border border-graphite-200 bg-white dark:border-asphalt-700 dark:bg-asphalt-800">
         <table className="w-full min-w-[40rem] text-left text-sm" aria-busy={result.isFetching}>
           <thead className="border-b border-graphite-200 dark:border-asphalt-700">
             {table.getHeaderGroups().map((group) => (
