@@ -90,6 +90,7 @@ export async function seedDemoJobsAndDrives(db: Db, shopId: string) {
   const codriver = people.find((p) => p.role === "co_driver")
   const lead = people.find((p) => p.role === "shop_lead") ?? people.find((p) => p.role === "admin")
   if (!tech || !lead) return
+  await seedOpenJobs(db, shopId, lead.id, tech.id)
   const existing = new Set(
     (await db.selectFrom("job").select("ro_number").where("shop_id", "=", shopId).where("ro_number", "in", JOBS.map((j) => j.ro)).execute()).map((r) => r.ro_number),
   )
@@ -207,6 +208,96 @@ export async function seedDemoJobsAndDrives(db: Db, shopId: string) {
         jobStatus = reviewStatus === "redo" ? "redo" : reviewStatus === "approved" || !needsReview ? "complete" : "review"
       }
       await trx.updateTable("job").set({ status: jobStatus }).where("id", "=", job.id).where("shop_id", "=", shopId).execute()
+    })
+  }
+}
+
+type OpenJob = {
+  ro: string
+  customer: { name: string; email: string; phone: string }
+  vehicle: { vin: string; year: number; make: string; model: string; plate: string }
+  tasks: Array<{ sensor: string; method: string; reason: string; profileKey: string | null; checklist: Record<string, unknown> | null }>
+}
+
+const READY_CHECKLIST = {
+  faultCodes: { none: false, expected: ["U0428"] },
+  tires: { unit: "psi", placard: 36, fl: 36, fr: 36, rl: 35, rr: 36 },
+  loadNormal: true,
+  fuelLevel: "1/2",
+  sensorClean: true,
+  mountUndamaged: true,
+  alignmentChecked: null,
+  notes: "Bumper cover refitted; radar bracket inspected. U0428 (steering angle) expected until the learn.",
+}
+
+// Jobs waiting for their drive, so a technician signing in to the demo has something to start.
+const OPEN_JOBS: OpenJob[] = [
+  {
+    ro: "RO-24110",
+    customer: { name: "Wilhelmina Strand", email: "w.strand@example.invalid", phone: "555-0106" },
+    vehicle: { vin: withCheckDigit("7SAVP5D10SM120045"), year: 2025, make: "Ostrava", model: "Pike", plate: "MBE 6620" },
+    tasks: [{ sensor: "forward_radar", method: "dynamic", reason: "bumper_or_grille_work", profileKey: "forward-radar", checklist: READY_CHECKLIST }],
+  },
+  {
+    ro: "RO-24111",
+    customer: { name: "Caspian Thorne", email: "c.thorne@example.invalid", phone: "555-0187" },
+    vehicle: { vin: withCheckDigit("7SAMV3C10RM220318"), year: 2024, make: "Mirro", model: "Vantage", plate: "ZRA 1043" },
+    tasks: [
+      { sensor: "forward_camera", method: "dynamic", reason: "windshield_replaced", profileKey: "forward-camera", checklist: null },
+      {
+        sensor: "forward_radar",
+        method: "dynamic",
+        reason: "windshield_replaced",
+        profileKey: "forward-radar",
+        checklist: { ...READY_CHECKLIST, tires: { unit: "psi", placard: 35, fl: 35, fr: 35, rl: 29, rr: 35 } },
+      },
+    ],
+  },
+]
+
+async function seedOpenJobs(db: Db, shopId: string, createdBy: string, completedBy: string) {
+  const existing = new Set(
+    (await db.selectFrom("job").select("ro_number").where("shop_id", "=", shopId).where("ro_number", "in", OPEN_JOBS.map((j) => j.ro)).execute()).map(
+      (r) => r.ro_number,
+    ),
+  )
+  const profiles = await db.selectFrom("condition_profile").select(["id", "key"]).where("shop_id", "=", shopId).execute()
+  for (const demo of OPEN_JOBS.filter((j) => !existing.has(j.ro))) {
+    await db.transaction().execute(async (trx) => {
+      const vehicle = await trx.insertInto("vehicle").values({ shop_id: shopId, ...demo.vehicle }).returning("id").executeTakeFirstOrThrow()
+      const job = await trx
+        .insertInto("job")
+        .values({
+          shop_id: shopId,
+          ro_number: demo.ro,
+          customer_name: demo.customer.name,
+          customer_email: demo.customer.email,
+          customer_phone: demo.customer.phone,
+          vehicle_id: vehicle.id,
+          created_by: createdBy,
+        })
+        .returning("id")
+        .executeTakeFirstOrThrow()
+      for (const t of demo.tasks) {
+        const task = await trx
+          .insertInto("job_task")
+          .values({
+            shop_id: shopId,
+            job_id: job.id,
+            sensor: t.sensor,
+            method: t.method,
+            reason: t.reason,
+            profile_id: profiles.find((p) => p.key === t.profileKey)?.id ?? null,
+          })
+          .returning("id")
+          .executeTakeFirstOrThrow()
+        if (t.checklist) {
+          await trx
+            .insertInto("checklist")
+            .values({ task_id: task.id, shop_id: shopId, data: JSON.stringify(t.checklist), completed_by: completedBy })
+            .execute()
+        }
+      }
     })
   }
 }

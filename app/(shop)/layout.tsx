@@ -2,6 +2,7 @@ import Link from "next/link"
 import type { ReactNode } from "react"
 import { requirePageRole } from "@/app/_server/auth"
 import { NotificationBell } from "@/components/notifications/notification-bell"
+import { ServiceWorkerRegistration } from "@/components/pwa/service-worker-registration"
 import { BottomNav, SideNav } from "@/components/shell/app-nav"
 import { Logo } from "@/components/shell/logo"
 import { navItemsFor } from "@/components/shell/nav-items"
@@ -38,6 +39,7 @@ export default async function ShopLayout({ children }: { children: ReactNode }) 
         </main>
       </div>
       <BottomNav items={items} />
+      <ServiceWorkerRegistration />
     </div>
   )
 }

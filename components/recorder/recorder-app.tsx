@@ -57,7 +57,7 @@ export function RecorderApp({ coDriver = false }: { coDriver?: boolean }) {
   async function start(choice: StartChoice) {
     const id = crypto.randomUUID()
     window.history.replaceState(null, "", `/record?drive=${id}`)
-    await getRecorder().start({ id, ...choice, coDriverId: null })
+    await getRecorder().start({ id, ...choice })
     setPhase("drive")
   }
 

@@ -1,12 +1,15 @@
 "use client"
-import { CarFront, ClipboardList, Play, ShieldAlert } from "lucide-react"
+import { ArrowLeft, CarFront, ClipboardCheck, ClipboardList, ClipboardX, Play, ShieldAlert, Users } from "lucide-react"
 import { useEffect, useState } from "react"
 import { DEFAULT_PROFILE, resolveProfile, type ResolvedProfile } from "@/lib/drive-file/profile"
 import type { Profile } from "@/lib/drive-file/schema"
 import { profileInWords } from "@/lib/recorder/profile-words"
 
 type JobSummary = { id: string; roNumber: string; label: string }
-type TaskSummary = { id: string; sensor: string; method: string; profile: { name: string; settings: Profile } | null; checklist: Record<string, unknown> | null }
+type Blocker = { key: string; message: string }
+type ChecklistSummary = { ready: boolean; blockers: Blocker[]; completedBy: string | null; completedAt: string }
+type TaskSummary = { id: string; sensor: string; method: string; profile: { name: string; settings: Profile } | null; checklist: ChecklistSummary | null }
+type Person = { id: string; name: string }
 
 export interface StartChoice {
   profile: ResolvedProfile
@@ -14,15 +17,19 @@ export interface StartChoice {
   vehicleDescription: string | null
   jobId: string | null
   taskId: string | null
+  coDriverId: string | null
 }
 
+// `blocker` is the prefix of the job checklist's blocker keys that the same check answers.
 const GATE_CHECKS = [
-  { key: "codes", text: "No stored fault codes other than the ones expected for this repair." },
-  { key: "tires", text: "Tire pressures set to the placard." },
-  { key: "load", text: "No unusual load in the vehicle." },
-  { key: "clean", text: "Sensor face and the area in front of it clean." },
-  { key: "mount", text: "Sensor mount and bracket undamaged." },
+  { key: "codes", blocker: "faultCodes", text: "No stored fault codes other than the ones expected for this repair." },
+  { key: "tires", blocker: "tires", text: "Tire pressures set to the placard." },
+  { key: "load", blocker: "loadNormal", text: "No unusual load in the vehicle." },
+  { key: "clean", blocker: "sensorClean", text: "Sensor face and the area in front of it clean." },
+  { key: "mount", blocker: "mountUndamaged", text: "Sensor mount and bracket undamaged." },
 ] as const
+
+const OPEN_JOB_STATUSES = new Set(["open", "drive", "redo"])
 
 const CAUTIONS = [
   "The driver never operates the phone while the vehicle moves: the co-driver logs.",
@@ -66,17 +73,23 @@ export function StartFlow({ onStart }: { onStart: (choice: StartChoice) => void 
   const [checks, setChecks] = useState<Record<string, boolean>>({})
   const [ready, setReady] = useState(false)
   const [step, setStep] = useState<"pick" | "gate">("pick")
+  const [coDrivers, setCoDrivers] = useState<Person[]>([])
+  const [coDriverId, setCoDriverId] = useState("")
+  // A job page's "Start a drive" link names the job and task: /record?jobId=...&taskId=...
+  const [wanted] = useState(() => {
+    const q = new URLSearchParams(typeof window === "undefined" ? "" : window.location.search)
+    return { jobId: q.get("jobId") ?? "", taskId: q.get("taskId") ?? "" }
+  })
 
   useEffect(() => {
-    void getJson("/api/jobs").then((body) => {
+    void getJson("/api/jobs?limit=100&sort=updatedAt&dir=desc").then((body) => {
       const list = Array.isArray(body?.jobs) ? body.jobs : []
-      setJobs(
-        list
-          .filter((j: any) => !["complete", "review"].includes(j.status))
-          .map((j: any) => ({ id: j.id, roNumber: j.roNumber ?? j.ro_number, label: jobLabel(j) })),
-      )
+      const open = list.filter((j: any) => OPEN_JOB_STATUSES.has(j.status) || j.id === wanted.jobId)
+      setJobs(open.map((j: any) => ({ id: j.id, roNumber: j.roNumber ?? j.ro_number, label: jobLabel(j) })))
+      if (wanted.jobId && open.some((j: any) => j.id === wanted.jobId)) setJobId(wanted.jobId)
     })
-  }, [])
+    void getJson("/api/people?role=co_driver").then((body) => setCoDrivers(Array.isArray(body?.people) ? body.people : []))
+  }, [wanted.jobId])
 
   useEffect(() => {
     setTasks([])
@@ -85,9 +98,19 @@ export function StartFlow({ onStart }: { onStart: (choice: StartChoice) => void 
     void getJson(`/api/jobs/${jobId}`).then((body) => {
       const t: TaskSummary[] = (body?.job?.tasks ?? []).filter((x: any) => x.method !== "static")
       setTasks(t)
-      if (t.length === 1) setTaskId(t[0]!.id)
+      const preferred = t.find((x) => x.id === wanted.taskId) ?? (t.length === 1 ? t[0] : undefined)
+      if (preferred) setTaskId(preferred.id)
     })
-  }, [jobId])
+  }, [jobId, wanted.taskId])
+
+  const checklist = tasks.find((t) => t.id === taskId)?.checklist ?? null
+  // What the job's checklist already confirmed is ticked; the technician still sees and can untick each line.
+  useEffect(() => {
+    if (!checklist || checklist.blockers.some((b) => b.key === "checklist")) return
+    setChecks(
+      Object.fromEntries(GATE_CHECKS.map((c) => [c.key, !checklist.blockers.some((b) => b.key === c.blocker || b.key.startsWith(`${c.blocker}.`))])),
+    )
+  }, [checklist])
 
   const task = tasks.find((t) => t.id === taskId) ?? null
   const profile = task?.profile ? resolveProfile(task.profile.settings) : resolveProfile(DEFAULT_PROFILE)
@@ -98,7 +121,12 @@ export function StartFlow({ onStart }: { onStart: (choice: StartChoice) => void 
   if (step === "pick") {
     return (
       <div className="space-y-4">
-        <h1 className="text-2xl font-bold">Start a drive</h1>
+        <div className="flex items-center justify-between gap-2">
+          <h1 className="text-2xl font-bold">Start a drive</h1>
+          <a href="/drives" className="flex min-h-12 items-center gap-1 rounded-lg px-3 font-semibold text-graphite-200 hover:bg-asphalt-700">
+            <ArrowLeft aria-hidden className="size-5" /> Drives
+          </a>
+        </div>
         <section className="space-y-2 rounded-xl bg-asphalt-800 p-3">
           <h2 className="flex items-center gap-2 font-semibold">
             <ClipboardList aria-hidden className="size-5" /> Job
@@ -144,6 +172,26 @@ export function StartFlow({ onStart }: { onStart: (choice: StartChoice) => void 
             </label>
           </section>
         ) : null}
+        {coDrivers.length ? (
+          <section className="space-y-2 rounded-xl bg-asphalt-800 p-3">
+            <h2 className="flex items-center gap-2 font-semibold">
+              <Users aria-hidden className="size-5" /> Co-driver
+            </h2>
+            <select
+              aria-label="Co-driver"
+              className="min-h-12 w-full rounded-lg bg-asphalt-700 px-3"
+              value={coDriverId}
+              onChange={(e) => setCoDriverId(e.target.value)}
+            >
+              <option value="">Logs on this phone</option>
+              {coDrivers.map((p) => (
+                <option key={p.id} value={p.id}>
+                  {p.name} (on their own phone)
+                </option>
+              ))}
+            </select>
+          </section>
+        ) : null}
         <section className="rounded-xl bg-asphalt-800 p-3">
           <h2 className="font-semibold">Condition profile{task?.profile ? `: ${task.profile.name}` : ": shop default"}</h2>
           <ul className="mt-2 list-disc space-y-1 pl-5 text-graphite-200">
@@ -168,10 +216,36 @@ export function StartFlow({ onStart }: { onStart: (choice: StartChoice) => void 
   return (
     <div className="space-y-4">
       <h1 className="text-2xl font-bold">Before you drive</h1>
+      {checklist ? (
+        <section
+          className={`space-y-1 rounded-xl border-2 p-3 ${checklist.ready ? "border-teal-400" : "border-stop-500"}`}
+          data-testid="checklist-status"
+        >
+          <h2 className="flex items-center gap-2 font-semibold">
+            {checklist.ready ? <ClipboardCheck aria-hidden className="size-5 text-teal-300" /> : <ClipboardX aria-hidden className="size-5 text-stop-400" />}
+            {checklist.ready ? "Job checklist: ready" : "Job checklist: not ready"}
+          </h2>
+          <p className="text-sm text-graphite-300">
+            {checklist.completedBy ? `Filled in by ${checklist.completedBy}` : "Filled in"}
+            {checklist.completedAt ? `, ${new Date(checklist.completedAt).toLocaleString()}` : ""}
+          </p>
+          {checklist.blockers.length ? (
+            <ul className="list-disc space-y-1 pl-5">
+              {checklist.blockers.map((b) => (
+                <li key={b.key}>{b.message}</li>
+              ))}
+            </ul>
+          ) : null}
+        </section>
+      ) : jobId ? (
+        <p className="rounded-xl bg-asphalt-800 p-3 text-graphite-200" data-testid="checklist-status">
+          No checklist on the job for this calibration yet. Confirm each check here.
+        </p>
+      ) : null}
       <section className="space-y-1 rounded-xl bg-asphalt-800 p-3">
         {GATE_CHECKS.map((c) => (
           <label key={c.key} className="flex min-h-12 items-center gap-3">
-            <input type="checkbox" className="size-6 accent-signal-400" checked={Boolean(checks[c.key])} onChange={(e) => setChecks({ ...checks, [c.key]: e.target.checked })} data-testid={`gate-${c.key}`} />
+            <input type="checkbox" className="size-6 shrink-0 accent-signal-400" checked={Boolean(checks[c.key])} onChange={(e) => setChecks({ ...checks, [c.key]: e.target.checked })} data-testid={`gate-${c.key}`} />
             <span>{c.text}</span>
           </label>
         ))}
@@ -187,7 +261,7 @@ export function StartFlow({ onStart }: { onStart: (choice: StartChoice) => void 
         </ul>
       </section>
       <label className="flex min-h-12 items-center gap-3 rounded-xl bg-asphalt-800 p-3 font-semibold">
-        <input type="checkbox" className="size-6 accent-signal-400" checked={ready} onChange={(e) => setReady(e.target.checked)} data-testid="gate-ready" />
+        <input type="checkbox" className="size-6 shrink-0 accent-signal-400" checked={ready} onChange={(e) => setReady(e.target.checked)} data-testid="gate-ready" />
         The vehicle is out of the bay, running and ready to drive.
       </label>
       <div className="grid grid-cols-3 gap-2">
@@ -205,6 +279,7 @@ export function StartFlow({ onStart }: { onStart: (choice: StartChoice) => void 
               vehicleDescription: job ? null : unplanned.trim(),
               jobId: jobId || null,
               taskId: taskId || null,
+              coDriverId: coDriverId || null,
             })
           }
           className="col-span-2 flex min-h-16 items-center justify-center gap-2 rounded-xl bg-signal-400 text-xl font-bold text-graphite-950 disabled:opacity-40"
