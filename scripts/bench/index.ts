@@ -3,7 +3,8 @@
 // and append it below. Give it `requiresEnv` (e.g. ["DATABASE_URL"] for ingestToRawInsertRatio,
 // ["BENCH_BASE_URL"] for syncSecondsFor36k) and it is reported as skipped when that is absent.
 import { ingestToRawInsertRatio, syncSecondsFor36k } from "./drives"
+import { recorderFirstLoadKb } from "./pages"
 import { samplesScoredPerSecond, scoreToParseRatio } from "./scoring"
 import type { BenchFigure } from "./types"
 
-export const figures: BenchFigure[] = [scoreToParseRatio, samplesScoredPerSecond, ingestToRawInsertRatio, syncSecondsFor36k]
+export const figures: BenchFigure[] = [scoreToParseRatio, samplesScoredPerSecond, ingestToRawInsertRatio, syncSecondsFor36k, recorderFirstLoadKb]

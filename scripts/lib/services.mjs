@@ -23,7 +23,7 @@ export function startFakes({ s3Port, smtpPort, dir }) {
     const child = fork(path.join(root, "scripts", "fakes.mjs"), [], {
       cwd: root,
       env: { ...process.env, S3_PORT: String(s3Port), SMTP_PORT: String(smtpPort), FAKES_DIR: dir },
-      stdio: "inherit",
+      stdio: process.env.STRAIGHTAWAY_LOG_STDERR === "1" ? ["inherit", 2, 2, "ipc"] : "inherit",
     })
     child.once("message", () => resolve(child))
     child.once("exit", (code) => reject(new Error(`the local fakes exited (${code})`)))

@@ -5,13 +5,21 @@ import path from "node:path"
 
 export const root = path.resolve(import.meta.dirname, "..", "..")
 
+const toStderr = () => process.env.STRAIGHTAWAY_LOG_STDERR === "1"
+
 export function log(message) {
-  process.stdout.write(`[straightaway] ${message}\n`)
+  ;(toStderr() ? process.stderr : process.stdout).write(`[straightaway] ${message}\n`)
+}
+
+/** Child output: inherited, or all of it on stderr when our stdout is reserved for a result (`stdout: true` keeps it). */
+function childStdio(quiet, keepStdout = false) {
+  if (quiet) return "pipe"
+  return toStderr() && !keepStdout ? ["inherit", 2, 2] : "inherit"
 }
 
 /** Runs a command to completion, inheriting output unless quiet; throws on a non-zero exit when check. */
-export function run(cmd, args, { quiet = false, check = true, env, cwd = root } = {}) {
-  const res = spawnSync(cmd, args, { cwd, env: env ?? process.env, stdio: quiet ? "pipe" : "inherit", encoding: "utf8" })
+export function run(cmd, args, { quiet = false, check = true, env, cwd = root, stdout = false } = {}) {
+  const res = spawnSync(cmd, args, { cwd, env: env ?? process.env, stdio: childStdio(quiet, stdout), encoding: "utf8" })
   if (check && res.status !== 0) {
     if (quiet) process.stderr.write(`${res.stdout ?? ""}${res.stderr ?? ""}`)
     throw new Error(`${cmd} ${args.join(" ")} exited with ${res.status ?? res.signal}`)
@@ -21,7 +29,7 @@ export function run(cmd, args, { quiet = false, check = true, env, cwd = root } 
 
 /** Starts a long-running child that is stopped with us. */
 export function startChild(cmd, args, { env, name } = {}) {
-  const child = spawn(cmd, args, { cwd: root, env: env ?? process.env, stdio: "inherit" })
+  const child = spawn(cmd, args, { cwd: root, env: env ?? process.env, stdio: childStdio(false) })
   child.on("exit", (code, signal) => {
     if (!child.expectedExit) log(`${name ?? cmd} exited (${code ?? signal})`)
   })
