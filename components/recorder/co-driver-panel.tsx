@@ -2,6 +2,7 @@
 import { CircleCheck, CircleStop, CircleX, Link2, Link2Off, Pencil, Ruler, ShieldCheck, Undo2 } from "lucide-react"
 import { useState, type ReactNode } from "react"
 import type { MarkKind } from "@/lib/drive-file/schema"
+import { MARK_LABEL as MARK_WORD } from "@/lib/labels"
 import { roundGapFt, timeGap, type TimeGap } from "@/lib/recorder/time-gap"
 import { getRecorder, useRecorder } from "./use-recorder"
 
@@ -11,17 +12,6 @@ const buzz = (pattern: number | number[] = 40) => {
   try {
     navigator.vibrate?.(pattern)
   } catch {}
-}
-
-const MARK_WORD: Record<MarkKind, string> = {
-  "lead-on": "Lead on",
-  gap: "Gap",
-  "lead-off": "Lead off",
-  cleared: "Cleared",
-  stopped: "Stopped",
-  verified: "Verified",
-  "verify-failed": "Verify failed",
-  note: "Note",
 }
 
 function Big({ children, onClick, tone = "plain", testId, disabled }: { children: ReactNode; onClick: () => void; tone?: "plain" | "signal" | "teal" | "stop"; testId?: string; disabled?: boolean }) {

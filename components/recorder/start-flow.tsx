@@ -1,6 +1,7 @@
 "use client"
 import { ArrowLeft, CarFront, ClipboardCheck, ClipboardList, ClipboardX, Play, ShieldAlert, Users } from "lucide-react"
 import { useEffect, useState } from "react"
+import { SENSOR_LABEL as SENSOR_WORD } from "@/lib/labels"
 import { DEFAULT_PROFILE, resolveProfile, type ResolvedProfile } from "@/lib/drive-file/profile"
 import type { Profile } from "@/lib/drive-file/schema"
 import { profileInWords } from "@/lib/recorder/profile-words"
@@ -37,15 +38,6 @@ const CAUTIONS = [
   "The vehicle maker's service information and local regulations come first.",
   "The vehicle's own confirmation that the learn is done governs. The score never replaces it.",
 ]
-
-const SENSOR_WORD: Record<string, string> = {
-  forward_radar: "Forward radar",
-  forward_camera: "Forward camera",
-  corner_radar: "Corner radar",
-  rear_radar: "Rear radar",
-  surround_camera: "Surround camera",
-  other: "Other sensor",
-}
 
 async function getJson(path: string): Promise<any | null> {
   try {

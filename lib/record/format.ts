@@ -1,4 +1,5 @@
 import type { Verdict } from "@/lib/scoring/types"
+import { METHOD_LABEL as JOB_METHOD_LABEL, REASON_LABEL as JOB_REASON_LABEL } from "@/lib/labels"
 import { mToMi } from "@/lib/units"
 
 export const VERDICT_WORD: Record<Verdict, string> = { met: "Met", short: "Short", not_met: "Not met", unverified: "Unverified" }
@@ -21,38 +22,11 @@ export function formatDuration(seconds: number): string {
   return h > 0 ? `${h} h ${m} min` : `${m} min ${String(s).padStart(2, "0")} s`
 }
 
-export const SENSOR_LABEL: Record<string, string> = {
-  forward_radar: "Forward radar",
-  forward_camera: "Forward camera",
-  corner_radar: "Corner radar",
-  rear_radar: "Rear radar",
-  surround_camera: "Surround camera",
-  other: "Other sensor",
-}
+export { MARK_LABEL, SENSOR_LABEL } from "@/lib/labels"
 
-export const METHOD_LABEL: Record<string, string> = { dynamic: "Drive learn (dynamic)", static: "Static", both: "Static and drive learn" }
-
-export const REASON_LABEL: Record<string, string> = {
-  removed_and_reinstalled: "Sensor removed and put back",
-  replaced: "Sensor replaced",
-  bumper_or_grille_work: "Bumper or grille work",
-  windshield_replaced: "Windshield replaced",
-  wheel_alignment: "Wheel alignment",
-  fault_code: "Fault code",
-  service_bulletin: "Service bulletin",
-  other: "Other",
-}
-
-export const MARK_LABEL: Record<string, string> = {
-  "lead-on": "Lead on",
-  gap: "Gap",
-  "lead-off": "Lead off",
-  cleared: "Cleared",
-  stopped: "Stopped",
-  verified: "Verified",
-  "verify-failed": "Verify failed",
-  note: "Note",
-}
+// The record words a task's method and reason in its own phrasing for these values (product wording, kept as it was).
+export const METHOD_LABEL: Record<string, string> = { ...JOB_METHOD_LABEL, static: "Static", both: "Static and drive learn" }
+export const REASON_LABEL: Record<string, string> = { ...JOB_REASON_LABEL, fault_code: "Fault code", other: "Other" }
 
 export function describeVehicle(v: { year: number | null; make: string | null; model: string | null } | null, fallback?: string | null) {
   if (!v) return fallback ?? "Vehicle not named"

@@ -1,56 +1,11 @@
 import { z } from "zod"
 import { AppError } from "@/lib/errors"
+import { JOB_STATUSES, METHODS, REASONS, SENSORS } from "@/lib/labels"
 import { vinSchema } from "@/lib/validation/vin"
 
-export const SENSORS = ["forward_radar", "forward_camera", "corner_radar", "rear_radar", "surround_camera", "other"] as const
-export const METHODS = ["dynamic", "static", "both"] as const
-export const REASONS = [
-  "removed_and_reinstalled",
-  "replaced",
-  "bumper_or_grille_work",
-  "windshield_replaced",
-  "wheel_alignment",
-  "fault_code",
-  "service_bulletin",
-  "other",
-] as const
-export const JOB_STATUSES = ["open", "drive", "review", "complete", "redo"] as const
-
-export type Sensor = (typeof SENSORS)[number]
-export type Method = (typeof METHODS)[number]
-export type Reason = (typeof REASONS)[number]
-export type JobStatusValue = (typeof JOB_STATUSES)[number]
-
-export const SENSOR_LABEL: Record<Sensor, string> = {
-  forward_radar: "Forward radar",
-  forward_camera: "Forward camera",
-  corner_radar: "Corner radar",
-  rear_radar: "Rear radar",
-  surround_camera: "Surround camera",
-  other: "Other sensor",
-}
-export const METHOD_LABEL: Record<Method, string> = {
-  dynamic: "Drive learn (dynamic)",
-  static: "Target set-up (static)",
-  both: "Static, then a drive",
-}
-export const REASON_LABEL: Record<Reason, string> = {
-  removed_and_reinstalled: "Sensor removed and put back",
-  replaced: "Sensor replaced",
-  bumper_or_grille_work: "Bumper or grille work",
-  windshield_replaced: "Windshield replaced",
-  wheel_alignment: "Wheel alignment",
-  fault_code: "Fault code set",
-  service_bulletin: "Service bulletin",
-  other: "Other reason",
-}
-export const JOB_STATUS_LABEL: Record<JobStatusValue, string> = {
-  open: "Open",
-  drive: "Driving",
-  review: "Needs review",
-  complete: "Complete",
-  redo: "Drive again",
-}
+// The job forms and tables import the task values and their words from here as well.
+export { JOB_STATUS_LABEL, JOB_STATUSES, METHOD_LABEL, METHODS, REASON_LABEL, REASONS, SENSOR_LABEL, SENSORS } from "@/lib/labels"
+export type { JobStatusValue, Method, Reason, Sensor } from "@/lib/labels"
 
 // Forms send "" for an empty optional box; the API treats "" and a missing key alike.
 const optionalText = (max: number) =>

@@ -1,6 +1,6 @@
 import { z } from "zod"
 import { profileSchema } from "@/lib/drive-file"
-import { SENSORS } from "@/lib/validation/job"
+import { SENSORS } from "@/lib/labels"
 
 export const profileKeySchema = z
   .string()
