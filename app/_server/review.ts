@@ -4,7 +4,7 @@ import { findJobTaskDrives, setJobStatus } from "@/db/queries/drives"
 import { insertNotification } from "@/db/queries/notifications"
 import { findDriveRecordHead, findShopPerson, insertReviewDecision } from "@/db/queries/reviews"
 import type { Drive } from "@/db/types"
-import { jobStatusAfterFinish, type TaskDriveFacts } from "@/lib/access/drive"
+import { jobStatusFromDrives } from "@/lib/access/drive"
 import { AppError } from "@/lib/errors"
 import { describeVehicle, roLabel } from "@/lib/record"
 import type { ReviewInput } from "@/lib/validation/review"
@@ -28,7 +28,7 @@ export async function decideReview(db: Db, drive: Drive, reviewer: { id: string;
     const decided = await insertReviewDecision(trx, { driveId: drive.id, shopId: reviewer.shopId, decision: input.decision, note: input.note, reviewerId: reviewer.id })
     if (!decided) throw new AppError("conflict", "This drive has been reviewed already.")
     if (decided.drive.job_id) {
-      const status = input.decision === "redo" ? "redo" : await jobStatusAfterApproval(trx, decided.drive.job_id, reviewer.shopId)
+      const status = input.decision === "redo" ? "redo" : jobStatusFromDrives(await findJobTaskDrives(trx, decided.drive.job_id, reviewer.shopId))
       await setJobStatus(trx, decided.drive.job_id, reviewer.shopId, status)
     }
     if (input.decision === "redo" && decided.drive.driver_id !== reviewer.id) {
@@ -62,18 +62,4 @@ export async function decideReview(db: Db, drive: Drive, reviewer: { id: string;
     }
   }
   return result
-}
-
-async function jobStatusAfterApproval(trx: Db, jobId: string, shopId: string) {
-  const { tasks, drives } = await findJobTaskDrives(trx, jobId, shopId)
-  const latestByTask = new Map<string | null, (typeof drives)[number]>()
-  for (const d of drives) latestByTask.set(d.task_id, d)
-  const toFacts = (d: (typeof drives)[number] | undefined): TaskDriveFacts["latest"] =>
-    d ? { status: d.status, verdict: d.verdict, harshEvents: Number(d.harsh_events), reviewStatus: d.review_status } : null
-  const facts: TaskDriveFacts[] =
-    tasks.length > 0
-      ? tasks.map((t) => ({ needsDrive: t.method !== "static", latest: toFacts(latestByTask.get(t.id)) }))
-      : [{ needsDrive: true, latest: toFacts(drives.at(-1)) }]
-  if (tasks.length > 0 && latestByTask.has(null)) facts.push({ needsDrive: false, latest: toFacts(latestByTask.get(null)) })
-  return jobStatusAfterFinish(facts)
 }

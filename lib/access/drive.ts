@@ -84,3 +84,31 @@ export function jobStatusAfterFinish(tasks: readonly TaskDriveFacts[]): JobStatu
     )
   return allDone ? "complete" : "drive"
 }
+
+/** A job's task row and drive row as the job-status rule reads them (drives ascending by start). */
+export interface JobTaskRow {
+  id: string
+  method: string
+}
+export interface JobDriveRow {
+  task_id: string | null
+  status: "recording" | "finished"
+  verdict: "met" | "short" | "not_met" | "unverified" | null
+  review_status: "approved" | "redo" | null
+  harsh_events: number | string
+}
+
+/** The job's status from its tasks and all of its drives: each task is held to its latest drive. */
+export function jobStatusFromDrives({ tasks, drives }: { tasks: readonly JobTaskRow[]; drives: readonly JobDriveRow[] }): JobStatus {
+  const latestByTask = new Map<string | null, JobDriveRow>()
+  for (const d of drives) latestByTask.set(d.task_id, d) // ascending by start: the last one wins
+  const toFacts = (d: JobDriveRow | undefined): TaskDriveFacts["latest"] =>
+    d ? { status: d.status, verdict: d.verdict, harshEvents: Number(d.harsh_events), reviewStatus: d.review_status } : null
+  const facts: TaskDriveFacts[] =
+    tasks.length > 0
+      ? tasks.map((t) => ({ needsDrive: t.method !== "static", latest: toFacts(latestByTask.get(t.id)) }))
+      : [{ needsDrive: true, latest: toFacts(drives.at(-1)) }]
+  // Drives on the job without a task count for the job as a whole.
+  if (tasks.length > 0 && latestByTask.has(null)) facts.push({ needsDrive: false, latest: toFacts(latestByTask.get(null)) })
+  return jobStatusAfterFinish(facts)
+}

@@ -16,10 +16,9 @@ import {
   canFinishDrive,
   canRecordOnDrive,
   canSeeDrive,
-  jobStatusAfterFinish,
+  jobStatusFromDrives,
   type DriveAccessFacts,
   type DriveActor,
-  type TaskDriveFacts,
 } from "@/lib/access/drive"
 import { AppError, notFound } from "@/lib/errors"
 import { scoreDrive, type Score } from "@/lib/scoring"
@@ -96,16 +95,5 @@ export async function rescoreFinishedDrive(trx: Db, drive: Drive): Promise<void>
 }
 
 async function updateJobAfterFinish(trx: Db, jobId: string, shopId: string) {
-  const { tasks, drives } = await findJobTaskDrives(trx, jobId, shopId)
-  const latestByTask = new Map<string | null, (typeof drives)[number]>()
-  for (const d of drives) latestByTask.set(d.task_id, d) // ascending by start: the last one wins
-  const toFacts = (d: (typeof drives)[number] | undefined): TaskDriveFacts["latest"] =>
-    d ? { status: d.status, verdict: d.verdict, harshEvents: Number(d.harsh_events), reviewStatus: d.review_status } : null
-  const facts: TaskDriveFacts[] =
-    tasks.length > 0
-      ? tasks.map((t) => ({ needsDrive: t.method !== "static", latest: toFacts(latestByTask.get(t.id)) }))
-      : [{ needsDrive: true, latest: toFacts(drives.at(-1)) }]
-  // Drives on the job without a task count for the job as a whole.
-  if (tasks.length > 0 && latestByTask.has(null)) facts.push({ needsDrive: false, latest: toFacts(latestByTask.get(null)) })
-  await setJobStatus(trx, jobId, shopId, jobStatusAfterFinish(facts))
+  await setJobStatus(trx, jobId, shopId, jobStatusFromDrives(await findJobTaskDrives(trx, jobId, shopId)))
 }
