@@ -1,5 +1,6 @@
 import type { DriveFile, Mark, Sample } from "@/lib/drive-file/schema"
 import { resolveProfile } from "@/lib/drive-file/profile"
+import { applyLeadMark, type LeadState } from "@/lib/scoring/lead-state"
 
 export type DropReason = "accuracy" | "duplicate-time"
 
@@ -31,28 +32,13 @@ export function sortMarks(marks: readonly Mark[]): Mark[] {
     .map((x) => x.mark)
 }
 
-export interface LeadState {
-  leadOn: boolean
-  gapFt: number | null
-}
-
 /** Rule 4: lead state in force at each of the given (ascending) times; marks at a time apply to it. */
 export function leadStatesAt(times: readonly number[], sortedMarks: readonly Mark[]): LeadState[] {
-  let leadOn = false
-  let gapFt: number | null = null
+  const state: LeadState = { leadOn: false, gapFt: null }
   let k = 0
   return times.map((t) => {
-    while (k < sortedMarks.length && sortedMarks[k]!.t <= t) {
-      const m = sortedMarks[k++]!
-      if (m.kind === "lead-on") {
-        leadOn = true
-        gapFt = m.gapFt ?? null
-      } else if (m.kind === "lead-off") {
-        leadOn = false
-        gapFt = null
-      } else if (m.kind === "gap" && leadOn) gapFt = m.gapFt ?? gapFt
-    }
-    return { leadOn, gapFt }
+    while (k < sortedMarks.length && sortedMarks[k]!.t <= t) applyLeadMark(state, sortedMarks[k++]!)
+    return { leadOn: state.leadOn, gapFt: state.gapFt }
   })
 }
 

@@ -2,6 +2,7 @@ import type { Mark, Sample } from "@/lib/drive-file/schema"
 import type { ResolvedProfile } from "@/lib/drive-file/profile"
 import { mphToMps } from "@/lib/units"
 import { reducedLatitude, vincentyFromReduced } from "./geodesy"
+import { applyLeadMark, type LeadState } from "./lead-state"
 
 /**
  * Half-width of the window used to smooth a speed derived from positions (rule 5, only for samples
@@ -182,12 +183,16 @@ export class ScoringEngine {
 
   private append(s: Sample): void {
     const i = this.n++
+    this.put(i, s)
+    this.computeGeometry(i)
+  }
+
+  private put(i: number, s: Sample): void {
     this.t[i] = s.t
     this.lat[i] = s.lat
     this.lon[i] = s.lon
     const v = s.speed
     this.speed[i] = v === undefined || v === null ? NaN : v
-    this.computeGeometry(i)
   }
 
   private computeGeometry(i: number): void {
@@ -243,12 +248,7 @@ export class ScoringEngine {
           this.duplicates++
           continue
         }
-        const i = this.n++
-        this.t[i] = s.t
-        this.lat[i] = s.lat
-        this.lon[i] = s.lon
-        const v = s.speed
-        this.speed[i] = v === undefined || v === null ? NaN : v
+        this.put(this.n++, s)
       }
       lastT = this.t[this.n - 1]!
     }
@@ -330,30 +330,21 @@ export class ScoringEngine {
     const minV = this.minSpeedMps
     const maxV = this.maxSpeedMps
     const maxGapMs = this.maxGapMs
-    let { mp, leadOn, gapFt, gapS, qualS, follS, qualBeforeClearS, follBeforeClearS } = this
+    let { mp, gapS, qualS, follS, qualBeforeClearS, follBeforeClearS } = this
+    const lead: LeadState = { leadOn: this.leadOn, gapFt: this.gapFt }
     for (let i = this.p; i < last; i++) {
       const t0 = t[i]!
       const t1 = t[i + 1]!
       const dtS = (t1 - t0) / 1000
-      while (mp < leadMarks.length && leadMarks[mp]!.t <= t0) {
-        const m = leadMarks[mp++]!
-        if (m.kind === "lead-on") {
-          leadOn = true
-          gapFt = m.gapFt ?? null
-        } else if (m.kind === "lead-off") {
-          leadOn = false
-          gapFt = null
-        } else if (leadOn) {
-          gapFt = m.gapFt ?? gapFt
-        }
-      }
+      while (mp < leadMarks.length && leadMarks[mp]!.t <= t0) applyLeadMark(lead, leadMarks[mp++]!)
       if (t1 - t0 > maxGapMs) {
         gapS += dtS
         continue
       }
       const v = this.intervalSpeed(i)
       if (!(v >= minV && v <= maxV)) continue
-      const following = leadOn && (gapFt === null || (gapFt >= gapMinFt && gapFt <= gapMaxFt))
+      const gapFt = lead.gapFt
+      const following = lead.leadOn && (gapFt === null || (gapFt >= gapMinFt && gapFt <= gapMaxFt))
       qualS += dtS
       if (following) follS += dtS
       if (clearMs === null || t1 <= clearMs) {
@@ -366,7 +357,7 @@ export class ScoringEngine {
       }
     }
     this.p = last
-    Object.assign(this, { mp, leadOn, gapFt, gapS, qualS, follS, qualBeforeClearS, follBeforeClearS })
+    Object.assign(this, { mp, leadOn: lead.leadOn, gapFt: lead.gapFt, gapS, qualS, follS, qualBeforeClearS, follBeforeClearS })
   }
 
   // ---- rule 5: harsh events ----
@@ -405,29 +396,15 @@ export class ScoringEngine {
     const maxAccel = this.profile.maxAccelMps2
     const maxDecel = this.profile.maxDecelMps2
     if (this.h === 0) this.hSpeed = this.sampleSpeed(0)
-    // Commit intervals whose end speeds are final.
+    // Intervals whose end speeds are final are committed; from the first that is not, the tail is
+    // counted with the speeds known now, without committing it.
     let { h, hSpeed, accelEvents, decelEvents, inAccel, inDecel } = this
-    while (h < last && (h > 0 || this.sampleSpeedFinal(0)) && this.sampleSpeedFinal(h + 1)) {
-      const next = this.sampleSpeed(h + 1)
-      if (this.isGap(h)) {
-        inAccel = inDecel = false
-      } else {
-        const a = (next - hSpeed) / ((this.t[h + 1]! - this.t[h]!) / 1000)
-        if (a > maxAccel) {
-          if (!inAccel) accelEvents++
-          inAccel = true
-        } else inAccel = false
-        if (a < -maxDecel) {
-          if (!inDecel) decelEvents++
-          inDecel = true
-        } else inDecel = false
-      }
-      hSpeed = next
-      h++
-    }
-    Object.assign(this, { h, hSpeed, accelEvents, decelEvents, inAccel, inDecel })
-    // The tail is counted with the speeds known now, without committing it.
+    let committing = true
     for (let i = h; i < last; i++) {
+      if (committing && !((i > 0 || this.sampleSpeedFinal(0)) && this.sampleSpeedFinal(i + 1))) {
+        committing = false
+        Object.assign(this, { h: i, hSpeed, accelEvents, decelEvents, inAccel, inDecel })
+      }
       const next = this.sampleSpeed(i + 1)
       if (this.isGap(i)) {
         inAccel = inDecel = false
@@ -444,6 +421,7 @@ export class ScoringEngine {
       }
       hSpeed = next
     }
+    if (committing) Object.assign(this, { h: Math.max(h, last), hSpeed, accelEvents, decelEvents, inAccel, inDecel })
     return { accel: accelEvents, decel: decelEvents }
   }
 }
