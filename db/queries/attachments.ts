@@ -1,11 +1,7 @@
-import type { Kysely, Transaction } from "kysely"
 import type { Db } from "../client"
-import type { Database } from "../types"
-
-type Executor = Db | Kysely<Database> | Transaction<Database>
 
 export function insertPendingAttachment(
-  db: Executor,
+  db: Db,
   a: { id: string; shopId: string; jobId: string; taskId: string | null; filename: string; contentType: string; size: number; objectKey: string; userId: string },
 ) {
   return db
@@ -25,11 +21,11 @@ export function insertPendingAttachment(
     .executeTakeFirstOrThrow()
 }
 
-export function findAttachmentInShop(db: Executor, id: string, shopId: string) {
+export function findAttachmentInShop(db: Db, id: string, shopId: string) {
   return db.selectFrom("attachment").selectAll().where("id", "=", id).where("shop_id", "=", shopId).executeTakeFirst()
 }
 
-export function markAttachmentComplete(db: Executor, id: string, shopId: string, size: number) {
+export function markAttachmentComplete(db: Db, id: string, shopId: string, size: number) {
   return db
     .updateTable("attachment")
     .set({ status: "complete", size, completed_at: new Date() })
@@ -39,11 +35,11 @@ export function markAttachmentComplete(db: Executor, id: string, shopId: string,
     .executeTakeFirstOrThrow()
 }
 
-export function deleteAttachment(db: Executor, id: string, shopId: string) {
+export function deleteAttachment(db: Db, id: string, shopId: string) {
   return db.deleteFrom("attachment").where("id", "=", id).where("shop_id", "=", shopId).execute()
 }
 
-export function listCompleteAttachmentsForJob(db: Executor, jobId: string, shopId: string) {
+export function listCompleteAttachmentsForJob(db: Db, jobId: string, shopId: string) {
   return db
     .selectFrom("attachment")
     .selectAll()

@@ -1,33 +1,26 @@
-import type { Kysely, Transaction } from "kysely"
 import { sql } from "kysely"
 import type { Db } from "../client"
-import type { Database } from "../types"
 
-type Executor = Db | Kysely<Database> | Transaction<Database>
-
-export function findChecklistForTask(db: Executor, taskId: string, shopId: string) {
+/** Checklists of the shop with the name of whoever saved each one. */
+function checklistQuery(db: Db, shopId: string) {
   return db
     .selectFrom("checklist as c")
     .leftJoin("app_user as u", (j) => j.onRef("u.id", "=", "c.completed_by").on("u.shop_id", "=", shopId))
     .select(["c.task_id", "c.data", "c.completed_by", "c.completed_at", "u.name as completed_by_name"])
-    .where("c.task_id", "=", taskId)
     .where("c.shop_id", "=", shopId)
-    .executeTakeFirst()
 }
 
-export function listChecklistsForTasks(db: Executor, taskIds: string[], shopId: string) {
+export function findChecklistForTask(db: Db, taskId: string, shopId: string) {
+  return checklistQuery(db, shopId).where("c.task_id", "=", taskId).executeTakeFirst()
+}
+
+export function listChecklistsForTasks(db: Db, taskIds: string[], shopId: string) {
   if (taskIds.length === 0) return Promise.resolve([])
-  return db
-    .selectFrom("checklist as c")
-    .leftJoin("app_user as u", (j) => j.onRef("u.id", "=", "c.completed_by").on("u.shop_id", "=", shopId))
-    .select(["c.task_id", "c.data", "c.completed_by", "c.completed_at", "u.name as completed_by_name"])
-    .where("c.task_id", "in", taskIds)
-    .where("c.shop_id", "=", shopId)
-    .execute()
+  return checklistQuery(db, shopId).where("c.task_id", "in", taskIds).execute()
 }
 
 /** Stores the whole checklist, stamped with who saved it and when (a later save replaces both). */
-export function upsertChecklist(db: Executor, taskId: string, shopId: string, data: Record<string, unknown>, userId: string) {
+export function upsertChecklist(db: Db, taskId: string, shopId: string, data: Record<string, unknown>, userId: string) {
   return db
     .insertInto("checklist")
     .values({ task_id: taskId, shop_id: shopId, data: JSON.stringify(data), completed_by: userId })

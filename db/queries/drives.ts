@@ -1,6 +1,9 @@
 import { sql } from "kysely"
 import type { Db } from "../client"
+import { harshEventCountSql } from "./scores"
 import type { Drive, DriveStatus, JobStatus, VerdictValue } from "../types"
+import type { TimeCursor } from "@/lib/validation/drive"
+import { cursorTimeSql, keysetPage } from "./paging"
 
 export const DRIVE_PAGE_SIZE = 50
 
@@ -56,10 +59,10 @@ export interface DriveListFilter {
   status?: DriveStatus
   /** Co-drivers see only drives that name them. */
   coDriverId?: string
-  cursor?: { createdAt: string; id: string }
+  cursor?: TimeCursor
 }
 
-/** Newest first; the cursor is the last row's `createdAt|id` with PostgreSQL's microseconds. */
+/** Newest first; the cursor is the last row's `createdAt|id` (see parseDriveCursor). */
 export async function listDrives(db: Db, shopId: string, filter: DriveListFilter) {
   let q = db
     .selectFrom("drive")
@@ -73,7 +76,7 @@ export async function listDrives(db: Db, shopId: string, filter: DriveListFilter
       "driver.name as driver_name",
       "co.name as co_driver_name",
       "task.sensor as task_sensor",
-      sql<string>`to_char(drive.created_at at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.US"Z"')`.as("cursor_time"),
+      cursorTimeSql("drive.created_at").as("cursor_time"),
     ])
     .where("drive.shop_id", "=", shopId)
     .orderBy("drive.created_at", "desc")
@@ -83,14 +86,10 @@ export async function listDrives(db: Db, shopId: string, filter: DriveListFilter
   if (filter.status) q = q.where("drive.status", "=", filter.status)
   if (filter.coDriverId) q = q.where("drive.co_driver_id", "=", filter.coDriverId)
   if (filter.cursor) {
-    const { createdAt, id } = filter.cursor
-    q = q.where(sql<boolean>`(drive.created_at, drive.id) < (${createdAt}::timestamptz, ${id}::uuid)`)
+    const { time, id } = filter.cursor
+    q = q.where(sql<boolean>`(drive.created_at, drive.id) < (${time}::timestamptz, ${id}::uuid)`)
   }
-  const rows = await q.execute()
-  const page = rows.slice(0, DRIVE_PAGE_SIZE)
-  const last = page.at(-1)
-  const nextCursor = rows.length > DRIVE_PAGE_SIZE && last ? `${last.cursor_time}|${last.id}` : null
-  return { rows: page, nextCursor }
+  return keysetPage(await q.execute(), DRIVE_PAGE_SIZE, (last) => `${last.cursor_time}|${last.id}`)
 }
 
 export async function countDriveData(db: Db, driveId: string, shopId: string) {
@@ -194,9 +193,7 @@ export async function findJobTaskDrives(db: Db, jobId: string, shopId: string) {
       "drive.verdict",
       "drive.review_status",
       "drive.created_at",
-      sql<number>`coalesce((score.result->'harshEvents'->>'accel')::int, 0) + coalesce((score.result->'harshEvents'->>'decel')::int, 0)`.as(
-        "harsh_events",
-      ),
+      harshEventCountSql.as("harsh_events"),
     ])
     .where("drive.job_id", "=", jobId)
     .where("drive.shop_id", "=", shopId)

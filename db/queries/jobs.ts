@@ -1,4 +1,4 @@
-import { sql, type Kysely, type RawBuilder, type Transaction } from "kysely"
+import { sql, type RawBuilder } from "kysely"
 import type { JobSort } from "@/lib/validation/job"
 import { assessChecklist } from "@/lib/checklist"
 import { validationFailed } from "@/lib/errors"
@@ -7,11 +7,10 @@ import { PHOTO_TYPES } from "@/lib/validation/upload"
 import { listCompleteAttachmentsForJob } from "./attachments"
 import { listChecklistsForTasks } from "./checklists"
 import { findCurrentProfileVersionById, findDefaultProfileForSensor } from "./profiles"
+import { keysetPage } from "./paging"
 import { findShopSettings } from "./shop-settings"
 import type { Db } from "../client"
-import type { Database, JobStatus } from "../types"
-
-type Executor = Db | Kysely<Database> | Transaction<Database>
+import type { JobStatus } from "../types"
 
 // Sort keys as SQL expressions, with the type their cursor value is cast back to. Text sorts ignore case;
 // status sorts in the order a job moves through.
@@ -39,7 +38,7 @@ function escapeLike(text: string) {
   return text.replace(/[\\%_]/g, (c) => `\\${c}`)
 }
 
-function filteredJobs(db: Executor, shopId: string, opts: Pick<JobListOptions, "status" | "q">) {
+function filteredJobs(db: Db, shopId: string, opts: Pick<JobListOptions, "status" | "q">) {
   let q = db
     .selectFrom("job")
     .innerJoin("vehicle", (j) => j.onRef("vehicle.id", "=", "job.vehicle_id").on("vehicle.shop_id", "=", shopId))
@@ -62,7 +61,7 @@ function filteredJobs(db: Executor, shopId: string, opts: Pick<JobListOptions, "
 }
 
 /** One page of the shop's jobs, keyset-paged on (sort key, id); `nextCursor` is opaque to clients. */
-export async function listJobs(db: Executor, shopId: string, opts: JobListOptions) {
+export async function listJobs(db: Db, shopId: string, opts: JobListOptions) {
   const { expr, type } = SORT_EXPR[opts.sort]
   const direction = opts.dir === "asc" ? sql`asc` : sql`desc`
   let q = filteredJobs(db, shopId, opts)
@@ -98,10 +97,7 @@ export async function listJobs(db: Executor, shopId: string, opts: JobListOption
     q.execute(),
     filteredJobs(db, shopId, opts).select((eb) => eb.fn.countAll<string>().as("n")).executeTakeFirst(),
   ])
-  const page = rows.slice(0, opts.limit)
-  const last = page.at(-1)
-  const nextCursor = rows.length > opts.limit && last ? encodeCursor(last.sort_key, last.id) : null
-  return { rows: page, nextCursor, total: Number(total?.n ?? 0) }
+  return { ...keysetPage(rows, opts.limit, (last) => encodeCursor(last.sort_key, last.id)), total: Number(total?.n ?? 0) }
 }
 
 export function encodeCursor(value: string, id: string) {
@@ -121,7 +117,7 @@ export function decodeCursor(cursor: string): { value: string; id: string } | nu
   }
 }
 
-export function findJobInShop(db: Executor, jobId: string, shopId: string) {
+export function findJobInShop(db: Db, jobId: string, shopId: string) {
   return db
     .selectFrom("job")
     .innerJoin("vehicle", (j) => j.onRef("vehicle.id", "=", "job.vehicle_id").on("vehicle.shop_id", "=", shopId))
@@ -146,12 +142,12 @@ export function findJobInShop(db: Executor, jobId: string, shopId: string) {
     .executeTakeFirst()
 }
 
-export function findJobByRoNumber(db: Executor, roNumber: string, shopId: string) {
+export function findJobByRoNumber(db: Db, roNumber: string, shopId: string) {
   return db.selectFrom("job").select(["id"]).where("ro_number", "=", roNumber).where("shop_id", "=", shopId).executeTakeFirst()
 }
 
 /** Whether a co-driver is named on any drive of this job (what lets them see it). */
-export async function isCoDriverOnJob(db: Executor, jobId: string, shopId: string, userId: string) {
+export async function isCoDriverOnJob(db: Db, jobId: string, shopId: string, userId: string) {
   const row = await db
     .selectFrom("drive")
     .select("id")
@@ -162,7 +158,7 @@ export async function isCoDriverOnJob(db: Executor, jobId: string, shopId: strin
   return Boolean(row)
 }
 
-export function listTasksForJob(db: Executor, jobId: string, shopId: string) {
+export function listTasksForJob(db: Db, jobId: string, shopId: string) {
   return db
     .selectFrom("job_task")
     .selectAll()
@@ -173,7 +169,7 @@ export function listTasksForJob(db: Executor, jobId: string, shopId: string) {
     .execute()
 }
 
-export function findTaskInJob(db: Executor, taskId: string, jobId: string, shopId: string) {
+export function findTaskInJob(db: Db, taskId: string, jobId: string, shopId: string) {
   return db
     .selectFrom("job_task")
     .selectAll()
@@ -183,7 +179,7 @@ export function findTaskInJob(db: Executor, taskId: string, jobId: string, shopI
     .executeTakeFirst()
 }
 
-export function listDrivesForJob(db: Executor, jobId: string, shopId: string, onlyCoDriverId?: string) {
+export function listDrivesForJob(db: Db, jobId: string, shopId: string, onlyCoDriverId?: string) {
   let q = db
     .selectFrom("drive")
     .select(["id", "task_id", "status", "verdict", "review_status", "created_at", "finished_at"])
@@ -196,7 +192,7 @@ export function listDrivesForJob(db: Executor, jobId: string, shopId: string, on
 export type NewTaskRow = { sensor: string; method: string; reason: string; profileId: string | null }
 
 export async function insertJob(
-  db: Executor,
+  db: Db,
   shopId: string,
   userId: string,
   job: { roNumber: string; customer: { name: string; email: string | null; phone: string | null }; vehicleId: string; tasks: NewTaskRow[] },
@@ -218,7 +214,7 @@ export async function insertJob(
   return row.id
 }
 
-export async function insertTasks(db: Executor, shopId: string, jobId: string, tasks: NewTaskRow[]) {
+export async function insertTasks(db: Db, shopId: string, jobId: string, tasks: NewTaskRow[]) {
   if (tasks.length === 0) return
   // One statement; created_at steps by a microsecond so the tasks keep the order they were given in.
   await db
@@ -237,7 +233,7 @@ export async function insertTasks(db: Executor, shopId: string, jobId: string, t
     .execute()
 }
 
-export function updateTask(db: Executor, taskId: string, jobId: string, shopId: string, t: NewTaskRow) {
+export function updateTask(db: Db, taskId: string, jobId: string, shopId: string, t: NewTaskRow) {
   return db
     .updateTable("job_task")
     .set({ sensor: t.sensor, method: t.method, reason: t.reason, profile_id: t.profileId })
@@ -247,19 +243,19 @@ export function updateTask(db: Executor, taskId: string, jobId: string, shopId: 
     .execute()
 }
 
-export function deleteTasks(db: Executor, taskIds: string[], jobId: string, shopId: string) {
+export function deleteTasks(db: Db, taskIds: string[], jobId: string, shopId: string) {
   if (taskIds.length === 0) return Promise.resolve([])
   return db.deleteFrom("job_task").where("id", "in", taskIds).where("job_id", "=", jobId).where("shop_id", "=", shopId).execute()
 }
 
-export async function taskIdsWithDrives(db: Executor, taskIds: string[], shopId: string) {
+export async function taskIdsWithDrives(db: Db, taskIds: string[], shopId: string) {
   if (taskIds.length === 0) return []
   const rows = await db.selectFrom("drive").select("task_id").distinct().where("task_id", "in", taskIds).where("shop_id", "=", shopId).execute()
   return rows.map((r) => r.task_id!)
 }
 
 export function updateJobFields(
-  db: Executor,
+  db: Db,
   jobId: string,
   shopId: string,
   changes: { roNumber?: string; customer?: { name: string; email: string | null; phone: string | null }; vehicleId?: string },
@@ -318,7 +314,7 @@ export function attachmentJson(a: { id: string; task_id: string | null; filename
 }
 
 /** GET /api/jobs/:id's `job`, or undefined when the job is not in the shop. */
-export async function loadJobDetail(db: Executor, jobId: string, shopId: string, opts: { onlyCoDriverId?: string } = {}) {
+export async function loadJobDetail(db: Db, jobId: string, shopId: string, opts: { onlyCoDriverId?: string } = {}) {
   const job = await findJobInShop(db, jobId, shopId)
   if (!job) return undefined
   const [tasks, attachments, drives, settings] = await Promise.all([
@@ -369,7 +365,7 @@ export type JobDetail = NonNullable<Awaited<ReturnType<typeof loadJobDetail>>>
  * for the sensor when the task includes a drive. A static-only task has no drive and gets none.
  */
 export async function resolveTaskRows(
-  db: Executor,
+  db: Db,
   shopId: string,
   tasks: { sensor: string; method: string; reason: string; profileId?: string | null }[],
 ): Promise<NewTaskRow[]> {

@@ -1,5 +1,6 @@
 import { sql } from "kysely"
 import type { Db } from "../client"
+import { harshEventCountSql } from "./scores"
 
 /** Finished, scored drives of the shop since a date, with what the numbers page needs from each. */
 export async function listDrivesForNumbers(db: Db, shopId: string, since: Date) {
@@ -21,7 +22,7 @@ export async function listDrivesForNumbers(db: Db, shopId: string, since: Date) 
       sql<number>`coalesce((score.result->>'durationSeconds')::float8, 0)`.as("duration_seconds"),
       sql<number>`coalesce((score.result->>'qualifyingSecondsBeforeClear')::float8, 0)`.as("qualifying_seconds"),
       sql<number>`coalesce((score.result->>'followingSecondsBeforeClear')::float8, 0)`.as("following_seconds"),
-      sql<number>`coalesce((score.result->'harshEvents'->>'accel')::int, 0) + coalesce((score.result->'harshEvents'->>'decel')::int, 0)`.as("harsh_events"),
+      harshEventCountSql.as("harsh_events"),
       sql<string[]>`coalesce((select array_agg(c->>'key') from jsonb_array_elements(score.result->'conditions') c where (c->>'met')::boolean is false), '{}')`.as(
         "unmet_conditions",
       ),

@@ -1,9 +1,7 @@
-import type { Kysely, Transaction } from "kysely"
+import type { Transaction } from "kysely"
 import { resolveProfile, type Profile, type ResolvedProfile } from "@/lib/drive-file"
 import type { Db } from "../client"
 import type { Database } from "../types"
-
-type Executor = Db | Kysely<Database> | Transaction<Database>
 
 /** A profile at one version, settings resolved (every drive-file profile key filled). */
 export type ProfileVersionInfo = {
@@ -16,7 +14,7 @@ export type ProfileVersionInfo = {
   settings: ResolvedProfile
 }
 
-function versionQuery(db: Executor, shopId: string) {
+function versionQuery(db: Db, shopId: string) {
   return db
     .selectFrom("condition_profile as p")
     .innerJoin("condition_profile_version as v", (j) =>
@@ -31,7 +29,7 @@ function toInfo(row: { profileId: string; key: string; name: string; sensor: str
 }
 
 /** The current version of the profile a job task uses; undefined when the task has none or is not in the shop. */
-export async function findProfileVersionForTask(db: Executor, taskId: string, shopId: string): Promise<ProfileVersionInfo | undefined> {
+export async function findProfileVersionForTask(db: Db, taskId: string, shopId: string): Promise<ProfileVersionInfo | undefined> {
   const row = await versionQuery(db, shopId)
     .innerJoin("job_task as t", (j) => j.onRef("t.profile_id", "=", "p.id").on("t.shop_id", "=", shopId))
     .where("t.id", "=", taskId)
@@ -40,18 +38,18 @@ export async function findProfileVersionForTask(db: Executor, taskId: string, sh
 }
 
 /** The current version of the shop's profile with this key (archived ones too: old links keep working). */
-export async function findCurrentProfileVersionByKey(db: Executor, key: string, shopId: string): Promise<ProfileVersionInfo | undefined> {
+export async function findCurrentProfileVersionByKey(db: Db, key: string, shopId: string): Promise<ProfileVersionInfo | undefined> {
   const row = await versionQuery(db, shopId).where("p.key", "=", key).executeTakeFirst()
   return row ? toInfo(row) : undefined
 }
 
-export async function findCurrentProfileVersionById(db: Executor, profileId: string, shopId: string): Promise<ProfileVersionInfo | undefined> {
+export async function findCurrentProfileVersionById(db: Db, profileId: string, shopId: string): Promise<ProfileVersionInfo | undefined> {
   const row = await versionQuery(db, shopId).where("p.id", "=", profileId).executeTakeFirst()
   return row ? toInfo(row) : undefined
 }
 
 /** A profile version by its id (what a drive points at), shop-checked. */
-export async function findProfileVersionById(db: Executor, versionId: string, shopId: string): Promise<ProfileVersionInfo | undefined> {
+export async function findProfileVersionById(db: Db, versionId: string, shopId: string): Promise<ProfileVersionInfo | undefined> {
   const row = await db
     .selectFrom("condition_profile_version as v")
     .innerJoin("condition_profile as p", "p.id", "v.profile_id")
@@ -62,14 +60,14 @@ export async function findProfileVersionById(db: Executor, versionId: string, sh
   return row ? toInfo(row) : undefined
 }
 
-export async function listProfiles(db: Executor, shopId: string, { includeArchived = true } = {}) {
+export async function listProfiles(db: Db, shopId: string, { includeArchived = true } = {}) {
   let q = versionQuery(db, shopId).select(["p.archived", "p.created_at as createdAt", "v.created_at as versionCreatedAt"])
   if (!includeArchived) q = q.where("p.archived", "=", false)
   const rows = await q.orderBy("p.archived").orderBy("p.name").execute()
   return rows.map((r) => ({ ...toInfo(r), archived: r.archived, createdAt: r.createdAt, versionCreatedAt: r.versionCreatedAt }))
 }
 
-export function listProfileVersions(db: Executor, profileId: string, shopId: string) {
+export function listProfileVersions(db: Db, profileId: string, shopId: string) {
   return db
     .selectFrom("condition_profile_version as v")
     .leftJoin("app_user as u", (j) => j.onRef("u.id", "=", "v.created_by").on("u.shop_id", "=", shopId))
@@ -80,16 +78,16 @@ export function listProfileVersions(db: Executor, profileId: string, shopId: str
     .execute()
 }
 
-export function findProfileInShop(db: Executor, profileId: string, shopId: string) {
+export function findProfileInShop(db: Db, profileId: string, shopId: string) {
   return db.selectFrom("condition_profile").selectAll().where("id", "=", profileId).where("shop_id", "=", shopId).executeTakeFirst()
 }
 
-export function findProfileByKey(db: Executor, key: string, shopId: string) {
+export function findProfileByKey(db: Db, key: string, shopId: string) {
   return db.selectFrom("condition_profile").select(["id"]).where("key", "=", key).where("shop_id", "=", shopId).executeTakeFirst()
 }
 
 /** The profile a new task of this sensor gets by default: the shop's oldest active profile for the sensor. */
-export function findDefaultProfileForSensor(db: Executor, sensor: string, shopId: string) {
+export function findDefaultProfileForSensor(db: Db, sensor: string, shopId: string) {
   return db
     .selectFrom("condition_profile")
     .select(["id"])
@@ -102,7 +100,7 @@ export function findDefaultProfileForSensor(db: Executor, sensor: string, shopId
 }
 
 export async function insertProfile(
-  db: Executor,
+  db: Db,
   input: { shopId: string; key: string; name: string; sensor: string | null; settings: ResolvedProfile; userId: string },
 ) {
   const profile = await db
@@ -138,7 +136,7 @@ export async function insertProfileVersion(db: Transaction<Database>, profileId:
   return version
 }
 
-export function updateProfileFields(db: Executor, profileId: string, shopId: string, changes: { name?: string; sensor?: string | null; archived?: boolean }) {
+export function updateProfileFields(db: Db, profileId: string, shopId: string, changes: { name?: string; sensor?: string | null; archived?: boolean }) {
   return db.updateTable("condition_profile").set(changes).where("id", "=", profileId).where("shop_id", "=", shopId).execute()
 }
 
@@ -147,7 +145,7 @@ export function profileVersionJson(p: ProfileVersionInfo) {
 }
 
 /** GET /api/profiles/:id's body: the profile at its current version, and every version newest first. */
-export async function loadProfileDetail(db: Executor, profileId: string, shopId: string) {
+export async function loadProfileDetail(db: Db, profileId: string, shopId: string) {
   const [profile, current, versions] = await Promise.all([
     findProfileInShop(db, profileId, shopId),
     findCurrentProfileVersionById(db, profileId, shopId),

@@ -1,13 +1,16 @@
 import { sql } from "kysely"
+import type { TimeCursor } from "@/lib/validation/drive"
 import type { Db } from "../client"
+import { cursorTimeSql, keysetPage } from "./paging"
+import { harshEventCountSql } from "./scores"
 
 export const REVIEW_PAGE_SIZE = 50
 
 /**
  * Finished drives that need a second look and have had none: a verdict other than met, or any harsh event.
- * Oldest first; `cursor` is the last row's `finishedAt|id`.
+ * Oldest first; the cursor is the last row's `finishedAt|id` (see parseDriveCursor).
  */
-export async function listReviewQueue(db: Db, shopId: string, cursor?: { finishedAt: string; id: string }) {
+export async function listReviewQueue(db: Db, shopId: string, cursor?: TimeCursor) {
   let q = db
     .selectFrom("drive")
     .innerJoin("score", "score.drive_id", "drive.id")
@@ -28,6 +31,7 @@ export async function listReviewQueue(db: Db, shopId: string, cursor?: { finishe
       "driver.name as driver_name",
       "job.ro_number",
       "score.result",
+      cursorTimeSql("drive.finished_at").as("cursor_time"),
     ])
     .where("drive.shop_id", "=", shopId)
     .where("drive.status", "=", "finished")
@@ -35,32 +39,14 @@ export async function listReviewQueue(db: Db, shopId: string, cursor?: { finishe
     .where((eb) =>
       eb.or([
         eb("drive.verdict", "!=", "met"),
-        sql<boolean>`coalesce((score.result->'harshEvents'->>'accel')::int, 0) + coalesce((score.result->'harshEvents'->>'decel')::int, 0) > 0`,
+        eb(harshEventCountSql, ">", 0),
       ]),
     )
     .orderBy("drive.finished_at", "asc")
     .orderBy("drive.id", "asc")
     .limit(REVIEW_PAGE_SIZE + 1)
-  if (cursor) {
-    q = q.where((eb) =>
-      eb.or([
-        eb("drive.finished_at", ">", new Date(cursor.finishedAt)),
-        eb.and([eb("drive.finished_at", "=", new Date(cursor.finishedAt)), eb("drive.id", ">", cursor.id)]),
-      ]),
-    )
-  }
-  const rows = await q.execute()
-  const page = rows.slice(0, REVIEW_PAGE_SIZE)
-  const last = page.at(-1)
-  const nextCursor = rows.length > REVIEW_PAGE_SIZE && last?.finished_at ? `${new Date(last.finished_at).toISOString()}|${last.id}` : null
-  return { rows: page, nextCursor }
-}
-
-export function parseReviewCursor(cursor: string | undefined) {
-  if (!cursor) return undefined
-  const [finishedAt, id] = cursor.split("|")
-  if (!finishedAt || !id || Number.isNaN(Date.parse(finishedAt)) || !/^[0-9a-f-]{36}$/i.test(id)) return null
-  return { finishedAt, id }
+  if (cursor) q = q.where(sql<boolean>`(drive.finished_at, drive.id) > (${cursor.time}::timestamptz, ${cursor.id}::uuid)`)
+  return keysetPage(await q.execute(), REVIEW_PAGE_SIZE, (last) => (last.cursor_time ? `${last.cursor_time}|${last.id}` : null))
 }
 
 // ---- deciding a review ----

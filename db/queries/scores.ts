@@ -1,5 +1,9 @@
+import { sql } from "kysely"
 import type { Score } from "@/lib/scoring/types"
 import type { Db } from "../client"
+
+/** Harsh accelerations plus decelerations of the stored score; the query must join `score` under that name. */
+export const harshEventCountSql = sql<number>`coalesce((score.result->'harshEvents'->>'accel')::int, 0) + coalesce((score.result->'harshEvents'->>'decel')::int, 0)`
 
 export async function findScore(db: Db, driveId: string, shopId: string): Promise<Score | undefined> {
   const row = await db

@@ -1,19 +1,16 @@
-import type { Kysely, Transaction } from "kysely"
 import { DEFAULT_TIRE_TOLERANCE_PSI } from "@/lib/checklist"
 import type { Db } from "../client"
-import type { Database, ShopSettings } from "../types"
-
-type Executor = Db | Kysely<Database> | Transaction<Database>
+import type { ShopSettings } from "../types"
 
 export type ResolvedShopSettings = { units: "imperial" | "metric"; tirePressureTolerancePsi: number }
 
-export async function findShopSettings(db: Executor, shopId: string): Promise<ResolvedShopSettings> {
+export async function findShopSettings(db: Db, shopId: string): Promise<ResolvedShopSettings> {
   const row = await db.selectFrom("shop").select("settings").where("id", "=", shopId).executeTakeFirst()
   const s: ShopSettings = row?.settings ?? {}
   return { units: s.units ?? "imperial", tirePressureTolerancePsi: s.tirePressureTolerancePsi ?? DEFAULT_TIRE_TOLERANCE_PSI }
 }
 
-export async function updateShopSettings(db: Executor, shopId: string, changes: ShopSettings) {
+export async function updateShopSettings(db: Db, shopId: string, changes: ShopSettings) {
   const current = await findShopSettings(db, shopId)
   const next = { ...current, ...Object.fromEntries(Object.entries(changes).filter(([, v]) => v !== undefined)) }
   await db.updateTable("shop").set({ settings: JSON.stringify(next) }).where("id", "=", shopId).execute()

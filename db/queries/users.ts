@@ -1,24 +1,21 @@
 import type { Db } from "../client"
-import type { Kysely, Transaction } from "kysely"
-import type { Database, NewAppUser, Role } from "../types"
-
-type Executor = Db | Kysely<Database> | Transaction<Database>
+import type { NewAppUser, Role } from "../types"
 
 const PUBLIC_COLUMNS = ["id", "email", "name", "role", "shop_id", "disabled", "created_at"] as const
 
-export function findUserByEmail(db: Executor, email: string) {
+export function findUserByEmail(db: Db, email: string) {
   return db.selectFrom("app_user").selectAll().where("email", "=", email.trim().toLowerCase()).executeTakeFirst()
 }
 
-export function findUserInShop(db: Executor, id: string, shopId: string) {
+export function findUserInShop(db: Db, id: string, shopId: string) {
   return db.selectFrom("app_user").select(PUBLIC_COLUMNS).where("id", "=", id).where("shop_id", "=", shopId).executeTakeFirst()
 }
 
-export function listUsersInShop(db: Executor, shopId: string) {
+export function listUsersInShop(db: Db, shopId: string) {
   return db.selectFrom("app_user").select(PUBLIC_COLUMNS).where("shop_id", "=", shopId).orderBy("name").execute()
 }
 
-export function listActiveUsersInShopByRole(db: Executor, shopId: string, roles: Role[]) {
+export function listActiveUsersInShopByRole(db: Db, shopId: string, roles: Role[]) {
   return db
     .selectFrom("app_user")
     .select(["id", "name", "role"])
@@ -29,7 +26,7 @@ export function listActiveUsersInShopByRole(db: Executor, shopId: string, roles:
     .execute()
 }
 
-export function insertUser(db: Executor, user: NewAppUser) {
+export function insertUser(db: Db, user: NewAppUser) {
   return db
     .insertInto("app_user")
     .values({ ...user, email: user.email.trim().toLowerCase() })
@@ -37,7 +34,7 @@ export function insertUser(db: Executor, user: NewAppUser) {
     .executeTakeFirstOrThrow()
 }
 
-export function updateUserInShop(db: Executor, id: string, shopId: string, changes: { role?: Role; disabled?: boolean; name?: string }) {
+export function updateUserInShop(db: Db, id: string, shopId: string, changes: { role?: Role; disabled?: boolean; name?: string }) {
   return db
     .updateTable("app_user")
     .set(changes)
@@ -47,6 +44,6 @@ export function updateUserInShop(db: Executor, id: string, shopId: string, chang
     .executeTakeFirst()
 }
 
-export function deleteSessionsOfUser(db: Executor, userId: string) {
+export function deleteSessionsOfUser(db: Db, userId: string) {
   return db.deleteFrom("user_session").where("user_id", "=", userId).execute()
 }

@@ -1,16 +1,12 @@
-import type { Kysely, Transaction } from "kysely"
 import type { Db } from "../client"
-import type { Database } from "../types"
-
-type Executor = Db | Kysely<Database> | Transaction<Database>
 
 export type VehicleFields = { vin: string; year: number | null; make: string | null; model: string | null; plate: string | null }
 
-export function findVehicleInShop(db: Executor, id: string, shopId: string) {
+export function findVehicleInShop(db: Db, id: string, shopId: string) {
   return db.selectFrom("vehicle").selectAll().where("id", "=", id).where("shop_id", "=", shopId).executeTakeFirst()
 }
 
-export function findVehicleByVin(db: Executor, vin: string, shopId: string) {
+export function findVehicleByVin(db: Db, vin: string, shopId: string) {
   return db.selectFrom("vehicle").selectAll().where("vin", "=", vin).where("shop_id", "=", shopId).orderBy("created_at").executeTakeFirst()
 }
 
@@ -18,7 +14,7 @@ export function findVehicleByVin(db: Executor, vin: string, shopId: string) {
  * The shop's vehicle with this VIN, its details refreshed from the newest intake (a blank box keeps what
  * was known), or a new one.
  */
-export async function upsertVehicleByVin(db: Executor, shopId: string, v: VehicleFields) {
+export async function upsertVehicleByVin(db: Db, shopId: string, v: VehicleFields) {
   const existing = await findVehicleByVin(db, v.vin, shopId)
   if (!existing) {
     return db.insertInto("vehicle").values({ shop_id: shopId, ...v }).returningAll().executeTakeFirstOrThrow()

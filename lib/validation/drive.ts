@@ -55,12 +55,18 @@ export const importQuery = z.object({
   taskId: uuid.optional(),
 })
 
-/** `createdAt|id` of the last row of a page; null = not a cursor this server gives out. */
-export function parseDriveCursor(cursor: string | undefined): { createdAt: string; id: string } | undefined | null {
+/** A drive list's keyset position: a drive timestamp (ISO, with PostgreSQL's microseconds) and the drive id. */
+export interface TimeCursor {
+  time: string
+  id: string
+}
+
+/** `time|id` of the last row of a page (the drive list's and the review queue's); null = not a cursor this server gives out. */
+export function parseDriveCursor(cursor: string | undefined): TimeCursor | undefined | null {
   if (!cursor) return undefined
-  const [createdAt, id] = cursor.split("|")
+  const [time, id] = cursor.split("|")
   // The time keeps PostgreSQL's microseconds so that no row is skipped or repeated between pages.
-  if (!createdAt || !id || !/^\d{4}-\d\d-\d\dT\d\d:\d\d:\d\d(\.\d{1,6})?Z$/.test(createdAt)) return null
+  if (!time || !id || !/^\d{4}-\d\d-\d\dT\d\d:\d\d:\d\d(\.\d{1,6})?Z$/.test(time)) return null
   if (!/^[0-9a-f-]{36}$/i.test(id)) return null
-  return { createdAt, id }
+  return { time, id }
 }

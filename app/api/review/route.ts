@@ -2,13 +2,14 @@ import { z } from "zod"
 import { requireRole } from "@/app/_server/auth"
 import { parseQuery, route } from "@/app/_server/route"
 import { getDb } from "@/db/client"
-import { listReviewQueue, parseReviewCursor } from "@/db/queries/reviews"
+import { listReviewQueue } from "@/db/queries/reviews"
 import { AppError } from "@/lib/errors"
+import { parseDriveCursor } from "@/lib/validation/drive"
 
 export const GET = route(async (req) => {
   const { user } = await requireRole("shop_lead")
   const { cursor } = parseQuery(req, z.object({ cursor: z.string().max(200).optional() }))
-  const parsed = parseReviewCursor(cursor)
+  const parsed = parseDriveCursor(cursor)
   if (parsed === null) throw new AppError("validation_failed", "cursor: is not one this server gave out", { cursor: "is invalid" })
   const { rows, nextCursor } = await listReviewQueue(getDb(), user.shopId, parsed)
   return Response.json({
