@@ -1,7 +1,10 @@
 // Steps shared by the drive route handlers: load with access rules, the drive's JSON shape, scoring
 // from the stored data, and the job status that follows. Route handlers stay a few lines each.
 import "server-only"
-import type { Db } from "@/db/client"
+import { z } from "zod"
+import { requireRole } from "@/app/_server/auth"
+import { parseParams, uuidParam } from "@/app/_server/route"
+import { getDb, type Db } from "@/db/client"
 import { loadDriveFile } from "@/db/queries/drive-file"
 import {
   findDriveInShop,
@@ -17,9 +20,11 @@ import {
   canRecordOnDrive,
   canSeeDrive,
   jobStatusFromDrives,
+  recordingIsOpen,
   type DriveAccessFacts,
   type DriveActor,
 } from "@/lib/access/drive"
+import type { Role } from "@/lib/auth/roles"
 import { AppError, notFound } from "@/lib/errors"
 import { scoreDrive, type Score } from "@/lib/scoring"
 
@@ -46,6 +51,31 @@ export async function loadDriveFor(db: Db, driveId: string, actor: DriveActor, n
     throw new AppError("forbidden", "Only the drive's driver or a shop lead can finish it.")
   }
   return drive
+}
+
+const driveIdParams = z.object({ driveId: uuidParam })
+
+/**
+ * The first steps of a /api/drives/:driveId handler, in this order: signed in (with one of `roles`
+ * when named), the ids from the path (a malformed one is a 404), and the drive if the user may `need` it.
+ */
+export async function driveForRoute<P extends { driveId: string } = { driveId: string }>(
+  params: Promise<unknown>,
+  need: DriveNeed,
+  { roles = [], schema }: { roles?: Role[]; schema?: z.ZodType<P> } = {},
+) {
+  const { user } = await requireRole(...roles)
+  const ids = (await parseParams(params, schema ?? driveIdParams)) as P
+  const db = getDb()
+  const drive = await loadDriveFor(db, ids.driveId, user, need)
+  return { user, db, drive, params: ids }
+}
+
+/** Samples and marks are taken until a lead has reviewed the drive (see recordingIsOpen). */
+export function assertRecordingOpen(drive: Drive): void {
+  if (!recordingIsOpen({ reviewStatus: drive.review_status })) {
+    throw new AppError("conflict", "This drive has been reviewed; its record is closed.")
+  }
 }
 
 export function driveJson(drive: Drive, extra: Record<string, unknown> = {}) {

@@ -1,20 +1,12 @@
-import { z } from "zod"
-import { requireRole } from "@/app/_server/auth"
 import { loadRecordData, recordFilename } from "@/app/_server/record-data"
-import { parseParams, route, uuidParam } from "@/app/_server/route"
-import { getDb } from "@/db/client"
+import { route } from "@/app/_server/route"
 import { AppError } from "@/lib/errors"
 import { buildDriveRecordPdf } from "@/lib/record"
-import { loadDriveFor } from "../../_service"
-
-const params = z.object({ driveId: uuidParam })
+import { driveForRoute } from "../../_service"
 
 export const GET = route<{ driveId: string }>(async (_req, ctx) => {
-  const { user } = await requireRole()
-  const { driveId } = await parseParams(ctx.params, params)
-  const db = getDb()
-  await loadDriveFor(db, driveId, user, "see")
-  const loaded = await loadRecordData(db, driveId, user.shopId)
+  const { user, db, drive } = await driveForRoute(ctx.params, "see")
+  const loaded = await loadRecordData(db, drive.id, user.shopId)
   if (!loaded?.data) throw new AppError("conflict", "The record is made once the drive is finished and scored.")
   const pdf = await buildDriveRecordPdf(loaded.data)
   return new Response(Buffer.from(pdf), {
