@@ -1,5 +1,8 @@
+import { randomUUID } from "node:crypto"
+import { sql } from "kysely"
 import { describe, expect, it } from "vitest"
-import { createTestShop } from "../../helpers/db"
+import { REVIEW_PAGE_SIZE } from "@/db/queries/reviews"
+import { createTestShop, testDb } from "../../helpers/db"
 import { signedIn } from "../../helpers/http"
 import { insertJob, insertScoredDrive } from "./fixtures"
 
@@ -37,6 +40,47 @@ describe("GET /api/review", () => {
     expect(first.verdict).toBe("short")
     expect(first.reasons.length).toBeGreaterThan(0)
     expect(first.roNumber).toBe(job.roNumber)
+  })
+
+  it("pages with the cursor without repeating or skipping a drive, with finish times finer than a millisecond", async () => {
+    const shop = await createTestShop("QueuePages")
+    const { score } = await insertScoredDrive(shop, { pattern: "short", seed: 201, finishedAt: new Date(Date.UTC(2026, 0, 5, 9, 0, 0)) })
+    // PostgreSQL keeps microseconds; a cursor cut to milliseconds would bring a page's last drive back.
+    const rows = Array.from({ length: REVIEW_PAGE_SIZE + 5 }, (_, i) => ({ id: randomUUID(), finishedAt: `2026-01-05T10:00:${String(i).padStart(2, "0")}.123456Z` }))
+    const db = testDb()
+    await db
+      .insertInto("drive")
+      .values(
+        rows.map((r) => ({
+          id: r.id,
+          shop_id: shop.shopId,
+          vehicle_description: "Loaner, unplanned drive",
+          profile: JSON.stringify(score.profile),
+          driver_id: shop.tech.id,
+          status: "finished" as const,
+          verdict: score.verdict,
+          finished_at: sql<Date>`${r.finishedAt}::timestamptz`,
+        })),
+      )
+      .execute()
+    await db
+      .insertInto("score")
+      .values(rows.map((r) => ({ drive_id: r.id, shop_id: shop.shopId, verdict: score.verdict, result: JSON.stringify(score) })))
+      .execute()
+
+    const lead = await signedIn(shop.lead)
+    const page1 = await lead.get("/api/review")
+    expect(page1.status).toBe(200)
+    expect(page1.body.drives).toHaveLength(REVIEW_PAGE_SIZE)
+    expect(page1.body.nextCursor).toEqual(expect.any(String))
+    const page2 = await lead.get(`/api/review?cursor=${encodeURIComponent(page1.body.nextCursor)}`)
+    expect(page2.status).toBe(200)
+    expect(page2.body.nextCursor).toBeNull()
+    const ids = [...page1.body.drives, ...page2.body.drives].map((d: { id: string }) => d.id)
+    expect(ids).toHaveLength(rows.length + 1)
+    expect(new Set(ids).size).toBe(ids.length)
+    expect(ids.slice(1)).toEqual(rows.map((r) => r.id))
+    expect((await lead.get("/api/review?cursor=nonsense")).status).toBe(400)
   })
 
   it("is for shop leads and admins only", async () => {
