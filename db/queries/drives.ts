@@ -126,43 +126,11 @@ export async function setDriveVerdict(db: Db, driveId: string, shopId: string, v
 
 // ---- what a drive needs from jobs, tasks, profiles and people (all filtered by shop) ----
 
-export async function findJobForDrive(db: Db, jobId: string, shopId: string) {
-  return db
-    .selectFrom("job")
-    .innerJoin("vehicle", "vehicle.id", "job.vehicle_id")
-    .select(["job.id", "job.status", "job.ro_number", "vehicle.year", "vehicle.make", "vehicle.model", "vehicle.vin"])
-    .where("job.id", "=", jobId)
-    .where("job.shop_id", "=", shopId)
-    .executeTakeFirst()
-}
-
 export async function findTaskForDrive(db: Db, taskId: string, shopId: string) {
   return db
     .selectFrom("job_task")
     .select(["id", "job_id", "sensor", "method", "profile_id"])
     .where("id", "=", taskId)
-    .where("shop_id", "=", shopId)
-    .executeTakeFirst()
-}
-
-/** The current version of a condition profile, by id or by key. */
-export async function findCurrentProfileVersion(db: Db, shopId: string, by: { profileId: string } | { key: string }) {
-  let q = db
-    .selectFrom("condition_profile as p")
-    .innerJoin("condition_profile_version as v", (j) =>
-      j.onRef("v.profile_id", "=", "p.id").onRef("v.version", "=", "p.current_version").on("v.shop_id", "=", shopId),
-    )
-    .select(["v.id as version_id", "v.settings", "p.key", "p.name", "v.version"])
-    .where("p.shop_id", "=", shopId)
-  q = "profileId" in by ? q.where("p.id", "=", by.profileId) : q.where("p.key", "=", by.key).where("p.archived", "=", false)
-  return q.executeTakeFirst()
-}
-
-export async function findUserInShop(db: Db, userId: string, shopId: string) {
-  return db
-    .selectFrom("app_user")
-    .select(["id", "role", "name", "disabled"])
-    .where("id", "=", userId)
     .where("shop_id", "=", shopId)
     .executeTakeFirst()
 }

@@ -37,9 +37,16 @@ export async function findProfileVersionForTask(db: Db, taskId: string, shopId: 
   return row ? toInfo(row) : undefined
 }
 
-/** The current version of the shop's profile with this key (archived ones too: old links keep working). */
-export async function findCurrentProfileVersionByKey(db: Db, key: string, shopId: string): Promise<ProfileVersionInfo | undefined> {
-  const row = await versionQuery(db, shopId).where("p.key", "=", key).executeTakeFirst()
+/** The current version of the shop's profile with this key (archived ones too, unless told: old links keep working). */
+export async function findCurrentProfileVersionByKey(
+  db: Db,
+  key: string,
+  shopId: string,
+  { includeArchived = true } = {},
+): Promise<ProfileVersionInfo | undefined> {
+  let q = versionQuery(db, shopId).where("p.key", "=", key)
+  if (!includeArchived) q = q.where("p.archived", "=", false)
+  const row = await q.executeTakeFirst()
   return row ? toInfo(row) : undefined
 }
 

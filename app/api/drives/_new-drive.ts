@@ -1,12 +1,9 @@
 import "server-only"
 import type { Db } from "@/db/client"
-import {
-  findCurrentProfileVersion,
-  findJobForDrive,
-  findTaskForDrive,
-  findUserInShop,
-  type NewDriveValues,
-} from "@/db/queries/drives"
+import { findTaskForDrive, type NewDriveValues } from "@/db/queries/drives"
+import { findJobInShop } from "@/db/queries/jobs"
+import { findCurrentProfileVersionById, findCurrentProfileVersionByKey } from "@/db/queries/profiles"
+import { findUserInShop } from "@/db/queries/users"
 import type { DriveActor } from "@/lib/access/drive"
 import { resolveProfile, type Profile } from "@/lib/drive-file"
 import { validationFailed } from "@/lib/errors"
@@ -35,7 +32,7 @@ export async function resolveNewDrive(
   }
   let vehicleDescription = input.vehicleDescription?.trim() || null
   if (jobId) {
-    const job = await findJobForDrive(db, jobId, actor.shopId)
+    const job = await findJobInShop(db, jobId, actor.shopId)
     if (!job) validationFailed({ jobId: "is not a job of this shop" })
     vehicleDescription ??= [job.year, job.make, job.model].filter(Boolean).join(" ") + ` (VIN ${job.vin})`
   }
@@ -49,14 +46,14 @@ export async function resolveNewDrive(
   let profileVersionId: string | null = null
   let profile: Profile | undefined = input.profile
   const version = taskProfileId
-    ? await findCurrentProfileVersion(db, actor.shopId, { profileId: taskProfileId })
+    ? await findCurrentProfileVersionById(db, taskProfileId, actor.shopId)
     : input.profileKey
-      ? await findCurrentProfileVersion(db, actor.shopId, { key: input.profileKey })
+      ? await findCurrentProfileVersionByKey(db, input.profileKey, actor.shopId, { includeArchived: false })
       : undefined
   if (input.profileKey && !taskProfileId && !version) validationFailed({ profileKey: "is not a condition profile of this shop" })
   if (version) {
-    profileVersionId = version.version_id
-    profile = version.settings as Profile
+    profileVersionId = version.versionId
+    profile = version.settings
   }
   return {
     id,
