@@ -34,6 +34,21 @@ export type JobListOptions = {
   cursor?: { value: string; id: string }
 }
 
+/** A job with its vehicle, as the list and the detail both read it. */
+const JOB_ROW_COLUMNS = [
+  "job.id",
+  "job.ro_number",
+  "job.status",
+  "job.customer_name",
+  "job.created_at",
+  "job.updated_at",
+  "vehicle.vin",
+  "vehicle.year",
+  "vehicle.make",
+  "vehicle.model",
+  "vehicle.plate",
+] as const
+
 function escapeLike(text: string) {
   return text.replace(/[\\%_]/g, (c) => `\\${c}`)
 }
@@ -65,18 +80,8 @@ export async function listJobs(db: Db, shopId: string, opts: JobListOptions) {
   const { expr, type } = SORT_EXPR[opts.sort]
   const direction = opts.dir === "asc" ? sql`asc` : sql`desc`
   let q = filteredJobs(db, shopId, opts)
+    .select(JOB_ROW_COLUMNS)
     .select([
-      "job.id",
-      "job.ro_number",
-      "job.status",
-      "job.customer_name",
-      "job.created_at",
-      "job.updated_at",
-      "vehicle.vin",
-      "vehicle.year",
-      "vehicle.make",
-      "vehicle.model",
-      "vehicle.plate",
       sql<string>`(${expr})::text`.as("sort_key"),
       (eb) =>
         eb
@@ -121,22 +126,7 @@ export function findJobInShop(db: Db, jobId: string, shopId: string) {
   return db
     .selectFrom("job")
     .innerJoin("vehicle", (j) => j.onRef("vehicle.id", "=", "job.vehicle_id").on("vehicle.shop_id", "=", shopId))
-    .select([
-      "job.id",
-      "job.ro_number",
-      "job.status",
-      "job.customer_name",
-      "job.customer_email",
-      "job.customer_phone",
-      "job.vehicle_id",
-      "job.created_at",
-      "job.updated_at",
-      "vehicle.vin",
-      "vehicle.year",
-      "vehicle.make",
-      "vehicle.model",
-      "vehicle.plate",
-    ])
+    .select([...JOB_ROW_COLUMNS, "job.customer_email", "job.customer_phone", "job.vehicle_id"])
     .where("job.id", "=", jobId)
     .where("job.shop_id", "=", shopId)
     .executeTakeFirst()
