@@ -6,7 +6,9 @@ import { useState } from "react"
 import { useForm } from "react-hook-form"
 import { Button } from "@/components/ui/button"
 import { Card } from "@/components/ui/card"
+import { apiFetch } from "@/components/ui/api-fetch"
 import { Field, Input, Select } from "@/components/ui/field"
+import { FormProblem, Options } from "@/components/ui/form"
 import { ROLE_LABEL, ROLES, type Role } from "@/lib/auth/roles"
 import { newUserSchema, type NewUserInput } from "@/lib/validation/user"
 
@@ -22,13 +24,12 @@ export function UserAdmin({ meId, initialUsers }: { meId: string; initialUsers: 
 
   async function send(url: string, method: string, body: unknown) {
     setProblem(null)
-    const res = await fetch(url, { method, headers: { "content-type": "application/json" }, body: JSON.stringify(body) })
-    const json = await res.json().catch(() => null)
-    if (!res.ok) {
-      setProblem(json?.error?.message ?? "That did not work.")
+    try {
+      return (await apiFetch<{ user: Person }>(url, { method, body })).user
+    } catch (error) {
+      setProblem(error instanceof Error ? error.message : "That did not work.")
       return null
     }
-    return json.user as Person
   }
 
   async function add(values: NewUserInput) {
@@ -67,11 +68,7 @@ export function UserAdmin({ meId, initialUsers }: { meId: string; initialUsers: 
                 disabled={u.id === meId}
                 onChange={(e) => change(u.id, { role: e.target.value as Role })}
               >
-                {ROLES.map((r) => (
-                  <option key={r} value={r}>
-                    {ROLE_LABEL[r]}
-                  </option>
-                ))}
+                <Options values={ROLES} labels={ROLE_LABEL} />
               </Select>
               <Button variant={u.disabled ? "outline" : "ghost"} disabled={u.id === meId} onClick={() => change(u.id, { disabled: !u.disabled })}>
                 {u.disabled ? "Enable" : "Disable"}
@@ -93,21 +90,13 @@ export function UserAdmin({ meId, initialUsers }: { meId: string; initialUsers: 
           </Field>
           <Field label="Role" htmlFor="new-role">
             <Select id="new-role" {...form.register("role")}>
-              {ROLES.map((r) => (
-                <option key={r} value={r}>
-                  {ROLE_LABEL[r]}
-                </option>
-              ))}
+              <Options values={ROLES} labels={ROLE_LABEL} />
             </Select>
           </Field>
           <Field label="First password" htmlFor="new-password" error={errors.password?.message} hint="At least 12 characters. Share it in person.">
             <Input id="new-password" type="password" autoComplete="new-password" {...form.register("password")} />
           </Field>
-          {problem ? (
-            <p role="alert" className="font-medium text-stop-600 dark:text-stop-400">
-              {problem}
-            </p>
-          ) : null}
+          <FormProblem>{problem}</FormProblem>
           <Button type="submit" className="w-full" disabled={isSubmitting}>
             Add
           </Button>

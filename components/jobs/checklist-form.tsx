@@ -6,10 +6,11 @@ import { CircleAlert, CircleCheck, TriangleAlert } from "lucide-react"
 import { useState } from "react"
 import { useForm, type FieldPath } from "react-hook-form"
 import { Button } from "@/components/ui/button"
+import { ApiError, apiFetch } from "@/components/ui/api-fetch"
 import { Field, Input, Select, Textarea } from "@/components/ui/field"
+import { errorAt as errorIn, FormDone, FormProblem, Options } from "@/components/ui/form"
 import { alignmentRequired, checkTires, kpaToPsi, psiToKpa } from "@/lib/checklist"
 import { checklistSchema, FUEL_LABEL, FUEL_LEVELS, WHEEL_LABEL, WHEELS, type ChecklistData, type ChecklistInput } from "@/lib/validation/checklist"
-import { ApiError, apiFetch } from "./api"
 
 export type ChecklistView = ChecklistData & {
   completedBy: string | null
@@ -115,11 +116,7 @@ export function ChecklistForm({
     }
   }
 
-  const errorAt = (path: string) => {
-    let node: unknown = errors
-    for (const p of path.split(".")) node = (node as Record<string, unknown> | undefined)?.[p]
-    return (node as { message?: string } | undefined)?.message
-  }
+  const errorAt = (path: string) => errorIn(errors, path)
 
   const check = (name: FieldPath<ChecklistInput>, label: string, hint?: string) => (
     <label className="flex min-h-12 items-start gap-3 py-1">
@@ -158,7 +155,7 @@ export function ChecklistForm({
           <Field label="Door placard" htmlFor={`${prefix}-placard`} error={errorAt("tires.placard")}>
             <Input id={`${prefix}-placard`} inputMode="decimal" className="w-28 tabular" {...form.register("tires.placard")} />
           </Field>
-          <div role="radiogroup" aria-label="Pressure unit" className="flex gap-1 pb-0.5">
+          <div role="group" aria-label="Pressure unit" className="flex gap-1 pb-0.5">
             {(["psi", "kPa"] as const).map((u) => (
               <Button key={u} size="sm" variant={tires.unit === u ? "primary" : "outline"} aria-pressed={tires.unit === u} onClick={() => switchUnit(u)}>
                 {u}
@@ -195,11 +192,7 @@ export function ChecklistForm({
         {check("loadNormal", "Load normal", "No heavy cargo, nothing towed, spare and jack in place.")}
         <Field label="Fuel" htmlFor={`${prefix}-fuel`} error={errorAt("fuelLevel")}>
           <Select id={`${prefix}-fuel`} {...form.register("fuelLevel")}>
-            {FUEL_LEVELS.map((f) => (
-              <option key={f} value={f}>
-                {FUEL_LABEL[f]}
-              </option>
-            ))}
+            <Options values={FUEL_LEVELS} labels={FUEL_LABEL} />
           </Select>
         </Field>
         {check("sensorClean", "Sensor face clean", "Cover or glass in front of it clean and free of stickers.")}
@@ -211,21 +204,13 @@ export function ChecklistForm({
         <Textarea id={`${prefix}-notes`} disabled={!canEdit} {...form.register("notes")} />
       </Field>
 
-      {problem ? (
-        <p role="alert" className="font-medium text-stop-600 dark:text-stop-400">
-          {problem}
-        </p>
-      ) : null}
+      <FormProblem>{problem}</FormProblem>
       {canEdit ? (
         <div className="flex flex-wrap items-center gap-3">
           <Button type="submit" disabled={isSubmitting}>
             {isSubmitting ? "Saving…" : "Save checklist"}
           </Button>
-          {savedNow ? (
-            <span className="flex items-center gap-1 text-sm font-medium" role="status">
-              <CircleCheck aria-hidden className="size-4 text-teal-600" /> Saved
-            </span>
-          ) : null}
+          <FormDone className="text-sm">{savedNow ? "Saved" : null}</FormDone>
         </div>
       ) : null}
       {saved && !saved.ready ? (

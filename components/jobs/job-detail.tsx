@@ -7,7 +7,7 @@ import { VerdictBadge, type VerdictValue } from "@/components/drives/verdict-bad
 import { buttonVariants } from "@/components/ui/button"
 import { Card } from "@/components/ui/card"
 import { METHOD_LABEL, REASON_LABEL, SENSOR_LABEL, type Method, type Reason, type Sensor } from "@/lib/validation/job"
-import { apiFetch } from "./api"
+import { apiFetch } from "@/components/ui/api-fetch"
 import { ChecklistForm, type ChecklistView } from "./checklist-form"
 import { JobStatusBadge } from "./job-status"
 import { PhotoUpload, type AttachmentView } from "./photo-upload"

@@ -8,7 +8,9 @@ import { useState } from "react"
 import { useFieldArray, useForm, type FieldPath } from "react-hook-form"
 import { Button } from "@/components/ui/button"
 import { Card } from "@/components/ui/card"
+import { ApiError, apiFetch } from "@/components/ui/api-fetch"
 import { Field, Input, Select } from "@/components/ui/field"
+import { errorAt, FormProblem, Options } from "@/components/ui/form"
 import {
   METHOD_LABEL,
   METHODS,
@@ -20,7 +22,6 @@ import {
   type NewJob,
   type NewJobInput,
 } from "@/lib/validation/job"
-import { ApiError, apiFetch } from "./api"
 import { VinField } from "./vin-field"
 
 type ProfileOption = { id: string; name: string; sensor: string | null; version: number; archived: boolean }
@@ -73,12 +74,7 @@ export function JobForm({ jobId, initial }: { jobId?: string; initial?: JobFormV
     }
   }
 
-  const err = (path: string) => {
-    const parts = path.split(".")
-    let node: unknown = errors
-    for (const p of parts) node = (node as Record<string, unknown> | undefined)?.[p]
-    return (node as { message?: string } | undefined)?.message
-  }
+  const err = (path: string) => errorAt(errors, path)
 
   return (
     <form onSubmit={form.handleSubmit(save)} className="space-y-4" noValidate>
@@ -121,36 +117,24 @@ export function JobForm({ jobId, initial }: { jobId?: string; initial?: JobFormV
 
       <Card className="space-y-3">
         <h2 className="text-lg font-bold">Calibrations</h2>
-        {err("tasks") ? <p className="text-sm font-medium text-stop-600">{err("tasks")}</p> : null}
+        <FormProblem className="text-sm">{err("tasks")}</FormProblem>
         {tasks.fields.map((field, i) => (
           <fieldset key={field.id} className="space-y-3 rounded-lg border border-graphite-200 p-3 dark:border-asphalt-700" data-testid={`task-${i}`}>
             <legend className="px-1 text-sm font-semibold">Calibration {i + 1}</legend>
             <div className="grid gap-3 sm:grid-cols-3">
               <Field label="Sensor" htmlFor={`task-${i}-sensor`} error={err(`tasks.${i}.sensor`)}>
                 <Select id={`task-${i}-sensor`} {...form.register(`tasks.${i}.sensor`)}>
-                  {SENSORS.map((s) => (
-                    <option key={s} value={s}>
-                      {SENSOR_LABEL[s]}
-                    </option>
-                  ))}
+                  <Options values={SENSORS} labels={SENSOR_LABEL} />
                 </Select>
               </Field>
               <Field label="Method" htmlFor={`task-${i}-method`} error={err(`tasks.${i}.method`)}>
                 <Select id={`task-${i}-method`} {...form.register(`tasks.${i}.method`)}>
-                  {METHODS.map((m) => (
-                    <option key={m} value={m}>
-                      {METHOD_LABEL[m]}
-                    </option>
-                  ))}
+                  <Options values={METHODS} labels={METHOD_LABEL} />
                 </Select>
               </Field>
               <Field label="Why" htmlFor={`task-${i}-reason`} error={err(`tasks.${i}.reason`)}>
                 <Select id={`task-${i}-reason`} {...form.register(`tasks.${i}.reason`)}>
-                  {REASONS.map((r) => (
-                    <option key={r} value={r}>
-                      {REASON_LABEL[r]}
-                    </option>
-                  ))}
+                  <Options values={REASONS} labels={REASON_LABEL} />
                 </Select>
               </Field>
             </div>
@@ -178,11 +162,7 @@ export function JobForm({ jobId, initial }: { jobId?: string; initial?: JobFormV
         </Button>
       </Card>
 
-      {problem ? (
-        <p role="alert" className="font-medium text-stop-600 dark:text-stop-400">
-          {problem}
-        </p>
-      ) : null}
+      <FormProblem>{problem}</FormProblem>
       <Button type="submit" variant="signal" size="lg" className="w-full sm:w-auto" disabled={isSubmitting}>
         {isSubmitting ? "Saving…" : jobId ? "Save changes" : "Open the job"}
       </Button>

@@ -16,7 +16,7 @@ import { useEffect, useMemo, useState } from "react"
 import { Button } from "@/components/ui/button"
 import { Input, Select } from "@/components/ui/field"
 import { JOB_STATUS_LABEL, JOB_STATUSES, SENSOR_LABEL, type JobSort, type Sensor } from "@/lib/validation/job"
-import { apiFetch } from "./api"
+import { apiFetch } from "@/components/ui/api-fetch"
 import { JobStatusBadge } from "./job-status"
 
 export type JobRow = {

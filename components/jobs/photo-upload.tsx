@@ -4,7 +4,7 @@ import { useQueryClient } from "@tanstack/react-query"
 import { Camera, FileText } from "lucide-react"
 import { useId, useState } from "react"
 import { ALLOWED_UPLOAD_TYPES, MAX_UPLOAD_BYTES } from "@/lib/validation/upload"
-import { apiFetch } from "./api"
+import { apiFetch } from "@/components/ui/api-fetch"
 
 export type AttachmentView = { id: string; taskId: string | null; filename: string; contentType: string; size: number; url: string; thumbnailUrl: string | null }
 

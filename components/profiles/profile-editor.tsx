@@ -3,10 +3,11 @@
 import { useRouter } from "next/navigation"
 import { useState } from "react"
 import { useForm } from "react-hook-form"
-import { ApiError, apiFetch } from "@/components/jobs/api"
+import { apiFetch } from "@/components/ui/api-fetch"
 import { Button } from "@/components/ui/button"
 import { Card } from "@/components/ui/card"
 import { Field, Input, Select } from "@/components/ui/field"
+import { FormDone, FormProblem, Options } from "@/components/ui/form"
 import type { ResolvedProfile } from "@/lib/drive-file"
 import { SENSOR_LABEL, SENSORS } from "@/lib/validation/job"
 import { profileSettingsSchema } from "@/lib/validation/profile"
@@ -85,7 +86,7 @@ export function ProfileEditor({
         router.push(`/profiles/${res.profile.id}`)
       }
     } catch (error) {
-      setProblem(error instanceof ApiError || error instanceof Error ? error.message : "That did not save.")
+      setProblem(error instanceof Error ? error.message : "That did not save.")
     }
   }
 
@@ -98,11 +99,7 @@ export function ProfileEditor({
         <Field label="For sensor" htmlFor="profile-sensor" hint="New calibrations of this sensor get this profile by default.">
           <Select id="profile-sensor" disabled={!canEdit} {...form.register("sensor")}>
             <option value="">Any (chosen by hand)</option>
-            {SENSORS.map((s) => (
-              <option key={s} value={s}>
-                {SENSOR_LABEL[s]}
-              </option>
-            ))}
+            <Options values={SENSORS} labels={SENSOR_LABEL} />
           </Select>
         </Field>
       </Card>
@@ -116,12 +113,8 @@ export function ProfileEditor({
           )
         })}
       </Card>
-      {problem ? (
-        <p role="alert" className="font-medium text-stop-600 dark:text-stop-400">
-          {problem}
-        </p>
-      ) : null}
-      {done ? <p role="status" className="font-medium">{done}</p> : null}
+      <FormProblem>{problem}</FormProblem>
+      <FormDone>{done}</FormDone>
       {canEdit ? (
         <div className="space-y-1">
           <Button type="submit" variant="signal" disabled={isSubmitting}>

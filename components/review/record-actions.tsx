@@ -2,8 +2,10 @@
 
 import { Copy, FileText, Link2, Mail } from "lucide-react"
 import { useState } from "react"
+import { ApiError, apiFetch } from "@/components/ui/api-fetch"
 import { Button, buttonVariants } from "@/components/ui/button"
 import { Field, Input } from "@/components/ui/field"
+import { FormDone, FormProblem } from "@/components/ui/form"
 
 /** Open the record PDF; for leads, e-mail it and make a share link for the customer. */
 export function RecordActions({ driveId, canShare, customerEmail }: { driveId: string; canShare: boolean; customerEmail: string | null }) {
@@ -11,29 +13,39 @@ export function RecordActions({ driveId, canShare, customerEmail }: { driveId: s
   const [mailState, setMailState] = useState<{ ok: boolean; text: string } | null>(null)
   const [share, setShare] = useState<{ url: string; expiresAt: string } | null>(null)
   const [shareProblem, setShareProblem] = useState<string | null>(null)
-  const [busy, setBusy] = useState(false)
+  const [copied, setCopied] = useState(false)
+  const [busy, setBusy] = useState<"mail" | "link" | null>(null)
 
   async function email(e: React.FormEvent) {
     e.preventDefault()
-    setBusy(true)
+    setBusy("mail")
     setMailState(null)
     try {
-      const res = await fetch(`/api/drives/${driveId}/record/email`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ to }) })
-      const json = await res.json().catch(() => null)
-      setMailState(res.ok ? { ok: true, text: `Sent to ${to}.` } : { ok: false, text: json?.error?.fields?.to ? `Address ${json.error.fields.to}.` : (json?.error?.message ?? "Not sent.") })
-    } catch {
-      setMailState({ ok: false, text: "No connection; not sent." })
+      await apiFetch(`/api/drives/${driveId}/record/email`, { method: "POST", body: { to } })
+      setMailState({ ok: true, text: `Sent to ${to}.` })
+    } catch (error) {
+      const text = error instanceof ApiError && error.fields?.to ? `Address ${error.fields.to}.` : error instanceof Error ? error.message : "Not sent."
+      setMailState({ ok: false, text })
     } finally {
-      setBusy(false)
+      setBusy(null)
     }
   }
 
   async function makeLink() {
     setShareProblem(null)
-    const res = await fetch(`/api/drives/${driveId}/share`, { method: "POST", headers: { "content-type": "application/json" }, body: "{}" })
-    const json = await res.json().catch(() => null)
-    if (res.ok) setShare({ url: json.url, expiresAt: json.expiresAt })
-    else setShareProblem(json?.error?.message ?? "No link made.")
+    setCopied(false)
+    setBusy("link")
+    try {
+      setShare(await apiFetch<{ url: string; expiresAt: string }>(`/api/drives/${driveId}/share`, { method: "POST", body: {} }))
+    } catch (error) {
+      setShareProblem(error instanceof Error ? error.message : "No link made.")
+    } finally {
+      setBusy(null)
+    }
+  }
+
+  async function copy(url: string) {
+    await navigator.clipboard?.writeText(url).then(() => setCopied(true)).catch(() => setCopied(false))
   }
 
   return (
@@ -47,31 +59,30 @@ export function RecordActions({ driveId, canShare, customerEmail }: { driveId: s
             <Field label="E-mail the record to" htmlFor="record-to">
               <Input id="record-to" type="email" required value={to} onChange={(e) => setTo(e.target.value)} autoComplete="email" />
             </Field>
-            <Button type="submit" variant="outline" disabled={busy || !to}>
-              <Mail aria-hidden className="size-5" /> Send
+            <Button type="submit" variant="outline" disabled={busy !== null || !to}>
+              <Mail aria-hidden className="size-5" /> {busy === "mail" ? "Sending…" : "Send"}
             </Button>
-            {mailState ? (
-              <p role="status" className={mailState.ok ? "text-teal-700 dark:text-teal-300" : "text-stop-600 dark:text-stop-400"}>
-                {mailState.text}
-              </p>
-            ) : null}
+            {mailState?.ok ? <FormDone>{mailState.text}</FormDone> : <FormProblem>{mailState?.text}</FormProblem>}
           </form>
           <div className="space-y-2">
-            <Button variant="outline" onClick={makeLink}>
-              <Link2 aria-hidden className="size-5" /> Make a share link
+            <Button variant="outline" onClick={makeLink} disabled={busy !== null}>
+              <Link2 aria-hidden className="size-5" /> {busy === "link" ? "Making the link…" : share ? "Make a new share link" : "Make a share link"}
             </Button>
             {share ? (
               <div className="space-y-1">
                 <div className="flex gap-2">
-                  <Input readOnly value={share.url} aria-label="Share link" onFocus={(e) => e.currentTarget.select()} />
-                  <Button variant="ghost" aria-label="Copy the link" onClick={() => navigator.clipboard?.writeText(share.url)}>
+                  <Input readOnly value={share.url} aria-label="Share link" onFocus={(e) => e.currentTarget.select()} data-testid="share-url" />
+                  <Button variant="outline" aria-label="Copy the link" className="min-w-12 shrink-0 px-3" onClick={() => void copy(share.url)}>
                     <Copy aria-hidden className="size-5" />
                   </Button>
                 </div>
-                <p className="text-sm text-graphite-600 dark:text-graphite-300">Read-only; works until {share.expiresAt.slice(0, 10)}. Anyone with it can see the record.</p>
+                <FormDone className="text-sm">{copied ? "Link copied." : null}</FormDone>
+                <p className="text-sm text-graphite-600 dark:text-graphite-300">
+                  Read-only; works until {share.expiresAt.slice(0, 10)}. Anyone with the link can see the record.
+                </p>
               </div>
             ) : null}
-            {shareProblem ? <p role="alert" className="text-stop-600 dark:text-stop-400">{shareProblem}</p> : null}
+            <FormProblem>{shareProblem}</FormProblem>
           </div>
         </>
       ) : null}

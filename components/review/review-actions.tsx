@@ -4,7 +4,9 @@ import { Check, Undo2 } from "lucide-react"
 import { useRouter } from "next/navigation"
 import { useState } from "react"
 import { Button } from "@/components/ui/button"
+import { ApiError, apiFetch } from "@/components/ui/api-fetch"
 import { Field, Textarea } from "@/components/ui/field"
+import { FormProblem } from "@/components/ui/form"
 
 /** Approve or Send back; sending back needs a note saying what to do differently. */
 export function ReviewActions({ driveId }: { driveId: string }) {
@@ -23,21 +25,12 @@ export function ReviewActions({ driveId }: { driveId: string }) {
     }
     setBusy(true)
     try {
-      const res = await fetch(`/api/drives/${driveId}/review`, {
-        method: "POST",
-        headers: { "content-type": "application/json" },
-        body: JSON.stringify({ decision, note }),
-      })
-      const json = await res.json().catch(() => null)
-      if (!res.ok) {
-        if (json?.error?.fields?.note) setNoteError(json.error.fields.note)
-        else setProblem(json?.error?.message ?? "That did not work. Try again.")
-        return
-      }
+      await apiFetch(`/api/drives/${driveId}/review`, { method: "POST", body: { decision, note } })
       router.push("/review")
       router.refresh()
-    } catch {
-      setProblem("No connection. Try again when you are back online.")
+    } catch (error) {
+      if (error instanceof ApiError && error.fields?.note) setNoteError(error.fields.note)
+      else setProblem(error instanceof Error ? error.message : "That did not work. Try again.")
     } finally {
       setBusy(false)
     }
@@ -48,11 +41,7 @@ export function ReviewActions({ driveId }: { driveId: string }) {
       <Field label="Note for the technician" htmlFor="review-note" error={noteError ?? undefined} hint="Needed to send the drive back; optional to approve.">
         <Textarea id="review-note" value={note} maxLength={2000} onChange={(e) => setNote(e.target.value)} placeholder="e.g. Too little time behind a lead vehicle; follow at 120-150 ft on the highway loop." />
       </Field>
-      {problem ? (
-        <p role="alert" className="font-medium text-stop-600 dark:text-stop-400">
-          {problem}
-        </p>
-      ) : null}
+      <FormProblem>{problem}</FormProblem>
       <div className="flex flex-wrap gap-2">
         <Button variant="follow" disabled={busy} onClick={() => decide("approve")}>
           <Check aria-hidden className="size-5" /> Approve

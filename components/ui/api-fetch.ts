@@ -1,4 +1,4 @@
-// Small fetch helpers for the jobs pages: JSON in, JSON out, the API's error shape turned into an Error.
+// Fetch helpers for the office pages: JSON in, JSON out, the API's `{error:{code,message,fields}}` turned into an Error.
 
 export class ApiError extends Error {
   constructor(
@@ -11,11 +11,16 @@ export class ApiError extends Error {
 }
 
 export async function apiFetch<T>(url: string, init: { method?: string; body?: unknown } = {}): Promise<T> {
-  const res = await fetch(url, {
-    method: init.method ?? "GET",
-    headers: init.body !== undefined ? { "content-type": "application/json" } : undefined,
-    body: init.body !== undefined ? JSON.stringify(init.body) : undefined,
-  })
+  let res: Response
+  try {
+    res = await fetch(url, {
+      method: init.method ?? "GET",
+      headers: init.body !== undefined ? { "content-type": "application/json" } : undefined,
+      body: init.body !== undefined ? JSON.stringify(init.body) : undefined,
+    })
+  } catch {
+    throw new ApiError("No connection. Check the network and try again.", 0)
+  }
   const json = await res.json().catch(() => null)
   if (!res.ok) throw new ApiError(json?.error?.message ?? `That did not work (${res.status}).`, res.status, json?.error?.fields)
   return json as T

@@ -1,0 +1,41 @@
+import { CircleAlert, CircleCheck } from "lucide-react"
+import type { ReactNode } from "react"
+import { cn } from "./cn"
+
+/** A form's problem after a save: word, icon and colour, announced to screen readers. */
+export function FormProblem({ children, className }: { children: ReactNode; className?: string }) {
+  if (!children) return null
+  return (
+    <p role="alert" className={cn("flex items-start gap-2 font-medium text-stop-600 dark:text-stop-400", className)}>
+      <CircleAlert aria-hidden className="mt-0.5 size-5 shrink-0" />
+      <span>{children}</span>
+    </p>
+  )
+}
+
+/** A quiet "done" line after a save. */
+export function FormDone({ children, className }: { children: ReactNode; className?: string }) {
+  if (!children) return null
+  return (
+    <p role="status" className={cn("flex items-center gap-1.5 font-medium", className)}>
+      <CircleCheck aria-hidden className="size-5 shrink-0 text-teal-600 dark:text-teal-300" />
+      <span>{children}</span>
+    </p>
+  )
+}
+
+/** `<option>`s for a list of codes and their words. */
+export function Options<T extends string>({ values, labels }: { values: readonly T[]; labels: Record<T, string> }) {
+  return values.map((v) => (
+    <option key={v} value={v}>
+      {labels[v]}
+    </option>
+  ))
+}
+
+/** The message react-hook-form holds at a dotted path (`tasks.0.sensor`). */
+export function errorAt(errors: unknown, path: string): string | undefined {
+  let node: unknown = errors
+  for (const p of path.split(".")) node = (node as Record<string, unknown> | undefined)?.[p]
+  return (node as { message?: string } | undefined)?.message
+}
