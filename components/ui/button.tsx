@@ -15,7 +15,7 @@ export const buttonVariants = cva(
         ghost: "text-graphite-700 hover:bg-graphite-100 dark:text-graphite-200 dark:hover:bg-asphalt-700",
         danger: "bg-stop-600 text-white hover:bg-stop-500",
       },
-      size: { md: "text-base", lg: "min-h-16 px-6 text-lg", sm: "min-h-10 px-3 text-sm" },
+      size: { md: "text-base", lg: "min-h-16 px-6 text-lg", sm: "min-h-12 px-3 text-sm" },
     },
     defaultVariants: { variant: "primary", size: "md" },
   },
