@@ -15,6 +15,7 @@ import Link from "next/link"
 import { useEffect, useMemo, useState } from "react"
 import { Button } from "@/components/ui/button"
 import { Input, Select } from "@/components/ui/field"
+import { FormProblem, Options } from "@/components/ui/form"
 import { JOB_STATUS_LABEL, JOB_STATUSES, SENSOR_LABEL, type JobSort, type Sensor } from "@/lib/validation/job"
 import { apiFetch } from "@/components/ui/api-fetch"
 import { JobStatusBadge } from "./job-status"
@@ -64,11 +65,33 @@ const columns = helper.columns([
   helper.accessor("createdAt", {
     id: "createdAt",
     header: "Opened",
-    cell: (info) => new Date(info.getValue()).toLocaleDateString(undefined, { month: "short", day: "numeric" }),
+    cell: (info) => (
+      <>
+        <span className="md:hidden">Opened </span>
+        {new Date(info.getValue()).toLocaleDateString(undefined, { month: "short", day: "numeric" })}
+      </>
+    ),
   }),
 ])
 
 const emptyRows: JobRow[] = []
+
+// Where each cell sits when a row is a block on a phone: RO and status on the first line, the rest below.
+const PHONE_CELL: Record<string, string> = {
+  status: "max-md:col-start-2 max-md:row-start-1",
+  customer: "max-md:col-span-2",
+  vehicle: "max-md:col-span-2",
+  sensors: "max-md:col-span-2 max-md:text-graphite-600 max-md:dark:text-graphite-300",
+  createdAt: "max-md:col-span-2 max-md:text-graphite-600 max-md:dark:text-graphite-300",
+}
+
+const PHONE_SORTS = [
+  { value: "createdAt:desc", label: "Newest first" },
+  { value: "createdAt:asc", label: "Oldest first" },
+  { value: "roNumber:asc", label: "RO number" },
+  { value: "customer:asc", label: "Customer A–Z" },
+  { value: "status:asc", label: "Status" },
+]
 
 export function vehicleText(v: JobRow["vehicle"]) {
   return [v.year, v.make, v.model].filter(Boolean).join(" ") || "Vehicle"
@@ -163,17 +186,32 @@ export function JobTable() {
         </label>
         <Select id="job-status" className="w-auto min-w-40" value={status} onChange={(e) => setStatus(e.target.value)}>
           <option value="">Every status</option>
-          {JOB_STATUSES.map((s) => (
-            <option key={s} value={s}>
-              {JOB_STATUS_LABEL[s]}
+          <Options values={JOB_STATUSES} labels={JOB_STATUS_LABEL} />
+        </Select>
+        {/* Phones show rows as blocks with no column heads, so sorting is a plain choice here. */}
+        <label htmlFor="job-sort" className="sr-only">
+          Sort jobs
+        </label>
+        <Select
+          id="job-sort"
+          className="w-auto min-w-40 md:hidden"
+          value={`${sort}:${dir}`}
+          onChange={(e) => {
+            const [id, d] = e.target.value.split(":")
+            setSorting([{ id: id!, desc: d === "desc" }])
+          }}
+        >
+          {PHONE_SORTS.map((o) => (
+            <option key={o.value} value={o.value}>
+              {o.label}
             </option>
           ))}
         </Select>
       </div>
 
       <div className="relative overflow-x-auto rounded-xl border border-graphite-200 bg-white dark:border-asphalt-700 dark:bg-asphalt-800">
-        <table className="w-full min-w-[40rem] text-left text-sm" aria-busy={result.isFetching}>
-          <thead className="border-b border-graphite-200 dark:border-asphalt-700">
+        <table className="w-full text-left text-sm max-md:block md:min-w-[40rem]" aria-busy={result.isFetching}>
+          <thead className="border-b border-graphite-200 max-md:hidden dark:border-asphalt-700">
             {table.getHeaderGroups().map((group) => (
               <tr key={group.id}>
                 {group.headers.map((header) => {
@@ -201,11 +239,11 @@ export function JobTable() {
               </tr>
             ))}
           </thead>
-          <tbody className="divide-y divide-graphite-100 dark:divide-asphalt-700">
+          <tbody className="divide-y divide-graphite-100 max-md:block dark:divide-asphalt-700">
             {table.getRowModel().rows.map((row) => (
-              <tr key={row.id} data-testid="job-row">
+              <tr key={row.id} data-testid="job-row" className="max-md:grid max-md:grid-cols-[1fr_auto] max-md:items-center max-md:gap-x-3 max-md:px-3 max-md:py-2">
                 {row.getAllCells().map((cell) => (
-                  <td key={cell.id} className="px-3 py-1 align-middle">
+                  <td key={cell.id} className={`px-3 py-1 align-middle max-md:p-0 ${PHONE_CELL[cell.column.id] ?? ""}`}>
                     <table.FlexRender cell={cell} />
                   </td>
                 ))}
@@ -213,7 +251,12 @@ export function JobTable() {
             ))}
           </tbody>
         </table>
-        {result.isError ? <p className="p-4 font-medium text-stop-600">{(result.error as Error).message}</p> : null}
+        {result.isError ? <FormProblem className="p-4">{(result.error as Error).message}</FormProblem> : null}
+        {result.isPending ? (
+          <p role="status" className="p-4 text-graphite-600 dark:text-graphite-300">
+            Loading jobs…
+          </p>
+        ) : null}
         {result.data && total === 0 ? (
           <p className="p-4 text-graphite-600 dark:text-graphite-300">{q || status ? "No job matches." : "No jobs yet. Open the first one."}</p>
         ) : null}

@@ -5,6 +5,7 @@ import { JobDetail, type JobView } from "@/components/jobs/job-detail"
 import { PageHeader } from "@/components/ui/page-header"
 import { getDb } from "@/db/client"
 import { loadJobDetail } from "@/db/queries/jobs"
+import { roLabel } from "@/lib/record"
 
 export const metadata: Metadata = { title: "Job" }
 
@@ -18,7 +19,7 @@ export default async function JobPage({ params }: { params: Promise<{ jobId: str
   const initialJob = JSON.parse(JSON.stringify(job)) as JobView
   return (
     <div className="mx-auto max-w-3xl">
-      <PageHeader title={`RO ${job.roNumber}`} description={job.customer.name} />
+      <PageHeader title={roLabel(job.roNumber)} description={job.customer.name} />
       <JobDetail initialJob={initialJob} canEdit />
     </div>
   )

@@ -5,6 +5,7 @@ import { JobForm } from "@/components/jobs/job-form"
 import { PageHeader } from "@/components/ui/page-header"
 import { getDb } from "@/db/client"
 import { loadJobDetail } from "@/db/queries/jobs"
+import { roLabel } from "@/lib/record"
 import type { Method, Reason, Sensor } from "@/lib/validation/job"
 
 export const metadata: Metadata = { title: "Edit job" }
@@ -17,7 +18,7 @@ export default async function EditJobPage({ params }: { params: Promise<{ jobId:
   if (!job) notFound()
   return (
     <div className="mx-auto max-w-3xl">
-      <PageHeader title={`Edit RO ${job.roNumber}`} />
+      <PageHeader title={`Edit ${roLabel(job.roNumber)}`} />
       <JobForm
         jobId={job.id}
         initial={{
