@@ -1,23 +1,27 @@
 import { CircleCheck, CircleMinus, CircleX } from "lucide-react"
 import { VerdictBadge } from "@/components/drives/verdict-badge"
 import { Card } from "@/components/ui/card"
+import { cn } from "@/components/ui/cn"
 import type { Condition, Score } from "@/lib/scoring"
 import { formatConditionRequirement, formatConditionValue, formatDuration, formatMiles, formatMinutes } from "@/lib/record"
 
 
 /** The verdict with its reasons, the key figures and every condition with value and requirement. */
-export function RecordSummary({ score }: { score: Score }) {
+export function RecordSummary({ score, className }: { score: Score; className?: string }) {
   const verified = score.conditions.find((c) => c.key === "verified")
   const figures: Array<[string, string]> = [
     ["Qualifying before the clear", `${formatMinutes(score.qualifyingSecondsBeforeClear, (score.profile?.minQualifyingMinutes ?? 10) * 60)} min`],
     ["Following before the clear", `${formatMinutes(score.followingSecondsBeforeClear, (score.profile?.minFollowingMinutes ?? 2) * 60)} min`],
     ["Distance", `${formatMiles(score.distanceMeters)} mi`],
     ["Duration", formatDuration(score.durationSeconds)],
-    ["Harsh events", `${score.harshEvents.decel} braking · ${score.harshEvents.accel} accel.`],
+    [
+      "Harsh events",
+      score.harshEvents.decel + score.harshEvents.accel === 0 ? "None" : `${score.harshEvents.decel} braking · ${score.harshEvents.accel} speeding up`,
+    ],
     ["Function check", verified?.met ? `Seen working at ${verified.value} mph` : "Not shown"],
   ]
   return (
-    <div className="space-y-4">
+    <div className={cn("space-y-4", className)}>
       <Card className="space-y-3">
         <div className="flex flex-wrap items-center gap-3">
           <VerdictBadge verdict={score.verdict} size="lg" />
@@ -51,42 +55,48 @@ export function RecordSummary({ score }: { score: Score }) {
         ))}
       </dl>
       <Card className="p-0">
-        <table className="w-full text-left text-sm">
-          <caption className="px-3 pt-3 text-left font-semibold">Every condition</caption>
-          <thead>
-            <tr className="border-b border-graphite-200 text-graphite-600 dark:border-asphalt-700 dark:text-graphite-300">
-              <th className="px-3 py-2 font-medium">Condition</th>
-              <th className="px-3 py-2 font-medium">Value</th>
-              <th className="px-3 py-2 font-medium">Needed</th>
-              <th className="px-3 py-2 font-medium">State</th>
-            </tr>
-          </thead>
-          <tbody>
-            {score.conditions.map((c) => (
-              <tr key={c.key} className="border-b border-graphite-100 last:border-0 dark:border-asphalt-700" data-condition={c.key}>
-                <td className="px-3 py-2">{c.label}</td>
-                <td className="tabular px-3 py-2">{formatConditionValue(c).replace(/^-$/, "—")}</td>
-                <td className="tabular px-3 py-2">{formatConditionRequirement(c).replace(/^-$/, "—")}</td>
-                <td className="px-3 py-2">
-                  {c.met ? (
-                    <span className="inline-flex items-center gap-1 text-teal-700 dark:text-teal-300">
-                      <CircleCheck aria-hidden className="size-4" /> Met
-                    </span>
-                  ) : c.advisory ? (
-                    <span className="inline-flex items-center gap-1 text-signal-700 dark:text-signal-300">
-                      <CircleMinus aria-hidden className="size-4" /> Note
-                    </span>
-                  ) : (
-                    <span className="inline-flex items-center gap-1 text-stop-600 dark:text-stop-400">
-                      <CircleX aria-hidden className="size-4" /> Not met
-                    </span>
-                  )}
-                </td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
+        <h3 className="px-3 pt-3 font-semibold">Every condition</h3>
+        {/* A list, not a table: four columns do not fit a phone, and each line reads on its own. */}
+        <ul className="divide-y divide-graphite-100 dark:divide-asphalt-700" data-testid="conditions">
+          {score.conditions.map((c) => (
+            <li key={c.key} className="flex items-start justify-between gap-3 px-3 py-2.5" data-condition={c.key}>
+              <div className="min-w-0">
+                <p className="font-medium">{c.label}</p>
+                <p className="tabular text-sm text-graphite-600 dark:text-graphite-300">
+                  {formatConditionValue(c).replace(/^-$/, "—")}
+                  {needed(formatConditionRequirement(c))}
+                </p>
+              </div>
+              <ConditionState condition={c} />
+            </li>
+          ))}
+        </ul>
       </Card>
     </div>
+  )
+}
+
+function needed(requirement: string) {
+  if (requirement === "-") return ""
+  return requirement === "none" ? " · none allowed" : ` · needed ${requirement}`
+}
+
+function ConditionState({ condition: c }: { condition: Condition }) {
+  if (c.met)
+    return (
+      <span className="inline-flex shrink-0 items-center gap-1 font-semibold text-teal-700 dark:text-teal-300">
+        <CircleCheck aria-hidden className="size-4" /> Met
+      </span>
+    )
+  if (c.advisory)
+    return (
+      <span className="inline-flex shrink-0 items-center gap-1 font-semibold text-signal-700 dark:text-signal-300">
+        <CircleMinus aria-hidden className="size-4" /> Note
+      </span>
+    )
+  return (
+    <span className="inline-flex shrink-0 items-center gap-1 font-semibold text-stop-600 dark:text-stop-400">
+      <CircleX aria-hidden className="size-4" /> Not met
+    </span>
   )
 }

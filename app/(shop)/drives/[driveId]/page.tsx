@@ -1,4 +1,4 @@
-import { Download, Radio } from "lucide-react"
+import { Download, Radio, ShieldAlert } from "lucide-react"
 import type { Metadata } from "next"
 import { notFound } from "next/navigation"
 import { requirePageRole } from "@/app/_server/auth"
@@ -77,9 +77,15 @@ export default async function DrivePage({ params }: { params: Promise<{ driveId:
           </>
         }
       />
-      <div className="grid gap-4 lg:grid-cols-[3fr_2fr]">
-        <div className="min-w-0 space-y-4">
-          <RecordSummary score={data.score} />
+      {/* Phones: one column with the verdict, then the review, then the rest (the columns dissolve and
+          `order` lifts the review up); wide screens: two columns. */}
+      <div className="flex flex-col gap-4 lg:grid lg:grid-cols-[3fr_2fr]">
+        <div className="contents min-w-0 lg:block lg:space-y-4">
+          <RecordSummary score={data.score} className="order-first" />
+          <p className="order-first flex items-start gap-2 text-sm text-graphite-700 dark:text-graphite-200" data-testid="score-caution">
+            <ShieldAlert aria-hidden className="mt-0.5 size-4 shrink-0 text-signal-700 dark:text-signal-300" />
+            The score describes how the drive went. Whether the calibration is done is what the vehicle itself reports, following the maker&apos;s procedure; the score never replaces that.
+          </p>
           <Card>
             <h2 className="mb-2 text-lg font-semibold">Speed over time</h2>
             <SpeedChart
@@ -99,9 +105,9 @@ export default async function DrivePage({ params }: { params: Promise<{ driveId:
             <MarkTimeline marks={data.marks} startMs={t0} />
           </Card>
         </div>
-        <div className="min-w-0 space-y-4">
+        <div className="contents min-w-0 lg:block lg:space-y-4">
           {isLead ? (
-            <Card>
+            <Card className="order-first" data-testid="review-card">
               <h2 className="mb-2 text-lg font-semibold">Review</h2>
               {data.review ? (
                 <p data-testid="review-decision">
@@ -113,7 +119,7 @@ export default async function DrivePage({ params }: { params: Promise<{ driveId:
               ) : null}
             </Card>
           ) : data.review ? (
-            <Card>
+            <Card className="order-first">
               <h2 className="mb-1 text-lg font-semibold">Review</h2>
               <p data-testid="review-decision">
                 {DECISION_WORD[data.review.decision]} by {data.review.reviewerName ?? "a shop lead"}
@@ -121,7 +127,7 @@ export default async function DrivePage({ params }: { params: Promise<{ driveId:
               </p>
             </Card>
           ) : null}
-          <Card>
+          <Card className="order-first">
             <h2 className="mb-2 text-lg font-semibold">Drive record</h2>
             <RecordActions driveId={head.id} canShare={isLead} customerEmail={head.customer_email} />
           </Card>
