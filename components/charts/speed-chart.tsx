@@ -28,12 +28,13 @@ export function SpeedChart({
   const lastMin = points.at(-1)?.min ?? 1
   return (
     <figure className="space-y-2" data-testid="speed-chart">
-      <div className="h-64 w-full sm:h-80">
+      {/* Ink is currentColor so the line, axes and mark labels follow the light or dark theme. */}
+      <div className="h-64 w-full text-graphite-800 sm:h-80 dark:text-graphite-100">
         <ResponsiveContainer width="100%" height="100%">
           <ComposedChart data={points} margin={{ top: 16, right: 12, bottom: 4, left: -8 }}>
-            <CartesianGrid strokeDasharray="3 3" stroke="#d0d4d9" />
-            <XAxis dataKey="min" type="number" domain={[0, Math.ceil(lastMin)]} tickFormatter={(v: number) => `${v}`} unit=" min" tick={{ fontSize: 12 }} />
-            <YAxis domain={[0, yMax]} unit=" mph" tick={{ fontSize: 12 }} width={64} />
+            <CartesianGrid strokeDasharray="3 3" stroke="currentColor" strokeOpacity={0.2} />
+            <XAxis dataKey="min" type="number" domain={[0, Math.ceil(lastMin)]} tickFormatter={(v: number) => `${v}`} unit=" min" tick={{ fontSize: 12, fill: "currentColor" }} stroke="currentColor" />
+            <YAxis domain={[0, yMax]} unit=" mph" tick={{ fontSize: 12, fill: "currentColor" }} stroke="currentColor" width={64} />
             <ReferenceArea y1={minSpeedMph} y2={maxSpeedMph ?? yMax} fill="#ffbf3d" fillOpacity={0.18} ifOverflow="hidden" />
             {following.map((s, i) => (
               <ReferenceArea key={i} x1={s.fromMin} x2={s.toMin} fill="#2fcbbb" fillOpacity={0.2} ifOverflow="hidden" />
@@ -42,16 +43,18 @@ export function SpeedChart({
               <ReferenceLine
                 key={i}
                 x={m.min}
-                stroke="#383f48"
+                stroke="currentColor"
+                strokeOpacity={0.6}
                 strokeDasharray="2 3"
-                label={{ value: m.label, position: i % 2 ? "insideBottomLeft" : "insideTopLeft", fontSize: 11, fill: "#383f48" }}
+                label={{ value: m.label, position: i % 2 ? "insideBottomLeft" : "insideTopLeft", fontSize: 11, fill: "currentColor" }}
               />
             ))}
             <Tooltip
+              contentStyle={{ color: "#1a1e23" }}
               formatter={(v) => [`${Number(v).toFixed(1)} mph`, "Speed"]}
               labelFormatter={(v) => `${Number(v).toFixed(1)} min into the drive`}
             />
-            <Line type="monotone" dataKey="mph" stroke="#1a1e23" strokeWidth={2} dot={false} isAnimationActive={false} connectNulls={false} />
+            <Line type="monotone" dataKey="mph" stroke="currentColor" strokeWidth={2} dot={false} isAnimationActive={false} connectNulls={false} />
           </ComposedChart>
         </ResponsiveContainer>
       </div>

@@ -41,23 +41,49 @@ export default async function NumbersPage({ searchParams }: { searchParams: Prom
         ))}
       </nav>
       {numbers.drives === 0 ? (
-        <Card>No finished drives in this period yet.</Card>
+        <Card data-testid="numbers-empty">No finished drives in this period yet. Try a longer period, or finish a drive to see it counted.</Card>
       ) : (
         <div className="grid gap-4 xl:grid-cols-2">
           <TimeToClearChart data={numbers.timeToClear} />
           <VerdictMixChart data={numbers.verdictMix} />
           <TopReasonsChart data={numbers.topReasons} />
-          <Card className="overflow-x-auto p-0">
+          <Card className="p-0">
+            {/* Phones: one block a technician (six columns do not fit); wider screens: the table. */}
+            <div className="sm:hidden">
+              <h2 className="px-3 pt-3 text-lg font-semibold">Per technician</h2>
+              <ul className="divide-y divide-graphite-100 dark:divide-asphalt-700">
+                {numbers.perTechnician.map((t) => (
+                  <li key={t.technicianId} className="space-y-1 px-3 py-3">
+                    <p className="font-semibold">{t.name}</p>
+                    <dl className="tabular grid grid-cols-2 gap-x-3 gap-y-0.5 text-sm">
+                      <dt className="text-graphite-600 dark:text-graphite-300">Drives</dt>
+                      <dd>{t.drives}</dd>
+                      <dt className="text-graphite-600 dark:text-graphite-300">Met</dt>
+                      <dd>
+                        {t.met} ({Math.round(t.metShare * 100)} %)
+                      </dd>
+                      <dt className="text-graphite-600 dark:text-graphite-300">Median to clear</dt>
+                      <dd>{t.medianMinutesToClear == null ? "—" : `${t.medianMinutesToClear} min`}</dd>
+                      <dt className="text-graphite-600 dark:text-graphite-300">Harsh events</dt>
+                      <dd>{t.harshEvents}</dd>
+                      <dt className="text-graphite-600 dark:text-graphite-300">Sent back</dt>
+                      <dd>{t.sentBack}</dd>
+                    </dl>
+                  </li>
+                ))}
+              </ul>
+            </div>
+            <div className="hidden overflow-x-auto sm:block">
             <table className="w-full text-left text-sm" data-testid="per-technician">
               <caption className="px-3 pt-3 text-left text-lg font-semibold">Per technician</caption>
               <thead>
                 <tr className="border-b border-graphite-200 text-graphite-600 dark:border-asphalt-700 dark:text-graphite-300">
-                  <th className="px-3 py-2 font-medium">Technician</th>
-                  <th className="px-3 py-2 font-medium">Drives</th>
-                  <th className="px-3 py-2 font-medium">Met</th>
-                  <th className="px-3 py-2 font-medium">Median to clear</th>
-                  <th className="px-3 py-2 font-medium">Harsh events</th>
-                  <th className="px-3 py-2 font-medium">Sent back</th>
+                  <th scope="col" className="px-3 py-2 font-medium">Technician</th>
+                  <th scope="col" className="px-3 py-2 font-medium">Drives</th>
+                  <th scope="col" className="px-3 py-2 font-medium">Met</th>
+                  <th scope="col" className="px-3 py-2 font-medium">Median to clear</th>
+                  <th scope="col" className="px-3 py-2 font-medium">Harsh events</th>
+                  <th scope="col" className="px-3 py-2 font-medium">Sent back</th>
                 </tr>
               </thead>
               <tbody>
@@ -75,6 +101,7 @@ export default async function NumbersPage({ searchParams }: { searchParams: Prom
                 ))}
               </tbody>
             </table>
+            </div>
           </Card>
         </div>
       )}
