@@ -7,6 +7,7 @@ import { cn } from "@/components/ui/cn"
 import { PageHeader } from "@/components/ui/page-header"
 import { getDb } from "@/db/client"
 import { listDrives } from "@/db/queries/drives"
+import { roLabel, SENSOR_LABEL } from "@/lib/record"
 import { listDrivesQuery, parseDriveCursor } from "@/lib/validation/drive"
 
 export const metadata = { title: "Drives" }
@@ -50,7 +51,7 @@ export default async function DrivesPage({ searchParams }: { searchParams: Promi
           ) : null
         }
       />
-      <nav aria-label="Filter drives" className="mb-3 flex gap-2 overflow-x-auto pb-1">
+      <nav aria-label="Filter drives" className="mb-3 flex flex-wrap gap-2">
         {FILTERS.map((f) => (
           <Link
             key={f.label}
@@ -68,8 +69,8 @@ export default async function DrivesPage({ searchParams }: { searchParams: Promi
         ))}
       </nav>
       {rows.length === 0 ? (
-        <p className="rounded-xl border border-dashed border-graphite-300 p-6 text-center text-graphite-600 dark:border-graphite-600 dark:text-graphite-300">
-          No drives here yet.
+        <p className="rounded-xl border border-dashed border-graphite-300 p-6 text-center text-graphite-600 dark:border-graphite-600 dark:text-graphite-300" data-testid="drives-empty">
+          {current ? "No drives with this filter. Choose All to see every drive." : canRecord ? "No drives yet. Record a drive to see it here." : "No drives name you as co-driver yet."}
         </p>
       ) : (
         <ul className="divide-y divide-graphite-200 overflow-hidden rounded-xl border border-graphite-200 bg-white dark:divide-asphalt-700 dark:border-asphalt-700 dark:bg-asphalt-800" data-testid="drive-list">
@@ -80,7 +81,8 @@ export default async function DrivesPage({ searchParams }: { searchParams: Promi
                 <Link href={href} className="flex min-h-16 items-center gap-3 px-4 py-3 hover:bg-graphite-50 dark:hover:bg-asphalt-700" data-drive-id={d.id}>
                   <div className="min-w-0 flex-1">
                     <p className="truncate font-semibold">
-                      {d.ro_number ? `RO ${d.ro_number}` : "Unplanned"}
+                      {d.ro_number ? roLabel(d.ro_number) : "Unplanned drive"}
+                      {d.task_sensor ? ` · ${SENSOR_LABEL[d.task_sensor] ?? d.task_sensor}` : ""}
                       {d.vehicle_description ? ` · ${d.vehicle_description}` : ""}
                     </p>
                     <p className="truncate text-sm text-graphite-600 dark:text-graphite-300">
