@@ -74,10 +74,10 @@ function GapCounter({ onUse }: { onUse: (gapFt: number) => void }) {
       ) : null}
       <div className="flex gap-2">
         <label className="flex flex-1 items-center gap-2">
-          <span className="sr-only">Gap in feet</span>
           <input
             inputMode="numeric"
             placeholder="or type feet"
+            aria-label="Gap in feet"
             value={typed}
             onChange={(e) => setTyped(e.target.value.replace(/[^0-9]/g, ""))}
             className="min-h-16 w-full rounded-xl bg-asphalt-800 px-3 text-xl text-white"
@@ -156,12 +156,14 @@ export function CoDriverPanel() {
         <div className="space-y-2">
           <p className="font-semibold">{asking === "lead-on" ? "Lead on: how far ahead is it?" : "New gap estimate"}</p>
           <GapCounter onUse={(ft) => void log(asking, { gapFt: ft })} />
-          {asking === "lead-on" ? (
-            <Big testId="lead-on-unknown" onClick={() => void log("lead-on")}>
-              Lead on, gap not known yet
-            </Big>
-          ) : null}
-          <Big onClick={() => setAsking(null)}>Cancel</Big>
+          <div className="grid gap-2">
+            {asking === "lead-on" ? (
+              <Big testId="lead-on-unknown" onClick={() => void log("lead-on")}>
+                Lead on, gap not known yet
+              </Big>
+            ) : null}
+            <Big onClick={() => setAsking(null)}>Cancel</Big>
+          </div>
         </div>
       ) : null}
       {note !== null ? (

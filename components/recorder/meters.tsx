@@ -1,5 +1,5 @@
 "use client"
-import { Gauge, Hourglass, Link2, Timer, TriangleAlert, UsersRound } from "lucide-react"
+import { Gauge, Hourglass, Link2, Timer, TriangleAlert } from "lucide-react"
 import type { ReactNode } from "react"
 import { mpsToMph } from "@/lib/units"
 import { useRecorder } from "./use-recorder"
@@ -62,11 +62,19 @@ export function Meters() {
       <Meter
         testId="meter-speed"
         raw={speedMps}
-        label={inBand ? "Speed: qualifying" : "Speed: not qualifying"}
+        label={inBand ? "Speed: qualifying" : "Speed: paused"}
         icon={<Gauge aria-hidden className="size-4" />}
         value={mph === null ? "—" : Math.round(mph).toString()}
         unit="mph"
-        detail={`band ${band}`}
+        detail={
+          mph === null
+            ? `No speed from GPS yet · band ${band}`
+            : inBand
+              ? `Inside the band ${band}`
+              : mph < p.minSpeedMph
+                ? `Under ${p.minSpeedMph} mph: qualifying time paused`
+                : `Over ${p.maxSpeedMph} mph: qualifying time paused`
+        }
         tone={inBand ? "signal" : "plain"}
       />
       <Meter
@@ -96,14 +104,14 @@ export function Meters() {
         icon={<Hourglass aria-hidden className="size-4" />}
         value={minutes(elapsedS)}
         unit="min"
-        detail={`usual 10–${p.maxDriveMinutes} min`}
+        detail={elapsedS >= p.maxDriveMinutes * 60 ? `Past the ${p.maxDriveMinutes} min limit: the drive has timed out` : `limit ${p.maxDriveMinutes} min`}
         tone={elapsedS >= p.maxDriveMinutes * 60 ? "stop" : "plain"}
       />
       <Meter
         testId="meter-left"
         raw={left?.minutesLeft ?? null}
         label="Predicted left"
-        icon={<UsersRound aria-hidden className="size-4" />}
+        icon={<Hourglass aria-hidden className="size-4" />}
         value={left?.minutesLeft === null || left === null ? "—" : left.minutesLeft.toFixed(0)}
         unit="min"
         detail={left?.minutesLeft === null || left === null ? "after some qualifying time" : "at the rate so far"}
@@ -114,7 +122,7 @@ export function Meters() {
         label="Harsh events"
         icon={<TriangleAlert aria-hidden className="size-4" />}
         value={String(harsh)}
-        unit=""
+        unit={harsh === 1 ? "event" : "events"}
         detail={`${score?.harshEvents.accel ?? 0} speeding up · ${score?.harshEvents.decel ?? 0} braking`}
         tone={harsh > 0 ? "signal" : "plain"}
       />

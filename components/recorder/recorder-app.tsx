@@ -1,8 +1,13 @@
 "use client"
 import { lazy, Suspense, useEffect, useState } from "react"
 import { getActiveDrive } from "@/lib/recorder/idb-outbox"
+import type { DriveMeta } from "@/lib/recorder/idb-outbox"
 import { StartFlow, type StartChoice } from "./start-flow"
-import { getRecorder, useRecorder } from "./use-recorder"
+
+// The recording engine (scoring, outbox, position watch) loads right after the first paint instead of with it:
+// the start flow does not need it, and the recorder's first load stays inside its budget. A visit online
+// fetches it, so the worker has it cached for a drive that goes offline.
+const loadRecorder = () => import("./use-recorder").then((m) => m.getRecorder())
 
 // Split off: the start flow is what a first visit needs; these load (from the worker's cache offline) when used.
 const RecordingScreen = lazy(() => import("./recording-screen").then((m) => ({ default: m.RecordingScreen })))
@@ -19,14 +24,23 @@ function driveIdFromLocation(): string | null {
 }
 
 export function RecorderApp({ coDriver = false }: { coDriver?: boolean }) {
-  const meta = useRecorder((s) => s.meta)
+  const [meta, setMeta] = useState<DriveMeta | null>(null)
   const [phase, setPhase] = useState<"loading" | "start" | "drive" | "missing">("loading")
 
   useEffect(() => {
-    const recorder = getRecorder()
-    const onOnline = () => void recorder.flushNow()
+    let unsubscribe = () => {}
+    let gone = false
+    const onOnline = () => void loadRecorder().then((r) => r.flushNow())
+    const onHide = () => void loadRecorder().then((r) => r.persistBuffer(true))
     window.addEventListener("online", onOnline)
+    window.addEventListener("pagehide", onHide)
     void (async () => {
+      const recorder = await loadRecorder()
+      if (gone) return
+      setMeta(recorder.store.getState().meta)
+      unsubscribe = recorder.store.subscribe((s, before) => {
+        if (s.meta !== before.meta) setMeta(s.meta)
+      })
       const id = driveIdFromLocation() ?? (coDriver ? null : await getActiveDrive()) ?? null
       if (id && (await recorder.load(id))) {
         if (!driveIdFromLocation()) window.history.replaceState(null, "", `/record?drive=${id}`)
@@ -46,9 +60,9 @@ export function RecorderApp({ coDriver = false }: { coDriver?: boolean }) {
       void recorder.flush() // anything left from an earlier drive goes out on app start
       setPhase("start")
     })()
-    const onHide = () => void recorder.persistBuffer(true)
-    window.addEventListener("pagehide", onHide)
     return () => {
+      gone = true
+      unsubscribe()
       window.removeEventListener("online", onOnline)
       window.removeEventListener("pagehide", onHide)
     }
@@ -57,7 +71,7 @@ export function RecorderApp({ coDriver = false }: { coDriver?: boolean }) {
   async function start(choice: StartChoice) {
     const id = crypto.randomUUID()
     window.history.replaceState(null, "", `/record?drive=${id}`)
-    await getRecorder().start({ id, ...choice })
+    await (await loadRecorder()).start({ id, ...choice })
     setPhase("drive")
   }
 

@@ -26,8 +26,8 @@ export function RecordingScreen() {
   return (
     <div className="space-y-3" data-testid="recording-screen" data-moving={moving}>
       <div className="flex items-center gap-2">
-        <span className="inline-flex items-center gap-1.5 rounded-full bg-stop-600 px-2 py-0.5 text-sm font-bold text-white">
-          <span className="size-2 animate-pulse rounded-full bg-white" /> {secondPhone ? "Co-driver" : "Recording"}
+        <span className="inline-flex shrink-0 items-center gap-1.5 rounded-full bg-signal-400 px-2 py-0.5 text-sm font-bold text-graphite-950">
+          <span aria-hidden className="size-2 animate-pulse rounded-full bg-graphite-950" /> {secondPhone ? "Co-driver" : "Recording"}
         </span>
         <span className="truncate text-graphite-300">{meta.label}</span>
       </div>

@@ -201,6 +201,11 @@ export function StartFlow({ onStart }: { onStart: (choice: StartChoice) => void 
         >
           Next: before you drive
         </button>
+        {!canGoOn ? (
+          <p className="text-center text-sm text-graphite-300">
+            {jobId ? "Choose the calibration to drive for." : "Choose a job, or name the vehicle for an unplanned drive."}
+          </p>
+        ) : null}
       </div>
     )
   }
@@ -279,6 +284,7 @@ export function StartFlow({ onStart }: { onStart: (choice: StartChoice) => void 
           <Play aria-hidden /> Start
         </button>
       </div>
+      {!allChecked ? <p className="text-center text-sm text-graphite-300">Tick every check above to start.</p> : null}
     </div>
   )
 }

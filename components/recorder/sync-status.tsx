@@ -21,9 +21,9 @@ export function SyncStatus() {
           : "All sent"
   return (
     <div className="rounded-lg bg-asphalt-800 px-3 py-2 text-sm text-graphite-200" data-testid="sync-status" data-waiting={sync.waitingSamples} data-state={sync.state}>
-      <div className="flex items-center gap-2">
+      <div className="flex flex-wrap items-center gap-x-2 gap-y-0.5">
         <Icon aria-hidden className="size-5 shrink-0" />
-        <span className="font-semibold">{word}</span>
+        <span className="font-semibold whitespace-nowrap">{word}</span>
         <span className="ml-auto tabular">
           {sync.waitingSamples} samples waiting · last synced {clock(sync.lastSyncedAt)}
         </span>
@@ -34,7 +34,7 @@ export function SyncStatus() {
           <span className="flex-1">
             The server refused {f.type === "samples" ? `${f.samples.length} samples` : f.type.replace("-", " ")}: {f.failed?.message}
           </span>
-          <button className="min-h-12 rounded border border-stop-400 px-3" onClick={() => void getRecorder().retryFailed(f.key)}>
+          <button type="button" className="min-h-16 rounded-lg border-2 border-stop-400 px-3 font-semibold" onClick={() => void getRecorder().retryFailed(f.key)}>
             Try again
           </button>
         </div>
