@@ -31,7 +31,8 @@ const notRedirected = {
 const recorderPages = new NetworkFirst({
   cacheName: PAGES,
   networkTimeoutSeconds: 4,
-  matchOptions: { ignoreSearch: true },
+  // Next varies pages on its router headers; a page saved by one request must still answer a reload.
+  matchOptions: { ignoreSearch: true, ignoreVary: true },
   plugins: [notRedirected, new ExpirationPlugin({ maxEntries: 60, maxAgeSeconds: 14 * 24 * 3600 })],
 })
 registerRoute(
@@ -41,7 +42,7 @@ registerRoute(
       return await recorderPages.handle(options)
     } catch {
       const cache = await caches.open(PAGES)
-      return (await cache.match("/record", { ignoreSearch: true })) ?? Response.error()
+      return (await cache.match("/record", { ignoreSearch: true, ignoreVary: true })) ?? Response.error()
     }
   },
 )
@@ -51,6 +52,7 @@ registerRoute(
   new NetworkFirst({
     cacheName: PAGES,
     networkTimeoutSeconds: 4,
+    matchOptions: { ignoreVary: true },
     plugins: [notRedirected, new ExpirationPlugin({ maxEntries: 60, maxAgeSeconds: 14 * 24 * 3600 })],
   }),
 )
