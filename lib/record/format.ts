@@ -1,5 +1,4 @@
 import type { Verdict } from "@/lib/scoring/types"
-import { METHOD_LABEL as JOB_METHOD_LABEL, REASON_LABEL as JOB_REASON_LABEL } from "@/lib/labels"
 import { mToMi } from "@/lib/units"
 
 export const VERDICT_WORD: Record<Verdict, string> = { met: "Met", short: "Short", not_met: "Not met", unverified: "Unverified" }
@@ -22,11 +21,8 @@ export function formatDuration(seconds: number): string {
   return h > 0 ? `${h} h ${m} min` : `${m} min ${String(s).padStart(2, "0")} s`
 }
 
-export { MARK_LABEL, SENSOR_LABEL } from "@/lib/labels"
-
-// The record words a task's method and reason in its own phrasing for these values (product wording, kept as it was).
-export const METHOD_LABEL: Record<string, string> = { ...JOB_METHOD_LABEL, static: "Static", both: "Static and drive learn" }
-export const REASON_LABEL: Record<string, string> = { ...JOB_REASON_LABEL, fault_code: "Fault code", other: "Other" }
+// One set of words for task values everywhere: the job pages, the recorder and the record.
+export { MARK_LABEL, METHOD_LABEL, REASON_LABEL, SENSOR_LABEL } from "@/lib/labels"
 
 export function describeVehicle(v: { year: number | null; make: string | null; model: string | null } | null, fallback?: string | null) {
   if (!v) return fallback ?? "Vehicle not named"
