@@ -2,6 +2,7 @@ import "server-only"
 import { randomUUID } from "node:crypto"
 import { z } from "zod"
 import { AppError } from "@/lib/errors"
+import { findUnstorableText, unstorableTextProblem } from "@/lib/validation/storable"
 import { issuesToFields } from "@/lib/validation/zod-fields"
 
 type Ctx<P> = { params: Promise<P> }
@@ -66,11 +67,16 @@ export async function readJson(req: Request, maxBytes = MAX_JSON_BYTES): Promise
   const text = await req.text()
   if (Buffer.byteLength(text) > maxBytes) throw new AppError("too_large", `The body is over ${Math.round(maxBytes / 1024 / 1024)} MB.`)
   if (!text.trim()) throw new AppError("invalid_request", "The request body is empty; JSON was expected.")
+  let body: unknown
   try {
-    return JSON.parse(text)
+    body = JSON.parse(text)
   } catch {
     throw new AppError("invalid_request", "The request body is not valid JSON.")
   }
+  // Before any schema: text the database cannot store as sent is a 400, not a 500 or a silent change.
+  const unstorable = findUnstorableText(body)
+  if (unstorable) throw new AppError("validation_failed", `${unstorable.path}: ${unstorable.problem}`, { [unstorable.path]: unstorable.problem })
+  return body
 }
 
 export function parseWith<S extends z.ZodType>(schema: S, value: unknown): z.infer<S> {
@@ -83,13 +89,20 @@ export function parseWith<S extends z.ZodType>(schema: S, value: unknown): z.inf
 
 /** Route params and query strings are input too. */
 export async function parseParams<S extends z.ZodType>(params: Promise<unknown>, schema: S): Promise<z.infer<S>> {
-  const result = schema.safeParse(await params)
+  const values = await params
+  const unstorable = findUnstorableText(values)
+  if (unstorable) throw new AppError("not_found", "That was not found.")
+  const result = schema.safeParse(values)
   if (!result.success) throw new AppError("not_found", "That was not found.")
   return result.data
 }
 
 export function parseQuery<S extends z.ZodType>(req: Request, schema: S): z.infer<S> {
   const query = Object.fromEntries(new URL(req.url).searchParams)
+  for (const [key, value] of Object.entries(query)) {
+    const problem = unstorableTextProblem(key) ?? unstorableTextProblem(value)
+    if (problem) throw new AppError("validation_failed", `${key}: ${problem}`, { [key]: problem })
+  }
   return parseWith(schema, query)
 }
 
