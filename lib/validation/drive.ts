@@ -1,5 +1,6 @@
 import { z } from "zod"
 import { apiMarkSchema, profileSchema, sampleSchema } from "@/lib/drive-file/schema"
+import { isTimestampText, UUID_TEXT } from "@/lib/validation/storable"
 
 /** Samples in one POST; the recorder sends far fewer (a few seconds' worth, or 1,000 when catching up). */
 export const MAX_SAMPLES_PER_BATCH = 10_000
@@ -66,7 +67,8 @@ export function parseDriveCursor(cursor: string | undefined): TimeCursor | undef
   if (!cursor) return undefined
   const [time, id] = cursor.split("|")
   // The time keeps PostgreSQL's microseconds so that no row is skipped or repeated between pages.
-  if (!time || !id || !/^\d{4}-\d\d-\d\dT\d\d:\d\d:\d\d(\.\d{1,6})?Z$/.test(time)) return null
-  if (!/^[0-9a-f-]{36}$/i.test(id)) return null
+  // A real date and a real UUID: the database would refuse anything else with an error, not a 400.
+  if (!time || !id || !time.endsWith("Z") || !isTimestampText(time)) return null
+  if (!UUID_TEXT.test(id)) return null
   return { time, id }
 }
