@@ -3,6 +3,7 @@ import type { JobSort } from "@/lib/validation/job"
 import { assessChecklist } from "@/lib/checklist"
 import { validationFailed } from "@/lib/errors"
 import { checklistSchema, type ChecklistData } from "@/lib/validation/checklist"
+import { isTimestampText, unstorableTextProblem, UUID_TEXT } from "@/lib/validation/storable"
 import { PHOTO_TYPES } from "@/lib/validation/upload"
 import { listCompleteAttachmentsForJob } from "./attachments"
 import { listChecklistsForTasks } from "./checklists"
@@ -109,13 +110,19 @@ export function encodeCursor(value: string, id: string) {
   return Buffer.from(JSON.stringify([value, id])).toString("base64url")
 }
 
-/** The cursor as given out by listJobs, or null if it is not one. */
-export function decodeCursor(cursor: string): { value: string; id: string } | null {
+/**
+ * The cursor as given out by listJobs for this sort, or null if it is not one. The value is cast back
+ * to the sort key's type in SQL, so it is checked here: a value the cast refuses would be a 500.
+ */
+export function decodeCursor(cursor: string, sort: JobSort): { value: string; id: string } | null {
   try {
     const parsed: unknown = JSON.parse(Buffer.from(cursor, "base64url").toString("utf8"))
     if (!Array.isArray(parsed) || parsed.length !== 2) return null
     const [value, id] = parsed
-    if (typeof value !== "string" || typeof id !== "string" || !/^[0-9a-f-]{36}$/i.test(id)) return null
+    if (typeof value !== "string" || typeof id !== "string" || !UUID_TEXT.test(id)) return null
+    if (unstorableTextProblem(value)) return null
+    if ((sort === "createdAt" || sort === "updatedAt") && !isTimestampText(value)) return null
+    if (sort === "status" && !/^[0-4]$/.test(value)) return null
     return { value, id }
   } catch {
     return null

@@ -10,7 +10,7 @@ import { duplicateRoError, jobListQuerySchema, newJobSchema } from "@/lib/valida
 export const GET = route(async (req) => {
   const { user } = await requireRole("technician", "shop_lead")
   const query = parseQuery(req, jobListQuerySchema)
-  const cursor = query.cursor ? decodeCursor(query.cursor) : undefined
+  const cursor = query.cursor ? decodeCursor(query.cursor, query.sort) : undefined
   if (cursor === null) throw new AppError("validation_failed", "cursor: is not one this server gave out", { cursor: "is invalid" })
   const { rows, nextCursor, total } = await listJobs(getDb(), user.shopId, { ...query, q: query.q || undefined, cursor })
   return Response.json({
