@@ -4,7 +4,7 @@ const nextConfig = {
   distDir: process.env.NEXT_DIST_DIR || ".next",
   reactStrictMode: true,
   poweredByHeader: false,
-  serverExternalPackages: ["@node-rs/argon2", "pg", "nodemailer", "pdf-lib"],
+  serverExternalPackages: ["@node-rs/argon2", "pg", "nodemailer", "pdf-lib", "sharp"],
   async headers() {
     return [
       {

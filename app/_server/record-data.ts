@@ -1,5 +1,6 @@
 import "server-only"
 import type { Db } from "@/db/client"
+import { findThumbnailKeys } from "@/db/queries/attachments"
 import { findChecklistForTask } from "@/db/queries/checklists"
 import { findDriveRecordHead, findLatestReview, findSharedDriveShop, listMarksWithLoggers, listRecordPhotos } from "@/db/queries/reviews"
 import { env } from "@/lib/env"
@@ -10,7 +11,7 @@ import type { ShopSettings } from "@/db/types"
 import { resolveProfile } from "@/lib/drive-file/profile"
 import type { Mark, Profile } from "@/lib/drive-file/schema"
 import { checklistRows, computeTimeline, type RecordData, type RecordPhoto } from "@/lib/record"
-import { getObjectBytes } from "./storage"
+import { recordPhotoBytes } from "./thumbnails"
 
 export type RecordHead = NonNullable<Awaited<ReturnType<typeof findDriveRecordHead>>>
 
@@ -36,11 +37,13 @@ export async function loadRecordData(
     head.job_id && opts.photos !== false ? listRecordPhotos(db, head.job_id, head.task_id, shopId) : Promise.resolve([]),
   ])
   const profile = resolveProfile(head.profile as Profile)
+  // Thumbnails rather than the full photos, so a record with a dozen phone photos stays a small PDF.
+  const thumbnailKeys = await findThumbnailKeys(db, photoRows.map((p) => p.id), shopId)
   const photos = (
     await Promise.all(
       photoRows.map(async (p): Promise<RecordPhoto | null> => {
         try {
-          return { filename: p.filename, contentType: p.content_type, bytes: await getObjectBytes(p.object_key) }
+          return { filename: p.filename, ...(await recordPhotoBytes({ ...p, thumbnail_key: thumbnailKeys.get(p.id) ?? null })) }
         } catch (error) {
           console.error("[straightaway] photo %s for the drive record could not be read", p.id, error)
           return null

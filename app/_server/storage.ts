@@ -71,6 +71,11 @@ export async function getObjectBytes(key: string): Promise<Uint8Array> {
   return res.Body!.transformToByteArray()
 }
 
+/** Stores bytes made on the server (thumbnails). */
+export async function putObject(key: string, bytes: Uint8Array, contentType: string) {
+  await getS3().send(new PutObjectCommand({ Bucket: bucket(), Key: key, Body: bytes, ContentType: contentType, ContentLength: bytes.byteLength }))
+}
+
 export async function deleteObject(key: string) {
   await getS3().send(new DeleteObjectCommand({ Bucket: bucket(), Key: key }))
 }

@@ -1,7 +1,7 @@
 "use client"
 
 import { useQueryClient } from "@tanstack/react-query"
-import { Camera, FileText } from "lucide-react"
+import { Camera, FileText, ImageOff } from "lucide-react"
 import { useId, useState } from "react"
 import { ALLOWED_UPLOAD_TYPES, MAX_UPLOAD_BYTES } from "@/lib/validation/upload"
 import { apiFetch } from "@/components/ui/api-fetch"
@@ -60,8 +60,15 @@ export function PhotoUpload({ jobId, taskId, attachments, canUpload }: { jobId: 
           {attachments.map((a) => (
             <li key={a.id}>
               <a href={a.url} target="_blank" rel="noreferrer" className="block" data-testid="attachment">
-                {a.thumbnailUrl ? (
-                  // NOTE: no thumbnail is made on the server; the browser scales the photo (HEIC shows only where the browser reads it).
+                {a.contentType === "image/heic" ? (
+                  // The server's image library has no HEIC (HEVC) decoder, so there is no thumbnail; the link opens the photo.
+                  <span className="flex size-20 flex-col items-center justify-center gap-1 rounded-lg border border-graphite-200 p-1 text-center text-xs dark:border-asphalt-700">
+                    <ImageOff aria-hidden className="size-6" />
+                    <span>HEIC photo (no preview)</span>
+                    <span className="sr-only">{a.filename}</span>
+                  </span>
+                ) : a.thumbnailUrl ? (
+                  // A 320 px JPEG made at upload.
                   // eslint-disable-next-line @next/next/no-img-element
                   <img src={a.thumbnailUrl} alt={a.filename} width={80} height={80} loading="lazy" className="size-20 rounded-lg border border-graphite-200 object-cover dark:border-asphalt-700" />
                 ) : (

@@ -25,10 +25,10 @@ export function findAttachmentInShop(db: Db, id: string, shopId: string) {
   return db.selectFrom("attachment").selectAll().where("id", "=", id).where("shop_id", "=", shopId).executeTakeFirst()
 }
 
-export function markAttachmentComplete(db: Db, id: string, shopId: string, size: number) {
+export function markAttachmentComplete(db: Db, id: string, shopId: string, size: number, thumbnailKey: string | null = null) {
   return db
     .updateTable("attachment")
-    .set({ status: "complete", size, completed_at: new Date() })
+    .set({ status: "complete", size, thumbnail_key: thumbnailKey, completed_at: new Date() })
     .where("id", "=", id)
     .where("shop_id", "=", shopId)
     .returningAll()
@@ -48,4 +48,17 @@ export function listCompleteAttachmentsForJob(db: Db, jobId: string, shopId: str
     .where("status", "=", "complete")
     .orderBy("created_at")
     .execute()
+}
+
+/** Thumbnail keys of the given attachments of the shop, by attachment id (those without one are left out). */
+export async function findThumbnailKeys(db: Db, ids: readonly string[], shopId: string): Promise<Map<string, string>> {
+  if (!ids.length) return new Map()
+  const rows = await db
+    .selectFrom("attachment")
+    .select(["id", "thumbnail_key"])
+    .where("id", "in", ids)
+    .where("shop_id", "=", shopId)
+    .where("thumbnail_key", "is not", null)
+    .execute()
+  return new Map(rows.map((r) => [r.id, r.thumbnail_key!]))
 }

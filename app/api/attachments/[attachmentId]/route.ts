@@ -1,20 +1,44 @@
 import { z } from "zod"
 import { requireRole } from "@/app/_server/auth"
-import { parseParams, route, uuidParam } from "@/app/_server/route"
-import { presignGet } from "@/app/_server/storage"
+import { parseParams, parseQuery, route, uuidParam } from "@/app/_server/route"
+import { getObjectBytes, presignGet } from "@/app/_server/storage"
 import { getDb } from "@/db/client"
 import { findAttachmentInShop } from "@/db/queries/attachments"
 import { isCoDriverOnJob } from "@/db/queries/jobs"
 import { notFound } from "@/lib/errors"
+import { THUMBNAIL_CONTENT_TYPE } from "@/lib/thumbnail"
 
-// `?variant=thumbnail` serves the photo itself: thumbnails are scaled by the browser (no image library).
-export const GET = route<{ attachmentId: string }>(async (_req, { params }) => {
+const querySchema = z.object({ variant: z.enum(["thumbnail"], "must be thumbnail").optional() })
+
+/**
+ * The file itself: a redirect to a short-lived presigned GET. `?variant=thumbnail` answers the stored JPEG thumbnail
+ * from here (a few tens of kB, cacheable at this stable address); a file without one (a PDF, a HEIC photo the image
+ * library could not open, an upload from before thumbnails) falls back to the file itself.
+ */
+export const GET = route<{ attachmentId: string }>(async (req, { params }) => {
   const { user } = await requireRole()
   const { attachmentId } = await parseParams(params, z.object({ attachmentId: uuidParam }))
+  const { variant } = parseQuery(req, querySchema)
   const db = getDb()
   const a = await findAttachmentInShop(db, attachmentId, user.shopId)
   if (!a || a.status !== "complete") notFound("That file")
   if (user.role === "co_driver" && !(await isCoDriverOnJob(db, a.job_id, user.shopId, user.id))) notFound("That file")
+  if (variant === "thumbnail" && a.thumbnail_key) {
+    const bytes = await getObjectBytes(a.thumbnail_key).catch((error: unknown) => {
+      console.error("[straightaway] thumbnail of %s could not be read; sending the file itself", a.id, error)
+      return null
+    })
+    if (bytes) {
+      return new Response(bytes as BodyInit, {
+        headers: {
+          "content-type": THUMBNAIL_CONTENT_TYPE,
+          "content-length": String(bytes.byteLength),
+          // Private: the thumbnail is shop data. An attachment's thumbnail never changes once made.
+          "cache-control": "private, max-age=86400",
+        },
+      })
+    }
+  }
   const url = await presignGet(a.object_key, { filename: a.filename, contentType: a.content_type })
   return new Response(null, { status: 302, headers: { location: url, "cache-control": "private, no-store" } })
 })
