@@ -51,14 +51,20 @@ export async function removeObject(key: string) {
   await testS3().send(new DeleteObjectCommand({ Bucket: process.env.S3_BUCKET ?? "straightaway", Key: key }))
 }
 
-/** A 1x1 PNG (a valid file: signature, IHDR, IDAT, IEND). */
+/** A 1x1 PNG (a valid file: signature, IHDR, IDAT, IEND, each chunk's CRC right, so it decodes). */
 export const TINY_PNG = Buffer.from(
-  "89504e470d0a1a0a0000000d4948445200000001000000010806000000" + "1f15c4890000000d49444154789c6360f8cf00000301010018dd8db40000000049454e44ae426082",
+  "89504e470d0a1a0a0000000d49484452000000010000000108060000001f15c489" + "0000000d4944415478da6364f8cf500f00038601805a347d6b0000000049454e44ae426082",
   "hex",
 )
 
-/** The start of a JPEG (SOI + a JFIF APP0 segment); enough for the type check. */
-export const JPEG_START = Buffer.from("ffd8ffe000104a46494600010100000100010000ffd9", "hex")
+/** A whole 2x2 baseline JPEG (268 bytes): it starts FF D8 FF for the type check and decodes for the thumbnail. */
+export const JPEG_START = Buffer.from(
+  "ffd8ffdb004300100b0c0e0c0a100e0d0e1211101318281a181616183123251d283a333d3c3933383740485c4e404457453738506d51575f626768673e4d71797064785c656763" +
+    "ffdb0043011112121815182f1a1a2f634238426363636363636363636363636363636363636363636363636363636363636363636363636363636363636363636363636363" +
+    "ffc00011080002000203012200021101031101ffc4001500010100000000000000000000000000000003ffc40014100100000000000000000000000000000000" +
+    "ffc40014010100000000000000000000000000000005ffc40014110100000000000000000000000000000000ffda000c03010002110311003f00a0018b3fffd9",
+  "hex",
+)
 
 export async function putToPresignedUrl(url: string, contentType: string, bytes: Uint8Array) {
   const res = await fetch(url, { method: "PUT", headers: { "content-type": contentType }, body: bytes as BodyInit })
