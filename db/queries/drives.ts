@@ -11,12 +11,6 @@ export async function findDriveInShop(db: Db, driveId: string, shopId: string): 
   return db.selectFrom("drive").selectAll().where("id", "=", driveId).where("shop_id", "=", shopId).executeTakeFirst()
 }
 
-/** Whether a drive id exists in any shop: only to refuse reusing it, never to read another shop's row. */
-export async function driveIdTaken(db: Db, driveId: string): Promise<boolean> {
-  const row = await db.selectFrom("drive").select("id").where("id", "=", driveId).executeTakeFirst()
-  return row !== undefined
-}
-
 export interface NewDriveValues {
   id: string
   shopId: string

@@ -2,7 +2,8 @@ import { randomUUID } from "node:crypto"
 import { requireRole } from "@/app/_server/auth"
 import { parseJson, parseQuery, route } from "@/app/_server/route"
 import { getDb } from "@/db/client"
-import { driveIdTaken, findDriveInShop, insertDrive, listDrives, setJobStatus } from "@/db/queries/drives"
+import { findDriveInShop, insertDrive, listDrives, setJobStatus } from "@/db/queries/drives"
+import type { Drive } from "@/db/types"
 import { canSeeDrive } from "@/lib/access/drive"
 import { AppError } from "@/lib/errors"
 import { createDriveSchema, listDrivesQuery, parseDriveCursor } from "@/lib/validation/drive"
@@ -38,20 +39,25 @@ export const POST = route(async (req) => {
   const input = await parseJson(req, createDriveSchema)
   const db = getDb()
   const id = input.id ?? randomUUID()
-  const existing = await findDriveInShop(db, id, user.shopId)
-  if (existing) {
-    // The same client id again (a retried start): the drive as it is, not a second one.
-    if (!canSeeDrive(user, accessFacts(existing))) throw new AppError("conflict", "That drive id is taken; start with a new one.")
-    return Response.json({ drive: driveJson(existing) }, { status: 200 })
+  // The same client id again (a retried start, perhaps still in flight): the drive as it is, not a second one.
+  const replay = (drive: Drive) => {
+    if (!canSeeDrive(user, accessFacts(drive))) throw taken()
+    return Response.json({ drive: driveJson(drive) }, { status: 200 })
   }
-  if (await driveIdTaken(db, id)) throw new AppError("conflict", "That drive id is taken; start with a new one.")
+  const existing = await findDriveInShop(db, id, user.shopId)
+  if (existing) return replay(existing)
   const values = await resolveNewDrive(db, user, id, input)
   const made = await db.transaction().execute(async (trx) => {
     const inserted = await insertDrive(trx, values)
     if (inserted && values.jobId) await setJobStatus(trx, values.jobId, user.shopId, "drive")
     return inserted
   })
+  // Not inserted: a concurrent start with this id won (a replay), or another shop uses the id (a 409).
   const drive = await findDriveInShop(db, id, user.shopId)
-  if (!drive) throw new AppError("conflict", "That drive id is taken; start with a new one.")
-  return Response.json({ drive: driveJson(drive) }, { status: made ? 201 : 200 })
+  if (!drive) throw taken()
+  return made ? Response.json({ drive: driveJson(drive) }, { status: 201 }) : replay(drive)
 })
+
+function taken() {
+  return new AppError("conflict", "That drive id is taken; start with a new one.")
+}
