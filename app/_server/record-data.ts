@@ -1,6 +1,5 @@
 import "server-only"
 import type { Db } from "@/db/client"
-import { findThumbnailKeys } from "@/db/queries/attachments"
 import { findChecklistForTask } from "@/db/queries/checklists"
 import { findDriveRecordHead, findLatestReview, findSharedDriveShop, listMarksWithLoggers, listRecordPhotos } from "@/db/queries/reviews"
 import { env } from "@/lib/env"
@@ -38,12 +37,11 @@ export async function loadRecordData(
   ])
   const profile = resolveProfile(head.profile as Profile)
   // Thumbnails rather than the full photos, so a record with a dozen phone photos stays a small PDF.
-  const thumbnailKeys = await findThumbnailKeys(db, photoRows.map((p) => p.id), shopId)
   const photos = (
     await Promise.all(
       photoRows.map(async (p): Promise<RecordPhoto | null> => {
         try {
-          return { filename: p.filename, ...(await recordPhotoBytes({ ...p, thumbnail_key: thumbnailKeys.get(p.id) ?? null })) }
+          return { filename: p.filename, ...(await recordPhotoBytes(p)) }
         } catch (error) {
           console.error("[straightaway] photo %s for the drive record could not be read", p.id, error)
           return null

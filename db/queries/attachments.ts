@@ -49,16 +49,3 @@ export function listCompleteAttachmentsForJob(db: Db, jobId: string, shopId: str
     .orderBy("created_at")
     .execute()
 }
-
-/** Thumbnail keys of the given attachments of the shop, by attachment id (those without one are left out). */
-export async function findThumbnailKeys(db: Db, ids: readonly string[], shopId: string): Promise<Map<string, string>> {
-  if (!ids.length) return new Map()
-  const rows = await db
-    .selectFrom("attachment")
-    .select(["id", "thumbnail_key"])
-    .where("id", "in", ids)
-    .where("shop_id", "=", shopId)
-    .where("thumbnail_key", "is not", null)
-    .execute()
-  return new Map(rows.map((r) => [r.id, r.thumbnail_key!]))
-}

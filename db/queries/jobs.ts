@@ -4,7 +4,6 @@ import { assessChecklist } from "@/lib/checklist"
 import { validationFailed } from "@/lib/errors"
 import { checklistSchema, type ChecklistData } from "@/lib/validation/checklist"
 import { isTimestampText, unstorableTextProblem, UUID_TEXT } from "@/lib/validation/storable"
-import { PHOTO_TYPES } from "@/lib/validation/upload"
 import { listCompleteAttachmentsForJob } from "./attachments"
 import { listChecklistsForTasks } from "./checklists"
 import { findCurrentProfileVersionById, findDefaultProfileForSensor } from "./profiles"
@@ -295,7 +294,15 @@ export function checklistJson(row: ChecklistRow, task: { method: string; reason:
   }
 }
 
-export function attachmentJson(a: { id: string; task_id: string | null; filename: string; content_type: string; size: number; created_at: Date }) {
+export function attachmentJson(a: {
+  id: string
+  task_id: string | null
+  filename: string
+  content_type: string
+  size: number
+  thumbnail_key: string | null
+  created_at: Date
+}) {
   const url = `/api/attachments/${a.id}`
   return {
     id: a.id,
@@ -304,8 +311,8 @@ export function attachmentJson(a: { id: string; task_id: string | null; filename
     contentType: a.content_type,
     size: a.size,
     url,
-    // NOTE: no separate thumbnail is made; the thumbnail URL serves the photo itself for the browser to scale.
-    thumbnailUrl: PHOTO_TYPES.includes(a.content_type) ? `${url}?variant=thumbnail` : null,
+    // made at upload for JPEG, PNG and WebP; HEIC (which the image library cannot decode) and PDFs have none
+    thumbnailUrl: a.thumbnail_key ? `${url}?variant=thumbnail` : null,
     createdAt: a.created_at,
   }
 }

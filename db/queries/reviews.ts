@@ -156,11 +156,12 @@ export async function listMarksWithLoggers(db: Db, driveId: string, shopId: stri
 export async function listRecordPhotos(db: Db, jobId: string, taskId: string | null, shopId: string) {
   let q = db
     .selectFrom("attachment")
-    .select(["id", "filename", "content_type", "object_key", "size", "task_id"])
+    .select(["id", "filename", "content_type", "object_key", "thumbnail_key", "size", "task_id"])
     .where("job_id", "=", jobId)
     .where("shop_id", "=", shopId)
     .where("status", "=", "complete")
-    .where("content_type", "in", ["image/jpeg", "image/png"])
+    // the record embeds the JPEG thumbnails made at upload, so every photo type that gets one can go in
+    .where("content_type", "in", ["image/jpeg", "image/png", "image/webp"])
   q = taskId ? q.where((eb) => eb.or([eb("task_id", "=", taskId), eb("task_id", "is", null)])) : q
   return q.orderBy("created_at").limit(12).execute()
 }
