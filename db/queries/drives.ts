@@ -64,9 +64,13 @@ export async function listDrives(db: Db, shopId: string, filter: DriveListFilter
     .leftJoin("app_user as driver", (j) => j.onRef("driver.id", "=", "drive.driver_id").on("driver.shop_id", "=", shopId))
     .leftJoin("app_user as co", (j) => j.onRef("co.id", "=", "drive.co_driver_id").on("co.shop_id", "=", shopId))
     .leftJoin("job_task as task", (j) => j.onRef("task.id", "=", "drive.task_id").on("task.shop_id", "=", shopId))
+    .leftJoin("vehicle", (j) => j.onRef("vehicle.id", "=", "job.vehicle_id").on("vehicle.shop_id", "=", shopId))
     .selectAll("drive")
     .select([
       "job.ro_number",
+      "vehicle.year as vehicle_year",
+      "vehicle.make as vehicle_make",
+      "vehicle.model as vehicle_model",
       "driver.name as driver_name",
       "co.name as co_driver_name",
       "task.sensor as task_sensor",

@@ -83,7 +83,11 @@ export default async function DrivesPage({ searchParams }: { searchParams: Promi
                     <p className="truncate font-semibold">
                       {d.ro_number ? roLabel(d.ro_number) : "Unplanned drive"}
                       {d.task_sensor ? ` · ${SENSOR_LABEL[d.task_sensor] ?? d.task_sensor}` : ""}
-                      {d.vehicle_description ? ` · ${d.vehicle_description}` : ""}
+                      {d.vehicle_make || d.vehicle_model
+                        ? ` · ${[d.vehicle_year, d.vehicle_make, d.vehicle_model].filter(Boolean).join(" ")}`
+                        : d.vehicle_description
+                          ? ` · ${d.vehicle_description}`
+                          : ""}
                     </p>
                     <p className="truncate text-sm text-graphite-600 dark:text-graphite-300">
                       {when(d.created_at)} · {d.driver_name ?? "Unknown driver"}

@@ -28,6 +28,7 @@ export const GET = route(async (req) => {
         driverName: r.driver_name,
         coDriverName: r.co_driver_name,
         sensor: r.task_sensor,
+        vehicle: r.vehicle_make || r.vehicle_model ? { year: r.vehicle_year, make: r.vehicle_make, model: r.vehicle_model } : null,
       }),
     ),
     nextCursor,
@@ -36,7 +37,8 @@ export const GET = route(async (req) => {
 
 export const POST = route(async (req) => {
   const { user } = await requireRole("technician", "shop_lead")
-  const input = await parseJson(req, createDriveSchema)
+  // every field is optional (api.md): no body at all starts an unplanned drive
+  const input = await parseJson(req, createDriveSchema, { emptyAs: {} })
   const db = getDb()
   const id = input.id ?? randomUUID()
   // The same client id again (a retried start, perhaps still in flight): the drive as it is, not a second one.
