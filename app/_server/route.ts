@@ -56,17 +56,25 @@ function assertSameOrigin(req: Request) {
 const MAX_JSON_BYTES = 8 * 1024 * 1024
 
 /** Reads a JSON body and validates it; malformed JSON and schema failures are 400s naming the fields. */
-export async function parseJson<S extends z.ZodType>(req: Request, schema: S, maxBytes = MAX_JSON_BYTES): Promise<z.infer<S>> {
-  const body = await readJson(req, maxBytes)
+export async function parseJson<S extends z.ZodType>(
+  req: Request,
+  schema: S,
+  { maxBytes = MAX_JSON_BYTES, emptyAs }: { maxBytes?: number; emptyAs?: unknown } = {},
+): Promise<z.infer<S>> {
+  const body = await readJson(req, maxBytes, emptyAs)
   return parseWith(schema, body)
 }
 
-export async function readJson(req: Request, maxBytes = MAX_JSON_BYTES): Promise<unknown> {
+/** `emptyAs`: what an empty body means, for routes whose every field is optional; without it an empty body is a 400. */
+export async function readJson(req: Request, maxBytes = MAX_JSON_BYTES, emptyAs?: unknown): Promise<unknown> {
   const declared = Number(req.headers.get("content-length") ?? 0)
   if (declared > maxBytes) throw new AppError("too_large", `The body is over ${Math.round(maxBytes / 1024 / 1024)} MB.`)
   const text = await req.text()
   if (Buffer.byteLength(text) > maxBytes) throw new AppError("too_large", `The body is over ${Math.round(maxBytes / 1024 / 1024)} MB.`)
-  if (!text.trim()) throw new AppError("invalid_request", "The request body is empty; JSON was expected.")
+  if (!text.trim()) {
+    if (emptyAs !== undefined) return emptyAs
+    throw new AppError("invalid_request", "The request body is empty; JSON was expected.")
+  }
   let body: unknown
   try {
     body = JSON.parse(text)

@@ -30,6 +30,26 @@ describe("POST /api/drives and GET /api/drives", () => {
     expect(rows).toHaveLength(1)
   })
 
+  it("starts an unplanned drive from a call with no body at all (every field is optional)", async () => {
+    const res = await tech.request("POST", "/api/drives")
+    expect(res.status).toBe(201)
+    expect(res.body.drive).toMatchObject({ status: "recording", jobId: null, taskId: null, driverId: shop.tech.id })
+  })
+
+  it("lists a job's vehicle with its drives", async () => {
+    const job = await tech.post("/api/jobs", {
+      roNumber: `RO-${randomUUID().slice(0, 6)}`,
+      customer: { name: "Invented Customer" },
+      vehicle: { vin: "1J9RP1A36A1644345", year: 2010, make: "Invented", model: "Larkin" },
+      tasks: [{ sensor: "forward_radar", method: "dynamic", reason: "replaced" }],
+    })
+    expect(job.status).toBe(201)
+    const id = randomUUID()
+    expect((await tech.post("/api/drives", { id, jobId: job.body.job.id, taskId: job.body.job.tasks[0].id })).status).toBe(201)
+    const listed = (await tech.get("/api/drives")).body.drives.find((d: { id: string }) => d.id === id)
+    expect(listed.vehicle).toEqual({ year: 2010, make: "Invented", model: "Larkin" })
+  })
+
   it("refuses another shop's drive id without showing that drive", async () => {
     const drive = await startDrive(tech, { vehicleDescription: "Secret description 4471" })
     const other = await createTestShop("Other")
