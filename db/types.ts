@@ -143,6 +143,8 @@ export interface DriveTable {
   source: Generated<"recorder" | "import">
   verdict: VerdictValue | null
   review_status: "approved" | "redo" | null
+  /** Share links are signed with this; withdrawing a drive's links moves it on by one. */
+  share_epoch: Generated<number>
   created_at: GeneratedTimestamp
   finished_at: Timestamp | null
 }

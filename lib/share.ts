@@ -1,7 +1,8 @@
 import { createHmac, timingSafeEqual } from "node:crypto"
 
 // A share link token: "<driveId>.<expiresAtSeconds>.<signature>", the signature being HMAC-SHA256 (RFC 2104,
-// FIPS 180-4) keyed with the app secret over "share:<driveId>.<expiresAtSeconds>", base64url without padding.
+// FIPS 180-4) keyed with the app secret over "share:<driveId>.<expiresAtSeconds>", base64url without padding;
+// once a drive's links have been withdrawn (its share epoch n > 0), over "share:<driveId>.<expiresAtSeconds>.<n>".
 // The token holds no data beyond the drive id and expiry; the drive is read fresh on every visit.
 
 export const SHARE_DEFAULT_DAYS = 14
@@ -9,7 +10,7 @@ export const SHARE_MAX_DAYS = 90
 
 export type ShareCheck =
   | { ok: true; driveId: string; expiresAtMs: number }
-  | { ok: false; reason: "malformed" | "bad_signature" | "expired" }
+  | { ok: false; reason: "malformed" | "bad_signature" | "expired" | "withdrawn" }
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i
 
@@ -17,20 +18,30 @@ export function hmacSha256Base64url(secret: string | Uint8Array, message: string
   return createHmac("sha256", secret).update(message, "utf8").digest("base64url")
 }
 
-function payload(driveId: string, expiresAtSeconds: number) {
-  return `share:${driveId.toLowerCase()}.${expiresAtSeconds}`
+function payload(driveId: string, expiresAtSeconds: number, epoch: number) {
+  return `share:${driveId.toLowerCase()}.${expiresAtSeconds}${epoch > 0 ? `.${epoch}` : ""}`
 }
 
-export function signShareToken(secret: string, driveId: string, expiresAtMs: number): string {
+/** The drive id a well-formed token names (not yet trusted), to look up the drive's share epoch. */
+export function shareTokenDriveId(token: string): string | null {
+  if (typeof token !== "string" || token.length > 200) return null
+  const id = token.split(".")[0] ?? ""
+  return UUID.test(id) ? id.toLowerCase() : null
+}
+
+export function signShareToken(secret: string, driveId: string, expiresAtMs: number, epoch = 0): string {
   if (!UUID.test(driveId)) throw new RangeError("driveId must be a UUID")
   if (!Number.isFinite(expiresAtMs) || expiresAtMs <= 0) throw new RangeError("expiresAtMs must be a time")
   const expiresAtSeconds = Math.floor(expiresAtMs / 1000)
   const id = driveId.toLowerCase()
-  return `${id}.${expiresAtSeconds}.${hmacSha256Base64url(secret, payload(id, expiresAtSeconds))}`
+  return `${id}.${expiresAtSeconds}.${hmacSha256Base64url(secret, payload(id, expiresAtSeconds, epoch))}`
 }
 
-/** Checks the signature before the expiry, so a forged token never learns whether its date would pass. */
-export function verifyShareToken(secret: string, token: string, nowMs: number): ShareCheck {
+/**
+ * Checks the signature before the expiry, so a forged token never learns whether its date would pass.
+ * `epoch` is the drive's share epoch: a token signed under an earlier one was withdrawn by the shop.
+ */
+export function verifyShareToken(secret: string, token: string, nowMs: number, epoch = 0): ShareCheck {
   if (typeof token !== "string" || token.length > 200) return { ok: false, reason: "malformed" }
   const parts = token.split(".")
   if (parts.length !== 3) return { ok: false, reason: "malformed" }
@@ -39,9 +50,15 @@ export function verifyShareToken(secret: string, token: string, nowMs: number): 
     return { ok: false, reason: "malformed" }
   }
   const expiresAtSeconds = Number(expires)
-  const expected = Buffer.from(hmacSha256Base64url(secret, payload(driveId, expiresAtSeconds)))
   const given = Buffer.from(signature)
-  if (expected.length !== given.length || !timingSafeEqual(expected, given)) return { ok: false, reason: "bad_signature" }
+  const signedUnder = (e: number) => {
+    const expected = Buffer.from(hmacSha256Base64url(secret, payload(driveId, expiresAtSeconds, e)))
+    return expected.length === given.length && timingSafeEqual(expected, given)
+  }
+  if (!signedUnder(epoch)) {
+    for (let e = epoch - 1; e >= 0; e--) if (signedUnder(e)) return { ok: false, reason: "withdrawn" }
+    return { ok: false, reason: "bad_signature" }
+  }
   const expiresAtMs = expiresAtSeconds * 1000
   if (nowMs >= expiresAtMs) return { ok: false, reason: "expired" }
   return { ok: true, driveId: driveId.toLowerCase(), expiresAtMs }

@@ -3,7 +3,7 @@ import type { Db } from "@/db/client"
 import { findChecklistForTask } from "@/db/queries/checklists"
 import { findDriveRecordHead, findLatestReview, findSharedDriveShop, listMarksWithLoggers, listRecordPhotos } from "@/db/queries/reviews"
 import { env } from "@/lib/env"
-import { verifyShareToken } from "@/lib/share"
+import { shareTokenDriveId, verifyShareToken } from "@/lib/share"
 import { listSamples } from "@/db/queries/samples"
 import { findScore } from "@/db/queries/scores"
 import type { ShopSettings } from "@/db/types"
@@ -97,13 +97,18 @@ export function recordFilename(head: Pick<RecordHead, "id" | "ro_number">) {
 
 export type SharedRecord =
   | { ok: true; data: RecordData; head: RecordHead; expiresAtMs: number }
-  | { ok: false; reason: "malformed" | "bad_signature" | "expired" | "gone" | "not_ready" }
+  | { ok: false; reason: "malformed" | "bad_signature" | "expired" | "withdrawn" | "gone" | "not_ready" }
 
-/** A share link's record: the signature and expiry are checked before any row is read. */
+/**
+ * A share link's record. Only the drive's share epoch is read before the signature and expiry are checked
+ * (a token signed under an earlier epoch was withdrawn); nothing of the record is read for a bad token.
+ */
 export async function loadSharedRecord(db: Db, token: string, opts: { photos?: boolean } = {}): Promise<SharedRecord> {
-  const check = verifyShareToken(env().APP_SECRET, token, Date.now())
+  const namedId = shareTokenDriveId(token)
+  const named = namedId ? await findSharedDriveShop(db, namedId) : undefined
+  const check = verifyShareToken(env().APP_SECRET, token, Date.now(), named?.share_epoch ?? 0)
   if (!check.ok) return { ok: false, reason: check.reason }
-  const drive = await findSharedDriveShop(db, check.driveId)
+  const drive = named
   if (!drive) return { ok: false, reason: "gone" }
   const loaded = await loadRecordData(db, drive.id, drive.shop_id, opts)
   if (!loaded) return { ok: false, reason: "gone" }

@@ -171,5 +171,17 @@ export async function listRecordPhotos(db: Db, jobId: string, taskId: string | n
  * is what grants access, so this is the one lookup by drive id alone. Every read after it filters by shop.
  */
 export async function findSharedDriveShop(db: Db, driveId: string) {
-  return db.selectFrom("drive").select(["id", "shop_id", "status"]).where("id", "=", driveId).executeTakeFirst()
+  return db.selectFrom("drive").select(["id", "shop_id", "status", "share_epoch"]).where("id", "=", driveId).executeTakeFirst()
+}
+
+/** Withdraws every share link of the drive made so far; returns the new epoch, or undefined when not in the shop. */
+export async function withdrawShareLinks(db: Db, driveId: string, shopId: string) {
+  const row = await db
+    .updateTable("drive")
+    .set((eb) => ({ share_epoch: eb("share_epoch", "+", 1) }))
+    .where("id", "=", driveId)
+    .where("shop_id", "=", shopId)
+    .returning("share_epoch")
+    .executeTakeFirst()
+  return row?.share_epoch
 }

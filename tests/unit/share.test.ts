@@ -72,4 +72,22 @@ describe("share tokens", () => {
   it("will not sign a drive id that is not a UUID", () => {
     expect(() => signShareToken(SECRET, "../etc", NOW)).toThrow(RangeError)
   })
+
+  it("refuses a token signed under an earlier share epoch as withdrawn, and accepts one of the current epoch", () => {
+    const old = signShareToken(SECRET, DRIVE, NOW + DAY_MS)
+    const current = signShareToken(SECRET, DRIVE, NOW + DAY_MS, 2)
+    expect(verifyShareToken(SECRET, old, NOW, 2)).toEqual({ ok: false, reason: "withdrawn" })
+    expect(verifyShareToken(SECRET, current, NOW, 2).ok).toBe(true)
+    // a later epoch's token is not valid under an earlier one (withdrawal is never undone)
+    expect(verifyShareToken(SECRET, current, NOW, 1)).toEqual({ ok: false, reason: "bad_signature" })
+    // a forged signature stays a forgery whatever the epoch
+    expect(verifyShareToken(SECRET, `${old.slice(0, -1)}${old.at(-1) === "A" ? "B" : "A"}`, NOW, 2).ok).toBe(false)
+  })
+
+  it("signs epoch n > 0 over the payload with the epoch appended", () => {
+    const token = signShareToken(SECRET, DRIVE, NOW + DAY_MS, 3)
+    const [id, exp, sig] = token.split(".")
+    expect(sig).toBe(createHmac("sha256", SECRET).update(`share:${id}.${exp}.3`).digest("base64url"))
+  })
 })
+

@@ -13,6 +13,7 @@ export const dynamic = "force-dynamic"
 export const metadata: Metadata = { title: "Drive record", robots: { index: false, follow: false }, referrer: "no-referrer" }
 
 const PROBLEM = {
+  withdrawn: { title: "This link was withdrawn", text: "The shop has withdrawn this link. Ask the shop for a new one." },
   expired: { title: "This link has expired", text: "Share links stop working after a while. Ask the shop for a new link." },
   malformed: { title: "This link is not valid", text: "The link is incomplete or was changed. Check that you copied all of it, or ask the shop for a new one." },
   bad_signature: { title: "This link is not valid", text: "The link is incomplete or was changed. Check that you copied all of it, or ask the shop for a new one." },

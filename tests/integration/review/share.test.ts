@@ -66,4 +66,28 @@ describe("share links", () => {
     expect((await (await signedIn(shop.lead)).post(`/api/drives/${theirs.id}/share`, {})).status).toBe(404)
     expect((await (await signedIn(shop.lead)).post(`/api/drives/${drive.id}/share`, { expiresInDays: 0 })).status).toBe(400)
   })
+
+  it("withdraws every link made so far: they show a clear page and no data, and a new link works", async () => {
+    const shop = await createTestShop("ShareWithdraw")
+    const job = await insertJob(shop)
+    const drive = await insertScoredDrive(shop, { pattern: "met", seed: 406, job })
+    const lead = await signedIn(shop.lead)
+    const first = (await lead.post(`/api/drives/${drive.id}/share`, {})).body.token
+    const second = (await lead.post(`/api/drives/${drive.id}/share`, { expiresInDays: 30 })).body.token
+    expect((await (await signedIn(shop.tech)).delete(`/api/drives/${drive.id}/share`)).status).toBe(403)
+    expect((await lead.delete(`/api/drives/${drive.id}/share`)).status).toBe(204)
+    const anonymous = new ApiClient()
+    for (const token of [first, second]) {
+      const page = await anonymous.get(`/share/${token}`)
+      expect(page.text).toContain("This link was withdrawn")
+      expect(page.text).not.toContain(job.vin)
+      expect((await anonymous.get(`/share/${token}/record`)).status).toBe(404)
+    }
+    const fresh = (await lead.post(`/api/drives/${drive.id}/share`, {})).body.token
+    const page = await anonymous.get(`/share/${fresh}`)
+    expect(page.status).toBe(200)
+    expect(page.text).toContain(job.vin)
+    const theirs = await signedIn((await createTestShop("ShareWithdrawOther")).lead)
+    expect((await theirs.delete(`/api/drives/${drive.id}/share`)).status).toBe(404)
+  })
 })

@@ -9,7 +9,11 @@ export const GET = route<{ token: string }>(async (_req, ctx) => {
   const { token } = await ctx.params
   const shared = await loadSharedRecord(getDb(), token)
   if (!shared.ok) {
-    throw new AppError("not_found", shared.reason === "expired" ? "This link has expired; ask the shop for a new one." : "This link is not valid.")
+    throw new AppError("not_found", shared.reason === "expired"
+        ? "This link has expired; ask the shop for a new one."
+        : shared.reason === "withdrawn"
+          ? "The shop has withdrawn this link; ask the shop for a new one."
+          : "This link is not valid.")
   }
   const pdf = await buildDriveRecordPdf(shared.data)
   return new Response(Buffer.from(pdf), {

@@ -2,6 +2,7 @@ import { z } from "zod"
 import { requireRole } from "@/app/_server/auth"
 import { parseJson, parseParams, route, uuidParam } from "@/app/_server/route"
 import { getDb } from "@/db/client"
+import { withdrawShareLinks } from "@/db/queries/reviews"
 import { env } from "@/lib/env"
 import { AppError } from "@/lib/errors"
 import { SHARE_DEFAULT_DAYS, signShareToken } from "@/lib/share"
@@ -17,7 +18,17 @@ export const POST = route<{ driveId: string }>(async (req, ctx) => {
   const drive = await loadDriveFor(getDb(), driveId, user, "see")
   if (drive.status !== "finished") throw new AppError("conflict", "Share the record once the drive is finished.")
   const expiresAtMs = Date.now() + expiresInDays * 86_400_000
-  const token = signShareToken(env().APP_SECRET, drive.id, expiresAtMs)
+  const token = signShareToken(env().APP_SECRET, drive.id, expiresAtMs, drive.share_epoch)
   const url = `${env().APP_URL.replace(/\/$/, "")}/share/${token}`
   return Response.json({ url, token, expiresAt: new Date(Math.floor(expiresAtMs / 1000) * 1000).toISOString() }, { status: 201 })
+})
+
+/** Withdraws every link made so far for the drive (a link sent to the wrong person, say); new links work again. */
+export const DELETE = route<{ driveId: string }>(async (_req, ctx) => {
+  const { user } = await requireRole("shop_lead")
+  const { driveId } = await parseParams(ctx.params, params)
+  const db = getDb()
+  const drive = await loadDriveFor(db, driveId, user, "see")
+  await withdrawShareLinks(db, drive.id, user.shopId)
+  return new Response(null, { status: 204 })
 })
