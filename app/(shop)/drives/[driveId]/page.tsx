@@ -16,7 +16,7 @@ import { getDb } from "@/db/client"
 import { listRecordPhotos } from "@/db/queries/reviews"
 import { canSeeDrive } from "@/lib/access/drive"
 import { hasRole } from "@/lib/auth/roles"
-import { DECISION_WORD, describeVehicle, roLabel, METHOD_LABEL, REASON_LABEL, SENSOR_LABEL, thinTimeline } from "@/lib/record"
+import { DECISION_WORD, describeVehicle, roLabel, MARK_LABEL, METHOD_LABEL, REASON_LABEL, SENSOR_LABEL, thinTimeline } from "@/lib/record"
 
 export const metadata: Metadata = { title: "Drive" }
 export const dynamic = "force-dynamic"
@@ -63,7 +63,7 @@ export default async function DrivePage({ params }: { params: Promise<{ driveId:
   }
   const chartMarks: ChartMark[] = data.marks
     .filter((m) => m.kind !== "gap" && m.kind !== "note")
-    .map((m) => ({ min: Math.round(((m.t - t0) / 60_000) * 100) / 100, label: m.kind.replace("-", " ") }))
+    .map((m) => ({ min: Math.round(((m.t - t0) / 60_000) * 100) / 100, label: MARK_LABEL[m.kind] ?? m.kind, kind: m.kind }))
   const profile = data.score.profile
 
   return (
