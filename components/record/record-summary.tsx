@@ -7,7 +7,7 @@ import { formatConditionRequirement, formatConditionValue, formatDuration, forma
 
 
 /** The verdict with its reasons, the key figures and every condition with value and requirement. */
-export function RecordSummary({ score, className }: { score: Score; className?: string }) {
+export function RecordSummary({ score, meaning, className }: { score: Score; meaning?: string; className?: string }) {
   const verified = score.conditions.find((c) => c.key === "verified")
   const figures: Array<[string, string]> = [
     ["Qualifying before the clear", `${formatMinutes(score.qualifyingSecondsBeforeClear, (score.profile?.minQualifyingMinutes ?? 10) * 60)} min`],
@@ -29,6 +29,7 @@ export function RecordSummary({ score, className }: { score: Score; className?: 
             <span className="text-sm text-graphite-600 dark:text-graphite-300">Cleared {formatDuration(score.clearedAtSeconds)} into the drive</span>
           ) : null}
         </div>
+        {meaning ? <p className="font-medium">{meaning}</p> : null}
         {score.reasons.length ? (
           <ul className="list-disc space-y-1 pl-5" data-testid="verdict-reasons">
             {score.reasons.map((r) => (
