@@ -13,29 +13,45 @@ export function FinishScreen({ onNewDrive }: { onNewDrive: () => void }) {
   if (!meta || !score) return null
   return (
     <div className="space-y-4" data-testid="finish-screen">
-      <h1 className="text-2xl font-bold">Drive finished</h1>
-      <p className="text-graphite-300">{meta.label}</p>
-      <div className="flex items-center gap-3">
-        <VerdictBadge verdict={score.verdict} size="lg" />
-        <span className="text-sm text-graphite-300" data-testid="score-source">
-          {serverScore ? "Scored by the server" : "Scored on this phone; the server scores it when the network returns"}
-        </span>
+      <div>
+        <h1 className="text-2xl font-bold">Drive finished</h1>
+        <p className="text-graphite-300">{meta.label}</p>
       </div>
-      <ul className="list-disc space-y-1 pl-5" data-testid="verdict-reasons">
-        {score.reasons.length ? score.reasons.map((r) => <li key={r}>{r}</li>) : <li>Every condition of the profile was met.</li>}
-        {score.notes.map((n) => (
-          <li key={n} className="text-graphite-300">
-            {n}
-          </li>
-        ))}
-      </ul>
-      <p className="flex gap-2 rounded-xl border-2 border-signal-400 p-3">
-        <ShieldAlert aria-hidden className="size-5 shrink-0 text-signal-300" />
-        This score describes the drive. Whether the calibration is complete is what the vehicle itself reports, following
-        the maker&apos;s service information; the score never replaces that.
-      </p>
+      <section className="space-y-3 rounded-xl bg-asphalt-800 p-3" aria-labelledby="drive-score">
+        <h2 id="drive-score" className="text-sm font-semibold tracking-wide text-graphite-300 uppercase">
+          How the drive went (not the calibration result)
+        </h2>
+        <div className="flex flex-wrap items-center gap-x-3 gap-y-1">
+          <VerdictBadge verdict={score.verdict} size="lg" />
+          <span className="text-sm text-graphite-300" data-testid="score-source">
+            {serverScore ? "Scored by the server" : "Scored on this phone; the server scores it when the network returns"}
+          </span>
+        </div>
+        <ul className="list-disc space-y-1 pl-5" data-testid="verdict-reasons">
+          {score.reasons.length ? score.reasons.map((r) => <li key={r}>{r}</li>) : <li>Every condition the drive was held to was met.</li>}
+          {score.notes.map((n) => (
+            <li key={n} className="text-graphite-300">
+              {n}
+            </li>
+          ))}
+        </ul>
+      </section>
+      <section className="space-y-1 rounded-xl border-2 border-signal-400 p-3" aria-labelledby="final-word" data-testid="finish-caution">
+        <h2 id="final-word" className="flex items-center gap-2 text-lg font-bold">
+          <ShieldAlert aria-hidden className="size-5 shrink-0 text-signal-300" /> Now check the vehicle: it has the final word
+        </h2>
+        <p>
+          Its own learn status must read complete, with no driver-assist fault codes stored, and the function must work on
+          the road, as the maker&apos;s service information says. This score describes the drive; it never replaces that.
+        </p>
+      </section>
       <SyncStatus />
       <div className="grid grid-cols-2 gap-2">
+        {serverScore ? (
+          <a href={`/drives/${meta.id}`} className="col-span-2 flex min-h-14 items-center justify-center rounded-xl bg-asphalt-700 font-semibold">
+            Open this drive
+          </a>
+        ) : null}
         <a href="/drives" className="flex min-h-14 items-center justify-center rounded-xl bg-asphalt-700 font-semibold">
           All drives
         </a>
