@@ -75,16 +75,29 @@ export function NotificationBell({ className }: { className?: string }) {
         ) : null}
       </button>
       {open ? (
-        <div className="absolute right-0 z-30 mt-1 w-80 max-w-[calc(100vw-1.5rem)] rounded-xl border border-graphite-200 bg-white p-2 shadow-lg dark:border-asphalt-700 dark:bg-asphalt-800" role="dialog" aria-label="Notices">
+        // Phones: pinned under the header across the screen (anchored to the bell it would run off the left
+        // edge); wide screens: dropped from the bell.
+        <div
+          className="fixed inset-x-3 top-16 z-30 rounded-xl border border-graphite-200 bg-white p-2 shadow-lg sm:absolute sm:inset-x-auto sm:top-full sm:right-0 sm:mt-1 sm:w-96 dark:border-asphalt-700 dark:bg-asphalt-800"
+          role="dialog"
+          aria-label="Notices"
+          data-testid="notification-panel"
+        >
+          <p className="px-2 pt-1 pb-2 font-semibold">Notices</p>
           {notices.length === 0 ? (
-            <p className="p-3 text-sm text-graphite-600 dark:text-graphite-300">No notices.</p>
+            <p className="px-2 pb-2 text-sm text-graphite-600 dark:text-graphite-300">Nothing new. Drives waiting for review and records sent show up here.</p>
           ) : (
-            <ul className="max-h-96 divide-y divide-graphite-100 overflow-y-auto dark:divide-asphalt-700">
+            <ul className="max-h-[60dvh] divide-y divide-graphite-100 overflow-y-auto dark:divide-asphalt-700">
               {notices.map((n) => {
                 const body = (
                   <>
-                    <span className={cn("block text-sm", !n.readAt && "font-semibold")}>{n.message}</span>
-                    <span className="block text-xs text-graphite-500 dark:text-graphite-300">{new Date(n.createdAt).toLocaleString()}</span>
+                    <span className={cn("block text-sm", !n.readAt && "font-semibold")}>
+                      {!n.readAt ? (
+                        <span className="mr-1.5 inline-block rounded bg-signal-400 px-1 text-xs font-bold text-graphite-950">New</span>
+                      ) : null}
+                      {n.message}
+                    </span>
+                    <span className="block text-xs text-graphite-600 dark:text-graphite-300">{new Date(n.createdAt).toLocaleString()}</span>
                   </>
                 )
                 return (
