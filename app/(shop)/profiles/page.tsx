@@ -44,9 +44,12 @@ export default async function ProfilesPage() {
                 {p.archived ? " · archived" : ""}
               </p>
               <p className="tabular text-sm">
-                From {formatShown(toDisplay("speed", p.settings.minSpeedMph, u))} {unitLabel("speed", u)} · {p.settings.minQualifyingMinutes} min qualifying ·{" "}
-                {p.settings.minFollowingMinutes} min following at {formatShown(toDisplay("distance", p.settings.leadGapFt.min, u))}–
-                {formatShown(toDisplay("distance", p.settings.leadGapFt.max, u))} {unitLabel("distance", u)}
+                {formatShown(toDisplay("speed", p.settings.minSpeedMph, u))}
+                {p.settings.maxSpeedMph != null ? `–${formatShown(toDisplay("speed", p.settings.maxSpeedMph, u))}` : "+"} {unitLabel("speed", u)} ·{" "}
+                {p.settings.minQualifyingMinutes} min qualifying ·{" "}
+                {p.settings.minFollowingMinutes > 0
+                  ? `${p.settings.minFollowingMinutes} min following at ${formatShown(toDisplay("distance", p.settings.leadGapFt.min, u))}–${formatShown(toDisplay("distance", p.settings.leadGapFt.max, u))} ${unitLabel("distance", u)}`
+                  : "no lead vehicle needed"}
               </p>
             </Card>
           </li>

@@ -4,6 +4,7 @@ import { requirePageRole } from "@/app/_server/auth"
 import { ProfileEditor } from "@/components/profiles/profile-editor"
 import { formatShown, PROFILE_FIELDS, toDisplay, unitLabel } from "@/components/profiles/profile-fields"
 import { Card } from "@/components/ui/card"
+import { LocalTime } from "@/components/ui/local-time"
 import { PageHeader } from "@/components/ui/page-header"
 import { getDb } from "@/db/client"
 import { loadProfileDetail } from "@/db/queries/profiles"
@@ -22,7 +23,10 @@ export default async function ProfilePage({ params }: { params: Promise<{ profil
   const { profile, versions } = detail
   return (
     <div className="mx-auto max-w-3xl space-y-6">
-      <PageHeader title={profile.name} description={`Key ${profile.key} · version ${profile.version}`} />
+      <PageHeader
+        title={profile.name}
+        description={`Key ${profile.key} · version ${profile.version} · shown in ${units === "metric" ? "km/h and metres" : "mph and feet"}, as the shop prefers`}
+      />
       <ProfileEditor
         key={profile.versionId}
         profile={{ id: profile.id, name: profile.name, sensor: profile.sensor }}
@@ -44,7 +48,7 @@ export default async function ProfilePage({ params }: { params: Promise<{ profil
                     {v.version === profile.version ? " (current)" : ""}
                   </p>
                   <p className="text-sm text-graphite-600 dark:text-graphite-300">
-                    {new Date(v.createdAt).toLocaleString()}
+                    <LocalTime iso={new Date(v.createdAt).toISOString()} />
                     {v.createdBy ? ` · ${v.createdBy}` : ""}
                   </p>
                   {changed.length ? (
