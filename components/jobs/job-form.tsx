@@ -80,12 +80,14 @@ export function JobForm({ jobId, initial }: { jobId?: string; initial?: JobFormV
     <form onSubmit={form.handleSubmit(save)} className="space-y-4" noValidate>
       <Card className="space-y-3">
         <h2 className="text-lg font-bold">Repair order</h2>
-        <Field label="RO number" htmlFor="roNumber" error={err("roNumber")}>
-          <Input id="roNumber" autoComplete="off" {...form.register("roNumber")} />
-        </Field>
-        <Field label="Customer name" htmlFor="customer-name" error={err("customer.name")}>
-          <Input id="customer-name" autoComplete="off" {...form.register("customer.name")} />
-        </Field>
+        <div className="grid gap-3 sm:grid-cols-[minmax(0,1fr)_minmax(0,2fr)]">
+          <Field label="RO number" htmlFor="roNumber" error={err("roNumber")}>
+            <Input id="roNumber" autoComplete="off" {...form.register("roNumber")} />
+          </Field>
+          <Field label="Customer name" htmlFor="customer-name" error={err("customer.name")}>
+            <Input id="customer-name" autoComplete="off" {...form.register("customer.name")} />
+          </Field>
+        </div>
         <div className="grid gap-3 sm:grid-cols-2">
           <Field label="Customer e-mail" htmlFor="customer-email" error={err("customer.email")} hint="For the drive record.">
             <Input id="customer-email" type="email" inputMode="email" autoComplete="off" {...form.register("customer.email")} />

@@ -5,6 +5,7 @@ import { requirePageRole } from "@/app/_server/auth"
 import { listCapturedMail, mailFakeInUse, type CapturedMail } from "@/app/_server/mail"
 import { buttonVariants } from "@/components/ui/button"
 import { Card } from "@/components/ui/card"
+import { LocalTime } from "@/components/ui/local-time"
 import { PageHeader } from "@/components/ui/page-header"
 
 export const metadata: Metadata = { title: "Mail" }
@@ -45,20 +46,32 @@ export default async function MailPage() {
           <Inbox aria-hidden className="size-6" /> Nothing sent yet.
         </Card>
       ) : (
-        <ul className="space-y-2" data-testid="mail-list">
+        <ul className="max-w-3xl space-y-2" data-testid="mail-list">
           {messages.map((m, i) => (
             <li key={i}>
               <Card className="space-y-1 p-3">
                 <p className="font-semibold">{m.subject || "(no subject)"}</p>
-                <p className="text-sm text-graphite-600 dark:text-graphite-300">
+                <p className="text-sm break-words text-graphite-600 dark:text-graphite-300">
                   To {m.to.join(", ")}
-                  {m.receivedAt ? ` · ${new Date(m.receivedAt).toISOString().slice(0, 16).replace("T", " ")} UTC` : ""}
+                  {m.receivedAt ? (
+                    <>
+                      {" · "}
+                      <LocalTime iso={new Date(m.receivedAt).toISOString()} />
+                    </>
+                  ) : null}
                 </p>
-                {m.attachments.map((a) => (
-                  <p key={a.filename} className="inline-flex items-center gap-1 text-sm">
-                    <Paperclip aria-hidden className="size-4" /> {a.filename} · {a.contentType} · {Math.round(a.size / 1024)} KB
-                  </p>
-                ))}
+                {m.attachments.length ? (
+                  <ul className="space-y-0.5 text-sm">
+                    {m.attachments.map((a) => (
+                      <li key={a.filename} className="flex items-start gap-1.5">
+                        <Paperclip aria-hidden className="mt-0.5 size-4 shrink-0" />
+                        <span className="min-w-0 break-all">
+                          {a.filename} <span className="text-graphite-600 dark:text-graphite-300">· {Math.max(1, Math.round(a.size / 1024))} KB</span>
+                        </span>
+                      </li>
+                    ))}
+                  </ul>
+                ) : null}
               </Card>
             </li>
           ))}

@@ -1,4 +1,6 @@
+import { ArrowLeft } from "lucide-react"
 import type { Metadata } from "next"
+import Link from "next/link"
 import { notFound } from "next/navigation"
 import { requirePageRole } from "@/app/_server/auth"
 import { JobForm } from "@/components/jobs/job-form"
@@ -18,7 +20,10 @@ export default async function EditJobPage({ params }: { params: Promise<{ jobId:
   if (!job) notFound()
   return (
     <div className="mx-auto max-w-3xl">
-      <PageHeader title={`Edit ${roLabel(job.roNumber)}`} />
+      <Link href={`/jobs/${job.id}`} className="mb-2 inline-flex min-h-12 items-center gap-1 text-graphite-700 underline-offset-4 hover:underline dark:text-graphite-200">
+        <ArrowLeft aria-hidden className="size-4" /> Back to the job, without saving
+      </Link>
+      <PageHeader title={`Edit ${roLabel(job.roNumber)}`} description="Drives already recorded keep the conditions they were held to." />
       <JobForm
         jobId={job.id}
         initial={{
