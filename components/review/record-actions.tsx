@@ -1,6 +1,6 @@
 "use client"
 
-import { Copy, FileText, Link2, Mail } from "lucide-react"
+import { Copy, FileText, Link2, Link2Off, Mail } from "lucide-react"
 import { useState } from "react"
 import { ApiError, apiFetch } from "@/components/ui/api-fetch"
 import { Button, buttonVariants } from "@/components/ui/button"
@@ -14,7 +14,8 @@ export function RecordActions({ driveId, canShare, customerEmail }: { driveId: s
   const [share, setShare] = useState<{ url: string; expiresAt: string } | null>(null)
   const [shareProblem, setShareProblem] = useState<string | null>(null)
   const [copied, setCopied] = useState(false)
-  const [busy, setBusy] = useState<"mail" | "link" | null>(null)
+  const [busy, setBusy] = useState<"mail" | "link" | "withdraw" | null>(null)
+  const [withdrawn, setWithdrawn] = useState(false)
 
   async function email(e: React.FormEvent) {
     e.preventDefault()
@@ -39,6 +40,22 @@ export function RecordActions({ driveId, canShare, customerEmail }: { driveId: s
       setShare(await apiFetch<{ url: string; expiresAt: string }>(`/api/drives/${driveId}/share`, { method: "POST", body: {} }))
     } catch (error) {
       setShareProblem(error instanceof Error ? error.message : "No link made.")
+    } finally {
+      setBusy(null)
+    }
+  }
+
+  async function withdrawLinks() {
+    if (!window.confirm("Withdraw every share link made for this drive so far? Anyone who has one will no longer see the record.")) return
+    setShareProblem(null)
+    setBusy("withdraw")
+    try {
+      await apiFetch(`/api/drives/${driveId}/share`, { method: "DELETE" })
+      setShare(null)
+      setCopied(false)
+      setWithdrawn(true)
+    } catch (error) {
+      setShareProblem(error instanceof Error ? error.message : "The links were not withdrawn.")
     } finally {
       setBusy(null)
     }
@@ -82,6 +99,10 @@ export function RecordActions({ driveId, canShare, customerEmail }: { driveId: s
                 </p>
               </div>
             ) : null}
+            <Button variant="ghost" onClick={withdrawLinks} disabled={busy !== null} data-testid="withdraw-links">
+              <Link2Off aria-hidden className="size-5" /> {busy === "withdraw" ? "Withdrawing…" : "Withdraw all share links"}
+            </Button>
+            <FormDone className="text-sm">{withdrawn && !share ? "Every earlier link is withdrawn. A new link works again." : null}</FormDone>
             <FormProblem>{shareProblem}</FormProblem>
           </div>
         </>
