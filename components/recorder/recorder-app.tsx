@@ -68,6 +68,22 @@ export function RecorderApp({ coDriver = false }: { coDriver?: boolean }) {
     }
   }, [coDriver])
 
+  // A co-driver's own phone learns from the server when the driver has finished the drive.
+  const [driverFinished, setDriverFinished] = useState<string | null>(null)
+  useEffect(() => {
+    if (!coDriver || phase !== "drive" || !meta?.id || driverFinished) return
+    const check = () =>
+      void fetch(`/api/drives/${meta.id}`, { credentials: "same-origin" })
+        .then((r) => (r.ok ? r.json() : null))
+        .then((body) => {
+          if (body?.drive?.status === "finished") setDriverFinished(body.drive.finishedAt ?? new Date().toISOString())
+        })
+        .catch(() => {})
+    check()
+    const timer = setInterval(check, 20_000)
+    return () => clearInterval(timer)
+  }, [coDriver, phase, meta?.id, driverFinished])
+
   async function start(choice: StartChoice) {
     const id = crypto.randomUUID()
     window.history.replaceState(null, "", `/record?drive=${id}`)
@@ -91,8 +107,16 @@ export function RecorderApp({ coDriver = false }: { coDriver?: boolean }) {
     )
   }
   return (
-    <Suspense fallback={opening}>
-      <RecordingScreen />
-    </Suspense>
+    <>
+      {driverFinished ? (
+        <p role="status" className="mb-3 rounded-xl border-2 border-teal-400 bg-asphalt-800 p-3 font-semibold" data-testid="driver-finished">
+          The driver finished this drive at {new Date(driverFinished).toLocaleTimeString([], { hour: "2-digit", minute: "2-digit" })}. Marks
+          you log now still count until the shop lead reviews it.
+        </p>
+      ) : null}
+      <Suspense fallback={opening}>
+        <RecordingScreen />
+      </Suspense>
+    </>
   )
 }

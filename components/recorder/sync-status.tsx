@@ -9,6 +9,8 @@ function clock(ms: number | null) {
 /** Samples waiting, last synced, and any write the server refused (kept here until someone looks). */
 export function SyncStatus() {
   const sync = useRecorder((s) => s.sync)
+  // a co-driver's own phone sends marks only
+  const marksOnly = useRecorder((s) => s.meta?.role === "co-driver")
   const waiting = sync.waitingSamples + sync.waitingOther
   const Icon = sync.failed.length ? TriangleAlert : sync.state === "waiting" ? CloudOff : waiting ? CloudUpload : CircleCheck
   const word =
@@ -25,7 +27,7 @@ export function SyncStatus() {
         <Icon aria-hidden className="size-5 shrink-0" />
         <span className="font-semibold whitespace-nowrap">{word}</span>
         <span className="ml-auto tabular">
-          {sync.waitingSamples} samples waiting · last synced {clock(sync.lastSyncedAt)}
+          {marksOnly ? `${sync.waitingOther} marks waiting` : `${sync.waitingSamples} samples waiting`} · last synced {clock(sync.lastSyncedAt)}
         </span>
       </div>
       {sync.failed.map((f) => (
