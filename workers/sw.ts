@@ -26,23 +26,33 @@ const notRedirected = {
   cacheWillUpdate: async ({ response }: { response: Response }) => (response.ok && !response.redirected ? response : null),
 }
 
-// The recorder keeps its drive in `?drive=`: every recorder address is served by the one cached /record page,
-// which finds the drive in IndexedDB. So a reload in the middle of a drive with no network still opens it.
-const recorderPages = new NetworkFirst({
-  cacheName: PAGES,
-  networkTimeoutSeconds: 4,
-  // Next varies pages on its router headers; a page saved by one request must still answer a reload.
-  matchOptions: { ignoreSearch: true, ignoreVary: true },
-  plugins: [notRedirected, new ExpirationPlugin({ maxEntries: 60, maxAgeSeconds: 14 * 24 * 3600 })],
-})
+// The recorder keeps its drive in `?drive=`: every recorder address is served by the one saved /record page,
+// which finds the drive in IndexedDB, so a reload in the middle of a drive with no network still opens it.
+// Recorder pages live in a cache of their own that no expiry plugin manages: they are few, keyed by path, and
+// losing one would strand a technician mid-drive.
+const SHELL = "straightaway-shell"
+const NETWORK_WAIT_MS = 4000
+
+function shellKey(url: URL) {
+  return url.pathname.replace(/\/$/, "") || "/record"
+}
+
 registerRoute(
   ({ request, url }) => request.mode === "navigate" && url.origin === self.location.origin && url.pathname.startsWith("/record"),
-  async (options) => {
+  async ({ request, url }) => {
+    const cache = await caches.open(SHELL)
+    const key = shellKey(url)
+    // NOTE: a navigation Request cannot be re-made with an init (no AbortSignal), so a slow network loses a race.
+    const network = fetch(request).then(async (res) => {
+      if (res.ok && !res.redirected && res.type === "basic") await cache.put(key, res.clone())
+      return res
+    })
+    network.catch(() => {})
+    const slow = new Promise<never>((_, reject) => setTimeout(() => reject(new Error("slow network")), NETWORK_WAIT_MS))
     try {
-      return await recorderPages.handle(options)
+      return await Promise.race([network, slow])
     } catch {
-      const cache = await caches.open(PAGES)
-      return (await cache.match("/record", { ignoreSearch: true, ignoreVary: true })) ?? Response.error()
+      return (await cache.match(key, { ignoreVary: true })) ?? (await cache.match("/record", { ignoreVary: true })) ?? Response.error()
     }
   },
 )
@@ -63,11 +73,11 @@ self.addEventListener("message", (event) => {
   if (event.data?.type !== "WARM" || !Array.isArray(event.data.urls)) return
   event.waitUntil(
     (async () => {
-      const cache = await caches.open(PAGES)
       for (const url of event.data.urls as string[]) {
         if (typeof url !== "string" || !url.startsWith("/")) continue
         try {
           const res = await fetch(url, { credentials: "same-origin" })
+          const cache = await caches.open(url.startsWith("/record") ? SHELL : PAGES)
           if (res.ok && !res.redirected) await cache.put(url, res)
         } catch {
           // offline: the next visit warms it
