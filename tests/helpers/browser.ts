@@ -1,4 +1,6 @@
 import fs from "node:fs"
+import os from "node:os"
+import path from "node:path"
 import { chromium, type Browser, type BrowserContext, type Page } from "playwright-core"
 import { testEnv } from "./env"
 
@@ -33,6 +35,31 @@ export async function newPhoneContext(browser: Browser, geolocation = { latitude
     geolocation: { ...geolocation, accuracy: 5 },
     extraHTTPHeaders: { "x-forwarded-for": `203.0.113.${Math.floor(Math.random() * 250)}` },
   })
+}
+
+/**
+ * A phone-sized context with an on-disk profile, like a real phone's browser. The offline tests use it: service
+ * worker caches in an in-memory (incognito-like) context were seen to vanish now and then under Chromium.
+ */
+export async function newPersistentPhoneContext(geolocation = { latitude: 41.6, longitude: -93.6 }): Promise<BrowserContext> {
+  if (!fs.existsSync(CHROMIUM)) throw new Error(`Chromium not found at ${CHROMIUM}; npm test installs Debian's chromium.`)
+  const profile = fs.mkdtempSync(path.join(os.tmpdir(), "straightaway-phone-"))
+  const context = await chromium.launchPersistentContext(profile, {
+    executablePath: CHROMIUM,
+    headless: true,
+    args: ARGS,
+    baseURL: testEnv().baseUrl,
+    viewport: { width: 390, height: 844 },
+    deviceScaleFactor: 2,
+    isMobile: true,
+    hasTouch: true,
+    permissions: ["geolocation"],
+    geolocation: { ...geolocation, accuracy: 5 },
+    extraHTTPHeaders: { "x-forwarded-for": `203.0.113.${Math.floor(Math.random() * 250)}` },
+  })
+  // Chromium may still be writing as it closes: clean up in the background and never fail a test over it.
+  context.on("close", () => void fs.promises.rm(profile, { recursive: true, force: true, maxRetries: 5, retryDelay: 200 }).catch(() => {}))
+  return context
 }
 
 export async function signInPage(page: Page, email: string, password: string) {
