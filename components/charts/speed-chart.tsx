@@ -1,6 +1,6 @@
 "use client"
 
-import { Ban, Car, CarFront, CheckCheck, CircleCheck, CircleStop, MessageSquare, MoveHorizontal } from "lucide-react"
+import { MARK_ICON } from "@/components/drives/mark-icon"
 import { useState } from "react"
 import { CartesianGrid, ComposedChart, Line, ReferenceArea, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts"
 
@@ -8,16 +8,6 @@ export type SpeedPoint = { min: number; mph: number | null }
 export type Stretch = { fromMin: number; toMin: number }
 export type ChartMark = { min: number; label: string; kind?: string }
 
-const MARK_ICON: Record<string, typeof Car> = {
-  "lead-on": CarFront,
-  gap: MoveHorizontal,
-  "lead-off": Car,
-  cleared: CheckCheck,
-  stopped: CircleStop,
-  verified: CircleCheck,
-  "verify-failed": Ban,
-  note: MessageSquare,
-}
 
 const BADGE_PX = 18 // a numbered mark badge: 16 px circle plus a hair of air
 const LANE_PX = 19
@@ -121,7 +111,7 @@ export function SpeedChart({
         {placed.length ? (
           <ol className="grid grid-cols-[repeat(auto-fill,minmax(9.5rem,1fr))] gap-x-4 gap-y-1" data-testid="chart-marks">
             {placed.map((m) => {
-              const Icon = MARK_ICON[m.kind ?? ""] ?? MessageSquare
+              const Icon = MARK_ICON[m.kind ?? ""] ?? MARK_ICON.note!
               return (
                 <li key={m.n} className="flex items-center gap-1.5" data-kind={m.kind}>
                   <span aria-hidden className="tabular inline-flex size-5 shrink-0 items-center justify-center rounded-full border border-current text-xs font-bold">

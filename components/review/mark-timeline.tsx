@@ -1,16 +1,6 @@
-import { Ban, CheckCheck, CircleCheck, CircleStop, MessageSquare, MoveHorizontal, Car, CarFront } from "lucide-react"
+import { MARK_ICON } from "@/components/drives/mark-icon"
 import { formatDuration, MARK_LABEL, type RecordMark } from "@/lib/record"
 
-const ICON: Record<string, typeof Car> = {
-  "lead-on": CarFront,
-  gap: MoveHorizontal,
-  "lead-off": Car,
-  cleared: CheckCheck,
-  stopped: CircleStop,
-  verified: CircleCheck,
-  "verify-failed": Ban,
-  note: MessageSquare,
-}
 
 /** Every mark in time order, with when, what and who logged it. */
 export function MarkTimeline({ marks, startMs }: { marks: RecordMark[]; startMs: number }) {
@@ -18,7 +8,7 @@ export function MarkTimeline({ marks, startMs }: { marks: RecordMark[]; startMs:
   return (
     <ol className="space-y-2" data-testid="mark-timeline">
       {marks.map((m, i) => {
-        const Icon = ICON[m.kind] ?? MessageSquare
+        const Icon = MARK_ICON[m.kind] ?? MARK_ICON.note!
         return (
           <li key={i} className="flex items-start gap-3">
             <span className="tabular w-24 shrink-0 text-sm text-graphite-600 dark:text-graphite-300">{formatDuration(Math.max(0, (m.t - startMs) / 1000))}</span>
