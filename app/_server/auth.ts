@@ -4,7 +4,7 @@ import { redirect } from "next/navigation"
 import { cache } from "react"
 import { getDb, getPool } from "@/db/client"
 import { AppError } from "@/lib/errors"
-import { createLucia, type Auth, type SessionUser } from "@/lib/auth/lucia"
+import { createLucia, sessionIdFromToken, type Auth, type SessionUser } from "@/lib/auth/lucia"
 import { hasRole, type Role } from "@/lib/auth/roles"
 import { env } from "@/lib/env"
 
@@ -20,12 +20,12 @@ export type CurrentSession = { user: SessionUser; sessionId: string } | { user: 
 export const getCurrentSession = cache(async (): Promise<CurrentSession> => {
   const auth = getAuth()
   const jar = await cookies()
-  const sessionId = jar.get(auth.sessionCookieName)?.value ?? null
-  if (!sessionId) return { user: null, sessionId: null }
-  const { session, user } = await auth.validateSession(sessionId)
+  const token = jar.get(auth.sessionCookieName)?.value ?? null
+  if (!token) return { user: null, sessionId: null }
+  const { session, user } = await auth.validateSession(sessionIdFromToken(token))
   try {
     if (session?.fresh) {
-      const c = auth.createSessionCookie(session.id)
+      const c = auth.createSessionCookie(token)
       jar.set(c.name, c.value, c.attributes)
     }
     if (!session) {

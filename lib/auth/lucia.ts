@@ -1,6 +1,7 @@
 // Lucia v3 is unmaintained upstream: it is kept behind this one module so that it can be swapped.
 import { NodePostgresAdapter } from "@lucia-auth/adapter-postgresql"
-import { Lucia, TimeSpan } from "lucia"
+import { createHash } from "node:crypto"
+import { generateIdFromEntropySize, Lucia, TimeSpan } from "lucia"
 import type pg from "pg"
 import type { Role } from "./roles"
 
@@ -21,6 +22,18 @@ export function createLucia(pool: pg.Pool, { secure }: { secure: boolean }) {
 }
 
 export type Auth = ReturnType<typeof createLucia>
+
+/**
+ * The cookie holds a random token; the database keeps only its SHA-256 as the session id, so a copy of
+ * the sessions table signs nobody in (Lucia v3 takes a caller's session id).
+ */
+export function newSessionToken(): string {
+  return generateIdFromEntropySize(25)
+}
+
+export function sessionIdFromToken(token: string): string {
+  return createHash("sha256").update(token).digest("hex")
+}
 
 declare module "lucia" {
   interface Register {

@@ -5,6 +5,7 @@ import { parseJson, route } from "@/app/_server/route"
 import { getDb } from "@/db/client"
 import { clearSignInFailures, countRecentSignInFailures, insertSignInFailure } from "@/db/queries/sign-in-failures"
 import { findUserByEmail } from "@/db/queries/users"
+import { newSessionToken, sessionIdFromToken } from "@/lib/auth/lucia"
 import { verifyAgainstDummy, verifyPassword } from "@/lib/auth/password"
 import { computeRetryAfterSeconds, SIGN_IN_WINDOW_SECONDS } from "@/lib/auth/throttle"
 import { AppError } from "@/lib/errors"
@@ -30,8 +31,9 @@ export const POST = route(async (req) => {
   }
   await clearSignInFailures(db, email)
   const auth = getAuth()
-  const session = await auth.createSession(user.id, {})
-  const c = auth.createSessionCookie(session.id)
+  const token = newSessionToken()
+  await auth.createSession(user.id, {}, { sessionId: sessionIdFromToken(token) })
+  const c = auth.createSessionCookie(token)
   ;(await cookies()).set(c.name, c.value, c.attributes)
   return Response.json({ user: { id: user.id, email: user.email, name: user.name, role: user.role, shopId: user.shop_id } })
 })

@@ -99,6 +99,25 @@ describe("DELETE /api/session", () => {
   })
 })
 
+describe("stored session ids", () => {
+  it("keep only a hash of the cookie's token: the stored id sent as the cookie gets 401", async () => {
+    const shop = await createTestShop()
+    const client = await signedIn(shop.tech)
+    const [name, token] = client.cookie!.split("=") as [string, string]
+    const rows = await testDb().selectFrom("user_session").select("id").where("user_id", "=", shop.tech.id).execute()
+    expect(rows).toHaveLength(1)
+    // FIPS 180-4: SHA-256 digests are 256 bits, written here as 64 hex digits
+    expect(rows[0]!.id).toMatch(/^[0-9a-f]{64}$/)
+    expect(rows[0]!.id).not.toBe(token)
+    const stolen = new ApiClient()
+    stolen.cookie = `${name}=${rows[0]!.id}`
+    const res = await stolen.get("/api/session")
+    expect(res.status).toBe(401)
+    expect(res.body.error.code).toBe("not_signed_in")
+    expect((await client.get("/api/session")).status).toBe(200)
+  })
+})
+
 describe("disabled users", () => {
   it("cannot sign in, and a disabled user's open session ends at once", async () => {
     const shop = await createTestShop()
