@@ -14,7 +14,7 @@ describe("role guard on /api/review", () => {
     ["co_driver", "codriver", 403],
     ["shop_lead", "lead", 200],
     ["admin", "admin", 200],
-  ] as const)("gives a %s %i", async (_role, key, status) => {
+  ] as const)("gives a %s (%s) a %i", async (_role, key, status) => {
     const shop = await createTestShop()
     const res = await (await signedIn(shop[key])).get("/api/review")
     expect(res.status).toBe(status)
