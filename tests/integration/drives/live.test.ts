@@ -226,7 +226,7 @@ describe("the server's live score", () => {
   })
 
   it("equals scoreDrive of the stored data after random batches and marks, late and repeated ones too", async () => {
-    const file = generateDrive({ seed: 31, startMs: Date.UTC(2026, 2, 3, 9), minutes: 12, pattern: "met" })
+    const file = generateDrive({ seed: 31, startMs: Date.UTC(2026, 2, 3, 9), hz: 2, minutes: 16, pattern: "met" })
     const rng = createRng(99)
     const drive = await startDrive(tech)
     // Read once while empty, so the server holds a live scorer from the start and appends to it.
@@ -239,7 +239,7 @@ describe("the server's live score", () => {
     let batch = 0
     const sentMarks: ApiMark[] = []
     while (i < samples.length) {
-      const n = 1 + Math.floor(rng() * 300)
+      const n = 1 + Math.floor(rng() * 120)
       let piece = samples.slice(i, i + n)
       i += n
       if (rng() < 0.25 && i > 400) {
