@@ -4,6 +4,9 @@ import { generateDrive } from "@/lib/tracks"
 import { createTestShop, testDb, type TestShop } from "../helpers/db"
 import { launchBrowser, newPhoneContext, signInPage } from "../helpers/browser"
 import { signedIn } from "../helpers/http"
+import { testEnv } from "../helpers/env"
+
+const testEnvBase = () => testEnv().baseUrl
 import type { Browser } from "playwright-core"
 
 // An invented route from lib/tracks at 4 fixes a second, stepped in real time so derived speeds are road speeds.
@@ -103,6 +106,13 @@ describe("one live picture of the drive on two phones", () => {
     await expect.poll(() => co.getByTestId("crew-elapsed").getAttribute("data-value")).not.toBe("0")
     if (process.env.SCREENSHOT_DIR) await co.screenshot({ path: `${process.env.SCREENSHOT_DIR}/co-driver-phone.png` })
 
+    // The shop lead watches from the drive page.
+    const leadCtx = await browser.newContext({ baseURL: testEnvBase(), viewport: { width: 1280, height: 900 }, extraHTTPHeaders: { "x-forwarded-for": "198.51.100.77" } })
+    const lead = await leadCtx.newPage()
+    await signInPage(lead, shop.lead.email, shop.lead.password)
+    await lead.goto(`/drives/${driveId}`)
+    await expect.poll(() => lead.getByTestId("live-drive-connection").getAttribute("data-state"), { timeout: 15_000 }).toBe("live")
+
     // Lead on with a gap: the driver's meters count following time within 5 s, and the button follows the shared state.
     await co.getByTestId("mark-lead-on").click()
     await co.getByTestId("gap-typed").fill("150")
@@ -121,6 +131,8 @@ describe("one live picture of the drive on two phones", () => {
     await new Promise((r) => setTimeout(r, 1500))
     await co.getByTestId("mark-verified").click()
     await expect.poll(() => num(driver, "live-score", "data-marks"), { timeout: 5000, interval: 200 }).toBe(3)
+    await expect.poll(() => num(lead, "live-drive", "data-marks"), { timeout: 5000, interval: 200 }).toBe(3)
+    expect(await num(lead, "live-drive", "data-following")).toBeGreaterThan(0)
     if (process.env.SCREENSHOT_DIR) {
       await driver.screenshot({ path: `${process.env.SCREENSHOT_DIR}/driver-phone.png`, fullPage: true })
       await co.screenshot({ path: `${process.env.SCREENSHOT_DIR}/co-driver-phone-marks.png` })
@@ -143,6 +155,7 @@ describe("one live picture of the drive on two phones", () => {
     await expect.poll(() => co.getByTestId("crew-sync").getAttribute("data-state"), { timeout: 20_000 }).not.toBe("offline")
     await new Promise((r) => setTimeout(r, 3000)) // any repeat would have come by now
     expect(await num(driver, "live-score", "data-marks")).toBe(5)
+    await expect.poll(() => num(lead, "live-drive", "data-marks"), { timeout: 5000 }).toBe(5)
     const remote = await remoteMarkIds(driver, driveId)
     expect(remote).toHaveLength(5)
     expect(new Set(remote).size).toBe(5)
@@ -177,7 +190,10 @@ describe("one live picture of the drive on two phones", () => {
     expect(Math.abs((await num(co, "crew-qualifying")) - server.score.qualifyingSeconds) / 60).toBeLessThanOrEqual(0.1)
     expect(Math.abs((await num(co, "crew-following")) - server.score.followingSeconds) / 60).toBeLessThanOrEqual(0.1)
     expect(await co.getByTestId("mark-lead-on").count()).toBe(0) // no more marks invited
+    // The lead's page turns into the finished drive's record.
+    await expect.poll(() => lead.getByTestId("live-drive").count(), { timeout: 15_000 }).toBe(0)
     await driverCtx.close()
     await coCtx.close()
+    await leadCtx.close()
   })
 })
