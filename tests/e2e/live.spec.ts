@@ -133,6 +133,7 @@ describe("one live picture of the drive on two phones", () => {
     await expect.poll(() => num(driver, "live-score", "data-marks"), { timeout: 5000, interval: 200 }).toBe(3)
     await expect.poll(() => num(lead, "live-drive", "data-marks"), { timeout: 5000, interval: 200 }).toBe(3)
     expect(await num(lead, "live-drive", "data-following")).toBeGreaterThan(0)
+    if (process.env.SCREENSHOT_DIR) await lead.screenshot({ path: `${process.env.SCREENSHOT_DIR}/lead-drive-page.png` })
     if (process.env.SCREENSHOT_DIR) {
       await driver.screenshot({ path: `${process.env.SCREENSHOT_DIR}/driver-phone.png`, fullPage: true })
       await co.screenshot({ path: `${process.env.SCREENSHOT_DIR}/co-driver-phone-marks.png` })
