@@ -210,6 +210,16 @@ export interface NotificationTable {
   created_at: GeneratedTimestamp
 }
 
+/** The live channel's durable events (db/queries/drive-events.ts). */
+export interface DriveEventTable {
+  id: Generated<number>
+  drive_id: string
+  shop_id: string
+  kind: string
+  body: Json<Record<string, unknown>>
+  created_at: GeneratedTimestamp
+}
+
 export interface Database {
   shop: ShopTable
   app_user: AppUserTable
@@ -229,6 +239,7 @@ export interface Database {
   score: ScoreTable
   review: ReviewTable
   notification: NotificationTable
+  drive_event: DriveEventTable
 }
 
 export type Shop = Selectable<ShopTable>

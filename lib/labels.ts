@@ -63,7 +63,7 @@ export const MARK_LABEL: LabelTable<MarkKind> = {
   "lead-on": "Lead on",
   gap: "Gap",
   "lead-off": "Lead off",
-  cleared: "Cleared",
+  cleared: "Learn complete",
   stopped: "Stopped",
   verified: "Verified",
   "verify-failed": "Verify failed",

@@ -96,7 +96,10 @@ registerRoute(
 // Read-only API data the recorder needs offline (jobs, profiles, the drive list): last good copy.
 registerRoute(
   ({ request, url }) =>
-    request.method === "GET" && url.origin === self.location.origin && /^\/api\/(jobs|profiles|drives|session)(\/|$|\?)/.test(url.pathname),
+    request.method === "GET" &&
+    url.origin === self.location.origin &&
+    /^\/api\/(jobs|profiles|drives|session)(\/|$|\?)/.test(url.pathname) &&
+    !/\/live$/.test(url.pathname), // the live channel streams: never through a cache
   new NetworkFirst({ cacheName: "straightaway-api", networkTimeoutSeconds: 4, plugins: [notRedirected, new ExpirationPlugin({ maxEntries: 200 })] }),
 )
 

@@ -1,5 +1,5 @@
 "use client"
-import { CircleCheck, CircleStop, CircleX, Link2, Link2Off, Pencil, Ruler, ShieldCheck, Undo2 } from "lucide-react"
+import { CircleCheck, CircleStop, CircleX, Flag, Link2, Link2Off, Pencil, Ruler, ShieldCheck, TriangleAlert, Undo2 } from "lucide-react"
 import { useState, type ReactNode } from "react"
 import type { MarkKind } from "@/lib/drive-file/schema"
 import { MARK_LABEL as MARK_WORD } from "@/lib/labels"
@@ -105,7 +105,10 @@ function GapCounter({ onUse }: { onUse: (gapFt: number) => void }) {
 
 /** Co-driver mode: the passenger logs what happens, with big buttons. */
 export function CoDriverPanel() {
-  const marks = useRecorder((s) => s.marks)
+  // Every mark the phone knows (its own and the other phone's): the buttons follow the shared state.
+  const marks = useRecorder((s) => s.knownMarks)
+  const ownMarks = useRecorder((s) => s.marks)
+  const finished = useRecorder((s) => s.driveInfo?.status === "finished" || (s.meta !== null && s.meta.status !== "recording"))
   const [asking, setAsking] = useState<"lead-on" | "gap" | null>(null)
   const [note, setNote] = useState<string | null>(null)
   const [flash, setFlash] = useState<string | null>(null)
@@ -124,10 +127,22 @@ export function CoDriverPanel() {
     setAsking(null)
   }
   const last = marks.at(-1)
+  if (finished) {
+    return (
+      <div className="space-y-2" data-testid="co-driver-panel">
+        <p role="status" className="flex items-center gap-2 rounded-xl border-2 border-teal-400 p-3 text-lg font-semibold" data-testid="marks-closed">
+          <Flag aria-hidden className="size-6 shrink-0" /> The drive is finished: it takes no new marks.
+        </p>
+        <p className="text-sm text-graphite-400" data-testid="mark-count" data-value={marks.length}>
+          {marks.length} marks logged
+        </p>
+      </div>
+    )
+  }
   return (
     <div className="space-y-2" data-testid="co-driver-panel">
       <div className="grid grid-cols-2 gap-2">
-        <Big testId="mark-lead-on" tone="teal" onClick={() => setAsking("lead-on")}>
+        <Big testId="mark-lead-on" tone="teal" disabled={leadOn} onClick={() => setAsking("lead-on")}>
           <Link2 aria-hidden /> Lead on
         </Big>
         <Big testId="mark-gap" disabled={!leadOn} onClick={() => setAsking("gap")}>
@@ -137,13 +152,7 @@ export function CoDriverPanel() {
           <Link2Off aria-hidden /> Lead off
         </Big>
         <Big testId="mark-cleared" tone="signal" onClick={() => void log("cleared")}>
-          <CircleCheck aria-hidden /> Cleared
-        </Big>
-        <Big testId="mark-verified" onClick={() => void log("verified")}>
-          <ShieldCheck aria-hidden /> Verified
-        </Big>
-        <Big testId="mark-verify-failed" tone="stop" onClick={() => void log("verify-failed")}>
-          <CircleX aria-hidden /> Verify failed
+          <CircleCheck aria-hidden /> Learn complete
         </Big>
         <Big testId="mark-stopped" onClick={() => void log("stopped")}>
           <CircleStop aria-hidden /> Stopped
@@ -151,6 +160,22 @@ export function CoDriverPanel() {
         <Big testId="mark-note" onClick={() => setNote("")}>
           <Pencil aria-hidden /> Note
         </Big>
+      </div>
+      <p className="flex items-center gap-2 text-sm text-signal-300" data-testid="verify-caution">
+        <TriangleAlert aria-hidden className="size-4 shrink-0" /> Check the function only where traffic law allows; the driver keeps eyes on the road.
+      </p>
+      {/* Far apart on purpose: one must never be hit for the other. */}
+      <div className="flex justify-between gap-16">
+        <div className="flex-1 grid">
+          <Big testId="mark-verified" onClick={() => void log("verified")}>
+            <ShieldCheck aria-hidden /> Verified
+          </Big>
+        </div>
+        <div className="flex-1 grid">
+          <Big testId="mark-verify-failed" tone="stop" onClick={() => void log("verify-failed")}>
+            <CircleX aria-hidden /> Verify failed
+          </Big>
+        </div>
       </div>
       {asking ? (
         <div className="space-y-2">
@@ -189,7 +214,7 @@ export function CoDriverPanel() {
         </p>
         <Big
           testId="mark-undo"
-          disabled={!last}
+          disabled={!ownMarks.length}
           onClick={() =>
             void getRecorder()
               .undoLastMark()

@@ -17,7 +17,14 @@ export function FinishScreen({ onNewDrive }: { onNewDrive: () => void }) {
         <h1 className="text-2xl font-bold">Drive finished</h1>
         <p className="text-graphite-300">{meta.label}</p>
       </div>
-      <section className="space-y-3 rounded-xl bg-asphalt-800 p-3" aria-labelledby="drive-score">
+      <section
+        className="space-y-3 rounded-xl bg-asphalt-800 p-3"
+        aria-labelledby="drive-score"
+        data-testid="finish-score"
+        data-verdict={score.verdict}
+        data-qualifying={score.qualifyingSeconds}
+        data-following={score.followingSeconds}
+      >
         <h2 id="drive-score" className="text-sm font-semibold tracking-wide text-graphite-300 uppercase">
           How the drive went (not the calibration result)
         </h2>

@@ -1,5 +1,5 @@
 "use client"
-import { Gauge, Hourglass, Link2, Timer, TriangleAlert } from "lucide-react"
+import { CircleCheck, CloudOff, Gauge, Hourglass, Link2, Radio, Timer, TriangleAlert } from "lucide-react"
 import type { ReactNode } from "react"
 import { mpsToMph } from "@/lib/units"
 import { useRecorder } from "./use-recorder"
@@ -48,7 +48,10 @@ export function Meters() {
   const speedMps = useRecorder((s) => s.speedMps)
   const left = useRecorder((s) => s.minutesLeft)
   const nowMs = useRecorder((s) => s.nowMs)
+  const live = useRecorder((s) => s.live.state)
+  const markCount = useRecorder((s) => s.knownMarks.length)
   if (!meta) return null
+  const cleared = score?.clearedAtSeconds ?? null
   const p = meta.profile
   const mph = speedMps === null ? null : mpsToMph(speedMps)
   const inBand = mph !== null && mph >= p.minSpeedMph && (p.maxSpeedMph === null || mph <= p.maxSpeedMph)
@@ -126,7 +129,19 @@ export function Meters() {
         detail={`${score?.harshEvents.accel ?? 0} speeding up · ${score?.harshEvents.decel ?? 0} braking`}
         tone={harsh > 0 ? "signal" : "plain"}
       />
-      <div className="col-span-2 text-xs text-graphite-400" data-testid="live-score" data-samples-used={score?.samplesUsed ?? 0} data-duration={score?.durationSeconds ?? 0} data-verdict={score?.verdict ?? ""}>
+      <div
+        className={cx("col-span-2 flex items-center gap-2 rounded-xl border-2 bg-asphalt-800 px-3 py-2 text-lg font-semibold", cleared !== null ? "border-teal-400" : "border-asphalt-700")}
+        data-testid="meter-learn"
+        data-cleared={cleared !== null}
+      >
+        {cleared !== null ? <CircleCheck aria-hidden className="size-5 shrink-0 text-teal-300" /> : <Hourglass aria-hidden className="size-5 shrink-0" />}
+        {cleared !== null ? `Learn complete at ${minutes(cleared)} min` : "Learn not complete yet"}
+        <span className="ml-auto inline-flex items-center gap-1 text-sm font-normal text-graphite-300" data-testid="meter-live" data-state={live}>
+          {live === "offline" ? <CloudOff aria-hidden className="size-4" /> : <Radio aria-hidden className="size-4" />}
+          {live === "offline" ? "Offline: this phone's marks" : live === "connecting" ? "Connecting…" : "Crew marks live"}
+        </span>
+      </div>
+      <div className="col-span-2 text-xs text-graphite-400" data-testid="live-score" data-samples-used={score?.samplesUsed ?? 0} data-duration={score?.durationSeconds ?? 0} data-verdict={score?.verdict ?? ""} data-marks={markCount}>
         {score?.samplesUsed ?? 0} samples used · {Math.round(score?.distanceMeters ?? 0)} m
       </div>
     </div>

@@ -30,9 +30,11 @@ export function RecorderApp({ coDriver = false }: { coDriver?: boolean }) {
   useEffect(() => {
     let unsubscribe = () => {}
     let gone = false
-    const onOnline = () => void loadRecorder().then((r) => r.flushNow())
+    const onOnline = () => void loadRecorder().then((r) => r.online())
+    const onOffline = () => void loadRecorder().then((r) => r.offline())
     const onHide = () => void loadRecorder().then((r) => r.persistBuffer(true))
     window.addEventListener("online", onOnline)
+    window.addEventListener("offline", onOffline)
     window.addEventListener("pagehide", onHide)
     void (async () => {
       const recorder = await loadRecorder()
@@ -64,25 +66,26 @@ export function RecorderApp({ coDriver = false }: { coDriver?: boolean }) {
       gone = true
       unsubscribe()
       window.removeEventListener("online", onOnline)
+      window.removeEventListener("offline", onOffline)
       window.removeEventListener("pagehide", onHide)
     }
   }, [coDriver])
 
-  // A co-driver's own phone learns from the server when the driver has finished the drive.
+  // A co-driver's own phone hears from the live channel when the driver has finished the drive.
   const [driverFinished, setDriverFinished] = useState<string | null>(null)
   useEffect(() => {
-    if (!coDriver || phase !== "drive" || !meta?.id || driverFinished) return
-    const check = () =>
-      void fetch(`/api/drives/${meta.id}`, { credentials: "same-origin" })
-        .then((r) => (r.ok ? r.json() : null))
-        .then((body) => {
-          if (body?.drive?.status === "finished") setDriverFinished(body.drive.finishedAt ?? new Date().toISOString())
-        })
-        .catch(() => {})
-    check()
-    const timer = setInterval(check, 20_000)
-    return () => clearInterval(timer)
-  }, [coDriver, phase, meta?.id, driverFinished])
+    if (!coDriver || phase !== "drive") return
+    let unsubscribe = () => {}
+    void loadRecorder().then((r) => {
+      const check = () => {
+        const info = r.store.getState().driveInfo
+        if (info?.status === "finished") setDriverFinished(info.finishedAt ?? new Date().toISOString())
+      }
+      check()
+      unsubscribe = r.store.subscribe(check)
+    })
+    return () => unsubscribe()
+  }, [coDriver, phase])
 
   async function start(choice: StartChoice) {
     const id = crypto.randomUUID()
@@ -110,8 +113,8 @@ export function RecorderApp({ coDriver = false }: { coDriver?: boolean }) {
     <>
       {driverFinished ? (
         <p role="status" className="mb-3 rounded-xl border-2 border-teal-400 bg-asphalt-800 p-3 font-semibold" data-testid="driver-finished">
-          The driver finished this drive at {new Date(driverFinished).toLocaleTimeString([], { hour: "2-digit", minute: "2-digit" })}. Marks
-          you log now still count until the shop lead reviews it.
+          The driver finished this drive at {new Date(driverFinished).toLocaleTimeString([], { hour: "2-digit", minute: "2-digit" })}. The
+          drive takes no new marks; marks this phone logged during the drive still go to the server.
         </p>
       ) : null}
       <Suspense fallback={opening}>

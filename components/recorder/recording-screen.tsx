@@ -4,6 +4,7 @@ import { useState } from "react"
 import { gpsMessage } from "@/lib/recorder/position"
 import { mpsToMph } from "@/lib/units"
 import { CoDriverPanel } from "./co-driver-panel"
+import { CrewSummary } from "./crew-summary"
 import { Meters } from "./meters"
 import { SyncStatus } from "./sync-status"
 import { getRecorder, useRecorder } from "./use-recorder"
@@ -36,9 +37,9 @@ export function RecordingScreen() {
           <MapPinOff aria-hidden className="size-5 shrink-0" /> {message}
         </p>
       ) : null}
-      {!secondPhone ? <Meters /> : null}
       {mode === "driver" ? (
         <>
+          <Meters />
           <p className="flex items-center gap-2 rounded-xl border-2 border-signal-400 p-3 text-lg font-semibold" data-testid="driver-caution">
             <Car aria-hidden className="size-6 shrink-0" /> Eyes on the road. The co-driver logs marks; the driver does not touch the phone while moving.
           </p>
@@ -53,6 +54,8 @@ export function RecordingScreen() {
         </>
       ) : (
         <>
+          {/* The drive so far above the buttons, small enough that the buttons stay on screen. */}
+          <CrewSummary />
           <CoDriverPanel />
           {!secondPhone ? (
             <button type="button" onClick={() => setMode("driver")} className="min-h-16 w-full rounded-xl bg-asphalt-700 text-lg font-semibold">
@@ -61,9 +64,10 @@ export function RecordingScreen() {
           ) : null}
         </>
       )}
-      {!moving || mode === "co-driver" ? (
+      <SyncStatus />
+      {/* Finish is hidden while moving in every mode: no one finishes a drive at speed. */}
+      {!moving ? (
         <>
-          <SyncStatus />
           {!secondPhone ? (
             confirmFinish ? (
               <div className="grid grid-cols-2 gap-2">

@@ -1,12 +1,15 @@
 import { sql } from "kysely"
 import type { Sample } from "@/lib/drive-file/schema"
 import type { Db } from "../client"
+import { insertSamplesNotifying } from "./drive-events"
 
 export interface BatchResult {
   accepted: number
   duplicates: number
   /** True when this batch id had been stored before: nothing was written this time. */
   replayed: boolean
+  /** The `t` of each sample this call stored (empty on a replay), for the live scorer. */
+  storedTs: number[]
 }
 
 /**
@@ -35,9 +38,10 @@ export async function insertSampleBatch(
       .where("batch_id", "=", batchId)
       .where("shop_id", "=", shopId)
       .executeTakeFirstOrThrow()
-    return { accepted: seen.accepted, duplicates: seen.duplicates, replayed: true }
+    return { accepted: seen.accepted, duplicates: seen.duplicates, replayed: true, storedTs: [] }
   }
-  const accepted = await insertSamples(trx, driveId, shopId, samples)
+  // The insert also announces the stored samples to the live channel (db/queries/drive-events.ts).
+  const { accepted, ts: storedTs } = await insertSamplesNotifying(trx, driveId, shopId, samples)
   const duplicates = samples.length - accepted
   await trx
     .updateTable("sample_batch")
@@ -46,7 +50,7 @@ export async function insertSampleBatch(
     .where("batch_id", "=", batchId)
     .where("shop_id", "=", shopId)
     .execute()
-  return { accepted, duplicates, replayed: false }
+  return { accepted, duplicates, replayed: false, storedTs }
 }
 
 /**

@@ -58,6 +58,13 @@ export async function loadSamples(driveId: string): Promise<{ samples: Sample[];
 export const saveMeta = (meta: DriveMeta) => set(`drive:${meta.id}`, meta, db())
 export const loadMeta = (id: string) => get<DriveMeta>(`drive:${id}`, db())
 export const saveMarks = (driveId: string, marks: ApiMark[]) => set(`marks:${driveId}`, marks, db())
+/** Marks other phones logged on the drive, as the live channel brought them, and where it left off. */
+export interface RemoteMarks {
+  marks: ApiMark[]
+  lastEventId: number | null
+}
+export const saveRemoteMarks = (driveId: string, remote: RemoteMarks) => set(`remote:${driveId}`, remote, db())
+export const loadRemoteMarks = async (driveId: string) => (await get<RemoteMarks>(`remote:${driveId}`, db())) ?? { marks: [], lastEventId: null }
 export const loadMarks = async (driveId: string) => (await get<ApiMark[]>(`marks:${driveId}`, db())) ?? []
 export const saveOutboxItems = (items: OutboxItem[]) => idbOutbox.put(items)
 export const setActiveDrive = (id: string | null) => (id ? set("active", id, db()) : del("active", db()))

@@ -13,16 +13,19 @@ import {
   getLastSynced,
   idbOutbox,
   loadMarks,
+  loadRemoteMarks,
   loadMeta,
   loadSamples,
   persistSamples,
   saveMarks,
   saveMeta,
   saveOutboxItems,
+  saveRemoteMarks,
   setActiveDrive,
   setLastSynced,
   type DriveMeta,
 } from "./idb-outbox"
+import { connectLive, type LiveConnection, type LiveLink, type LiveMark } from "./live-client"
 import { flushOutbox, makeItem, type OutboxItem, type Transport } from "./outbox"
 import { positionToSample, type GpsState } from "./position"
 
@@ -39,7 +42,18 @@ export interface RecorderState {
   nowMs: number
   gps: GpsState
   accuracyM: number | null
+  /** Marks logged on this phone (what undo takes back). */
   marks: ApiMark[]
+  /** Marks other phones logged, as the live channel brought them. */
+  remoteMarks: ApiMark[]
+  /** Every mark this phone knows, by time: what the meters score with and the buttons follow. */
+  knownMarks: ApiMark[]
+  /** The live channel: how this phone hears the drive, and when it last heard from the server. */
+  live: { state: LiveConnection; lastContactAt: number | null }
+  /** What the server says of the drive (RO, status), from the live channel. */
+  driveInfo: { roNumber: string | null; vehicleDescription: string | null; status: "recording" | "finished"; finishedAt: string | null } | null
+  /** When the server's live score shown on a phone without samples (the co-driver's own) was computed. */
+  scoreAsOf: number | null
   sync: { state: SyncState; waitingSamples: number; waitingOther: number; failed: OutboxItem[]; lastSyncedAt: number | null; retryAtMs: number | null }
   serverScore: Score | null
 }
@@ -76,6 +90,11 @@ export function createRecorder(transport: Transport = fetchTransport) {
     gps: "waiting",
     accuracyM: null,
     marks: [],
+    remoteMarks: [],
+    knownMarks: [],
+    live: { state: "connecting", lastContactAt: null },
+    driveInfo: null,
+    scoreAsOf: null,
     sync: { state: "idle", waitingSamples: 0, waitingOther: 0, failed: [], lastSyncedAt: null, retryAtMs: null },
     serverScore: null,
   }))
@@ -91,13 +110,127 @@ export function createRecorder(transport: Transport = fetchTransport) {
   let flushing: Promise<void> | null = null
   let wakeLock: { release(): Promise<void> } | null = null
   let lastT = -1
+  let live: LiveLink | null = null
+  /** Ids of remote marks the scorer holds. */
+  let scoredRemote = new Set<string>()
 
   function rescore() {
     const meta = store.getState().meta
     if (!scorer || !meta) return
-    const score = scorer.score()
     const elapsedSeconds = (Date.now() - meta.startedAtMs) / 1000
-    store.setState({ score, minutesLeft: predictMinutesLeft(score, meta.profile, { elapsedSeconds }), nowMs: Date.now() })
+    // A co-driver's own phone holds no samples: its meters show the server's live score.
+    const score = meta.role === "co-driver" ? store.getState().score : scorer.score()
+    const minutesLeft = score ? predictMinutesLeft(score, meta.profile, { elapsedSeconds }) : null
+    store.setState({ score, minutesLeft, nowMs: Date.now() })
+  }
+
+  function byTime(list: ApiMark[]): ApiMark[] {
+    return list.map((m, i) => [m, i] as const).sort((a, b) => a[0].t - b[0].t || a[1] - b[1]).map(([m]) => m)
+  }
+
+  function setMarks(next: { marks?: ApiMark[]; remoteMarks?: ApiMark[] }) {
+    const s = store.getState()
+    const marks = next.marks ?? s.marks
+    const remoteMarks = next.remoteMarks ?? s.remoteMarks
+    store.setState({ marks, remoteMarks, knownMarks: byTime([...marks, ...remoteMarks]) })
+  }
+
+  /** The live scorer has no removal: build it again from what this phone holds. */
+  async function rebuildScorer() {
+    const meta = store.getState().meta
+    if (!meta) return
+    const { samples } = await loadSamples(meta.id)
+    scorer = createLiveScorer(meta.profile)
+    scorer.addSamples([...samples, ...buffer])
+    scorer.addMarks(byTime([...store.getState().marks, ...store.getState().remoteMarks]))
+    scoredRemote = new Set(store.getState().remoteMarks.map((m) => m.id))
+  }
+
+  const plainMark = ({ seq: _seq, ...m }: LiveMark): ApiMark => m
+
+  function saveRemote() {
+    const meta = store.getState().meta
+    if (meta) void saveRemoteMarks(meta.id, { marks: store.getState().remoteMarks, lastEventId: live?.lastEventId ?? null })
+  }
+
+  /** Marks from the server: the ones this phone does not hold yet join, once each (reconciled by id). */
+  function receiveMarks(incoming: LiveMark[], replaceAll: boolean) {
+    const s = store.getState()
+    const own = new Set(s.marks.map((m) => m.id))
+    const fresh = incoming.filter((m) => !own.has(m.id)).map(plainMark)
+    let remote: ApiMark[]
+    if (replaceAll) remote = fresh
+    else {
+      const have = new Set(s.remoteMarks.map((m) => m.id))
+      remote = [...s.remoteMarks, ...fresh.filter((m) => !have.has(m.id))]
+    }
+    const dropped = [...scoredRemote].some((id) => !remote.some((m) => m.id === id))
+    setMarks({ remoteMarks: remote })
+    if (dropped) {
+      void rebuildScorer().then(rescore)
+    } else {
+      const add = remote.filter((m) => !scoredRemote.has(m.id))
+      if (add.length) {
+        scorer?.addMarks(add)
+        for (const m of add) scoredRemote.add(m.id)
+        rescore()
+      }
+    }
+    saveRemote()
+  }
+
+  function startLive(meta: DriveMeta, lastEventId: number | null) {
+    live?.close()
+    live = connectLive(
+      meta.id,
+      {
+        snapshot: (snap) => {
+          const current = store.getState().meta
+          store.setState({ driveInfo: { roNumber: snap.drive.roNumber, vehicleDescription: snap.drive.vehicleDescription, status: snap.drive.status, finishedAt: snap.drive.finishedAt } })
+          if (current?.role === "co-driver") {
+            const startedAtMs = Date.parse(snap.drive.createdAt)
+            if (Number.isFinite(startedAtMs) && startedAtMs !== current.startedAtMs) {
+              const next = { ...current, startedAtMs }
+              void saveMeta(next)
+              store.setState({ meta: next })
+            }
+            store.setState({ score: snap.score, scoreAsOf: Date.now() })
+          }
+          receiveMarks(snap.marks, true)
+        },
+        mark: (m) => receiveMarks([m], false),
+        unmark: (id) => {
+          const s = store.getState()
+          if (s.remoteMarks.some((m) => m.id === id)) {
+            setMarks({ remoteMarks: s.remoteMarks.filter((m) => m.id !== id) })
+            void rebuildScorer().then(rescore)
+            saveRemote()
+          }
+        },
+        status: (st) => {
+          const info = store.getState().driveInfo
+          store.setState({ driveInfo: { roNumber: info?.roNumber ?? null, vehicleDescription: info?.vehicleDescription ?? null, status: st.status, finishedAt: st.finishedAt } })
+        },
+        score: (score) => {
+          if (store.getState().meta?.role === "co-driver") {
+            store.setState({ score, scoreAsOf: Date.now() })
+            rescore()
+          }
+        },
+        connection: (state, lastContactAt) => store.setState({ live: { state, lastContactAt } }),
+      },
+      { lastEventId, onEventId: () => saveRemote() },
+    )
+  }
+
+  /** The network came back: send what waits and hear the drive again from where the phone left off. */
+  async function online() {
+    live?.reconnect()
+    await flushNow()
+  }
+
+  function offline() {
+    live?.offline()
   }
 
   async function refreshSyncCounts() {
@@ -246,15 +379,23 @@ export function createRecorder(transport: Transport = fetchTransport) {
   async function load(driveId: string): Promise<boolean> {
     const meta = await loadMeta(driveId)
     if (!meta) return false
-    const [{ samples, nextSeq }, marks, lastSyncedAt] = await Promise.all([loadSamples(driveId), loadMarks(driveId), getLastSynced()])
+    const [{ samples, nextSeq }, marks, lastSyncedAt, remote] = await Promise.all([
+      loadSamples(driveId),
+      loadMarks(driveId),
+      getLastSynced(),
+      loadRemoteMarks(driveId),
+    ])
     seq = nextSeq
     scorer = createLiveScorer(meta.profile)
     scorer.addSamples(samples)
-    scorer.addMarks(marks)
+    scorer.addMarks(byTime([...marks, ...remote.marks]))
+    scoredRemote = new Set(remote.marks.map((m) => m.id))
     lastT = samples.reduce((m, s) => Math.max(m, s.t), -1)
     store.setState((s) => ({
       meta,
       marks,
+      remoteMarks: remote.marks,
+      knownMarks: byTime([...marks, ...remote.marks]),
       sampleCount: samples.length,
       lastSample: samples.at(-1) ?? null,
       serverScore: meta.finishedScore ?? null,
@@ -262,6 +403,7 @@ export function createRecorder(transport: Transport = fetchTransport) {
     }))
     rescore()
     if (meta.status === "recording") startWatching()
+    startLive(meta, remote.lastEventId)
     void refreshSyncCounts()
     void flush()
     return true
@@ -324,7 +466,7 @@ export function createRecorder(transport: Transport = fetchTransport) {
     const marks = [...store.getState().marks, mark]
     await saveMarks(meta.id, marks)
     await saveOutboxItems([makeItem(meta.id, { type: "marks", marks: [mark] }, Date.now())])
-    store.setState({ marks })
+    setMarks({ marks })
     scorer?.addMarks([mark])
     rescore()
     void refreshSyncCounts()
@@ -343,12 +485,8 @@ export function createRecorder(transport: Transport = fetchTransport) {
     if (waiting) await idbOutbox.remove([waiting.key])
     else await saveOutboxItems([makeItem(meta.id, { type: "delete-mark", markId: last.id }, Date.now())])
     await saveMarks(meta.id, rest)
-    // The live scorer has no removal: build it again from what is stored.
-    const { samples } = await loadSamples(meta.id)
-    scorer = createLiveScorer(meta.profile)
-    scorer.addSamples([...samples, ...buffer])
-    scorer.addMarks(rest)
-    store.setState({ marks: rest })
+    setMarks({ marks: rest })
+    await rebuildScorer()
     rescore()
     void refreshSyncCounts()
     void flush()
@@ -379,11 +517,13 @@ export function createRecorder(transport: Transport = fetchTransport) {
 
   function dispose() {
     stopWatching()
+    live?.close()
+    live = null
     if (retryTimer) clearTimeout(retryTimer)
     void persistBuffer(true)
   }
 
-  return { store, load, start, joinAsCoDriver, addMark, undoLastMark, finish, flush, flushNow, retryFailed, dispose, persistBuffer }
+  return { store, load, start, joinAsCoDriver, addMark, undoLastMark, finish, flush, flushNow, retryFailed, dispose, persistBuffer, online, offline }
 }
 
 export type Recorder = ReturnType<typeof createRecorder>

@@ -3,8 +3,9 @@
 // and append it below. Give it `requiresEnv` (e.g. ["DATABASE_URL"] for ingestToRawInsertRatio,
 // ["BENCH_BASE_URL"] for syncSecondsFor36k) and it is reported as skipped when that is absent.
 import { ingestToRawInsertRatio, syncSecondsFor36k } from "./drives"
+import { liveFanoutP95Seconds, recordingDriveGetMs36k } from "./live"
 import { recorderFirstLoadKb } from "./pages"
 import { samplesScoredPerSecond, scoreToParseRatio } from "./scoring"
 import type { BenchFigure } from "./types"
 
-export const figures: BenchFigure[] = [scoreToParseRatio, samplesScoredPerSecond, ingestToRawInsertRatio, syncSecondsFor36k, recorderFirstLoadKb]
+export const figures: BenchFigure[] = [scoreToParseRatio, samplesScoredPerSecond, ingestToRawInsertRatio, syncSecondsFor36k, recorderFirstLoadKb, liveFanoutP95Seconds, recordingDriveGetMs36k]

@@ -122,6 +122,7 @@ describe("the recorder on a phone", () => {
     expect(marks[1]!.gap_ft).toBeGreaterThan(0)
 
     // The live meters and the server score the same data the same way.
+    await page.getByRole("button", { name: "Back to the driver's meters" }).click()
     const api = await signedIn(shop.tech)
     const score = (await api.get(`/api/drives/${driveId}/score`)).body
     const live = page.getByTestId("live-score")

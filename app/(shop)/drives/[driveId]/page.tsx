@@ -4,6 +4,7 @@ import { notFound } from "next/navigation"
 import { requirePageRole } from "@/app/_server/auth"
 import { loadRecordData } from "@/app/_server/record-data"
 import { SpeedChart, type ChartMark, type Stretch } from "@/components/charts/speed-chart"
+import { LiveDrive } from "@/components/drives/live-drive"
 import { RecordSummary } from "@/components/record/record-summary"
 import { TrackSvg } from "@/components/record/track-svg"
 import { MarkTimeline } from "@/components/review/mark-timeline"
@@ -44,6 +45,9 @@ export default async function DrivePage({ params }: { params: Promise<{ driveId:
         <Card className="flex items-center gap-3">
           <Radio aria-hidden className="size-6" />
           <p>This drive is still being recorded. Its verdict, chart and record appear once it is finished.</p>
+        </Card>
+        <Card>
+          <LiveDrive driveId={driveId} />
         </Card>
       </>
     )

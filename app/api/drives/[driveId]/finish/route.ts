@@ -1,3 +1,4 @@
+import { publishDriveEvent, statusBody } from "@/app/_server/live"
 import { route } from "@/app/_server/route"
 import { AppError } from "@/lib/errors"
 import { driveForRoute, driveJson, finishAndScore } from "../../_service"
@@ -6,6 +7,10 @@ import { driveForRoute, driveJson, finishAndScore } from "../../_service"
 export const POST = route<{ driveId: string }>(async (_req, ctx) => {
   const { db, drive } = await driveForRoute(ctx.params, "finish")
   if (drive.review_status !== null) throw new AppError("conflict", "This drive has been reviewed already.")
-  const result = await db.transaction().execute((trx) => finishAndScore(trx, drive))
+  const result = await db.transaction().execute(async (trx) => {
+    const r = await finishAndScore(trx, drive)
+    await publishDriveEvent(trx, r.drive, "status", statusBody(r.drive)) // every screen on the drive hears of it
+    return r
+  })
   return Response.json({ drive: driveJson(result.drive), score: result.score })
 })

@@ -1,5 +1,6 @@
+import { noteMarksStored } from "@/app/_server/live"
 import { parseJson, route } from "@/app/_server/route"
-import { insertMarks } from "@/db/queries/marks"
+import { insertMarksNotifying } from "@/db/queries/drive-events"
 import { markBatchSchema } from "@/lib/validation/drive"
 import { assertRecordingOpen, driveForRoute, rescoreFinishedDrive } from "../../_service"
 
@@ -8,9 +9,10 @@ export const POST = route<{ driveId: string }>(async (req, ctx) => {
   const { marks } = await parseJson(req, markBatchSchema)
   assertRecordingOpen(drive)
   const result = await db.transaction().execute(async (trx) => {
-    const r = await insertMarks(trx, drive.id, user.shopId, marks, user.id)
+    const r = await insertMarksNotifying(trx, drive.id, user.shopId, marks, user.id)
     if (r.accepted > 0) await rescoreFinishedDrive(trx, drive)
     return r
   })
-  return Response.json(result)
+  noteMarksStored(drive.id, result.stored)
+  return Response.json({ accepted: result.accepted, duplicates: result.duplicates })
 })

@@ -1,3 +1,4 @@
+import { noteSamplesStored } from "@/app/_server/live"
 import { parseJson, route } from "@/app/_server/route"
 import { insertSampleBatch } from "@/db/queries/samples"
 import { sampleBatchSchema } from "@/lib/validation/drive"
@@ -15,5 +16,7 @@ export const POST = route<{ driveId: string }>(async (req, ctx) => {
     if (!r.replayed && r.accepted > 0) await rescoreFinishedDrive(trx, drive)
     return r
   })
-  return Response.json(result)
+  noteSamplesStored(drive.id, samples, result.storedTs)
+  const { storedTs: _storedTs, ...body } = result
+  return Response.json(body)
 })

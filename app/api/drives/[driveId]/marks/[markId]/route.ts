@@ -1,6 +1,7 @@
 import { z } from "zod"
+import { noteMarkRemoved } from "@/app/_server/live"
 import { route, uuidParam } from "@/app/_server/route"
-import { deleteMark } from "@/db/queries/marks"
+import { deleteMarkNotifying } from "@/db/queries/drive-events"
 import { assertRecordingOpen, driveForRoute, rescoreFinishedDrive } from "../../../_service"
 
 const params = z.object({ driveId: uuidParam, markId: uuidParam })
@@ -10,7 +11,8 @@ export const DELETE = route<{ driveId: string; markId: string }>(async (_req, ct
   const { user, db, drive, params: { markId } } = await driveForRoute(ctx.params, "record", { schema: params })
   assertRecordingOpen(drive)
   await db.transaction().execute(async (trx) => {
-    if (await deleteMark(trx, drive.id, user.shopId, markId)) await rescoreFinishedDrive(trx, drive)
+    if (await deleteMarkNotifying(trx, drive.id, user.shopId, markId)) await rescoreFinishedDrive(trx, drive)
   })
+  noteMarkRemoved(drive.id)
   return new Response(null, { status: 204 })
 })

@@ -1,0 +1,81 @@
+"use client"
+import { CircleCheck, CloudOff, Hourglass, Radio } from "lucide-react"
+import { useRecorder } from "./use-recorder"
+
+const cx = (...parts: Array<string | false | null | undefined>) => parts.filter(Boolean).join(" ")
+const minutes = (seconds: number) => (seconds / 60).toFixed(1)
+const clock = (ms: number) => new Date(ms).toLocaleTimeString([], { hour: "2-digit", minute: "2-digit" })
+
+function Stat({ label, value, of, testId, raw }: { label: string; value: string; of?: string; testId: string; raw: number | null }) {
+  return (
+    <div className="rounded-lg bg-asphalt-900/60 px-1 py-1 text-center" data-testid={testId} data-value={raw ?? ""}>
+      <div className="text-xs text-graphite-300">{label}</div>
+      <div className="tabular text-xl leading-tight font-bold text-white">
+        {value}
+        {of ? <span className="text-xs font-semibold text-graphite-300">/{of}</span> : null}
+      </div>
+    </div>
+  )
+}
+
+/**
+ * What the co-driver needs above the buttons, in little height: the job, the minutes so far, the learn,
+ * and whether this phone is in touch with the rest of the crew (else it shows what it holds).
+ */
+export function CrewSummary() {
+  const meta = useRecorder((s) => s.meta)
+  const info = useRecorder((s) => s.driveInfo)
+  const score = useRecorder((s) => s.score)
+  const left = useRecorder((s) => s.minutesLeft)
+  const nowMs = useRecorder((s) => s.nowMs)
+  const live = useRecorder((s) => s.live)
+  const waitingMarks = useRecorder((s) => s.sync.waitingOther)
+  const scoreAsOf = useRecorder((s) => s.scoreAsOf)
+  if (!meta) return null
+  const p = meta.profile
+  const vehicle = info?.vehicleDescription ?? meta.vehicleDescription ?? meta.label
+  const elapsedS = Math.max(0, (nowMs - meta.startedAtMs) / 1000)
+  const q = score?.qualifyingSecondsBeforeClear ?? 0
+  const f = score?.followingSecondsBeforeClear ?? 0
+  const cleared = score?.clearedAtSeconds ?? null
+  const secondPhone = meta.role === "co-driver"
+  const offline = live.state === "offline"
+  const syncWord =
+    live.state === "live" || live.state === "polling"
+      ? "In touch with the crew"
+      : offline
+        ? "Offline: showing what this phone holds"
+        : "Connecting…"
+  return (
+    <section className="space-y-1.5 rounded-xl bg-asphalt-800 p-2" data-testid="crew-summary" data-verdict={score?.verdict ?? ""} aria-label="The drive so far">
+      <div className="flex items-center gap-2 text-sm">
+        <span className="min-w-0 flex-1 truncate font-semibold" data-testid="crew-job">
+          {info?.roNumber ? `RO ${info.roNumber} · ` : ""}
+          {vehicle}
+        </span>
+      </div>
+      <div className="grid grid-cols-4 gap-1">
+        <Stat testId="crew-elapsed" raw={elapsedS} label="Elapsed" value={minutes(elapsedS)} />
+        <Stat testId="crew-qualifying" raw={score?.qualifyingSeconds ?? null} label="Qualifying" value={minutes(q)} of={String(p.minQualifyingMinutes)} />
+        <Stat testId="crew-following" raw={score?.followingSeconds ?? null} label="Following" value={minutes(f)} of={String(p.minFollowingMinutes)} />
+        <Stat testId="crew-left" raw={left?.minutesLeft ?? null} label="Left" value={left?.minutesLeft == null ? "—" : left.minutesLeft.toFixed(0)} />
+      </div>
+      <div className="flex flex-wrap items-center gap-x-3 gap-y-0.5 text-sm">
+        <span
+          className={cx("inline-flex items-center gap-1 font-semibold", cleared !== null ? "text-teal-300" : "text-graphite-300")}
+          data-testid="crew-learn"
+          data-cleared={cleared !== null}
+        >
+          {cleared !== null ? <CircleCheck aria-hidden className="size-4" /> : <Hourglass aria-hidden className="size-4" />}
+          {cleared !== null ? `Learn complete at ${minutes(cleared)} min` : "Learn not complete yet"}
+        </span>
+        <span className={cx("ml-auto inline-flex items-center gap-1", offline && "text-signal-300")} data-testid="crew-sync" data-state={live.state}>
+          {offline ? <CloudOff aria-hidden className="size-4" /> : <Radio aria-hidden className="size-4" />}
+          {syncWord}
+          {waitingMarks ? ` · ${waitingMarks} to send` : ""}
+        </span>
+      </div>
+      {secondPhone && offline && scoreAsOf ? <p className="text-xs text-graphite-300">Minutes as of {clock(scoreAsOf)}, the last word from the server.</p> : null}
+    </section>
+  )
+}
