@@ -173,14 +173,14 @@ describe("a job with a learn drive and a road test", () => {
     expect(text).toContain(`Drive ${roadId.slice(0, 8)}: Met (this record)`)
     for (const c of checks) {
       const words = c.key === "sign-display" ? "Not equipped at 44.7 mph" : "Passed at 44.7 mph"
-      expect(text, c.label).toContain(`${c.label} ${words}`)
+      expect(text, c.label).toContain(`${c.label}: ${words} (counts at ${c.minSpeedMph === null ? "any speed" : `${c.minSpeedMph} mph or faster`}`)
     }
     expect(text).toContain("Straightaway holds no maker's values")
     // the learn drive's own record lists the same job
     const learnText = await pdfText(`/api/drives/${learnId}/record`, lead)
     expect(learnText).toContain(`Drive ${learnId.slice(0, 8)}`)
     expect(learnText).toContain("(this record)")
-    expect(learnText).toContain("Adaptive cruise engages at or above its speed Passed at 44.7 mph")
+    expect(learnText).toContain("Adaptive cruise engages at or above its speed: Passed at 44.7 mph")
   })
 
   it("a road test with a failed required check goes to the lead's queue, naming it", async () => {
