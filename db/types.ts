@@ -64,6 +64,8 @@ export interface ConditionProfileVersionTable {
   version: number
   /** A drive-file profile object (every key of shared/specs/drive-file.md resolved). */
   settings: Json<Record<string, unknown>>
+  /** Road-test checks (lib/drive-file/road-test.ts); null = the defaults of the profile's sensor. */
+  road_test_checks: Json<unknown[]> | null
   created_by: string | null
   created_at: GeneratedTimestamp
 }
@@ -145,6 +147,10 @@ export interface DriveTable {
   review_status: "approved" | "redo" | null
   /** Share links are signed with this; withdrawing a drive's links moves it on by one. */
   share_epoch: Generated<number>
+  /** learn, road_test or learn_and_road_test (lib/drive-file/road-test.ts). */
+  kind: Generated<"learn" | "road_test" | "learn_and_road_test">
+  /** The road-test checks the drive is held to, frozen at its start; null for a learn drive. */
+  road_test: Json<unknown[]> | null
   created_at: GeneratedTimestamp
   finished_at: Timestamp | null
 }
@@ -180,6 +186,9 @@ export interface MarkTable {
   created_at: GeneratedTimestamp
   /** Arrival order, for marks logged at the same millisecond. */
   seq: Generated<number>
+  /** Road-test check marks only. */
+  check_key: string | null
+  result: "pass" | "fail" | "not_equipped" | null
 }
 
 export interface ScoreTable {
@@ -220,6 +229,22 @@ export interface DriveEventTable {
   created_at: GeneratedTimestamp
 }
 
+/** The static set-up of one task: measurements typed from the maker's service information. */
+export interface SetupRecordTable {
+  task_id: string
+  shop_id: string
+  job_id: string
+  /** SetupMeasurement[] (lib/setup.ts). */
+  measurements: Json<unknown[]>
+  scan_result: "not_run" | "pass" | "fail"
+  scan_notes: Generated<string>
+  override_note: string | null
+  override_by: string | null
+  override_at: Timestamp | null
+  updated_by: string | null
+  updated_at: GeneratedTimestamp
+}
+
 export interface Database {
   shop: ShopTable
   app_user: AppUserTable
@@ -240,6 +265,7 @@ export interface Database {
   review: ReviewTable
   notification: NotificationTable
   drive_event: DriveEventTable
+  setup_record: SetupRecordTable
 }
 
 export type Shop = Selectable<ShopTable>

@@ -68,4 +68,5 @@ export const MARK_LABEL: LabelTable<MarkKind> = {
   verified: "Verified",
   "verify-failed": "Verify failed",
   note: "Note",
+  check: "Road-test check",
 }

@@ -2,7 +2,7 @@
 // Prints the score JSON and exits 0 (a not_met drive is still a successful scoring).
 // Unreadable, non-JSON or invalid input: exit 2 with one line on stderr naming the path and the problem.
 import { readFileSync } from "node:fs"
-import { formatParseError, parseDriveFile } from "@/lib/drive-file"
+import { formatParseError, parseAnyDriveFile } from "@/lib/drive-file"
 import { scoreDrive } from "@/lib/scoring"
 
 function fail(line: string): never {
@@ -28,7 +28,7 @@ try {
   fail(`${path}: not valid JSON (${(err as Error).message})`)
 }
 
-const parsed = parseDriveFile(json)
+const parsed = parseAnyDriveFile(json)
 if (!parsed.ok) fail(formatParseError(parsed))
 
 process.stdout.write(JSON.stringify(scoreDrive(parsed.file), null, 2) + "\n")

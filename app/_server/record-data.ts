@@ -10,6 +10,7 @@ import type { ShopSettings } from "@/db/types"
 import { resolveProfile } from "@/lib/drive-file/profile"
 import type { Mark, Profile } from "@/lib/drive-file/schema"
 import { checklistRows, computeTimeline, type RecordData, type RecordPhoto } from "@/lib/record"
+import { loadCalibrations } from "./record-calibrations"
 import { recordPhotoBytes } from "./thumbnails"
 
 export type RecordHead = NonNullable<Awaited<ReturnType<typeof findDriveRecordHead>>>
@@ -86,6 +87,7 @@ export async function loadRecordData(
     startedAt: score.startedAtMs ? new Date(score.startedAtMs).toISOString() : new Date(head.created_at).toISOString(),
     finishedAt: head.finished_at ? new Date(head.finished_at).toISOString() : null,
     generatedAt: new Date().toISOString(),
+    calibrations: head.job_id ? await loadCalibrations(db, head.job_id, shopId, head.id) : [],
   }
   return { head, data }
 }

@@ -11,6 +11,7 @@ import { apiFetch } from "@/components/ui/api-fetch"
 import { ChecklistForm, type ChecklistView } from "./checklist-form"
 import { JobStatusBadge } from "./job-status"
 import { PhotoUpload, type AttachmentView } from "./photo-upload"
+import { SetupForm } from "./setup-form"
 
 export type JobView = {
   id: string
@@ -31,7 +32,7 @@ export type JobView = {
   settings: { units: "imperial" | "metric"; tirePressureTolerancePsi: number }
 }
 
-export function JobDetail({ initialJob, canEdit }: { initialJob: JobView; canEdit: boolean }) {
+export function JobDetail({ initialJob, canEdit, isLead = false }: { initialJob: JobView; canEdit: boolean; isLead?: boolean }) {
   const { data } = useQuery({
     queryKey: ["job", initialJob.id],
     queryFn: async () => (await apiFetch<{ job: JobView }>(`/api/jobs/${initialJob.id}`)).job,
@@ -75,7 +76,8 @@ export function JobDetail({ initialJob, canEdit }: { initialJob: JobView; canEdi
       {job.tasks.map((task, i) => {
         const drives = job.drives.filter((d) => d.taskId === task.id)
         const photos = job.attachments.filter((a) => a.taskId === task.id)
-        const drivable = task.method !== "static"
+        // A static task has no drive learn, but its road test is a drive too (issue 13).
+        const drivable = true
         const ready = task.checklist?.ready === true
         return (
           <Card key={task.id} className="space-y-4" data-testid={`task-card-${i}`}>
@@ -109,6 +111,13 @@ export function JobDetail({ initialJob, canEdit }: { initialJob: JobView; canEdi
               />
             </section>
 
+            {task.method !== "dynamic" ? (
+              <section aria-label={`Target set-up for calibration ${i + 1}`} className="space-y-2">
+                <h3 className="font-semibold">Target set-up measurements</h3>
+                <SetupForm jobId={job.id} taskId={task.id} canEdit={canEdit} isLead={isLead} index={i} />
+              </section>
+            ) : null}
+
             <section aria-label={`Photos for calibration ${i + 1}`} className="space-y-2">
               <h3 className="font-semibold">Photos and printouts</h3>
               <PhotoUpload jobId={job.id} taskId={task.id} attachments={photos} canUpload={canEdit} />
@@ -118,7 +127,7 @@ export function JobDetail({ initialJob, canEdit }: { initialJob: JobView; canEdi
               <section className="space-y-2">
                 {ready ? (
                   <Link href={`/record?jobId=${job.id}&taskId=${task.id}`} className={buttonVariants({ variant: "signal", size: "lg" })} data-testid="start-drive">
-                    <Play aria-hidden className="size-5" /> Start a drive
+                    <Play aria-hidden className="size-5" /> {task.method === "static" ? "Start the road test" : "Start a drive"}
                   </Link>
                 ) : (
                   <p className="text-sm font-medium">Save a checklist with every check passing to start a drive.</p>

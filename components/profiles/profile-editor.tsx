@@ -8,11 +8,12 @@ import { Button } from "@/components/ui/button"
 import { Card } from "@/components/ui/card"
 import { Field, Input, Select } from "@/components/ui/field"
 import { FormDone, FormProblem, Options } from "@/components/ui/form"
-import type { ResolvedProfile } from "@/lib/drive-file"
+import { roadTestChecksSchema, type ResolvedProfile, type RoadTestCheck } from "@/lib/drive-file"
 import { SENSOR_LABEL, SENSORS } from "@/lib/validation/job"
 import { profileSettingsSchema } from "@/lib/validation/profile"
 import { issuesToFields } from "@/lib/validation/zod-fields"
 import { formatShown, fromDisplay, PROFILE_FIELDS, toDisplay, unitLabel, type Units } from "./profile-fields"
+import { fromDrafts, RoadTestChecksEditor, toDrafts } from "./road-test-checks-editor"
 
 type Values = { name: string; sensor: string; fields: Record<string, string> }
 
@@ -27,15 +28,20 @@ export function ProfileEditor({
   settings,
   units,
   canEdit,
+  roadTestChecks,
 }: {
   profile?: { id: string; name: string; sensor: string | null }
   settings: ResolvedProfile
+  /** An existing profile's road-test checks; a new profile gets its sensor's defaults. */
+  roadTestChecks?: RoadTestCheck[]
   units: Units
   canEdit: boolean
 }) {
   const router = useRouter()
   const [problem, setProblem] = useState<string | null>(null)
   const [done, setDone] = useState<string | null>(null)
+  const [checkDrafts, setCheckDrafts] = useState(() => toDrafts(roadTestChecks ?? []))
+  const [checkErrors, setCheckErrors] = useState<Record<string, string>>({})
   const shown = Object.fromEntries(
     PROFILE_FIELDS.map((f) => {
       const v = f.get(settings)
@@ -75,7 +81,14 @@ export function ProfileEditor({
       }
       return
     }
-    const body = { name: values.name, sensor: values.sensor || null, settings: parsed.data }
+    let checks: RoadTestCheck[] | undefined
+    if (roadTestChecks) {
+      const c = roadTestChecksSchema.safeParse(fromDrafts(checkDrafts))
+      setCheckErrors(c.success ? {} : Object.fromEntries(Object.entries(issuesToFields(c.error.issues)).map(([k, v]) => [`roadTestChecks.${k}`, v])))
+      if (!c.success) return
+      checks = c.data
+    }
+    const body = { name: values.name, sensor: values.sensor || null, settings: parsed.data, ...(checks ? { roadTestChecks: checks } : {}) }
     try {
       if (profile) {
         const res = await apiFetch<{ profile: { version: number } }>(`/api/profiles/${profile.id}`, { method: "PATCH", body })
@@ -113,6 +126,11 @@ export function ProfileEditor({
           )
         })}
       </Card>
+      {roadTestChecks ? (
+        <RoadTestChecksEditor drafts={checkDrafts} onChange={setCheckDrafts} sensor={profile?.sensor ?? null} canEdit={canEdit} errors={checkErrors} />
+      ) : (
+        <p className="text-sm text-graphite-600 dark:text-graphite-300">A new profile starts with its sensor&apos;s usual road-test checks; edit them once it is created.</p>
+      )}
       <FormProblem>{problem}</FormProblem>
       <FormDone>{done}</FormDone>
       {canEdit ? (

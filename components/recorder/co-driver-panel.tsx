@@ -4,6 +4,7 @@ import { useState, type ReactNode } from "react"
 import type { MarkKind } from "@/lib/drive-file/schema"
 import { MARK_LABEL as MARK_WORD } from "@/lib/labels"
 import { roundGapFt, timeGap, type TimeGap } from "@/lib/recorder/time-gap"
+import { RoadTestChecks } from "./road-test-checks"
 import { getRecorder, useRecorder } from "./use-recorder"
 
 const cx = (...parts: Array<string | false | null | undefined>) => parts.filter(Boolean).join(" ")
@@ -227,6 +228,7 @@ export function CoDriverPanel() {
           <Undo2 aria-hidden /> Undo
         </Big>
       </div>
+      <RoadTestChecks />
       <p className="text-sm text-graphite-400" data-testid="mark-count" data-value={marks.length}>
         {marks.length} marks logged
       </p>

@@ -1,6 +1,7 @@
 "use client"
 import { ShieldAlert } from "lucide-react"
 import { VerdictBadge } from "@/components/drives/verdict-badge"
+import { RoadTestResult } from "./road-test-result"
 import { SyncStatus } from "./sync-status"
 import { useRecorder } from "./use-recorder"
 
@@ -43,6 +44,7 @@ export function FinishScreen({ onNewDrive }: { onNewDrive: () => void }) {
           ))}
         </ul>
       </section>
+      <RoadTestResult score={score} />
       <section className="space-y-1 rounded-xl border-2 border-signal-400 p-3" aria-labelledby="final-word" data-testid="finish-caution">
         <h2 id="final-word" className="flex items-center gap-2 text-lg font-bold">
           <ShieldAlert aria-hidden className="size-5 shrink-0 text-signal-300" /> Now check the vehicle: it has the final word

@@ -88,7 +88,8 @@ export function StartFlow({ onStart }: { onStart: (choice: StartChoice) => void 
     setTaskId("")
     if (!jobId) return
     void getJson(`/api/jobs/${jobId}`).then((body) => {
-      const t: TaskSummary[] = (body?.job?.tasks ?? []).filter((x: any) => x.method !== "static")
+      // Static tasks too: their road test is a drive (issue 13).
+      const t: TaskSummary[] = body?.job?.tasks ?? []
       setTasks(t)
       const preferred = t.find((x) => x.id === wanted.taskId) ?? (t.length === 1 ? t[0] : undefined)
       if (preferred) setTaskId(preferred.id)

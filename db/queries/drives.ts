@@ -1,3 +1,4 @@
+import type { DriveKind, RoadTestCheck } from "@/lib/drive-file/road-test"
 import { sql } from "kysely"
 import type { Db } from "../client"
 import { harshEventCountSql } from "./scores"
@@ -23,6 +24,9 @@ export interface NewDriveValues {
   coDriverId: string | null
   status?: DriveStatus
   source?: "recorder" | "import"
+  /** learn (the default), road_test or learn_and_road_test, with the road-test checks frozen at the start. */
+  kind?: DriveKind
+  roadTest?: RoadTestCheck[] | null
 }
 
 /** Inserts the drive unless its id exists already; returns whether this call made it. */
@@ -41,6 +45,8 @@ export async function insertDrive(db: Db, v: NewDriveValues): Promise<boolean> {
       co_driver_id: v.coDriverId,
       status: v.status ?? "recording",
       source: v.source ?? "recorder",
+      kind: v.kind ?? "learn",
+      road_test: v.roadTest ? JSON.stringify(v.roadTest) : null,
     })
     .onConflict((oc) => oc.column("id").doNothing())
     .returning("id")

@@ -1,4 +1,4 @@
-import type { ApiMark, Mark } from "@/lib/drive-file/schema"
+import type { ApiMark, Mark2 as Mark } from "@/lib/drive-file/schema"
 import type { Db } from "../client"
 
 /** Stores marks by their client-made ids in one statement; an id seen before is a duplicate. */
@@ -21,6 +21,8 @@ export async function insertMarks(
         kind: m.kind,
         gap_ft: m.gapFt ?? null,
         text: m.text ?? null,
+        check_key: m.checkKey ?? null,
+        result: m.result ?? null,
         created_by: createdBy,
       })),
     )
@@ -44,7 +46,7 @@ export async function deleteMark(db: Db, driveId: string, shopId: string, markId
 export async function listMarks(db: Db, driveId: string, shopId: string): Promise<Array<Mark & { id: string }>> {
   const rows = await db
     .selectFrom("mark")
-    .select(["id", "t", "kind", "gap_ft", "text"])
+    .select(["id", "t", "kind", "gap_ft", "text", "check_key", "result"])
     .where("drive_id", "=", driveId)
     .where("shop_id", "=", shopId)
     .orderBy("t", "asc")
@@ -54,6 +56,8 @@ export async function listMarks(db: Db, driveId: string, shopId: string): Promis
     const m: Mark & { id: string } = { id: r.id, t: r.t, kind: r.kind as Mark["kind"] }
     if (r.gap_ft !== null) m.gapFt = r.gap_ft
     if (r.text !== null) m.text = r.text
+    if (r.check_key !== null) m.checkKey = r.check_key
+    if (r.result !== null) m.result = r.result
     return m
   })
 }

@@ -1,5 +1,5 @@
 import type { Transaction } from "kysely"
-import { resolveProfile, type Profile, type ResolvedProfile } from "@/lib/drive-file"
+import { defaultRoadTestChecks, resolveProfile, type Profile, type ResolvedProfile, type RoadTestCheck } from "@/lib/drive-file"
 import type { Db } from "../client"
 import type { Database } from "../types"
 
@@ -12,6 +12,8 @@ export type ProfileVersionInfo = {
   version: number
   versionId: string
   settings: ResolvedProfile
+  /** The version's road-test checks; a version stored before road tests existed reads as its sensor's defaults. */
+  roadTestChecks: RoadTestCheck[]
 }
 
 function versionQuery(db: Db, shopId: string) {
@@ -20,12 +22,27 @@ function versionQuery(db: Db, shopId: string) {
     .innerJoin("condition_profile_version as v", (j) =>
       j.onRef("v.profile_id", "=", "p.id").onRef("v.version", "=", "p.current_version").on("v.shop_id", "=", shopId),
     )
-    .select(["p.id as profileId", "p.key", "p.name", "p.sensor", "v.version", "v.id as versionId", "v.settings"])
+    .select(["p.id as profileId", "p.key", "p.name", "p.sensor", "v.version", "v.id as versionId", "v.settings", "v.road_test_checks"])
     .where("p.shop_id", "=", shopId)
 }
 
-function toInfo(row: { profileId: string; key: string; name: string; sensor: string | null; version: number; versionId: string; settings: Record<string, unknown> }): ProfileVersionInfo {
-  return { ...row, settings: resolveProfile(row.settings as Profile) }
+type VersionRow = {
+  profileId: string
+  key: string
+  name: string
+  sensor: string | null
+  version: number
+  versionId: string
+  settings: Record<string, unknown>
+  road_test_checks: unknown[] | null
+}
+
+function toInfo({ road_test_checks, ...row }: VersionRow): ProfileVersionInfo {
+  return { ...row, settings: resolveProfile(row.settings as Profile), roadTestChecks: resolveRoadTestChecks(road_test_checks, row.sensor) }
+}
+
+export function resolveRoadTestChecks(stored: unknown[] | null, sensor: string | null): RoadTestCheck[] {
+  return stored ? (stored as RoadTestCheck[]) : defaultRoadTestChecks(sensor)
 }
 
 /** The current version of the profile a job task uses; undefined when the task has none or is not in the shop. */
@@ -60,7 +77,7 @@ export async function findProfileVersionById(db: Db, versionId: string, shopId: 
   const row = await db
     .selectFrom("condition_profile_version as v")
     .innerJoin("condition_profile as p", "p.id", "v.profile_id")
-    .select(["p.id as profileId", "p.key", "p.name", "p.sensor", "v.version", "v.id as versionId", "v.settings"])
+    .select(["p.id as profileId", "p.key", "p.name", "p.sensor", "v.version", "v.id as versionId", "v.settings", "v.road_test_checks"])
     .where("v.id", "=", versionId)
     .where("v.shop_id", "=", shopId)
     .executeTakeFirst()
@@ -78,7 +95,7 @@ export function listProfileVersions(db: Db, profileId: string, shopId: string) {
   return db
     .selectFrom("condition_profile_version as v")
     .leftJoin("app_user as u", (j) => j.onRef("u.id", "=", "v.created_by").on("u.shop_id", "=", shopId))
-    .select(["v.id", "v.version", "v.settings", "v.created_at as createdAt", "u.name as createdByName"])
+    .select(["v.id", "v.version", "v.settings", "v.road_test_checks", "v.created_at as createdAt", "u.name as createdByName"])
     .where("v.profile_id", "=", profileId)
     .where("v.shop_id", "=", shopId)
     .orderBy("v.version", "desc")
@@ -108,7 +125,7 @@ export function findDefaultProfileForSensor(db: Db, sensor: string, shopId: stri
 
 export async function insertProfile(
   db: Db,
-  input: { shopId: string; key: string; name: string; sensor: string | null; settings: ResolvedProfile; userId: string },
+  input: { shopId: string; key: string; name: string; sensor: string | null; settings: ResolvedProfile; userId: string; roadTestChecks?: RoadTestCheck[] },
 ) {
   const profile = await db
     .insertInto("condition_profile")
@@ -117,7 +134,14 @@ export async function insertProfile(
     .executeTakeFirstOrThrow()
   await db
     .insertInto("condition_profile_version")
-    .values({ shop_id: input.shopId, profile_id: profile.id, version: 1, settings: JSON.stringify(input.settings), created_by: input.userId })
+    .values({
+      shop_id: input.shopId,
+      profile_id: profile.id,
+      version: 1,
+      settings: JSON.stringify(input.settings),
+      road_test_checks: JSON.stringify(input.roadTestChecks ?? defaultRoadTestChecks(input.sensor)),
+      created_by: input.userId,
+    })
     .execute()
   return profile.id
 }
@@ -126,7 +150,14 @@ export async function insertProfile(
  * Adds a version and makes it current. Old versions are never changed, so a drive that points at one keeps
  * the settings it was scored with. Locks the profile row so two edits cannot take the same number.
  */
-export async function insertProfileVersion(db: Transaction<Database>, profileId: string, shopId: string, settings: ResolvedProfile, userId: string) {
+export async function insertProfileVersion(
+  db: Transaction<Database>,
+  profileId: string,
+  shopId: string,
+  settings: ResolvedProfile,
+  userId: string,
+  roadTestChecks?: RoadTestCheck[],
+) {
   const profile = await db
     .selectFrom("condition_profile")
     .select(["current_version"])
@@ -137,7 +168,14 @@ export async function insertProfileVersion(db: Transaction<Database>, profileId:
   const version = profile.current_version + 1
   await db
     .insertInto("condition_profile_version")
-    .values({ shop_id: shopId, profile_id: profileId, version, settings: JSON.stringify(settings), created_by: userId })
+    .values({
+      shop_id: shopId,
+      profile_id: profileId,
+      version,
+      settings: JSON.stringify(settings),
+      road_test_checks: roadTestChecks ? JSON.stringify(roadTestChecks) : null,
+      created_by: userId,
+    })
     .execute()
   await db.updateTable("condition_profile").set({ current_version: version }).where("id", "=", profileId).where("shop_id", "=", shopId).execute()
   return version
@@ -148,7 +186,16 @@ export function updateProfileFields(db: Db, profileId: string, shopId: string, c
 }
 
 export function profileVersionJson(p: ProfileVersionInfo) {
-  return { id: p.profileId, key: p.key, name: p.name, sensor: p.sensor, version: p.version, versionId: p.versionId, settings: p.settings }
+  return {
+    id: p.profileId,
+    key: p.key,
+    name: p.name,
+    sensor: p.sensor,
+    version: p.version,
+    versionId: p.versionId,
+    settings: p.settings,
+    roadTestChecks: p.roadTestChecks,
+  }
 }
 
 /** GET /api/profiles/:id's body: the profile at its current version, and every version newest first. */
@@ -165,6 +212,7 @@ export async function loadProfileDetail(db: Db, profileId: string, shopId: strin
       id: v.id,
       version: v.version,
       settings: resolveProfile(v.settings as Profile),
+      roadTestChecks: resolveRoadTestChecks(v.road_test_checks, profile.sensor),
       createdAt: v.createdAt,
       createdBy: v.createdByName,
     })),

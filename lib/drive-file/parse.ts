@@ -1,5 +1,9 @@
 import type { z } from "zod"
-import { driveFileSchema, type DriveFile } from "./schema"
+import { DRIVE_FORMAT, DRIVE_FORMAT_2, driveFileSchema, driveFileSchema2, type AnyDriveFile, type DriveFile } from "./schema"
+
+export type ParseAnyDriveFileResult =
+  | { ok: true; file: AnyDriveFile }
+  | { ok: false; path: string; message: string }
 
 export type ParseDriveFileResult =
   | { ok: true; file: DriveFile }
@@ -58,4 +62,24 @@ export function parseDriveFile(input: unknown): ParseDriveFileResult {
   if (result.success) return { ok: true, file: result.data }
   const issue = result.error.issues[0]!
   return { ok: false, path: formatIssuePath(issue.path), message: issueMessage(issue) }
+}
+
+/**
+ * A file of either version: `straightaway.drive/2` by its own schema, anything else exactly as
+ * parseDriveFile reads version 1 (so a version 1 file is read and refused as it always was), except
+ * that an unknown format names both versions.
+ */
+export function parseAnyDriveFile(input: unknown): ParseAnyDriveFileResult {
+  const format = typeof input === "object" && input !== null ? (input as { format?: unknown }).format : undefined
+  if (format === DRIVE_FORMAT_2) {
+    const result = driveFileSchema2.safeParse(input)
+    if (result.success) return { ok: true, file: result.data }
+    const issue = result.error.issues[0]!
+    return { ok: false, path: formatIssuePath(issue.path), message: issueMessage(issue) }
+  }
+  const r = parseDriveFile(input)
+  if (!r.ok && r.path === "format" && format !== DRIVE_FORMAT) {
+    return { ok: false, path: "format", message: `must be "${DRIVE_FORMAT}" or "${DRIVE_FORMAT_2}"` }
+  }
+  return r
 }

@@ -1,4 +1,4 @@
-import type { DriveFile } from "@/lib/drive-file/schema"
+import type { AnyDriveFile as DriveFile } from "@/lib/drive-file/schema"
 import { mpsToMph } from "@/lib/units"
 import { classifySamples, formatDecimal, isoUtc, leadStatesAt, sortMarks } from "./shared"
 

@@ -1,4 +1,4 @@
-import type { DriveFile, Mark } from "@/lib/drive-file/schema"
+import type { AnyDriveFile as DriveFile, Mark2 as Mark } from "@/lib/drive-file/schema"
 import { resolveProfile } from "@/lib/drive-file/profile"
 import { MARK_LABELS, classifySamples, formatDecimal, isoUtc, leadStatesAt, sortMarks } from "./shared"
 
@@ -83,6 +83,7 @@ function gpxLon(lon: number): number {
 
 function markDescription(m: Mark): string | null {
   if (m.kind === "note") return m.text ?? null
+  if (m.kind === "check" && m.checkKey) return `${m.checkKey}: ${m.result ?? ""}`
   if ((m.kind === "lead-on" || m.kind === "gap") && m.gapFt != null) return `Gap ${formatDecimal(m.gapFt)} ft`
   return null
 }

@@ -1,4 +1,4 @@
-import type { DriveFile, Mark, Sample } from "@/lib/drive-file/schema"
+import type { AnyDriveFile as DriveFile, Mark2 as Mark, Sample } from "@/lib/drive-file/schema"
 import { resolveProfile } from "@/lib/drive-file/profile"
 import { applyLeadMark, type LeadState } from "@/lib/scoring/lead-state"
 
@@ -63,4 +63,5 @@ export const MARK_LABELS: Record<Mark["kind"], string> = {
   verified: "Verified working",
   "verify-failed": "Verify failed",
   note: "Note",
+  check: "Road-test check",
 }

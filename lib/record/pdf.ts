@@ -15,6 +15,7 @@ import {
   VERDICT_WORD,
 } from "./format"
 import { projectTrack, STATE_LABEL, thinTimeline, type StretchState } from "./timeline"
+import { checkWords, measurementWords, scanResultWords } from "./calibrations"
 import type { RecordData } from "./types"
 
 // US Letter in points; margins wide enough for a hole punch.
@@ -248,6 +249,7 @@ export async function buildDriveRecordPdf(data: RecordData): Promise<Uint8Array>
     if (data.checklist.completedBy) w.row("Checked by", `${data.checklist.completedBy}${data.checklist.completedAt ? `, ${fmtDateTime(data.checklist.completedAt)}` : ""}`)
   } else w.text("No checklist was recorded for this drive.", { color: MUTED })
   await drawPhotos(w, data)
+  drawCalibrations(w, data)
 
   // Review
   w.heading("Shop lead's review")
@@ -319,4 +321,47 @@ async function drawPhotos(w: Writer, data: RecordData) {
 function fmtDateTime(iso: string) {
   const d = new Date(iso)
   return `${d.toISOString().slice(0, 16).replace("T", " ")} UTC`
+}
+
+// ---- Per system of the job: static set-up, learn drive, road test (issue 13) ----
+
+const verdictWord = (v: string | null) => (v ? ((VERDICT_WORD as Record<string, string>)[v] ?? v) : "not finished")
+
+function drawCalibrations(w: Writer, data: RecordData) {
+  const systems = data.calibrations ?? []
+  if (!systems.length) return
+  w.heading("Each system calibrated on this job")
+  for (const sys of systems) {
+    w.ensure(60)
+    w.text(`${SENSOR_LABEL[sys.sensor] ?? sys.sensor} - ${METHOD_LABEL[sys.method] ?? sys.method}`, { size: 12, bold: true, gap: 4 })
+    if (sys.method !== "dynamic") {
+      if (sys.setup) {
+        w.text("Static set-up (figures typed from the maker's service information)", { size: 10, bold: true })
+        for (const m of sys.setup.measurements) w.row(m.label, measurementWords(m), { mark: m.outOfTolerance ? "NO" : "OK" })
+        w.row("Scan tool result", `${scanResultWords(sys.setup.scanResult)}${sys.setup.scanNotes ? `: ${sys.setup.scanNotes}` : ""}`)
+        if (sys.setup.override) {
+          w.row("Lead's override", `${sys.setup.override.note} (${sys.setup.override.by ?? "a shop lead"}${sys.setup.override.at ? `, ${fmtDateTime(sys.setup.override.at)}` : ""})`)
+        }
+        if (sys.setup.recordedBy) w.row("Recorded by", `${sys.setup.recordedBy}${sys.setup.recordedAt ? `, ${fmtDateTime(sys.setup.recordedAt)}` : ""}`)
+      } else w.text("No static set-up was recorded.", { color: MUTED })
+    }
+    if (sys.learnDrives.length) {
+      for (const d of sys.learnDrives) {
+        w.row("Learn drive", `Drive ${d.driveId.slice(0, 8)}, ${fmtDateTime(d.startedAt)}: ${verdictWord(d.verdict)}${d.thisDrive ? " (this record)" : ""}`)
+      }
+    } else if (sys.method !== "static") w.row("Learn drive", "None recorded")
+    if (sys.roadTest) {
+      w.row(
+        "Road test",
+        `Drive ${sys.roadTest.driveId.slice(0, 8)}: ${verdictWord(sys.roadTest.verdict)}${sys.roadTest.thisDrive ? " (this record)" : ""}`,
+      )
+      // One line of text per check (not a row): a long check name must not interleave with its result.
+      for (const c of sys.roadTest.checks) {
+        const mark = c.status === "passed" ? "OK" : c.status === "not_equipped" && c.need !== "required" ? "N/A" : "NO"
+        w.text(`${mark} - ${c.label}: ${checkWords(c)}`, { size: 10, x: MARGIN + 10 })
+      }
+    } else w.row("Road test", "None recorded")
+    for (const caution of sys.cautions) w.text(`- ${caution}`, { size: 9, color: MUTED })
+    w.y -= 6
+  }
 }

@@ -1,5 +1,5 @@
 import type { ResolvedProfile } from "@/lib/drive-file/profile"
-import type { Mark, Sample } from "@/lib/drive-file/schema"
+import type { Mark2 as Mark, Sample } from "@/lib/drive-file/schema"
 import { geodesicDistanceM } from "@/lib/scoring/geodesy"
 import { mphToMps, mpsToMph } from "@/lib/units"
 

@@ -22,6 +22,46 @@ export interface ChecklistRow {
   ok: boolean | null
 }
 
+export interface RecordMeasurement {
+  label: string
+  value: number
+  specified: number
+  tolerance: number
+  unit: string
+  outOfTolerance: boolean
+}
+
+export interface RecordCheck {
+  label: string
+  need: string
+  minSpeedMph: number | null
+  status: string
+  speedMph: number | null
+}
+
+/** One system of the job on the record: its static set-up, its learn drives and its road-test checks (issue 13). */
+export interface CalibrationRecord {
+  sensor: string
+  method: string
+  reason: string
+  setup: {
+    measurements: RecordMeasurement[]
+    scanResult: string
+    scanNotes: string
+    override: { note: string; by: string | null; at: string | null } | null
+    recordedBy: string | null
+    recordedAt: string | null
+  } | null
+  learnDrives: Array<{ driveId: string; verdict: string | null; startedAt: string; thisDrive: boolean }>
+  roadTest: {
+    driveId: string
+    verdict: string | null
+    thisDrive: boolean
+    checks: RecordCheck[]
+  } | null
+  cautions: string[]
+}
+
 /** Everything the drive record shows, as plain data: the PDF, the share page and the detail page read this. */
 export interface RecordData {
   driveId: string
@@ -43,4 +83,6 @@ export interface RecordData {
   startedAt: string | null
   finishedAt: string | null
   generatedAt: string
+  /** Per system of the job: set-up, learn drive, road test (absent on records made before road tests). */
+  calibrations?: CalibrationRecord[]
 }

@@ -459,7 +459,7 @@ export function createRecorder(transport: Transport = fetchTransport) {
     return load(input.id)
   }
 
-  async function addMark(kind: MarkKind, extra: { gapFt?: number; text?: string } = {}) {
+  async function addMark(kind: MarkKind, extra: Partial<Pick<ApiMark, "gapFt" | "text" | "checkKey" | "result">> = {}) {
     const meta = store.getState().meta
     if (!meta) return null
     const mark: ApiMark = { id: crypto.randomUUID(), t: Date.now(), kind, ...extra }

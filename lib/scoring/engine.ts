@@ -1,4 +1,4 @@
-import type { Mark, Sample } from "@/lib/drive-file/schema"
+import type { Mark2 as Mark, Sample } from "@/lib/drive-file/schema"
 import type { ResolvedProfile } from "@/lib/drive-file/profile"
 import { mphToMps } from "@/lib/units"
 import { reducedLatitude, vincentyFromReduced } from "./geodesy"

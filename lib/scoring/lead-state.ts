@@ -1,4 +1,4 @@
-import type { Mark } from "@/lib/drive-file/schema"
+import type { Mark2 as Mark } from "@/lib/drive-file/schema"
 
 export interface LeadState {
   leadOn: boolean

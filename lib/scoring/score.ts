@@ -1,15 +1,62 @@
-import type { DriveFile, Mark, Profile, Sample } from "@/lib/drive-file/schema"
+import type { AnyDriveFile, Mark2 as Mark, Profile, Sample } from "@/lib/drive-file/schema"
 import { resolveProfile, type ResolvedProfile } from "@/lib/drive-file/profile"
+import { hasLearn, type DriveKind, type RoadTestCheck } from "@/lib/drive-file/road-test"
 import { mpsToMph } from "@/lib/units"
 import { ScoringEngine, type EngineTotals } from "./engine"
+import { scoreRoadTest, worseVerdict } from "./road-test"
 import type { Condition, Score, Verdict } from "./types"
 
-/** Scores a drive file that has already passed parseDriveFile (no validation here: this is the hot path). */
-export function scoreDrive(file: DriveFile): Score {
+/**
+ * Scores a drive file that has already passed parseDriveFile or parseAnyDriveFile (no validation here: this
+ * is the hot path). A version 1 file is scored exactly as before; a version 2 file adds its road test.
+ */
+export function scoreDrive(file: AnyDriveFile): Score {
   const engine = new ScoringEngine(resolveProfile(file.profile))
   engine.addSamples(file.samples)
   engine.addMarks(file.marks)
-  return buildScore(engine)
+  const score = buildScore(engine)
+  if (file.format !== "straightaway.drive/2") return score
+  return withRoadTest(score, engine, file.kind, file.roadTest?.checks ?? [])
+}
+
+/**
+ * Version 2: `learn` is scored as version 1; `road_test` by its checks alone (the learn conditions are left
+ * out, the advisory ones stay); `learn_and_road_test` gets the worse verdict of the two and both sets of reasons.
+ */
+function withRoadTest(score: Score, engine: ScoringEngine, kind: DriveKind, checks: readonly RoadTestCheck[]): Score {
+  if (kind === "learn") return { ...score, kind }
+  const road = scoreRoadTest(checks, engine.totals().marks, (ms) => engine.speedAtMoment(ms))
+  const condition: Condition = {
+    key: "road-test",
+    label: "Road-test checks passed at their speeds",
+    met: road.met,
+    value: road.passedRequired,
+    required: road.required,
+    unit: "checks",
+    advisory: false,
+    ...(road.met ? {} : { reason: road.reasons.join(" ") }),
+  }
+  const notes = [...score.notes, ...road.checks.filter((c) => !c.blocks && c.reason).map((c) => c.reason!)]
+  if (!hasLearn(kind)) {
+    return {
+      ...score,
+      kind,
+      verdict: road.verdict,
+      reasons: road.reasons,
+      notes,
+      conditions: [condition, ...score.conditions.filter((c) => c.advisory)],
+      roadTest: road,
+    }
+  }
+  return {
+    ...score,
+    kind,
+    verdict: worseVerdict(score.verdict, road.verdict),
+    reasons: [...score.reasons, ...road.reasons],
+    notes,
+    conditions: [...score.conditions, condition],
+    roadTest: road,
+  }
 }
 
 export interface LiveScorer {

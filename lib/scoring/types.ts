@@ -1,4 +1,6 @@
 import type { ResolvedProfile } from "@/lib/drive-file/profile"
+import type { DriveKind } from "@/lib/drive-file/road-test"
+import type { RoadTestScore } from "./road-test"
 
 export type Verdict = "met" | "short" | "not_met" | "unverified"
 
@@ -10,6 +12,7 @@ export type ConditionKey =
   | "verified"
   | "harsh-events"
   | "data-gaps"
+  | "road-test"
 
 export interface Condition {
   key: ConditionKey
@@ -18,7 +21,7 @@ export interface Condition {
   met: boolean
   value: number | null
   required: number | null
-  unit: "s" | "mph" | "events"
+  unit: "s" | "mph" | "events" | "checks"
   /** Advisory conditions are reported but never change the verdict. */
   advisory: boolean
   /** One plain sentence when not met. */
@@ -49,4 +52,8 @@ export interface Score {
   endedAtMs: number | null
   conditions: Condition[]
   profile: ResolvedProfile
+  /** Version 2 files only: what the drive was for. */
+  kind?: DriveKind
+  /** Version 2 road tests only: every check with its result, speed and status. */
+  roadTest?: RoadTestScore
 }

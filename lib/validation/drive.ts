@@ -1,4 +1,5 @@
 import { z } from "zod"
+import { DRIVE_KINDS, roadTestChecksSchema } from "@/lib/drive-file/road-test"
 import { apiMarkSchema, profileSchema, sampleSchema } from "@/lib/drive-file/schema"
 import { isTimestampText, UUID_TEXT } from "@/lib/validation/storable"
 
@@ -18,6 +19,10 @@ export const createDriveSchema = z.object({
   profileKey: z.string().trim().min(1).max(100).optional(),
   profile: profileSchema.optional(),
   coDriverId: z.string().min(1).max(100).nullable().optional(),
+  /** learn, road_test or learn_and_road_test; absent: from the task's method (static: road test, both: both). */
+  kind: z.enum(DRIVE_KINDS, { error: `must be one of ${DRIVE_KINDS.join(", ")}` }).optional(),
+  /** A road test's checks; absent: those of every system of the job. */
+  roadTestChecks: roadTestChecksSchema.optional(),
 })
 export type CreateDriveInput = z.output<typeof createDriveSchema>
 

@@ -1,5 +1,5 @@
 import { z } from "zod"
-import { profileSchema } from "@/lib/drive-file"
+import { profileSchema, roadTestChecksSchema } from "@/lib/drive-file"
 import { SENSORS } from "@/lib/labels"
 
 export const profileKeySchema = z
@@ -18,6 +18,8 @@ export const newProfileSchema = z.object({
   name: z.string().trim().min(1, "is required").max(120, "must be at most 120 characters"),
   sensor: z.enum(SENSORS).nullable().optional(),
   settings: profileSettingsSchema.default({}),
+  /** Absent: the defaults of the profile's sensor (lib/drive-file/road-test.ts). */
+  roadTestChecks: roadTestChecksSchema.optional(),
 })
 export type NewProfile = z.output<typeof newProfileSchema>
 
@@ -27,6 +29,7 @@ export const profileChangeSchema = z
     sensor: z.enum(SENSORS).nullable().optional(),
     archived: z.boolean().optional(),
     settings: profileSettingsSchema.optional(),
+    roadTestChecks: roadTestChecksSchema.optional(),
   })
   .refine((v) => Object.values(v).some((x) => x !== undefined), "Nothing to change.")
 export type ProfileChange = z.output<typeof profileChangeSchema>

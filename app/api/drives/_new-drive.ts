@@ -8,6 +8,7 @@ import type { DriveActor } from "@/lib/access/drive"
 import { resolveProfile, type Profile } from "@/lib/drive-file"
 import { validationFailed } from "@/lib/errors"
 import type { CreateDriveInput } from "@/lib/validation/drive"
+import { resolveRoadTest } from "./_road-test"
 
 /**
  * Checks what a new drive refers to (job, task, co-driver, profile: all in the actor's shop; anything
@@ -18,17 +19,19 @@ export async function resolveNewDrive(
   db: Db,
   actor: DriveActor,
   id: string,
-  input: Pick<CreateDriveInput, "jobId" | "taskId" | "vehicleDescription" | "profileKey" | "profile" | "coDriverId">,
+  input: Pick<CreateDriveInput, "jobId" | "taskId" | "vehicleDescription" | "profileKey" | "profile" | "coDriverId" | "kind" | "roadTestChecks">,
   driverId = actor.id,
 ): Promise<NewDriveValues> {
   let jobId = input.jobId ?? null
   let taskProfileId: string | null = null
+  let taskMethod: string | null = null
   if (input.taskId) {
     const task = await findTaskForDrive(db, input.taskId, actor.shopId)
     if (!task) validationFailed({ taskId: "is not a task of a job in this shop" })
     if (jobId && task.job_id !== jobId) validationFailed({ taskId: "belongs to another job" })
     jobId = task.job_id
     taskProfileId = task.profile_id
+    taskMethod = task.method
   }
   let vehicleDescription = input.vehicleDescription?.trim() || null
   if (jobId) {
@@ -65,5 +68,6 @@ export async function resolveNewDrive(
     profile: resolveProfile(profile) as unknown as Record<string, unknown>,
     driverId,
     coDriverId,
+    ...(await resolveRoadTest(db, actor.shopId, { jobId, method: taskMethod, kind: input.kind, checks: input.roadTestChecks })),
   }
 }

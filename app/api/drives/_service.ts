@@ -94,6 +94,8 @@ export function driveJson(drive: Drive, extra: Record<string, unknown> = {}) {
     reviewStatus: drive.review_status,
     createdAt: drive.created_at,
     finishedAt: drive.finished_at,
+    kind: drive.kind,
+    roadTestChecks: drive.road_test,
     ...extra,
   }
 }

@@ -9,6 +9,7 @@ import { AppError } from "@/lib/errors"
 import { createDriveSchema, listDrivesQuery, parseDriveCursor } from "@/lib/validation/drive"
 import { accessFacts, driveJson } from "./_service"
 import { resolveNewDrive } from "./_new-drive"
+import { assertRoadTestMayStart } from "./_road-test"
 
 export const GET = route(async (req) => {
   const { user } = await requireRole()
@@ -49,6 +50,7 @@ export const POST = route(async (req) => {
   const existing = await findDriveInShop(db, id, user.shopId)
   if (existing) return replay(existing)
   const values = await resolveNewDrive(db, user, id, input)
+  if (values.roadTest && values.jobId) await assertRoadTestMayStart(db, user.shopId, values.jobId)
   const made = await db.transaction().execute(async (trx) => {
     const inserted = await insertDrive(trx, values)
     if (inserted && values.jobId) await setJobStatus(trx, values.jobId, user.shopId, "drive")

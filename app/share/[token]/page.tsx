@@ -1,6 +1,7 @@
 import { Building2, Clock, FileDown, LinkIcon, ShieldAlert } from "lucide-react"
 import type { Metadata } from "next"
 import { loadSharedRecord } from "@/app/_server/record-data"
+import { CalibrationsSection } from "@/components/record/calibrations-section"
 import { RecordSummary } from "@/components/record/record-summary"
 import { TrackSvg } from "@/components/record/track-svg"
 import { Logo } from "@/components/shell/logo"
@@ -107,6 +108,7 @@ function SharedRecord({ token, shared }: { token: string; shared: Extract<Awaite
         </h2>
         <RecordSummary score={data.score} meaning={VERDICT_MEANING[verdict]} />
       </section>
+      <CalibrationsSection calibrations={data.calibrations} />
       <section
         aria-labelledby="please-read"
         className="space-y-2 rounded-xl border-2 border-signal-500 bg-signal-300/15 p-4 dark:border-signal-400 dark:bg-signal-700/20"

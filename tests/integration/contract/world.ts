@@ -183,6 +183,7 @@ const SHOP_TABLES = [
   "condition_profile",
   "condition_profile_version",
   "notification",
+  "setup_record",
 ] as const
 
 /** Every row a shop owns (sessions aside), as text: equal before and after = nothing of the shop changed. */

@@ -20,7 +20,7 @@ export default async function JobPage({ params }: { params: Promise<{ jobId: str
   return (
     <div className="mx-auto max-w-3xl">
       <PageHeader title={roLabel(job.roNumber)} description={job.customer.name} />
-      <JobDetail initialJob={initialJob} canEdit />
+      <JobDetail initialJob={initialJob} canEdit isLead={user.role === "shop_lead" || user.role === "admin"} />
     </div>
   )
 }

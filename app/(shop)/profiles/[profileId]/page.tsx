@@ -31,6 +31,7 @@ export default async function ProfilePage({ params }: { params: Promise<{ profil
         key={profile.versionId}
         profile={{ id: profile.id, name: profile.name, sensor: profile.sensor }}
         settings={profile.settings}
+        roadTestChecks={profile.roadTestChecks}
         units={units}
         canEdit={hasRole(user.role, ["shop_lead"])}
       />

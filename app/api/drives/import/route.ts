@@ -22,6 +22,8 @@ export const POST = route(async (req) => {
   // The file's own profile (defaults for missing keys) is the one it was held to, whatever the task says.
   values.profile = resolveProfile(file.profile) as unknown as Record<string, unknown>
   values.profileVersionId = null
+  values.kind = file.format === "straightaway.drive/2" ? file.kind : "learn"
+  values.roadTest = file.format === "straightaway.drive/2" ? (file.roadTest?.checks ?? null) : null
   const result = await db.transaction().execute(async (trx) => {
     await insertDrive(trx, { ...values, source: "import" })
     await insertSamples(trx, id, user.shopId, file.samples)

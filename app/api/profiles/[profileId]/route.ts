@@ -23,11 +23,14 @@ export const PATCH = route<{ profileId: string }>(async (req, { params }) => {
   const db = getDb()
   await db.transaction().execute(async (trx) => {
     const current = (await findCurrentProfileVersionById(trx, profileId, user.shopId)) ?? notFound("That profile")
-    const { settings, ...fields } = changes
+    const { settings, roadTestChecks, ...fields } = changes
     if (Object.values(fields).some((v) => v !== undefined)) await updateProfileFields(trx, profileId, user.shopId, fields)
-    if (settings) {
-      const next = resolveProfile(settings)
-      if (JSON.stringify(next) !== JSON.stringify(current.settings)) await insertProfileVersion(trx, profileId, user.shopId, next, user.id)
+    if (settings || roadTestChecks) {
+      const next = settings ? resolveProfile(settings) : current.settings
+      const checks = roadTestChecks ?? current.roadTestChecks
+      if (JSON.stringify(next) !== JSON.stringify(current.settings) || JSON.stringify(checks) !== JSON.stringify(current.roadTestChecks)) {
+        await insertProfileVersion(trx, profileId, user.shopId, next, user.id, checks)
+      }
     }
   })
   return Response.json(await loadProfileDetail(db, profileId, user.shopId))

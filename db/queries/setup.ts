@@ -1,0 +1,74 @@
+import { sql } from "kysely"
+import { isOutOfTolerance, type SetupInput, type SetupMeasurement } from "@/lib/setup"
+import type { Db } from "../client"
+
+export function findSetupRecord(db: Db, taskId: string, shopId: string) {
+  return db
+    .selectFrom("setup_record as s")
+    .leftJoin("app_user as o", (j) => j.onRef("o.id", "=", "s.override_by").on("o.shop_id", "=", shopId))
+    .leftJoin("app_user as u", (j) => j.onRef("u.id", "=", "s.updated_by").on("u.shop_id", "=", shopId))
+    .selectAll("s")
+    .select(["o.name as override_by_name", "u.name as updated_by_name"])
+    .where("s.task_id", "=", taskId)
+    .where("s.shop_id", "=", shopId)
+    .executeTakeFirst()
+}
+export type SetupRow = NonNullable<Awaited<ReturnType<typeof findSetupRecord>>>
+
+export function listSetupRecordsForJob(db: Db, jobId: string, shopId: string) {
+  return db
+    .selectFrom("setup_record as s")
+    .leftJoin("app_user as o", (j) => j.onRef("o.id", "=", "s.override_by").on("o.shop_id", "=", shopId))
+    .leftJoin("app_user as u", (j) => j.onRef("u.id", "=", "s.updated_by").on("u.shop_id", "=", shopId))
+    .selectAll("s")
+    .select(["o.name as override_by_name", "u.name as updated_by_name"])
+    .where("s.job_id", "=", jobId)
+    .where("s.shop_id", "=", shopId)
+    .execute()
+}
+
+/** New figures replace the old ones and withdraw any override: a lead looks again at what is now recorded. */
+export async function upsertSetupRecord(db: Db, v: { taskId: string; jobId: string; shopId: string; userId: string; input: SetupInput }) {
+  const values = {
+    measurements: JSON.stringify(v.input.measurements),
+    scan_result: v.input.scanResult,
+    scan_notes: v.input.scanNotes ?? "",
+    override_note: null,
+    override_by: null,
+    override_at: null,
+    updated_by: v.userId,
+    updated_at: sql<Date>`now()`,
+  }
+  await db
+    .insertInto("setup_record")
+    .values({ task_id: v.taskId, job_id: v.jobId, shop_id: v.shopId, ...values })
+    .onConflict((oc) => oc.column("task_id").doUpdateSet(values))
+    .execute()
+}
+
+export async function setSetupOverride(db: Db, taskId: string, shopId: string, note: string, userId: string) {
+  await db
+    .updateTable("setup_record")
+    .set({ override_note: note, override_by: userId, override_at: sql<Date>`now()` })
+    .where("task_id", "=", taskId)
+    .where("shop_id", "=", shopId)
+    .execute()
+}
+
+export function setupJson(row: SetupRow) {
+  const measurements = row.measurements as SetupMeasurement[]
+  const outOfTolerance = measurements.filter(isOutOfTolerance).length
+  return {
+    taskId: row.task_id,
+    measurements: measurements.map((m) => ({ ...m, outOfTolerance: isOutOfTolerance(m) })),
+    scanResult: row.scan_result,
+    scanNotes: row.scan_notes,
+    outOfTolerance,
+    override: row.override_note ? { note: row.override_note, by: row.override_by_name, at: row.override_at } : null,
+    /** Whether this set-up keeps the job's road test from starting. */
+    blocksRoadTest: outOfTolerance > 0 && !row.override_note,
+    updatedBy: row.updated_by_name,
+    updatedAt: row.updated_at,
+  }
+}
+export type SetupJson = ReturnType<typeof setupJson>
