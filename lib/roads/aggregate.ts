@@ -58,7 +58,9 @@ export function speedBucket(speedMps: number): number {
 
 function keptSamples(samples: Sample[], profile: ResolvedProfile): Sample[] {
   const kept = samples.filter((s) => s.accuracy == null || s.accuracy <= profile.maxAccuracyM)
-  kept.sort((a, b) => a.t - b.t)
+  let sorted = true
+  for (let i = 1; i < kept.length && sorted; i++) if (kept[i]!.t < kept[i - 1]!.t) sorted = false
+  if (!sorted) kept.sort((a, b) => a.t - b.t)
   const out: Sample[] = []
   for (const s of kept) if (!out.length || out[out.length - 1]!.t !== s.t) out.push(s)
   return out
@@ -99,10 +101,17 @@ export function computeDriveContribution(file: DriveFile, timeZone: string): Dri
   const sampleMps = (i: number): number => samples[i]!.speed ?? (i > 0 ? intervalMps[i - 1]! : intervalMps[0]!)
 
   const cells = new Map<string, Acc>()
+  let lastCell = ""
+  let lastSlot: LocalSlot | null = null
+  let lastAcc: Acc | null = null
   const accFor = (cell: string, slot: LocalSlot): Acc => {
+    if (lastAcc && cell === lastCell && slot === lastSlot) return lastAcc
     const key = `${cell}|${slot.weekday}|${slot.hour}`
     let acc = cells.get(key)
     if (!acc) cells.set(key, (acc = newAcc()))
+    lastCell = cell
+    lastSlot = slot
+    lastAcc = acc
     return acc
   }
   const lead: LeadState = { leadOn: false, gapFt: null }
@@ -126,7 +135,7 @@ export function computeDriveContribution(file: DriveFile, timeZone: string): Dri
       route.push(cell)
       loopSet.add(parentCell(cell))
     }
-    if (!lastTrack || geodesicDistanceM(lastTrack.lat, lastTrack.lon, a.lat, a.lon) >= 60) {
+    if (!lastTrack || planarM2(lastTrack, a) >= 3600) {
       track.push([round6(a.lat), round6(a.lon)])
       lastTrack = a
     }
@@ -207,6 +216,13 @@ function thin(points: [number, number][], max: number): [number, number][] {
   for (let k = 0; k < max - 1; k++) out.push(points[Math.floor(k * step)]!)
   out.push(points[points.length - 1]!)
   return out
+}
+
+/** Squared distance in metres on a flat local approximation: plenty to thin a track for drawing. */
+function planarM2(a: Sample, b: Sample): number {
+  const dy = (b.lat - a.lat) * 110_574
+  const dx = (b.lon - a.lon) * Math.cos((a.lat * Math.PI) / 180) * 111_320
+  return dx * dx + dy * dy
 }
 
 function round6(x: number): number {
