@@ -182,3 +182,17 @@ export async function findLocationFromStarts(db: Db, shopId: string) {
   const rows = await db.selectFrom("road_drive").select(["start_lat", "start_lon"]).where("shop_id", "=", shopId).orderBy("started_at", "desc").limit(500).execute()
   return locationFromStarts(rows.map((r) => ({ lat: r.start_lat, lon: r.start_lon })))
 }
+
+export async function findLoopInShop(db: Db, loopId: string, shopId: string) {
+  return db.selectFrom("road_loop").select(["id", "number", "name"]).where("id", "=", loopId).where("shop_id", "=", shopId).executeTakeFirst()
+}
+
+export async function listDrivesOfLoop(db: Db, loopId: string, shopId: string) {
+  return db
+    .selectFrom("road_drive")
+    .select(["drive_id", "started_at", "hour", "weekday", "driven_seconds", "qualifying_seconds", "cleared_seconds"])
+    .where("loop_id", "=", loopId)
+    .where("shop_id", "=", shopId)
+    .orderBy("started_at", "desc")
+    .execute()
+}
