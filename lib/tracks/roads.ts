@@ -81,13 +81,13 @@ export function generateRoadDrive(o: RoadDriveOptions): DriveFile {
   const learnS = o.learnSeconds ?? between(600, 720)
   const pts = roadPoints(o.layout, o.home, rng)
   const kind = o.layout.kind
-  const cruiseMph = kind === "steady" ? between(50, 55) : kind === "winding" ? between(44, 50) : between(36, 40)
+  const cruiseMph = kind === "steady" ? between(50, 55) : kind === "winding" ? between(46, 52) : between(36, 40)
 
   const samples: Sample[] = []
   const marks: Mark[] = []
   const at = (tS: number) => o.startMs + Math.round(tS * 1000)
   const leadFrom = kind === "winding" ? 60 : 40
-  const leadTo = kind === "winding" ? 330 : Infinity
+  const leadTo = kind === "winding" ? 420 : Infinity
   marks.push({ t: at(leadFrom), kind: "lead-on", gapFt: 130 })
   if (Number.isFinite(leadTo)) marks.push({ t: at(leadTo), kind: "lead-off" })
 
@@ -121,7 +121,7 @@ export function generateRoadDrive(o: RoadDriveOptions): DriveFile {
     }
     const slowing = tS < slowUntil
     let target = slowing ? slowTarget : cruiseMph - 6 * traffic + 1.5 * Math.sin((2 * Math.PI * tS) / 80)
-    if (kind === "winding" && !slowing) target -= 16 * Math.abs(Math.sin((2 * Math.PI * s) / 900))
+    if (kind === "winding" && !slowing) target -= 10 * Math.abs(Math.sin((2 * Math.PI * s) / 900))
     if (clearedAt != null && tS > endS - 25) target = 0
     const targetMps = Math.max(0, target * MPS_PER_MPH)
     const hard = hardStop && slowing && tS < slowUntil - 10
