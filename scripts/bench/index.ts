@@ -4,7 +4,8 @@
 // ["BENCH_BASE_URL"] for syncSecondsFor36k) and it is reported as skipped when that is absent.
 import { ingestToRawInsertRatio, syncSecondsFor36k } from "./drives"
 import { recorderFirstLoadKb } from "./pages"
+import { roadModelUpdateMs, roadsPageP95Ms } from "./roads"
 import { samplesScoredPerSecond, scoreToParseRatio } from "./scoring"
 import type { BenchFigure } from "./types"
 
-export const figures: BenchFigure[] = [scoreToParseRatio, samplesScoredPerSecond, ingestToRawInsertRatio, syncSecondsFor36k, recorderFirstLoadKb]
+export const figures: BenchFigure[] = [scoreToParseRatio, samplesScoredPerSecond, ingestToRawInsertRatio, syncSecondsFor36k, recorderFirstLoadKb, roadModelUpdateMs, roadsPageP95Ms]
