@@ -53,7 +53,9 @@ export async function applyDriveContribution(
     const cur = delta.get(k)
     delta.set(k, cur ? mergeStat(cur, s, -1) : mergeStat({ ...s, seconds: 0, qualifyingSeconds: 0, followingSeconds: 0, harshEvents: 0, speedHist: s.speedHist.map(() => 0) }, s, -1))
   }
-  const rows = [...delta.values()].map((s) => ({
+  // One order for every writer, so two drives scored at once lock the shared cell rows in the same order.
+  const ordered = [...delta.values()].sort((a, b) => a.hour - b.hour || a.weekday - b.weekday || (a.cell < b.cell ? -1 : a.cell > b.cell ? 1 : 0))
+  const rows = ordered.map((s) => ({
     shop_id: shopId,
     cell: s.cell,
     hour: s.hour,
