@@ -5,6 +5,7 @@ import { hashPassword } from "@/lib/auth/password"
 import type { Role } from "@/lib/auth/roles"
 import { createDb, type Db } from "./client"
 import { seedDemoJobsAndDrives } from "./seed-demo-drives"
+import { seedRoadHistory } from "./seed-roads"
 
 export const DEMO_PASSWORD = "drive-demo-2026"
 
@@ -73,6 +74,7 @@ export async function seed(db: Db) {
     shopIds.push(shopId)
   }
   await seedDemoJobsAndDrives(db, shopIds[0]!)
+  await seedRoadHistory(db, shopIds[0]!)
   const counts = await sql<{ users: number; shops: number }>`select (select count(*) from app_user)::int as users, (select count(*) from shop)::int as shops`.execute(db)
   return counts.rows[0]
 }

@@ -13,6 +13,12 @@ export type ReviewDecision = "approve" | "redo"
 export interface ShopSettings {
   units?: "imperial" | "metric"
   tirePressureTolerancePsi?: number
+  /** IANA zone for local times (road knowledge hours); default America/Chicago. */
+  timeZone?: string
+  /** Where the shop is, for the roads map; without it the median start of its drives is used. */
+  location?: { lat: number; lon: number } | null
+  /** Road knowledge from the shop's own drives; default on. Turning it off removes the model. */
+  roadKnowledge?: boolean
 }
 
 export interface ShopTable {
@@ -245,6 +251,50 @@ export interface SetupRecordTable {
   updated_at: GeneratedTimestamp
 }
 
+export interface RoadLoopTable {
+  id: Generated<string>
+  shop_id: string
+  number: number
+  name: string | null
+  cells: string[]
+  created_at: GeneratedTimestamp
+}
+
+export interface RoadCellStatTable {
+  shop_id: string
+  cell: string
+  /** 0-23 local hour, or -1 for all hours */
+  hour: number
+  /** 0 = Sunday ... 6, or -1 for all days */
+  weekday: number
+  seconds: number
+  qualifying_seconds: number
+  following_seconds: number
+  harsh_events: number
+  speed_hist: number[]
+}
+
+export interface RoadDriveTable {
+  drive_id: string
+  shop_id: string
+  profile_id: string | null
+  loop_id: string | null
+  started_at: Timestamp
+  hour: number
+  weekday: number
+  start_lat: number
+  start_lon: number
+  driven_seconds: number
+  qualifying_seconds: number
+  following_seconds: number
+  harsh_events: number
+  cleared_seconds: number | null
+  route: string[]
+  track: Json<[number, number][]>
+  contribution: Json<unknown>
+  updated_at: GeneratedTimestamp
+}
+
 export interface Database {
   shop: ShopTable
   app_user: AppUserTable
@@ -266,6 +316,9 @@ export interface Database {
   notification: NotificationTable
   drive_event: DriveEventTable
   setup_record: SetupRecordTable
+  road_loop: RoadLoopTable
+  road_cell_stat: RoadCellStatTable
+  road_drive: RoadDriveTable
 }
 
 export type Shop = Selectable<ShopTable>

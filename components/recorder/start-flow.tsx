@@ -5,6 +5,7 @@ import { SENSOR_LABEL as SENSOR_WORD } from "@/lib/labels"
 import { DEFAULT_PROFILE, resolveProfile, type ResolvedProfile } from "@/lib/drive-file/profile"
 import type { Profile } from "@/lib/drive-file/schema"
 import { profileInWords } from "@/lib/recorder/profile-words"
+import { GoodRoadsNow } from "@/components/roads/good-roads-now"
 
 type JobSummary = { id: string; roNumber: string; label: string }
 type Blocker = { key: string; message: string }
@@ -120,6 +121,7 @@ export function StartFlow({ onStart }: { onStart: (choice: StartChoice) => void 
             <ArrowLeft aria-hidden className="size-5" /> Drives
           </a>
         </div>
+        <GoodRoadsNow />
         <section className="space-y-2 rounded-xl bg-asphalt-800 p-3">
           <h2 className="flex items-center gap-2 font-semibold">
             <ClipboardList aria-hidden className="size-5" /> Job

@@ -5,6 +5,7 @@ import {
   CircleDot,
   ClipboardCheck,
   Mail,
+  Map as MapIcon,
   Route,
   SlidersHorizontal,
   Users,
@@ -25,6 +26,7 @@ const ICONS: Record<string, LucideIcon> = {
   sliders: SlidersHorizontal,
   users: Users,
   mail: Mail,
+  map: MapIcon,
 }
 
 function useActive() {

@@ -1,13 +1,26 @@
 import { DEFAULT_TIRE_TOLERANCE_PSI } from "@/lib/checklist"
+import { DEFAULT_TIME_ZONE } from "@/lib/roads/clock"
 import type { Db } from "../client"
 import type { ShopSettings } from "../types"
 
-export type ResolvedShopSettings = { units: "imperial" | "metric"; tirePressureTolerancePsi: number }
+export type ResolvedShopSettings = {
+  units: "imperial" | "metric"
+  tirePressureTolerancePsi: number
+  timeZone: string
+  location: { lat: number; lon: number } | null
+  roadKnowledge: boolean
+}
 
 export async function findShopSettings(db: Db, shopId: string): Promise<ResolvedShopSettings> {
   const row = await db.selectFrom("shop").select("settings").where("id", "=", shopId).executeTakeFirst()
   const s: ShopSettings = row?.settings ?? {}
-  return { units: s.units ?? "imperial", tirePressureTolerancePsi: s.tirePressureTolerancePsi ?? DEFAULT_TIRE_TOLERANCE_PSI }
+  return {
+    units: s.units ?? "imperial",
+    tirePressureTolerancePsi: s.tirePressureTolerancePsi ?? DEFAULT_TIRE_TOLERANCE_PSI,
+    timeZone: s.timeZone ?? DEFAULT_TIME_ZONE,
+    location: s.location ?? null,
+    roadKnowledge: s.roadKnowledge ?? true,
+  }
 }
 
 export async function updateShopSettings(db: Db, shopId: string, changes: ShopSettings) {

@@ -5,7 +5,18 @@
 import { ingestToRawInsertRatio, syncSecondsFor36k } from "./drives"
 import { liveFanoutP95Seconds, recordingDriveGetMs36k } from "./live"
 import { recorderFirstLoadKb } from "./pages"
+import { roadModelUpdateMs, roadsPageP95Ms } from "./roads"
 import { samplesScoredPerSecond, scoreToParseRatio } from "./scoring"
 import type { BenchFigure } from "./types"
 
-export const figures: BenchFigure[] = [scoreToParseRatio, samplesScoredPerSecond, ingestToRawInsertRatio, syncSecondsFor36k, recorderFirstLoadKb, liveFanoutP95Seconds, recordingDriveGetMs36k]
+export const figures: BenchFigure[] = [
+  scoreToParseRatio,
+  samplesScoredPerSecond,
+  ingestToRawInsertRatio,
+  syncSecondsFor36k,
+  recorderFirstLoadKb,
+  liveFanoutP95Seconds,
+  recordingDriveGetMs36k,
+  roadModelUpdateMs,
+  roadsPageP95Ms,
+]

@@ -13,6 +13,7 @@ import {
   setDriveVerdict,
   setJobStatus,
 } from "@/db/queries/drives"
+import { updateRoadModel } from "@/db/queries/roads"
 import { upsertScore } from "@/db/queries/scores"
 import type { Drive } from "@/db/types"
 import {
@@ -112,6 +113,7 @@ export async function scoreStoredDrive(db: Db, driveId: string, shopId: string):
 export async function finishAndScore(trx: Db, drive: Drive): Promise<{ drive: Drive; score: Score }> {
   const score = await scoreStoredDrive(trx, drive.id, drive.shop_id)
   await upsertScore(trx, drive.id, drive.shop_id, score)
+  await updateRoadModel(trx, drive, score)
   const finished = await markDriveFinished(trx, drive.id, drive.shop_id, score.verdict)
   if (finished.job_id) await updateJobAfterFinish(trx, finished.job_id, finished.shop_id)
   return { drive: finished, score }
@@ -122,6 +124,7 @@ export async function rescoreFinishedDrive(trx: Db, drive: Drive): Promise<void>
   if (drive.status !== "finished") return
   const score = await scoreStoredDrive(trx, drive.id, drive.shop_id)
   await upsertScore(trx, drive.id, drive.shop_id, score)
+  await updateRoadModel(trx, drive, score)
   await setDriveVerdict(trx, drive.id, drive.shop_id, score.verdict)
   if (drive.job_id) await updateJobAfterFinish(trx, drive.job_id, drive.shop_id)
 }

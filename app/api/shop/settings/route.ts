@@ -1,6 +1,7 @@
 import { requireRole } from "@/app/_server/auth"
 import { parseJson, route } from "@/app/_server/route"
 import { getDb } from "@/db/client"
+import { deleteRoadModel } from "@/db/queries/roads"
 import { findShopSettings, updateShopSettings } from "@/db/queries/shop-settings"
 import { shopSettingsSchema } from "@/lib/validation/profile"
 
@@ -12,5 +13,13 @@ export const GET = route(async () => {
 export const PATCH = route(async (req) => {
   const { user } = await requireRole("admin")
   const changes = await parseJson(req, shopSettingsSchema)
-  return Response.json({ settings: await updateShopSettings(getDb(), user.shopId, changes) })
+  const settings = await getDb()
+    .transaction()
+    .execute(async (trx) => {
+      const next = await updateShopSettings(trx, user.shopId, changes)
+      // Road knowledge off: the model goes with it (turning it on again starts from drives scored after).
+      if (changes.roadKnowledge === false) await deleteRoadModel(trx, user.shopId)
+      return next
+    })
+  return Response.json({ settings })
 })

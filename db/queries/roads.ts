@@ -1,0 +1,200 @@
+// The road model in PostgreSQL. A scored drive adds its contribution cell by cell (one upsert); scoring it
+// again takes the old contribution back out in the same statement. Views read the stored totals only.
+import { sql } from "kysely"
+import type { DriveFile } from "@/lib/drive-file/schema"
+import {
+  ALL,
+  computeDriveContribution,
+  locationFromStarts,
+  matchLoop,
+  mergeStat,
+  type CellStat,
+  type CellTotals,
+  type DriveContribution,
+  type LoopDrive,
+} from "@/lib/roads"
+import type { Score } from "@/lib/scoring"
+import type { Db } from "../client"
+import type { Drive } from "../types"
+import { loadDriveFile } from "./drive-file"
+import { findShopSettings } from "./shop-settings"
+
+const UPSERT_CHUNK = 2000
+
+/**
+ * Adds a scored drive to its shop's road model (or replaces what an earlier score of it added).
+ * Nothing happens when the shop has turned road knowledge off. Call inside the scoring transaction.
+ */
+export async function updateRoadModel(db: Db, drive: Pick<Drive, "id" | "shop_id" | "profile_version_id">, score: Pick<Score, "clearedAtSeconds">, file?: DriveFile) {
+  const settings = await findShopSettings(db, drive.shop_id)
+  if (!settings.roadKnowledge) return
+  const contribution = computeDriveContribution(file ?? (await loadDriveFile(db, drive.id, drive.shop_id)), settings.timeZone)
+  await applyDriveContribution(db, drive, score.clearedAtSeconds, contribution)
+}
+
+export async function applyDriveContribution(
+  db: Db,
+  drive: Pick<Drive, "id" | "shop_id" | "profile_version_id">,
+  clearedSeconds: number | null,
+  { stats, summary }: DriveContribution,
+) {
+  const shopId = drive.shop_id
+  const old = await db
+    .selectFrom("road_drive")
+    .select(["contribution", "loop_id"])
+    .where("drive_id", "=", drive.id)
+    .where("shop_id", "=", shopId)
+    .executeTakeFirst()
+  const delta = new Map<string, CellStat>()
+  const keyOf = (s: CellStat) => `${s.cell}|${s.hour}|${s.weekday}`
+  for (const s of stats) delta.set(keyOf(s), s)
+  for (const s of (old?.contribution as CellStat[] | undefined) ?? []) {
+    const k = keyOf(s)
+    const cur = delta.get(k)
+    delta.set(k, cur ? mergeStat(cur, s, -1) : mergeStat({ ...s, seconds: 0, qualifyingSeconds: 0, followingSeconds: 0, harshEvents: 0, speedHist: s.speedHist.map(() => 0) }, s, -1))
+  }
+  // One order for every writer, so two drives scored at once lock the shared cell rows in the same order.
+  const ordered = [...delta.values()].sort((a, b) => a.hour - b.hour || a.weekday - b.weekday || (a.cell < b.cell ? -1 : a.cell > b.cell ? 1 : 0))
+  const rows = ordered.map((s) => ({
+    shop_id: shopId,
+    cell: s.cell,
+    hour: s.hour,
+    weekday: s.weekday,
+    seconds: s.seconds,
+    qualifying_seconds: s.qualifyingSeconds,
+    following_seconds: s.followingSeconds,
+    harsh_events: s.harshEvents,
+    speed_hist: s.speedHist,
+  }))
+  for (let i = 0; i < rows.length; i += UPSERT_CHUNK) {
+    await db
+      .insertInto("road_cell_stat")
+      .values(rows.slice(i, i + UPSERT_CHUNK))
+      .onConflict((oc) =>
+        oc.columns(["shop_id", "hour", "weekday", "cell"]).doUpdateSet({
+          seconds: sql`road_cell_stat.seconds + excluded.seconds`,
+          qualifying_seconds: sql`road_cell_stat.qualifying_seconds + excluded.qualifying_seconds`,
+          following_seconds: sql`road_cell_stat.following_seconds + excluded.following_seconds`,
+          harsh_events: sql`road_cell_stat.harsh_events + excluded.harsh_events`,
+          speed_hist: sql`(select array_agg(coalesce(a, 0) + coalesce(b, 0) order by i) from unnest(road_cell_stat.speed_hist, excluded.speed_hist) with ordinality as u(a, b, i))`,
+        }),
+      )
+      .execute()
+  }
+  if (!summary) {
+    await db.deleteFrom("road_drive").where("drive_id", "=", drive.id).where("shop_id", "=", shopId).execute()
+    return
+  }
+  const profileId = drive.profile_version_id
+    ? ((await db.selectFrom("condition_profile_version").select("profile_id").where("id", "=", drive.profile_version_id).where("shop_id", "=", shopId).executeTakeFirst())?.profile_id ?? null)
+    : null
+  const loopId = old?.loop_id ?? (await loopFor(db, shopId, summary.loopCells))
+  const values = {
+    profile_id: profileId,
+    loop_id: loopId,
+    started_at: new Date(summary.startedAtMs),
+    hour: summary.start.hour,
+    weekday: summary.start.weekday,
+    start_lat: summary.startLat,
+    start_lon: summary.startLon,
+    driven_seconds: summary.drivenSeconds,
+    qualifying_seconds: summary.qualifyingSeconds,
+    following_seconds: summary.followingSeconds,
+    harsh_events: summary.harshEvents,
+    cleared_seconds: clearedSeconds,
+    route: summary.route,
+    track: JSON.stringify(summary.track),
+    contribution: JSON.stringify(stats),
+  }
+  await db
+    .insertInto("road_drive")
+    .values({ drive_id: drive.id, shop_id: shopId, ...values })
+    .onConflict((oc) => oc.column("drive_id").doUpdateSet({ ...values, updated_at: sql`now()` }))
+    .execute()
+}
+
+async function loopFor(db: Db, shopId: string, cells: string[]): Promise<string> {
+  const loops = await db.selectFrom("road_loop").select(["id", "cells", "number"]).where("shop_id", "=", shopId).execute()
+  const match = matchLoop(cells, loops)
+  if (match) return match.id
+  const number = loops.reduce((m, l) => Math.max(m, l.number), 0) + 1
+  const { id } = await db.insertInto("road_loop").values({ shop_id: shopId, number, cells }).returning("id").executeTakeFirstOrThrow()
+  return id
+}
+
+/** Removes every figure of the shop's road model (turning the feature off). */
+export async function deleteRoadModel(db: Db, shopId: string) {
+  await db.deleteFrom("road_drive").where("shop_id", "=", shopId).execute()
+  await db.deleteFrom("road_cell_stat").where("shop_id", "=", shopId).execute()
+  await db.deleteFrom("road_loop").where("shop_id", "=", shopId).execute()
+}
+
+/** Cell totals for one local hour (any day), one weekday (any hour), or all times (both null). */
+export async function listCellTotals(db: Db, shopId: string, slot: { hour: number | null; weekday: number | null }): Promise<CellTotals[]> {
+  const rows = await db
+    .selectFrom("road_cell_stat")
+    .select(["cell", "seconds", "qualifying_seconds", "following_seconds", "harsh_events", "speed_hist"])
+    .where("shop_id", "=", shopId)
+    .where("hour", "=", slot.hour ?? ALL)
+    .where("weekday", "=", slot.weekday ?? ALL)
+    .where("seconds", ">", 1)
+    .execute()
+  return rows.map((r) => ({
+    cell: r.cell,
+    seconds: r.seconds,
+    qualifyingSeconds: r.qualifying_seconds,
+    followingSeconds: r.following_seconds,
+    harshEvents: r.harsh_events,
+    speedHist: r.speed_hist,
+  }))
+}
+
+export async function listLoopDrives(db: Db, shopId: string): Promise<LoopDrive[]> {
+  const rows = await db
+    .selectFrom("road_drive")
+    .select(["drive_id", "loop_id", "profile_id", "hour", "weekday", "start_lat", "start_lon", "driven_seconds", "qualifying_seconds", "cleared_seconds"])
+    .where("shop_id", "=", shopId)
+    .execute()
+  return rows.map((r) => ({
+    driveId: r.drive_id,
+    loopId: r.loop_id,
+    profileId: r.profile_id,
+    hour: r.hour,
+    weekday: r.weekday,
+    startLat: r.start_lat,
+    startLon: r.start_lon,
+    drivenSeconds: r.driven_seconds,
+    qualifyingSeconds: r.qualifying_seconds,
+    clearedSeconds: r.cleared_seconds,
+  }))
+}
+
+export async function listLoops(db: Db, shopId: string) {
+  return db.selectFrom("road_loop").select(["id", "number", "name"]).where("shop_id", "=", shopId).orderBy("number").execute()
+}
+
+export async function findRoadTracks(db: Db, shopId: string, driveIds: string[]): Promise<Map<string, [number, number][]>> {
+  if (!driveIds.length) return new Map()
+  const rows = await db.selectFrom("road_drive").select(["drive_id", "track"]).where("shop_id", "=", shopId).where("drive_id", "in", driveIds).execute()
+  return new Map(rows.map((r) => [r.drive_id, r.track]))
+}
+
+/** The shop's place from where its drives start (median of up to the last 500 starts). */
+export async function findLocationFromStarts(db: Db, shopId: string) {
+  const rows = await db.selectFrom("road_drive").select(["start_lat", "start_lon"]).where("shop_id", "=", shopId).orderBy("started_at", "desc").limit(500).execute()
+  return locationFromStarts(rows.map((r) => ({ lat: r.start_lat, lon: r.start_lon })))
+}
+
+export async function findLoopInShop(db: Db, loopId: string, shopId: string) {
+  return db.selectFrom("road_loop").select(["id", "number", "name"]).where("id", "=", loopId).where("shop_id", "=", shopId).executeTakeFirst()
+}
+
+export async function listDrivesOfLoop(db: Db, loopId: string, shopId: string) {
+  return db
+    .selectFrom("road_drive")
+    .select(["drive_id", "started_at", "hour", "weekday", "driven_seconds", "qualifying_seconds", "cleared_seconds"])
+    .where("loop_id", "=", loopId)
+    .where("shop_id", "=", shopId)
+    .orderBy("started_at", "desc")
+    .execute()
+}

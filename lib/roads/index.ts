@@ -1,0 +1,4 @@
+export * from "./aggregate"
+export * from "./cells"
+export * from "./clock"
+export * from "./model"

@@ -1,0 +1,123 @@
+// Road knowledge figures. roadModelUpdateMs: adding one scored 36,000-sample drive to the road model, as
+// the scoring path does (load its samples, aggregate into cells, one upsert): the median of 5 runs.
+// roadsPageP95Ms: the Roads page (server-rendered) for a lead, with 2,000 drives in the shop's history:
+// the 95th percentile of 30 requests. Both need DATABASE_URL; the page also BASE_URL.
+import { randomUUID } from "node:crypto"
+import { createDb, type Db } from "@/db/client"
+import { applyDriveContribution, updateRoadModel } from "@/db/queries/roads"
+import { hashPassword } from "@/lib/auth/password"
+import { resolveProfile } from "@/lib/drive-file/profile"
+import { computeDriveContribution } from "@/lib/roads/aggregate"
+import { scoreDrive } from "@/lib/scoring"
+import { DEMO_ROAD_LAYOUTS, generateRoadDrive } from "@/lib/tracks/roads"
+import { hourAt10Hz } from "./scoring"
+import type { BenchFigure } from "./types"
+
+const HOME = { lat: 43.8731, lon: -91.9187 }
+
+async function benchShop(db: Db, role: "technician" | "shop_lead") {
+  const { id: shopId } = await db
+    .insertInto("shop")
+    .values({ name: `Bench roads ${randomUUID().slice(0, 8)}`, settings: JSON.stringify({ location: HOME, timeZone: "America/Chicago" }) })
+    .returning("id")
+    .executeTakeFirstOrThrow()
+  const password = `bench-${randomUUID()}`
+  const email = `bench-roads-${randomUUID().slice(0, 8)}@bench.invalid`
+  const userId = randomUUID()
+  await db.insertInto("app_user").values({ id: userId, shop_id: shopId, email, name: "Bench", role, password_hash: await hashPassword(password) }).execute()
+  return { shopId, userId, email, password }
+}
+
+async function insertDriveRow(db: Db, shopId: string, userId: string, startMs: number) {
+  const id = randomUUID()
+  await db
+    .insertInto("drive")
+    .values({ id, shop_id: shopId, profile: JSON.stringify(resolveProfile({})), driver_id: userId, status: "finished", created_at: new Date(startMs), finished_at: new Date(startMs) })
+    .execute()
+  return { id, shop_id: shopId, profile_version_id: null }
+}
+
+export const roadModelUpdateMs: BenchFigure = {
+  name: "roadModelUpdateMs",
+  target: "<= 200",
+  unit: "ms",
+  requiresEnv: ["DATABASE_URL"],
+  async run(ctx) {
+    const db = createDb(ctx.env.DATABASE_URL)
+    const { shopId, userId } = await benchShop(db, "technician")
+    try {
+      const { file } = hourAt10Hz(ctx)
+      const drive = await insertDriveRow(db, shopId, userId, file.samples[0]!.t)
+      for (let i = 0; i < file.samples.length; i += 5000) {
+        await db
+          .insertInto("sample")
+          .values(file.samples.slice(i, i + 5000).map((s) => ({ drive_id: drive.id, shop_id: shopId, t: s.t, lat: s.lat, lon: s.lon, speed: s.speed ?? null, accuracy: s.accuracy ?? null })))
+          .execute()
+      }
+      await db.insertInto("mark").values(file.marks.map((m) => ({ id: randomUUID(), drive_id: drive.id, shop_id: shopId, t: m.t, kind: m.kind, gap_ft: "gapFt" in m ? (m.gapFt ?? null) : null, text: "text" in m ? (m.text ?? null) : null }))).execute()
+      const score = scoreDrive(file)
+      const times: number[] = []
+      // the first run adds the drive, the later ones replace it (a drive scored again): both are updates
+      for (let run = 0; run < 6; run++) {
+        const t0 = performance.now()
+        await db.transaction().execute((trx) => updateRoadModel(trx, drive, score))
+        if (run > 0) times.push(performance.now() - t0)
+      }
+      times.sort((a, b) => a - b)
+      return times[Math.floor(times.length / 2)]!
+    } finally {
+      await db.deleteFrom("shop").where("id", "=", shopId).execute()
+      await db.destroy()
+    }
+  },
+  meets: (v) => v <= 200,
+}
+
+export const roadsPageP95Ms: BenchFigure = {
+  name: "roadsPageP95Ms",
+  target: "<= 100",
+  unit: "ms",
+  requiresEnv: ["BASE_URL", "DATABASE_URL"],
+  async run(ctx) {
+    const baseUrl = ctx.env.BASE_URL!
+    const db = createDb(ctx.env.DATABASE_URL)
+    const { shopId, userId, email, password } = await benchShop(db, "shop_lead")
+    try {
+      // 2,000 drives over 10 weeks, 07:00-18:59, on the three invented roads, added as scoring adds them
+      const day0 = Date.now() - 70 * 86_400_000
+      for (let k = 0; k < 2000; k++) {
+        const layout = DEMO_ROAD_LAYOUTS[k % 3]!
+        const hour = 7 + (k % 12)
+        const startMs = Math.floor(day0 / 86_400_000) * 86_400_000 + Math.floor(k / 30) * 86_400_000 + (hour + 6) * 3_600_000
+        const file = generateRoadDrive({ layout, seed: 20_000 + k, startMs, home: HOME, traffic: hour === 8 || hour === 17 ? 0.7 : 0.1, hz: 0.2 })
+        const drive = await insertDriveRow(db, shopId, userId, startMs)
+        await applyDriveContribution(db, drive, scoreDrive(file).clearedAtSeconds, computeDriveContribution(file, "America/Chicago"))
+      }
+      const signIn = await fetch(`${baseUrl}/api/session`, {
+        method: "POST",
+        headers: { "content-type": "application/json", "x-forwarded-for": `bench-roads-${process.pid}` },
+        body: JSON.stringify({ email, password }),
+      })
+      if (!signIn.ok) throw new Error(`bench sign-in failed: ${signIn.status}`)
+      const cookie = signIn.headers.get("set-cookie")!.split(";")[0]!
+      const get = async () => {
+        const res = await fetch(`${baseUrl}/roads?hour=now&day=all`, { headers: { cookie } })
+        const html = await res.text()
+        if (!res.ok || !html.includes('data-testid="road-map"')) throw new Error(`roads page: ${res.status}`)
+      }
+      for (let i = 0; i < 3; i++) await get()
+      const times: number[] = []
+      for (let i = 0; i < 30; i++) {
+        const t0 = performance.now()
+        await get()
+        times.push(performance.now() - t0)
+      }
+      times.sort((a, b) => a - b)
+      return times[Math.ceil(0.95 * times.length) - 1]!
+    } finally {
+      await db.deleteFrom("shop").where("id", "=", shopId).execute()
+      await db.destroy()
+    }
+  },
+  meets: (v) => v <= 100,
+}

@@ -1,0 +1,145 @@
+// Road knowledge from the shop's own drives (issue 14): drives imported through the API are scored and
+// added to the road model; the ranking of loops follows the history, hour by hour; other shops see nothing.
+import { beforeAll, describe, expect, it } from "vitest"
+import { createTestShop, testDb, type TestShop } from "../../helpers/db"
+import { signedIn, type ApiClient } from "../../helpers/http"
+import { generateRoadDrive, type RoadLayout } from "@/lib/tracks/roads"
+
+const HOME = { lat: 43.8731, lon: -91.9187 }
+const STEADY: RoadLayout = { key: "steady", name: "Test Parkway", kind: "steady", headingDeg: 35, lengthM: 6500 }
+const ARTERIAL: RoadLayout = { key: "arterial", name: "Test Avenue", kind: "stop-and-go", headingDeg: 255, lengthM: 5500 }
+const WINDING: RoadLayout = { key: "winding", name: "Test Bend Road", kind: "winding", headingDeg: 160, lengthM: 6000 }
+
+// Weekdays of 2-6 November 2026; America/Chicago is UTC-6 then (IANA tz database), so 10:00 local = 16:00 UTC.
+const at = (day: number, localHour: number, minute: number) => Date.UTC(2026, 10, 2 + day, localHour + 6, minute)
+
+let shop: TestShop
+let lead: ApiClient
+let tech: ApiClient
+const layoutOfDrive = new Map<string, string>()
+
+async function importRoadDrive(layout: RoadLayout, seed: number, startMs: number, traffic: number) {
+  // steady 50 mph on the parkway; the avenue stops at signals; traffic slows the road at rush hour
+  const file = generateRoadDrive({ layout, seed, startMs, home: HOME, traffic, hz: 0.5 })
+  const res = await tech.post("/api/drives/import", file)
+  expect(res.status).toBe(201)
+  layoutOfDrive.set(res.body.drive.id, layout.key)
+  return res.body
+}
+
+async function loopLayouts(client: ApiClient, loopId: string) {
+  const res = await client.get(`/api/roads/loops/${loopId}`)
+  expect(res.status).toBe(200)
+  return new Set(res.body.loop.drives.map((d: { driveId: string }) => layoutOfDrive.get(d.driveId)))
+}
+
+beforeAll(async () => {
+  shop = await createTestShop("Roads")
+  const admin = await signedIn(shop.admin)
+  expect((await admin.patch("/api/shop/settings", { location: HOME, timeZone: "America/Chicago" })).status).toBe(200)
+  lead = await signedIn(shop.lead)
+  tech = await signedIn(shop.tech)
+  let seed = 1400
+  for (let day = 0; day < 5; day++) {
+    // 10:00: free-flowing parkway, the avenue as usual
+    await importRoadDrive(STEADY, seed++, at(day, 10, 5), 0)
+    await importRoadDrive(ARTERIAL, seed++, at(day, 10, 40), 0.15)
+    // 17:00: the parkway is jammed, the bend road is not
+    await importRoadDrive(STEADY, seed++, at(day, 17, 0), 0.6)
+    await importRoadDrive(WINDING, seed++, at(day, 17, 30), 0.05)
+  }
+}, 240_000)
+
+describe("road knowledge", () => {
+  it("ranks the steady road first at 10:00 for qualifying share and median time to learn complete", async () => {
+    const res = await lead.get("/api/roads?hour=10&day=all")
+    expect(res.status).toBe(200)
+    expect(res.body.enabled).toBe(true)
+    expect(res.body.location).toMatchObject({ ...HOME, source: "settings" })
+    expect(res.body.drives).toBe(20)
+    const loops = res.body.loops
+    expect(loops.length).toBeGreaterThanOrEqual(2)
+    expect(await loopLayouts(lead, loops[0].loopId)).toEqual(new Set(["steady"]))
+    expect(await loopLayouts(lead, loops[1].loopId)).toEqual(new Set(["arterial"]))
+    expect(loops[0].medianClearSeconds).toBeLessThan(loops[1].medianClearSeconds)
+    expect(loops[0].qualifyingShare).toBeGreaterThan(loops[1].qualifyingShare)
+    expect(loops[0].drives).toBe(5)
+    expect(loops[0].trusted).toBe(true)
+    expect(loops[0].track.length).toBeGreaterThan(10)
+  })
+
+  it("ranks another road first at 17:00, when the history says the steady road is slow then", async () => {
+    const res = await lead.get("/api/roads?hour=17&day=all")
+    const loops = res.body.loops
+    expect(loops.length).toBeGreaterThanOrEqual(1)
+    expect(await loopLayouts(lead, loops[0].loopId)).toEqual(new Set(["winding"]))
+    const ten = await lead.get("/api/roads?hour=10&day=all")
+    expect(loops[0].loopId).not.toBe(ten.body.loops[0].loopId)
+    // the steady road's loop, when it completed at all at 17:00, took longer than at 10:00 and ranks lower
+    const steadyAt17 = loops.find((l: { loopId: string }) => l.loopId === ten.body.loops[0].loopId)
+    if (steadyAt17) expect(steadyAt17.medianClearSeconds).toBeGreaterThan(ten.body.loops[0].medianClearSeconds)
+  })
+
+  it("keeps cell figures that reflect the roads: the steady road's cells qualify more than the avenue's", async () => {
+    const res = await lead.get("/api/roads?hour=10&day=all")
+    const cells: { cell: string; qualifyingShare: number; minutes: number; medianSpeedMph: number }[] = res.body.cells
+    expect(cells.length).toBeGreaterThan(20)
+    const routes = await testDb().selectFrom("road_drive").select(["drive_id", "route"]).where("shop_id", "=", shop.shopId).execute()
+    const cellsOf = (key: string) => new Set(routes.filter((r) => layoutOfDrive.get(r.drive_id) === key).flatMap((r) => r.route))
+    const steadyCells = cellsOf("steady")
+    const arterialCells = cellsOf("arterial")
+    const meanShare = (set: Set<string>) => {
+      const own = cells.filter((c) => set.has(c.cell) && c.minutes > 0.5)
+      return own.reduce((s, c) => s + c.qualifyingShare * c.minutes, 0) / own.reduce((s, c) => s + c.minutes, 0)
+    }
+    expect(meanShare(steadyCells)).toBeGreaterThan(meanShare(arterialCells) + 0.2)
+  })
+
+  it("gives the recorder one line for now", async () => {
+    const res = await tech.get("/api/roads/now")
+    expect(res.status).toBe(200)
+    expect(res.body.enabled).toBe(true)
+    // "now" is whatever hour the test runs; the line is a loop or null, never an error
+    if (res.body.line) expect(res.body.line).toMatchObject({ drives: expect.any(Number), medianClearMinutes: expect.any(Number) })
+  })
+
+  it("shows another shop nothing of this shop's model", async () => {
+    const other = await createTestShop("Roads other")
+    const otherLead = await signedIn(other.lead)
+    const mine = await lead.get("/api/roads?hour=all&day=all")
+    const theirs = await otherLead.get("/api/roads?hour=all&day=all")
+    expect(theirs.status).toBe(200)
+    expect(theirs.body).toMatchObject({ drives: 0, loops: [], cells: [], location: null })
+    const loopId = mine.body.loops[0].loopId
+    const res = await otherLead.get(`/api/roads/loops/${loopId}`)
+    expect(res.status).toBe(404)
+    expect(res.body.error.code).toBe("not_found")
+  })
+
+  it("refuses a co-driver and a bad hour with the error shape", async () => {
+    const codriver = await signedIn(shop.codriver)
+    expect((await codriver.get("/api/roads")).status).toBe(403)
+    const bad = await lead.get("/api/roads?hour=25")
+    expect(bad.status).toBe(400)
+    expect(bad.body.error.fields.hour).toBeTruthy()
+    expect((await lead.get("/api/roads/loops/not-a-uuid")).status).toBe(404)
+  })
+
+  it("turns off on the shop's say-so and removes the model", async () => {
+    const own = await createTestShop("Roads off")
+    const admin = await signedIn(own.admin)
+    const ownTech = await signedIn(own.tech)
+    const file = generateRoadDrive({ layout: STEADY, seed: 77, startMs: at(0, 10, 0), home: HOME, hz: 0.5 })
+    expect((await ownTech.post("/api/drives/import", file)).status).toBe(201)
+    const count = () => testDb().selectFrom("road_cell_stat").select((e) => e.fn.countAll<number>().as("n")).where("shop_id", "=", own.shopId).executeTakeFirstOrThrow()
+    expect(Number((await count()).n)).toBeGreaterThan(0)
+    expect((await admin.patch("/api/shop/settings", { roadKnowledge: false })).body.settings.roadKnowledge).toBe(false)
+    expect(Number((await count()).n)).toBe(0)
+    expect(await testDb().selectFrom("road_drive").select("drive_id").where("shop_id", "=", own.shopId).execute()).toEqual([])
+    expect((await ownTech.post("/api/drives/import", file)).status).toBe(201)
+    expect(Number((await count()).n)).toBe(0)
+    expect((await ownTech.get("/api/roads")).body).toMatchObject({ enabled: false, loops: [], cells: [] })
+    expect((await ownTech.get("/api/roads/now")).body).toEqual({ enabled: false, line: null })
+    expect((await ownTech.patch("/api/shop/settings", { roadKnowledge: true })).status).toBe(403)
+  })
+})
