@@ -1,7 +1,7 @@
 // The road model in PostgreSQL. A scored drive adds its contribution cell by cell (one upsert); scoring it
 // again takes the old contribution back out in the same statement. Views read the stored totals only.
 import { sql } from "kysely"
-import type { DriveFile } from "@/lib/drive-file/schema"
+import type { AnyDriveFile } from "@/lib/drive-file/schema"
 import {
   ALL,
   computeDriveContribution,
@@ -25,7 +25,7 @@ const UPSERT_CHUNK = 2000
  * Adds a scored drive to its shop's road model (or replaces what an earlier score of it added).
  * Nothing happens when the shop has turned road knowledge off. Call inside the scoring transaction.
  */
-export async function updateRoadModel(db: Db, drive: Pick<Drive, "id" | "shop_id" | "profile_version_id">, score: Pick<Score, "clearedAtSeconds">, file?: DriveFile) {
+export async function updateRoadModel(db: Db, drive: Pick<Drive, "id" | "shop_id" | "profile_version_id">, score: Pick<Score, "clearedAtSeconds">, file?: AnyDriveFile) {
   const settings = await findShopSettings(db, drive.shop_id)
   if (!settings.roadKnowledge) return
   const contribution = computeDriveContribution(file ?? (await loadDriveFile(db, drive.id, drive.shop_id)), settings.timeZone)

@@ -4,7 +4,7 @@
 // The interval rules are the scorer's (shared/specs/drive-file.md rules 1-5); an interval belongs to the
 // cell and the local hour of its first sample.
 import { resolveProfile, type ResolvedProfile } from "@/lib/drive-file/profile"
-import type { DriveFile, Mark, Sample } from "@/lib/drive-file/schema"
+import type { AnyDriveFile, Mark, Sample } from "@/lib/drive-file/schema"
 import { geodesicDistanceM } from "@/lib/scoring/geodesy"
 import { applyLeadMark, type LeadState } from "@/lib/scoring/lead-state"
 import { MPS_PER_MPH } from "@/lib/units"
@@ -75,11 +75,12 @@ interface Acc {
 }
 const newAcc = (): Acc => ({ seconds: 0, qualifyingSeconds: 0, followingSeconds: 0, harshEvents: 0, speedHist: new Array(SPEED_BUCKETS).fill(0) })
 
-export function computeDriveContribution(file: DriveFile, timeZone: string): DriveContribution {
+export function computeDriveContribution(file: AnyDriveFile, timeZone: string): DriveContribution {
   const profile = resolveProfile(file.profile)
   const samples = keptSamples(file.samples, profile)
   if (samples.length < 2) return { stats: [], summary: null }
-  const marks: Mark[] = [...file.marks].sort((a, b) => a.t - b.t)
+  // Road-test check marks (format /2) say nothing about the lead vehicle: only the learn marks count here.
+  const marks = file.marks.filter((m): m is Mark => m.kind !== "check").sort((a, b) => a.t - b.t)
   const locate = createCellLocator()
   const clock = createLocalClock(timeZone)
   const minMps = profile.minSpeedMph * MPS_PER_MPH
