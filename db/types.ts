@@ -13,6 +13,8 @@ export type ReviewDecision = "approve" | "redo"
 export interface ShopSettings {
   units?: "imperial" | "metric"
   tirePressureTolerancePsi?: number
+  /** IANA zone every time is written in (pages, PDF, e-mail). */
+  timeZone?: string
 }
 
 export interface ShopTable {

@@ -1,13 +1,18 @@
 import { DEFAULT_TIRE_TOLERANCE_PSI } from "@/lib/checklist"
+import { DEFAULT_TIME_ZONE, isTimeZone } from "@/lib/format"
 import type { Db } from "../client"
 import type { ShopSettings } from "../types"
 
-export type ResolvedShopSettings = { units: "imperial" | "metric"; tirePressureTolerancePsi: number }
+export type ResolvedShopSettings = { units: "imperial" | "metric"; tirePressureTolerancePsi: number; timeZone: string }
 
 export async function findShopSettings(db: Db, shopId: string): Promise<ResolvedShopSettings> {
   const row = await db.selectFrom("shop").select("settings").where("id", "=", shopId).executeTakeFirst()
   const s: ShopSettings = row?.settings ?? {}
-  return { units: s.units ?? "imperial", tirePressureTolerancePsi: s.tirePressureTolerancePsi ?? DEFAULT_TIRE_TOLERANCE_PSI }
+  return {
+    units: s.units ?? "imperial",
+    tirePressureTolerancePsi: s.tirePressureTolerancePsi ?? DEFAULT_TIRE_TOLERANCE_PSI,
+    timeZone: s.timeZone && isTimeZone(s.timeZone) ? s.timeZone : DEFAULT_TIME_ZONE,
+  }
 }
 
 export async function updateShopSettings(db: Db, shopId: string, changes: ShopSettings) {

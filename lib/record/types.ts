@@ -43,4 +43,7 @@ export interface RecordData {
   startedAt: string | null
   finishedAt: string | null
   generatedAt: string
+  /** The shop's choices for every number and time a person reads (lib/format); absent = US customary, US Central. */
+  units?: "imperial" | "metric"
+  timeZone?: string
 }

@@ -1,5 +1,6 @@
 import { z } from "zod"
 import { profileSchema } from "@/lib/drive-file"
+import { isTimeZone } from "@/lib/format"
 import { SENSORS } from "@/lib/labels"
 
 export const profileKeySchema = z
@@ -46,5 +47,6 @@ export const shopSettingsSchema = z
   .object({
     units: z.enum(["imperial", "metric"]).optional(),
     tirePressureTolerancePsi: z.number().min(0.5, "must be at least 0.5 psi").max(15, "must be at most 15 psi").optional(),
+    timeZone: z.string().refine(isTimeZone, "must be a time zone name such as America/Chicago").optional(),
   })
   .refine((v) => Object.values(v).some((x) => x !== undefined), "Nothing to change.")
