@@ -42,9 +42,9 @@ export function drawSpeedChart(w: Writer, data: RecordData, units: UnitSystem) {
   const yMax = Math.ceil((Math.max(...speeds, bandHigh ?? bandLow) * 1.05) / yStep) * yStep
   const xStep = niceStep(totalMin)
 
-  w.ensure(HEIGHT + 90)
+  w.ensure(HEIGHT + 100)
   w.heading(SPEED_CHART_TITLE)
-  const top = w.y - 4
+  const top = w.y - 14
   const left = MARGIN + AXIS_W
   const plotW = WIDTH - AXIS_W
   const x = (min: number) => left + (min / totalMin) * plotW
