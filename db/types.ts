@@ -33,6 +33,8 @@ export interface AppUserTable {
   password_hash: string
   disabled: Generated<boolean>
   created_at: GeneratedTimestamp
+  /** E-mail me when a drive waits for review (leads; the notice in the app comes regardless). */
+  review_mail: Generated<boolean>
 }
 
 export interface UserSessionTable {

@@ -1,3 +1,4 @@
+import { noticeDriveWaiting, sendReviewMails } from "@/app/_server/review-notices"
 import { route } from "@/app/_server/route"
 import { AppError } from "@/lib/errors"
 import { driveForRoute, driveJson, finishAndScore } from "../../_service"
@@ -6,6 +7,11 @@ import { driveForRoute, driveJson, finishAndScore } from "../../_service"
 export const POST = route<{ driveId: string }>(async (_req, ctx) => {
   const { db, drive } = await driveForRoute(ctx.params, "finish")
   if (drive.review_status !== null) throw new AppError("conflict", "This drive has been reviewed already.")
-  const result = await db.transaction().execute((trx) => finishAndScore(trx, drive))
+  const result = await db.transaction().execute(async (trx) => {
+    const finished = await finishAndScore(trx, drive)
+    // The first finish puts the drive in the review queue: tell the leads (finishing again only scores again).
+    return { ...finished, mails: drive.status === "recording" ? await noticeDriveWaiting(trx, finished.drive) : [] }
+  })
+  await sendReviewMails(result.mails)
   return Response.json({ drive: driveJson(result.drive), score: result.score })
 })
