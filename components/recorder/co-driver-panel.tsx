@@ -137,7 +137,7 @@ export function CoDriverPanel() {
           <Link2Off aria-hidden /> Lead off
         </Big>
         <Big testId="mark-cleared" tone="signal" onClick={() => void log("cleared")}>
-          <CircleCheck aria-hidden /> Cleared
+          <CircleCheck aria-hidden /> Learn complete
         </Big>
         <Big testId="mark-verified" onClick={() => void log("verified")}>
           <ShieldCheck aria-hidden /> Verified
