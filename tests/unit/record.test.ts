@@ -74,7 +74,7 @@ function recordFor(pattern: "met" | "short", vin: string): RecordData {
 
 describe("drive record PDF", () => {
   it("holds the VIN, the verdict word and the qualifying minutes of a short drive", async () => {
-    const vin = withCheckDigit("1C4RJFBG0FC625797")
+    const vin = withCheckDigit("0ZTRJFBG0FC625797")
     const data = recordFor("short", vin)
     expect(data.score.verdict).toBe("short")
     const text = await pdfText(await buildDriveRecordPdf(data))
@@ -90,7 +90,7 @@ describe("drive record PDF", () => {
   })
 
   it("shows a met drive as Met with its function-check speed and the reviewer's decision", async () => {
-    const data = recordFor("met", withCheckDigit("2HGFB2F50DH512345"))
+    const data = recordFor("met", withCheckDigit("0ZTFB2F50DH512345"))
     data.review = { decision: "approve", note: "Clean drive.", reviewerName: "Bo Lindqvist", at: "2026-03-02T11:00:00.000Z" }
     expect(data.score.verdict).toBe("met")
     const text = await pdfText(await buildDriveRecordPdf(data))
@@ -102,7 +102,7 @@ describe("drive record PDF", () => {
   })
 
   it("writes times in the shop's zone with the zone named, the shop's units, and a speed chart", async () => {
-    const data = recordFor("short", withCheckDigit("1C4RJFBG0FC625797"))
+    const data = recordFor("short", withCheckDigit("0ZTRJFBG0FC625797"))
     data.timeZone = "America/Chicago"
     data.units = "metric"
     const text = await pdfText(await buildDriveRecordPdf(data))
@@ -121,7 +121,7 @@ describe("drive record PDF", () => {
   })
 
   it("still builds when a photo's bytes are not an image", async () => {
-    const data = recordFor("short", withCheckDigit("1C4RJFBG0FC625797"))
+    const data = recordFor("short", withCheckDigit("0ZTRJFBG0FC625797"))
     data.photos = [{ filename: "broken.jpg", contentType: "image/jpeg", bytes: new Uint8Array([1, 2, 3]) }]
     const text = await pdfText(await buildDriveRecordPdf(data))
     expect(text).toContain("broken.jpg could not be read")
