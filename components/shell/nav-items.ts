@@ -9,7 +9,7 @@ export const NAV_ITEMS: NavItem[] = [
   { href: "/record", label: "Record", icon: "circle-dot", roles: ["technician", "shop_lead"] },
   { href: "/jobs", label: "Jobs", icon: "wrench", roles: ["technician", "shop_lead"] },
   { href: "/numbers", label: "Numbers", icon: "chart", roles: ["shop_lead"] },
-  { href: "/profiles", label: "Profiles", icon: "sliders", roles: ["shop_lead"] },
+  { href: "/profiles", label: "Profiles", icon: "sliders", roles: ["technician", "shop_lead"] },
   { href: "/admin/users", label: "People", icon: "users", roles: [] },
   { href: "/admin/mail", label: "Mail", icon: "mail", roles: [] },
   { href: "/settings", label: "Settings", icon: "settings", roles: ["shop_lead"] },

@@ -29,7 +29,7 @@ export const POST = route(async (req) => {
     await insertMarks(trx, id, user.shopId, file.marks.map((m) => ({ ...m, id: randomUUID() })), user.id)
     const drive = (await findDriveInShop(trx, id, user.shopId))!
     const finished = await finishAndScore(trx, drive)
-    return { ...finished, mails: await noticeDriveWaiting(trx, finished.drive) }
+    return { ...finished, mails: await noticeDriveWaiting(trx, finished.drive, finished.score) }
   })
   await sendReviewMails(result.mails)
   return Response.json({ drive: driveJson(result.drive), score: result.score }, { status: 201 })

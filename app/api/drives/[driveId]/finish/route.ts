@@ -9,8 +9,8 @@ export const POST = route<{ driveId: string }>(async (_req, ctx) => {
   if (drive.review_status !== null) throw new AppError("conflict", "This drive has been reviewed already.")
   const result = await db.transaction().execute(async (trx) => {
     const finished = await finishAndScore(trx, drive)
-    // The first finish puts the drive in the review queue: tell the leads (finishing again only scores again).
-    return { ...finished, mails: drive.status === "recording" ? await noticeDriveWaiting(trx, finished.drive) : [] }
+    // The first finish may put the drive in the review queue: tell the leads (finishing again only scores again).
+    return { ...finished, mails: drive.status === "recording" ? await noticeDriveWaiting(trx, finished.drive, finished.score) : [] }
   })
   await sendReviewMails(result.mails)
   return Response.json({ drive: driveJson(result.drive), score: result.score })
