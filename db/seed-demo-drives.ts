@@ -19,46 +19,49 @@ type DemoJob = {
 }
 
 // Position 7 is a letter and position 10 the model-year code (49 CFR 565.15): R = 2024, S = 2025, P = 2023, N = 2022.
+// The maker code (WMI, positions 1-3) "0ZT" is one no maker holds as far as we can tell: from memory, ISO 3780 /
+// SAE give no region to a first character "0", so no WMI is assigned there (not checked against SAE's list).
+// Makes and models are invented words no maker uses that we know of.
 const JOBS: DemoJob[] = [
   {
     ro: "RO-24101",
     customer: { name: "Ines Marrow", email: "ines.marrow@example.invalid", phone: "555-0141" },
-    vehicle: { vin: withCheckDigit("7SACT2A10RM104417"), year: 2024, make: "Corvane", model: "Tessel", plate: "KTR 2210" },
+    vehicle: { vin: withCheckDigit("0ZTCT2A10RM104417"), year: 2024, make: "Corvane", model: "Tessel", plate: "KTR 2210" },
     task: { sensor: "forward_radar", method: "dynamic", reason: "bumper_or_grille_work", profileKey: "forward-radar" },
     drives: [{ pattern: "met", minutes: 18, daysAgo: 2, seed: 4101 }],
   },
   {
     ro: "RO-24102",
     customer: { name: "Oskar Lindgrove", email: "o.lindgrove@example.invalid", phone: "555-0172" },
-    vehicle: { vin: withCheckDigit("7SAHS4B10SM208833"), year: 2025, make: "Halden", model: "Strata", plate: "PLV 0915" },
+    vehicle: { vin: withCheckDigit("0ZTHS4B10SM208833"), year: 2025, make: "Haldrane", model: "Stratell", plate: "PLV 0915" },
     task: { sensor: "forward_radar", method: "dynamic", reason: "removed_and_reinstalled", profileKey: "forward-radar" },
     drives: [{ pattern: "short", minutes: 9, daysAgo: 1, seed: 4102 }],
   },
   {
     ro: "RO-24103",
     customer: { name: "Perpetua Aldane", email: "p.aldane@example.invalid", phone: "555-0118" },
-    vehicle: { vin: withCheckDigit("7SAMV3C10PM331207"), year: 2023, make: "Mirro", model: "Vantage", plate: "DKE 4471" },
+    vehicle: { vin: withCheckDigit("0ZTMV3C10PM331207"), year: 2023, make: "Mirrovel", model: "Vantrey", plate: "DKE 4471" },
     task: { sensor: "forward_camera", method: "dynamic", reason: "windshield_replaced", profileKey: "forward-camera" },
     drives: [{ pattern: "never-cleared", minutes: 31, daysAgo: 1, seed: 4103 }],
   },
   {
     ro: "RO-24104",
     customer: { name: "Benedikt Oyelaran", email: "b.oyelaran@example.invalid", phone: "555-0190" },
-    vehicle: { vin: withCheckDigit("7SAVP5D10RM412650"), year: 2024, make: "Ostrava", model: "Pike", plate: "RNM 7302" },
+    vehicle: { vin: withCheckDigit("0ZTVP5D10RM412650"), year: 2024, make: "Ostrevane", model: "Pikett", plate: "RNM 7302" },
     task: { sensor: "forward_radar", method: "dynamic", reason: "replaced", profileKey: "forward-radar" },
     drives: [{ pattern: "harsh", minutes: 18, daysAgo: 0, seed: 4104 }],
   },
   {
     ro: "RO-24105",
     customer: { name: "Saoirse Kettleby", email: "s.kettleby@example.invalid", phone: "555-0133" },
-    vehicle: { vin: withCheckDigit("7SAKA2E10NM509981"), year: 2022, make: "Kestrel", model: "Ardent", plate: "TWB 1184" },
+    vehicle: { vin: withCheckDigit("0ZTKA2E10NM509981"), year: 2022, make: "Kestavon", model: "Ardell", plate: "TWB 1184" },
     task: { sensor: "corner_radar", method: "dynamic", reason: "bumper_or_grille_work", profileKey: "corner-radar" },
     drives: [{ pattern: "unverified", minutes: 17, daysAgo: 0, seed: 4105 }],
   },
   {
     ro: "RO-24098",
     customer: { name: "Tobiah Quennell", email: "t.quennell@example.invalid", phone: "555-0157" },
-    vehicle: { vin: withCheckDigit("7SANW6F10SM611472"), year: 2025, make: "Norvale", model: "Quill", plate: "HJC 5529" },
+    vehicle: { vin: withCheckDigit("0ZTNW6F10SM611472"), year: 2025, make: "Norvantic", model: "Quillet", plate: "HJC 5529" },
     task: { sensor: "forward_radar", method: "dynamic", reason: "wheel_alignment", profileKey: "forward-radar" },
     drives: [
       { pattern: "short", minutes: 10, daysAgo: 9, seed: 4098, review: "redo", note: "Too little time behind a lead; use the ring road and follow at 120-150 ft." },
@@ -68,14 +71,14 @@ const JOBS: DemoJob[] = [
   {
     ro: "RO-24087",
     customer: { name: "Marisol Brackwater", email: "m.brackwater@example.invalid", phone: "555-0164" },
-    vehicle: { vin: withCheckDigit("7SACT2A10PM702318"), year: 2023, make: "Corvane", model: "Tessel", plate: "GLX 8803" },
+    vehicle: { vin: withCheckDigit("0ZTCT2A10PM702318"), year: 2023, make: "Corvane", model: "Tessel", plate: "GLX 8803" },
     task: { sensor: "rear_radar", method: "dynamic", reason: "bumper_or_grille_work", profileKey: "rear-radar" },
     drives: [{ pattern: "harsh", minutes: 19, daysAgo: 20, seed: 4087, review: "approved", note: "Hard stop for a turning truck; the learn itself is fine." }],
   },
   {
     ro: "RO-24071",
     customer: { name: "Emeric Dunstable", email: "e.dunstable@example.invalid", phone: "555-0129" },
-    vehicle: { vin: withCheckDigit("7SAHS4B10RM803364"), year: 2024, make: "Halden", model: "Strata", plate: "VQS 3317" },
+    vehicle: { vin: withCheckDigit("0ZTHS4B10RM803364"), year: 2024, make: "Haldrane", model: "Stratell", plate: "VQS 3317" },
     task: { sensor: "forward_radar", method: "dynamic", reason: "fault_code", profileKey: "forward-radar" },
     drives: [
       { pattern: "never-cleared", minutes: 12, daysAgo: 34, seed: 4071, review: "redo", note: "Never cleared; check the fault codes again before the next drive." },
@@ -235,13 +238,13 @@ const OPEN_JOBS: OpenJob[] = [
   {
     ro: "RO-24110",
     customer: { name: "Wilhelmina Strand", email: "w.strand@example.invalid", phone: "555-0106" },
-    vehicle: { vin: withCheckDigit("7SAVP5D10SM120045"), year: 2025, make: "Ostrava", model: "Pike", plate: "MBE 6620" },
+    vehicle: { vin: withCheckDigit("0ZTVP5D10SM120045"), year: 2025, make: "Ostrevane", model: "Pikett", plate: "MBE 6620" },
     tasks: [{ sensor: "forward_radar", method: "dynamic", reason: "bumper_or_grille_work", profileKey: "forward-radar", checklist: READY_CHECKLIST }],
   },
   {
     ro: "RO-24111",
     customer: { name: "Caspian Thorne", email: "c.thorne@example.invalid", phone: "555-0187" },
-    vehicle: { vin: withCheckDigit("7SAMV3C10RM220318"), year: 2024, make: "Mirro", model: "Vantage", plate: "ZRA 1043" },
+    vehicle: { vin: withCheckDigit("0ZTMV3C10RM220318"), year: 2024, make: "Mirrovel", model: "Vantrey", plate: "ZRA 1043" },
     tasks: [
       { sensor: "forward_camera", method: "dynamic", reason: "windshield_replaced", profileKey: "forward-camera", checklist: null },
       {

@@ -13,7 +13,7 @@ export type ReviewDecision = "approve" | "redo"
 export interface ShopSettings {
   units?: "imperial" | "metric"
   tirePressureTolerancePsi?: number
-  /** IANA zone for local times (road knowledge hours); default America/Chicago. */
+  /** IANA zone every time is written in (pages, PDF, e-mail) and road knowledge's hours; default America/Chicago. */
   timeZone?: string
   /** Where the shop is, for the roads map; without it the median start of its drives is used. */
   location?: { lat: number; lon: number } | null
@@ -37,6 +37,8 @@ export interface AppUserTable {
   password_hash: string
   disabled: Generated<boolean>
   created_at: GeneratedTimestamp
+  /** E-mail me when a drive waits for review (leads; the notice in the app comes regardless). */
+  review_mail: Generated<boolean>
 }
 
 export interface UserSessionTable {

@@ -63,6 +63,7 @@ export const MARK_LABEL: LabelTable<MarkKind> = {
   "lead-on": "Lead on",
   gap: "Gap",
   "lead-off": "Lead off",
+  // The file value stays `cleared`; on screen it is the vehicle reporting its learn done (DESIGN.md word table).
   cleared: "Learn complete",
   stopped: "Stopped",
   verified: "Verified",

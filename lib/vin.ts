@@ -26,6 +26,12 @@ export type VinCheck = {
   checkDigit: string | null
   expectedCheckDigit: string | null
   modelYear: number | null
+  /**
+   * Every model year position 10 can mean that has come (up to next year). Two when position 7 cannot settle it:
+   * the position-7 rule binds only cars, MPVs and trucks up to 4536 kg GVWR, so for a heavier truck, a bus, a
+   * trailer or a motorcycle the other 30-year cycle stays possible. `modelYear` is the light-vehicle reading.
+   */
+  modelYearChoices: number[]
   problems: string[]
 }
 
@@ -101,6 +107,19 @@ function decodeYearFromChars(chars: string[]): YearDecode {
   return { modelYear: cycleStart + cycleIndex, problem: null }
 }
 
+/**
+ * The model years position 10 can stand for (both 30-year cycles of the 49 CFR 565 table) that are not in the
+ * future: a model year may run at most one calendar year ahead. The light-vehicle reading (position 7) first.
+ */
+export function modelYearChoices(vin: string, thisYear = new Date().getUTCFullYear()): number[] {
+  const chars = [...normaliseVin(vin)]
+  const light = decodeYearFromChars(chars).modelYear
+  if (light === null) return []
+  const cycleIndex = MODEL_YEAR_CODES.indexOf(chars[MODEL_YEAR_POSITION - 1]!)
+  const other = light >= 2010 ? 1980 + cycleIndex : 2010 + cycleIndex
+  return [light, other].filter((y) => y <= thisYear + 1)
+}
+
 /** Model year from position 10, resolved with the position-7 rule; null if it cannot be decoded. */
 export function decodeModelYear(vin: string): number | null {
   return decodeYearFromChars([...normaliseVin(vin)]).modelYear
@@ -151,7 +170,15 @@ export function checkVin(input: string): VinCheck {
   const year = decodeYearFromChars(chars)
   if (year.problem) problems.push(year.problem)
 
-  return { vin, valid: problems.length === 0, checkDigit, expectedCheckDigit, modelYear: year.modelYear, problems }
+  return {
+    vin,
+    valid: problems.length === 0,
+    checkDigit,
+    expectedCheckDigit,
+    modelYear: year.modelYear,
+    modelYearChoices: year.modelYear === null ? [] : modelYearChoices(vin),
+    problems,
+  }
 }
 
 function describeChar(char: string): string {

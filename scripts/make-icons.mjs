@@ -92,3 +92,26 @@ fs.writeFileSync(path.join(out, "icon-512.png"), draw(512))
 fs.writeFileSync(path.join(out, "icon-maskable-512.png"), draw(512, { safe: 0.72, rounded: false }))
 fs.writeFileSync(path.join(out, "apple-touch-icon.png"), draw(180, { rounded: false }))
 console.log("icons written to public/icons")
+
+// The browser tab's icon: /favicon.ico (asked for by every browser on a first page) holding a 32 px and a 48 px
+// PNG (an ICO file may carry PNG images as they are: a 6-byte header, a 16-byte entry per image, the bytes).
+function ico(images) {
+  const header = Buffer.alloc(6)
+  header.writeUInt16LE(0, 0)
+  header.writeUInt16LE(1, 2) // 1 = icon
+  header.writeUInt16LE(images.length, 4)
+  let offset = 6 + 16 * images.length
+  const entries = images.map(({ size, data }) => {
+    const e = Buffer.alloc(16)
+    e.writeUInt8(size >= 256 ? 0 : size, 0)
+    e.writeUInt8(size >= 256 ? 0 : size, 1)
+    e.writeUInt16LE(1, 4) // colour planes
+    e.writeUInt16LE(32, 6) // bits per pixel
+    e.writeUInt32LE(data.length, 8)
+    e.writeUInt32LE(offset, 12)
+    offset += data.length
+    return e
+  })
+  return Buffer.concat([header, ...entries, ...images.map((i) => i.data)])
+}
+fs.writeFileSync(path.join(out, "..", "favicon.ico"), ico([32, 48].map((size) => ({ size, data: draw(size) }))))

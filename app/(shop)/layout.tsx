@@ -1,9 +1,11 @@
 import Link from "next/link"
 import type { ReactNode } from "react"
 import { requirePageRole } from "@/app/_server/auth"
+import { getFormatPrefs } from "@/app/_server/format-prefs"
 import { NotificationBell } from "@/components/notifications/notification-bell"
 import { ServiceWorkerRegistration } from "@/components/pwa/service-worker-registration"
 import { BottomNav, SideNav } from "@/components/shell/app-nav"
+import { FormatPrefsProvider } from "@/components/shell/format-prefs"
 import { Logo } from "@/components/shell/logo"
 import { navItemsFor } from "@/components/shell/nav-items"
 import { QueryProvider } from "@/components/shell/query-provider"
@@ -16,7 +18,9 @@ export const dynamic = "force-dynamic"
 export default async function ShopLayout({ children }: { children: ReactNode }) {
   const user = await requirePageRole()
   const items = navItemsFor(user.role)
+  const prefs = await getFormatPrefs(user.shopId)
   return (
+    <FormatPrefsProvider prefs={prefs}>
     <div className="flex min-h-dvh flex-col">
       <header className="sticky top-0 z-20 flex items-center justify-between gap-2 border-b border-graphite-200 bg-white/95 px-3 py-1 backdrop-blur dark:border-asphalt-700 dark:bg-asphalt-900/95">
         <Link href="/" className="flex min-h-12 items-center gap-2 font-bold tracking-tight">
@@ -41,5 +45,6 @@ export default async function ShopLayout({ children }: { children: ReactNode }) 
       <BottomNav items={items} />
       <ServiceWorkerRegistration />
     </div>
+    </FormatPrefsProvider>
   )
 }

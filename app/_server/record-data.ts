@@ -3,6 +3,7 @@ import type { Db } from "@/db/client"
 import { findChecklistForTask } from "@/db/queries/checklists"
 import { findDriveRecordHead, findLatestReview, findSharedDriveShop, listMarksWithLoggers, listRecordPhotos } from "@/db/queries/reviews"
 import { env } from "@/lib/env"
+import { DEFAULT_TIME_ZONE, isTimeZone } from "@/lib/format"
 import { shareTokenDriveId, verifyShareToken } from "@/lib/share"
 import { listSamples } from "@/db/queries/samples"
 import { findScore } from "@/db/queries/scores"
@@ -88,6 +89,8 @@ export async function loadRecordData(
     finishedAt: head.finished_at ? new Date(head.finished_at).toISOString() : null,
     generatedAt: new Date().toISOString(),
     calibrations: head.job_id ? await loadCalibrations(db, head.job_id, shopId, head.id) : [],
+    units: settings.units === "metric" ? "metric" : "imperial",
+    timeZone: settings.timeZone && isTimeZone(settings.timeZone) ? settings.timeZone : DEFAULT_TIME_ZONE,
   }
   return { head, data }
 }

@@ -36,7 +36,8 @@ export async function decideReview(db: Db, drive: Drive, reviewer: { id: string;
         shopId: reviewer.shopId,
         userId: decided.drive.driver_id,
         message: `${reviewer.name} sent back your drive (${what}): ${input.note}`,
-        link: `/drives/${drive.id}`,
+        // The job, where "Drive again" is the main action; a drive without a job opens the drive.
+        link: decided.drive.job_id ? `/jobs/${decided.drive.job_id}` : `/drives/${drive.id}`,
       })
     }
     return decided
@@ -55,8 +56,8 @@ export async function decideReview(db: Db, drive: Drive, reviewer: { id: string;
           "",
           `Note: ${input.note}`,
           "",
-          "The job is open again for another drive. See the drive here:",
-          `${env().APP_URL.replace(/\/$/, "")}/drives/${drive.id}`,
+          drive.job_id ? "The job is open again for another drive. Drive again from the job:" : "See the drive here:",
+          `${env().APP_URL.replace(/\/$/, "")}${drive.job_id ? `/jobs/${drive.job_id}` : `/drives/${drive.id}`}`,
         ].join("\n"),
       })
     }

@@ -17,6 +17,9 @@ type Person = { id: string; email: string; name: string; role: Role; disabled: b
 export function UserAdmin({ meId, initialUsers }: { meId: string; initialUsers: Person[] }) {
   const [users, setUsers] = useState(initialUsers)
   const [problem, setProblem] = useState<string | null>(null)
+  // Disabling ends the person's sessions at once, so it is asked twice; every change says on screen that it saved.
+  const [confirming, setConfirming] = useState<string | null>(null)
+  const [saved, setSaved] = useState<{ id: string; text: string } | null>(null)
   const form = useForm<NewUserInput>({
     resolver: zodResolver(newUserSchema),
     defaultValues: { email: "", name: "", role: "technician", password: "" },
@@ -41,8 +44,21 @@ export function UserAdmin({ meId, initialUsers }: { meId: string; initialUsers: 
   }
 
   async function change(id: string, changes: Partial<Pick<Person, "role" | "disabled">>) {
+    setSaved(null)
     const updated = await send(`/api/users/${id}`, "PATCH", changes)
-    if (updated) setUsers((list) => list.map((u) => (u.id === id ? updated : u)))
+    if (updated) {
+      setUsers((list) => list.map((u) => (u.id === id ? updated : u)))
+      setSaved({
+        id,
+        text:
+          changes.role !== undefined
+            ? `Saved: ${updated.name} is now ${ROLE_LABEL[updated.role]}.`
+            : updated.disabled
+              ? `Saved: ${updated.name} is disabled and signed out everywhere.`
+              : `Saved: ${updated.name} can sign in again.`,
+      })
+    }
+    setConfirming(null)
   }
 
   const { errors, isSubmitting } = form.formState
@@ -70,9 +86,34 @@ export function UserAdmin({ meId, initialUsers }: { meId: string; initialUsers: 
               >
                 <Options values={ROLES} labels={ROLE_LABEL} />
               </Select>
-              <Button variant={u.disabled ? "outline" : "ghost"} disabled={u.id === meId} onClick={() => change(u.id, { disabled: !u.disabled })}>
+              <Button
+                variant={u.disabled ? "outline" : "ghost"}
+                disabled={u.id === meId}
+                onClick={() => (u.disabled ? change(u.id, { disabled: false }) : setConfirming(u.id))}
+                aria-expanded={u.disabled ? undefined : confirming === u.id}
+              >
                 {u.disabled ? "Enable" : "Disable"}
               </Button>
+              {confirming === u.id ? (
+                <div role="alertdialog" aria-label={`Disable ${u.name}?`} className="basis-full space-y-2 rounded-lg border-2 border-stop-500 p-3" data-testid="confirm-disable">
+                  <p className="font-medium">
+                    Disable {u.name}? They are signed out on every phone at once and cannot sign in until you enable them again.
+                  </p>
+                  <div className="flex flex-wrap gap-2">
+                    <Button variant="danger" onClick={() => change(u.id, { disabled: true })} data-testid="confirm-disable-yes">
+                      Disable and sign out
+                    </Button>
+                    <Button variant="outline" onClick={() => setConfirming(null)}>
+                      Keep {u.name.split(" ")[0]}
+                    </Button>
+                  </div>
+                </div>
+              ) : null}
+              {saved?.id === u.id ? (
+                <p role="status" className="basis-full text-sm font-medium text-teal-700 dark:text-teal-300" data-testid="person-saved">
+                  {saved.text}
+                </p>
+              ) : null}
             </li>
           ))}
         </ul>

@@ -1,6 +1,8 @@
 "use client"
 
 import { MARK_ICON } from "@/components/drives/mark-icon"
+import { useFormatPrefs } from "@/components/shell/format-prefs"
+import { formatDuration, formatSpeedMph, speedUnit } from "@/lib/format"
 import { useState } from "react"
 import { CartesianGrid, ComposedChart, Line, ReferenceArea, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts"
 
@@ -37,7 +39,7 @@ function laneMarks(marks: readonly ChartMark[], domainMin: number, plotWidthPx: 
 }
 
 function formatAt(min: number) {
-  return `${(Math.round(Math.max(0, min) * 10) / 10).toFixed(1)} min`
+  return formatDuration(Math.max(0, min) * 60)
 }
 
 /**
@@ -58,8 +60,13 @@ export function SpeedChart({
   marks: ChartMark[]
 }) {
   const [widthPx, setWidthPx] = useState(340)
+  // The shop's unit: 1 mph = 1.609344 km/h exactly (NIST SP 811: 1 mi = 1609.344 m).
+  const { units } = useFormatPrefs()
+  const k = units === "metric" ? 1.609344 : 1
+  const unit = speedUnit(units)
+  const shown = points.map((p) => ({ min: p.min, speed: p.mph == null ? null : Math.round(p.mph * k * 10) / 10 }))
   const topMph = Math.max(maxSpeedMph ?? 0, ...points.map((p) => p.mph ?? 0), minSpeedMph + 10)
-  const yMax = Math.ceil((topMph + 5) / 10) * 10
+  const yMax = Math.ceil((topMph * k + 5) / 10) * 10
   const lastMin = points.at(-1)?.min ?? 1
   const domainMax = Math.max(1, Math.ceil(Math.max(lastMin, ...marks.map((m) => m.min))))
   const plotWidthPx = Math.max(120, widthPx - Y_AXIS_PX - MARGIN.right - MARGIN.left)
@@ -70,11 +77,11 @@ export function SpeedChart({
       {/* Ink is currentColor so the line, axes and mark badges follow the light or dark theme. */}
       <div className="h-64 w-full text-graphite-800 sm:h-80 dark:text-graphite-100">
         <ResponsiveContainer width="100%" height="100%" onResize={(w) => setWidthPx(w)}>
-          <ComposedChart data={points} margin={{ top, bottom: 4, ...MARGIN }}>
+          <ComposedChart data={shown} margin={{ top, bottom: 4, ...MARGIN }}>
             <CartesianGrid strokeDasharray="3 3" stroke="currentColor" strokeOpacity={0.2} />
             <XAxis dataKey="min" type="number" domain={[0, domainMax]} tickFormatter={(v: number) => `${v}`} unit=" min" tick={{ fontSize: 12, fill: "currentColor" }} stroke="currentColor" />
-            <YAxis domain={[0, yMax]} unit=" mph" tick={{ fontSize: 12, fill: "currentColor" }} stroke="currentColor" width={Y_AXIS_PX} />
-            <ReferenceArea y1={minSpeedMph} y2={maxSpeedMph ?? yMax} fill="#ffbf3d" fillOpacity={0.18} ifOverflow="hidden" />
+            <YAxis domain={[0, yMax]} unit={` ${unit}`} tick={{ fontSize: 12, fill: "currentColor" }} stroke="currentColor" width={Y_AXIS_PX} />
+            <ReferenceArea y1={minSpeedMph * k} y2={maxSpeedMph == null ? yMax : maxSpeedMph * k} fill="#ffbf3d" fillOpacity={0.18} ifOverflow="hidden" />
             {following.map((s, i) => (
               <ReferenceArea key={i} x1={s.fromMin} x2={s.toMin} fill="#2fcbbb" fillOpacity={0.2} ifOverflow="hidden" />
             ))}
@@ -90,18 +97,18 @@ export function SpeedChart({
             ))}
             <Tooltip
               contentStyle={{ color: "#1a1e23" }}
-              formatter={(v) => [`${Number(v).toFixed(1)} mph`, "Speed"]}
-              labelFormatter={(v) => `${Number(v).toFixed(1)} min into the drive`}
+              formatter={(v) => [`${Math.round(Number(v))} ${unit}`, "Speed"]}
+              labelFormatter={(v) => `${formatAt(Number(v))} into the drive`}
             />
-            <Line type="monotone" dataKey="mph" stroke="currentColor" strokeWidth={2} dot={false} isAnimationActive={false} connectNulls={false} />
+            <Line type="monotone" dataKey="speed" stroke="currentColor" strokeWidth={2} dot={false} isAnimationActive={false} connectNulls={false} />
           </ComposedChart>
         </ResponsiveContainer>
       </div>
       <figcaption className="space-y-2 text-sm text-graphite-700 dark:text-graphite-200">
         <div className="flex flex-wrap gap-x-4 gap-y-1">
           <span className="inline-flex items-center gap-1.5">
-            <span aria-hidden className="inline-block size-3 rounded-sm bg-signal-400/40" /> Qualifying band ({minSpeedMph}
-            {maxSpeedMph ? `–${maxSpeedMph}` : "+"} mph)
+            <span aria-hidden className="inline-block size-3 rounded-sm bg-signal-400/40" /> Qualifying band (
+            {maxSpeedMph == null ? `${formatSpeedMph(minSpeedMph, units)} or faster` : `${formatSpeedMph(minSpeedMph, units)} to ${formatSpeedMph(maxSpeedMph, units)}`})
           </span>
           <span className="inline-flex items-center gap-1.5">
             <span aria-hidden className="inline-block size-3 rounded-sm bg-teal-400/40" /> Following a lead vehicle

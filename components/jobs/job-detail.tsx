@@ -1,11 +1,12 @@
 "use client"
 
 import { useQuery } from "@tanstack/react-query"
-import { CircleAlert, CircleCheck, Pencil, Play } from "lucide-react"
+import { CircleAlert, CircleCheck, Pencil, Play, RotateCcw } from "lucide-react"
 import Link from "next/link"
 import { VerdictBadge, type VerdictValue } from "@/components/drives/verdict-badge"
 import { buttonVariants } from "@/components/ui/button"
 import { Card } from "@/components/ui/card"
+import { LocalTime } from "@/components/ui/local-time"
 import { METHOD_LABEL, REASON_LABEL, SENSOR_LABEL, type Method, type Reason, type Sensor } from "@/lib/validation/job"
 import { apiFetch } from "@/components/ui/api-fetch"
 import { ChecklistForm, type ChecklistView } from "./checklist-form"
@@ -98,7 +99,7 @@ export function JobDetail({ initialJob, canEdit, isLead = false }: { initialJob:
               </h3>
               {task.checklist ? (
                 <p className="text-sm text-graphite-600 dark:text-graphite-300" data-testid="checklist-stamp">
-                  Saved by {task.checklist.completedBy ?? "someone no longer here"} on {new Date(task.checklist.completedAt).toLocaleString()}
+                  Saved by {task.checklist.completedBy ?? "someone no longer here"} on <LocalTime iso={task.checklist.completedAt} />
                 </p>
               ) : null}
               <ChecklistForm
@@ -127,7 +128,15 @@ export function JobDetail({ initialJob, canEdit, isLead = false }: { initialJob:
               <section className="space-y-2">
                 {ready ? (
                   <Link href={`/record?jobId=${job.id}&taskId=${task.id}`} className={buttonVariants({ variant: "signal", size: "lg" })} data-testid="start-drive">
-                    <Play aria-hidden className="size-5" /> {task.method === "static" ? "Start the road test" : "Start a drive"}
+                    {job.status === "redo" && drives.length ? (
+                      <>
+                        <RotateCcw aria-hidden className="size-5" /> Drive again
+                      </>
+                    ) : (
+                      <>
+                        <Play aria-hidden className="size-5" /> {task.method === "static" ? "Start the road test" : "Start a drive"}
+                      </>
+                    )}
                   </Link>
                 ) : (
                   <p className="text-sm font-medium">Save a checklist with every check passing to start a drive.</p>
@@ -137,7 +146,7 @@ export function JobDetail({ initialJob, canEdit, isLead = false }: { initialJob:
                     {drives.map((d) => (
                       <li key={d.id} className="flex min-h-12 items-center justify-between gap-2">
                         <Link href={`/drives/${d.id}`} className="underline-offset-4 hover:underline">
-                          Drive of {new Date(d.createdAt).toLocaleString()}
+                          Drive of <LocalTime iso={d.createdAt} />
                         </Link>
                         {d.verdict ? <VerdictBadge verdict={d.verdict as VerdictValue} /> : <span className="text-sm">{d.status === "recording" ? "Recording" : "Finished"}</span>}
                       </li>

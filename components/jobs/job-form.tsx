@@ -100,7 +100,13 @@ export function JobForm({ jobId, initial }: { jobId?: string; initial?: JobFormV
 
       <Card className="space-y-3">
         <h2 className="text-lg font-bold">Vehicle</h2>
-        <VinField value={vin} serverError={err("vehicle.vin")} {...form.register("vehicle.vin")} />
+        <VinField
+          value={vin}
+          serverError={err("vehicle.vin")}
+          chosenYear={String(form.watch("vehicle.year") ?? "")}
+          onChooseYear={(y) => form.setValue("vehicle.year", String(y), { shouldDirty: true })}
+          {...form.register("vehicle.vin")}
+        />
         <div className="grid grid-cols-2 gap-3 sm:grid-cols-4">
           <Field label="Year" htmlFor="vehicle-year" error={err("vehicle.year")} hint="Blank: from the VIN">
             <Input id="vehicle-year" inputMode="numeric" autoComplete="off" {...form.register("vehicle.year")} />

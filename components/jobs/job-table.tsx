@@ -1,6 +1,7 @@
 "use client"
 
 import { keepPreviousData, useQuery } from "@tanstack/react-query"
+import { LocalTime } from "@/components/ui/local-time"
 import {
   createColumnHelper,
   rowPaginationFeature,
@@ -68,7 +69,7 @@ const columns = helper.columns([
     cell: (info) => (
       <>
         <span className="md:hidden">Opened </span>
-        {new Date(info.getValue()).toLocaleDateString(undefined, { month: "short", day: "numeric" })}
+        <LocalTime iso={info.getValue()} style="date" />
       </>
     ),
   }),

@@ -4,6 +4,7 @@ import { Bell, BellDot } from "lucide-react"
 import Link from "next/link"
 import { useCallback, useEffect, useRef, useState } from "react"
 import { cn } from "@/components/ui/cn"
+import { LocalTime } from "@/components/ui/local-time"
 
 type Notice = { id: string; message: string; link: string | null; readAt: string | null; createdAt: string }
 
@@ -97,7 +98,7 @@ export function NotificationBell({ className }: { className?: string }) {
                       ) : null}
                       {n.message}
                     </span>
-                    <span className="block text-xs text-graphite-600 dark:text-graphite-300">{new Date(n.createdAt).toLocaleString()}</span>
+                    <span className="block text-xs text-graphite-600 dark:text-graphite-300"><LocalTime iso={n.createdAt} /></span>
                   </>
                 )
                 return (

@@ -45,7 +45,7 @@ export function ProfileEditor({
   const shown = Object.fromEntries(
     PROFILE_FIELDS.map((f) => {
       const v = f.get(settings)
-      return [fieldKey(f.name), v === null ? "" : formatShown(toDisplay(f.kind, v, units))]
+      return [fieldKey(f.name), v === null ? "" : formatShown(toDisplay(f.kind, v, units), f.kind)]
     }),
   )
   const form = useForm<Values>({ defaultValues: { name: profile?.name ?? "", sensor: profile?.sensor ?? "", fields: shown } })

@@ -20,13 +20,13 @@ export const PROFILE_FIELDS: ProfileField[] = [
   { name: "maxSpeedMph", label: "Fastest qualifying speed", kind: "speed", nullable: true, get: (p) => p.maxSpeedMph, hint: "Blank: no upper limit." },
   { name: "leadGapFt.min", label: "Closest following gap", kind: "distance", get: (p) => p.leadGapFt.min, hint: "Behind a lead vehicle." },
   { name: "leadGapFt.max", label: "Farthest following gap", kind: "distance", get: (p) => p.leadGapFt.max, hint: "Behind a lead vehicle." },
-  { name: "minQualifyingMinutes", label: "Qualifying time needed", kind: "minutes", get: (p) => p.minQualifyingMinutes, hint: "Before the vehicle reports cleared." },
+  { name: "minQualifyingMinutes", label: "Qualifying time needed", kind: "minutes", get: (p) => p.minQualifyingMinutes, hint: "Before the vehicle reports the learn complete." },
   { name: "minFollowingMinutes", label: "Following time needed", kind: "minutes", get: (p) => p.minFollowingMinutes, hint: "0 when the learn needs no lead vehicle." },
-  { name: "maxDriveMinutes", label: "Drive times out after", kind: "minutes", get: (p) => p.maxDriveMinutes, hint: "Without a cleared mark." },
+  { name: "maxDriveMinutes", label: "Drive times out after", kind: "minutes", get: (p) => p.maxDriveMinutes, hint: "Without a learn-complete mark." },
   { name: "maxAccelMps2", label: "Harsh acceleration above", kind: "accel", get: (p) => p.maxAccelMps2, hint: "Speeding up harder is reported (0.1 g is 0.98 m/s²)." },
   { name: "maxDecelMps2", label: "Harsh braking above", kind: "accel", get: (p) => p.maxDecelMps2, hint: "Braking harder is reported." },
   { name: "maxGapSeconds", label: "Longest pause between samples", kind: "seconds", get: (p) => p.maxGapSeconds, hint: "Longer counts as a data gap." },
-  { name: "maxAccuracyM", label: "Least accurate sample kept", kind: "accuracy", get: (p) => p.maxAccuracyM, hint: "Looser fixes are dropped." },
+  { name: "maxAccuracyM", label: "Loosest position fix kept", kind: "accuracy", get: (p) => p.maxAccuracyM, hint: "The phone's stated accuracy; looser fixes are dropped." },
   { name: "verifySpeedMph", label: "Slowest speed for a verified mark", kind: "speed", get: (p) => p.verifySpeedMph, hint: "The function seen working at this speed or faster." },
 ]
 
@@ -62,6 +62,12 @@ export function fromDisplay(kind: FieldKind, shown: number, units: Units): numbe
   return shown
 }
 
-export function formatShown(n: number) {
-  return String(Math.round(n * 100) / 100)
+/**
+ * The number as people read it: converted speeds and lengths to whole units (30 m reads 98 ft, not 98.43),
+ * times and accelerations as kept. An unchanged field saves the stored value, so rounding here never drifts it.
+ */
+export function formatShown(n: number, kind?: FieldKind) {
+  const digits = kind === "speed" || kind === "distance" || kind === "accuracy" ? 0 : kind === "accel" ? 1 : 2
+  const f = 10 ** digits
+  return String(Math.round(n * f) / f)
 }

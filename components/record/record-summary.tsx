@@ -2,23 +2,28 @@ import { CircleCheck, CircleMinus, CircleX } from "lucide-react"
 import { VerdictBadge } from "@/components/drives/verdict-badge"
 import { Card } from "@/components/ui/card"
 import { cn } from "@/components/ui/cn"
-import type { Condition, Score } from "@/lib/scoring"
-import { formatConditionRequirement, formatConditionValue, formatDuration, formatMiles, formatMinutes } from "@/lib/record"
+import type { Score } from "@/lib/scoring"
+import { formatDistance, formatDuration, formatSpeedMph, plural, type UnitSystem } from "@/lib/format"
+import { describeConditions, describeReasons, formatAgainst, type ConditionLine } from "@/lib/format/conditions"
 
 
 /** The verdict with its reasons, the key figures and every condition with value and requirement. */
-export function RecordSummary({ score, meaning, className }: { score: Score; meaning?: string; className?: string }) {
+export function RecordSummary({ score, meaning, className, units = "imperial" }: { score: Score; meaning?: string; className?: string; units?: UnitSystem }) {
   const verified = score.conditions.find((c) => c.key === "verified")
+  const lines = describeConditions(score, units)
+  const { reasons, notes } = describeReasons(score, units)
   const figures: Array<[string, string]> = [
-    ["Qualifying before the clear", `${formatMinutes(score.qualifyingSecondsBeforeClear, (score.profile?.minQualifyingMinutes ?? 10) * 60)} min`],
-    ["Following before the clear", `${formatMinutes(score.followingSecondsBeforeClear, (score.profile?.minFollowingMinutes ?? 2) * 60)} min`],
-    ["Distance", `${formatMiles(score.distanceMeters)} mi`],
+    ["Qualifying before the learn completed", formatAgainst(score.qualifyingSecondsBeforeClear, (score.profile?.minQualifyingMinutes ?? 10) * 60)],
+    ["Following before the learn completed", formatAgainst(score.followingSecondsBeforeClear, (score.profile?.minFollowingMinutes ?? 2) * 60)],
+    ["Distance", formatDistance(score.distanceMeters, units)],
     ["Duration", formatDuration(score.durationSeconds)],
     [
-      "Harsh events",
-      score.harshEvents.decel + score.harshEvents.accel === 0 ? "None" : `${score.harshEvents.decel} braking · ${score.harshEvents.accel} speeding up`,
+      "Harsh events (advisory)",
+      score.harshEvents.decel + score.harshEvents.accel === 0
+        ? "None"
+        : `${plural(score.harshEvents.decel, "hard braking", "hard braking")} · ${plural(score.harshEvents.accel, "hard acceleration", "hard acceleration")}`,
     ],
-    ["Function check", verified?.met ? `Seen working at ${verified.value} mph` : "Not shown"],
+    ["Function check", verified?.met ? `Seen working at ${formatSpeedMph(verified.value, units)}` : "Not shown"],
   ]
   return (
     <div className={cn("space-y-4", className)}>
@@ -26,22 +31,22 @@ export function RecordSummary({ score, meaning, className }: { score: Score; mea
         <div className="flex flex-wrap items-center gap-3">
           <VerdictBadge verdict={score.verdict} size="lg" />
           {score.clearedAtSeconds != null ? (
-            <span className="text-sm text-graphite-600 dark:text-graphite-300">Cleared {formatDuration(score.clearedAtSeconds)} into the drive</span>
+            <span className="text-sm text-graphite-600 dark:text-graphite-300">Learn reported complete {formatDuration(score.clearedAtSeconds)} into the drive</span>
           ) : null}
         </div>
         {meaning ? <p className="font-medium">{meaning}</p> : null}
-        {score.reasons.length ? (
+        {reasons.length ? (
           <ul className="list-disc space-y-1 pl-5" data-testid="verdict-reasons">
-            {score.reasons.map((r) => (
+            {reasons.map((r) => (
               <li key={r}>{r}</li>
             ))}
           </ul>
         ) : (
           <p>Every condition the verdict rests on was met.</p>
         )}
-        {score.notes?.length ? (
+        {notes.length ? (
           <ul className="space-y-1 text-sm text-graphite-600 dark:text-graphite-300">
-            {score.notes.map((n) => (
+            {notes.map((n) => (
               <li key={n}>Note: {n}</li>
             ))}
           </ul>
@@ -59,13 +64,13 @@ export function RecordSummary({ score, meaning, className }: { score: Score; mea
         <h3 className="px-3 pt-3 font-semibold">Every condition</h3>
         {/* A list, not a table: four columns do not fit a phone, and each line reads on its own. */}
         <ul className="divide-y divide-graphite-100 dark:divide-asphalt-700" data-testid="conditions">
-          {score.conditions.map((c) => (
+          {lines.map((c) => (
             <li key={c.key} className="flex items-start justify-between gap-3 px-3 py-2.5" data-condition={c.key}>
               <div className="min-w-0">
                 <p className="font-medium">{c.label}</p>
                 <p className="tabular text-sm text-graphite-600 dark:text-graphite-300">
-                  {formatConditionValue(c).replace(/^-$/, "—")}
-                  {needed(formatConditionRequirement(c))}
+                  {c.value}
+                  {c.requirement ? ` · ${c.requirement}` : ""}
                 </p>
               </div>
               <ConditionState condition={c} />
@@ -77,13 +82,8 @@ export function RecordSummary({ score, meaning, className }: { score: Score; mea
   )
 }
 
-function needed(requirement: string) {
-  if (requirement === "-") return ""
-  return requirement === "none" ? " · none allowed" : ` · needed ${requirement}`
-}
-
-function ConditionState({ condition: c }: { condition: Condition }) {
-  if (c.met)
+function ConditionState({ condition: c }: { condition: ConditionLine }) {
+  if (c.state === "met")
     return (
       <span className="inline-flex shrink-0 items-center gap-1 font-semibold text-teal-700 dark:text-teal-300">
         <CircleCheck aria-hidden className="size-4" /> Met

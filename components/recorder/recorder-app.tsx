@@ -95,7 +95,15 @@ export function RecorderApp({ coDriver = false }: { coDriver?: boolean }) {
   }
 
   if (phase === "loading") return <p className="text-graphite-300">Opening the recorder…</p>
-  if (phase === "missing") return <p className="text-graphite-300">This drive is not one you can log marks on, or it has not reached the server yet.</p>
+  if (phase === "missing")
+    return (
+      <p className="text-graphite-300" data-testid="not-yours">
+        This drive is not one you can log marks on, or it has not reached the server yet.{" "}
+        <a href="/drives" className="font-semibold text-graphite-50 underline">
+          Back to drives
+        </a>
+      </p>
+    )
   if (phase === "start") return <StartFlow onStart={(c) => void start(c)} />
   if (meta && meta.status !== "recording" && meta.role !== "co-driver") {
     return (

@@ -77,7 +77,7 @@ export function RecordActions({ driveId, canShare, customerEmail }: { driveId: s
               <Input id="record-to" type="email" required value={to} onChange={(e) => setTo(e.target.value)} autoComplete="email" />
             </Field>
             <Button type="submit" variant="outline" disabled={busy !== null || !to}>
-              <Mail aria-hidden className="size-5" /> {busy === "mail" ? "Sending…" : "Send"}
+              <Mail aria-hidden className="size-5" /> {busy === "mail" ? "Sending…" : "E-mail the record"}
             </Button>
             {mailState?.ok ? <FormDone>{mailState.text}</FormDone> : <FormProblem>{mailState?.text}</FormProblem>}
           </form>

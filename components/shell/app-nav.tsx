@@ -6,7 +6,9 @@ import {
   ClipboardCheck,
   Mail,
   Map as MapIcon,
+  Menu,
   Route,
+  Settings,
   SlidersHorizontal,
   Users,
   Wrench,
@@ -14,8 +16,9 @@ import {
 } from "lucide-react"
 import Link from "next/link"
 import { usePathname } from "next/navigation"
+import { useEffect, useRef, useState } from "react"
 import { cn } from "@/components/ui/cn"
-import type { NavItem } from "./nav-items"
+import { BOTTOM_BAR_SLOTS, type NavItem } from "./nav-items"
 
 const ICONS: Record<string, LucideIcon> = {
   "clipboard-check": ClipboardCheck,
@@ -27,6 +30,7 @@ const ICONS: Record<string, LucideIcon> = {
   users: Users,
   mail: Mail,
   map: MapIcon,
+  settings: Settings,
 }
 
 function useActive() {
@@ -61,16 +65,19 @@ export function SideNav({ items }: { items: NavItem[] }) {
   )
 }
 
-/** Bottom bar on phones: thumb reach, one hand. */
+/** Bottom bar on phones: thumb reach, one hand. More entries than fit go in a "More" sheet, so every page is a tap or two away. */
 export function BottomNav({ items }: { items: NavItem[] }) {
   const isActive = useActive()
-  const shown = items.slice(0, 5)
+  const overflow = items.length > BOTTOM_BAR_SLOTS
+  const shown = overflow ? items.slice(0, BOTTOM_BAR_SLOTS - 1) : items
+  const more = overflow ? items.slice(BOTTOM_BAR_SLOTS - 1) : []
+  const columns = shown.length + (overflow ? 1 : 0)
   return (
     <nav
       aria-label="Main"
       className="fixed inset-x-0 bottom-0 z-30 border-t border-graphite-200 bg-white/95 pb-[env(safe-area-inset-bottom)] backdrop-blur md:hidden dark:border-asphalt-700 dark:bg-asphalt-900/95"
     >
-      <ul className="grid" style={{ gridTemplateColumns: `repeat(${shown.length}, minmax(0, 1fr))` }}>
+      <ul className="grid" style={{ gridTemplateColumns: `repeat(${columns}, minmax(0, 1fr))` }}>
         {shown.map((item) => {
           const Icon = ICONS[item.icon] ?? Route
           const active = isActive(item.href)
@@ -90,7 +97,88 @@ export function BottomNav({ items }: { items: NavItem[] }) {
             </li>
           )
         })}
+        {overflow ? (
+          <li>
+            <MoreSheet items={more} active={more.some((i) => isActive(i.href))} isActive={isActive} />
+          </li>
+        ) : null}
       </ul>
     </nav>
+  )
+}
+
+function MoreSheet({ items, active, isActive }: { items: NavItem[]; active: boolean; isActive: (href: string) => boolean }) {
+  const [open, setOpen] = useState(false)
+  const sheet = useRef<HTMLDivElement>(null)
+  const button = useRef<HTMLButtonElement>(null)
+  useEffect(() => {
+    if (!open) return
+    sheet.current?.querySelector("a")?.focus()
+    const close = (e: MouseEvent | KeyboardEvent) => {
+      if (e instanceof KeyboardEvent) {
+        if (e.key === "Escape") {
+          setOpen(false)
+          button.current?.focus()
+        }
+      } else if (!sheet.current?.contains(e.target as Node) && !button.current?.contains(e.target as Node)) setOpen(false)
+    }
+    document.addEventListener("mousedown", close)
+    document.addEventListener("keydown", close)
+    return () => {
+      document.removeEventListener("mousedown", close)
+      document.removeEventListener("keydown", close)
+    }
+  }, [open])
+  return (
+    <>
+      <button
+        ref={button}
+        type="button"
+        aria-expanded={open}
+        aria-controls="more-sheet"
+        onClick={() => setOpen((o) => !o)}
+        className={cn(
+          "flex min-h-16 w-full flex-col items-center justify-center gap-1 text-xs font-semibold text-graphite-500 dark:text-graphite-300",
+          (active || open) && "text-graphite-950 dark:text-signal-300",
+        )}
+        data-testid="nav-more"
+      >
+        <Menu aria-hidden className={cn("size-6", active && "stroke-[2.5]")} />
+        More
+      </button>
+      {open ? (
+        <div
+          ref={sheet}
+          id="more-sheet"
+          role="dialog"
+          aria-label="More pages"
+          className="fixed inset-x-0 bottom-[calc(4rem+env(safe-area-inset-bottom))] z-40 rounded-t-2xl border-t border-graphite-200 bg-white p-2 shadow-lg dark:border-asphalt-700 dark:bg-asphalt-800"
+          data-testid="more-sheet"
+        >
+          <ul className="grid gap-1">
+            {items.map((item) => {
+              const Icon = ICONS[item.icon] ?? Route
+              const current = isActive(item.href)
+              return (
+                <li key={item.href}>
+                  <Link
+                    href={item.href}
+                    aria-current={current ? "page" : undefined}
+                    onClick={() => setOpen(false)}
+                    className={cn(
+                      "flex min-h-12 items-center gap-3 rounded-lg px-3 font-medium text-graphite-800 hover:bg-graphite-100 dark:text-graphite-100 dark:hover:bg-asphalt-700",
+                      current && "bg-graphite-900 text-white dark:bg-signal-400 dark:text-graphite-950",
+                    )}
+                  >
+                    <Icon aria-hidden className="size-5" />
+                    {item.label}
+                  </Link>
+                </li>
+              )
+            })}
+          </ul>
+        </div>
+      ) : null}
+    </>
   )
 }

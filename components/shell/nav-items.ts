@@ -10,10 +10,14 @@ export const NAV_ITEMS: NavItem[] = [
   { href: "/jobs", label: "Jobs", icon: "wrench", roles: ["technician", "shop_lead"] },
   { href: "/numbers", label: "Numbers", icon: "chart", roles: ["shop_lead"] },
   { href: "/roads", label: "Roads", icon: "map", roles: ["technician", "shop_lead"] },
-  { href: "/profiles", label: "Profiles", icon: "sliders", roles: ["shop_lead"] },
+  { href: "/profiles", label: "Profiles", icon: "sliders", roles: ["technician", "shop_lead"] },
   { href: "/admin/users", label: "People", icon: "users", roles: [] },
   { href: "/admin/mail", label: "Mail", icon: "mail", roles: [] },
+  { href: "/settings", label: "Settings", icon: "settings", roles: ["shop_lead"] },
 ]
+
+/** How many entries the phone's bottom bar holds; past that the last place is "More", a sheet with the rest. */
+export const BOTTOM_BAR_SLOTS = 5
 
 export function navItemsFor(role: Role) {
   return NAV_ITEMS.filter((item) => role === "admin" || item.roles.includes(role))

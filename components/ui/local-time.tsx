@@ -1,24 +1,18 @@
 "use client"
 
-import { useEffect, useState } from "react"
-
-const STYLES = {
-  date: { day: "numeric", month: "short", year: "numeric" },
-  "date-time": { day: "numeric", month: "short", year: "numeric", hour: "numeric", minute: "2-digit" },
-} satisfies Record<string, Intl.DateTimeFormatOptions>
+import { useFormatPrefs } from "@/components/shell/format-prefs"
+import { formatDate, formatDateTime } from "@/lib/format"
 
 /**
- * A moment in the reader's own time zone. The server does not know it, so the first paint shows the date in
- * UTC (said so), and the browser puts in local time once it runs.
+ * A moment in the shop's time zone (its setting; lib/format), the same text on the server and in the browser.
+ * `timeZone` overrides the shop's (the share page has no signed-in shop).
  */
-export function LocalTime({ iso, style = "date-time", className }: { iso: string; style?: keyof typeof STYLES; className?: string }) {
-  const [local, setLocal] = useState<string | null>(null)
-  useEffect(() => {
-    setLocal(new Date(iso).toLocaleString(undefined, STYLES[style]))
-  }, [iso, style])
+export function LocalTime({ iso, style = "date-time", className, timeZone }: { iso: string; style?: "date" | "date-time"; className?: string; timeZone?: string }) {
+  const prefs = useFormatPrefs()
+  const zone = timeZone ?? prefs.timeZone
   return (
     <time dateTime={iso} className={className}>
-      {local ?? `${new Date(iso).toLocaleString("en-GB", { ...STYLES[style], timeZone: "UTC" })}${style === "date" ? "" : " UTC"}`}
+      {style === "date" ? formatDate(iso, zone) : formatDateTime(iso, zone)}
     </time>
   )
 }

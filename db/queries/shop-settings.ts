@@ -1,5 +1,5 @@
 import { DEFAULT_TIRE_TOLERANCE_PSI } from "@/lib/checklist"
-import { DEFAULT_TIME_ZONE } from "@/lib/roads/clock"
+import { DEFAULT_TIME_ZONE, isTimeZone } from "@/lib/format"
 import type { Db } from "../client"
 import type { ShopSettings } from "../types"
 
@@ -17,7 +17,7 @@ export async function findShopSettings(db: Db, shopId: string): Promise<Resolved
   return {
     units: s.units ?? "imperial",
     tirePressureTolerancePsi: s.tirePressureTolerancePsi ?? DEFAULT_TIRE_TOLERANCE_PSI,
-    timeZone: s.timeZone ?? DEFAULT_TIME_ZONE,
+    timeZone: s.timeZone && isTimeZone(s.timeZone) ? s.timeZone : DEFAULT_TIME_ZONE,
     location: s.location ?? null,
     roadKnowledge: s.roadKnowledge ?? true,
   }

@@ -13,13 +13,8 @@ export function formatMiles(meters: number): string {
   return mToMi(meters).toFixed(1)
 }
 
-export function formatDuration(seconds: number): string {
-  const total = Math.round(seconds)
-  const h = Math.floor(total / 3600)
-  const m = Math.floor((total % 3600) / 60)
-  const s = total % 60
-  return h > 0 ? `${h} h ${m} min` : `${m} min ${String(s).padStart(2, "0")} s`
-}
+// One duration style everywhere (lib/format).
+export { formatDuration } from "@/lib/format"
 
 // One set of words for task values everywhere: the job pages, the recorder and the record.
 export { MARK_LABEL, METHOD_LABEL, REASON_LABEL, SENSOR_LABEL } from "@/lib/labels"

@@ -2,11 +2,6 @@ import { PDFDocument, type PDFFont, type PDFImage, type PDFPage, rgb, StandardFo
 import {
   DECISION_WORD,
   describeVehicle,
-  formatConditionRequirement,
-  formatConditionValue,
-  formatDuration,
-  formatMiles,
-  formatMinutes,
   MARK_LABEL,
   METHOD_LABEL,
   REASON_LABEL,
@@ -14,6 +9,9 @@ import {
   SENSOR_LABEL,
   VERDICT_WORD,
 } from "./format"
+import { describeConditions, describeReasons, formatAgainst } from "@/lib/format/conditions"
+import { describeTimeZone, DEFAULT_PREFS, formatDateTime, formatDistance, formatDuration, formatLengthFt, formatSpeedMph, plural } from "@/lib/format"
+import { drawSpeedChart } from "./pdf-speed-chart"
 import { projectTrack, STATE_LABEL, thinTimeline, type StretchState } from "./timeline"
 import { checkWords, measurementWords, scanResultWords } from "./calibrations"
 import type { RecordData } from "./types"
@@ -49,7 +47,7 @@ export function toWinAnsi(text: string): string {
   return out
 }
 
-class Writer {
+export class Writer {
   page!: PDFPage
   y = 0
   pageNumber = 0
@@ -129,10 +127,6 @@ class Writer {
   }
 }
 
-function minutesOf(seconds: number | null | undefined, required?: number | null) {
-  return formatMinutes(seconds ?? 0, required ?? Infinity)
-}
-
 /** Builds the drive record PDF from plain data; no I/O. */
 export async function buildDriveRecordPdf(data: RecordData): Promise<Uint8Array> {
   const doc = await PDFDocument.create()
@@ -147,11 +141,17 @@ export async function buildDriveRecordPdf(data: RecordData): Promise<Uint8Array>
   const w = new Writer(doc, font, bold, `Drive record ${data.driveId} - ${data.shopName}`)
   const score = data.score
   const byKey = (key: string) => score.conditions?.find((c) => c.key === key)
+  // The shop's units and time zone (lib/format) for every number and time on the record.
+  const units = data.units ?? DEFAULT_PREFS.units
+  const zone = data.timeZone ?? DEFAULT_PREFS.timeZone
+  const fmtDateTime = (iso: string) => formatDateTime(iso, zone, { zoneName: true })
+  const described = describeReasons(score, units)
 
   // Title block
   w.text("Drive record", { size: 22, bold: true, gap: 0 })
   w.text(`${data.shopName} - calibration drive on public roads`, { size: 11, color: MUTED, gap: 4 })
-  w.text(`Made ${fmtDateTime(data.generatedAt)}. Drive ${data.driveId}.`, { size: 8, color: MUTED, gap: 8 })
+  w.text(`Made ${fmtDateTime(data.generatedAt)}. Drive ${data.driveId}.`, { size: 8, color: MUTED, gap: 0 })
+  w.text(`Times are in the shop's time zone, ${describeTimeZone(zone, data.startedAt ?? data.generatedAt)}.`, { size: 8, color: MUTED, gap: 8 })
 
   // Verdict box
   w.ensure(60)
@@ -165,9 +165,9 @@ export async function buildDriveRecordPdf(data: RecordData): Promise<Uint8Array>
     : "Not reviewed by a shop lead"
   w.page.drawText(toWinAnsi(reviewLine), { x: MARGIN + 160, y: boxTop - 30, size: 10, font, color: INK })
   w.y = boxTop - 52
-  if (score.reasons?.length) for (const reason of score.reasons) w.text(`- ${reason}`, { size: 10 })
+  if (described.reasons.length) for (const reason of described.reasons) w.text(`- ${reason}`, { size: 10 })
   else w.text("Every condition the verdict rests on was met.", { size: 10 })
-  for (const note of score.notes ?? []) w.text(`Note: ${note}`, { size: 9, color: MUTED })
+  for (const note of described.notes) w.text(`Note: ${note}`, { size: 9, color: MUTED })
 
   // Job and vehicle
   w.heading("Job and vehicle")
@@ -194,40 +194,36 @@ export async function buildDriveRecordPdf(data: RecordData): Promise<Uint8Array>
   const verified = byKey("verified")
   w.row("Started", data.startedAt ? fmtDateTime(data.startedAt) : "Not recorded")
   w.row("Duration", formatDuration(score.durationSeconds ?? 0))
-  w.row("Distance", `${formatMiles(score.distanceMeters ?? 0)} mi`)
-  w.row(
-    "Qualifying time before the clear",
-    `${minutesOf(score.qualifyingSecondsBeforeClear, qual?.required)} min${qual?.required != null ? ` (${formatMinutes(qual.required, 0)} min needed)` : ""}`,
-    { mark: qual ? (qual.met ? "OK" : "SHORT") : undefined },
-  )
-  w.row(
-    "Following time before the clear",
-    `${minutesOf(score.followingSecondsBeforeClear, foll?.required)} min${foll?.required != null ? ` (${formatMinutes(foll.required, 0)} min needed)` : ""}`,
-    { mark: foll ? (foll.met ? "OK" : "SHORT") : undefined },
-  )
-  w.row("Learn reported complete", score.clearedAtSeconds == null ? "No cleared mark" : `Cleared at ${formatDuration(score.clearedAtSeconds)} into the drive`, {
+  w.row("Distance", formatDistance(score.distanceMeters ?? 0, units))
+  w.row("Qualifying time before the learn completed", formatAgainst(score.qualifyingSecondsBeforeClear, qual?.required), {
+    mark: qual ? (qual.met ? "OK" : "SHORT") : undefined,
+  })
+  w.row("Following time before the learn completed", formatAgainst(score.followingSecondsBeforeClear, foll?.required), {
+    mark: foll ? (foll.met ? "OK" : "SHORT") : undefined,
+  })
+  w.row("Learn reported complete", score.clearedAtSeconds == null ? "No learn-complete mark" : `${formatDuration(score.clearedAtSeconds)} into the drive`, {
     mark: score.clearedAtSeconds == null ? "NO" : "OK",
   })
   w.row(
     "Function check",
     verified?.met
-      ? `Driver-assist seen working after the clear at ${verified.value ?? "?"} mph (${verified.required ?? "?"} mph or faster needed)`
-      : (verified?.reason ?? "No function check recorded"),
+      ? `Driver-assist seen working after the learn completed at ${formatSpeedMph(verified.value, units)} (${formatSpeedMph(verified.required, units)} or faster needed)`
+      : (describeConditions(score, units).find((c) => c.key === "verified")?.reason ?? "No function check recorded"),
     { mark: verified ? (verified.met ? "OK" : "NO") : undefined },
   )
   const harsh = score.harshEvents ?? { accel: 0, decel: 0 }
-  w.row("Harsh events", `${harsh.decel} hard braking, ${harsh.accel} hard acceleration`, { mark: harsh.accel + harsh.decel === 0 ? "OK" : "NOTE" })
-  if ((score.gapSeconds ?? 0) > 0) w.row("Position data gaps", `${Math.round(score.gapSeconds)} s in total`)
+  w.row("Harsh events", `${plural(harsh.decel, "hard braking", "hard braking")}, ${plural(harsh.accel, "hard acceleration", "hard acceleration")} (advisory)`, {
+    mark: harsh.accel + harsh.decel === 0 ? "OK" : "NOTE",
+  })
+  if ((score.gapSeconds ?? 0) > 0) w.row("Position data gaps", `${formatDuration(score.gapSeconds)} in total`)
 
   w.heading("Every condition")
-  for (const c of score.conditions ?? []) {
-    const required = formatConditionRequirement(c)
-    w.row(c.label, `${formatConditionValue(c)}${required === "-" ? "" : `; needed: ${required}`}${c.advisory ? " (for information)" : ""}`, {
-      mark: c.met ? "OK" : c.advisory ? "NOTE" : "NO",
-    })
+  for (const c of describeConditions(score, units)) {
+    w.row(c.label, `${c.value}${c.requirement ? `; ${c.requirement}` : ""}`, { mark: c.state === "met" ? "OK" : c.state === "advisory" ? "NOTE" : "NO" })
   }
 
   drawTrack(w, data)
+  drawSpeedChart(w, data, units)
 
   // Crew
   w.heading("Who drove and who logged")
@@ -237,7 +233,7 @@ export async function buildDriveRecordPdf(data: RecordData): Promise<Uint8Array>
   const t0 = score.startedAtMs ?? data.marks[0]?.t ?? 0
   const shownMarks = data.marks.filter((m) => m.kind !== "gap" || data.marks.length < 40).slice(0, 40)
   for (const m of shownMarks) {
-    const detail = m.kind === "note" ? `: ${m.text ?? ""}` : m.gapFt != null ? ` (${Math.round(m.gapFt)} ft)` : ""
+    const detail = m.kind === "note" ? `: ${m.text ?? ""}` : m.gapFt != null ? ` (${formatLengthFt(m.gapFt, units)})` : ""
     w.text(`${formatDuration(Math.max(0, (m.t - t0) / 1000))}  ${MARK_LABEL[m.kind] ?? m.kind}${detail}${m.byName ? ` - ${m.byName}` : ""}`, { size: 9, x: MARGIN + 10 })
   }
 
@@ -318,16 +314,12 @@ async function drawPhotos(w: Writer, data: RecordData) {
   }
 }
 
-function fmtDateTime(iso: string) {
-  const d = new Date(iso)
-  return `${d.toISOString().slice(0, 16).replace("T", " ")} UTC`
-}
-
 // ---- Per system of the job: static set-up, learn drive, road test (issue 13) ----
 
 const verdictWord = (v: string | null) => (v ? ((VERDICT_WORD as Record<string, string>)[v] ?? v) : "not finished")
 
 function drawCalibrations(w: Writer, data: RecordData) {
+  const fmtDateTime = (iso: string) => formatDateTime(iso, data.timeZone ?? DEFAULT_PREFS.timeZone, { zoneName: true })
   const systems = data.calibrations ?? []
   if (!systems.length) return
   w.heading("Each system calibrated on this job")

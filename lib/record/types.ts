@@ -85,4 +85,7 @@ export interface RecordData {
   generatedAt: string
   /** Per system of the job: set-up, learn drive, road test (absent on records made before road tests). */
   calibrations?: CalibrationRecord[]
+  /** The shop's choices for every number and time a person reads (lib/format); absent = US customary, US Central. */
+  units?: "imperial" | "metric"
+  timeZone?: string
 }

@@ -1,7 +1,7 @@
 import { z } from "zod"
 import { profileSchema, roadTestChecksSchema } from "@/lib/drive-file"
+import { isTimeZone } from "@/lib/format"
 import { SENSORS } from "@/lib/labels"
-import { isTimeZone } from "@/lib/roads/clock"
 
 export const profileKeySchema = z
   .string()
@@ -50,7 +50,7 @@ export const shopSettingsSchema = z
   .object({
     units: z.enum(["imperial", "metric"]).optional(),
     tirePressureTolerancePsi: z.number().min(0.5, "must be at least 0.5 psi").max(15, "must be at most 15 psi").optional(),
-    timeZone: z.string().max(64).refine(isTimeZone, "must be an IANA time zone, e.g. America/Chicago").optional(),
+    timeZone: z.string().max(64).refine(isTimeZone, "must be a time zone name such as America/Chicago").optional(),
     location: z.object({ lat: z.number().min(-90).max(90), lon: z.number().min(-180).max(180) }).nullable().optional(),
     /** false turns road knowledge off and removes the shop's road model. */
     roadKnowledge: z.boolean().optional(),

@@ -61,7 +61,7 @@ describe("a job on a phone", () => {
     await page.getByLabel("RO number").fill(ro)
     await page.getByLabel("Customer name").fill("Odile Pennant")
     // An invented VIN: position 7 'C' (alphabetic) and position 10 'S' make it a 2025 (49 CFR 565.15(b) cycle).
-    const vin = withCheckDigit("3VK7MPC4?S2718406")
+    const vin = withCheckDigit("0ZW7MPC4?S2718406")
     const wrongDigit = vin[8] === "0" ? "1" : "0"
     const vinBox = page.getByLabel("VIN")
     await vinBox.fill(vin.slice(0, 8) + wrongDigit + vin.slice(9))

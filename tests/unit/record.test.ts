@@ -7,6 +7,7 @@ import {
   computeTimeline,
   formatConditionRequirement,
   formatConditionValue,
+  formatDuration,
   formatMinutes,
   projectTrack,
   roLabel,
@@ -73,14 +74,14 @@ function recordFor(pattern: "met" | "short", vin: string): RecordData {
 
 describe("drive record PDF", () => {
   it("holds the VIN, the verdict word and the qualifying minutes of a short drive", async () => {
-    const vin = withCheckDigit("1C4RJFBG0FC625797")
+    const vin = withCheckDigit("0ZTRJFBG0FC625797")
     const data = recordFor("short", vin)
     expect(data.score.verdict).toBe("short")
     const text = await pdfText(await buildDriveRecordPdf(data))
     expect(text).toContain(vin)
     expect(text).toContain("Short")
-    const qualifying = formatMinutes(data.score.qualifyingSecondsBeforeClear, 600)
-    expect(text).toContain(`${qualifying} min (10.0 min needed)`)
+    const qualifying = formatDuration(data.score.qualifyingSecondsBeforeClear)
+    expect(text).toContain(`${qualifying} (10 min needed)`)
     expect(text).toContain("RO-7731")
     expect(text).toContain("Bumper or grille work")
     // The cautions travel with every record.
@@ -89,19 +90,38 @@ describe("drive record PDF", () => {
   })
 
   it("shows a met drive as Met with its function-check speed and the reviewer's decision", async () => {
-    const data = recordFor("met", withCheckDigit("2HGFB2F50DH512345"))
+    const data = recordFor("met", withCheckDigit("0ZTFB2F50DH512345"))
     data.review = { decision: "approve", note: "Clean drive.", reviewerName: "Bo Lindqvist", at: "2026-03-02T11:00:00.000Z" }
     expect(data.score.verdict).toBe("met")
     const text = await pdfText(await buildDriveRecordPdf(data))
     expect(text).toContain("Met")
     expect(text).toContain("Approved by Bo Lindqvist")
     const verified = data.score.conditions.find((c) => c.key === "verified")!
-    expect(text).toContain(`at ${verified.value} mph`)
+    expect(text).toContain(`at ${Math.round(verified.value!)} mph`)
     expect(text).toContain("Cyril Oduya")
   })
 
+  it("writes times in the shop's zone with the zone named, the shop's units, and a speed chart", async () => {
+    const data = recordFor("short", withCheckDigit("0ZTRJFBG0FC625797"))
+    data.timeZone = "America/Chicago"
+    data.units = "metric"
+    const text = await pdfText(await buildDriveRecordPdf(data))
+    // 2026-03-02T09:10Z is 3:10 AM in Chicago (CST, UTC-6 until the second Sunday of March; IANA tz database)
+    expect(text).toContain("Mar 2, 2026, 3:10 AM CST")
+    expect(text).toContain("America/Chicago (CST)")
+    expect(text).not.toContain(" UTC")
+    // NIST SP 811: 1 km = 1000 m; the distance in km with one decimal
+    expect(text).toContain(`${(Math.round(data.score.distanceMeters / 100) / 10).toFixed(1)} km`)
+    expect(text).toContain("56 km/h or faster") // 35 mph × 0.44704 × 3.6 = 56.3 km/h (NIST SP 811)
+    expect(text).not.toMatch(/\d mph/)
+    expect(text).toContain("Speed over time")
+    expect(text).toContain("Speed (km/h)")
+    expect(text).toContain("Minutes into the drive")
+    expect(text).toContain("the qualifying band")
+  })
+
   it("still builds when a photo's bytes are not an image", async () => {
-    const data = recordFor("short", withCheckDigit("1C4RJFBG0FC625797"))
+    const data = recordFor("short", withCheckDigit("0ZTRJFBG0FC625797"))
     data.photos = [{ filename: "broken.jpg", contentType: "image/jpeg", bytes: new Uint8Array([1, 2, 3]) }]
     const text = await pdfText(await buildDriveRecordPdf(data))
     expect(text).toContain("broken.jpg could not be read")

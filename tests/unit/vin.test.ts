@@ -7,6 +7,7 @@ import {
   computeCheckDigit,
   computeWeightedSum,
   decodeModelYear,
+  modelYearChoices,
   POSITION_WEIGHTS,
   transliterate,
   withCheckDigit,
@@ -293,5 +294,29 @@ describe("vinSchema", () => {
   it("rejects a short VIN by its length first", () => {
     const parsed = vinSchema.safeParse("1J9RP1A36A16443O")
     expect(parsed.error?.issues[0].message).toBe("VIN has 16 characters; it needs 17.")
+  })
+})
+
+describe("model years position 7 cannot settle", () => {
+  // 49 CFR 565 year-code table (30-year cycle from 1980) and §565.15(b): position 7 decides the cycle only for
+  // cars, MPVs and trucks up to 4536 kg GVWR, so a heavier vehicle's position 10 can mean either cycle.
+  it("offers both years of position 10's code, the light-vehicle reading first", () => {
+    const vin = "1J9RP1A36A1644345" // published example above: A with alphabetic position 7 -> 2010
+    expect(modelYearChoices(vin, 2026)).toEqual([2010, 1980])
+    expect(checkVin(vin).modelYearChoices[0]).toBe(2010)
+  })
+
+  it("leaves out a year still to come (a model year runs at most one year ahead)", () => {
+    // Position 10 "Y" is 2000 or 2030; with a numeric position 7 the light-vehicle reading is 2000.
+    const numeric7 = withCheckDigit("1Z9ZZ1199YZ000001")
+    expect(modelYearChoices(numeric7, 2026)).toEqual([2000])
+    // "T" is 1996 or 2026: both have come by 2026
+    const alpha7 = withCheckDigit("1Z9ZZ1A99TZ000001")
+    expect(modelYearChoices(alpha7, 2026)).toEqual([2026, 1996])
+    expect(modelYearChoices(alpha7, 2024)).toEqual([1996])
+  })
+
+  it("offers nothing when position 10 is not a year code", () => {
+    expect(modelYearChoices(withCheckDigit("1Z9ZZ1A99UZ000001"), 2026)).toEqual([])
   })
 })

@@ -1,6 +1,8 @@
-import { CircleDot } from "lucide-react"
+import { CircleDot, Radio } from "lucide-react"
 import Link from "next/link"
 import { requirePageRole } from "@/app/_server/auth"
+import { getFormatPrefs } from "@/app/_server/format-prefs"
+import { formatDateTime } from "@/lib/format"
 import { VerdictBadge } from "@/components/drives/verdict-badge"
 import { buttonVariants } from "@/components/ui/button"
 import { cn } from "@/components/ui/cn"
@@ -21,8 +23,8 @@ const FILTERS = [
   { label: "Unverified", query: "verdict=unverified" },
 ]
 
-function when(d: Date | string) {
-  return new Date(d).toLocaleString("en-US", { dateStyle: "medium", timeStyle: "short" })
+function when(d: Date | string, timeZone: string) {
+  return formatDateTime(d, timeZone)
 }
 
 export default async function DrivesPage({ searchParams }: { searchParams: Promise<Record<string, string | undefined>> }) {
@@ -36,6 +38,10 @@ export default async function DrivesPage({ searchParams }: { searchParams: Promi
     coDriverId: user.role === "co_driver" ? user.id : undefined,
     cursor,
   })
+  const prefs = await getFormatPrefs(user.shopId)
+  // The co-driver's way in: a large card for each drive being recorded that names them.
+  const joinable =
+    user.role === "co_driver" ? (await listDrives(getDb(), user.shopId, { status: "recording", coDriverId: user.id })).rows : []
   const current = query.verdict ? `verdict=${query.verdict}` : query.status ? `status=${query.status}` : ""
   const canRecord = user.role !== "co_driver"
   return (
@@ -51,6 +57,34 @@ export default async function DrivesPage({ searchParams }: { searchParams: Promi
           ) : null
         }
       />
+      {joinable.length ? (
+        <section aria-label="Drives you can join" className="mb-4 space-y-3" data-testid="join-cards">
+          {joinable.map((d) => (
+            <Link
+              key={d.id}
+              href={`/record/${d.id}/co-driver`}
+              className="block rounded-2xl border-2 border-signal-500 bg-signal-300/20 p-4 hover:bg-signal-300/30 dark:border-signal-400 dark:bg-signal-700/20"
+              data-testid="join-card"
+              data-drive-id={d.id}
+            >
+              <span className="flex min-h-16 items-center gap-3 text-xl font-bold">
+                <Radio aria-hidden className="size-7 shrink-0" /> Join as co-driver
+              </span>
+              <span className="block font-semibold">
+                {d.ro_number ? roLabel(d.ro_number) : "Unplanned drive"}
+                {d.vehicle_make || d.vehicle_model
+                  ? ` · ${[d.vehicle_year, d.vehicle_make, d.vehicle_model].filter(Boolean).join(" ")}`
+                  : d.vehicle_description
+                    ? ` · ${d.vehicle_description}`
+                    : ""}
+              </span>
+              <span className="block text-sm">
+                Driver {d.driver_name ?? "not named"} · started {when(d.created_at, prefs.timeZone)}
+              </span>
+            </Link>
+          ))}
+        </section>
+      ) : null}
       <nav aria-label="Filter drives" className="mb-3 flex flex-wrap gap-2">
         {FILTERS.map((f) => (
           <Link
@@ -80,7 +114,7 @@ export default async function DrivesPage({ searchParams }: { searchParams: Promi
               <li key={d.id}>
                 <Link href={href} className="flex min-h-16 items-center gap-3 px-4 py-3 hover:bg-graphite-50 dark:hover:bg-asphalt-700" data-drive-id={d.id}>
                   <div className="min-w-0 flex-1">
-                    <p className="truncate font-semibold">
+                    <p className="line-clamp-2 font-semibold break-words">
                       {d.ro_number ? roLabel(d.ro_number) : "Unplanned drive"}
                       {d.task_sensor ? ` · ${SENSOR_LABEL[d.task_sensor] ?? d.task_sensor}` : ""}
                       {d.vehicle_make || d.vehicle_model
@@ -90,7 +124,7 @@ export default async function DrivesPage({ searchParams }: { searchParams: Promi
                           : ""}
                     </p>
                     <p className="truncate text-sm text-graphite-600 dark:text-graphite-300">
-                      {when(d.created_at)} · {d.driver_name ?? "Unknown driver"}
+                      {when(d.created_at, prefs.timeZone)} · {d.driver_name ?? "Unknown driver"}
                       {d.co_driver_name ? ` with ${d.co_driver_name}` : ""}
                       {d.source === "import" ? " · imported" : ""}
                     </p>

@@ -7,6 +7,7 @@ import { buttonVariants } from "@/components/ui/button"
 import { Card } from "@/components/ui/card"
 import { PageHeader } from "@/components/ui/page-header"
 import { getDb } from "@/db/client"
+import { formatMinutesSetting } from "@/lib/format"
 import { listProfiles } from "@/db/queries/profiles"
 import { findShopSettings } from "@/db/queries/shop-settings"
 import { hasRole } from "@/lib/auth/roles"
@@ -36,7 +37,7 @@ export default async function ProfilesPage() {
         {profiles.map((p) => (
           <li key={p.profileId}>
             <Card className="space-y-1">
-              <Link href={`/profiles/${p.profileId}`} className="text-lg font-bold underline-offset-4 hover:underline">
+              <Link href={`/profiles/${p.profileId}`} className="flex min-h-12 items-center text-lg font-bold underline-offset-4 hover:underline">
                 {p.name}
               </Link>
               <p className="text-sm text-graphite-600 dark:text-graphite-300">
@@ -44,11 +45,11 @@ export default async function ProfilesPage() {
                 {p.archived ? " · archived" : ""}
               </p>
               <p className="tabular text-sm">
-                {formatShown(toDisplay("speed", p.settings.minSpeedMph, u))}
-                {p.settings.maxSpeedMph != null ? `–${formatShown(toDisplay("speed", p.settings.maxSpeedMph, u))}` : "+"} {unitLabel("speed", u)} ·{" "}
-                {p.settings.minQualifyingMinutes} min qualifying ·{" "}
+                {formatShown(toDisplay("speed", p.settings.minSpeedMph, u), "speed")}
+                {p.settings.maxSpeedMph != null ? `–${formatShown(toDisplay("speed", p.settings.maxSpeedMph, u), "speed")}` : "+"} {unitLabel("speed", u)} ·{" "}
+                {formatMinutesSetting(p.settings.minQualifyingMinutes)} qualifying ·{" "}
                 {p.settings.minFollowingMinutes > 0
-                  ? `${p.settings.minFollowingMinutes} min following at ${formatShown(toDisplay("distance", p.settings.leadGapFt.min, u))}–${formatShown(toDisplay("distance", p.settings.leadGapFt.max, u))} ${unitLabel("distance", u)}`
+                  ? `${formatMinutesSetting(p.settings.minFollowingMinutes)} following at ${formatShown(toDisplay("distance", p.settings.leadGapFt.min, u), "distance")}–${formatShown(toDisplay("distance", p.settings.leadGapFt.max, u), "distance")} ${unitLabel("distance", u)}`
                   : "no lead vehicle needed"}
               </p>
             </Card>

@@ -7,7 +7,10 @@ import { Card } from "@/components/ui/card"
 import { PageHeader } from "@/components/ui/page-header"
 import { getDb } from "@/db/client"
 import { listReviewQueue } from "@/db/queries/reviews"
+import { getFormatPrefs } from "@/app/_server/format-prefs"
+import { describeReasons } from "@/lib/format/conditions"
 import { describeVehicle, roLabel } from "@/lib/record"
+import type { Score } from "@/lib/scoring"
 
 export const metadata: Metadata = { title: "Review" }
 export const dynamic = "force-dynamic"
@@ -22,7 +25,7 @@ function waited(finishedAt: Date | string | null) {
 
 export default async function ReviewPage() {
   const me = await requirePageRole("shop_lead")
-  const { rows } = await listReviewQueue(getDb(), me.shopId)
+  const [{ rows }, { units }] = await Promise.all([listReviewQueue(getDb(), me.shopId), getFormatPrefs(me.shopId)])
   return (
     <>
       <PageHeader title="Review" description="Finished drives that need a second look: not met, or with harsh events. Oldest first." />
@@ -34,7 +37,8 @@ export default async function ReviewPage() {
       ) : (
         <ul className="space-y-3" data-testid="review-queue">
           {rows.map((r) => {
-            const score = r.result as { reasons?: string[]; notes?: string[]; harshEvents?: { accel: number; decel: number } }
+            const score = r.result as unknown as Score
+            const words = describeReasons(score, units)
             const harsh = (score.harshEvents?.accel ?? 0) + (score.harshEvents?.decel ?? 0)
             return (
               <li key={r.id} data-drive-id={r.id}>
@@ -49,13 +53,13 @@ export default async function ReviewPage() {
                           </span>
                         ) : null}
                       </div>
-                      <p className="font-semibold">
+                      <p className="font-semibold break-words">
                         {r.ro_number ? roLabel(r.ro_number) : "Unplanned drive"}
                         {" · "}
                         {describeVehicle(r.vehicle_make || r.vehicle_model ? { year: r.vehicle_year, make: r.vehicle_make, model: r.vehicle_model } : null, r.vehicle_description)}
                       </p>
                       <ul className="list-disc pl-5 text-sm text-graphite-700 dark:text-graphite-200">
-                        {[...(score.reasons ?? []), ...(score.notes ?? [])].slice(0, 3).map((reason) => (
+                        {[...words.reasons, ...words.notes].slice(0, 3).map((reason) => (
                           <li key={reason}>{reason}</li>
                         ))}
                       </ul>

@@ -93,7 +93,7 @@ function SharedRecord({ token, shared }: { token: string; shared: Extract<Awaite
           ) : null}
           <dt className="text-graphite-600 dark:text-graphite-300">Driven</dt>
           <dd>
-            {data.startedAt ? <LocalTime iso={data.startedAt} /> : "Not recorded"}
+            {data.startedAt ? <LocalTime iso={data.startedAt} timeZone={data.timeZone} /> : "Not recorded"}
           </dd>
           <dt className="text-graphite-600 dark:text-graphite-300">Driver</dt>
           <dd>
@@ -106,7 +106,7 @@ function SharedRecord({ token, shared }: { token: string; shared: Extract<Awaite
         <h2 id="how-it-went" className="text-lg font-semibold">
           How the drive went
         </h2>
-        <RecordSummary score={data.score} meaning={VERDICT_MEANING[verdict]} />
+        <RecordSummary score={data.score} meaning={VERDICT_MEANING[verdict]} units={data.units} />
       </section>
       <CalibrationsSection calibrations={data.calibrations} />
       <section
@@ -143,7 +143,7 @@ function SharedRecord({ token, shared }: { token: string; shared: Extract<Awaite
           <FileDown aria-hidden className="size-5" /> Download the record (PDF)
         </a>
         <span className="inline-flex items-center gap-1 text-sm text-graphite-600 dark:text-graphite-300">
-          <LinkIcon aria-hidden className="size-4" /> This link works until <LocalTime iso={new Date(shared.expiresAtMs).toISOString()} style="date" />
+          <LinkIcon aria-hidden className="size-4" /> This link works until <LocalTime iso={new Date(shared.expiresAtMs).toISOString()} style="date" timeZone={data.timeZone} />
         </span>
       </div>
     </div>

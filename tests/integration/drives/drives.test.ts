@@ -234,7 +234,7 @@ describe("finish, score and file", () => {
   })
 
   it("moves the job to drive on start and to complete on a met finish", async () => {
-    const vehicle = await testDb().insertInto("vehicle").values({ shop_id: shop.shopId, vin: withCheckDigit("5ZT7B2C40TS018342") }).returning("id").executeTakeFirstOrThrow()
+    const vehicle = await testDb().insertInto("vehicle").values({ shop_id: shop.shopId, vin: withCheckDigit("0ZT7B2C40TS018342") }).returning("id").executeTakeFirstOrThrow()
     const job = await testDb()
       .insertInto("job")
       .values({ shop_id: shop.shopId, ro_number: `RO-${randomUUID().slice(0, 6)}`, customer_name: "Invented Customer", vehicle_id: vehicle.id })

@@ -8,7 +8,7 @@ let counter = 0
 export function inventedVin(): string {
   counter += 1
   const serial = String((Date.now() + counter) % 1_000_000).padStart(6, "0")
-  return withCheckDigit(`5ZT4KAB3?R1${serial}`)
+  return withCheckDigit(`0ZV4KAB3?R1${serial}`)
 }
 
 export function newJobBody(overrides: Record<string, unknown> = {}) {

@@ -12,7 +12,7 @@ let vinCounter = 0
 export function freshVin() {
   vinCounter += 1
   const serial = String((Date.now() % 1_000_000) * 10 + (vinCounter % 10)).padStart(6, "0").slice(-6)
-  return withCheckDigit(`1ZT4R8AB0RW${serial}`)
+  return withCheckDigit(`0ZT4R8AB0RW${serial}`)
 }
 
 export async function insertJob(shop: TestShop, opts: { vin?: string; tasks?: number } = {}) {

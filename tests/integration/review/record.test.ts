@@ -1,7 +1,7 @@
 import { randomUUID } from "node:crypto"
 import { PDFParse } from "pdf-parse"
 import { describe, expect, it } from "vitest"
-import { formatMinutes } from "@/lib/record"
+import { formatDuration } from "@/lib/format"
 import { createTestShop } from "../../helpers/db"
 import { testEnv } from "../../helpers/env"
 import { ApiClient, signedIn } from "../../helpers/http"
@@ -33,8 +33,28 @@ describe("GET /api/drives/:id/record", () => {
     const text = await pdfText(res.bytes)
     expect(text).toContain(job.vin)
     expect(text).toContain("Short")
-    expect(text).toContain(`${formatMinutes(drive.score.qualifyingSecondsBeforeClear, 600)} min (10.0 min needed)`)
+    expect(text).toContain(`${formatDuration(drive.score.qualifyingSecondsBeforeClear)} (10 min needed)`)
     expect(text).toContain(job.roNumber)
+  })
+
+  it("writes times in the shop's time zone, named, and numbers in the shop's units, with the speed chart", async () => {
+    const shop = await createTestShop("RecordZone")
+    const drive = await insertScoredDrive(shop, { pattern: "short", seed: 305 })
+    const admin = await signedIn(shop.admin)
+    const set = await admin.patch("/api/shop/settings", { units: "metric", timeZone: "Pacific/Auckland" })
+    expect(set.status).toBe(200)
+    expect(set.body.settings.timeZone).toBe("Pacific/Auckland")
+    expect((await admin.patch("/api/shop/settings", { timeZone: "Mars/Olympus" })).status).toBe(400)
+    const text = await pdfText((await getPdf(await signedIn(shop.tech), `/api/drives/${drive.id}/record`)).bytes)
+    // IANA tz database: Pacific/Auckland is UTC+13 (NZDT) in the southern summer, UTC+12 (NZST) in winter.
+    const started = new Date(drive.score.startedAtMs ?? Date.now())
+    const zoneShort = new Intl.DateTimeFormat("en-US", { timeZone: "Pacific/Auckland", timeZoneName: "short" }).formatToParts(started).find((p) => p.type === "timeZoneName")!.value
+    expect(text).toContain(`Pacific/Auckland (${zoneShort})`)
+    expect(text).not.toMatch(/\d UTC/)
+    expect(text).toContain("km/h")
+    expect(text).not.toMatch(/\d mph/)
+    expect(text).toContain("Speed over time")
+    expect(text).toContain("Speed (km/h)")
   })
 
   it("is a 404 for another shop's drive and for a co-driver the drive does not name", async () => {

@@ -56,7 +56,8 @@ describe("POST /api/drives/:id/review", () => {
     expect(notices.status).toBe(200)
     expect(notices.body.unread).toBe(1)
     expect(notices.body.notifications[0].message).toContain(note)
-    expect(notices.body.notifications[0].link).toBe(`/drives/${drive.id}`)
+    // It leads to the job, where "Drive again" is the main action.
+    expect(notices.body.notifications[0].link).toBe(`/jobs/${job.jobId}`)
     // The lead, who decided, gets no notice of their own decision.
     expect((await lead.get("/api/notifications")).body.unread).toBe(0)
 

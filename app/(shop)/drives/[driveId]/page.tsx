@@ -1,4 +1,5 @@
-import { Download, Radio, ShieldAlert } from "lucide-react"
+import { Download, Radio, RotateCcw, ShieldAlert, Wrench } from "lucide-react"
+import Link from "next/link"
 import type { Metadata } from "next"
 import { notFound } from "next/navigation"
 import { requirePageRole } from "@/app/_server/auth"
@@ -85,7 +86,7 @@ export default async function DrivePage({ params }: { params: Promise<{ driveId:
           `order` lifts the review up); wide screens: two columns. */}
       <div className="flex flex-col gap-4 lg:grid lg:grid-cols-[3fr_2fr]">
         <div className="contents min-w-0 lg:block lg:space-y-4">
-          <RecordSummary score={data.score} className="order-first" />
+          <RecordSummary score={data.score} className="order-first" units={data.units} />
           <p className="order-first flex items-start gap-2 text-sm text-graphite-700 dark:text-graphite-200" data-testid="score-caution">
             <ShieldAlert aria-hidden className="mt-0.5 size-4 shrink-0 text-signal-700 dark:text-signal-300" />
             The score describes how the drive went. Whether the calibration is done is what the vehicle itself reports, following the maker&apos;s procedure; the score never replaces that.
@@ -110,6 +111,20 @@ export default async function DrivePage({ params }: { params: Promise<{ driveId:
           </Card>
         </div>
         <div className="contents min-w-0 lg:block lg:space-y-4">
+          {head.job_id ? (
+            <Card className="order-first flex flex-wrap items-center gap-2" data-testid="drive-job">
+              {data.review?.decision === "redo" && head.task_id && me.role !== "co_driver" ? (
+                <Link className={buttonVariants({ variant: "primary" })} href={`/record?jobId=${head.job_id}&taskId=${head.task_id}`} data-testid="drive-again">
+                  <RotateCcw aria-hidden className="size-5" /> Drive again
+                </Link>
+              ) : null}
+              {me.role !== "co_driver" ? (
+                <Link className={buttonVariants({ variant: "outline" })} href={`/jobs/${head.job_id}`} data-testid="drive-job-link">
+                  <Wrench aria-hidden className="size-5" /> Open the job{head.ro_number ? ` (${roLabel(head.ro_number)})` : ""}
+                </Link>
+              ) : null}
+            </Card>
+          ) : null}
           {isLead ? (
             <Card className="order-first" data-testid="review-card">
               <h2 className="mb-2 text-lg font-semibold">Review</h2>

@@ -25,7 +25,7 @@ export default async function ProfilePage({ params }: { params: Promise<{ profil
     <div className="mx-auto max-w-3xl space-y-6">
       <PageHeader
         title={profile.name}
-        description={`Key ${profile.key} · version ${profile.version} · shown in ${units === "metric" ? "km/h and metres" : "mph and feet"}, as the shop prefers`}
+        description={`Version ${profile.version} · shown in ${units === "metric" ? "km/h and metres" : "mph and feet"}, as the shop prefers`}
       />
       <ProfileEditor
         key={profile.versionId}
@@ -55,7 +55,7 @@ export default async function ProfilePage({ params }: { params: Promise<{ profil
                   {changed.length ? (
                     <ul className="text-sm">
                       {changed.map((f) => {
-                        const show = (n: number | null) => (n === null ? "none" : `${formatShown(toDisplay(f.kind, n, units))} ${unitLabel(f.kind, units)}`)
+                        const show = (n: number | null) => (n === null ? "none" : `${formatShown(toDisplay(f.kind, n, units), f.kind)} ${unitLabel(f.kind, units)}`)
                         return (
                           <li key={f.name}>
                             {f.label}: {show(f.get(older!.settings))} → {show(f.get(v.settings))}

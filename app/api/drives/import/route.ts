@@ -1,5 +1,6 @@
 import { randomUUID } from "node:crypto"
 import { requireRole } from "@/app/_server/auth"
+import { noticeDriveWaiting, sendReviewMails } from "@/app/_server/review-notices"
 import { parseQuery, readJson, route } from "@/app/_server/route"
 import { getDb } from "@/db/client"
 import { findDriveInShop, insertDrive } from "@/db/queries/drives"
@@ -29,7 +30,9 @@ export const POST = route(async (req) => {
     await insertSamples(trx, id, user.shopId, file.samples)
     await insertMarks(trx, id, user.shopId, file.marks.map((m) => ({ ...m, id: randomUUID() })), user.id)
     const drive = (await findDriveInShop(trx, id, user.shopId))!
-    return finishAndScore(trx, drive)
+    const finished = await finishAndScore(trx, drive)
+    return { ...finished, mails: await noticeDriveWaiting(trx, finished.drive, finished.score) }
   })
+  await sendReviewMails(result.mails)
   return Response.json({ drive: driveJson(result.drive), score: result.score }, { status: 201 })
 })

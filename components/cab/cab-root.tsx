@@ -1,0 +1,54 @@
+"use client"
+
+import { Sun, SunDim } from "lucide-react"
+import { useEffect, useState, type ReactNode } from "react"
+import { cn } from "@/components/ui/cn"
+
+const KEY = "straightaway.sun"
+
+/**
+ * The recorder's root: the dark cab theme, or sun mode (a high-contrast light theme, app/(cab)/sun.css) for
+ * bright daylight. The choice stays on the phone.
+ */
+export function CabRoot({ children }: { children: ReactNode }) {
+  const [sun, setSun] = useState(false)
+  useEffect(() => {
+    // localStorage is only readable after mount; the first paint is the cab theme.
+    setSun(window.localStorage.getItem(KEY) === "1")
+  }, [])
+  useEffect(() => {
+    document.querySelector('meta[name="theme-color"]')?.setAttribute("content", sun ? "#ffffff" : "#17181a")
+  }, [sun])
+  function toggle() {
+    const next = !sun
+    setSun(next)
+    try {
+      window.localStorage.setItem(KEY, next ? "1" : "0")
+    } catch {
+      // private mode: the choice lasts this visit
+    }
+  }
+  return (
+    <div className={cn("dark min-h-dvh bg-asphalt-900 text-graphite-50", sun && "sun")} data-theme={sun ? "sun" : "cab"} data-testid="cab-root">
+      <div className="mx-auto flex max-w-xl justify-end px-3 pt-[max(0.5rem,env(safe-area-inset-top))]">
+        <SunToggle sun={sun} onToggle={toggle} />
+      </div>
+      {children}
+    </div>
+  )
+}
+
+export function SunToggle({ sun, onToggle }: { sun: boolean; onToggle: () => void }) {
+  const Icon = sun ? SunDim : Sun
+  return (
+    <button
+      type="button"
+      onClick={onToggle}
+      aria-pressed={sun}
+      className="inline-flex min-h-12 items-center gap-2 rounded-lg border-2 border-graphite-400 px-3 text-sm font-semibold text-graphite-50"
+      data-testid="sun-toggle"
+    >
+      <Icon aria-hidden className="size-5" /> Sun mode {sun ? "on" : "off"}
+    </button>
+  )
+}

@@ -1,0 +1,101 @@
+"use client"
+
+import { useRouter } from "next/navigation"
+import { useState } from "react"
+import { apiFetch } from "@/components/ui/api-fetch"
+import { Button } from "@/components/ui/button"
+import { Field, Select } from "@/components/ui/field"
+import { formatDateTime, type UnitSystem } from "@/lib/format"
+
+function Saved({ message }: { message: string | null }) {
+  return (
+    <p role="status" className="min-h-6 text-sm font-medium">
+      {message}
+    </p>
+  )
+}
+
+/** A lead's own choice: an e-mail besides the notice when a drive waits for review. */
+export function ReviewMailForm({ initial }: { initial: boolean }) {
+  const [on, setOn] = useState(initial)
+  const [message, setMessage] = useState<string | null>(null)
+  async function change(next: boolean) {
+    setOn(next)
+    setMessage(null)
+    try {
+      await apiFetch("/api/me/settings", { method: "PATCH", body: { reviewMail: next } })
+      setMessage(next ? "Saved: drives waiting for review also come by e-mail." : "Saved: notices in the app only.")
+    } catch (error) {
+      setOn(!next)
+      setMessage((error as Error).message)
+    }
+  }
+  return (
+    <div className="space-y-1">
+      <label className="flex min-h-12 items-center gap-3 font-medium">
+        <input type="checkbox" className="size-6" checked={on} onChange={(e) => void change(e.target.checked)} data-testid="review-mail" />
+        E-mail me when a drive waits for my review
+      </label>
+      <Saved message={message} />
+    </div>
+  )
+}
+
+/** The shop's units and time zone (admin). */
+export function ShopFormatForm({ initial, zones, canEdit }: { initial: { units: UnitSystem; timeZone: string }; zones: string[]; canEdit: boolean }) {
+  const router = useRouter()
+  const [units, setUnits] = useState(initial.units)
+  const [timeZone, setTimeZone] = useState(initial.timeZone)
+  const [message, setMessage] = useState<string | null>(null)
+  const [busy, setBusy] = useState(false)
+  async function save(e: React.FormEvent) {
+    e.preventDefault()
+    setBusy(true)
+    setMessage(null)
+    try {
+      await apiFetch("/api/shop/settings", { method: "PATCH", body: { units, timeZone } })
+      setMessage("Saved. Pages, records and e-mails use these from now on.")
+      router.refresh()
+    } catch (error) {
+      setMessage((error as Error).message)
+    } finally {
+      setBusy(false)
+    }
+  }
+  return (
+    <form onSubmit={save} className="space-y-4">
+      <fieldset className="space-y-2" disabled={!canEdit}>
+        <legend className="text-sm font-semibold">Units</legend>
+        {(
+          [
+            ["imperial", "US customary: mph, miles, feet"],
+            ["metric", "Metric: km/h, kilometres, metres"],
+          ] as const
+        ).map(([value, label]) => (
+          <label key={value} className="flex min-h-12 items-center gap-3">
+            <input type="radio" name="units" value={value} className="size-5" checked={units === value} onChange={() => setUnits(value)} />
+            {label}
+          </label>
+        ))}
+        <p className="text-sm text-graphite-600 dark:text-graphite-300">Accelerations read in g, with m/s² beside them, either way.</p>
+      </fieldset>
+      <Field label="Time zone" htmlFor="time-zone" hint={`Now: ${formatDateTime(Date.now(), timeZone, { zoneName: true })}`}>
+        <Select id="time-zone" value={timeZone} onChange={(e) => setTimeZone(e.target.value)} disabled={!canEdit}>
+          {zones.map((z) => (
+            <option key={z} value={z}>
+              {z.replaceAll("_", " ")}
+            </option>
+          ))}
+        </Select>
+      </Field>
+      {canEdit ? (
+        <Button type="submit" disabled={busy} data-testid="save-shop-format">
+          Save units and time zone
+        </Button>
+      ) : (
+        <p className="text-sm text-graphite-600 dark:text-graphite-300">An admin sets these for the whole shop.</p>
+      )}
+      <Saved message={message} />
+    </form>
+  )
+}

@@ -1,0 +1,176 @@
+import { AxeBuilder } from "@axe-core/playwright"
+import type { Browser, Page } from "playwright-core"
+import { afterAll, beforeAll, describe, expect, it } from "vitest"
+import { launchBrowser, newPhoneContext, signInPage } from "../helpers/browser"
+import { createTestShop, type TestShop, type TestUser } from "../helpers/db"
+import { signedIn } from "../helpers/http"
+import { insertJob, insertScoredDrive } from "../integration/review/fixtures"
+
+let browser: Browser
+let shop: TestShop
+
+beforeAll(async () => {
+  browser = await launchBrowser()
+  shop = await createTestShop("E2ENav")
+  const job = await insertJob(shop)
+  await insertScoredDrive(shop, { pattern: "short", seed: 911, job, finishedAt: new Date(Date.now() - 3_600_000) })
+})
+afterAll(async () => {
+  await browser?.close()
+})
+
+async function phonePage(user: TestUser) {
+  const context = await newPhoneContext(browser)
+  const page = await context.newPage()
+  await signInPage(page, user.email, user.password)
+  return page
+}
+
+/** Taps the entry in the phone's bottom bar, or in its "More" sheet when the bar has no room for it. */
+async function tapNav(page: Page, label: string) {
+  const bar = page.getByRole("navigation", { name: "Main" }).locator("visible=true")
+  const direct = bar.getByRole("link", { name: label, exact: true })
+  if (await direct.count()) {
+    await direct.click()
+    return
+  }
+  await bar.getByRole("button", { name: "More" }).click()
+  await page.getByRole("dialog", { name: "More pages" }).getByRole("link", { name: label, exact: true }).click()
+}
+
+/** Walks every page of the role from the phone's navigation only: each tap lands on the page with its heading. */
+async function walk(user: TestUser, pages: Array<{ label: string; path: string; heading: RegExp }>) {
+  const page = await phonePage(user)
+  const reached: string[] = []
+  for (const p of pages) {
+    await tapNav(page, p.label)
+    await page.waitForURL((url) => url.pathname === p.path)
+    await page.getByRole("heading", { level: 1, name: p.heading }).waitFor()
+    reached.push(p.path)
+  }
+  await page.context().close()
+  return reached
+}
+
+// The pages each role may open (app/(shop)/**/page.tsx requirePageRole), as the phone's bar and "More" sheet name them.
+const TECH = [
+  { label: "Drives", path: "/drives", heading: /Drives/ },
+  { label: "Record", path: "/record", heading: /Start a drive/ },
+  { label: "Jobs", path: "/jobs", heading: /Jobs/ },
+  { label: "Profiles", path: "/profiles", heading: /Condition profiles/ },
+]
+const LEAD = [
+  { label: "Review", path: "/review", heading: /Review/ },
+  ...TECH,
+  { label: "Numbers", path: "/numbers", heading: /Numbers/ },
+  { label: "Settings", path: "/settings", heading: /Settings/ },
+]
+const ADMIN = [
+  ...LEAD,
+  { label: "People", path: "/admin/users", heading: /People/ },
+  { label: "Mail", path: "/admin/mail", heading: /Mail/ },
+  // and back to People after leaving it
+  { label: "Numbers", path: "/numbers", heading: /Numbers/ },
+  { label: "People", path: "/admin/users", heading: /People/ },
+]
+
+describe("phone navigation: every page a role may open is a tap or two away", () => {
+  it("the technician reaches drives, the recorder, jobs and profiles", async () => {
+    expect(await walk(shop.tech, TECH)).toEqual(TECH.map((p) => p.path))
+  })
+
+  it("the co-driver reaches the drives that name them", async () => {
+    const co = [{ label: "Drives", path: "/drives", heading: /Drives/ }]
+    expect(await walk(shop.codriver, co)).toEqual(["/drives"])
+  })
+
+  it("the shop lead reaches review, numbers, profiles and settings, through More where the bar is full", async () => {
+    expect(await walk(shop.lead, LEAD)).toEqual(LEAD.map((p) => p.path))
+  })
+
+  it("the admin reaches People, Mail and Profiles on a phone, and gets back to People", async () => {
+    expect(await walk(shop.admin, ADMIN)).toEqual(ADMIN.map((p) => p.path))
+  })
+
+  it("goes deeper by taps: a job from the list, a new job, a drive and its job", async () => {
+    const page = await phonePage(shop.lead)
+    await tapNav(page, "Jobs")
+    await page.getByRole("link", { name: /New job/ }).click()
+    await page.waitForURL("**/jobs/new")
+    await tapNav(page, "Drives")
+    await page.getByTestId("drive-list").getByRole("link").first().click()
+    await page.waitForURL(/\/drives\/[0-9a-f-]{36}$/)
+    await page.getByTestId("drive-job-link").click()
+    await page.waitForURL(/\/jobs\/[0-9a-f-]{36}$/)
+    await tapNav(page, "Profiles")
+    await page.getByRole("heading", { level: 1, name: /Condition profiles/ }).waitFor()
+    await page.context().close()
+  })
+
+  it("a page that refuses or does not exist has a way back", async () => {
+    const page = await phonePage(shop.codriver)
+    await page.goto("/drives/00000000-0000-4000-8000-000000000000")
+    await page.getByTestId("way-back").click()
+    await page.waitForURL("**/drives")
+    await page.context().close()
+  })
+})
+
+describe("the co-driver's way in", () => {
+  it("leads with a Join as co-driver card for a drive being recorded that names them, and it opens the logging screen", async () => {
+    const job = await insertJob(shop)
+    const live = await insertScoredDrive(shop, { pattern: "met", seed: 912, job, status: "recording" })
+    const page = await phonePage(shop.codriver)
+    const card = page.locator(`[data-testid="join-card"][data-drive-id="${live.id}"]`)
+    await card.waitFor()
+    expect(await card.textContent()).toContain("Join as co-driver")
+    expect(await card.textContent()).toContain(job.roNumber)
+    expect(await card.textContent()).toContain(shop.tech.name)
+    await card.click()
+    await page.waitForURL(`**/record/${live.id}/co-driver`)
+    // It says why it asks for the location before the logging buttons.
+    expect(await page.getByTestId("location-why").textContent()).toContain("speed")
+    await page.getByTestId("mark-cleared").waitFor()
+    expect(await page.getByTestId("mark-cleared").textContent()).toContain("Learn complete")
+    await page.context().close()
+  })
+})
+
+describe("notices for the lead", () => {
+  it("a drive that finishes short puts a notice under the lead's bell, which opens the drive", async () => {
+    const job = await insertJob(shop)
+    const drive = await insertScoredDrive(shop, { pattern: "short", seed: 913, job, status: "recording" })
+    const finish = await (await signedIn(shop.tech)).post(`/api/drives/${drive.id}/finish`, {})
+    expect(finish.status).toBe(200)
+    expect(finish.body.drive.verdict).toBe("short")
+    const page = await phonePage(shop.lead)
+    await page.getByTestId("notification-bell").click()
+    const notice = page.getByTestId("notification-panel").getByRole("link", { name: /waits for your review/ }).filter({ hasText: job.roNumber })
+    await notice.waitFor()
+    expect(await notice.textContent()).toContain("Short")
+    await notice.click()
+    await page.waitForURL(`**/drives/${drive.id}`)
+    await page.context().close()
+  })
+})
+
+describe("the recorder's sun mode", () => {
+  it("passes the axe check, with small text at 7:1 (WCAG 2.2 A/AA rules plus color-contrast-enhanced, SC 1.4.6)", async () => {
+    const page = await phonePage(shop.tech)
+    await page.goto("/record")
+    await page.getByRole("heading", { level: 1, name: "Start a drive" }).waitFor()
+    await page.getByTestId("sun-toggle").click()
+    await page.locator('[data-theme="sun"]').waitFor()
+    await page.waitForLoadState("networkidle")
+    const aa = await new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa", "wcag22a", "wcag22aa"]).analyze()
+    const aaa = await new AxeBuilder({ page }).withRules(["color-contrast-enhanced"]).analyze()
+    const problems = [...aa.violations.filter((v) => v.impact === "serious" || v.impact === "critical"), ...aaa.violations].map(
+      (v) => `${v.id}: ${v.nodes.map((n) => n.target.join(" ")).slice(0, 5).join(" | ")}`,
+    )
+    expect(problems).toEqual([])
+    // The choice stays on the phone.
+    await page.reload()
+    await page.locator('[data-theme="sun"]').waitFor()
+    await page.context().close()
+  })
+})
