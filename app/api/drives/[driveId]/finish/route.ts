@@ -1,11 +1,20 @@
+import { sendFollowUp } from "@/app/_server/revisions"
 import { route } from "@/app/_server/route"
-import { AppError } from "@/lib/errors"
+import { findDriveForUpdate } from "@/db/queries/drive-locks"
+import { AppError, notFound } from "@/lib/errors"
 import { driveForRoute, driveJson, finishAndScore } from "../../_service"
 
-/** Scores the stored samples and marks against the frozen profile. Finishing again scores again (idempotent). */
+/**
+ * Scores the stored samples and marks against the frozen profile. Finishing again scores again (idempotent).
+ * The drive is locked FOR UPDATE first, so the score includes every batch and mark accepted before it.
+ */
 export const POST = route<{ driveId: string }>(async (_req, ctx) => {
-  const { db, drive } = await driveForRoute(ctx.params, "finish")
-  if (drive.review_status !== null) throw new AppError("conflict", "This drive has been reviewed already.")
-  const result = await db.transaction().execute((trx) => finishAndScore(trx, drive))
+  const { user, db, drive: seen } = await driveForRoute(ctx.params, "finish")
+  const result = await db.transaction().execute(async (trx) => {
+    const drive = (await findDriveForUpdate(trx, seen.id, user.shopId)) ?? notFound("That drive")
+    if (drive.review_status !== null) throw new AppError("conflict", "This drive has been reviewed already.")
+    return finishAndScore(trx, drive, user.id)
+  })
+  sendFollowUp(result.followUp)
   return Response.json({ drive: driveJson(result.drive), score: result.score })
 })

@@ -1,16 +1,22 @@
+import { sendFollowUp } from "@/app/_server/revisions"
 import { parseJson, route } from "@/app/_server/route"
 import { insertMarks } from "@/db/queries/marks"
+import { marksOutsideDrive } from "@/lib/access/mark-window"
+import { validationFailed } from "@/lib/errors"
 import { markBatchSchema } from "@/lib/validation/drive"
-import { assertRecordingOpen, driveForRoute, rescoreFinishedDrive } from "../../_service"
+import { driveRouteIds, lockDriveFor, rescoreFinishedDrive } from "../../_service"
 
 export const POST = route<{ driveId: string }>(async (req, ctx) => {
-  const { user, db, drive } = await driveForRoute(ctx.params, "record")
+  const { user, db, driveId } = await driveRouteIds(ctx.params)
   const { marks } = await parseJson(req, markBatchSchema)
-  assertRecordingOpen(drive)
-  const result = await db.transaction().execute(async (trx) => {
+  const { result, followUp } = await db.transaction().execute(async (trx) => {
+    const drive = await lockDriveFor(trx, driveId, user, { sampleSpan: true })
+    // A sealed drive: every mark inside it, or the whole post is refused and nothing stored.
+    const outside = marksOutsideDrive(marks, { firstSampleT: drive.first_sample_t, lastSampleT: drive.last_sample_t, finishedAtMs: drive.finished_at?.getTime() ?? null })
+    if (Object.keys(outside).length) validationFailed(outside, "A mark's time falls outside the drive: marks must fall between 2 min before its first position and 2 min after its finish.")
     const r = await insertMarks(trx, drive.id, user.shopId, marks, user.id)
-    if (r.accepted > 0) await rescoreFinishedDrive(trx, drive)
-    return r
+    return { result: r, followUp: r.accepted > 0 ? await rescoreFinishedDrive(trx, drive, "late_marks", user.id) : undefined }
   })
+  sendFollowUp(followUp)
   return Response.json(result)
 })

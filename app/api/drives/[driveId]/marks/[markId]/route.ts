@@ -1,16 +1,19 @@
 import { z } from "zod"
-import { route, uuidParam } from "@/app/_server/route"
+import { sendFollowUp } from "@/app/_server/revisions"
+import { parseParams, route, uuidParam } from "@/app/_server/route"
 import { deleteMark } from "@/db/queries/marks"
-import { assertRecordingOpen, driveForRoute, rescoreFinishedDrive } from "../../../_service"
+import { driveRouteIds, lockDriveFor, rescoreFinishedDrive } from "../../../_service"
 
 const params = z.object({ driveId: uuidParam, markId: uuidParam })
 
 /** The recorder's undo of a mark already sent. Idempotent: a mark that is gone already is a 204 too. */
 export const DELETE = route<{ driveId: string; markId: string }>(async (_req, ctx) => {
-  const { user, db, drive, params: { markId } } = await driveForRoute(ctx.params, "record", { schema: params })
-  assertRecordingOpen(drive)
-  await db.transaction().execute(async (trx) => {
-    if (await deleteMark(trx, drive.id, user.shopId, markId)) await rescoreFinishedDrive(trx, drive)
+  const { user, db } = await driveRouteIds(ctx.params)
+  const { driveId, markId } = await parseParams(ctx.params, params)
+  const followUp = await db.transaction().execute(async (trx) => {
+    const drive = await lockDriveFor(trx, driveId, user)
+    if (await deleteMark(trx, drive.id, user.shopId, markId)) return rescoreFinishedDrive(trx, drive, "mark_removed", user.id)
   })
+  sendFollowUp(followUp)
   return new Response(null, { status: 204 })
 })
