@@ -297,6 +297,53 @@ export interface RoadDriveTable {
   updated_at: GeneratedTimestamp
 }
 
+export type RevisionCause = "finish" | "import" | "late_samples" | "late_marks" | "mark_removed" | "refinish" | "review" | "resealed"
+
+/** One revision of a finished drive's record: the score then, and the digest of drive file + score + review. */
+export interface ScoreRevisionTable {
+  id: Generated<string>
+  shop_id: string
+  drive_id: string
+  revision: number
+  cause: RevisionCause
+  verdict: VerdictValue
+  result: Json<Record<string, unknown>>
+  review_decision: ReviewDecision | null
+  /** SHA-256 (hex) of the canonical record (lib/record/seal.ts). */
+  digest: string
+  /** The short verification code printed on the PDF (from the digest). */
+  code: string
+  created_by: string | null
+  created_at: GeneratedTimestamp
+}
+
+/** A PDF the product issued: the SHA-256 of its bytes, so an upload can be matched byte for byte. */
+export interface IssuedRecordTable {
+  id: Generated<string>
+  shop_id: string
+  drive_id: string
+  revision_id: string
+  pdf_sha256: string
+  channel: "download" | "email" | "share"
+  issued_at: GeneratedTimestamp
+}
+
+export interface ShareLinkTable {
+  token_sha256: string
+  shop_id: string
+  drive_id: string
+  /** The record's latest revision when the link was made. */
+  revision: number
+  created_at: GeneratedTimestamp
+}
+
+export interface VerifyAttemptTable {
+  id: Generated<string>
+  client_address: string
+  matched: boolean
+  created_at: GeneratedTimestamp
+}
+
 export interface Database {
   shop: ShopTable
   app_user: AppUserTable
@@ -321,6 +368,10 @@ export interface Database {
   road_loop: RoadLoopTable
   road_cell_stat: RoadCellStatTable
   road_drive: RoadDriveTable
+  score_revision: ScoreRevisionTable
+  issued_record: IssuedRecordTable
+  share_link: ShareLinkTable
+  verify_attempt: VerifyAttemptTable
 }
 
 export type Shop = Selectable<ShopTable>
@@ -341,3 +392,4 @@ export type MarkRow = Selectable<MarkTable>
 export type ScoreRow = Selectable<ScoreTable>
 export type Review = Selectable<ReviewTable>
 export type Notification = Selectable<NotificationTable>
+export type ScoreRevision = Selectable<ScoreRevisionTable>

@@ -1,6 +1,8 @@
 import "server-only"
 import type { Db } from "@/db/client"
 import { findJobTaskDrives, setJobStatus } from "@/db/queries/drives"
+import { findDriveForUpdate } from "@/db/queries/drive-locks"
+import { findScore } from "@/db/queries/scores"
 import { insertNotification } from "@/db/queries/notifications"
 import { findDriveRecordHead, findShopPerson, insertReviewDecision } from "@/db/queries/reviews"
 import type { Drive } from "@/db/types"
@@ -10,6 +12,7 @@ import { describeVehicle, roLabel } from "@/lib/record"
 import type { ReviewInput } from "@/lib/validation/review"
 import { env } from "@/lib/env"
 import { sendMailQuietly } from "./mail"
+import { sealRevision } from "./revisions"
 
 /**
  * The lead's decision: close the review, move the job (redo reopens it; approve completes it once every
@@ -25,6 +28,8 @@ export async function decideReview(db: Db, drive: Drive, reviewer: { id: string;
   )}`
 
   const result = await db.transaction().execute(async (trx) => {
+    // Waits for samples and marks being written (they hold the drive FOR KEY SHARE); none are taken after this.
+    await findDriveForUpdate(trx, drive.id, reviewer.shopId)
     const decided = await insertReviewDecision(trx, { driveId: drive.id, shopId: reviewer.shopId, decision: input.decision, note: input.note, reviewerId: reviewer.id })
     if (!decided) throw new AppError("conflict", "This drive has been reviewed already.")
     if (decided.drive.job_id) {
@@ -40,6 +45,9 @@ export async function decideReview(db: Db, drive: Drive, reviewer: { id: string;
         link: decided.drive.job_id ? `/jobs/${decided.drive.job_id}` : `/drives/${drive.id}`,
       })
     }
+    // The decision is part of the sealed record: a new revision (DEVELOPERS.md "Record revisions and verification").
+    const score = await findScore(trx, drive.id, reviewer.shopId)
+    if (score) await sealRevision(trx, decided.drive, { cause: "review", score, by: reviewer.id })
     return decided
   })
 

@@ -12,6 +12,7 @@ import {
 import { describeConditions, describeReasons, formatAgainst } from "@/lib/format/conditions"
 import { describeTimeZone, DEFAULT_PREFS, formatDateTime, formatDistance, formatDuration, formatLengthFt, formatSpeedMph, plural } from "@/lib/format"
 import { drawSpeedChart } from "./pdf-speed-chart"
+import { drawQrCode, drawVerificationText, revisionLine, verificationLines, verifyLink } from "./pdf-seal"
 import { projectTrack, STATE_LABEL, thinTimeline, type StretchState } from "./timeline"
 import { checkWords, measurementWords, scanResultWords } from "./calibrations"
 import type { RecordData } from "./types"
@@ -152,6 +153,7 @@ export async function buildDriveRecordPdf(data: RecordData): Promise<Uint8Array>
   w.text(`${data.shopName} - calibration drive on public roads`, { size: 11, color: MUTED, gap: 4 })
   w.text(`Made ${fmtDateTime(data.generatedAt)}. Drive ${data.driveId}.`, { size: 8, color: MUTED, gap: 0 })
   w.text(`Times are in the shop's time zone, ${describeTimeZone(zone, data.startedAt ?? data.generatedAt)}.`, { size: 8, color: MUTED, gap: 8 })
+  if (data.seal) w.text(revisionLine(data.seal), { size: 8, color: MUTED, gap: 8 })
 
   // Verdict box
   w.ensure(60)
@@ -255,6 +257,8 @@ export async function buildDriveRecordPdf(data: RecordData): Promise<Uint8Array>
     if (data.review.note) w.row("Note", data.review.note)
   } else w.text("This drive has not been reviewed.", { color: MUTED })
 
+  drawVerification(w, data)
+
   // Cautions
   w.heading("Please read")
   for (const caution of RECORD_CAUTIONS) w.text(`- ${caution}`, { size: 10 })
@@ -285,6 +289,22 @@ function drawTrack(w: Writer, data: RecordData) {
   }
   w.y -= 18
   w.text("Drawn from the phone's positions; no map. Amber: qualifying speed. Teal: following a lead vehicle.", { size: 8, color: MUTED })
+}
+
+/** "Check this record": the verification code, the verify address and a QR code that opens it. */
+function drawVerification(w: Writer, data: RecordData) {
+  if (!data.seal) return
+  const side = 96
+  const textX = MARGIN + side + 16
+  const items = verificationLines(data.seal)
+  const wrapped = items.map((l) => w.wrap(l.text, l.bold ? w.bold : w.font, 10, CONTENT_W - side - 16))
+  const textHeight = wrapped.reduce((h, lines) => h + lines.length * 13.5 + 2, 0)
+  w.ensure(Math.max(side, textHeight) + 50)
+  w.heading("Check this record")
+  const top = w.y
+  drawQrCode(w.page, verifyLink(data.seal), MARGIN, top, side)
+  drawVerificationText(w.page, { font: w.font, bold: w.bold }, wrapped, textX, top, items)
+  w.y = top - Math.max(side, textHeight) - 6
 }
 
 async function drawPhotos(w: Writer, data: RecordData) {

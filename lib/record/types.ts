@@ -62,6 +62,16 @@ export interface CalibrationRecord {
   cautions: string[]
 }
 
+/** Which revision of the record a PDF is, and how to check it (DEVELOPERS.md "Record revisions and verification"). */
+export interface RecordSeal {
+  revision: number
+  revisedAt: string
+  /** The short verification code, `XXXX-XXXX-XXXX`. */
+  code: string
+  /** The public verify page, APP_URL + /verify. */
+  verifyUrl: string
+}
+
 /** Everything the drive record shows, as plain data: the PDF, the share page and the detail page read this. */
 export interface RecordData {
   driveId: string
@@ -88,4 +98,6 @@ export interface RecordData {
   /** The shop's choices for every number and time a person reads (lib/format); absent = US customary, US Central. */
   units?: "imperial" | "metric"
   timeZone?: string
+  /** Set when the record is issued as a PDF: its revision and verification code. */
+  seal?: RecordSeal
 }

@@ -6,6 +6,7 @@ import { requireRole } from "@/app/_server/auth"
 import { parseParams, uuidParam } from "@/app/_server/route"
 import { getDb, type Db } from "@/db/client"
 import { loadDriveFile } from "@/db/queries/drive-file"
+import { findDriveForKeyShare, lockDriveRecord, type DriveWithSampleSpan } from "@/db/queries/drive-locks"
 import {
   findDriveInShop,
   findJobTaskDrives,
@@ -15,7 +16,8 @@ import {
 } from "@/db/queries/drives"
 import { updateRoadModel } from "@/db/queries/roads"
 import { upsertScore } from "@/db/queries/scores"
-import type { Drive } from "@/db/types"
+import type { Drive, RevisionCause } from "@/db/types"
+import { noticeVerdictChange, sealRevision, type FollowUp } from "@/app/_server/revisions"
 import {
   canFinishDrive,
   canRecordOnDrive,
@@ -43,7 +45,21 @@ export type DriveNeed = "see" | "record" | "finish"
 
 /** The drive if the actor may `need` it: 404 when they may not see it, 403 when they see it but may not act. */
 export async function loadDriveFor(db: Db, driveId: string, actor: DriveActor, need: DriveNeed): Promise<Drive> {
-  const drive = await findDriveInShop(db, driveId, actor.shopId)
+  return assertDriveAccess(await findDriveInShop(db, driveId, actor.shopId), actor, need)
+}
+
+/**
+ * Inside a sample or mark transaction: the drive locked FOR KEY SHARE (see db/queries/drive-locks.ts), with
+ * the same 404/403 rules as loadDriveFor, and 409 once a lead has reviewed it. This is the transaction's
+ * one read of the drive.
+ */
+export async function lockDriveFor(trx: Db, driveId: string, actor: DriveActor, opts: { sampleSpan?: boolean } = {}): Promise<DriveWithSampleSpan> {
+  const drive = assertDriveAccess(await findDriveForKeyShare(trx, driveId, actor.shopId, opts), actor, "record")
+  assertRecordingOpen(drive)
+  return drive
+}
+
+function assertDriveAccess<D extends Drive>(drive: D | undefined, actor: DriveActor, need: DriveNeed): D {
   if (!drive || !canSeeDrive(actor, accessFacts(drive))) notFound("That drive")
   if (need === "record" && !canRecordOnDrive(actor, accessFacts(drive))) {
     throw new AppError("forbidden", "Only the drive's driver, its co-driver or a shop lead can record on it.")
@@ -55,6 +71,13 @@ export async function loadDriveFor(db: Db, driveId: string, actor: DriveActor, n
 }
 
 const driveIdParams = z.object({ driveId: uuidParam })
+
+/** Signed in (with one of `roles`) and the drive id from the path, for handlers that read the drive in a transaction. */
+export async function driveRouteIds(params: Promise<unknown>, roles: Role[] = []) {
+  const { user } = await requireRole(...roles)
+  const { driveId } = await parseParams(params, driveIdParams)
+  return { user, db: getDb(), driveId }
+}
 
 /**
  * The first steps of a /api/drives/:driveId handler, in this order: signed in (with one of `roles`
@@ -107,26 +130,38 @@ export async function scoreStoredDrive(db: Db, driveId: string, shopId: string):
 }
 
 /**
- * Finish (or score again after late data): store the score and verdict, mark the drive finished,
- * and move its job on. Call inside a transaction.
+ * Finish (or finish again): store the score and verdict, mark the drive finished, move its job on, and seal
+ * a revision of the record when it changed. Call inside a transaction holding the drive FOR UPDATE (or on a
+ * drive no one else can see yet, as import does).
  */
-export async function finishAndScore(trx: Db, drive: Drive): Promise<{ drive: Drive; score: Score }> {
-  const score = await scoreStoredDrive(trx, drive.id, drive.shop_id)
+export async function finishAndScore(trx: Db, drive: Drive, by: string | null = null): Promise<{ drive: Drive; score: Score; followUp?: FollowUp }> {
+  const file = await loadDriveFile(trx, drive.id, drive.shop_id)
+  const score = scoreDrive(file)
   await upsertScore(trx, drive.id, drive.shop_id, score)
-  await updateRoadModel(trx, drive, score)
+  await updateRoadModel(trx, drive, score, file)
   const finished = await markDriveFinished(trx, drive.id, drive.shop_id, score.verdict)
   if (finished.job_id) await updateJobAfterFinish(trx, finished.job_id, finished.shop_id)
-  return { drive: finished, score }
+  const cause: RevisionCause = drive.status === "finished" ? "refinish" : drive.source === "import" ? "import" : "finish"
+  const sealed = await sealRevision(trx, finished, { cause, score, driveFile: file, by })
+  return { drive: finished, score, followUp: await noticeVerdictChange(trx, finished, sealed) }
 }
 
-/** Late samples or marks on a finished drive that no one has reviewed yet: score it again. */
-export async function rescoreFinishedDrive(trx: Db, drive: Drive): Promise<void> {
-  if (drive.status !== "finished") return
-  const score = await scoreStoredDrive(trx, drive.id, drive.shop_id)
+/**
+ * Late samples or marks (or a mark taken back) on a finished drive no one has reviewed yet: score it again
+ * under the drive's record lock, so racing late writes score one after the other and the last sees them all.
+ * Call inside the write's transaction, which holds the drive FOR KEY SHARE.
+ */
+export async function rescoreFinishedDrive(trx: Db, drive: Drive, cause: RevisionCause, by: string | null = null): Promise<FollowUp | undefined> {
+  if (drive.status !== "finished") return undefined
+  await lockDriveRecord(trx, drive.id)
+  const file = await loadDriveFile(trx, drive.id, drive.shop_id)
+  const score = scoreDrive(file)
   await upsertScore(trx, drive.id, drive.shop_id, score)
-  await updateRoadModel(trx, drive, score)
+  await updateRoadModel(trx, drive, score, file)
   await setDriveVerdict(trx, drive.id, drive.shop_id, score.verdict)
   if (drive.job_id) await updateJobAfterFinish(trx, drive.job_id, drive.shop_id)
+  const sealed = await sealRevision(trx, drive, { cause, score, driveFile: file, by })
+  return noticeVerdictChange(trx, drive, sealed)
 }
 
 async function updateJobAfterFinish(trx: Db, jobId: string, shopId: string) {

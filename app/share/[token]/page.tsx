@@ -1,7 +1,8 @@
-import { Building2, Clock, FileDown, LinkIcon, ShieldAlert } from "lucide-react"
+import { Building2, Clock, FileDown, History, LinkIcon, ShieldAlert } from "lucide-react"
 import type { Metadata } from "next"
 import { loadSharedRecord } from "@/app/_server/record-data"
 import { CalibrationsSection } from "@/components/record/calibrations-section"
+import { shareRevisionState } from "@/app/_server/record-seal"
 import { RecordSummary } from "@/components/record/record-summary"
 import { TrackSvg } from "@/components/record/track-svg"
 import { Logo } from "@/components/shell/logo"
@@ -36,12 +37,37 @@ export default async function SharedRecordPage({ params }: { params: Promise<{ t
   const shared = await loadSharedRecord(getDb(), token, { photos: false })
   return (
     <div className="mx-auto max-w-3xl px-4 py-6">
-      {shared.ok ? <SharedRecord token={token} shared={shared} /> : <LinkProblem reason={shared.reason} />}
+      {shared.ok ? (
+        <>
+          <RevisionNote state={await shareRevisionState(getDb(), token, shared.head.id, shared.head.shop_id)} />
+          <SharedRecord token={token} shared={shared} />
+        </>
+      ) : (
+        <LinkProblem reason={shared.reason} />
+      )}
       <footer className="mt-8 flex items-center gap-2 border-t border-graphite-200 pt-4 text-sm text-graphite-600 dark:border-asphalt-700 dark:text-graphite-300">
         <Logo className="size-6" />
         <span>Drive record made with Straightaway. Read only; nobody can change it through this link.</span>
       </footer>
     </div>
+  )
+}
+
+/** Which revision the page shows, and a plain warning when the record changed after the link was made. */
+function RevisionNote({ state }: { state: Awaited<ReturnType<typeof shareRevisionState>> }) {
+  if (!state) return null
+  return state.revisedAfterLink ? (
+    <div role="status" className="mb-4 flex items-start gap-2 rounded-xl border-2 border-signal-500 bg-signal-300/15 p-3 dark:border-signal-400 dark:bg-signal-700/20" data-testid="share-revised">
+      <History aria-hidden className="mt-0.5 size-5 shrink-0 text-signal-700 dark:text-signal-300" />
+      <p>
+        This record was revised on <LocalTime iso={state.revisedAt} />, after this link was made. The page shows the latest revision ({state.revision}); a PDF saved
+        earlier may show an older result.
+      </p>
+    </div>
+  ) : (
+    <p className="mb-2 flex items-center gap-2 text-sm text-graphite-600 dark:text-graphite-300" data-testid="share-revision">
+      <History aria-hidden className="size-4 shrink-0" /> Revision {state.revision} of this record, the latest.
+    </p>
   )
 }
 

@@ -350,6 +350,29 @@ describe("drive record and mail", () => {
   })
 })
 
+describe("record revisions and verification (DEVELOPERS.md)", () => {
+  it("GET /api/drives/:id/revisions: 200 {revisions: [{revision, cause, verdict, createdAt, digest, code, score}]}, newest first", async () => {
+    const res = await w.c.technician.get(`/api/drives/${w.finished.id}/revisions`)
+    expect(res.status).toBe(200)
+    expect(res.body.revisions.length).toBeGreaterThan(0)
+    const [latest] = res.body.revisions
+    for (const f of ["revision", "cause", "causeText", "verdict", "reviewDecision", "createdAt", "createdBy", "digest", "code", "score"]) expect(latest).toHaveProperty(f)
+    expect(latest.digest).toMatch(/^[0-9a-f]{64}$/)
+    expectScore(latest.score)
+    const numbers = res.body.revisions.map((r: { revision: number }) => r.revision)
+    expect(numbers).toEqual([...numbers].sort((a, b) => b - a))
+    expect(latest.score).toEqual((await w.c.technician.get(`/api/drives/${w.finished.id}/score`)).body)
+  })
+
+  it("POST /api/verify (no sign-in): 200 {result, message} for a code; 400 in the error shape for a bad one", async () => {
+    const { code } = (await w.c.technician.get(`/api/drives/${w.finished.id}/revisions`)).body.revisions[0]
+    const ok = await new ApiClient().post("/api/verify", { code })
+    expect(ok.status).toBe(200)
+    expect(ok.body).toMatchObject({ result: "matches", revision: expect.any(Number), latestRevision: expect.any(Number), message: expect.any(String) })
+    expectErrorShape(await new ApiClient().post("/api/verify", { code: "x" }), 400)
+  })
+})
+
 describe("errors (api.md \"Errors\")", () => {
   it("an /api path no route serves is a 404 in the error shape, for any method", async () => {
     for (const [method, path] of [

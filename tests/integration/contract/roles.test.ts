@@ -67,7 +67,8 @@ const ROWS: Row[] = [
   {
     route: "POST /api/drives/:id/marks (another technician's drive)",
     expect: allow(EVERYONE, 200, { technician: 403, co_driver: 404 }),
-    call: (c) => c.post(`/api/drives/${w.foreign.id}/marks`, { marks: [{ id: randomUUID(), t: nextT(), kind: "lead-on" }] }),
+    // A finished drive is sealed: the mark's time must fall inside it (DEVELOPERS.md "Record revisions and verification").
+    call: (c) => c.post(`/api/drives/${w.foreign.id}/marks`, { marks: [{ id: randomUUID(), t: driveFile(9).samples[100]!.t, kind: "lead-on" }] }),
   },
   { route: "POST /api/drives/:id/finish (their drive)", expect: allow(["technician", "shop_lead"], 200), call: (c) => c.post(`/api/drives/${toFinish.own}/finish`) },
   {
@@ -147,6 +148,14 @@ const ROWS: Row[] = [
   { route: "GET /api/notifications", expect: allow(EVERYONE, 200), call: (c) => c.get("/api/notifications") },
   { route: "PATCH /api/notifications", expect: allow(EVERYONE, 200), call: (c) => c.patch("/api/notifications", { all: true }) },
   { route: "GET /api/numbers", expect: allow(["shop_lead"], 200), call: (c) => c.get("/api/numbers") },
+  // DEVELOPERS.md "Record revisions and verification"
+  { route: "GET /api/drives/:id/revisions (names the co-driver)", expect: allow(EVERYONE, 200), call: (c) => c.get(`/api/drives/${w.finished.id}/revisions`) },
+  {
+    route: "GET /api/drives/:id/revisions (does not name them)",
+    expect: allow(EVERYONE, 200, { co_driver: 404 }),
+    call: (c) => c.get(`/api/drives/${w.foreign.id}/revisions`),
+  },
+  { route: "POST /api/verify (public)", expect: allow(EVERYONE, 200, { anon: 200 }), call: (c) => c.post("/api/verify", { code: "0000-0000-0000" }) },
 ]
 
 describe("the role matrix", () => {

@@ -7,6 +7,7 @@ import { loadRecordData } from "@/app/_server/record-data"
 import { SpeedChart, type ChartMark, type Stretch } from "@/components/charts/speed-chart"
 import { LiveDrive } from "@/components/drives/live-drive"
 import { RecordSummary } from "@/components/record/record-summary"
+import { RevisionHistory } from "@/components/record/revision-history"
 import { TrackSvg } from "@/components/record/track-svg"
 import { MarkTimeline } from "@/components/review/mark-timeline"
 import { RecordActions } from "@/components/review/record-actions"
@@ -16,6 +17,8 @@ import { Card } from "@/components/ui/card"
 import { PageHeader } from "@/components/ui/page-header"
 import { getDb } from "@/db/client"
 import { listRecordPhotos } from "@/db/queries/reviews"
+import { listRevisions } from "@/db/queries/revisions"
+import { CAUSE_TEXT } from "@/app/_server/revisions"
 import { canSeeDrive } from "@/lib/access/drive"
 import { hasRole } from "@/lib/auth/roles"
 import { DECISION_WORD, describeVehicle, roLabel, MARK_LABEL, METHOD_LABEL, REASON_LABEL, SENSOR_LABEL, thinTimeline } from "@/lib/record"
@@ -54,7 +57,10 @@ export default async function DrivePage({ params }: { params: Promise<{ driveId:
     )
   }
 
-  const photos = head.job_id ? await listRecordPhotos(db, head.job_id, head.task_id, me.shopId) : []
+  const [photos, revisions] = await Promise.all([
+    head.job_id ? listRecordPhotos(db, head.job_id, head.task_id, me.shopId) : [],
+    listRevisions(db, head.id, me.shopId),
+  ])
   const t0 = data.score.startedAtMs ?? data.marks[0]?.t ?? 0
   const points = thinTimeline(data.timeline, 900)
   const following: Stretch[] = []
@@ -149,6 +155,12 @@ export default async function DrivePage({ params }: { params: Promise<{ driveId:
           <Card className="order-first">
             <h2 className="mb-2 text-lg font-semibold">Drive record</h2>
             <RecordActions driveId={head.id} canShare={isLead} customerEmail={head.customer_email} />
+          </Card>
+          <Card>
+            <h2 className="mb-2 text-lg font-semibold">Revisions of the record</h2>
+            <RevisionHistory
+              revisions={revisions.map((r) => ({ revision: r.revision, causeText: CAUSE_TEXT[r.cause], verdict: r.verdict, createdAt: new Date(r.created_at).toISOString(), byName: r.by_name, code: r.code }))}
+            />
           </Card>
           <Card className="space-y-1">
             <h2 className="mb-1 text-lg font-semibold">Who drove and who logged</h2>

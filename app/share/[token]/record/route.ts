@@ -2,12 +2,12 @@ import { loadSharedRecord, recordFilename } from "@/app/_server/record-data"
 import { route } from "@/app/_server/route"
 import { getDb } from "@/db/client"
 import { AppError } from "@/lib/errors"
-import { buildDriveRecordPdf } from "@/lib/record"
+import { issueRecordPdf } from "@/app/_server/record-seal"
 
 // The customer's PDF behind a share link: no session, the signed token is the permission.
 export const GET = route<{ token: string }>(async (_req, ctx) => {
   const { token } = await ctx.params
-  const shared = await loadSharedRecord(getDb(), token)
+  const shared = await loadSharedRecord(getDb(), token, { photos: false })
   if (!shared.ok) {
     throw new AppError("not_found", shared.reason === "expired"
         ? "This link has expired; ask the shop for a new one."
@@ -15,8 +15,9 @@ export const GET = route<{ token: string }>(async (_req, ctx) => {
           ? "The shop has withdrawn this link; ask the shop for a new one."
           : "This link is not valid.")
   }
-  const pdf = await buildDriveRecordPdf(shared.data)
-  return new Response(Buffer.from(pdf), {
+  const issued = await issueRecordPdf(getDb(), shared.head.id, shared.head.shop_id, "share")
+  if (!issued?.pdf) throw new AppError("not_found", "This link is not valid.")
+  return new Response(Buffer.from(issued.pdf), {
     headers: {
       "content-type": "application/pdf",
       "content-disposition": `inline; filename="${recordFilename(shared.head)}"`,

@@ -3,8 +3,11 @@ import { requireRole } from "@/app/_server/auth"
 import { parseJson, parseParams, route, uuidParam } from "@/app/_server/route"
 import { getDb } from "@/db/client"
 import { withdrawShareLinks } from "@/db/queries/reviews"
+import { insertShareLink } from "@/db/queries/revisions"
+import { sealCurrentRecord } from "@/app/_server/record-seal"
 import { env } from "@/lib/env"
 import { AppError } from "@/lib/errors"
+import { sha256Hex } from "@/lib/record/seal"
 import { SHARE_DEFAULT_DAYS, signShareToken } from "@/lib/share"
 import { shareSchema } from "@/lib/validation/review"
 import { loadDriveFor } from "../../_service"
@@ -19,6 +22,9 @@ export const POST = route<{ driveId: string }>(async (req, ctx) => {
   if (drive.status !== "finished") throw new AppError("conflict", "Share the record once the drive is finished.")
   const expiresAtMs = Date.now() + expiresInDays * 86_400_000
   const token = signShareToken(env().APP_SECRET, drive.id, expiresAtMs, drive.share_epoch)
+  // The revision the link was made at, so the page can say when the record was revised after it.
+  const latest = await sealCurrentRecord(getDb(), drive.id, user.shopId)
+  await insertShareLink(getDb(), { tokenSha256: sha256Hex(token), shopId: user.shopId, driveId: drive.id, revision: latest?.revision ?? 0 })
   const url = `${env().APP_URL.replace(/\/$/, "")}/share/${token}`
   return Response.json({ url, token, expiresAt: new Date(Math.floor(expiresAtMs / 1000) * 1000).toISOString() }, { status: 201 })
 })

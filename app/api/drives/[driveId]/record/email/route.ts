@@ -1,11 +1,12 @@
 import { z } from "zod"
 import { requireRole } from "@/app/_server/auth"
 import { sendMail } from "@/app/_server/mail"
-import { loadRecordData, recordFilename } from "@/app/_server/record-data"
+import { recordFilename } from "@/app/_server/record-data"
+import { issueRecordPdf } from "@/app/_server/record-seal"
 import { parseJson, parseParams, route, uuidParam } from "@/app/_server/route"
 import { getDb } from "@/db/client"
 import { AppError } from "@/lib/errors"
-import { buildDriveRecordPdf, describeVehicle, roLabel, RECORD_CAUTIONS, VERDICT_WORD } from "@/lib/record"
+import { describeVehicle, roLabel, RECORD_CAUTIONS, VERDICT_WORD } from "@/lib/record"
 import { recordEmailSchema } from "@/lib/validation/review"
 import { loadDriveFor } from "../../../_service"
 
@@ -17,9 +18,9 @@ export const POST = route<{ driveId: string }>(async (req, ctx) => {
   const { to } = await parseJson(req, recordEmailSchema)
   const db = getDb()
   await loadDriveFor(db, driveId, user, "see")
-  const loaded = await loadRecordData(db, driveId, user.shopId)
-  if (!loaded?.data) throw new AppError("conflict", "The record is made once the drive is finished and scored.")
-  const { head, data } = loaded
+  const loaded = await issueRecordPdf(db, driveId, user.shopId, "email")
+  if (!loaded?.pdf) throw new AppError("conflict", "The record is made once the drive is finished and scored.")
+  const { head, data, pdf } = loaded
   const vehicle = describeVehicle(data.vehicle, data.vehicleDescription)
   await sendMail({
     to,
@@ -27,12 +28,13 @@ export const POST = route<{ driveId: string }>(async (req, ctx) => {
     text: [
       `Attached is the record of the calibration drive for ${vehicle}${data.vehicle ? ` (VIN ${data.vehicle.vin})` : ""}.`,
       `Verdict: ${VERDICT_WORD[data.score.verdict]}.`,
+      `Revision ${data.seal.revision} of the record; verification code ${data.seal.code} (check it at ${data.seal.verifyUrl}).`,
       "",
       ...RECORD_CAUTIONS,
       "",
       `${data.shopName}`,
     ].join("\n"),
-    attachments: [{ filename: recordFilename(head), contentType: "application/pdf", content: await buildDriveRecordPdf(data) }],
+    attachments: [{ filename: recordFilename(head), contentType: "application/pdf", content: pdf }],
   })
   return Response.json({ sent: true, to }, { status: 202 })
 })

@@ -1,0 +1,98 @@
+// The public check of a drive record (DEVELOPERS.md "Record revisions and verification"): a verification code
+// or a PDF's bytes -> which revision of which record it is, and whether a newer one exists. It answers with
+// no more than the PDF itself prints (shop, vehicle, verdict, revision and when it was sealed).
+import "server-only"
+import type { Db } from "@/db/client"
+import { findDriveRecordHead } from "@/db/queries/reviews"
+import { countRecentVerifyAttempts, findRevisionByCode, findRevisionByPdfHash, insertVerifyAttempt } from "@/db/queries/revisions"
+import { AppError } from "@/lib/errors"
+import { describeVehicle, VERDICT_WORD } from "@/lib/record"
+import { sha256Hex } from "@/lib/record/seal"
+
+export const VERIFY_WINDOW_SECONDS = 15 * 60
+/** Per client address in the window: lookups that matched nothing, and lookups in all (like sign-in's limits). */
+export const MAX_UNMATCHED_VERIFY = 20
+export const MAX_VERIFY = 100
+/** An issued record with a dozen photo thumbnails is well under 2 MB. */
+export const MAX_VERIFY_PDF_BYTES = 10 * 1024 * 1024
+
+export type VerifyInput = { code: string } | { pdf: Uint8Array }
+
+export type VerifyAnswer =
+  | {
+      result: "matches" | "newer_revision"
+      message: string
+      revision: number
+      latestRevision: number
+      record: { shopName: string; vehicle: string; verdict: string; sealedAt: string }
+    }
+  | { result: "no_match"; message: string }
+
+/** "2026-12-02 11:40 UTC", exactly as the PDF prints when a revision was sealed. */
+function printedTime(at: Date) {
+  return `${new Date(at).toISOString().slice(0, 16).replace("T", " ")} UTC`
+}
+
+export async function verifyRecord(db: Db, clientAddress: string, input: VerifyInput): Promise<VerifyAnswer> {
+  const seen = await countRecentVerifyAttempts(db, clientAddress, VERIFY_WINDOW_SECONDS)
+  if (seen.unmatched >= MAX_UNMATCHED_VERIFY || seen.all >= MAX_VERIFY) {
+    const wait = seen.oldest ? Math.max(1, Math.ceil((new Date(seen.oldest).getTime() + VERIFY_WINDOW_SECONDS * 1000 - Date.now()) / 1000)) : VERIFY_WINDOW_SECONDS
+    throw new AppError("too_many_attempts", `Too many checks from this address. Try again in ${Math.ceil(wait / 60)} min.`, undefined, { "Retry-After": String(wait) })
+  }
+  const found = "code" in input ? await findRevisionByCode(db, input.code) : await findRevisionByPdfHash(db, sha256Hex(input.pdf))
+  const head = found ? await findDriveRecordHead(db, found.drive_id, found.shop_id) : undefined
+  await insertVerifyAttempt(db, clientAddress, Boolean(found && head))
+  if (!found || !head) {
+    return {
+      result: "no_match",
+      message:
+        "code" in input
+          ? "This code matches no record issued with Straightaway. Check the code on the PDF, or ask the shop for the record."
+          : "This file matches no record issued with Straightaway. A PDF changed in any way, even by one byte, matches nothing; ask the shop for the record.",
+    }
+  }
+  const latest = Number(found.latest_revision)
+  const record = {
+    shopName: head.shop_name,
+    vehicle: describeVehicle(head.vin ? { year: head.vehicle_year, make: head.vehicle_make, model: head.vehicle_model } : null, head.vehicle_description),
+    verdict: VERDICT_WORD[found.verdict],
+    sealedAt: printedTime(found.created_at),
+  }
+  const what = "code" in input ? "This code" : "This file"
+  return latest > found.revision
+    ? {
+        result: "newer_revision",
+        message: `${what} matches revision ${found.revision} of a drive record issued with Straightaway, but the record has been revised since: revision ${latest} is the latest. Ask the shop for the current record.`,
+        revision: found.revision,
+        latestRevision: latest,
+        record,
+      }
+    : {
+        result: "matches",
+        message: `${what} matches revision ${found.revision} of a drive record issued with Straightaway. It is the latest revision.`,
+        revision: found.revision,
+        latestRevision: latest,
+        record,
+      }
+}
+
+/** A request body read up to `maxBytes`, whatever Content-Length says (a chunked body is counted as it comes). */
+export async function readBodyBytes(req: Request, maxBytes: number): Promise<Uint8Array> {
+  const tooLarge = () => new AppError("too_large", `The file is over ${Math.round(maxBytes / 1024 / 1024)} MB; an issued record is far smaller.`)
+  if (Number(req.headers.get("content-length") ?? 0) > maxBytes) throw tooLarge()
+  const reader = req.body?.getReader()
+  if (!reader) return new Uint8Array()
+  const chunks: Uint8Array[] = []
+  let total = 0
+  for (;;) {
+    const { done, value } = await reader.read()
+    if (done) break
+    total += value.byteLength
+    if (total > maxBytes) {
+      await reader.cancel().catch(() => undefined)
+      throw tooLarge()
+    }
+    chunks.push(value)
+  }
+  return Buffer.concat(chunks)
+}
