@@ -403,7 +403,8 @@ export function createRecorder(transport: Transport = fetchTransport) {
     }))
     rescore()
     if (meta.status === "recording") startWatching()
-    startLive(meta, remote.lastEventId)
+    // A fresh snapshot on every load (the RO and status come with it); the stream resumes by event id after that.
+    startLive(meta, null)
     void refreshSyncCounts()
     void flush()
     return true
