@@ -2,6 +2,7 @@ import "server-only"
 import { randomUUID } from "node:crypto"
 import { z } from "zod"
 import { AppError } from "@/lib/errors"
+import { BodyTooLargeError, jsonNestsDeeperThan, MAX_JSON_DEPTH, readBodyText } from "@/lib/validation/json-body"
 import { findUnstorableText, unstorableTextProblem } from "@/lib/validation/storable"
 import { issuesToFields } from "@/lib/validation/zod-fields"
 
@@ -67,10 +68,19 @@ export async function parseJson<S extends z.ZodType>(
 
 /** `emptyAs`: what an empty body means, for routes whose every field is optional; without it an empty body is a 400. */
 export async function readJson(req: Request, maxBytes = MAX_JSON_BYTES, emptyAs?: unknown): Promise<unknown> {
-  const declared = Number(req.headers.get("content-length") ?? 0)
-  if (declared > maxBytes) throw new AppError("too_large", `The body is over ${Math.round(maxBytes / 1024 / 1024)} MB.`)
-  const text = await req.text()
-  if (Buffer.byteLength(text) > maxBytes) throw new AppError("too_large", `The body is over ${Math.round(maxBytes / 1024 / 1024)} MB.`)
+  const tooLarge = () => new AppError("too_large", `The body is over ${Math.round(maxBytes / 1024 / 1024)} MB.`)
+  let text: string
+  try {
+    // Counted while it streams: a chunked body has no Content-Length to check beforehand.
+    const declared = req.headers.get("content-length")
+    text = await readBodyText(req.body, maxBytes, declared === null ? undefined : Number(declared))
+  } catch (error) {
+    if (error instanceof BodyTooLargeError) throw tooLarge()
+    throw new AppError("invalid_request", "The request body could not be read.")
+  }
+  if (jsonNestsDeeperThan(text, MAX_JSON_DEPTH)) {
+    throw new AppError("invalid_request", `The request body nests deeper than ${MAX_JSON_DEPTH} levels.`)
+  }
   if (!text.trim()) {
     if (emptyAs !== undefined) return emptyAs
     throw new AppError("invalid_request", "The request body is empty; JSON was expected.")
