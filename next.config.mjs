@@ -3,7 +3,12 @@ const nextConfig = {
   // Parallel development builds use their own folders; production and `npm test` use .next.
   distDir: process.env.NEXT_DIST_DIR || ".next",
   reactStrictMode: true,
+  // proxy.ts handles trailing slashes (the API must not answer a bare 308).
+  skipTrailingSlashRedirect: true,
   poweredByHeader: false,
+  // proxy.ts makes Next buffer request bodies up to this size; over it the body is cut short. It must stay above
+  // the largest body a route reads (a drive file, 20 MB) so that the route's own limit answers the 413.
+  experimental: { proxyClientMaxBodySize: "24mb" },
   serverExternalPackages: ["@node-rs/argon2", "pg", "nodemailer", "pdf-lib", "sharp"],
   async headers() {
     return [

@@ -11,7 +11,18 @@ const globalForDb = globalThis as unknown as { straightawayPool?: pg.Pool; strai
 
 export function createPool(connectionString = process.env.DATABASE_URL) {
   if (!connectionString) throw new Error("DATABASE_URL is not set")
-  return new pg.Pool({ connectionString, max: Number(process.env.DATABASE_POOL_MAX ?? 10) })
+  const pool = new pg.Pool({
+    connectionString,
+    max: Number(process.env.DATABASE_POOL_MAX ?? 10),
+    // A database that does not answer fails the request (a 503) instead of queueing it for ever.
+    connectionTimeoutMillis: Number(process.env.DATABASE_CONNECT_TIMEOUT_MS ?? 5000),
+  })
+  // An idle connection the server dropped (restart, failover) emits "error" on the pool: without a listener that
+  // is an uncaught exception. pg removes the broken client itself; later queries open fresh connections.
+  pool.on("error", (error) => {
+    console.error("[straightaway] an idle database connection was lost:", error.message)
+  })
+  return pool
 }
 
 /** One pool per process (Next dev reloads modules; the pool survives on globalThis). */

@@ -7,6 +7,8 @@ export type ErrorCode =
   | "conflict"
   | "too_large"
   | "too_many_attempts"
+  | "method_not_allowed"
+  | "service_unavailable"
   | "internal_error"
 
 const STATUS: Record<ErrorCode, number> = {
@@ -18,6 +20,8 @@ const STATUS: Record<ErrorCode, number> = {
   conflict: 409,
   too_large: 413,
   too_many_attempts: 429,
+  method_not_allowed: 405,
+  service_unavailable: 503,
   internal_error: 500,
 }
 

@@ -1,7 +1,8 @@
 // `npm start`: everything from a fresh clone to a served app, idempotently.
 import path from "node:path"
 import { appSecret, fakeServiceEnv, startFakes } from "./lib/services.mjs"
-import { resolveDataDir, startPostgres, stopPostgres } from "./lib/postgres.mjs"
+import { ensurePostgresInstalled, isRunning, resolveDataDir, startPostgres, stopPostgres } from "./lib/postgres.mjs"
+import { firstBusyPort } from "./lib/ports.mjs"
 import { ensureBuild, ensurePackages, log, npx, root, run, startChild, stopChild } from "./lib/shell.mjs"
 
 const port = Number(process.env.PORT ?? 3000)
@@ -10,15 +11,31 @@ const dataRoot = path.join(root, ".data")
 
 ensurePackages()
 
-let pgDataDir = null
-let databaseUrl = process.env.DATABASE_URL
-if (!databaseUrl) {
-  pgDataDir = resolveDataDir(path.join(dataRoot, "pg"))
-  databaseUrl = startPostgres({ dataDir: pgDataDir, port: Number(process.env.PGPORT ?? 54329), database: "straightaway" })
-}
-
 const s3Port = Number(process.env.S3_PORT ?? 4569)
 const smtpPort = Number(process.env.SMTP_PORT ?? 2525)
+const pgPort = Number(process.env.PGPORT ?? 54329)
+
+// Every port is checked before anything starts: a second `npm start` on the same ports says so in one line and
+// leaves the running copy (its database included) alone. A cluster of ours already running is used, never stopped.
+let pgDataDir = null
+let startedPostgres = false
+if (!process.env.DATABASE_URL) {
+  pgDataDir = resolveDataDir(path.join(dataRoot, "pg"))
+  startedPostgres = !isRunning(ensurePostgresInstalled(), pgDataDir)
+}
+const wanted = [["PORT", port, host]]
+if (!process.env.S3_ENDPOINT) wanted.push(["S3_PORT", s3Port], ["SMTP_PORT", smtpPort], ["SMTP_PORT + 1 (captured mail list)", smtpPort + 1])
+if (startedPostgres) wanted.push(["PGPORT", pgPort])
+for (const [name, p, h] of wanted) {
+  const busy = await firstBusyPort([[name, p]], h ?? "127.0.0.1")
+  if (busy) {
+    log(`Port ${busy.port} (${busy.name}) is already in use, perhaps by another copy of Straightaway; stop it or set ${busy.name.split(" ")[0]} to a free port.`)
+    process.exit(1)
+  }
+}
+
+let databaseUrl = process.env.DATABASE_URL
+if (!databaseUrl) databaseUrl = startPostgres({ dataDir: pgDataDir, port: pgPort, database: "straightaway" })
 const env = {
   ...process.env,
   ...(process.env.S3_ENDPOINT ? {} : fakeServiceEnv({ s3Port, smtpPort })),
@@ -37,7 +54,7 @@ async function shutdown(code = 0) {
   log("Shutting down")
   await stopChild(server)
   await stopChild(fakes)
-  if (pgDataDir) stopPostgres({ dataDir: pgDataDir })
+  if (pgDataDir && startedPostgres) stopPostgres({ dataDir: pgDataDir })
   process.exit(code)
 }
 process.on("SIGINT", () => shutdown(0))

@@ -16,12 +16,15 @@ export function getAuth(): Auth {
 
 export type CurrentSession = { user: SessionUser; sessionId: string } | { user: null; sessionId: null }
 
+const SESSION_ID = /^[a-z0-9]{16,128}$/
+
 /** The signed-in user for this request (once per request), refreshing the cookie when the session slides. */
 export const getCurrentSession = cache(async (): Promise<CurrentSession> => {
   const auth = getAuth()
   const jar = await cookies()
   const token = jar.get(auth.sessionCookieName)?.value ?? null
-  if (!token) return { user: null, sessionId: null }
+  // Tokens are lowercase base32 (Lucia); anything else (a NUL, a lone surrogate) is no session, never a query.
+  if (!token || !SESSION_ID.test(token)) return { user: null, sessionId: null }
   const { session, user } = await auth.validateSession(sessionIdFromToken(token))
   try {
     if (session?.fresh) {

@@ -1,7 +1,10 @@
 import "server-only"
 import { randomUUID } from "node:crypto"
 import { z } from "zod"
+import { isDatabaseUnavailable, isUniqueViolation, uniqueViolationAnswer } from "@/lib/db-errors"
+import { env } from "@/lib/env"
 import { AppError } from "@/lib/errors"
+import { BodyTooLargeError, jsonNestsDeeperThan, MAX_JSON_DEPTH, readBodyText } from "@/lib/validation/json-body"
 import { findUnstorableText, unstorableTextProblem } from "@/lib/validation/storable"
 import { issuesToFields } from "@/lib/validation/zod-fields"
 
@@ -22,6 +25,18 @@ export function route<P = Record<string, string>>(handler: Handler<P>): Handler<
         return Response.json(error.toBody(), { status: error.status, headers: error.headers })
       }
       if (isNextControlFlow(error)) throw error
+      if (isDatabaseUnavailable(error)) {
+        console.error(`[straightaway] ${req.method} ${new URL(req.url).pathname}: the database is unavailable`, (error as Error).message)
+        return Response.json(
+          { error: { code: "service_unavailable", message: "The database is not answering right now; try again shortly." } },
+          { status: 503, headers: { "Retry-After": String(DATABASE_RETRY_AFTER_SECONDS) } },
+        )
+      }
+      if (isUniqueViolation(error)) {
+        // Two requests made the same thing at once and the database kept one: the other is a conflict, not a bug.
+        const { message, fields } = uniqueViolationAnswer(error)
+        return Response.json({ error: { code: "conflict", message, ...(fields ? { fields } : {}) } }, { status: 409 })
+      }
       const requestId = randomUUID()
       console.error(`[straightaway] request ${requestId} ${req.method} ${new URL(req.url).pathname} failed`, error)
       return Response.json(
@@ -37,20 +52,22 @@ function isNextControlFlow(error: unknown) {
   return typeof digest === "string" && (digest.startsWith("NEXT_") || digest === "DYNAMIC_SERVER_USAGE")
 }
 
+const DATABASE_RETRY_AFTER_SECONDS = 5
+
 const SAFE_METHODS = new Set(["GET", "HEAD", "OPTIONS"])
 
+/** Writes from a browser must come from the app's own public address (APP_URL); proxy headers are not consulted. */
 function assertSameOrigin(req: Request) {
   if (SAFE_METHODS.has(req.method)) return
   const origin = req.headers.get("origin")
   if (!origin) return // not a browser form or fetch across sites (curl, integrations with a cookie they hold)
-  const host = req.headers.get("x-forwarded-host") ?? req.headers.get("host")
-  let originHost: string
+  let sent: string
   try {
-    originHost = new URL(origin).host
+    sent = new URL(origin).origin
   } catch {
     throw new AppError("forbidden", "Requests from other sites are refused.")
   }
-  if (!host || originHost !== host) throw new AppError("forbidden", "Requests from other sites are refused.")
+  if (sent !== new URL(env().APP_URL).origin) throw new AppError("forbidden", "Requests from other sites are refused.")
 }
 
 const MAX_JSON_BYTES = 8 * 1024 * 1024
@@ -67,10 +84,19 @@ export async function parseJson<S extends z.ZodType>(
 
 /** `emptyAs`: what an empty body means, for routes whose every field is optional; without it an empty body is a 400. */
 export async function readJson(req: Request, maxBytes = MAX_JSON_BYTES, emptyAs?: unknown): Promise<unknown> {
-  const declared = Number(req.headers.get("content-length") ?? 0)
-  if (declared > maxBytes) throw new AppError("too_large", `The body is over ${Math.round(maxBytes / 1024 / 1024)} MB.`)
-  const text = await req.text()
-  if (Buffer.byteLength(text) > maxBytes) throw new AppError("too_large", `The body is over ${Math.round(maxBytes / 1024 / 1024)} MB.`)
+  const tooLarge = () => new AppError("too_large", `The body is over ${Math.round(maxBytes / 1024 / 1024)} MB.`)
+  let text: string
+  try {
+    // Counted while it streams: a chunked body has no Content-Length to check beforehand.
+    const declared = req.headers.get("content-length")
+    text = await readBodyText(req.body, maxBytes, declared === null ? undefined : Number(declared))
+  } catch (error) {
+    if (error instanceof BodyTooLargeError) throw tooLarge()
+    throw new AppError("invalid_request", "The request body could not be read.")
+  }
+  if (jsonNestsDeeperThan(text, MAX_JSON_DEPTH)) {
+    throw new AppError("invalid_request", `The request body nests deeper than ${MAX_JSON_DEPTH} levels.`)
+  }
   if (!text.trim()) {
     if (emptyAs !== undefined) return emptyAs
     throw new AppError("invalid_request", "The request body is empty; JSON was expected.")

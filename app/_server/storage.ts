@@ -1,5 +1,5 @@
 import "server-only"
-import { DeleteObjectCommand, GetObjectCommand, HeadObjectCommand, PutObjectCommand, S3Client } from "@aws-sdk/client-s3"
+import { CopyObjectCommand, DeleteObjectCommand, GetObjectCommand, HeadObjectCommand, PutObjectCommand, S3Client } from "@aws-sdk/client-s3"
 import { getSignedUrl } from "@aws-sdk/s3-request-presigner"
 import { env } from "@/lib/env"
 
@@ -24,7 +24,8 @@ export function bucket() {
   return env().S3_BUCKET
 }
 
-const UPLOAD_URL_SECONDS = 15 * 60
+/** Minutes, not hours: a leaked upload address is soon worthless (and after `complete` it writes nowhere served). */
+const UPLOAD_URL_SECONDS = 5 * 60
 const DOWNLOAD_URL_SECONDS = 5 * 60
 
 /** A presigned PUT; the uploader must send the same Content-Type. */
@@ -45,6 +46,27 @@ export function presignGet(key: string, opts: { filename?: string; contentType?:
     }),
     { expiresIn: DOWNLOAD_URL_SECONDS },
   )
+}
+
+/**
+ * Where an accepted upload lives: a copy made on the server, under a prefix no presigned upload address is ever
+ * made for (those are all `shops/...`), so nothing written to an upload address later can change what is served.
+ */
+export function storedKeyFor(uploadKey: string) {
+  return `stored/${uploadKey}`
+}
+
+/** A server-side copy (no bytes through the app), with the type given rather than the uploader's. */
+export async function copyObject(from: string, to: string, contentType: string) {
+  await getS3().send(
+    new CopyObjectCommand({ Bucket: bucket(), CopySource: `${bucket()}/${from.split("/").map(encodeURIComponent).join("/")}`, Key: to, ContentType: contentType, MetadataDirective: "REPLACE" }),
+  )
+}
+
+/** An object's bytes as a stream, with its length (downloads go through the app, with the app's headers). */
+export async function getObjectStream(key: string): Promise<{ body: ReadableStream; length: number | undefined }> {
+  const res = await getS3().send(new GetObjectCommand({ Bucket: bucket(), Key: key }))
+  return { body: res.Body!.transformToWebStream(), length: res.ContentLength }
 }
 
 /** Size of a stored object, or null when there is none. */

@@ -25,10 +25,10 @@ export function findAttachmentInShop(db: Db, id: string, shopId: string) {
   return db.selectFrom("attachment").selectAll().where("id", "=", id).where("shop_id", "=", shopId).executeTakeFirst()
 }
 
-export function markAttachmentComplete(db: Db, id: string, shopId: string, size: number, thumbnailKey: string | null = null) {
+export function markAttachmentComplete(db: Db, id: string, shopId: string, size: number, thumbnailKey: string | null = null, objectKey?: string) {
   return db
     .updateTable("attachment")
-    .set({ status: "complete", size, thumbnail_key: thumbnailKey, completed_at: new Date() })
+    .set({ status: "complete", size, thumbnail_key: thumbnailKey, completed_at: new Date(), ...(objectKey ? { object_key: objectKey } : {}) })
     .where("id", "=", id)
     .where("shop_id", "=", shopId)
     .returningAll()

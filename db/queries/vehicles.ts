@@ -12,18 +12,20 @@ export function findVehicleByVin(db: Db, vin: string, shopId: string) {
 
 /**
  * The shop's vehicle with this VIN, its details refreshed from the newest intake (a blank box keeps what
- * was known), or a new one.
+ * was known), or a new one. One statement on the (shop_id, vin) unique index: two intakes at once share one row.
  */
 export async function upsertVehicleByVin(db: Db, shopId: string, v: VehicleFields) {
-  const existing = await findVehicleByVin(db, v.vin, shopId)
-  if (!existing) {
-    return db.insertInto("vehicle").values({ shop_id: shopId, ...v }).returningAll().executeTakeFirstOrThrow()
-  }
   return db
-    .updateTable("vehicle")
-    .set({ year: v.year ?? existing.year, make: v.make ?? existing.make, model: v.model ?? existing.model, plate: v.plate ?? existing.plate })
-    .where("id", "=", existing.id)
-    .where("shop_id", "=", shopId)
+    .insertInto("vehicle")
+    .values({ shop_id: shopId, ...v })
+    .onConflict((oc) =>
+      oc.columns(["shop_id", "vin"]).doUpdateSet((eb) => ({
+        year: eb.fn.coalesce("excluded.year", "vehicle.year"),
+        make: eb.fn.coalesce("excluded.make", "vehicle.make"),
+        model: eb.fn.coalesce("excluded.model", "vehicle.model"),
+        plate: eb.fn.coalesce("excluded.plate", "vehicle.plate"),
+      })),
+    )
     .returningAll()
     .executeTakeFirstOrThrow()
 }

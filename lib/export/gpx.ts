@@ -120,5 +120,7 @@ function escapeXml(s: string): string {
     .replace(/>/g, "&gt;")
     .replace(/"/g, "&quot;")
     .replace(/'/g, "&apos;")
-    .replace(/[\u0000-\u0008\u000B\u000C\u000E-\u001F]/g, "") // not allowed in XML 1.0
+    // XML 1.0 section 2.2 Char: tab, LF, CR, U+0020-U+D7FF, U+E000-U+FFFD, U+10000-U+10FFFF; anything else (other
+    // controls, U+FFFE, U+FFFF, a lone surrogate) makes the file not XML at all, so it is left out.
+    .replace(/[^\t\n\r\u0020-\uD7FF\uE000-\uFFFD\u{10000}-\u{10FFFF}]/gu, "")
 }

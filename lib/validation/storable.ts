@@ -19,22 +19,30 @@ function isWellFormedText(text: string): boolean {
 
 /**
  * The first string (value or object key) in parsed JSON that cannot be stored, with its path in the
- * API's `fields` form (`marks.3.text`). Walks without recursion: bodies may be nested deeply.
+ * API's `fields` form (`marks.3.text`). Walks without recursion (bodies may be nested deeply) and in linear
+ * time: each entry keeps a link to its parent, and the path is spelled out only for the one string refused.
  */
 export function findUnstorableText(value: unknown): { path: string; problem: string } | null {
-  const stack: Array<{ value: unknown; path: string[] }> = [{ value, path: [] }]
+  type Entry = { value: unknown; key: string | null; parent: Entry | null }
+  const pathOf = (entry: Entry | null, last?: string) => {
+    const parts: string[] = last === undefined ? [] : [last]
+    for (let e = entry; e && e.key !== null; e = e.parent) parts.push(e.key)
+    return parts.reverse().join(".") || "(body)"
+  }
+  const stack: Entry[] = [{ value, key: null, parent: null }]
   while (stack.length) {
-    const { value: v, path } = stack.pop()!
+    const entry = stack.pop()!
+    const v = entry.value
     if (typeof v === "string") {
       const problem = unstorableTextProblem(v)
-      if (problem) return { path: path.join(".") || "(body)", problem }
+      if (problem) return { path: pathOf(entry), problem }
     } else if (Array.isArray(v)) {
-      for (let i = v.length - 1; i >= 0; i--) stack.push({ value: v[i], path: [...path, String(i)] })
+      for (let i = v.length - 1; i >= 0; i--) stack.push({ value: v[i], key: String(i), parent: entry })
     } else if (v !== null && typeof v === "object") {
       for (const [key, child] of Object.entries(v)) {
         const keyProblem = unstorableTextProblem(key)
-        if (keyProblem) return { path: [...path, "(key)"].join("."), problem: keyProblem }
-        stack.push({ value: child, path: [...path, key] })
+        if (keyProblem) return { path: pathOf(entry, "(key)"), problem: keyProblem }
+        stack.push({ value: child, key, parent: entry })
       }
     }
   }

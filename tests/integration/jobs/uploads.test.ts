@@ -1,6 +1,8 @@
+import { PDFDocument } from "pdf-lib"
 import { beforeAll, describe, expect, it } from "vitest"
 import { createTestShop, testDb, type TestShop } from "../../helpers/db"
-import { signedIn } from "../../helpers/http"
+import { testEnv } from "../../helpers/env"
+import { type ApiClient, signedIn } from "../../helpers/http"
 import { createJob, JPEG_START, objectExists, putToPresignedUrl, TINY_PNG } from "./helpers"
 
 let shop: TestShop
@@ -12,6 +14,19 @@ beforeAll(async () => {
 })
 
 const MB = 1024 * 1024
+
+async function download(client: ApiClient, path: string) {
+  const res = await fetch(`${testEnv().baseUrl}${path}`, { headers: { cookie: client.cookie ?? "", "x-forwarded-for": client.address }, redirect: "manual" })
+  return { status: res.status, headers: res.headers, bytes: Buffer.from(await res.arrayBuffer()) }
+}
+
+async function upload(client: ApiClient, filename: string, contentType: string, bytes: Uint8Array) {
+  const start = await client.post("/api/uploads", { jobId: job.id, filename, contentType, size: bytes.byteLength })
+  expect(start.status).toBe(201)
+  await putToPresignedUrl(start.body.uploadUrl, contentType, bytes)
+  const done = await client.post(`/api/uploads/${start.body.attachmentId}/complete`)
+  return { start, done }
+}
 
 async function objectKeyOf(attachmentId: string) {
   const row = await testDb().selectFrom("attachment").select("object_key").where("id", "=", attachmentId).executeTakeFirst()
@@ -48,7 +63,7 @@ describe("POST /api/uploads", () => {
 })
 
 describe("POST /api/uploads/:id/complete", () => {
-  it("completes a PNG whose bytes are a PNG, and lists it on the job with a link that redirects to the file", async () => {
+  it("completes a PNG whose bytes are a PNG, and lists it on the job with a link that serves the file", async () => {
     const tech = await signedIn(shop.tech)
     const start = await tech.post("/api/uploads", { jobId: job.id, taskId: job.tasks[0].id, filename: "tires.png", contentType: "image/png", size: TINY_PNG.length })
     expect(start.status).toBe(201)
@@ -61,11 +76,12 @@ describe("POST /api/uploads/:id/complete", () => {
     const detail = await tech.get(`/api/jobs/${job.id}`)
     expect(detail.body.job.attachments.map((a: { id: string }) => a.id)).toContain(start.body.attachmentId)
 
-    const link = await tech.get(done.body.attachment.url)
-    expect(link.status).toBe(302)
-    const file = await fetch(link.headers.get("location")!)
+    const file = await download(tech, done.body.attachment.url)
     expect(file.status).toBe(200)
-    expect(Buffer.from(await file.arrayBuffer()).equals(TINY_PNG)).toBe(true)
+    expect(file.bytes.equals(TINY_PNG)).toBe(true)
+    expect(file.headers.get("content-type")).toBe("image/png")
+    expect(file.headers.get("x-content-type-options")).toBe("nosniff")
+    expect(file.headers.get("content-disposition")).toMatch(/^attachment; /)
 
     const otherShop = await createTestShop("Attachment other")
     expect((await (await signedIn(otherShop.lead)).get(done.body.attachment.url)).status).toBe(404)
@@ -115,5 +131,64 @@ describe("POST /api/uploads/:id/complete", () => {
     expect(early.status).toBe(400)
     await putToPresignedUrl(start.body.uploadUrl, "image/png", TINY_PNG)
     expect((await tech.post(`/api/uploads/${start.body.attachmentId}/complete`)).status).toBe(200)
+  })
+})
+
+describe("what is served is what was checked (issue 15)", () => {
+  it("a second PUT to a used upload address changes nothing served", async () => {
+    const tech = await signedIn(shop.tech)
+    const { start, done } = await upload(tech, "bumper.png", "image/png", TINY_PNG)
+    expect(done.status).toBe(200)
+    const html = Buffer.from("<html><script>alert(document.cookie)</script></html>")
+    // The address may still be inside its few minutes; whatever the store does with the PUT, nothing served changes.
+    await putToPresignedUrl(start.body.uploadUrl, "image/png", html).catch(() => null)
+    const file = await download(tech, done.body.attachment.url)
+    expect(file.status).toBe(200)
+    expect(file.bytes.equals(TINY_PNG)).toBe(true)
+    expect(file.headers.get("content-type")).toBe("image/png")
+    const again = await tech.post(`/api/uploads/${start.body.attachmentId}/complete`)
+    expect(again.status).toBe(200)
+    expect((await download(tech, done.body.attachment.url)).bytes.equals(TINY_PNG)).toBe(true)
+    // The accepted copy lives under a key no upload address is made for.
+    expect(await objectKeyOf(start.body.attachmentId)).toMatch(/^stored\//)
+  })
+
+  it("the upload address expires in minutes", async () => {
+    const tech = await signedIn(shop.tech)
+    const start = await tech.post("/api/uploads", { jobId: job.id, filename: "x.png", contentType: "image/png", size: TINY_PNG.length })
+    const expires = Number(new URL(start.body.uploadUrl).searchParams.get("X-Amz-Expires"))
+    expect(expires).toBeGreaterThan(0)
+    expect(expires).toBeLessThanOrEqual(10 * 60)
+  })
+
+  it("refuses a file that starts with %PDF- but holds HTML, and accepts a real PDF, served as an attachment", async () => {
+    const tech = await signedIn(shop.tech)
+    const fake = Buffer.from("%PDF-1.7\n<html><body><script>alert(1)</script></body></html>\n")
+    const bad = await upload(tech, "scan.pdf", "application/pdf", fake)
+    expect(bad.done.status).toBe(400)
+    expect(bad.done.body.error.message).toMatch(/does not open as one/)
+
+    const doc = await PDFDocument.create()
+    doc.addPage([200, 200])
+    doc.addPage([200, 200])
+    const real = Buffer.from(await doc.save())
+    const good = await upload(tech, "alignment printout.pdf", "application/pdf", real)
+    expect(good.done.status).toBe(200)
+    const file = await download(tech, good.done.body.attachment.url)
+    expect(file.bytes.equals(real)).toBe(true)
+    expect(file.headers.get("content-type")).toBe("application/pdf")
+    expect(file.headers.get("x-content-type-options")).toBe("nosniff")
+    expect(file.headers.get("content-disposition")).toMatch(/^attachment; /)
+  })
+
+  it("downloads files whose names hold accents, emoji and other scripts with their names intact (RFC 6266, RFC 8187)", async () => {
+    const tech = await signedIn(shop.tech)
+    for (const name of ["résumé.png", "🚗 front.png", "車検.png"]) {
+      const { done } = await upload(tech, name, "image/png", TINY_PNG)
+      expect(done.status).toBe(200)
+      const header = (await download(tech, done.body.attachment.url)).headers.get("content-disposition")!
+      const star = /filename\*=UTF-8''([^;]+)$/.exec(header)?.[1]
+      expect(decodeURIComponent(star!)).toBe(name)
+    }
   })
 })

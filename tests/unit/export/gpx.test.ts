@@ -126,4 +126,17 @@ describe("toGpx", () => {
     const v = validate(toGpx(drive([], [mark(0, "note", { text: "no fix" })])))
     expect(v.ok, v.output).toBe(true)
   })
+
+  it("stays well-formed XML when a note holds characters XML 1.0 does not allow (U+FFFE, U+FFFF, controls, a lone surrogate)", () => {
+    // XML 1.0 (Fifth Edition) section 2.2, production [2] Char.
+    const samples = [
+      { t: T0, lat: 44, lon: -92, speed: 20, accuracy: 4 },
+      { t: T0 + 1000, lat: 44.0002, lon: -92, speed: 21, accuracy: 4 },
+    ]
+    const text = "a\uFFFEb\uFFFFc\u0001d\u001Fe\uD800f 🚗 g\th"
+    const xml = toGpx(drive(samples, [mark(0.5, "note", { text })]))
+    const v = validate(xml)
+    expect(v.ok, v.output).toBe(true)
+    expect(xml).toContain("<desc>abcdef 🚗 g\th</desc>")
+  })
 })

@@ -1,0 +1,45 @@
+// One place in front of every route (Next 16's proxy, formerly middleware):
+// - /api answers stay in the error shape: 405 with `Allow` for a method the route file does not export (from the
+//   generated table, app/_server/api-routes.generated.ts), a JSON 404 for /API/… spelt in another case, a 400
+//   for a path whose %-escapes are not UTF-8 text;
+// - pages with such a path get the app's 404 page instead of a 500.
+import { NextResponse, type NextRequest } from "next/server"
+import { API_ROUTES } from "@/app/_server/api-routes.generated"
+import { allowedMethods, isWellFormedPath, matchApiRoute } from "@/lib/api-route-match"
+
+function apiError(status: number, code: string, message: string, headers: Record<string, string> = {}) {
+  return Response.json({ error: { code, message } }, { status, headers: { "cache-control": "no-store", ...headers } })
+}
+
+export function proxy(req: NextRequest) {
+  const raw = req.nextUrl.pathname
+  // next.config.mjs sets skipTrailingSlashRedirect so that the API never answers a bare 308: a trailing slash is
+  // served as the same route there, and pages keep Next's usual permanent redirect.
+  const pathname = raw.length > 1 && raw.endsWith("/") ? raw.replace(/\/+$/, "") || "/" : raw
+  const isApi = pathname === "/api" || pathname.startsWith("/api/")
+  if (!isApi && /^\/api(\/|$)/i.test(pathname)) return apiError(404, "not_found", "There is no such API route.")
+  if (!isWellFormedPath(pathname)) {
+    if (isApi) return apiError(400, "invalid_request", "The address is not valid: a %-escape in it is not UTF-8 text.")
+    return NextResponse.rewrite(new URL("/_malformed-address", req.url), { status: 404 })
+  }
+  if (isApi) {
+    const route = matchApiRoute(pathname, API_ROUTES)
+    if (!route) return apiError(404, "not_found", "There is no such API route.")
+    const allowed = allowedMethods(route)
+    if (!allowed.includes(req.method)) {
+      return apiError(405, "method_not_allowed", `${req.method} is not answered here; this address takes ${allowed.join(", ")}.`, {
+        allow: allowed.join(", "),
+      })
+    }
+  }
+  if (pathname !== raw) {
+    const url = req.nextUrl.clone()
+    url.pathname = pathname
+    return isApi ? NextResponse.rewrite(url) : NextResponse.redirect(url, 308)
+  }
+  return NextResponse.next()
+}
+
+export const config = {
+  matcher: ["/((?!_next/static|_next/image|icons/|sw\\.js|favicon\\.ico).*)"],
+}
