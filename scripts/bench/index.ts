@@ -4,7 +4,8 @@
 // ["BENCH_BASE_URL"] for syncSecondsFor36k) and it is reported as skipped when that is absent.
 import { ingestToRawInsertRatio, syncSecondsFor36k } from "./drives"
 import { recorderFirstLoadKb } from "./pages"
+import { numbersP95Ms100k, reviewQueueP95Ms100k } from "./reads"
 import { samplesScoredPerSecond, scoreToParseRatio } from "./scoring"
 import type { BenchFigure } from "./types"
 
-export const figures: BenchFigure[] = [scoreToParseRatio, samplesScoredPerSecond, ingestToRawInsertRatio, syncSecondsFor36k, recorderFirstLoadKb]
+export const figures: BenchFigure[] = [scoreToParseRatio, samplesScoredPerSecond, ingestToRawInsertRatio, syncSecondsFor36k, recorderFirstLoadKb, reviewQueueP95Ms100k, numbersP95Ms100k]
