@@ -67,10 +67,20 @@ export async function parseJson<S extends z.ZodType>(
 
 /** `emptyAs`: what an empty body means, for routes whose every field is optional; without it an empty body is a 400. */
 export async function readJson(req: Request, maxBytes = MAX_JSON_BYTES, emptyAs?: unknown): Promise<unknown> {
+  return jsonFromText(await readBodyText(req, maxBytes), emptyAs)
+}
+
+/** The body as text, refused over `maxBytes` (a route that looks at the text before parsing it). */
+export async function readBodyText(req: Request, maxBytes = MAX_JSON_BYTES): Promise<string> {
   const declared = Number(req.headers.get("content-length") ?? 0)
   if (declared > maxBytes) throw new AppError("too_large", `The body is over ${Math.round(maxBytes / 1024 / 1024)} MB.`)
   const text = await req.text()
   if (Buffer.byteLength(text) > maxBytes) throw new AppError("too_large", `The body is over ${Math.round(maxBytes / 1024 / 1024)} MB.`)
+  return text
+}
+
+/** readJson's parsing and storable-text check, for a body already read with readBodyText. */
+export function jsonFromText(text: string, emptyAs?: unknown): unknown {
   if (!text.trim()) {
     if (emptyAs !== undefined) return emptyAs
     throw new AppError("invalid_request", "The request body is empty; JSON was expected.")

@@ -42,7 +42,11 @@ export type DriveNeed = "see" | "record" | "finish"
 
 /** The drive if the actor may `need` it: 404 when they may not see it, 403 when they see it but may not act. */
 export async function loadDriveFor(db: Db, driveId: string, actor: DriveActor, need: DriveNeed): Promise<Drive> {
-  const drive = await findDriveInShop(db, driveId, actor.shopId)
+  return assertDriveAccess(await findDriveInShop(db, driveId, actor.shopId), actor, need)
+}
+
+/** loadDriveFor's rules for a drive read some other way (undefined: not in the actor's shop). */
+export function assertDriveAccess(drive: Drive | undefined, actor: DriveActor, need: DriveNeed): Drive {
   if (!drive || !canSeeDrive(actor, accessFacts(drive))) notFound("That drive")
   if (need === "record" && !canRecordOnDrive(actor, accessFacts(drive))) {
     throw new AppError("forbidden", "Only the drive's driver, its co-driver or a shop lead can record on it.")

@@ -1,19 +1,59 @@
-import { parseJson, route } from "@/app/_server/route"
-import { insertSampleBatch } from "@/db/queries/samples"
+import { z } from "zod"
+import { requireRole } from "@/app/_server/auth"
+import { jsonFromText, parseParams, parseWith, readBodyText, route, uuidParam } from "@/app/_server/route"
+import { getDb } from "@/db/client"
+import { findDriveInShop } from "@/db/queries/drives"
+import { findDriveAndBatch, ingestSampleBatch, insertSampleBatch, type BatchResult } from "@/db/queries/samples"
 import { sampleBatchSchema } from "@/lib/validation/drive"
-import { assertRecordingOpen, driveForRoute, rescoreFinishedDrive } from "../../_service"
+import { assertDriveAccess, assertRecordingOpen, rescoreFinishedDrive } from "../../_service"
 
-// The whole body is validated before anything is written: one bad sample is a 400 naming it
-// (`samples.3.lat`) and the batch is stored not at all. Late batches after Finish are taken and the
-// drive scored again until a lead has reviewed it (see lib/access/drive.ts recordingIsOpen).
+const params = z.object({ driveId: uuidParam })
+
+// The recorder sends a batch every 5 s or 50 samples (lib/recorder/batching.ts), so this is the hot path.
+// Statements for a new batch: the session (two, lib/auth/lucia.ts), the drive with the batch's claim (one),
+// then claim + insert + record in one statement (db/queries/samples.ts ingestSampleBatch). A replayed batch
+// is answered from its claim before its body is validated. A batch that arrives after Finish goes through
+// one transaction that stores it and scores the drive again, until a lead has reviewed the drive (see
+// lib/access/drive.ts recordingIsOpen). The whole body is validated before anything is written: one bad
+// sample is a 400 naming it (`samples.3.lat`) and the batch is stored not at all.
 export const POST = route<{ driveId: string }>(async (req, ctx) => {
-  const { user, db, drive } = await driveForRoute(ctx.params, "record")
-  const { batchId, samples } = await parseJson(req, sampleBatchSchema)
+  const { user } = await requireRole()
+  const { driveId } = await parseParams(ctx.params, params)
+  const text = await readBodyText(req)
+  const db = getDb()
+  const found = await findDriveAndBatch(db, driveId, user.shopId, peekBatchId(text))
+  const drive = assertDriveAccess(found?.drive, user, "record")
   assertRecordingOpen(drive)
-  const result = await db.transaction().execute(async (trx) => {
-    const r = await insertSampleBatch(trx, drive.id, user.shopId, batchId, samples)
-    if (!r.replayed && r.accepted > 0) await rescoreFinishedDrive(trx, drive)
+  if (found!.claim) return Response.json(found!.claim)
+
+  const { batchId, samples } = parseWith(sampleBatchSchema, jsonFromText(text))
+  let result: BatchResult | null = null
+  if (drive.status === "recording") result = await ingestSampleBatch(db, drive.id, user.shopId, batchId, samples)
+  // Late (the drive was finished, before this request or while it ran): store and score again, together.
+  result ??= await db.transaction().execute(async (trx) => {
+    const now = assertDriveAccess(await findDriveInShop(trx, drive.id, user.shopId), user, "record")
+    assertRecordingOpen(now)
+    const r = await insertSampleBatch(trx, now.id, user.shopId, batchId, samples)
+    if (!r.replayed && r.accepted > 0) await rescoreFinishedDrive(trx, now)
     return r
   })
+  // Committed: anything that follows a stored batch (e.g. a live score for watchers) goes here.
   return Response.json(result)
 })
+
+// `{"batchId":"...",` at the start, as the recorder sends it: the id without parsing the samples. Only ids
+// with no escapes or control characters are read this way (what JSON.parse would give for them is the
+// same text); any other body is parsed whole.
+const LEADING_BATCH_ID = /^\s*\{\s*"batchId"\s*:\s*"([^"\\\u0000-\u001f]{1,100})"\s*[,}]/
+
+function peekBatchId(text: string): string | null {
+  const m = LEADING_BATCH_ID.exec(text.slice(0, 160))
+  if (m) return m[1]!
+  try {
+    const body = JSON.parse(text) as { batchId?: unknown } | null
+    const id = body?.batchId
+    return typeof id === "string" && id.length >= 1 && id.length <= 100 ? id : null
+  } catch {
+    return null
+  }
+}
