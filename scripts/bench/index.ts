@@ -6,7 +6,7 @@ import { ingestToRawInsertRatio, syncSecondsFor36k } from "./drives"
 import { ingestAtCadenceP95Ms, ingestCeilingRatio, replayRefusalP50Ms } from "./ingest"
 import { recorderFirstLoadKb } from "./pages"
 import { numbersP95Ms100k, reviewQueueP95Ms100k } from "./reads"
-import { samplesScoredPerSecond, scoreToParseRatio } from "./scoring"
+import { samplesScoredPerSecond, scoreToParseRatio, validateScoreToParseRatio } from "./scoring"
 import type { BenchFigure } from "./types"
 
-export const figures: BenchFigure[] = [scoreToParseRatio, samplesScoredPerSecond, ingestToRawInsertRatio, syncSecondsFor36k, recorderFirstLoadKb, reviewQueueP95Ms100k, numbersP95Ms100k, replayRefusalP50Ms, ingestCeilingRatio, ingestAtCadenceP95Ms]
+export const figures: BenchFigure[] = [scoreToParseRatio, validateScoreToParseRatio, samplesScoredPerSecond, ingestToRawInsertRatio, syncSecondsFor36k, recorderFirstLoadKb, reviewQueueP95Ms100k, numbersP95Ms100k, replayRefusalP50Ms, ingestCeilingRatio, ingestAtCadenceP95Ms]
