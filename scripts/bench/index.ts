@@ -4,9 +4,9 @@
 // ["BENCH_BASE_URL"] for syncSecondsFor36k) and it is reported as skipped when that is absent.
 import { ingestToRawInsertRatio, syncSecondsFor36k } from "./drives"
 import { ingestAtCadenceP95Ms, ingestCeilingRatio, replayRefusalP50Ms } from "./ingest"
-import { recorderFirstLoadKb } from "./pages"
+import { detailHtmlKb36k, recorderFirstLoadKb } from "./pages"
 import { numbersP95Ms100k, reviewQueueP95Ms100k } from "./reads"
 import { samplesScoredPerSecond, scoreToParseRatio, validateScoreToParseRatio } from "./scoring"
 import type { BenchFigure } from "./types"
 
-export const figures: BenchFigure[] = [scoreToParseRatio, validateScoreToParseRatio, samplesScoredPerSecond, ingestToRawInsertRatio, syncSecondsFor36k, recorderFirstLoadKb, reviewQueueP95Ms100k, numbersP95Ms100k, replayRefusalP50Ms, ingestCeilingRatio, ingestAtCadenceP95Ms]
+export const figures: BenchFigure[] = [scoreToParseRatio, validateScoreToParseRatio, samplesScoredPerSecond, ingestToRawInsertRatio, syncSecondsFor36k, recorderFirstLoadKb, detailHtmlKb36k, reviewQueueP95Ms100k, numbersP95Ms100k, replayRefusalP50Ms, ingestCeilingRatio, ingestAtCadenceP95Ms]
