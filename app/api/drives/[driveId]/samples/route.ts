@@ -5,6 +5,7 @@ import { getDb } from "@/db/client"
 import { findDriveInShop } from "@/db/queries/drives"
 import { findDriveAndBatch, ingestSampleBatch, insertSampleBatch, type BatchResult } from "@/db/queries/samples"
 import { sampleBatchSchema } from "@/lib/validation/drive"
+import { unstorableTextProblem } from "@/lib/validation/storable"
 import { assertDriveAccess, assertRecordingOpen, rescoreFinishedDrive } from "../../_service"
 
 const params = z.object({ driveId: uuidParam })
@@ -52,7 +53,8 @@ function peekBatchId(text: string): string | null {
   try {
     const body = JSON.parse(text) as { batchId?: unknown } | null
     const id = body?.batchId
-    return typeof id === "string" && id.length >= 1 && id.length <= 100 ? id : null
+    // An id the database cannot store (a NUL) is left to the full check, which names it.
+    return typeof id === "string" && id.length >= 1 && id.length <= 100 && !unstorableTextProblem(id) ? id : null
   } catch {
     return null
   }
