@@ -161,6 +161,16 @@ export interface DriveTable {
   road_test: Json<unknown[]> | null
   created_at: GeneratedTimestamp
   finished_at: Timestamp | null
+  /** Copied from the drive's score when it is stored (trigger score_to_drive); for the queue and numbers. */
+  scored_at: Timestamp | null
+  harsh_events: Generated<number>
+  cleared_at_seconds: number | null
+  duration_seconds: Generated<number>
+  qualifying_seconds: Generated<number>
+  following_seconds: Generated<number>
+  unmet_conditions: Generated<string[]>
+  /** A verdict other than met, or any harsh event (a generated column). */
+  needs_review: Generated<boolean>
 }
 
 export interface SampleTable {

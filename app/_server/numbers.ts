@@ -1,7 +1,7 @@
 import "server-only"
 import type { Db } from "@/db/client"
-import { listDrivesForNumbers } from "@/db/queries/numbers"
-import type { NumbersDrive, NumbersVerdict } from "@/lib/numbers"
+import { listDrivesForNumbers, loadNumbersSummary } from "@/db/queries/numbers"
+import type { Numbers, NumbersDrive, NumbersVerdict } from "@/lib/numbers"
 
 export const NUMBERS_DEFAULT_DAYS = 90
 
@@ -24,4 +24,9 @@ export async function loadNumbersDrives(db: Db, shopId: string, days: number): P
     unmetConditions: r.unmet_conditions ?? [],
     reviewStatus: r.review_status,
   }))
+}
+
+/** What the numbers page shows for the last `days` days, aggregated in the database (computeNumbers' figures). */
+export async function loadNumbers(db: Db, shopId: string, days: number): Promise<Numbers> {
+  return loadNumbersSummary(db, shopId, new Date(Date.now() - days * 86_400_000))
 }

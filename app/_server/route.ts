@@ -84,16 +84,25 @@ export async function parseJson<S extends z.ZodType>(
 
 /** `emptyAs`: what an empty body means, for routes whose every field is optional; without it an empty body is a 400. */
 export async function readJson(req: Request, maxBytes = MAX_JSON_BYTES, emptyAs?: unknown): Promise<unknown> {
-  const tooLarge = () => new AppError("too_large", `The body is over ${Math.round(maxBytes / 1024 / 1024)} MB.`)
-  let text: string
+  return jsonFromText(await readRequestText(req, maxBytes), emptyAs)
+}
+
+/**
+ * The body as text, counted while it streams (a chunked body has no Content-Length to check beforehand):
+ * over `maxBytes` a 413. For routes that look at the text before parsing it.
+ */
+export async function readRequestText(req: Request, maxBytes = MAX_JSON_BYTES): Promise<string> {
   try {
-    // Counted while it streams: a chunked body has no Content-Length to check beforehand.
     const declared = req.headers.get("content-length")
-    text = await readBodyText(req.body, maxBytes, declared === null ? undefined : Number(declared))
+    return await readBodyText(req.body, maxBytes, declared === null ? undefined : Number(declared))
   } catch (error) {
-    if (error instanceof BodyTooLargeError) throw tooLarge()
+    if (error instanceof BodyTooLargeError) throw new AppError("too_large", `The body is over ${Math.round(maxBytes / 1024 / 1024)} MB.`)
     throw new AppError("invalid_request", "The request body could not be read.")
   }
+}
+
+/** readJson's parsing and checks (nesting depth, storable text), for a body already read with readRequestText. */
+export function jsonFromText(text: string, emptyAs?: unknown): unknown {
   if (jsonNestsDeeperThan(text, MAX_JSON_DEPTH)) {
     throw new AppError("invalid_request", `The request body nests deeper than ${MAX_JSON_DEPTH} levels.`)
   }

@@ -18,14 +18,24 @@ export function ServiceWorkerRegistration() {
 
   useEffect(() => {
     if (!("serviceWorker" in navigator) || process.env.NODE_ENV !== "production") return
-    // Loaded after the page is up, so it never weighs on the recorder's first load.
-    void import("workbox-window").then(({ Workbox }) => {
-      const workbox = new Workbox("/sw.js", { scope: "/" })
-      workbox.addEventListener("waiting", () => setWaiting(true))
-      workbox.addEventListener("activated", () => void workbox.messageSW({ type: "WARM", urls: WARM_URLS }))
-      void workbox.register().then(() => workbox.messageSW({ type: "WARM", urls: WARM_URLS }).catch(() => {}))
-      setWb(workbox)
-    })
+    // Loaded once the page is up and idle, so it never weighs on the recorder's first load.
+    let gone = false
+    const register = () =>
+      void import("workbox-window").then(({ Workbox }) => {
+        if (gone) return
+        const workbox = new Workbox("/sw.js", { scope: "/" })
+        workbox.addEventListener("waiting", () => setWaiting(true))
+        workbox.addEventListener("activated", () => void workbox.messageSW({ type: "WARM", urls: WARM_URLS }))
+        void workbox.register().then(() => workbox.messageSW({ type: "WARM", urls: WARM_URLS }).catch(() => {}))
+        setWb(workbox)
+      })
+    const whenIdle = () => ("requestIdleCallback" in window ? requestIdleCallback(register, { timeout: 2000 }) : setTimeout(register, 200))
+    if (document.readyState === "complete") whenIdle()
+    else window.addEventListener("load", whenIdle, { once: true })
+    return () => {
+      gone = true
+      window.removeEventListener("load", whenIdle)
+    }
   }, [])
 
   useEffect(() => {

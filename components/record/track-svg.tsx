@@ -1,4 +1,5 @@
-import { projectTrack, STATE_LABEL, thinTimeline, type StretchState, type TimelinePoint } from "@/lib/record"
+import { projectTrack, STATE_LABEL, type StretchState, type TimelinePoint } from "@/lib/record"
+import { downsampleTimeline } from "@/lib/record/downsample"
 import { cn } from "@/components/ui/cn"
 
 const STROKE: Record<StretchState, string> = {
@@ -18,7 +19,7 @@ const SWATCH: Record<StretchState, string> = {
 export function TrackSvg({ timeline, className }: { timeline: TimelinePoint[]; className?: string }) {
   const width = 600
   const height = 360
-  const paths = projectTrack(thinTimeline(timeline, 2000), width, height, 16)
+  const paths = projectTrack(downsampleTimeline(timeline, 2000), width, height, 16)
   if (paths.length === 0) return <p className="text-sm text-graphite-600 dark:text-graphite-300">No positions to draw.</p>
   const start = paths[0]!.points[0]!
   const end = paths.at(-1)!.points.at(-1)!

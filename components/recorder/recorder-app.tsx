@@ -14,6 +14,13 @@ const RecordingScreen = lazy(() => import("./recording-screen").then((m) => ({ d
 const FinishScreen = lazy(() => import("./finish-screen").then((m) => ({ default: m.FinishScreen })))
 const opening = <p className="text-graphite-300">Opening the recorder…</p>
 
+function afterIdle() {
+  return new Promise<void>((done) => {
+    if ("requestIdleCallback" in window) requestIdleCallback(() => done(), { timeout: 1000 })
+    else setTimeout(done, 200)
+  })
+}
+
 /** The drive id lives in the address (`/record?drive=...`) so that a reload, online or not, finds the drive. */
 function driveIdFromLocation(): string | null {
   const url = new URL(window.location.href)
@@ -37,12 +44,22 @@ export function RecorderApp({ coDriver = false }: { coDriver?: boolean }) {
     window.addEventListener("offline", onOffline)
     window.addEventListener("pagehide", onHide)
     void (async () => {
+      // Nothing to resume: the start screen needs none of the engine, which follows once the screen is up.
+      const fresh = !coDriver && !driveIdFromLocation() && !(await getActiveDrive())
+      if (fresh) {
+        setPhase("start")
+        await afterIdle()
+      }
       const recorder = await loadRecorder()
       if (gone) return
       setMeta(recorder.store.getState().meta)
       unsubscribe = recorder.store.subscribe((s, before) => {
         if (s.meta !== before.meta) setMeta(s.meta)
       })
+      if (fresh) {
+        void recorder.flush() // anything left from an earlier drive goes out on app start
+        return
+      }
       const id = driveIdFromLocation() ?? (coDriver ? null : await getActiveDrive()) ?? null
       if (id && (await recorder.load(id))) {
         if (!driveIdFromLocation()) window.history.replaceState(null, "", `/record?drive=${id}`)

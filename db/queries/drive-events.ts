@@ -40,6 +40,12 @@ function notify(payload: RawBuilder<unknown>, fallback: RawBuilder<unknown>) {
   return sql`pg_notify(${DRIVE_CHANNEL}, case when octet_length((${payload})::text) < ${NOTIFY_MAX_BYTES} then (${payload})::text else (${fallback})::text end)`
 }
 
+/** The notify call that announces stored sample rows (`rows`: a json array, or null for "read the drive again"). */
+export function samplesNotice(driveId: string, shopId: string, rows: RawBuilder<unknown>) {
+  const head = sql`'k', 'samples', 'd', ${driveId}::text, 's', ${shopId}::text, 'o', ${liveOrigin()}::text`
+  return notify(sql`json_build_object(${head}, 'rows', ${rows})`, sql`json_build_object(${head}, 'rows', null)`)
+}
+
 export interface SamplesInserted {
   accepted: number
   /** The `t` of each sample this call stored (a `t` the drive had already is not among them). */
@@ -67,7 +73,6 @@ export async function insertSamplesNotifying(trx: Db, driveId: string, shopId: s
     speed[i] = s.speed ?? null
     accuracy[i] = s.accuracy ?? null
   }
-  const head = sql`'k', 'samples', 'd', ${driveId}::text, 's', ${shopId}::text, 'o', ${liveOrigin()}::text`
   const result = await sql<{ n: number; ts: number[] }>`
     with ins as (
       insert into sample (drive_id, shop_id, t, lat, lon, speed, accuracy)
@@ -82,7 +87,7 @@ export async function insertSamplesNotifying(trx: Db, driveId: string, shopId: s
         case when count(*) <= ${NOTIFY_MAX_SAMPLES} then json_agg(json_build_array(t, lat, lon, speed, accuracy)) end as rows
       from ins
     )
-    select n, ts, ${notify(sql`json_build_object(${head}, 'rows', rows)`, sql`json_build_object(${head}, 'rows', null)`)} as notified
+    select n, ts, ${samplesNotice(driveId, shopId, sql`rows`)} as notified
     from agg where n > 0`.execute(trx)
   const row = result.rows[0]
   return row ? { accepted: row.n, ts: row.ts.map(Number) } : { accepted: 0, ts: [] }

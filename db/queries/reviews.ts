@@ -2,7 +2,6 @@ import { sql } from "kysely"
 import type { TimeCursor } from "@/lib/validation/drive"
 import type { Db } from "../client"
 import { cursorTimeSql, keysetPage } from "./paging"
-import { harshEventCountSql } from "./scores"
 
 export const REVIEW_PAGE_SIZE = 50
 
@@ -36,12 +35,10 @@ export async function listReviewQueue(db: Db, shopId: string, cursor?: TimeCurso
     .where("drive.shop_id", "=", shopId)
     .where("drive.status", "=", "finished")
     .where("drive.review_status", "is", null)
-    .where((eb) =>
-      eb.or([
-        eb("drive.verdict", "!=", "met"),
-        eb(harshEventCountSql, ">", 0),
-      ]),
-    )
+    // needs_review (a verdict other than met, or any harsh event) and scored_at are kept on the drive when
+    // it is scored; these conditions are those of the partial index drive_review_queue_idx.
+    .where("drive.needs_review", "=", true)
+    .where("drive.scored_at", "is not", null)
     .orderBy("drive.finished_at", "asc")
     .orderBy("drive.id", "asc")
     .limit(REVIEW_PAGE_SIZE + 1)

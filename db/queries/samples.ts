@@ -1,7 +1,7 @@
 import { sql } from "kysely"
 import type { Sample } from "@/lib/drive-file/schema"
 import type { Db } from "../client"
-import { insertSamplesNotifying } from "./drive-events"
+import { insertSamplesNotifying, NOTIFY_MAX_SAMPLES, samplesNotice } from "./drive-events"
 
 export interface BatchResult {
   accepted: number
@@ -98,4 +98,109 @@ export async function listSamples(db: Db, driveId: string, shopId: string): Prom
     if (r.accuracy !== null) s.accuracy = r.accuracy
     return s
   })
+}
+
+/**
+ * The drive and, when `batchId` was stored before, that batch's claim: one statement, so a replayed batch is
+ * answered before its body is validated (app/api/drives/[driveId]/samples/route.ts).
+ */
+export async function findDriveAndBatch(db: Db, driveId: string, shopId: string, batchId: string | null) {
+  const row = await db
+    .selectFrom("drive")
+    .leftJoin("sample_batch as b", (j) =>
+      j.onRef("b.drive_id", "=", "drive.id").onRef("b.shop_id", "=", "drive.shop_id").on("b.batch_id", "=", batchId ?? ""),
+    )
+    .selectAll("drive")
+    .select(["b.accepted as batch_accepted", "b.duplicates as batch_duplicates"])
+    .where("drive.id", "=", driveId)
+    .where("drive.shop_id", "=", shopId)
+    .executeTakeFirst()
+  if (!row) return undefined
+  const { batch_accepted, batch_duplicates, ...drive } = row
+  const claim: BatchResult | null =
+    batchId !== null && batch_accepted !== null && batch_duplicates !== null
+      ? { accepted: batch_accepted, duplicates: batch_duplicates, replayed: true, storedTs: [] }
+      : null
+  return { drive, claim }
+}
+
+/**
+ * insertSampleBatch in one statement and one round trip, for a drive still recording: the drive row is
+ * read FOR SHARE (a Finish that locks it FOR UPDATE waits for this batch, or this batch waits for it), the
+ * samples go in (a `t` the drive has is kept as it was), the batch is recorded with its counts, and the
+ * stored rows are announced to the live channel (db/queries/drive-events.ts). The statement is its own
+ * transaction: whole or nothing. A batch id claimed meanwhile by a concurrent copy of the same batch breaks
+ * the batch's primary key, which undoes the whole statement; the copy that won is then answered as a
+ * replay. Returns null, having written nothing, when the drive is no longer recording (finished meanwhile,
+ * or reviewed): the caller takes the transactional path that scores the drive again.
+ */
+export async function ingestSampleBatch(
+  db: Db,
+  driveId: string,
+  shopId: string,
+  batchId: string,
+  samples: readonly Sample[],
+): Promise<BatchResult | null> {
+  const c = sampleColumns(samples)
+  try {
+    const { rows } = await sql<{ accepted: number; duplicates: number; ts: Array<number | string> | null }>`
+      with d as (
+        select id from drive
+        where id = ${driveId}::uuid and shop_id = ${shopId}::uuid and status = 'recording' and review_status is null
+        for share
+      ),
+      ins as (
+        insert into sample (drive_id, shop_id, t, lat, lon, speed, accuracy)
+        select d.id, ${shopId}::uuid, u.t, u.lat, u.lon, u.speed, u.accuracy
+        from d, unnest(${c.t}::bigint[], ${c.lat}::float8[], ${c.lon}::float8[], ${c.speed}::float8[], ${c.accuracy}::float8[])
+          with ordinality as u(t, lat, lon, speed, accuracy, ord)
+        order by u.ord
+        on conflict (drive_id, t) do nothing
+        returning t, lat, lon, speed, accuracy
+      ),
+      n as (
+        select count(*)::int as accepted, array_agg(t) as ts,
+          case when count(*) <= ${NOTIFY_MAX_SAMPLES} then json_agg(json_build_array(t, lat, lon, speed, accuracy)) end as rows
+        from ins
+      ),
+      b as (
+        insert into sample_batch (drive_id, batch_id, shop_id, accepted, duplicates)
+        select d.id, ${batchId}, ${shopId}::uuid, n.accepted, ${samples.length}::int - n.accepted from d, n
+        returning accepted, duplicates
+      )
+      select b.accepted, b.duplicates, n.ts,
+        case when n.accepted > 0 then ${samplesNotice(driveId, shopId, sql`n.rows`)} end as notified
+      from b, n`.execute(db)
+    const row = rows[0]
+    return row ? { accepted: row.accepted, duplicates: row.duplicates, replayed: false, storedTs: (row.ts ?? []).map(Number) } : null
+  } catch (error) {
+    const e = error as { code?: string; constraint?: string }
+    if (e.code !== "23505" || e.constraint !== "sample_batch_pk") throw error
+    const seen = await db
+      .selectFrom("sample_batch")
+      .select(["accepted", "duplicates"])
+      .where("drive_id", "=", driveId)
+      .where("batch_id", "=", batchId)
+      .where("shop_id", "=", shopId)
+      .executeTakeFirstOrThrow()
+    return { accepted: seen.accepted, duplicates: seen.duplicates, replayed: true, storedTs: [] }
+  }
+}
+
+function sampleColumns(samples: readonly Sample[]) {
+  const n = samples.length
+  const t = new Array<number>(n)
+  const lat = new Array<number>(n)
+  const lon = new Array<number>(n)
+  const speed = new Array<number | null>(n)
+  const accuracy = new Array<number | null>(n)
+  for (let i = 0; i < n; i++) {
+    const s = samples[i]!
+    t[i] = s.t
+    lat[i] = s.lat
+    lon[i] = s.lon
+    speed[i] = s.speed ?? null
+    accuracy[i] = s.accuracy ?? null
+  }
+  return { t, lat, lon, speed, accuracy }
 }

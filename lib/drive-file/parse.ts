@@ -1,4 +1,5 @@
 import type { z } from "zod"
+import { fastParseDriveFile } from "./fast-check"
 import { DRIVE_FORMAT, DRIVE_FORMAT_2, driveFileSchema, driveFileSchema2, type AnyDriveFile, type DriveFile } from "./schema"
 
 export type ParseAnyDriveFileResult =
@@ -58,6 +59,8 @@ export function zodIssuesToFields(issues: ReadonlyArray<z.core.$ZodIssue>): Reco
 }
 
 export function parseDriveFile(input: unknown): ParseDriveFileResult {
+  const fast = fastParseDriveFile(input)
+  if (fast) return { ok: true, file: fast }
   const result = driveFileSchema.safeParse(input)
   if (result.success) return { ok: true, file: result.data }
   const issue = result.error.issues[0]!

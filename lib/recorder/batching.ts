@@ -5,6 +5,10 @@
 export const PERSIST_EVERY_MS = 1000
 /** ...or this long, whichever comes first. */
 export const PERSIST_MAX_SAMPLES = 20
+/** While online, stored samples go to the server once the oldest unsent one is this old... */
+export const SEND_EVERY_MS = 5000
+/** ...or this many are unsent, whichever comes first. Marks and Finish go at once. */
+export const SEND_AT_SAMPLES = 50
 /** Samples in one POST when several stored pieces are waiting. */
 export const SEND_MAX_SAMPLES = 2000
 export const SEND_MAX_MARKS = 200
@@ -12,6 +16,11 @@ export const SEND_MAX_MARKS = 200
 export function shouldPersist(buffered: number, oldestBufferedAtMs: number | null, nowMs: number): boolean {
   if (buffered === 0 || oldestBufferedAtMs === null) return false
   return buffered >= PERSIST_MAX_SAMPLES || nowMs - oldestBufferedAtMs >= PERSIST_EVERY_MS
+}
+
+export function shouldSend(unsent: number, oldestUnsentAtMs: number | null, nowMs: number): boolean {
+  if (unsent === 0 || oldestUnsentAtMs === null) return false
+  return unsent >= SEND_AT_SAMPLES || nowMs - oldestUnsentAtMs >= SEND_EVERY_MS
 }
 
 export interface SendGroup<T> {

@@ -8,7 +8,7 @@ import { createLiveScorer, type LiveScorer } from "@/lib/scoring/score"
 import { geodesicDistanceM } from "@/lib/scoring/geodesy"
 import { predictMinutesLeft, type MinutesLeft } from "@/lib/scoring/predict"
 import type { Score } from "@/lib/scoring/types"
-import { PERSIST_EVERY_MS, shouldPersist } from "./batching"
+import { PERSIST_EVERY_MS, shouldPersist, shouldSend } from "./batching"
 import {
   getLastSynced,
   idbOutbox,
@@ -102,6 +102,9 @@ export function createRecorder(transport: Transport = fetchTransport) {
   let scorer: LiveScorer | null = null
   let buffer: Sample[] = []
   let bufferSince: number | null = null
+  // Stored but not yet handed to flush(): sent every 5 s or 50 samples (lib/recorder/batching.ts).
+  let unsent = 0
+  let unsentSince: number | null = null
   let seq = 0
   let watchId: number | null = null
   let ticker: ReturnType<typeof setInterval> | null = null
@@ -251,12 +254,22 @@ export function createRecorder(transport: Transport = fetchTransport) {
     if (!meta || buffer.length === 0) return
     if (!force && !shouldPersist(buffer.length, bufferSince, Date.now())) return
     const piece = buffer
+    unsentSince ??= bufferSince
     buffer = []
     bufferSince = null
     const batchId = `${meta.id.slice(0, 8)}-${String(seq).padStart(6, "0")}-${crypto.randomUUID().slice(0, 8)}`
     const item = makeItem(meta.id, { type: "samples", batchId, samples: piece }, Date.now())
     await persistSamples(meta.id, seq++, piece, item)
+    unsent += piece.length
     void refreshSyncCounts()
+    sendWhenDue(force)
+  }
+
+  /** Hands the stored samples to flush() every SEND_EVERY_MS or SEND_AT_SAMPLES, or at once when `now`. */
+  function sendWhenDue(now = false) {
+    if (!now && !shouldSend(unsent, unsentSince, Date.now())) return
+    unsent = 0
+    unsentSince = null
     void flush()
   }
 
@@ -301,6 +314,7 @@ export function createRecorder(transport: Transport = fetchTransport) {
     lastFixAt = Date.now()
     ticker = setInterval(() => {
       void persistBuffer()
+      sendWhenDue()
       const s = store.getState()
       if (s.gps !== "denied" && s.gps !== "unavailable" && Date.now() - lastFixAt > NO_FIX_AFTER_MS) store.setState({ gps: "no-fix" })
       rescore()

@@ -1,4 +1,4 @@
-import type { DriveFile } from "@/lib/drive-file"
+import { parseDriveFile, type DriveFile } from "@/lib/drive-file"
 import { scoreDrive } from "@/lib/scoring"
 import { generateDrive } from "@/lib/tracks"
 import { bestOfMs, type BenchContext, type BenchFigure } from "./types"
@@ -22,6 +22,23 @@ export const scoreToParseRatio: BenchFigure = {
     return scoreMs / parseMs
   },
   meets: (v) => v <= 1.0,
+}
+
+/** What an import, /api/score and the CLI do with a drive file's text: parse, validate, score. */
+export const validateScoreToParseRatio: BenchFigure = {
+  name: "validateScoreToParseRatio",
+  target: "<= 1.5",
+  async run(ctx) {
+    const { text } = hourAt10Hz(ctx)
+    const parseMs = bestOfMs(() => JSON.parse(text))
+    const allMs = bestOfMs(() => {
+      const parsed = parseDriveFile(JSON.parse(text))
+      if (!parsed.ok) throw new Error(`the bench drive does not validate: ${parsed.path}: ${parsed.message}`)
+      return scoreDrive(parsed.file)
+    })
+    return allMs / parseMs
+  },
+  meets: (v) => v <= 1.5,
 }
 
 export const samplesScoredPerSecond: BenchFigure = {

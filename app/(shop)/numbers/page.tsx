@@ -2,14 +2,13 @@ import { Download } from "lucide-react"
 import type { Metadata } from "next"
 import Link from "next/link"
 import { requirePageRole } from "@/app/_server/auth"
-import { loadNumbersDrives } from "@/app/_server/numbers"
+import { loadNumbers } from "@/app/_server/numbers"
 import { TimeToClearChart, TopReasonsChart, VerdictMixChart } from "@/components/numbers/numbers-charts"
 import { buttonVariants } from "@/components/ui/button"
 import { Card } from "@/components/ui/card"
 import { cn } from "@/components/ui/cn"
 import { PageHeader } from "@/components/ui/page-header"
 import { getDb } from "@/db/client"
-import { computeNumbers } from "@/lib/numbers"
 
 export const metadata: Metadata = { title: "Numbers" }
 export const dynamic = "force-dynamic"
@@ -20,8 +19,7 @@ export default async function NumbersPage({ searchParams }: { searchParams: Prom
   const me = await requirePageRole("shop_lead")
   const asked = Number((await searchParams).days)
   const days = (RANGES as readonly number[]).includes(asked) ? asked : 90
-  const drives = await loadNumbersDrives(getDb(), me.shopId, days)
-  const numbers = computeNumbers(drives)
+  const numbers = await loadNumbers(getDb(), me.shopId, days)
   return (
     <>
       <PageHeader

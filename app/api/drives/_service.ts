@@ -59,7 +59,8 @@ export async function lockDriveFor(trx: Db, driveId: string, actor: DriveActor, 
   return drive
 }
 
-function assertDriveAccess<D extends Drive>(drive: D | undefined, actor: DriveActor, need: DriveNeed): D {
+/** loadDriveFor's rules for a drive read some other way (undefined: not in the actor's shop). */
+export function assertDriveAccess<D extends Drive>(drive: D | undefined, actor: DriveActor, need: DriveNeed): D {
   if (!drive || !canSeeDrive(actor, accessFacts(drive))) notFound("That drive")
   if (need === "record" && !canRecordOnDrive(actor, accessFacts(drive))) {
     throw new AppError("forbidden", "Only the drive's driver, its co-driver or a shop lead can record on it.")

@@ -1,9 +1,9 @@
 import { z } from "zod"
 import { requireRole } from "@/app/_server/auth"
-import { loadNumbersDrives, NUMBERS_DEFAULT_DAYS } from "@/app/_server/numbers"
+import { loadNumbers, loadNumbersDrives, NUMBERS_DEFAULT_DAYS } from "@/app/_server/numbers"
 import { parseQuery, route } from "@/app/_server/route"
 import { getDb } from "@/db/client"
-import { computeNumbers, numbersToCsv } from "@/lib/numbers"
+import { numbersToCsv } from "@/lib/numbers"
 
 const query = z.object({
   days: z.coerce.number({ error: "must be a number of days" }).int({ error: "must be a whole number" }).min(1, { error: "must be 1 to 730" }).max(730, { error: "must be 1 to 730" }).default(NUMBERS_DEFAULT_DAYS),
@@ -13,8 +13,8 @@ const query = z.object({
 export const GET = route(async (req) => {
   const { user } = await requireRole("shop_lead")
   const { days, format } = parseQuery(req, query)
-  const drives = await loadNumbersDrives(getDb(), user.shopId, days)
   if (format === "csv") {
+    const drives = await loadNumbersDrives(getDb(), user.shopId, days)
     return new Response(numbersToCsv(drives), {
       headers: {
         "content-type": "text/csv; charset=utf-8",
@@ -23,5 +23,5 @@ export const GET = route(async (req) => {
       },
     })
   }
-  return Response.json({ days, ...computeNumbers(drives) })
+  return Response.json({ days, ...(await loadNumbers(getDb(), user.shopId, days)) })
 })

@@ -1,6 +1,15 @@
 import fc from "fast-check"
 import { describe, expect, it } from "vitest"
-import { PERSIST_EVERY_MS, PERSIST_MAX_SAMPLES, groupBatchId, groupForSending, shouldPersist } from "@/lib/recorder/batching"
+import {
+  PERSIST_EVERY_MS,
+  PERSIST_MAX_SAMPLES,
+  SEND_AT_SAMPLES,
+  SEND_EVERY_MS,
+  groupBatchId,
+  groupForSending,
+  shouldPersist,
+  shouldSend,
+} from "@/lib/recorder/batching"
 
 describe("shouldPersist", () => {
   it("writes once the oldest buffered sample is a second old, or the buffer is full", () => {
@@ -8,6 +17,31 @@ describe("shouldPersist", () => {
     expect(shouldPersist(3, 10_000, 10_000 + PERSIST_EVERY_MS - 1)).toBe(false)
     expect(shouldPersist(3, 10_000, 10_000 + PERSIST_EVERY_MS)).toBe(true)
     expect(shouldPersist(PERSIST_MAX_SAMPLES, 10_000, 10_000)).toBe(true)
+  })
+})
+
+describe("shouldSend", () => {
+  it("sends every 5 s or 50 samples, whichever comes first, and never with nothing waiting", () => {
+    expect(SEND_EVERY_MS).toBe(5000)
+    expect(SEND_AT_SAMPLES).toBe(50)
+    expect(shouldSend(0, null, 99_000)).toBe(false)
+    expect(shouldSend(0, 10_000, 99_000)).toBe(false)
+    expect(shouldSend(49, 10_000, 10_000 + SEND_EVERY_MS - 1)).toBe(false)
+    expect(shouldSend(1, 10_000, 10_000 + SEND_EVERY_MS)).toBe(true)
+    expect(shouldSend(50, 10_000, 10_000)).toBe(true)
+  })
+  it("at 10 Hz a POST carries 50 samples; at 1 Hz 6 (five seconds of them)", () => {
+    const perPost = (hz: number) => {
+      let unsent = 0
+      let since: number | null = null
+      for (let ms = 0; ; ms += 1000 / hz) {
+        since ??= ms
+        unsent += 1
+        if (shouldSend(unsent, since, ms)) return unsent
+      }
+    }
+    expect(perPost(10)).toBe(50)
+    expect(perPost(1)).toBe(6)
   })
 })
 

@@ -21,7 +21,8 @@ import { listRevisions } from "@/db/queries/revisions"
 import { CAUSE_TEXT } from "@/app/_server/revisions"
 import { canSeeDrive } from "@/lib/access/drive"
 import { hasRole } from "@/lib/auth/roles"
-import { DECISION_WORD, describeVehicle, roLabel, MARK_LABEL, METHOD_LABEL, REASON_LABEL, SENSOR_LABEL, thinTimeline } from "@/lib/record"
+import { DECISION_WORD, describeVehicle, roLabel, MARK_LABEL, METHOD_LABEL, REASON_LABEL, SENSOR_LABEL } from "@/lib/record"
+import { downsampleTimeline } from "@/lib/record/downsample"
 
 export const metadata: Metadata = { title: "Drive" }
 export const dynamic = "force-dynamic"
@@ -62,7 +63,8 @@ export default async function DrivePage({ params }: { params: Promise<{ driveId:
     listRevisions(db, head.id, me.shopId),
   ])
   const t0 = data.score.startedAtMs ?? data.marks[0]?.t ?? 0
-  const points = thinTimeline(data.timeline, 900)
+  // At most 2,000 points for the chart and the track, however long the drive (lib/record/downsample.ts).
+  const points = downsampleTimeline(data.timeline, 2000)
   const following: Stretch[] = []
   for (let i = 0; i < data.timeline.length; i++) {
     const p = data.timeline[i]!
@@ -109,7 +111,7 @@ export default async function DrivePage({ params }: { params: Promise<{ driveId:
           </Card>
           <Card>
             <h2 className="mb-2 text-lg font-semibold">Track</h2>
-            <TrackSvg timeline={data.timeline} />
+            <TrackSvg timeline={points} />
           </Card>
           <Card>
             <h2 className="mb-2 text-lg font-semibold">Marks</h2>

@@ -1,25 +1,67 @@
+import { z } from "zod"
+import { requireRole } from "@/app/_server/auth"
 import { noteSamplesStored } from "@/app/_server/live"
-import { sendFollowUp } from "@/app/_server/revisions"
-import { parseJson, route } from "@/app/_server/route"
-import { insertSampleBatch } from "@/db/queries/samples"
+import { sendFollowUp, type FollowUp } from "@/app/_server/revisions"
+import { jsonFromText, parseParams, parseWith, readRequestText, route, uuidParam } from "@/app/_server/route"
+import { getDb } from "@/db/client"
+import { findDriveAndBatch, ingestSampleBatch, insertSampleBatch, type BatchResult } from "@/db/queries/samples"
 import { sampleBatchSchema } from "@/lib/validation/drive"
-import { driveRouteIds, lockDriveFor, rescoreFinishedDrive } from "../../_service"
+import { unstorableTextProblem } from "@/lib/validation/storable"
+import { assertDriveAccess, assertRecordingOpen, lockDriveFor, rescoreFinishedDrive } from "../../_service"
 
-// The whole body is validated before anything is written: one bad sample is a 400 naming it
-// (`samples.3.lat`) and the batch is stored not at all. Late batches after Finish are taken and the
-// drive scored again until a lead has reviewed it (see lib/access/drive.ts recordingIsOpen).
-// The drive is read once, inside the transaction, locked so that Finish waits for this batch (drive-locks.ts).
+const params = z.object({ driveId: uuidParam })
+
+// The recorder sends a batch every 5 s or 50 samples (lib/recorder/batching.ts), so this is the hot path.
+// Statements for a new batch: the session (two, lib/auth/lucia.ts), the drive with the batch's claim (one),
+// then claim + insert + record + the live channel's notice in one statement (db/queries/samples.ts
+// ingestSampleBatch), which holds the drive FOR SHARE so that Finish (FOR UPDATE) waits for it or it for
+// Finish. A replayed batch is answered from its claim before its body is validated. A batch that arrives
+// after Finish goes through one transaction that stores it and scores the drive again (a new revision),
+// until a lead has reviewed the drive (see lib/access/drive.ts recordingIsOpen). The whole body is
+// validated before anything is written: one bad sample is a 400 naming it (`samples.3.lat`) and the batch
+// is stored not at all.
 export const POST = route<{ driveId: string }>(async (req, ctx) => {
-  const { user, db, driveId } = await driveRouteIds(ctx.params)
-  const { batchId, samples } = await parseJson(req, sampleBatchSchema)
-  const { result, followUp } = await db.transaction().execute(async (trx) => {
-    const drive = await lockDriveFor(trx, driveId, user)
-    const r = await insertSampleBatch(trx, drive.id, user.shopId, batchId, samples)
-    const followUp = !r.replayed && r.accepted > 0 ? await rescoreFinishedDrive(trx, drive, "late_samples", user.id) : undefined
-    return { result: r, followUp }
+  const { user } = await requireRole()
+  const { driveId } = await parseParams(ctx.params, params)
+  const text = await readRequestText(req)
+  const db = getDb()
+  const found = await findDriveAndBatch(db, driveId, user.shopId, peekBatchId(text))
+  const drive = assertDriveAccess(found?.drive, user, "record")
+  assertRecordingOpen(drive)
+  if (found!.claim) return Response.json(found!.claim)
+
+  const { batchId, samples } = parseWith(sampleBatchSchema, jsonFromText(text))
+  let result: BatchResult | null = null
+  let followUp: FollowUp | undefined
+  if (drive.status === "recording") result = await ingestSampleBatch(db, drive.id, user.shopId, batchId, samples)
+  // Late (the drive was finished, before this request or while it ran): store and score again, together.
+  result ??= await db.transaction().execute(async (trx) => {
+    const now = await lockDriveFor(trx, drive.id, user)
+    const r = await insertSampleBatch(trx, now.id, user.shopId, batchId, samples)
+    if (!r.replayed && r.accepted > 0) followUp = await rescoreFinishedDrive(trx, now, "late_samples", user.id)
+    return r
   })
-  noteSamplesStored(driveId, samples, result.storedTs)
+  // Committed: the live scorers of this process hear of it now, other processes through the notice.
+  noteSamplesStored(drive.id, samples, result.storedTs)
   sendFollowUp(followUp)
   const { storedTs: _storedTs, ...body } = result
   return Response.json(body)
 })
+
+// `{"batchId":"...",` at the start, as the recorder sends it: the id without parsing the samples. Only ids
+// with no escapes or control characters are read this way (what JSON.parse would give for them is the
+// same text); any other body is parsed whole, with the same depth and text checks as every body.
+const LEADING_BATCH_ID = /^\s*\{\s*"batchId"\s*:\s*"([^"\\\u0000-\u001f]{1,100})"\s*[,}]/
+
+function peekBatchId(text: string): string | null {
+  const m = LEADING_BATCH_ID.exec(text.slice(0, 160))
+  if (m) return m[1]!
+  try {
+    const body = jsonFromText(text) as { batchId?: unknown } | null
+    const id = body?.batchId
+    // An id the database cannot store (a NUL) is left to the full check, which names it.
+    return typeof id === "string" && id.length >= 1 && id.length <= 100 && !unstorableTextProblem(id) ? id : null
+  } catch {
+    return null
+  }
+}

@@ -1,0 +1,205 @@
+// Ingest at the recorder's real cadence (issue 10). They need the running app (BASE_URL) and its database
+// (DATABASE_URL); `npm run bench` starts both. One throwaway shop, deleted at the end.
+//   replayRefusalP50Ms     a replayed 2,000-sample batch answered from its claim, HTTP round trip, p50
+//   ingestCeilingRatio     closed-loop 50-sample POSTs through the API, against the same SQL sent straight
+//                          through pg (the session's two reads, the drive with the claim, the ingest statement)
+//   ingestAtCadenceP95Ms   100 simulated recorders sending every 5 s or 50 samples for 2 minutes, p95, 0 errors
+import { randomUUID } from "node:crypto"
+import { NodePostgresAdapter } from "@lucia-auth/adapter-postgresql"
+import pg from "pg"
+import { createDb, type Db } from "@/db/client"
+import { findDriveAndBatch, ingestSampleBatch } from "@/db/queries/samples"
+import { hashPassword } from "@/lib/auth/password"
+import type { Sample } from "@/lib/drive-file"
+import { SEND_AT_SAMPLES, SEND_EVERY_MS, SEND_MAX_SAMPLES } from "@/lib/recorder/batching"
+import { hourAt10Hz } from "./scoring"
+import type { BenchContext, BenchFigure } from "./types"
+
+const RECORDERS = 100
+const CADENCE_MS = Number(process.env.BENCH_CADENCE_SECONDS ?? 120) * 1000
+const CEILING_MS = 10_000
+const CEILING_CLIENTS = 8
+
+interface Rig {
+  db: Db
+  shopId: string
+  sessionId: string
+  post(path: string, body: unknown): Promise<{ status: number; ms: number }>
+  newDrive(): Promise<string>
+  uses: number
+}
+
+function rig(ctx: BenchContext): Promise<Rig> {
+  return ctx.memo("ingest-rig", async () => {
+    const baseUrl = ctx.env.BASE_URL!
+    const db = createDb(ctx.env.DATABASE_URL)
+    const { id: shopId } = await db.insertInto("shop").values({ name: `Bench ingest ${randomUUID().slice(0, 8)}`, settings: "{}" }).returning("id").executeTakeFirstOrThrow()
+    const userId = randomUUID()
+    const email = `ingest-${userId.slice(0, 8)}@bench.invalid`
+    const password = `bench-${randomUUID()}`
+    await db.insertInto("app_user").values({ id: userId, shop_id: shopId, email, name: "Bench technician", role: "technician", password_hash: await hashPassword(password) }).execute()
+    const address = `bench-ingest-${process.pid}`
+    const signIn = await fetch(`${baseUrl}/api/session`, {
+      method: "POST",
+      headers: { "content-type": "application/json", "x-forwarded-for": address },
+      body: JSON.stringify({ email, password }),
+    })
+    if (!signIn.ok) throw new Error(`bench sign-in failed: ${signIn.status}`)
+    const cookie = signIn.headers.get("set-cookie")!.split(";")[0]!
+    const sessionId = cookie.slice(cookie.indexOf("=") + 1)
+    const post = async (path: string, body: unknown) => {
+      const t0 = performance.now()
+      const res = await fetch(`${baseUrl}${path}`, {
+        method: "POST",
+        headers: { cookie, "x-forwarded-for": address, "content-type": "application/json" },
+        body: JSON.stringify(body),
+      })
+      await res.arrayBuffer()
+      return { status: res.status, ms: performance.now() - t0 }
+    }
+    return {
+      db,
+      shopId,
+      sessionId,
+      post,
+      uses: 0,
+      async newDrive() {
+        const id = randomUUID()
+        const res = await post("/api/drives", { id, vehicleDescription: "Bench ingest" })
+        if (res.status !== 201) throw new Error(`bench drive failed: ${res.status}`)
+        return id
+      },
+    }
+  })
+}
+
+/** The third figure to use the rig deletes its shop. */
+async function done(r: Rig) {
+  r.uses += 1
+  if (r.uses < 3) return
+  await r.db.deleteFrom("shop").where("id", "=", r.shopId).execute()
+  await r.db.destroy()
+}
+
+function percentileOf(values: number[], p: number) {
+  const sorted = [...values].sort((a, b) => a - b)
+  return sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)]!
+}
+
+/** `n` samples for batch number `k` of a drive: the bench hour's track, moved on in time so each `t` is new. */
+function batchSamples(all: readonly Sample[], k: number, n: number): Sample[] {
+  const start = (k * n) % (all.length - n)
+  const shift = Math.floor((k * n) / (all.length - n)) * 3_600_000
+  return all.slice(start, start + n).map((s) => ({ ...s, t: s.t + shift }))
+}
+
+export const replayRefusalP50Ms: BenchFigure = {
+  name: "replayRefusalP50Ms",
+  target: "<= 2",
+  unit: "ms",
+  requiresEnv: ["BASE_URL", "DATABASE_URL"],
+  async run(ctx) {
+    const r = await rig(ctx)
+    const { file } = hourAt10Hz(ctx)
+    const driveId = await r.newDrive()
+    const body = { batchId: `replay-${randomUUID()}`, samples: file.samples.slice(0, SEND_MAX_SAMPLES) }
+    const first = await r.post(`/api/drives/${driveId}/samples`, body)
+    if (first.status !== 200) throw new Error(`first post failed: ${first.status}`)
+    const times: number[] = []
+    for (let i = 0; i < 65; i++) {
+      const res = await r.post(`/api/drives/${driveId}/samples`, body)
+      if (res.status !== 200) throw new Error(`replay failed: ${res.status}`)
+      if (i >= 5) times.push(res.ms)
+    }
+    await done(r)
+    return percentileOf(times, 50)
+  },
+  meets: (v) => v <= 2,
+}
+
+/** POSTs (or their SQL) a second, from `clients` loops each sending 50-sample batches back to back. */
+async function closedLoop(clients: number, ms: number, send: (client: number, k: number) => Promise<void>) {
+  let count = 0
+  const until = performance.now() + ms
+  const t0 = performance.now()
+  await Promise.all(
+    Array.from({ length: clients }, async (_, c) => {
+      for (let k = 0; performance.now() < until; k++) {
+        await send(c, k)
+        count++
+      }
+    }),
+  )
+  return count / ((performance.now() - t0) / 1000)
+}
+
+export const ingestCeilingRatio: BenchFigure = {
+  name: "ingestCeilingRatio",
+  target: ">= 0.6",
+  requiresEnv: ["BASE_URL", "DATABASE_URL"],
+  async run(ctx) {
+    const r = await rig(ctx)
+    const { file } = hourAt10Hz(ctx)
+    const apiDrives = await Promise.all(Array.from({ length: CEILING_CLIENTS }, () => r.newDrive()))
+    const apiRate = await closedLoop(CEILING_CLIENTS, CEILING_MS, async (c, k) => {
+      const res = await r.post(`/api/drives/${apiDrives[c]}/samples`, { batchId: `api-${k}`, samples: batchSamples(file.samples, k, SEND_AT_SAMPLES) })
+      if (res.status !== 200) throw new Error(`ingest failed: ${res.status}`)
+    })
+    // The same statements the route runs, through a pool of the app's size, without HTTP, Next.js or validation.
+    const sqlDrives = await Promise.all(Array.from({ length: CEILING_CLIENTS }, () => r.newDrive()))
+    const pool = new pg.Pool({ connectionString: ctx.env.DATABASE_URL, max: Number(ctx.env.DATABASE_POOL_MAX ?? 10) })
+    const db = createDb(ctx.env.DATABASE_URL)
+    const sessions = new NodePostgresAdapter(pool, { user: "app_user", session: "user_session" })
+    const sqlRate = await closedLoop(CEILING_CLIENTS, CEILING_MS, async (c, k) => {
+      const batchId = `sql-${k}`
+      await sessions.getSessionAndUser(r.sessionId)
+      await findDriveAndBatch(db, sqlDrives[c]!, r.shopId, batchId)
+      const res = await ingestSampleBatch(db, sqlDrives[c]!, r.shopId, batchId, batchSamples(file.samples, k, SEND_AT_SAMPLES))
+      if (!res || res.replayed) throw new Error("the straight ingest did not store")
+    })
+    await pool.end()
+    await db.destroy()
+    await done(r)
+    console.error(`[bench] ingest ceiling: ${apiRate.toFixed(0)} POSTs/s through the API, ${sqlRate.toFixed(0)}/s straight through pg`)
+    return apiRate / sqlRate
+  },
+  meets: (v) => v >= 0.6,
+}
+
+let cadenceErrors = 0
+
+export const ingestAtCadenceP95Ms: BenchFigure = {
+  name: "ingestAtCadenceP95Ms",
+  target: "<= 100 with 0 errors",
+  unit: "ms",
+  requiresEnv: ["BASE_URL", "DATABASE_URL"],
+  async run(ctx) {
+    const r = await rig(ctx)
+    const { file } = hourAt10Hz(ctx)
+    const drives = await Promise.all(Array.from({ length: RECORDERS }, () => r.newDrive()))
+    const times: number[] = []
+    const start = performance.now()
+    await Promise.all(
+      drives.map(async (driveId, i) => {
+        // Each phone started at its own moment within the first send period; 10 Hz, so 50 samples every 5 s.
+        let next = start + (i / RECORDERS) * SEND_EVERY_MS
+        for (let k = 0; next - start < CADENCE_MS; k++) {
+          const wait = next - performance.now()
+          if (wait > 0) await new Promise((res) => setTimeout(res, wait))
+          try {
+            const res = await r.post(`/api/drives/${driveId}/samples`, { batchId: `c-${k}`, samples: batchSamples(file.samples, k, SEND_AT_SAMPLES) })
+            if (res.status === 200) times.push(res.ms)
+            else cadenceErrors++
+          } catch {
+            cadenceErrors++
+          }
+          next += SEND_EVERY_MS
+        }
+      }),
+    )
+    await done(r)
+    console.error(`[bench] ingest at cadence: ${times.length} POSTs, ${cadenceErrors} errors, p50 ${percentileOf(times, 50).toFixed(1)} ms, p99 ${percentileOf(times, 99).toFixed(1)} ms`)
+    return percentileOf(times, 95)
+  },
+  meets: (v) => v <= 100 && cadenceErrors === 0,
+}

@@ -1,0 +1,118 @@
+// Reads that must follow what is shown, not the shop's history: one shop with 100,000 drives over two
+// years, seeded here with generate_series (a few seconds), then the review queue's first page and the
+// numbers page's default 90 days read 40 times each. The shop is deleted at the end.
+import { randomUUID } from "node:crypto"
+import { sql } from "kysely"
+import { createDb, type Db } from "@/db/client"
+import { listDrivesForNumbers } from "@/db/queries/numbers"
+import { listReviewQueue } from "@/db/queries/reviews"
+import type { BenchContext, BenchFigure } from "./types"
+
+const DRIVES = 100_000
+const RUNS = 40
+
+interface BigShop {
+  db: Db
+  shopId: string
+  done: number
+}
+
+function bigShop(ctx: BenchContext): Promise<BigShop> {
+  return ctx.memo("reads-big-shop", async () => {
+    const db = createDb(ctx.env.DATABASE_URL)
+    const { id: shopId } = await db.insertInto("shop").values({ name: `Bench history ${randomUUID().slice(0, 8)}`, settings: "{}" }).returning("id").executeTakeFirstOrThrow()
+    await sql`
+      insert into app_user (id, shop_id, email, name, role, password_hash)
+      select 'bench-' || ${shopId}::text || '-' || i, ${shopId}::uuid, 'bench-' || ${shopId}::text || '-' || i || '@bench.invalid',
+             'Bench technician ' || i, 'technician', 'x'
+      from generate_series(1, 12) i`.execute(db)
+    await sql`
+      with p as (insert into condition_profile (shop_id, key, name, sensor)
+                 select ${shopId}::uuid, 'bench-' || i, 'Bench profile ' || i, 'forward_radar' from generate_series(1, 3) i returning id)
+      insert into condition_profile_version (shop_id, profile_id, version, settings) select ${shopId}::uuid, id, 1, '{}' from p`.execute(db)
+    // Two years of drives, about 137 a day; 98% finished, 70% met; older drives mostly reviewed.
+    await sql`
+      insert into drive (id, shop_id, vehicle_description, profile_version_id, profile, driver_id, status, verdict, review_status, created_at, finished_at)
+      select gen_random_uuid(), ${shopId}::uuid, 'Bench drive',
+             (select id from condition_profile_version where shop_id = ${shopId}::uuid order by id offset (i % 3) limit 1),
+             '{}'::jsonb, 'bench-' || ${shopId}::text || '-' || (1 + i % 12),
+             case when i % 50 = 0 then 'recording' else 'finished' end,
+             case when i % 50 = 0 then null when i % 10 < 7 then 'met' when i % 10 < 8 then 'short' when i % 10 < 9 then 'not_met' else 'unverified' end,
+             case when i % 50 = 0 then null when (i * 7919) % 100 < 40 then null when i % 13 = 0 then 'redo' else 'approved' end,
+             now() - make_interval(secs => (${DRIVES} - i) * (730 * 86400.0 / ${DRIVES})) - interval '40 minutes',
+             case when i % 50 = 0 then null else now() - make_interval(secs => (${DRIVES} - i) * (730 * 86400.0 / ${DRIVES})) end
+      from generate_series(1, ${DRIVES}) i`.execute(db)
+    // A score for every finished drive; the trigger copies its figures onto the drive.
+    await sql`
+      insert into score (drive_id, shop_id, verdict, result)
+      select d.id, d.shop_id, d.verdict, jsonb_build_object(
+        'verdict', d.verdict,
+        'durationSeconds', 900 + (h % 900),
+        'clearedAtSeconds', case when d.verdict = 'met' then 300 + (h % 600) else null end,
+        'qualifyingSecondsBeforeClear', 200 + (h % 400),
+        'followingSecondsBeforeClear', h % 120,
+        'harshEvents', jsonb_build_object('accel', case when h % 17 = 0 then 1 else 0 end, 'decel', case when h % 23 = 0 then 2 else 0 end),
+        'conditions', jsonb_build_array(
+          jsonb_build_object('key', 'speed', 'met', d.verdict = 'met' or h % 2 = 0),
+          jsonb_build_object('key', 'following', 'met', d.verdict = 'met' or h % 3 = 0),
+          jsonb_build_object('key', 'accuracy', 'met', d.verdict <> 'unverified')))
+      from (select id, shop_id, verdict, abs(hashtext(id::text)) as h from drive where shop_id = ${shopId}::uuid and status = 'finished') d`.execute(db)
+    // As autovacuum leaves a table that has settled (the trigger rewrote each drive row once).
+    await sql`vacuum analyze drive`.execute(db)
+    await sql`vacuum analyze score`.execute(db)
+    return { db, shopId, done: 0 }
+  })
+}
+
+async function finish(ctx: BenchContext, shop: BigShop) {
+  shop.done += 1
+  if (shop.done < 2) return
+  if (ctx.env.BENCH_KEEP_SEED) return void (await shop.db.destroy()) // to look at the plans afterwards
+  await shop.db.deleteFrom("shop").where("id", "=", shop.shopId).execute()
+  await shop.db.destroy()
+}
+
+async function p95Ms(fn: () => Promise<unknown>): Promise<number> {
+  for (let i = 0; i < 5; i++) await fn()
+  const times: number[] = []
+  for (let i = 0; i < RUNS; i++) {
+    const t0 = performance.now()
+    await fn()
+    times.push(performance.now() - t0)
+  }
+  times.sort((a, b) => a - b)
+  return times[Math.ceil(0.95 * times.length) - 1]!
+}
+
+export const reviewQueueP95Ms100k: BenchFigure = {
+  name: "reviewQueueP95Ms100k",
+  target: "<= 50",
+  unit: "ms",
+  requiresEnv: ["DATABASE_URL"],
+  async run(ctx) {
+    const shop = await bigShop(ctx)
+    const first = await listReviewQueue(shop.db, shop.shopId)
+    if (first.rows.length === 0) throw new Error("the seeded review queue is empty")
+    const ms = await p95Ms(() => listReviewQueue(shop.db, shop.shopId))
+    await finish(ctx, shop)
+    return ms
+  },
+  meets: (v) => v <= 50,
+}
+
+export const numbersP95Ms100k: BenchFigure = {
+  name: "numbersP95Ms100k",
+  target: "<= 50",
+  unit: "ms",
+  requiresEnv: ["DATABASE_URL"],
+  async run(ctx) {
+    const shop = await bigShop(ctx)
+    const since = new Date(Date.now() - 90 * 86_400_000)
+    const rows = await listDrivesForNumbers(shop.db, shop.shopId, since)
+    if (rows.length < 10_000) throw new Error(`expected about 12,000 drives in 90 days, got ${rows.length}`)
+    const ms = await p95Ms(() => listDrivesForNumbers(shop.db, shop.shopId, since))
+    await finish(ctx, shop)
+    return ms
+  },
+  meets: (v) => v <= 50,
+}
