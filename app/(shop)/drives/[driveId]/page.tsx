@@ -4,6 +4,7 @@ import { notFound } from "next/navigation"
 import { requirePageRole } from "@/app/_server/auth"
 import { loadRecordData } from "@/app/_server/record-data"
 import { SpeedChart, type ChartMark, type Stretch } from "@/components/charts/speed-chart"
+import { CalibrationsSection } from "@/components/record/calibrations-section"
 import { RecordSummary } from "@/components/record/record-summary"
 import { TrackSvg } from "@/components/record/track-svg"
 import { MarkTimeline } from "@/components/review/mark-timeline"
@@ -86,6 +87,7 @@ export default async function DrivePage({ params }: { params: Promise<{ driveId:
             <ShieldAlert aria-hidden className="mt-0.5 size-4 shrink-0 text-signal-700 dark:text-signal-300" />
             The score describes how the drive went. Whether the calibration is done is what the vehicle itself reports, following the maker&apos;s procedure; the score never replaces that.
           </p>
+          <CalibrationsSection calibrations={data.calibrations} />
           <Card>
             <h2 className="mb-2 text-lg font-semibold">Speed over time</h2>
             <SpeedChart
