@@ -6,6 +6,7 @@ import { requirePageRole } from "@/app/_server/auth"
 import { loadRecordData } from "@/app/_server/record-data"
 import { SpeedChart, type ChartMark, type Stretch } from "@/components/charts/speed-chart"
 import { LiveDrive } from "@/components/drives/live-drive"
+import { CalibrationsSection } from "@/components/record/calibrations-section"
 import { RecordSummary } from "@/components/record/record-summary"
 import { RevisionHistory } from "@/components/record/revision-history"
 import { TrackSvg } from "@/components/record/track-svg"
@@ -99,6 +100,7 @@ export default async function DrivePage({ params }: { params: Promise<{ driveId:
             <ShieldAlert aria-hidden className="mt-0.5 size-4 shrink-0 text-signal-700 dark:text-signal-300" />
             The score describes how the drive went. Whether the calibration is done is what the vehicle itself reports, following the maker&apos;s procedure; the score never replaces that.
           </p>
+          <CalibrationsSection calibrations={data.calibrations} />
           <Card>
             <h2 className="mb-2 text-lg font-semibold">Speed over time</h2>
             <SpeedChart
