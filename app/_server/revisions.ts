@@ -12,7 +12,7 @@ import type { RevisionCause, ScoreRevision } from "@/db/types"
 import type { AnyDriveFile } from "@/lib/drive-file/schema"
 import { env } from "@/lib/env"
 import { describeVehicle, roLabel, VERDICT_WORD } from "@/lib/record"
-import { recordDigest, verificationCode } from "@/lib/record/seal"
+import { canonicalDriveFile, recordDigest, verificationCode } from "@/lib/record/seal"
 import type { Score } from "@/lib/scoring"
 import { sendMailQuietly, type OutgoingMail } from "./mail"
 
@@ -49,9 +49,10 @@ export async function sealRevision(
     findLatestRevision(trx, drive.id, drive.shop_id),
   ])
   const sealed = { driveId: drive.id, driveFile, score: opts.score, review: review ? { decision: review.decision, note: review.note } : null }
-  if (latest && recordDigest({ ...sealed, revision: latest.revision }) === latest.digest) return { revision: latest, previous: null, created: false }
+  const fileJson = canonicalDriveFile(driveFile) // the bulk of the record: written once for both digests
+  if (latest && recordDigest({ ...sealed, revision: latest.revision }, fileJson) === latest.digest) return { revision: latest, previous: null, created: false }
   const revision = (latest?.revision ?? 0) + 1
-  const digest = recordDigest({ ...sealed, revision })
+  const digest = recordDigest({ ...sealed, revision }, fileJson)
   const made = await insertRevision(trx, {
     driveId: drive.id,
     shopId: drive.shop_id,

@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest"
-import { canonicalJson, canonicalRecord, normalizeCode, recordDigest, sha256Hex, verificationCode } from "@/lib/record/seal"
+import { canonicalDriveFile, canonicalJson, canonicalRecord, normalizeCode, recordDigest, sha256Hex, verificationCode } from "@/lib/record/seal"
+import { generateDrive } from "@/lib/tracks"
 
 describe("canonical JSON (RFC 8785, JSON Canonicalization Scheme)", () => {
   it("orders properties by UTF-16 code units and writes numbers the ECMAScript way (RFC 8785 section 3.2.2 example)", () => {
@@ -67,6 +68,16 @@ describe("the record digest and its verification code", () => {
       '{"driveFile":{"format":"straightaway.drive/1","marks":[],"profile":{"minSpeedMph":35},"samples":[{"lat":40,"lon":-75,"t":1}]},"driveId":"6f1e8c2a-0b7d-4e55-9a3c-1d2e3f405162","format":"straightaway.record/1","review":null,"revision":1,"score":{"reasons":[],"verdict":"met"}}',
     )
     expect(recordDigest(shuffled)).toBe(sha256Hex(canonicalRecord(base)))
+  })
+
+  it("writes a drive file exactly as the generic RFC 8785 canonicalizer does, samples with and without speed and accuracy", () => {
+    const file = generateDrive({ seed: 5, minutes: 8, pattern: "short" })
+    const mixed = { ...file, samples: file.samples.map((s, i) => (i % 3 === 0 ? { t: s.t, lat: s.lat, lon: s.lon } : i % 3 === 1 ? { ...s, speed: -0, accuracy: 1e21 } : s)) }
+    for (const f of [file, mixed, { ...file, samples: [{ t: 1, lat: 2, lon: 3, heading: 4 }] }, { format: "x" }]) {
+      expect(canonicalDriveFile(f)).toBe(canonicalJson(f))
+    }
+    const full = { format: "straightaway.record/1", driveId: base.driveId.toLowerCase(), revision: 3, driveFile: mixed, score: base.score, review: { decision: "redo", note: "Ä note" } }
+    expect(canonicalRecord({ ...base, revision: 3, driveFile: mixed, review: { decision: "redo", note: "Ä note" } })).toBe(canonicalJson(full))
   })
 
   it("changes with the revision number, the review and any sample", () => {
