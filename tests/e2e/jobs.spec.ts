@@ -74,7 +74,7 @@ describe("a job on a phone", () => {
     // so the form shows both and asks, the light-vehicle year first.
     await page.getByText("Model year 2025 or 1995?").waitFor()
     await page.getByTestId("vin-year-2025").click()
-    expect(await page.getByLabel("Year").inputValue()).toBe("2025")
+    expect(await page.locator("#vehicle-year").inputValue()).toBe("2025")
     await page.getByLabel("Make").fill("Halvard")
     await page.getByLabel("Model").fill("Ostra")
     await page.getByLabel("Why").selectOption("windshield_replaced")
