@@ -3,6 +3,7 @@
 import { Bar, BarChart, CartesianGrid, Legend, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts"
 import { Card } from "@/components/ui/card"
 import { CLEAR_BINS_MIN, clearBinLabel, type Numbers } from "@/lib/numbers"
+import { formatDay, formatDuration } from "@/lib/format"
 
 // Mid tones that keep 3:1 against both the light and the dark card (WCAG 1.4.11); the legend names each one.
 const PROFILE_COLOURS = ["#f5a30a", "#14a89a", "#7d8794", "#c98000", "#2fcbbb", "#aab1ba"]
@@ -25,9 +26,9 @@ export function TimeToClearChart({ data }: { data: Numbers["timeToClear"] }) {
   }))
   return (
     <Card>
-      <h2 className="text-lg font-semibold">Time to clear, by condition profile</h2>
+      <h2 className="text-lg font-semibold">Time to learn complete, by condition profile</h2>
       <p className="mb-2 text-sm text-graphite-600 dark:text-graphite-300">
-        Drives per band of minutes from start to the cleared mark. {profiles.map((p) => (p.cleared ? `${p.profileName}: median ${p.medianMinutes} min (${p.cleared} of ${p.drives} cleared)` : `${p.profileName}: none of ${p.drives} cleared`)).join(" · ")}
+        Drives per band of minutes from start to the learn-complete mark. {profiles.map((p) => (p.cleared ? `${p.profileName}: median ${formatDuration((p.medianMinutes ?? 0) * 60)} (${p.cleared} of ${p.drives} completed)` : `${p.profileName}: none of ${p.drives} completed`)).join(" · ")}
       </p>
       <div className="h-64 text-graphite-800 dark:text-graphite-100" data-testid="chart-time-to-clear">
         <ResponsiveContainer width="100%" height="100%">
@@ -56,9 +57,9 @@ export function VerdictMixChart({ data }: { data: Numbers["verdictMix"] }) {
         <ResponsiveContainer width="100%" height="100%">
           <BarChart data={data} margin={{ top: 8, right: 8, bottom: 4, left: -16 }}>
             <CartesianGrid strokeDasharray="3 3" stroke="currentColor" strokeOpacity={0.2} />
-            <XAxis dataKey="weekStart" tick={{ fontSize: 12, fill: "currentColor" }} stroke="currentColor" tickFormatter={(v: string) => v.slice(5)} />
+            <XAxis dataKey="weekStart" tick={{ fontSize: 12, fill: "currentColor" }} stroke="currentColor" tickFormatter={(v: string) => formatDay(`${v}T12:00:00Z`, "UTC")} />
             <YAxis allowDecimals={false} tick={{ fontSize: 12, fill: "currentColor" }} stroke="currentColor" />
-            <Tooltip contentStyle={TOOLTIP_STYLE} labelFormatter={(v) => `Week of ${v}`} />
+            <Tooltip contentStyle={TOOLTIP_STYLE} labelFormatter={(v) => `Week of ${formatDay(`${v}T12:00:00Z`, "UTC")}`} />
             <Legend formatter={legendText} />
             {VERDICT_SERIES.map((s) => (
               <Bar key={s.key} dataKey={s.key} name={s.name} stackId="v" fill={s.colour} isAnimationActive={false} />

@@ -83,7 +83,7 @@ function reason(c: Condition, score: Score, p: ResolvedProfile, units: UnitSyste
       return `Following time (lead ${gapWindow(p, units)} ahead, ${speedBand(p, units)}) ${when} ${formatDuration(c.value)}; ${formatMinutesSetting(p.minFollowingMinutes)} needed.`
     case "harsh-events": {
       const h = score.harshEvents ?? { accel: 0, decel: 0 }
-      return `${plural(h.decel, "hard-braking event")} (over ${formatAcceleration(p.maxDecelMps2)}) and ${plural(h.accel, "hard-acceleration event")} (over ${formatAcceleration(p.maxAccelMps2)}). Advisory: the verdict does not rest on it.`
+      return `${plural(h.decel, "hard-braking event")} over ${formatAcceleration(p.maxDecelMps2)} and ${plural(h.accel, "hard-acceleration event")} over ${formatAcceleration(p.maxAccelMps2)}. Advisory: the verdict does not rest on it.`
     }
     case "data-gaps":
       return `Position data stopped for ${formatDuration(c.value)} in total (pauses over ${formatDuration(p.maxGapSeconds)}); that time counts toward nothing.`

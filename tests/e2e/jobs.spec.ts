@@ -69,7 +69,12 @@ describe("a job on a phone", () => {
     await vinBox.fill(vin.slice(0, 10))
     await page.getByText("VIN has 10 characters; it needs 17.").waitFor()
     await vinBox.fill(vin)
-    await page.getByText(/Check digit .* is right · model year 2025/).waitFor()
+    await page.getByText(/Check digit .* is right/).waitFor()
+    // Position 10 'S' is 1995 or 2025 (49 CFR 565 year-code table); position 7 settles it only for light vehicles,
+    // so the form shows both and asks, the light-vehicle year first.
+    await page.getByText("Model year 2025 or 1995?").waitFor()
+    await page.getByTestId("vin-year-2025").click()
+    expect(await page.locator("#vehicle-year").inputValue()).toBe("2025")
     await page.getByLabel("Make").fill("Halvard")
     await page.getByLabel("Model").fill("Ostra")
     await page.getByLabel("Why").selectOption("windshield_replaced")

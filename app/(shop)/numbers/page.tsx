@@ -9,6 +9,7 @@ import { Card } from "@/components/ui/card"
 import { cn } from "@/components/ui/cn"
 import { PageHeader } from "@/components/ui/page-header"
 import { getDb } from "@/db/client"
+import { formatDuration } from "@/lib/format"
 
 export const metadata: Metadata = { title: "Numbers" }
 export const dynamic = "force-dynamic"
@@ -60,8 +61,8 @@ export default async function NumbersPage({ searchParams }: { searchParams: Prom
                       <dd>
                         {t.met} ({Math.round(t.metShare * 100)} %)
                       </dd>
-                      <dt className="text-graphite-600 dark:text-graphite-300">Median to clear</dt>
-                      <dd>{t.medianMinutesToClear == null ? "—" : `${t.medianMinutesToClear} min`}</dd>
+                      <dt className="text-graphite-600 dark:text-graphite-300">Median to learn complete</dt>
+                      <dd>{t.medianMinutesToClear == null ? "—" : formatDuration(t.medianMinutesToClear * 60)}</dd>
                       <dt className="text-graphite-600 dark:text-graphite-300">Harsh events</dt>
                       <dd>{t.harshEvents}</dd>
                       <dt className="text-graphite-600 dark:text-graphite-300">Sent back</dt>
@@ -79,7 +80,7 @@ export default async function NumbersPage({ searchParams }: { searchParams: Prom
                   <th scope="col" className="px-3 py-2 font-medium">Technician</th>
                   <th scope="col" className="px-3 py-2 font-medium">Drives</th>
                   <th scope="col" className="px-3 py-2 font-medium">Met</th>
-                  <th scope="col" className="px-3 py-2 font-medium">Median to clear</th>
+                  <th scope="col" className="px-3 py-2 font-medium">Median to learn complete</th>
                   <th scope="col" className="px-3 py-2 font-medium">Harsh events</th>
                   <th scope="col" className="px-3 py-2 font-medium">Sent back</th>
                 </tr>
@@ -92,7 +93,7 @@ export default async function NumbersPage({ searchParams }: { searchParams: Prom
                     <td className="tabular px-3 py-2">
                       {t.met} ({Math.round(t.metShare * 100)} %)
                     </td>
-                    <td className="tabular px-3 py-2">{t.medianMinutesToClear == null ? "—" : `${t.medianMinutesToClear} min`}</td>
+                    <td className="tabular px-3 py-2">{t.medianMinutesToClear == null ? "—" : formatDuration(t.medianMinutesToClear * 60)}</td>
                     <td className="tabular px-3 py-2">{t.harshEvents}</td>
                     <td className="tabular px-3 py-2">{t.sentBack}</td>
                   </tr>

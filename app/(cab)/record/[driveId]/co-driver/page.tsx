@@ -1,5 +1,4 @@
-import { ArrowLeft, MapPin } from "lucide-react"
-import Link from "next/link"
+import { MapPin } from "lucide-react"
 import { requirePageRole } from "@/app/_server/auth"
 import { RecorderApp } from "@/components/recorder/recorder-app"
 
@@ -9,9 +8,6 @@ export default async function CoDriverPage() {
   return (
     <>
       <div className="mb-3 space-y-2">
-        <Link href="/drives" className="inline-flex min-h-12 items-center gap-2 font-semibold underline-offset-4 hover:underline" data-testid="back-to-drives">
-          <ArrowLeft aria-hidden className="size-5" /> Back to drives
-        </Link>
         {/* Said before the browser asks, so the question does not come out of nowhere. */}
         <p className="flex items-start gap-2 text-sm text-graphite-300" data-testid="location-why">
           <MapPin aria-hidden className="mt-0.5 size-4 shrink-0" />
