@@ -145,12 +145,14 @@ export async function listCellTotals(db: Db, shopId: string, slot: { hour: numbe
   }))
 }
 
-export async function listLoopDrives(db: Db, shopId: string): Promise<LoopDrive[]> {
-  const rows = await db
+/** The drives the loops are ranked from; `hours` narrows to drives that started in those local hours. */
+export async function listLoopDrives(db: Db, shopId: string, hours?: number[]): Promise<LoopDrive[]> {
+  let q = db
     .selectFrom("road_drive")
     .select(["drive_id", "loop_id", "profile_id", "hour", "weekday", "start_lat", "start_lon", "driven_seconds", "qualifying_seconds", "cleared_seconds"])
     .where("shop_id", "=", shopId)
-    .execute()
+  if (hours) q = q.where("hour", "in", hours)
+  const rows = await q.execute()
   return rows.map((r) => ({
     driveId: r.drive_id,
     loopId: r.loop_id,
@@ -193,4 +195,14 @@ export async function listDrivesOfLoop(db: Db, loopId: string, shopId: string) {
     .where("shop_id", "=", shopId)
     .orderBy("started_at", "desc")
     .execute()
+}
+
+/** How many drives the shop's road model holds, and how many of them completed the learn. */
+export async function countRoadDrives(db: Db, shopId: string) {
+  const row = await db
+    .selectFrom("road_drive")
+    .select((e) => [e.fn.countAll<string>().as("drives"), e.fn.count<string>("cleared_seconds").as("completed")])
+    .where("shop_id", "=", shopId)
+    .executeTakeFirstOrThrow()
+  return { drives: Number(row.drives), completed: Number(row.completed) }
 }
