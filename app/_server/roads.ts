@@ -2,11 +2,11 @@
 // stored road model (db/queries/roads): never recomputed from samples.
 import "server-only"
 import type { Db } from "@/db/client"
-import { findLocationFromStarts, findRoadTracks, listCellTotals, listLoopDrives, listLoops } from "@/db/queries/roads"
+import { countRoadDrives, findLocationFromStarts, findRoadTracks, listCellTotals, listLoopDrives, listLoops } from "@/db/queries/roads"
 import { findShopSettings } from "@/db/queries/shop-settings"
 import { cellCentre, cellCorners } from "@/lib/roads/cells"
 import { dayKindOf, localSlot, type DayKind } from "@/lib/roads/clock"
-import { cellFigures, compassWord, rankLoops, TRUSTED_DRIVES, type CellFigures, type RankedLoop } from "@/lib/roads/model"
+import { cellFigures, compassWord, HOUR_WINDOW, rankLoops, TRUSTED_DRIVES, type CellFigures, type RankedLoop } from "@/lib/roads/model"
 import { geodesicDistanceM } from "@/lib/scoring/geodesy"
 import type { RoadsQuery } from "@/lib/validation/roads"
 
@@ -49,11 +49,12 @@ export async function loadRoadsView(db: Db, shopId: string, q: RoadsQuery, nowMs
   if (!settings.roadKnowledge) {
     return { ...base, enabled: false, location: null, drives: 0, completedDrives: 0, cells: [], loops: [] }
   }
-  const [drives, totals, loops, derived] = await Promise.all([
-    listLoopDrives(db, shopId),
+  const [drives, totals, loops, derived, counts] = await Promise.all([
+    listLoopDrives(db, shopId, hour == null ? undefined : hourWindow(hour)),
     withCells ? listCellTotals(db, shopId, { hour, weekday: null }) : Promise.resolve([]),
     listLoops(db, shopId),
     settings.location ? Promise.resolve(null) : findLocationFromStarts(db, shopId),
+    countRoadDrives(db, shopId),
   ])
   const location = settings.location
     ? { ...settings.location, source: "settings" as const }
@@ -85,11 +86,17 @@ export async function loadRoadsView(db: Db, shopId: string, q: RoadsQuery, nowMs
     ...base,
     enabled: true,
     location,
-    drives: drives.length,
-    completedDrives: drives.filter((d) => d.clearedSeconds != null).length,
+    drives: counts.drives,
+    completedDrives: counts.completed,
     cells,
     loops: loopViews,
   }
+}
+
+function hourWindow(hour: number): number[] {
+  const hours: number[] = []
+  for (let d = -HOUR_WINDOW; d <= HOUR_WINDOW; d++) hours.push((hour + d + 24) % 24)
+  return hours
 }
 
 function farthest(track: [number, number][], home: { lat: number; lon: number } | null) {

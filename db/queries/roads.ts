@@ -8,10 +8,12 @@ import {
   locationFromStarts,
   matchLoop,
   mergeStat,
+  statsFromStored,
   type CellStat,
   type CellTotals,
   type DriveContribution,
   type LoopDrive,
+  type StoredBucket,
 } from "@/lib/roads"
 import type { Score } from "@/lib/scoring"
 import type { Db } from "../client"
@@ -36,7 +38,7 @@ export async function applyDriveContribution(
   db: Db,
   drive: Pick<Drive, "id" | "shop_id" | "profile_version_id">,
   clearedSeconds: number | null,
-  { stats, summary }: DriveContribution,
+  { stats, buckets, summary }: DriveContribution,
 ) {
   const shopId = drive.shop_id
   const old = await db
@@ -48,38 +50,32 @@ export async function applyDriveContribution(
   const delta = new Map<string, CellStat>()
   const keyOf = (s: CellStat) => `${s.cell}|${s.hour}|${s.weekday}`
   for (const s of stats) delta.set(keyOf(s), s)
-  for (const s of (old?.contribution as CellStat[] | undefined) ?? []) {
+  for (const s of old ? statsFromStored(old.contribution as StoredBucket[]) : []) {
     const k = keyOf(s)
     const cur = delta.get(k)
     delta.set(k, cur ? mergeStat(cur, s, -1) : mergeStat({ ...s, seconds: 0, qualifyingSeconds: 0, followingSeconds: 0, harshEvents: 0, speedHist: s.speedHist.map(() => 0) }, s, -1))
   }
   // One order for every writer, so two drives scored at once lock the shared cell rows in the same order.
   const ordered = [...delta.values()].sort((a, b) => a.hour - b.hour || a.weekday - b.weekday || (a.cell < b.cell ? -1 : a.cell > b.cell ? 1 : 0))
-  const rows = ordered.map((s) => ({
-    shop_id: shopId,
-    cell: s.cell,
-    hour: s.hour,
-    weekday: s.weekday,
-    seconds: s.seconds,
-    qualifying_seconds: s.qualifyingSeconds,
-    following_seconds: s.followingSeconds,
-    harsh_events: s.harshEvents,
-    speed_hist: s.speedHist,
-  }))
-  for (let i = 0; i < rows.length; i += UPSERT_CHUNK) {
-    await db
-      .insertInto("road_cell_stat")
-      .values(rows.slice(i, i + UPSERT_CHUNK))
-      .onConflict((oc) =>
-        oc.columns(["shop_id", "hour", "weekday", "cell"]).doUpdateSet({
-          seconds: sql`road_cell_stat.seconds + excluded.seconds`,
-          qualifying_seconds: sql`road_cell_stat.qualifying_seconds + excluded.qualifying_seconds`,
-          following_seconds: sql`road_cell_stat.following_seconds + excluded.following_seconds`,
-          harsh_events: sql`road_cell_stat.harsh_events + excluded.harsh_events`,
-          speed_hist: sql`(select array_agg(coalesce(a, 0) + coalesce(b, 0) order by i) from unnest(road_cell_stat.speed_hist, excluded.speed_hist) with ordinality as u(a, b, i))`,
-        }),
-      )
-      .execute()
+  // One statement with one array per column (not a parameter per value): a long drive touches ~1,000 rows.
+  for (let i = 0; i < ordered.length; i += UPSERT_CHUNK) {
+    const part = ordered.slice(i, i + UPSERT_CHUNK)
+    await sql`
+      insert into road_cell_stat (shop_id, cell, hour, weekday, seconds, qualifying_seconds, following_seconds, harsh_events, speed_hist)
+      select ${shopId}::uuid, u.cell, u.hour, u.weekday, u.seconds, u.q, u.f, u.h, u.hist::float8[]
+      from unnest(
+        ${part.map((x) => x.cell)}::text[], ${part.map((x) => x.hour)}::int2[], ${part.map((x) => x.weekday)}::int2[],
+        ${part.map((x) => x.seconds)}::float8[], ${part.map((x) => x.qualifyingSeconds)}::float8[], ${part.map((x) => x.followingSeconds)}::float8[],
+        ${part.map((x) => x.harshEvents)}::int4[], ${part.map((x) => `{${x.speedHist.join(",")}}`)}::text[]
+      ) as u(cell, hour, weekday, seconds, q, f, h, hist)
+      on conflict (shop_id, hour, weekday, cell) do update set
+        seconds = road_cell_stat.seconds + excluded.seconds,
+        qualifying_seconds = road_cell_stat.qualifying_seconds + excluded.qualifying_seconds,
+        following_seconds = road_cell_stat.following_seconds + excluded.following_seconds,
+        harsh_events = road_cell_stat.harsh_events + excluded.harsh_events,
+        speed_hist = (select array_agg(coalesce(a, 0) + coalesce(b, 0) order by i)
+                      from unnest(road_cell_stat.speed_hist, excluded.speed_hist) with ordinality as u(a, b, i))
+    `.execute(db)
   }
   if (!summary) {
     await db.deleteFrom("road_drive").where("drive_id", "=", drive.id).where("shop_id", "=", shopId).execute()
@@ -104,7 +100,7 @@ export async function applyDriveContribution(
     cleared_seconds: clearedSeconds,
     route: summary.route,
     track: JSON.stringify(summary.track),
-    contribution: JSON.stringify(stats),
+    contribution: JSON.stringify(buckets),
   }
   await db
     .insertInto("road_drive")
@@ -149,12 +145,14 @@ export async function listCellTotals(db: Db, shopId: string, slot: { hour: numbe
   }))
 }
 
-export async function listLoopDrives(db: Db, shopId: string): Promise<LoopDrive[]> {
-  const rows = await db
+/** The drives the loops are ranked from; `hours` narrows to drives that started in those local hours. */
+export async function listLoopDrives(db: Db, shopId: string, hours?: number[]): Promise<LoopDrive[]> {
+  let q = db
     .selectFrom("road_drive")
     .select(["drive_id", "loop_id", "profile_id", "hour", "weekday", "start_lat", "start_lon", "driven_seconds", "qualifying_seconds", "cleared_seconds"])
     .where("shop_id", "=", shopId)
-    .execute()
+  if (hours) q = q.where("hour", "in", hours)
+  const rows = await q.execute()
   return rows.map((r) => ({
     driveId: r.drive_id,
     loopId: r.loop_id,
@@ -197,4 +195,14 @@ export async function listDrivesOfLoop(db: Db, loopId: string, shopId: string) {
     .where("shop_id", "=", shopId)
     .orderBy("started_at", "desc")
     .execute()
+}
+
+/** How many drives the shop's road model holds, and how many of them completed the learn. */
+export async function countRoadDrives(db: Db, shopId: string) {
+  const row = await db
+    .selectFrom("road_drive")
+    .select((e) => [e.fn.countAll<string>().as("drives"), e.fn.count<string>("cleared_seconds").as("completed")])
+    .where("shop_id", "=", shopId)
+    .executeTakeFirstOrThrow()
+  return { drives: Number(row.drives), completed: Number(row.completed) }
 }

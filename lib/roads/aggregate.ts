@@ -49,8 +49,13 @@ export interface DriveRoadSummary {
 
 export interface DriveContribution {
   stats: CellStat[]
+  /** The same, compact: one entry per (cell, weekday, hour) with the non-empty histogram buckets; what is stored. */
+  buckets: StoredBucket[]
   summary: DriveRoadSummary | null
 }
+
+/** [cell, weekday, hour, seconds, qualifying s, following s, harsh events, [bucket, seconds, bucket, seconds, ...]] */
+export type StoredBucket = [string, number, number, number, number, number, number, number[]]
 
 export function speedBucket(speedMps: number): number {
   return Math.min(SPEED_BUCKETS - 1, Math.floor(speedMps / MPS_PER_MPH / SPEED_BUCKET_MPH))
@@ -78,7 +83,7 @@ const newAcc = (): Acc => ({ seconds: 0, qualifyingSeconds: 0, followingSeconds:
 export function computeDriveContribution(file: AnyDriveFile, timeZone: string): DriveContribution {
   const profile = resolveProfile(file.profile)
   const samples = keptSamples(file.samples, profile)
-  if (samples.length < 2) return { stats: [], summary: null }
+  if (samples.length < 2) return { stats: [], buckets: [], summary: null }
   // Road-test check marks (format /2) say nothing about the lead vehicle: only the learn marks count here.
   const marks = file.marks.filter((m): m is Mark => m.kind !== "check").sort((a, b) => a.t - b.t)
   const locate = createCellLocator()
@@ -185,7 +190,33 @@ export function computeDriveContribution(file: AnyDriveFile, timeZone: string): 
     loopCells: [...loopSet].sort(),
     track: thin(track, 400),
   }
-  return { stats: rollUp(cells), summary }
+  return { stats: rollUp(cells), buckets: toStored(cells), summary }
+}
+
+function toStored(cells: Map<string, Acc>): StoredBucket[] {
+  const out: StoredBucket[] = []
+  for (const [key, acc] of cells) {
+    const [cell, weekday, hour] = key.split("|") as [string, string, string]
+    const hist: number[] = []
+    acc.speedHist.forEach((x, b) => x && hist.push(b, x))
+    out.push([cell, Number(weekday), Number(hour), acc.seconds, acc.qualifyingSeconds, acc.followingSeconds, acc.harshEvents, hist])
+  }
+  return out
+}
+
+/** The cell rows (all times, per hour, per weekday) of stored buckets: what a drive added, to take it back out. */
+export function statsFromStored(buckets: StoredBucket[]): CellStat[] {
+  const cells = new Map<string, Acc>()
+  for (const [cell, weekday, hour, seconds, q, f, h, hist] of buckets) {
+    const acc = newAcc()
+    acc.seconds = seconds
+    acc.qualifyingSeconds = q
+    acc.followingSeconds = f
+    acc.harshEvents = h
+    for (let i = 0; i + 1 < hist.length; i += 2) acc.speedHist[hist[i]!] = hist[i + 1]!
+    cells.set(`${cell}|${weekday}|${hour}`, acc)
+  }
+  return rollUp(cells)
 }
 
 /** Rows per cell: each (weekday, hour) folded into "all times", "this hour, any day" and "this weekday, any hour". */

@@ -1,6 +1,6 @@
 // Road knowledge figures. roadModelUpdateMs: adding one scored 36,000-sample drive to the road model, as
 // the scoring path does (load its samples, aggregate into cells, one upsert): the median of 5 runs.
-// roadsPageP95Ms: the Roads page (server-rendered) for a lead, with 2,000 drives in the shop's history:
+// roadsPageP95Ms: the Roads page (server-rendered, 10:00, any day) for a lead, with 2,000 drives in the shop's history:
 // the 95th percentile of 30 requests. Both need DATABASE_URL; the page also BASE_URL.
 import { randomUUID } from "node:crypto"
 import { createDb, type Db } from "@/db/client"
@@ -101,7 +101,7 @@ export const roadsPageP95Ms: BenchFigure = {
       if (!signIn.ok) throw new Error(`bench sign-in failed: ${signIn.status}`)
       const cookie = signIn.headers.get("set-cookie")!.split(";")[0]!
       const get = async () => {
-        const res = await fetch(`${baseUrl}/roads?hour=now&day=all`, { headers: { cookie } })
+        const res = await fetch(`${baseUrl}/roads?hour=10&day=all`, { headers: { cookie } })
         const html = await res.text()
         if (!res.ok || !html.includes('data-testid="road-map"')) throw new Error(`roads page: ${res.status}`)
       }

@@ -1,8 +1,10 @@
 // Road knowledge from the shop's own drives (issue 14): drives imported through the API are scored and
 // added to the road model; the ranking of loops follows the history, hour by hour; other shops see nothing.
+import { PDFParse } from "pdf-parse"
 import { beforeAll, describe, expect, it } from "vitest"
 import { createTestShop, testDb, type TestShop } from "../../helpers/db"
-import { signedIn, type ApiClient } from "../../helpers/http"
+import { testEnv } from "../../helpers/env"
+import { ApiClient, signedIn } from "../../helpers/http"
 import { generateRoadDrive, type RoadLayout } from "@/lib/tracks/roads"
 
 const HOME = { lat: 43.8731, lon: -91.9187 }
@@ -141,5 +143,25 @@ describe("road knowledge", () => {
     expect((await ownTech.get("/api/roads")).body).toMatchObject({ enabled: false, loops: [], cells: [] })
     expect((await ownTech.get("/api/roads/now")).body).toEqual({ enabled: false, line: null })
     expect((await ownTech.patch("/api/shop/settings", { roadKnowledge: true })).status).toBe(403)
+  })
+
+  it("never shows road knowledge on a drive's share page or its PDF", async () => {
+    const [driveId] = [...layoutOfDrive.entries()].find(([, key]) => key === "steady")!
+    const road = await testDb().selectFrom("road_drive").select(["loop_id", "route"]).where("drive_id", "=", driveId).executeTakeFirstOrThrow()
+    await testDb().updateTable("road_loop").set({ name: "Quillfeather Causeway" }).where("id", "=", road.loop_id!).execute()
+    const made = await lead.post(`/api/drives/${driveId}/share`, { expiresInDays: 1 })
+    expect(made.status).toBe(201)
+    const page = await new ApiClient().get(`/share/${made.body.token}`)
+    expect(page.status).toBe(200)
+    const pdfRes = await fetch(`${testEnv().baseUrl}/share/${made.body.token}/record`)
+    expect(pdfRes.status).toBe(200)
+    const parser = new PDFParse({ data: Buffer.from(await pdfRes.arrayBuffer()) })
+    const pdf = (await parser.getText()).text
+    await parser.destroy()
+    for (const text of [page.text, pdf]) {
+      expect(text).not.toContain("Quillfeather Causeway")
+      expect(text).not.toMatch(/good roads|road knowledge|best loop/i)
+      expect(text).not.toContain(road.route[0]!)
+    }
   })
 })

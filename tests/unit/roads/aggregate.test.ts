@@ -2,7 +2,7 @@ import { latLngToCell } from "h3-js"
 import { describe, expect, it } from "vitest"
 import type { DriveFile } from "@/lib/drive-file"
 import { resolveProfile } from "@/lib/drive-file/profile"
-import { ALL, ROAD_RESOLUTION, cellFigures, computeDriveContribution, medianFromHistogram, mergeStat, type CellStat } from "@/lib/roads"
+import { ALL, ROAD_RESOLUTION, cellFigures, computeDriveContribution, medianFromHistogram, mergeStat, statsFromStored, type CellStat } from "@/lib/roads"
 import { DEMO_ROAD_LAYOUTS, generateRoadDrive } from "@/lib/tracks/roads"
 
 const HOME = { lat: 43.8731, lon: -91.9187 }
@@ -147,6 +147,14 @@ describe("road model aggregation", () => {
     const back = mergeStat(mergeStat(one, one), one, -1)
     expect(back.seconds).toBeCloseTo(one.seconds, 9)
     expect(back.speedHist).toEqual(one.speedHist)
+  })
+
+  it("stores a compact form that gives back the same cell rows", () => {
+    const c = computeDriveContribution(files[1]!, ZONE)
+    const key = (r: CellStat) => `${r.cell}|${r.hour}|${r.weekday}`
+    const back = new Map(statsFromStored(JSON.parse(JSON.stringify(c.buckets))).map((r) => [key(r), r]))
+    expect(back.size).toBe(c.stats.length)
+    for (const r of c.stats) expect(back.get(key(r))).toEqual(r)
   })
 
   it("reads the median from the histogram inside its bucket", () => {
