@@ -2,13 +2,36 @@
 // - /api answers stay in the error shape: 405 with `Allow` for a method the route file does not export (from the
 //   generated table, app/_server/api-routes.generated.ts), a JSON 404 for /API/… spelt in another case, a 400
 //   for a path whose %-escapes are not UTF-8 text;
-// - pages with such a path get the app's 404 page instead of a 500.
+// - pages with such a path get the app's 404 page instead of a 500;
+// - every page gets a content security policy with a fresh nonce (lib/http/security-headers.ts), and HSTS over HTTPS.
 import { NextResponse, type NextRequest } from "next/server"
 import { API_ROUTES } from "@/app/_server/api-routes.generated"
 import { allowedMethods, isWellFormedPath, matchApiRoute } from "@/lib/api-route-match"
+import { contentSecurityPolicy, STRICT_TRANSPORT_SECURITY } from "@/lib/http/security-headers"
 
 function apiError(status: number, code: string, message: string, headers: Record<string, string> = {}) {
   return Response.json({ error: { code, message } }, { status, headers: { "cache-control": "no-store", ...headers } })
+}
+
+/** Over HTTPS: the request itself, a proxy that says so (only when proxies are trusted), or an https APP_URL. */
+function servedOverHttps(req: NextRequest) {
+  if (req.nextUrl.protocol === "https:") return true
+  if (process.env.TRUST_PROXY && process.env.TRUST_PROXY !== "0" && req.headers.get("x-forwarded-proto")?.split(",")[0]?.trim() === "https") return true
+  return (process.env.APP_URL ?? "").startsWith("https:")
+}
+
+/** The page answer with its CSP (and the nonce handed to the render through the request headers). */
+function page(req: NextRequest, answer: (init: { request: { headers: Headers } }) => NextResponse) {
+  const nonce = Buffer.from(crypto.randomUUID()).toString("base64")
+  const https = servedOverHttps(req)
+  const csp = contentSecurityPolicy(nonce, { https, dev: process.env.NODE_ENV === "development" })
+  const headers = new Headers(req.headers)
+  headers.set("x-nonce", nonce)
+  headers.set("content-security-policy", csp)
+  const res = answer({ request: { headers } })
+  res.headers.set("content-security-policy", csp)
+  if (https) res.headers.set("strict-transport-security", STRICT_TRANSPORT_SECURITY)
+  return res
 }
 
 export function proxy(req: NextRequest) {
@@ -20,7 +43,7 @@ export function proxy(req: NextRequest) {
   if (!isApi && /^\/api(\/|$)/i.test(pathname)) return apiError(404, "not_found", "There is no such API route.")
   if (!isWellFormedPath(pathname)) {
     if (isApi) return apiError(400, "invalid_request", "The address is not valid: a %-escape in it is not UTF-8 text.")
-    return NextResponse.rewrite(new URL("/_malformed-address", req.url), { status: 404 })
+    return page(req, (init) => NextResponse.rewrite(new URL("/_malformed-address", req.url), { ...init, status: 404 }))
   }
   if (isApi) {
     const route = matchApiRoute(pathname, API_ROUTES)
@@ -37,7 +60,12 @@ export function proxy(req: NextRequest) {
     url.pathname = pathname
     return isApi ? NextResponse.rewrite(url) : NextResponse.redirect(url, 308)
   }
-  return NextResponse.next()
+  if (isApi) {
+    const res = NextResponse.next()
+    if (servedOverHttps(req)) res.headers.set("strict-transport-security", STRICT_TRANSPORT_SECURITY)
+    return res
+  }
+  return page(req, (init) => NextResponse.next(init))
 }
 
 export const config = {

@@ -67,22 +67,29 @@ registerRoute(
   }),
 )
 
-// Signed-in pages asked for by the app (the recorder and the drive list), fetched once so they open offline
-// even if they were never visited on this phone.
+// Signed-in pages asked for by the app (the recorder, the co-driver page, the drive list), fetched so they open
+// offline even if they were never visited on this phone. The answer (on the message's port) lists what is saved,
+// so the app says "ready for offline" only once the recorder really is in the cache.
 self.addEventListener("message", (event) => {
   if (event.data?.type !== "WARM" || !Array.isArray(event.data.urls)) return
+  const reply = event.ports?.[0]
   event.waitUntil(
     (async () => {
+      const saved: string[] = []
       for (const url of event.data.urls as string[]) {
         if (typeof url !== "string" || !url.startsWith("/")) continue
         try {
           const res = await fetch(url, { credentials: "same-origin" })
           const cache = await caches.open(url.startsWith("/record") ? SHELL : PAGES)
-          if (res.ok && !res.redirected) await cache.put(url, res)
+          if (res.ok && !res.redirected) {
+            await cache.put(url, res)
+            saved.push(url)
+          }
         } catch {
           // offline: the next visit warms it
         }
       }
+      reply?.postMessage({ type: "WARMED", saved })
     })(),
   )
 })

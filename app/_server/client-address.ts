@@ -1,14 +1,12 @@
 import "server-only"
-import { env } from "@/lib/env"
+import { pickClientAddress, trustedProxyHops } from "@/lib/auth/client-address"
 
 /**
- * The client's address for sign-in throttling.
- * NOTE: `next start` fills x-forwarded-for with the socket's address only when the request has none, so a client
- * talking to Next directly can choose it. Run behind a proxy that sets the header (TRUST_PROXY=1 then takes its
- * first entry); the per-e-mail limit does not depend on the address at all.
+ * The client's address for sign-in throttling, or null when it cannot be known.
+ * `next start` sets X-Forwarded-For only when a request has none, so a client talking to Next directly can write it:
+ * without TRUST_PROXY the header is not read at all (safe default). Behind proxies that append to the header,
+ * TRUST_PROXY=N (1 or `true` for one proxy) takes the N-th entry from the right (lib/auth/client-address.ts).
  */
-export function clientAddress(req: Request): string {
-  const forwarded = (req.headers.get("x-forwarded-for") ?? "").split(",").map((s) => s.trim()).filter(Boolean)
-  if (!forwarded.length) return "unknown"
-  return (env().TRUST_PROXY ? forwarded[0] : forwarded.at(-1)) ?? "unknown"
+export function clientAddress(req: Request): string | null {
+  return pickClientAddress(req.headers.get("x-forwarded-for"), trustedProxyHops(process.env.TRUST_PROXY))
 }

@@ -33,15 +33,19 @@ function printedTime(at: Date) {
   return `${new Date(at).toISOString().slice(0, 16).replace("T", " ")} UTC`
 }
 
-export async function verifyRecord(db: Db, clientAddress: string, input: VerifyInput): Promise<VerifyAnswer> {
-  const seen = await countRecentVerifyAttempts(db, clientAddress, VERIFY_WINDOW_SECONDS)
+/**
+ * `clientAddress` is null when no trusted proxy names the client (TRUST_PROXY unset): then no per-address limit
+ * applies, as for sign-in, so no client can lock others out; a code is 60 random bits, too many to guess.
+ */
+export async function verifyRecord(db: Db, clientAddress: string | null, input: VerifyInput): Promise<VerifyAnswer> {
+  const seen = clientAddress ? await countRecentVerifyAttempts(db, clientAddress, VERIFY_WINDOW_SECONDS) : { unmatched: 0, all: 0, oldest: null }
   if (seen.unmatched >= MAX_UNMATCHED_VERIFY || seen.all >= MAX_VERIFY) {
     const wait = seen.oldest ? Math.max(1, Math.ceil((new Date(seen.oldest).getTime() + VERIFY_WINDOW_SECONDS * 1000 - Date.now()) / 1000)) : VERIFY_WINDOW_SECONDS
     throw new AppError("too_many_attempts", `Too many checks from this address. Try again in ${Math.ceil(wait / 60)} min.`, undefined, { "Retry-After": String(wait) })
   }
   const found = "code" in input ? await findRevisionByCode(db, input.code) : await findRevisionByPdfHash(db, sha256Hex(input.pdf))
   const head = found ? await findDriveRecordHead(db, found.drive_id, found.shop_id) : undefined
-  await insertVerifyAttempt(db, clientAddress, Boolean(found && head))
+  if (clientAddress) await insertVerifyAttempt(db, clientAddress, Boolean(found && head))
   if (!found || !head) {
     return {
       result: "no_match",

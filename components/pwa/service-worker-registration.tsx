@@ -1,11 +1,15 @@
 "use client"
 import { RefreshCw } from "lucide-react"
+import { usePathname } from "next/navigation"
 import { useEffect, useState } from "react"
 import type { Workbox } from "workbox-window"
 import { getActiveDrive } from "@/lib/recorder/idb-outbox"
 
 /** Pages the recorder needs with no network, fetched into the worker's cache once signed in. */
 const WARM_URLS = ["/record", "/drives"]
+
+/** Pages where nobody is signed in yet: warming there would only save the sign-in redirect. */
+const SIGNED_OUT_PATHS = /^\/(sign-in|share)(\/|$)/
 
 /**
  * Registers /sw.js. When a new worker is waiting it offers a reload, but never while a drive is
@@ -15,6 +19,8 @@ export function ServiceWorkerRegistration() {
   const [wb, setWb] = useState<Workbox | null>(null)
   const [waiting, setWaiting] = useState(false)
   const [driving, setDriving] = useState(true)
+  const [offlineReady, setOfflineReady] = useState(false)
+  const pathname = usePathname()
 
   useEffect(() => {
     if (!("serviceWorker" in navigator) || process.env.NODE_ENV !== "production") return
@@ -25,8 +31,7 @@ export function ServiceWorkerRegistration() {
         if (gone) return
         const workbox = new Workbox("/sw.js", { scope: "/" })
         workbox.addEventListener("waiting", () => setWaiting(true))
-        workbox.addEventListener("activated", () => void workbox.messageSW({ type: "WARM", urls: WARM_URLS }))
-        void workbox.register().then(() => workbox.messageSW({ type: "WARM", urls: WARM_URLS }).catch(() => {}))
+        void workbox.register()
         setWb(workbox)
       })
     const whenIdle = () => ("requestIdleCallback" in window ? requestIdleCallback(register, { timeout: 2000 }) : setTimeout(register, 200))
@@ -37,6 +42,28 @@ export function ServiceWorkerRegistration() {
       window.removeEventListener("load", whenIdle)
     }
   }, [])
+
+  // Once signed in (any page but sign-in and share, including after a client-side move from sign-in), the worker
+  // saves the recorder pages, this very /record… page among them; "ready for offline" (data-offline-ready on <html>)
+  // only when it answers that /record is saved. Asked again on each move until it is.
+  useEffect(() => {
+    if (!wb || !pathname || SIGNED_OUT_PATHS.test(pathname)) return
+    const ownRecorderPage = pathname.startsWith("/record/")
+    if (offlineReady && !ownRecorderPage) return
+    const urls = ownRecorderPage ? [...WARM_URLS, pathname] : WARM_URLS
+    let cancelled = false
+    void wb
+      .messageSW({ type: "WARM", urls })
+      .then((answer: { saved?: string[] } | undefined) => {
+        if (cancelled || !answer?.saved?.includes("/record")) return
+        document.documentElement.dataset.offlineReady = "1"
+        setOfflineReady(true)
+      })
+      .catch(() => {})
+    return () => {
+      cancelled = true
+    }
+  }, [wb, pathname, offlineReady])
 
   useEffect(() => {
     if (!waiting) return

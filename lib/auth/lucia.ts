@@ -10,7 +10,8 @@ export type SessionUser = { id: string; email: string; name: string; role: Role;
 export function createLucia(pool: pg.Pool, { secure }: { secure: boolean }) {
   return new Lucia(new NodePostgresAdapter(pool, { user: "app_user", session: "user_session" }), {
     sessionExpiresIn: new TimeSpan(12, "h"),
-    sessionCookie: { name: "straightaway_session", expires: false, attributes: { secure, sameSite: "lax", path: "/" } },
+    // expires: the cookie lasts as long as the session (12 h, renewed when the session slides), not 400 days.
+    sessionCookie: { name: "straightaway_session", expires: true, attributes: { secure, sameSite: "lax", path: "/" } },
     getUserAttributes: (row) => ({
       email: row.email,
       name: row.name,

@@ -16,8 +16,10 @@ const WRONG = "That e-mail and password do not match an active account."
 export const POST = route(async (req) => {
   const { email, password } = await parseJson(req, signInSchema)
   const db = getDb()
+  // No trusted address (no proxy configured): only the per-e-mail limit applies, so no client can lock others out.
   const address = clientAddress(req)
-  const wait = computeRetryAfterSeconds(await countRecentSignInFailures(db, email, address, SIGN_IN_WINDOW_SECONDS))
+  const counts = await countRecentSignInFailures(db, email, address ?? "", SIGN_IN_WINDOW_SECONDS)
+  const wait = computeRetryAfterSeconds(address ? counts : { ...counts, byAddress: 0, oldestByAddress: null })
   if (wait > 0) {
     throw new AppError("too_many_attempts", `Too many failed sign-ins. Try again in ${Math.ceil(wait / 60)} min.`, undefined, {
       "Retry-After": String(wait),
@@ -26,7 +28,7 @@ export const POST = route(async (req) => {
   const user = await findUserByEmail(db, email)
   const ok = user && !user.disabled ? await verifyPassword(user.password_hash, password) : await verifyAgainstDummy(password)
   if (!user || !ok || user.disabled) {
-    await insertSignInFailure(db, email, address)
+    await insertSignInFailure(db, email, address ?? "")
     throw new AppError("not_signed_in", WRONG)
   }
   await clearSignInFailures(db, email)
