@@ -2,6 +2,8 @@
 // or a PDF's bytes -> which revision of which record it is, and whether a newer one exists. It answers with
 // no more than the PDF itself prints (shop, vehicle, verdict, revision and when it was sealed).
 import "server-only"
+import { findShopSettings } from "@/db/queries/shop-settings"
+import { formatDateTime } from "@/lib/format"
 import type { Db } from "@/db/client"
 import { findDriveRecordHead } from "@/db/queries/reviews"
 import { countRecentVerifyAttempts, findRevisionByCode, findRevisionByPdfHash, insertVerifyAttempt } from "@/db/queries/revisions"
@@ -28,9 +30,9 @@ export type VerifyAnswer =
     }
   | { result: "no_match"; message: string }
 
-/** "2026-12-02 11:40 UTC", exactly as the PDF prints when a revision was sealed. */
-function printedTime(at: Date) {
-  return `${new Date(at).toISOString().slice(0, 16).replace("T", " ")} UTC`
+/** When the revision was sealed, exactly as the PDF prints it: in the shop's time zone, named. */
+async function printedTime(db: Db, shopId: string, at: Date) {
+  return formatDateTime(at, (await findShopSettings(db, shopId)).timeZone, { zoneName: true })
 }
 
 /**
@@ -60,7 +62,7 @@ export async function verifyRecord(db: Db, clientAddress: string | null, input: 
     shopName: head.shop_name,
     vehicle: describeVehicle(head.vin ? { year: head.vehicle_year, make: head.vehicle_make, model: head.vehicle_model } : null, head.vehicle_description),
     verdict: VERDICT_WORD[found.verdict],
-    sealedAt: printedTime(found.created_at),
+    sealedAt: await printedTime(db, found.shop_id, found.created_at),
   }
   const what = "code" in input ? "This code" : "This file"
   return latest > found.revision

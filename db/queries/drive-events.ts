@@ -122,19 +122,22 @@ export async function insertMarksNotifying(
   const kinds = marks.map((m) => m.kind)
   const gaps = marks.map((m) => m.gapFt ?? null)
   const texts = marks.map((m) => m.text ?? null)
+  // Road-test check marks (drive file /2) carry their check and its result.
+  const checkKeys = marks.map((m) => m.checkKey ?? null)
+  const results = marks.map((m) => m.result ?? null)
   const result = await sql<{ body: Mark & { id: string; seq: number } }>`
     with ins as (
-      insert into mark (id, drive_id, shop_id, t, kind, gap_ft, text, created_by)
-      select u.id, ${driveId}::uuid, ${shopId}::uuid, u.t, u.kind, u.gap_ft, u.text, ${createdBy}::text
-      from unnest(${ids}::uuid[], ${ts}::bigint[], ${kinds}::text[], ${gaps}::float8[], ${texts}::text[])
-        with ordinality as u(id, t, kind, gap_ft, text, ord)
+      insert into mark (id, drive_id, shop_id, t, kind, gap_ft, text, check_key, result, created_by)
+      select u.id, ${driveId}::uuid, ${shopId}::uuid, u.t, u.kind, u.gap_ft, u.text, u.check_key, u.result, ${createdBy}::text
+      from unnest(${ids}::uuid[], ${ts}::bigint[], ${kinds}::text[], ${gaps}::float8[], ${texts}::text[], ${checkKeys}::text[], ${results}::text[])
+        with ordinality as u(id, t, kind, gap_ft, text, check_key, result, ord)
       order by u.ord
       on conflict (id) do nothing
-      returning id, t, kind, gap_ft, text, seq
+      returning id, t, kind, gap_ft, text, check_key, result, seq
     ), ev as (
       insert into drive_event (drive_id, shop_id, kind, body)
       select ${driveId}::uuid, ${shopId}::uuid, 'mark',
-        jsonb_strip_nulls(jsonb_build_object('id', id, 't', t, 'kind', kind, 'gapFt', gap_ft, 'text', text, 'seq', seq))
+        jsonb_strip_nulls(jsonb_build_object('id', id, 't', t, 'kind', kind, 'gapFt', gap_ft, 'text', text, 'checkKey', check_key, 'result', result, 'seq', seq))
       from ins order by seq
       returning id, kind, body
     )

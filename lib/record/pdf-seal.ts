@@ -3,6 +3,7 @@
 // layout and its seal can change independently.
 import { type PDFFont, type PDFPage, rgb } from "pdf-lib"
 import QRCode from "qrcode"
+import { formatDateTime } from "@/lib/format"
 import type { RecordSeal } from "./types"
 
 const INK = rgb(0.1, 0.12, 0.14)
@@ -13,8 +14,13 @@ export function verifyLink(seal: RecordSeal): string {
   return `${seal.verifyUrl}?code=${encodeURIComponent(seal.code)}`
 }
 
-export function revisionLine(seal: RecordSeal): string {
-  return `Revision ${seal.revision} of this record, sealed ${seal.revisedAt.slice(0, 16).replace("T", " ")} UTC. Verification code ${seal.code}.`
+/** When the revision was sealed, in the shop's time zone with the zone named, as every time on the record. */
+export function sealedAtWords(seal: RecordSeal, timeZone?: string | null): string {
+  return formatDateTime(seal.revisedAt, timeZone, { zoneName: true })
+}
+
+export function revisionLine(seal: RecordSeal, timeZone?: string | null): string {
+  return `Revision ${seal.revision} of this record, sealed ${sealedAtWords(seal, timeZone)}. Verification code ${seal.code}.`
 }
 
 /** Draws the QR code with its top-left corner at (x, top); returns its side in points. */
@@ -34,10 +40,10 @@ export function drawQrCode(page: PDFPage, text: string, x: number, top: number, 
 }
 
 /** The text lines beside the QR code. */
-export function verificationLines(seal: RecordSeal): Array<{ text: string; bold?: boolean; muted?: boolean }> {
+export function verificationLines(seal: RecordSeal, timeZone?: string | null): Array<{ text: string; bold?: boolean; muted?: boolean }> {
   return [
     { text: `Verification code: ${seal.code}`, bold: true },
-    { text: `Revision ${seal.revision}, sealed ${seal.revisedAt.slice(0, 16).replace("T", " ")} UTC.` },
+    { text: `Revision ${seal.revision}, sealed ${sealedAtWords(seal, timeZone)}.` },
     { text: `Check it at ${seal.verifyUrl}: scan the square or type the code, or upload this PDF.` },
     { text: "The page says whether this is the latest revision of the record the shop issued.", muted: true },
     { text: "Every change to the drive's record after the finish makes a new revision with its own code.", muted: true },

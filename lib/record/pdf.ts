@@ -153,7 +153,7 @@ export async function buildDriveRecordPdf(data: RecordData): Promise<Uint8Array>
   w.text(`${data.shopName} - calibration drive on public roads`, { size: 11, color: MUTED, gap: 4 })
   w.text(`Made ${fmtDateTime(data.generatedAt)}. Drive ${data.driveId}.`, { size: 8, color: MUTED, gap: 0 })
   w.text(`Times are in the shop's time zone, ${describeTimeZone(zone, data.startedAt ?? data.generatedAt)}.`, { size: 8, color: MUTED, gap: 8 })
-  if (data.seal) w.text(revisionLine(data.seal), { size: 8, color: MUTED, gap: 8 })
+  if (data.seal) w.text(revisionLine(data.seal, data.timeZone), { size: 8, color: MUTED, gap: 8 })
 
   // Verdict box
   w.ensure(60)
@@ -296,7 +296,7 @@ function drawVerification(w: Writer, data: RecordData) {
   if (!data.seal) return
   const side = 96
   const textX = MARGIN + side + 16
-  const items = verificationLines(data.seal)
+  const items = verificationLines(data.seal, data.timeZone)
   const wrapped = items.map((l) => w.wrap(l.text, l.bold ? w.bold : w.font, 10, CONTENT_W - side - 16))
   const textHeight = wrapped.reduce((h, lines) => h + lines.length * 13.5 + 2, 0)
   w.ensure(Math.max(side, textHeight) + 50)

@@ -36,6 +36,10 @@ function driveOn(context: BrowserContext, from: number) {
     stop: async () => {
       on = false
       await done
+      // Parked: one more fix a centimetre on, so the phone's speed falls to about zero (Finish shows only when stopped).
+      const s = ROUTE[i - 1]!
+      await pause(600)
+      await context.setGeolocation({ latitude: s.lat + 1e-7, longitude: s.lon, accuracy: 5 })
       return i
     },
   }
@@ -109,6 +113,7 @@ describe("the road test on a phone", () => {
     await expect.poll(() => page.getByTestId("mark-count").getAttribute("data-value")).toBe("5")
     await page.screenshot({ path: "/tmp/roadtest-co-driver.png", fullPage: true })
 
+    await expect.poll(() => page.getByTestId("recording-screen").getAttribute("data-moving"), { timeout: 10_000 }).toBe("false")
     await page.getByTestId("finish-drive").click()
     await page.getByTestId("finish-confirm").click()
     await page.getByTestId("finish-screen").waitFor()

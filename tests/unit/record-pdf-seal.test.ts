@@ -48,7 +48,8 @@ describe("the drive record's seal", () => {
 
   it("prints the revision, the verification code and the verify address", async () => {
     const text = (await pdfText(await buildDriveRecordPdf(record(seal)))).replace(/\s+/g, " ")
-    expect(text).toContain("Revision 2 of this record, sealed 2026-01-02 07:55 UTC. Verification code 04HM-ASW9-NF6Y.")
+    // the shop's zone (US Central by default): 07:55 UTC is 01:55 CST (UTC-6 in January)
+    expect(text).toContain("Revision 2 of this record, sealed Jan 2, 2026, 1:55 AM CST. Verification code 04HM-ASW9-NF6Y.")
     expect(text).toContain("Check this record")
     expect(text).toContain("Verification code: 04HM-ASW9-NF6Y")
     expect(text).toContain("https://shop.example.invalid/verify")

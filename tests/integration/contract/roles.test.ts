@@ -130,7 +130,7 @@ const ROWS: Row[] = [
     call: (c) => c.request("PUT", `/api/jobs/${w.job.id}/tasks/${w.job.taskId}/checklist`, checklistBody()),
   },
   { route: "PATCH /api/jobs/:id", expect: allow(["technician", "shop_lead"], 200), call: (c) => c.patch(`/api/jobs/${w.job.id}`, { customer: { name: "Wren Castellano" } }) },
-  { route: "GET /api/attachments/:id", expect: allow(EVERYONE, 302), call: (c) => c.get(`/api/attachments/${w.attachmentId}`) },
+  { route: "GET /api/attachments/:id", expect: allow(EVERYONE, 200), call: (c) => c.get(`/api/attachments/${w.attachmentId}`) },
   { route: "GET /api/people", expect: allow(["technician", "shop_lead"], 200), call: (c) => c.get("/api/people?role=co_driver") },
   { route: "GET /api/users", expect: allow([], 200), call: (c) => c.get("/api/users") },
   {
