@@ -1,4 +1,5 @@
-// npm run bench [-- --json]: prints each figure with its target; --json prints one JSON object.
+// npm run bench [-- --json] [-- --only a,b]: prints each figure with its target; --json prints one JSON object;
+// --only runs just the named figures.
 import { figures } from "./bench/index"
 import type { BenchContext, BenchResult } from "./bench/types"
 
@@ -12,8 +13,12 @@ const ctx: BenchContext = {
   },
 }
 
+const onlyAt = process.argv.indexOf("--only")
+const only = onlyAt >= 0 ? new Set((process.argv[onlyAt + 1] ?? "").split(",").filter(Boolean)) : null
+
 const results: BenchResult[] = []
 for (const f of figures) {
+  if (only && !only.has(f.name)) continue
   const missing = (f.requiresEnv ?? []).filter((name) => !process.env[name])
   const base = { name: f.name, target: f.target, ...(f.unit ? { unit: f.unit } : {}) }
   if (missing.length > 0) {
