@@ -7,7 +7,7 @@
 import { NextResponse, type NextRequest } from "next/server"
 import { API_ROUTES } from "@/app/_server/api-routes.generated"
 import { allowedMethods, isWellFormedPath, matchApiRoute } from "@/lib/api-route-match"
-import { contentSecurityPolicy, STRICT_TRANSPORT_SECURITY } from "@/lib/http/security-headers"
+import { contentSecurityPolicy, originOf, STRICT_TRANSPORT_SECURITY } from "@/lib/http/security-headers"
 
 function apiError(status: number, code: string, message: string, headers: Record<string, string> = {}) {
   return Response.json({ error: { code, message } }, { status, headers: { "cache-control": "no-store", ...headers } })
@@ -24,7 +24,7 @@ function servedOverHttps(req: NextRequest) {
 function page(req: NextRequest, answer: (init: { request: { headers: Headers } }) => NextResponse) {
   const nonce = Buffer.from(crypto.randomUUID()).toString("base64")
   const https = servedOverHttps(req)
-  const csp = contentSecurityPolicy(nonce, { https, dev: process.env.NODE_ENV === "development" })
+  const csp = contentSecurityPolicy(nonce, { https, dev: process.env.NODE_ENV === "development", uploadOrigin: originOf(process.env.S3_ENDPOINT) })
   const headers = new Headers(req.headers)
   headers.set("x-nonce", nonce)
   headers.set("content-security-policy", csp)
