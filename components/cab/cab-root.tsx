@@ -2,7 +2,8 @@
 
 import { ArrowLeft, Sun, SunDim } from "lucide-react"
 import { useEffect, useState, type ReactNode } from "react"
-import { cn } from "@/components/ui/cn"
+
+// No cn() (tailwind-merge) here: this wraps the recorder, whose first load has a budget (recorderFirstLoadKbGzip).
 
 const KEY = "straightaway.sun"
 
@@ -29,7 +30,7 @@ export function CabRoot({ children }: { children: ReactNode }) {
     }
   }
   return (
-    <div className={cn("dark min-h-dvh bg-asphalt-900 text-graphite-50", sun && "sun")} data-theme={sun ? "sun" : "cab"} data-testid="cab-root">
+    <div className={`dark min-h-dvh bg-asphalt-900 text-graphite-50${sun ? " sun" : ""}`} data-theme={sun ? "sun" : "cab"} data-testid="cab-root">
       <div className="mx-auto flex max-w-xl items-center justify-between gap-2 px-3 pt-[max(0.5rem,env(safe-area-inset-top))]">
         {/* The way out of the full-screen recorder; a drive being recorded carries on and reopens from Record. */}
         <a href="/" className="inline-flex min-h-12 items-center gap-2 rounded-lg px-2 text-sm font-semibold text-graphite-50" data-testid="leave-recorder">
