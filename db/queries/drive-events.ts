@@ -6,7 +6,6 @@ import { randomUUID } from "node:crypto"
 import { sql, type RawBuilder } from "kysely"
 import type { ApiMark, Mark, Sample } from "@/lib/drive-file/schema"
 import type { Db } from "../client"
-import { sampleColumns } from "./sample-columns"
 
 export const DRIVE_CHANNEL = "straightaway_drive"
 
@@ -60,7 +59,20 @@ export interface SamplesInserted {
  */
 export async function insertSamplesNotifying(trx: Db, driveId: string, shopId: string, samples: readonly Sample[]): Promise<SamplesInserted> {
   if (samples.length === 0) return { accepted: 0, ts: [] }
-  const { t, lat, lon, speed, accuracy } = sampleColumns(samples)
+  const n = samples.length
+  const t = new Array<number>(n)
+  const lat = new Array<number>(n)
+  const lon = new Array<number>(n)
+  const speed = new Array<number | null>(n)
+  const accuracy = new Array<number | null>(n)
+  for (let i = 0; i < n; i++) {
+    const s = samples[i]!
+    t[i] = s.t
+    lat[i] = s.lat
+    lon[i] = s.lon
+    speed[i] = s.speed ?? null
+    accuracy[i] = s.accuracy ?? null
+  }
   const result = await sql<{ n: number; ts: number[] }>`
     with ins as (
       insert into sample (drive_id, shop_id, t, lat, lon, speed, accuracy)

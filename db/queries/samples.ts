@@ -2,7 +2,6 @@ import { sql } from "kysely"
 import type { Sample } from "@/lib/drive-file/schema"
 import type { Db } from "../client"
 import { insertSamplesNotifying, NOTIFY_MAX_SAMPLES, samplesNotice } from "./drive-events"
-import { sampleColumns } from "./sample-columns"
 
 export interface BatchResult {
   accepted: number
@@ -61,7 +60,20 @@ export async function insertSampleBatch(
  */
 export async function insertSamples(trx: Db, driveId: string, shopId: string, samples: readonly Sample[]): Promise<number> {
   if (samples.length === 0) return 0
-  const { t, lat, lon, speed, accuracy } = sampleColumns(samples)
+  const n = samples.length
+  const t = new Array<number>(n)
+  const lat = new Array<number>(n)
+  const lon = new Array<number>(n)
+  const speed = new Array<number | null>(n)
+  const accuracy = new Array<number | null>(n)
+  for (let i = 0; i < n; i++) {
+    const s = samples[i]!
+    t[i] = s.t
+    lat[i] = s.lat
+    lon[i] = s.lon
+    speed[i] = s.speed ?? null
+    accuracy[i] = s.accuracy ?? null
+  }
   const result = await sql`
     insert into sample (drive_id, shop_id, t, lat, lon, speed, accuracy)
     select ${driveId}::uuid, ${shopId}::uuid, u.t, u.lat, u.lon, u.speed, u.accuracy
@@ -173,4 +185,22 @@ export async function ingestSampleBatch(
       .executeTakeFirstOrThrow()
     return { accepted: seen.accepted, duplicates: seen.duplicates, replayed: true, storedTs: [] }
   }
+}
+
+function sampleColumns(samples: readonly Sample[]) {
+  const n = samples.length
+  const t = new Array<number>(n)
+  const lat = new Array<number>(n)
+  const lon = new Array<number>(n)
+  const speed = new Array<number | null>(n)
+  const accuracy = new Array<number | null>(n)
+  for (let i = 0; i < n; i++) {
+    const s = samples[i]!
+    t[i] = s.t
+    lat[i] = s.lat
+    lon[i] = s.lon
+    speed[i] = s.speed ?? null
+    accuracy[i] = s.accuracy ?? null
+  }
+  return { t, lat, lon, speed, accuracy }
 }
