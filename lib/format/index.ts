@@ -96,6 +96,33 @@ export function isoDay(at: Moment, timeZone?: string | null): string {
   return `${get("year")}-${get("month")}-${get("day")}`
 }
 
+/** Whole seconds for a machine-readable column (CSV, JSON): the same rounding as formatDuration, down, float dust kept out. */
+export function wholeSeconds(seconds: number): number
+export function wholeSeconds(seconds: number | null | undefined): number | null
+export function wholeSeconds(seconds: number | null | undefined): number | null {
+  if (seconds == null || !Number.isFinite(seconds)) return null
+  return Math.max(0, Math.floor(seconds + 1e-6))
+}
+
+/**
+ * The instant as ISO 8601 local time in the zone with its UTC offset, to the second: "2026-12-02T09:44:19-06:00".
+ * For a machine-readable column that still reads in the shop's time (the offset makes it unambiguous).
+ */
+export function isoLocalDateTime(at: Moment, timeZone?: string | null): string {
+  const d = toDate(at)
+  if (Number.isNaN(d.getTime())) return ""
+  const parts = new Intl.DateTimeFormat("en-CA", {
+    year: "numeric", month: "2-digit", day: "2-digit", hour: "2-digit", minute: "2-digit", second: "2-digit", hourCycle: "h23", timeZone: zoneOrDefault(timeZone),
+  }).formatToParts(d)
+  const get = (t: string) => Number(parts.find((p) => p.type === t)?.value ?? 0)
+  const wallMs = Date.UTC(get("year"), get("month") - 1, get("day"), get("hour"), get("minute"), get("second"))
+  const offsetMin = Math.round((wallMs - Math.floor(d.getTime() / 1000) * 1000) / 60_000)
+  const pad = (n: number, w = 2) => String(n).padStart(w, "0")
+  const sign = offsetMin < 0 ? "-" : "+"
+  const abs = Math.abs(offsetMin)
+  return `${pad(get("year"), 4)}-${pad(get("month"))}-${pad(get("day"))}T${pad(get("hour"))}:${pad(get("minute"))}:${pad(get("second"))}${sign}${pad(Math.floor(abs / 60))}:${pad(abs % 60)}`
+}
+
 /** "America/Chicago (CST)": the zone as the PDF names it; the short name is the one in force at `at`. */
 export function describeTimeZone(timeZone?: string | null, at: Moment = Date.now()): string {
   const zone = zoneOrDefault(timeZone)

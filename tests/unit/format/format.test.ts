@@ -13,8 +13,10 @@ import {
   formatSpeedMph,
   formatTime,
   isoDay,
+  isoLocalDateTime,
   isTimeZone,
   plural,
+  wholeSeconds,
 } from "@/lib/format"
 
 describe("durations: one style, whole seconds rounded down", () => {
@@ -35,6 +37,14 @@ describe("durations: one style, whole seconds rounded down", () => {
     expect(formatDuration(707.6)).toBe("11 min 47 s")
     // float dust from sums of samples does not cost a second
     expect(formatDuration(707.9999999999)).toBe("11 min 48 s")
+  })
+
+  it("gives machine-readable columns whole seconds with the same rounding (down)", () => {
+    expect(wholeSeconds(707.9999999)).toBe(708)
+    expect(wholeSeconds(708.96)).toBe(708)
+    expect(wholeSeconds(599.6)).toBe(599)
+    expect(wholeSeconds(null)).toBeNull()
+    expect(formatDuration(wholeSeconds(708.96))).toBe(formatDuration(708.96))
   })
 
   it("says a missing duration with a dash", () => {
@@ -63,6 +73,17 @@ describe("dates: one style, in the shop's time zone", () => {
     expect(isoDay("2026-12-02T03:00:00Z", "UTC")).toBe("2026-12-02")
     expect(formatDay("2026-11-30T18:00:00Z", "America/Chicago")).toBe("Nov 30")
     expect(formatTime(noonish, "America/Chicago")).toBe("9:42 AM")
+  })
+
+  it("writes a machine-readable moment in the shop's zone with its UTC offset (ISO 8601)", () => {
+    expect(isoLocalDateTime(noonish, "America/Chicago")).toBe("2026-12-02T09:42:19-06:00")
+    expect(isoLocalDateTime("2026-07-04T17:00:00Z", "America/Chicago")).toBe("2026-07-04T12:00:00-05:00")
+    expect(isoLocalDateTime(noonish, "Europe/Berlin")).toBe("2026-12-02T16:42:19+01:00")
+    expect(isoLocalDateTime(noonish, "UTC")).toBe("2026-12-02T15:42:19+00:00")
+    // IANA tz database: Asia/Kolkata is UTC+5:30 all year. 03:00 UTC on Dec 2 is 9 PM on Dec 1 in Chicago.
+    expect(isoLocalDateTime(noonish, "Asia/Kolkata")).toBe("2026-12-02T21:12:19+05:30")
+    expect(isoLocalDateTime("2026-12-02T03:00:00.900Z", "America/Chicago")).toBe("2026-12-01T21:00:00-06:00")
+    expect(isoLocalDateTime("not a date", "UTC")).toBe("")
   })
 
   it("names the zone for the PDF and refuses names that are not zones", () => {
