@@ -1,5 +1,7 @@
-// The shop's numbers, from plain rows: pure aggregation, no I/O. Times are in seconds in, minutes out.
+// The shop's numbers, from plain rows: pure aggregation, no I/O. Times are seconds in and whole seconds out
+// (lib/format wholeSeconds: the same rounding formatDuration shows); weeks are the shop's calendar weeks.
 import { csvField } from "@/lib/export/csv"
+import { isoDay, isoLocalDateTime, wholeSeconds } from "@/lib/format"
 
 export type NumbersVerdict = "met" | "short" | "not_met" | "unverified"
 
@@ -59,8 +61,9 @@ export interface TimeToClear {
   profileName: string
   drives: number
   cleared: number
-  medianMinutes: number | null
-  p90Minutes: number | null
+  /** Whole seconds from start to the learn-complete mark (rounded down, as formatDuration shows them). */
+  medianSeconds: number | null
+  p90Seconds: number | null
   /** Count of cleared drives per CLEAR_BINS_MIN bin. */
   bins: number[]
 }
@@ -69,39 +72,39 @@ export function timeToClearByProfile(drives: readonly NumbersDrive[]): TimeToCle
   const groups = groupBy(drives, (d) => d.profileName)
   return [...groups.entries()]
     .map(([profileName, list]) => {
-      const minutes = list.filter((d) => d.clearedAtSeconds != null).map((d) => d.clearedAtSeconds! / 60)
+      const seconds = list.filter((d) => d.clearedAtSeconds != null).map((d) => d.clearedAtSeconds!)
       const bins = CLEAR_BINS_MIN.map(() => 0)
-      for (const m of minutes) {
+      for (const s of seconds) {
         let i = CLEAR_BINS_MIN.length - 1
-        while (i > 0 && m < CLEAR_BINS_MIN[i]!) i--
+        while (i > 0 && s < CLEAR_BINS_MIN[i]! * 60) i--
         bins[i]! += 1
       }
       return {
         profileName,
         drives: list.length,
-        cleared: minutes.length,
-        medianMinutes: round1(percentile(minutes, 50)),
-        p90Minutes: round1(percentile(minutes, 90)),
+        cleared: seconds.length,
+        medianSeconds: wholeSeconds(percentile(seconds, 50)),
+        p90Seconds: wholeSeconds(percentile(seconds, 90)),
         bins,
       }
     })
     .sort((a, b) => b.drives - a.drives || a.profileName.localeCompare(b.profileName))
 }
 
-/** Monday (UTC) of the ISO 8601 week holding the instant, as YYYY-MM-DD. */
-export function isoWeekStart(iso: string): string {
-  const d = new Date(iso)
-  const day = (d.getUTCDay() + 6) % 7 // Monday = 0 (ISO 8601 numbers Monday as day 1)
-  const monday = new Date(Date.UTC(d.getUTCFullYear(), d.getUTCMonth(), d.getUTCDate() - day))
-  return monday.toISOString().slice(0, 10)
+/** Monday of the ISO 8601 week holding the instant on the calendar of `timeZone` (the shop's), as YYYY-MM-DD. */
+export function isoWeekStart(iso: string, timeZone: string): string {
+  const [y, m, day] = isoDay(iso, timeZone).split("-").map(Number)
+  const local = new Date(Date.UTC(y!, m! - 1, day!)) // the shop's calendar day, as a date without a zone
+  const back = (local.getUTCDay() + 6) % 7 // Monday = 0 (ISO 8601 numbers Monday as day 1)
+  return new Date(Date.UTC(y!, m! - 1, day! - back)).toISOString().slice(0, 10)
 }
 
 export type VerdictMixRow = { weekStart: string; total: number } & Record<NumbersVerdict, number>
 
-export function verdictMixByWeek(drives: readonly NumbersDrive[]): VerdictMixRow[] {
+export function verdictMixByWeek(drives: readonly NumbersDrive[], timeZone: string): VerdictMixRow[] {
   const rows = new Map<string, VerdictMixRow>()
   for (const d of drives) {
-    const weekStart = isoWeekStart(d.finishedAt)
+    const weekStart = isoWeekStart(d.finishedAt, timeZone)
     const row = rows.get(weekStart) ?? { weekStart, total: 0, met: 0, short: 0, not_met: 0, unverified: 0 }
     row[d.verdict] += 1
     row.total += 1
@@ -127,7 +130,8 @@ export type TechnicianNumbers = {
   drives: number
   met: number
   metShare: number
-  medianMinutesToClear: number | null
+  /** Whole seconds (rounded down). */
+  medianSecondsToClear: number | null
   harshEvents: number
   sentBack: number
 }
@@ -142,7 +146,7 @@ export function perTechnician(drives: readonly NumbersDrive[]): TechnicianNumber
         drives: list.length,
         met,
         metShare: met / list.length,
-        medianMinutesToClear: round1(percentile(list.filter((d) => d.clearedAtSeconds != null).map((d) => d.clearedAtSeconds! / 60), 50)),
+        medianSecondsToClear: wholeSeconds(percentile(list.filter((d) => d.clearedAtSeconds != null).map((d) => d.clearedAtSeconds!), 50)),
         harshEvents: list.reduce((n, d) => n + d.harshEvents, 0),
         sentBack: list.filter((d) => d.reviewStatus === "redo").length,
       }
@@ -150,11 +154,12 @@ export function perTechnician(drives: readonly NumbersDrive[]): TechnicianNumber
     .sort((a, b) => b.drives - a.drives || a.name.localeCompare(b.name))
 }
 
-export function computeNumbers(drives: readonly NumbersDrive[]) {
+/** `timeZone`: the shop's; weeks begin on its Mondays at midnight. */
+export function computeNumbers(drives: readonly NumbersDrive[], timeZone: string) {
   return {
     drives: drives.length,
     timeToClear: timeToClearByProfile(drives),
-    verdictMix: verdictMixByWeek(drives),
+    verdictMix: verdictMixByWeek(drives, timeZone),
     topReasons: topReasons(drives),
     perTechnician: perTechnician(drives),
   }
@@ -167,30 +172,34 @@ export const NUMBERS_CSV_COLUMNS = [
   "technician",
   "profile",
   "verdict",
-  "minutes_to_clear",
-  "qualifying_minutes_before_clear",
-  "following_minutes_before_clear",
-  "duration_minutes",
+  "time_to_learn_complete_seconds",
+  "qualifying_time_before_learn_complete_seconds",
+  "following_time_before_learn_complete_seconds",
+  "drive_time_seconds",
   "harsh_events",
   "review",
   "unmet_conditions",
 ] as const
 
-/** One line per drive (RFC 4180, CRLF), for a spreadsheet. */
-export function numbersToCsv(drives: readonly NumbersDrive[]): string {
+/**
+ * One line per drive (RFC 4180, CRLF), for a spreadsheet. Times of day are ISO 8601 in the shop's zone with
+ * its UTC offset; durations are whole seconds rounded down (the same figure formatDuration writes on the pages),
+ * and each duration's header ends in `_seconds`.
+ */
+export function numbersToCsv(drives: readonly NumbersDrive[], timeZone: string): string {
   const lines = [NUMBERS_CSV_COLUMNS.join(",")]
   for (const d of drives) {
     lines.push(
       [
         d.driveId,
-        d.finishedAt,
+        isoLocalDateTime(d.finishedAt, timeZone),
         csvField(d.technicianName),
         csvField(d.profileName),
         d.verdict,
-        d.clearedAtSeconds == null ? "" : (d.clearedAtSeconds / 60).toFixed(1),
-        (d.qualifyingSecondsBeforeClear / 60).toFixed(1),
-        (d.followingSecondsBeforeClear / 60).toFixed(1),
-        (d.durationSeconds / 60).toFixed(1),
+        d.clearedAtSeconds == null ? "" : String(wholeSeconds(d.clearedAtSeconds)),
+        String(wholeSeconds(d.qualifyingSecondsBeforeClear)),
+        String(wholeSeconds(d.followingSecondsBeforeClear)),
+        String(wholeSeconds(d.durationSeconds)),
         String(d.harshEvents),
         d.reviewStatus ?? "",
         csvField(d.unmetConditions.join(" ")),
@@ -209,8 +218,4 @@ function groupBy<T>(list: readonly T[], key: (t: T) => string) {
     else map.set(k, [item])
   }
   return map
-}
-
-function round1(x: number | null) {
-  return x == null ? null : Math.round(x * 10) / 10
 }

@@ -26,7 +26,7 @@ export async function loadNumbersDrives(db: Db, shopId: string, days: number): P
   }))
 }
 
-/** What the numbers page shows for the last `days` days, aggregated in the database (computeNumbers' figures). */
-export async function loadNumbers(db: Db, shopId: string, days: number): Promise<Numbers> {
-  return loadNumbersSummary(db, shopId, new Date(Date.now() - days * 86_400_000))
+/** What the numbers page shows for the last `days` days, aggregated in the database (computeNumbers' figures); weeks in `timeZone` (the shop's). */
+export async function loadNumbers(db: Db, shopId: string, days: number, timeZone: string): Promise<Numbers> {
+  return loadNumbersSummary(db, shopId, new Date(Date.now() - days * 86_400_000), timeZone)
 }

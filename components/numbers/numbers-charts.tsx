@@ -28,7 +28,7 @@ export function TimeToClearChart({ data }: { data: Numbers["timeToClear"] }) {
     <Card>
       <h2 className="text-lg font-semibold">Time to learn complete, by condition profile</h2>
       <p className="mb-2 text-sm text-graphite-600 dark:text-graphite-300">
-        Drives per band of minutes from start to the learn-complete mark. {profiles.map((p) => (p.cleared ? `${p.profileName}: median ${formatDuration((p.medianMinutes ?? 0) * 60)} (${p.cleared} of ${p.drives} completed)` : `${p.profileName}: none of ${p.drives} completed`)).join(" · ")}
+        Drives per band of minutes from start to the learn-complete mark. {profiles.map((p) => (p.cleared ? `${p.profileName}: median ${formatDuration(p.medianSeconds)} (${p.cleared} of ${p.drives} completed)` : `${p.profileName}: none of ${p.drives} completed`)).join(" · ")}
       </p>
       <div className="h-64 text-graphite-800 dark:text-graphite-100" data-testid="chart-time-to-clear">
         <ResponsiveContainer width="100%" height="100%">
@@ -52,7 +52,7 @@ export function VerdictMixChart({ data }: { data: Numbers["verdictMix"] }) {
   return (
     <Card>
       <h2 className="text-lg font-semibold">Verdicts week by week</h2>
-      <p className="mb-2 text-sm text-graphite-600 dark:text-graphite-300">Finished drives per week (weeks start on Monday).</p>
+      <p className="mb-2 text-sm text-graphite-600 dark:text-graphite-300">Finished drives per week (weeks start on Monday at midnight, shop time).</p>
       <div className="h-64 text-graphite-800 dark:text-graphite-100" data-testid="chart-verdict-mix">
         <ResponsiveContainer width="100%" height="100%">
           <BarChart data={data} margin={{ top: 8, right: 8, bottom: 4, left: -16 }}>

@@ -1,4 +1,5 @@
 import { sql } from "kysely"
+import { wholeSeconds } from "@/lib/format"
 import { CLEAR_BINS_MIN, CONDITION_PROBLEM, type Numbers } from "@/lib/numbers"
 import type { Db } from "../client"
 
@@ -42,16 +43,17 @@ export async function listDrivesForNumbers(db: Db, shopId: string, since: Date) 
  * What the numbers page shows (lib/numbers computeNumbers), aggregated in PostgreSQL in one statement so
  * that only a few dozen rows leave the database however many drives the period holds. Gives the same
  * figures as computeNumbers over listDrivesForNumbers (tests/integration/review/read-columns.test.ts):
- * percentile_cont is the same linear interpolation as lib/numbers percentile(), width_bucket the same bins.
+ * percentile_cont is the same linear interpolation as lib/numbers percentile(), width_bucket the same bins, and
+ * weeks are the shop's: `date_trunc('week', finished_at at time zone <the shop's zone>)` is the Monday of its calendar.
  */
-export async function loadNumbersSummary(db: Db, shopId: string, since: Date): Promise<Numbers> {
-  const bins = CLEAR_BINS_MIN.slice(1)
+export async function loadNumbersSummary(db: Db, shopId: string, since: Date, timeZone: string): Promise<Numbers> {
+  const bins = CLEAR_BINS_MIN.slice(1).map((m) => m * 60)
   const { rows } = await sql<{ summary: SummaryJson }>`
     with d as materialized (
       select drive.id, drive.driver_id, coalesce(driver.name, 'Former staff') as tech_name,
              coalesce(p.name, 'Profile set on the drive') as profile_name, coalesce(drive.verdict, 'not_met') as verdict,
-             drive.review_status, drive.cleared_at_seconds / 60 as cm, drive.harsh_events, drive.unmet_conditions,
-             date_trunc('week', drive.finished_at at time zone 'UTC') as week
+             drive.review_status, drive.cleared_at_seconds as cs, drive.harsh_events, drive.unmet_conditions,
+             date_trunc('week', drive.finished_at at time zone ${timeZone}::text) as week
       from drive
       left join app_user driver on driver.id = drive.driver_id and driver.shop_id = ${shopId}::uuid
       left join condition_profile_version pv on pv.id = drive.profile_version_id and pv.shop_id = ${shopId}::uuid
@@ -62,9 +64,9 @@ export async function loadNumbersSummary(db: Db, shopId: string, since: Date): P
     select json_build_object(
       'drives', (select count(*) from d),
       'profiles', (select coalesce(json_agg(x), '[]') from (
-        select profile_name, count(*) as drives, count(cm) as cleared,
-               percentile_cont(0.5) within group (order by cm) as median, percentile_cont(0.9) within group (order by cm) as p90,
-               array[${sql.join(CLEAR_BINS_MIN.map((_, b) => sql`count(*) filter (where width_bucket(cm, ${bins}::float8[]) = ${sql.lit(b)})`))}] as bins
+        select profile_name, count(*) as drives, count(cs) as cleared,
+               percentile_cont(0.5) within group (order by cs) as median, percentile_cont(0.9) within group (order by cs) as p90,
+               array[${sql.join(CLEAR_BINS_MIN.map((_, b) => sql`count(*) filter (where width_bucket(cs, ${bins}::float8[]) = ${sql.lit(b)})`))}] as bins
         from d group by profile_name) x),
       'weeks', (select coalesce(json_agg(x), '[]') from (
         select to_char(week, 'YYYY-MM-DD') as week, count(*) as total, count(*) filter (where verdict = 'met') as met, count(*) filter (where verdict = 'short') as short,
@@ -74,7 +76,7 @@ export async function loadNumbersSummary(db: Db, shopId: string, since: Date): P
         select k as key, count(distinct d.id) as n from d, unnest(d.unmet_conditions) k where d.unmet_conditions <> '{}' group by k) x),
       'techs', (select coalesce(json_agg(x), '[]') from (
         select driver_id, min(tech_name) as name, count(*) as drives, count(*) filter (where verdict = 'met') as met,
-               percentile_cont(0.5) within group (order by cm) as median, sum(harsh_events) as harsh,
+               percentile_cont(0.5) within group (order by cs) as median, sum(harsh_events) as harsh,
                count(*) filter (where review_status = 'redo') as sent_back
         from d group by driver_id) x)
     ) as summary`.execute(db)
@@ -87,8 +89,8 @@ export async function loadNumbersSummary(db: Db, shopId: string, since: Date): P
         profileName: p.profile_name,
         drives: p.drives,
         cleared: p.cleared,
-        medianMinutes: round1(p.median),
-        p90Minutes: round1(p.p90),
+        medianSeconds: wholeSeconds(p.median),
+        p90Seconds: wholeSeconds(p.p90),
         bins: p.bins.map(Number),
       }))
       .sort((a, b) => b.drives - a.drives || a.profileName.localeCompare(b.profileName)),
@@ -106,7 +108,7 @@ export async function loadNumbersSummary(db: Db, shopId: string, since: Date): P
         drives: t.drives,
         met: t.met,
         metShare: t.met / t.drives,
-        medianMinutesToClear: round1(t.median),
+        medianSecondsToClear: wholeSeconds(t.median),
         harshEvents: Number(t.harsh),
         sentBack: t.sent_back,
       }))
@@ -120,8 +122,4 @@ interface SummaryJson {
   weeks: Array<{ week: string; total: number; met: number; short: number; not_met: number; unverified: number }>
   reasons: Array<{ key: string; n: number }>
   techs: Array<{ driver_id: string; name: string; drives: number; met: number; median: number | null; harsh: number; sent_back: number }>
-}
-
-function round1(x: number | null) {
-  return x == null ? null : Math.round(x * 10) / 10
 }

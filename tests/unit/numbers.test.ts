@@ -34,10 +34,21 @@ describe("percentile", () => {
 
 describe("isoWeekStart", () => {
   it("puts a Sunday in the week that began the Monday before (ISO 8601 weeks start on Monday)", () => {
-    expect(isoWeekStart("2026-03-08T23:00:00Z")).toBe("2026-03-02") // Sunday
-    expect(isoWeekStart("2026-03-09T00:00:00Z")).toBe("2026-03-09") // Monday
+    expect(isoWeekStart("2026-03-08T23:00:00Z", "UTC")).toBe("2026-03-02") // Sunday
+    expect(isoWeekStart("2026-03-09T00:00:00Z", "UTC")).toBe("2026-03-09") // Monday
     // ISO 8601: 2021-01-03 (a Sunday) belongs to week 53 of 2020, which began on Monday 2020-12-28.
-    expect(isoWeekStart("2021-01-03T10:00:00Z")).toBe("2020-12-28")
+    expect(isoWeekStart("2021-01-03T10:00:00Z", "UTC")).toBe("2020-12-28")
+  })
+
+  it("reads the week on the shop's calendar, not UTC's", () => {
+    // IANA tz database: America/Chicago is UTC-6 in November-March (CST). Monday 2026-11-30 05:30 UTC is
+    // Sunday 11:30 PM on Nov 29 in Chicago: the week that began Monday Nov 23 there.
+    expect(isoWeekStart("2026-11-30T05:30:00Z", "America/Chicago")).toBe("2026-11-23")
+    expect(isoWeekStart("2026-11-30T05:30:00Z", "UTC")).toBe("2026-11-30")
+    expect(isoWeekStart("2026-11-30T06:30:00Z", "America/Chicago")).toBe("2026-11-30")
+    // Asia/Tokyo is UTC+9: Sunday 2026-11-29 15:30 UTC is already Monday 00:30 in Tokyo.
+    expect(isoWeekStart("2026-11-29T15:30:00Z", "Asia/Tokyo")).toBe("2026-11-30")
+    expect(isoWeekStart("2026-11-29T15:30:00Z", "UTC")).toBe("2026-11-23")
   })
 })
 
@@ -57,7 +68,8 @@ describe("time to clear by profile", () => {
     expect(forward!.drives).toBe(6)
     expect(forward!.cleared).toBe(5)
     expect(forward!.bins).toEqual([1, 1, 2, 0, 0, 0, 1])
-    expect(forward!.medianMinutes).toBe(10)
+    expect(forward!.medianSeconds).toBe(600)
+    // 14.5 min is in the 10-15 band; 40 min in the last (30+)
     expect(rear!.bins).toEqual([0, 1, 0, 0, 0, 0, 0])
   })
 })
@@ -69,7 +81,7 @@ describe("verdict mix over time", () => {
       drive({ finishedAt: "2026-03-03T09:00:00Z", verdict: "met" }),
       drive({ finishedAt: "2026-03-04T09:00:00Z", verdict: "not_met" }),
       drive({ finishedAt: "2026-03-11T09:00:00Z", verdict: "short" }),
-    ])
+    ], "UTC")
     expect(mix).toEqual([
       { weekStart: "2026-03-02", total: 2, met: 1, short: 0, not_met: 1, unverified: 0 },
       { weekStart: "2026-03-09", total: 2, met: 0, short: 2, not_met: 0, unverified: 0 },
@@ -96,27 +108,30 @@ describe("top reasons", () => {
 })
 
 describe("per technician", () => {
-  it("gives drives, met share, median minutes to clear, harsh events and drives sent back", () => {
+  it("gives drives, met share, median seconds to learn complete, harsh events and drives sent back", () => {
     const rows = perTechnician([
       drive({ technicianId: "a", technicianName: "Ada", clearedAtSeconds: 600 }),
       drive({ technicianId: "a", technicianName: "Ada", verdict: "short", clearedAtSeconds: 300, reviewStatus: "redo", harshEvents: 2 }),
       drive({ technicianId: "a", technicianName: "Ada", verdict: "not_met", clearedAtSeconds: null }),
       drive({ technicianId: "b", technicianName: "Bo", clearedAtSeconds: 720 }),
     ])
-    expect(rows[0]).toEqual({ technicianId: "a", name: "Ada", drives: 3, met: 1, metShare: 1 / 3, medianMinutesToClear: 7.5, harshEvents: 2, sentBack: 1 })
+    expect(rows[0]).toEqual({ technicianId: "a", name: "Ada", drives: 3, met: 1, metShare: 1 / 3, medianSecondsToClear: 450, harshEvents: 2, sentBack: 1 })
     expect(rows[1]!.name).toBe("Bo")
   })
 })
 
 describe("numbers CSV", () => {
   it("writes one RFC 4180 line per drive and defuses formula-like names", () => {
-    const csv = numbersToCsv([drive({ technicianName: '=HYPERLINK("x")', clearedAtSeconds: 630 })])
+    const csv = numbersToCsv([drive({ technicianName: '=HYPERLINK("x")', clearedAtSeconds: 630.96, durationSeconds: 1199.9999999 })], "America/Chicago")
     const lines = csv.split("\r\n")
     expect(lines[0]).toBe(
-      "drive_id,finished_at,technician,profile,verdict,minutes_to_clear,qualifying_minutes_before_clear,following_minutes_before_clear,duration_minutes,harsh_events,review,unmet_conditions",
+      "drive_id,finished_at,technician,profile,verdict,time_to_learn_complete_seconds,qualifying_time_before_learn_complete_seconds,following_time_before_learn_complete_seconds,drive_time_seconds,harsh_events,review,unmet_conditions",
     )
     expect(lines[1]).toContain(`"'=HYPERLINK(""x"")"`)
-    expect(lines[1]).toContain(",met,10.5,11.0,3.0,20.0,0,,")
+    // Whole seconds, rounded down as formatDuration rounds ("10 min 30 s" on the page is 630 here).
+    expect(lines[1]).toContain(",met,630,660,180,1200,0,,")
+    // IANA tz database: Chicago is UTC-6 in March before daylight saving starts (2026-03-08).
+    expect(lines[1]).toContain(",2026-03-04T06:00:00-06:00,")
     expect(lines).toHaveLength(3)
   })
 })

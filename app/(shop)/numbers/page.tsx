@@ -2,6 +2,7 @@ import { Download } from "lucide-react"
 import type { Metadata } from "next"
 import Link from "next/link"
 import { requirePageRole } from "@/app/_server/auth"
+import { getFormatPrefs } from "@/app/_server/format-prefs"
 import { loadNumbers } from "@/app/_server/numbers"
 import { TimeToClearChart, TopReasonsChart, VerdictMixChart } from "@/components/numbers/numbers-charts"
 import { buttonVariants } from "@/components/ui/button"
@@ -20,7 +21,8 @@ export default async function NumbersPage({ searchParams }: { searchParams: Prom
   const me = await requirePageRole("shop_lead")
   const asked = Number((await searchParams).days)
   const days = (RANGES as readonly number[]).includes(asked) ? asked : 90
-  const numbers = await loadNumbers(getDb(), me.shopId, days)
+  const { timeZone } = await getFormatPrefs(me.shopId)
+  const numbers = await loadNumbers(getDb(), me.shopId, days, timeZone)
   return (
     <>
       <PageHeader
@@ -62,7 +64,7 @@ export default async function NumbersPage({ searchParams }: { searchParams: Prom
                         {t.met} ({Math.round(t.metShare * 100)} %)
                       </dd>
                       <dt className="text-graphite-600 dark:text-graphite-300">Median to learn complete</dt>
-                      <dd>{t.medianMinutesToClear == null ? "—" : formatDuration(t.medianMinutesToClear * 60)}</dd>
+                      <dd>{formatDuration(t.medianSecondsToClear)}</dd>
                       <dt className="text-graphite-600 dark:text-graphite-300">Harsh events</dt>
                       <dd>{t.harshEvents}</dd>
                       <dt className="text-graphite-600 dark:text-graphite-300">Sent back</dt>
@@ -93,7 +95,7 @@ export default async function NumbersPage({ searchParams }: { searchParams: Prom
                     <td className="tabular px-3 py-2">
                       {t.met} ({Math.round(t.metShare * 100)} %)
                     </td>
-                    <td className="tabular px-3 py-2">{t.medianMinutesToClear == null ? "—" : formatDuration(t.medianMinutesToClear * 60)}</td>
+                    <td className="tabular px-3 py-2">{formatDuration(t.medianSecondsToClear)}</td>
                     <td className="tabular px-3 py-2">{t.harshEvents}</td>
                     <td className="tabular px-3 py-2">{t.sentBack}</td>
                   </tr>

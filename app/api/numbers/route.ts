@@ -1,5 +1,6 @@
 import { z } from "zod"
 import { requireRole } from "@/app/_server/auth"
+import { getFormatPrefs } from "@/app/_server/format-prefs"
 import { loadNumbers, loadNumbersDrives, NUMBERS_DEFAULT_DAYS } from "@/app/_server/numbers"
 import { parseQuery, route } from "@/app/_server/route"
 import { getDb } from "@/db/client"
@@ -13,9 +14,10 @@ const query = z.object({
 export const GET = route(async (req) => {
   const { user } = await requireRole("shop_lead")
   const { days, format } = parseQuery(req, query)
+  const { timeZone } = await getFormatPrefs(user.shopId)
   if (format === "csv") {
     const drives = await loadNumbersDrives(getDb(), user.shopId, days)
-    return new Response(numbersToCsv(drives), {
+    return new Response(numbersToCsv(drives, timeZone), {
       headers: {
         "content-type": "text/csv; charset=utf-8",
         "content-disposition": `attachment; filename="straightaway-drives-${days}d.csv"`,
@@ -23,5 +25,5 @@ export const GET = route(async (req) => {
       },
     })
   }
-  return Response.json({ days, ...(await loadNumbers(getDb(), user.shopId, days)) })
+  return Response.json({ days, ...(await loadNumbers(getDb(), user.shopId, days, timeZone)) })
 })

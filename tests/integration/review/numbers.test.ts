@@ -33,8 +33,39 @@ describe("GET /api/numbers", () => {
     const lines = csv.text.trim().split("\r\n")
     expect(lines).toHaveLength(4)
     expect(csv.text).toContain(met.id)
-    // Minutes to clear in the CSV match the stored score.
-    expect(csv.text).toContain(`,met,${(met.score.clearedAtSeconds! / 60).toFixed(1)},`)
+    // Durations are whole seconds rounded down (the figure formatDuration writes), headed as seconds.
+    expect(lines[0]).toBe(
+      "drive_id,finished_at,technician,profile,verdict,time_to_learn_complete_seconds,qualifying_time_before_learn_complete_seconds,following_time_before_learn_complete_seconds,drive_time_seconds,harsh_events,review,unmet_conditions",
+    )
+    expect(csv.text).toContain(`,met,${Math.floor(met.score.clearedAtSeconds! + 1e-6)},`)
+  })
+
+  it("groups weeks on the shop's calendar: a drive just before midnight Sunday, shop time, is in the week before", async () => {
+    const shop = await createTestShop("NumbersZone")
+    // IANA tz database: America/Regina keeps UTC-6 all year (no daylight saving), so shop midnight is 06:00 UTC.
+    const admin = await signedIn(shop.admin)
+    expect((await admin.patch("/api/shop/settings", { timeZone: "America/Regina" })).status).toBe(200)
+    // A Monday 8 to 14 days ago on the shop's calendar (the drives stay inside the 30-day period).
+    const today = new Date(Date.now() - 6 * 3_600_000) // the shop's wall clock, read as UTC
+    const daysBack = 8 + ((today.getUTCDay() + 6) % 7)
+    const monday = Date.UTC(today.getUTCFullYear(), today.getUTCMonth(), today.getUTCDate() - daysBack)
+    const mondayIso = new Date(monday).toISOString().slice(0, 10)
+    const weekBefore = new Date(monday - 7 * 86_400_000).toISOString().slice(0, 10)
+    const sunday = new Date(monday - 86_400_000).toISOString().slice(0, 10)
+    // Sunday 23:30 shop time = Monday 05:30 UTC (UTC would put it in the Monday's week); Monday 00:30 = 06:30 UTC.
+    const lateSunday = await insertScoredDrive(shop, { pattern: "met", seed: 511, finishedAt: new Date(monday + 5.5 * 3_600_000) })
+    await insertScoredDrive(shop, { pattern: "short", seed: 512, finishedAt: new Date(monday + 6.5 * 3_600_000) })
+
+    const lead = await signedIn(shop.lead)
+    const res = await lead.get("/api/numbers?days=30")
+    expect(res.status).toBe(200)
+    expect(res.body.verdictMix).toEqual([
+      { weekStart: weekBefore, total: 1, met: 1, short: 0, not_met: 0, unverified: 0 },
+      { weekStart: mondayIso, total: 1, met: 0, short: 1, not_met: 0, unverified: 0 },
+    ])
+    const csv = await lead.get("/api/numbers?format=csv&days=30")
+    const line = csv.text.split("\r\n").find((l: string) => l.startsWith(lateSunday.id))
+    expect(line).toContain(`,${sunday}T23:30:00-06:00,`)
   })
 
   it("is for leads, and refuses a bad period", async () => {

@@ -145,9 +145,12 @@ describe("reads from the drive's own columns", () => {
         before.map((r) => ({ ...r, harsh_events: Number(r.harsh_events) })),
       )
       // The page's figures, aggregated in the database, equal lib/numbers over the old rows.
-      const summary = await loadNumbersSummary(testDb(), shop.shopId, since)
-      expect(summary.drives).toBe(before.length)
-      expect(summary).toEqual(computeNumbers(before.map(asNumbersDrive)))
+      // Weeks on three calendars: behind UTC with daylight saving, UTC, and ahead of UTC by a half hour.
+      for (const zone of ["America/Chicago", "UTC", "Asia/Kolkata"]) {
+        const summary = await loadNumbersSummary(testDb(), shop.shopId, since, zone)
+        expect(summary.drives).toBe(before.length)
+        expect(summary).toEqual(computeNumbers(before.map(asNumbersDrive), zone))
+      }
     }
   })
 
