@@ -1,7 +1,7 @@
 "use client"
 
 import { useRouter } from "next/navigation"
-import { useState } from "react"
+import { useEffect, useState } from "react"
 import { apiFetch } from "@/components/ui/api-fetch"
 import { Button } from "@/components/ui/button"
 import { Field, Select } from "@/components/ui/field"
@@ -41,9 +41,35 @@ export function ReviewMailForm({ initial }: { initial: boolean }) {
   )
 }
 
-/** The shop's units and time zone (admin). */
-export function ShopFormatForm({ initial, zones, canEdit }: { initial: { units: UnitSystem; timeZone: string }; zones: string[]; canEdit: boolean }) {
+/**
+ * The clock read once the page runs in the browser, then every 15 s; null on the server and during hydration,
+ * so the first render in the browser writes exactly what the server wrote (`serverNow`) and nothing is
+ * hydrated against a different minute or a different ICU.
+ */
+function useClock(): number | null {
+  const [now, setNow] = useState<number | null>(null)
+  useEffect(() => {
+    setNow(Date.now())
+    const id = setInterval(() => setNow(Date.now()), 15_000)
+    return () => clearInterval(id)
+  }, [])
+  return now
+}
+
+/** The shop's units and time zone (admin). `serverNow`: "Now: …" for the saved zone, as the server wrote it. */
+export function ShopFormatForm({
+  initial,
+  zones,
+  canEdit,
+  serverNow,
+}: {
+  initial: { units: UnitSystem; timeZone: string }
+  zones: string[]
+  canEdit: boolean
+  serverNow: string
+}) {
   const router = useRouter()
+  const now = useClock()
   const [units, setUnits] = useState(initial.units)
   const [timeZone, setTimeZone] = useState(initial.timeZone)
   const [message, setMessage] = useState<string | null>(null)
@@ -79,7 +105,7 @@ export function ShopFormatForm({ initial, zones, canEdit }: { initial: { units: 
         ))}
         <p className="text-sm text-graphite-600 dark:text-graphite-300">Accelerations read in g, with m/s² beside them, either way.</p>
       </fieldset>
-      <Field label="Time zone" htmlFor="time-zone" hint={`Now: ${formatDateTime(Date.now(), timeZone, { zoneName: true })}`}>
+      <Field label="Time zone" htmlFor="time-zone" hint={`Now: ${now == null ? serverNow : formatDateTime(now, timeZone, { zoneName: true })}`}>
         <Select id="time-zone" value={timeZone} onChange={(e) => setTimeZone(e.target.value)} disabled={!canEdit}>
           {zones.map((z) => (
             <option key={z} value={z}>

@@ -6,7 +6,7 @@ import { PageHeader } from "@/components/ui/page-header"
 import { getDb } from "@/db/client"
 import { findReviewMail } from "@/db/queries/review-notices"
 import { findShopSettings } from "@/db/queries/shop-settings"
-import { DEFAULT_TIME_ZONE } from "@/lib/format"
+import { DEFAULT_TIME_ZONE, formatDateTime } from "@/lib/format"
 
 export const metadata: Metadata = { title: "Settings" }
 export const dynamic = "force-dynamic"
@@ -32,7 +32,7 @@ export default async function SettingsPage() {
         <p className="text-sm text-graphite-600 dark:text-graphite-300">
           Every page, drive record and e-mail writes numbers and times this way. Without a choice the shop reads US customary units in {DEFAULT_TIME_ZONE.replace("_", " ")} time.
         </p>
-        <ShopFormatForm initial={{ units: settings.units, timeZone: settings.timeZone }} zones={zones} canEdit={me.role === "admin"} />
+        <ShopFormatForm initial={{ units: settings.units, timeZone: settings.timeZone }} zones={zones} canEdit={me.role === "admin"} serverNow={formatDateTime(Date.now(), settings.timeZone, { zoneName: true })} />
       </Card>
     </div>
   )
