@@ -45,9 +45,9 @@ describe("GET /api/numbers", () => {
     // IANA tz database: America/Regina keeps UTC-6 all year (no daylight saving), so shop midnight is 06:00 UTC.
     const admin = await signedIn(shop.admin)
     expect((await admin.patch("/api/shop/settings", { timeZone: "America/Regina" })).status).toBe(200)
-    // A Monday 8 to 14 days ago on the shop's calendar (the drives stay inside the 30-day period).
+    // The Monday 7 to 13 days ago on the shop's calendar (the drives stay inside the 30-day period).
     const today = new Date(Date.now() - 6 * 3_600_000) // the shop's wall clock, read as UTC
-    const daysBack = 8 + ((today.getUTCDay() + 6) % 7)
+    const daysBack = 7 + ((today.getUTCDay() + 6) % 7) // days since this week's Monday, plus a week
     const monday = Date.UTC(today.getUTCFullYear(), today.getUTCMonth(), today.getUTCDate() - daysBack)
     const mondayIso = new Date(monday).toISOString().slice(0, 10)
     const weekBefore = new Date(monday - 7 * 86_400_000).toISOString().slice(0, 10)
