@@ -62,6 +62,7 @@ const TECH = [
   { label: "Drives", path: "/drives", heading: /Drives/ },
   { label: "Record", path: "/record", heading: /Start a drive/ },
   { label: "Jobs", path: "/jobs", heading: /Jobs/ },
+  { label: "Roads", path: "/roads", heading: /Roads/ },
   { label: "Profiles", path: "/profiles", heading: /Condition profiles/ },
 ]
 const LEAD = [
@@ -80,7 +81,7 @@ const ADMIN = [
 ]
 
 describe("phone navigation: every page a role may open is a tap or two away", () => {
-  it("the technician reaches drives, the recorder, jobs and profiles", async () => {
+  it("the technician reaches drives, the recorder, jobs, roads and profiles", async () => {
     expect(await walk(shop.tech, TECH)).toEqual(TECH.map((p) => p.path))
   })
 
@@ -176,6 +177,25 @@ describe("the recorder's sun mode", () => {
     // The choice stays on the phone.
     await page.reload()
     await page.locator('[data-theme="sun"]').waitFor()
+    await page.context().close()
+  })
+})
+
+describe("the settings page's clock", () => {
+  it("hydrates without a mismatch when the phone's clock is not the server's, then shows the phone's time", async () => {
+    const page = await phonePage(shop.admin)
+    const problems: string[] = []
+    page.on("pageerror", (e) => problems.push(e.message))
+    page.on("console", (m) => {
+      if (m.type() === "error") problems.push(m.text())
+    })
+    // The phone's clock years behind the server's: a first render from it would not be the server's text.
+    await page.clock.setFixedTime(new Date("2023-03-15T18:07:00Z"))
+    await page.goto("/settings")
+    await page.getByRole("heading", { level: 1, name: "Settings" }).waitFor()
+    // The shop's zone is the product default, America/Chicago (UTC-5 in March 2023 after the 12th: CDT).
+    await expect.poll(async () => page.getByText(/^Now: /).textContent()).toBe("Now: Mar 15, 2023, 1:07 PM CDT")
+    expect(problems.filter((p) => /hydrat|#418|#423|#425/i.test(p))).toEqual([])
     await page.context().close()
   })
 })
