@@ -4,6 +4,7 @@ import "server-only"
 import type { Db } from "@/db/client"
 import { countRoadDrives, findLocationFromStarts, findRoadTracks, listCellTotals, listLoopDrives, listLoops } from "@/db/queries/roads"
 import { findShopSettings } from "@/db/queries/shop-settings"
+import { wholeSeconds } from "@/lib/format"
 import { cellCentre, cellCorners } from "@/lib/roads/cells"
 import { dayKindOf, localSlot, type DayKind } from "@/lib/roads/clock"
 import { cellFigures, compassWord, HOUR_WINDOW, rankLoops, TRUSTED_DRIVES, type CellFigures, type RankedLoop } from "@/lib/roads/model"
@@ -128,6 +129,8 @@ export async function loadGoodRoadsNow(db: Db, shopId: string, nowMs = Date.now(
           name: best.name,
           direction: best.direction,
           medianClearMinutes: Math.round(best.medianClearSeconds / 60),
+          /** Whole seconds, rounded down (lib/format wholeSeconds): what the recorder's line writes with formatDuration. */
+          medianClearSeconds: wholeSeconds(best.medianClearSeconds),
           drives: best.drives,
           trusted: best.trusted,
         }

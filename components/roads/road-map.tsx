@@ -2,6 +2,7 @@
 // (with the words in the legend and each cell's figures in its title), the best loops' tracks, the shop,
 // a north mark and a scale bar. Plain SVG drawn on the server: no tiles, no map library in the browser.
 import type { RoadsView } from "@/app/_server/roads"
+import { formatDuration, formatSpeedMph } from "@/lib/format"
 import { SHARE_CLASSES, createProjection, niceScale, shareClass, type ShareClass } from "@/lib/roads/model"
 
 export const SHARE_FILL: Record<ShareClass, string> = { most: "#f5a30a", often: "#ffbf3d", some: "#ffd27a", rare: "#9aa0a8" }
@@ -52,7 +53,7 @@ export function RoadMap({ view }: { view: RoadsView }) {
                 data-share={cls}
               >
                 <title>
-                  {`${Math.round(c.qualifyingShare * 100)} % qualifying, ${Math.round(c.followingShare * 100)} % following, median ${c.medianSpeedMph == null ? "-" : view.units === "imperial" ? `${Math.round(c.medianSpeedMph)} mph` : `${Math.round(c.medianSpeedMph * 1.609344)} km/h`}, ${c.minutes.toFixed(0)} min driven, ${c.harshPerHour.toFixed(1)} harsh events an hour`}
+                  {`${Math.round(c.qualifyingShare * 100)} % qualifying, ${Math.round(c.followingShare * 100)} % following, median ${formatSpeedMph(c.medianSpeedMph, view.units)}, ${formatDuration(c.minutes * 60)} driven, ${c.harshPerHour.toFixed(1)} harsh events an hour`}
                 </title>
               </polygon>
             )

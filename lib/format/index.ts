@@ -89,6 +89,11 @@ export function formatTime(at: Moment, timeZone?: string | null): string {
   return new Intl.DateTimeFormat("en-US", { hour: "numeric", minute: "2-digit", timeZone: zoneOrDefault(timeZone) }).format(d)
 }
 
+/** An hour of the shop's day (0-23), in formatTime's style: 9 -> "9:00 AM", 0 -> "12:00 AM". */
+export function formatHour(hour: number): string {
+  return new Intl.DateTimeFormat("en-US", { hour: "numeric", minute: "2-digit", timeZone: "UTC" }).format(Date.UTC(2000, 0, 1, ((hour % 24) + 24) % 24))
+}
+
 /** The calendar day in the zone as YYYY-MM-DD (file names, grouping by day). */
 export function isoDay(at: Moment, timeZone?: string | null): string {
   const parts = new Intl.DateTimeFormat("en-CA", { year: "numeric", month: "2-digit", day: "2-digit", timeZone: zoneOrDefault(timeZone) }).formatToParts(toDate(at))

@@ -32,7 +32,8 @@ async function expectRoadsPage(page: Page) {
   expect(await page.getByTestId("road-legend").textContent()).toContain("Mostly qualifying")
   const loops = page.getByTestId("best-loop")
   expect(await loops.count()).toBeGreaterThanOrEqual(1)
-  expect(await loops.first().textContent()).toMatch(/Learn complete in a median \d+ min/)
+  // lib/format formatDuration's one style: "15 min", "15 min 4 s", "48 s", "1 h 2 min"
+  expect(await loops.first().textContent()).toMatch(/Learn complete in a median \d+ (h|min|s)( \d+ (min|s))* \(fastest \d+ (h|min|s)( \d+ (min|s))*\)/)
   expect(await page.getByTestId("roads-explained").textContent()).toMatch(/rest on \d+ scored drives/)
 }
 
@@ -63,7 +64,7 @@ describe("the Roads page and the start screen line", () => {
     await page.goto("/record")
     const line = page.getByTestId("good-roads-now")
     await line.waitFor({ timeout: 30_000 })
-    expect(await line.textContent()).toMatch(/Good roads now: .+ learn complete in a median \d+ min, from \d+ drives? at this hour/)
+    expect(await line.textContent()).toMatch(/Good roads now: .+ learn complete in a median \d+ (h|min|s)( \d+ (min|s))*, from \d+ drives? at this hour/)
     await context.close()
   })
 })

@@ -13,21 +13,24 @@ import { ROAD_RESOLUTION } from "@/lib/roads/cells"
 import { WEEKDAYS } from "@/lib/roads/clock"
 import { HOUR_WINDOW, NEAR_SHOP_M } from "@/lib/roads/model"
 import { roadsQuery } from "@/lib/validation/roads"
+import { formatDistance, formatDuration, formatHour, formatLength } from "@/lib/format"
 
 export const metadata: Metadata = { title: "Roads" }
 export const dynamic = "force-dynamic"
 
-const hh = (h: number) => `${String(h).padStart(2, "0")}:00`
-const minutes = (s: number) => `${Math.round(s / 60)} min`
+/** A resolution-9 H3 cell is about 350 m across (twice its mean edge of about 174 m, from H3's table of cell areas and edge lengths). */
+const H3_RES9_ACROSS_M = 350
+
+const hh = formatHour
 
 function slotWords(view: RoadsView) {
-  const hour = view.hour == null ? "any hour" : `${hh((view.hour - HOUR_WINDOW + 24) % 24)}-${hh((view.hour + HOUR_WINDOW + 1) % 24)}`
+  const hour = view.hour == null ? "any hour" : `${hh((view.hour - HOUR_WINDOW + 24) % 24)} to ${hh((view.hour + HOUR_WINDOW + 1) % 24)}`
   const day = view.dayKind == null ? "any day" : view.dayKind === "weekday" ? "weekdays" : "weekends"
   return `${day}, ${hour}`
 }
 
 function distance(view: RoadsView, m: number) {
-  return view.units === "imperial" ? `${(m / 1609.344).toFixed(1)} mi` : `${(m / 1000).toFixed(1)} km`
+  return formatDistance(m, view.units)
 }
 
 export default async function RoadsPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
@@ -99,7 +102,7 @@ export default async function RoadsPage({ searchParams }: { searchParams: Promis
 
       <div className="grid gap-4 xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
         <Card className="space-y-2">
-          <h2 className="text-lg font-semibold">Road cells, {view.hour == null ? "all hours" : `${hh(view.hour)}-${hh((view.hour + 1) % 24)}`}</h2>
+          <h2 className="text-lg font-semibold">Road cells, {view.hour == null ? "all hours" : `${hh(view.hour)} to ${hh((view.hour + 1) % 24)}`}</h2>
           {view.location ? (
             view.cells.length ? (
               <RoadMap view={view} />
@@ -126,7 +129,7 @@ export default async function RoadsPage({ searchParams }: { searchParams: Promis
                       {l.direction ? <span className="font-normal text-graphite-600 dark:text-graphite-300">· {l.direction}</span> : null}
                     </p>
                     <p className="tabular flex items-center gap-1">
-                      <Clock aria-hidden className="size-4" /> Learn complete in a median {minutes(l.medianClearSeconds)} (fastest {minutes(l.fastestClearSeconds)})
+                      <Clock aria-hidden className="size-4" /> Learn complete in a median {formatDuration(l.medianClearSeconds)} (fastest {formatDuration(l.fastestClearSeconds)})
                     </p>
                     <p className="tabular text-sm text-graphite-600 dark:text-graphite-300">
                       {Math.round(l.qualifyingShare * 100)} % of the driving at qualifying speed · {l.drives} {l.drives === 1 ? "drive" : "drives"} · track {distance(view, l.lengthMeters)}
@@ -151,7 +154,7 @@ export default async function RoadsPage({ searchParams }: { searchParams: Promis
               learn complete. {view.completedDrives < view.trustedDrives ? <strong>That is too few to trust yet.</strong> : null}
             </p>
             <p>
-              Every scored drive adds its samples to hexagonal cells of about 350 m across (H3 grid, resolution {ROAD_RESOLUTION}): the minutes driven, the share at qualifying
+              Every scored drive adds its samples to hexagonal cells of about {formatLength(H3_RES9_ACROSS_M, view.units)} across (H3 grid, resolution {ROAD_RESOLUTION}): the minutes driven, the share at qualifying
               speed and following, the median speed and the harsh events, by hour of day and weekday in the shop&apos;s time zone ({view.timeZone}). A cell&apos;s colour is its share
               of qualifying time; its other figures show when you point at it.
             </p>

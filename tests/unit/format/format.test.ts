@@ -7,6 +7,7 @@ import {
   formatDay,
   formatDistance,
   formatDuration,
+  formatHour,
   formatLength,
   formatLengthFt,
   formatSpeed,
@@ -73,6 +74,15 @@ describe("dates: one style, in the shop's time zone", () => {
     expect(isoDay("2026-12-02T03:00:00Z", "UTC")).toBe("2026-12-02")
     expect(formatDay("2026-11-30T18:00:00Z", "America/Chicago")).toBe("Nov 30")
     expect(formatTime(noonish, "America/Chicago")).toBe("9:42 AM")
+  })
+
+  it("writes an hour of the shop's day in formatTime's style (12-hour clock, en-US)", () => {
+    expect(formatHour(9)).toBe(formatTime("2026-12-02T15:00:00Z", "America/Chicago"))
+    expect(formatHour(9)).toBe("9:00 AM")
+    expect(formatHour(0)).toBe("12:00 AM")
+    expect(formatHour(12)).toBe("12:00 PM")
+    expect(formatHour(23)).toBe("11:00 PM")
+    expect(formatHour(24)).toBe("12:00 AM")
   })
 
   it("writes a machine-readable moment in the shop's zone with its UTC offset (ISO 8601)", () => {
