@@ -12,8 +12,15 @@ export interface RevisionRow {
 }
 
 /** The record's revisions, newest first: when, why, the verdict then, and the code its PDFs carry. */
-export function RevisionHistory({ revisions }: { revisions: RevisionRow[] }) {
-  if (!revisions.length) return <p className="text-sm text-graphite-600 dark:text-graphite-300">The record gets its first revision when the drive is finished.</p>
+export function RevisionHistory({ revisions, finished }: { revisions: RevisionRow[]; finished: boolean }) {
+  if (!revisions.length)
+    return (
+      <p className="text-sm text-graphite-600 dark:text-graphite-300">
+        {finished
+          ? "No revision yet. The record gets its first one, with its verification code, the first time it is opened, e-mailed or shared."
+          : "The record gets its first revision when the drive is finished."}
+      </p>
+    )
   const changed = revisions.some((r, i) => i < revisions.length - 1 && r.verdict !== revisions[i + 1]!.verdict)
   return (
     <div className="space-y-2" data-testid="revision-history">

@@ -123,7 +123,7 @@ export default async function DrivesPage({ searchParams }: { searchParams: Promi
                           ? ` · ${d.vehicle_description}`
                           : ""}
                     </p>
-                    <p className="truncate text-sm text-graphite-600 dark:text-graphite-300">
+                    <p className="text-sm break-words text-graphite-600 dark:text-graphite-300">
                       {when(d.created_at, prefs.timeZone)} · {d.driver_name ?? "Unknown driver"}
                       {d.co_driver_name ? ` with ${d.co_driver_name}` : ""}
                       {d.source === "import" ? " · imported" : ""}

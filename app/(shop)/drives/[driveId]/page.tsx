@@ -164,6 +164,7 @@ export default async function DrivePage({ params }: { params: Promise<{ driveId:
             <h2 className="mb-2 text-lg font-semibold">Revisions of the record</h2>
             <RevisionHistory
               revisions={revisions.map((r) => ({ revision: r.revision, causeText: CAUSE_TEXT[r.cause], verdict: r.verdict, createdAt: new Date(r.created_at).toISOString(), byName: r.by_name, code: r.code }))}
+              finished={head.status === "finished"}
             />
           </Card>
           <Card className="space-y-1">
