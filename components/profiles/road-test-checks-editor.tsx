@@ -3,7 +3,7 @@
 import { Plus, Trash2 } from "lucide-react"
 import { Button } from "@/components/ui/button"
 import { Card } from "@/components/ui/card"
-import { Field, Input, Select } from "@/components/ui/field"
+import { Field, Input, Select, Textarea } from "@/components/ui/field"
 import type { RoadTestCheck } from "@/lib/drive-file"
 import { SENSOR_LABEL } from "@/lib/labels"
 
@@ -60,8 +60,9 @@ export function RoadTestChecksEditor({
         {drafts.map((d, i) => (
           <li key={d.key} className="grid gap-2 rounded-lg border border-graphite-200 p-2 sm:grid-cols-6 dark:border-asphalt-700">
             <div className="sm:col-span-3">
-              <Field label="Check" htmlFor={`rtc-label-${i}`} hint={`${SENSOR_LABEL[d.system] ?? d.system} · key ${d.key}`} error={errors[`roadTestChecks.${i}.label`]}>
-                <Input id={`rtc-label-${i}`} value={d.label} disabled={!canEdit} onChange={(e) => update(i, { label: e.target.value })} />
+              <Field label="Check" htmlFor={`rtc-label-${i}`} hint={SENSOR_LABEL[d.system] ?? d.system} error={errors[`roadTestChecks.${i}.label`]}>
+                {/* Two lines on a phone: a check's words are a sentence, not a word. */}
+                <Textarea id={`rtc-label-${i}`} rows={2} className="min-h-12" value={d.label} disabled={!canEdit} onKeyDown={(e) => e.key === "Enter" && e.preventDefault()} onChange={(e) => update(i, { label: e.target.value.replace(/\s*\n\s*/g, " ") })} />
               </Field>
             </div>
             <Field label="Minimum speed (mph)" htmlFor={`rtc-speed-${i}`} error={errors[`roadTestChecks.${i}.minSpeedMph`]}>
