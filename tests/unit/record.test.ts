@@ -5,10 +5,7 @@ import {
   buildDriveRecordPdf,
   checklistRows,
   computeTimeline,
-  formatConditionRequirement,
-  formatConditionValue,
   formatDuration,
-  formatMinutes,
   projectTrack,
   roLabel,
   toWinAnsi,
@@ -129,19 +126,6 @@ describe("drive record PDF", () => {
 })
 
 describe("record helpers", () => {
-  it("rounds minutes down while short of the need, so 599 s never reads as 10.0", () => {
-    expect(formatMinutes(599, 600)).toBe("9.9")
-    expect(formatMinutes(600, 600)).toBe("10.0")
-  })
-
-  it("words each condition's value and need in the unit people read", () => {
-    expect(formatConditionValue({ key: "qualifying-time", value: 342, required: 600, unit: "s" })).toBe("5.7 min")
-    expect(formatConditionRequirement({ key: "time-limit", value: 0, required: 1800, unit: "s" })).toBe("at most 30.0 min")
-    expect(formatConditionValue({ key: "data-gaps", value: 12.4, required: 0, unit: "s" })).toBe("12 s")
-    expect(formatConditionRequirement({ key: "data-gaps", value: 0, required: 0, unit: "s" })).toBe("none")
-    expect(formatConditionRequirement({ key: "verified", value: 40, required: 25, unit: "mph" })).toBe("25 mph or faster")
-  })
-
   it("adds RO to a repair order number only when it lacks it", () => {
     expect(roLabel("RO-24102")).toBe("RO-24102")
     expect(roLabel("24102")).toBe("RO 24102")
