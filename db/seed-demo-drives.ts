@@ -3,6 +3,7 @@
 // RO number exists is left alone, so re-running changes nothing.
 import { randomUUID } from "node:crypto"
 import { resolveProfile } from "@/lib/drive-file/profile"
+import { describeVehicle, VERDICT_WORD } from "@/lib/record/format"
 import { scoreDrive } from "@/lib/scoring"
 import { generateDrive, type DrivePattern } from "@/lib/tracks"
 import { withCheckDigit } from "@/lib/vin"
@@ -88,11 +89,12 @@ const JOBS: DemoJob[] = [
 ]
 
 export async function seedDemoJobsAndDrives(db: Db, shopId: string) {
-  const people = await db.selectFrom("app_user").select(["id", "role", "email"]).where("shop_id", "=", shopId).orderBy("email").execute()
+  const people = await db.selectFrom("app_user").select(["id", "role", "email", "name"]).where("shop_id", "=", shopId).orderBy("email").execute()
   const tech = people.find((p) => p.role === "technician")
   const codriver = people.find((p) => p.role === "co_driver")
   const lead = people.find((p) => p.role === "shop_lead") ?? people.find((p) => p.role === "admin")
   if (!tech || !lead) return
+  const leads = people.filter((p) => p.role === "shop_lead")
   await seedOpenJobs(db, shopId, lead.id, tech.id)
   const existing = new Set(
     (await db.selectFrom("job").select("ro_number").where("shop_id", "=", shopId).where("ro_number", "in", JOBS.map((j) => j.ro)).execute()).map((r) => r.ro_number),
@@ -150,6 +152,7 @@ export async function seedDemoJobsAndDrives(db: Db, shopId: string) {
         .execute()
 
       let jobStatus: "complete" | "review" | "redo" = "complete"
+      const vehicleWords = describeVehicle(demo.vehicle)
       for (const d of demo.drives) {
         const startMs = Math.floor(daysAgo(d.daysAgo).getTime() / 60_000) * 60_000
         const file = generateDrive({ seed: d.seed, pattern: d.pattern, minutes: d.minutes, startMs, profile: resolved })
@@ -202,11 +205,32 @@ export async function seedDemoJobsAndDrives(db: Db, shopId: string) {
             .values({ shop_id: shopId, drive_id: driveId, decision: d.review === "approved" ? "approve" : "redo", note: d.note ?? "", reviewer_id: lead.id, created_at: reviewedAt })
             .execute()
           if (d.review === "redo") {
+            // As app/_server/review.ts words it: the notice leads to the job, where "Drive again" is the main action.
             await trx
               .insertInto("notification")
-              .values({ shop_id: shopId, user_id: tech.id, message: `Your drive on ${demo.ro} was sent back: ${d.note ?? ""}`, link: `/drives/${driveId}`, created_at: reviewedAt, read_at: reviewedAt })
+              .values({
+                shop_id: shopId,
+                user_id: tech.id,
+                message: `${lead.name} sent back your drive (${demo.ro}, ${vehicleWords}): ${d.note ?? ""}`,
+                link: `/jobs/${job.id}`,
+                created_at: reviewedAt,
+                read_at: reviewedAt,
+              })
               .execute()
           }
+        } else if (needsReview) {
+          // A drive waiting for review has put a notice under each lead's bell (app/_server/review-notices.ts).
+          for (const l of leads)
+            await trx
+              .insertInto("notification")
+              .values({
+                shop_id: shopId,
+                user_id: l.id,
+                message: `A drive waits for your review (${demo.ro}, ${vehicleWords}): ${VERDICT_WORD[score.verdict]}, driven by ${tech.name}.`,
+                link: `/drives/${driveId}`,
+                created_at: new Date(score.endedAtMs ?? startMs),
+              })
+              .execute()
         }
         jobStatus = reviewStatus === "redo" ? "redo" : reviewStatus === "approved" || !needsReview ? "complete" : "review"
       }
