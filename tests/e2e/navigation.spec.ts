@@ -168,6 +168,9 @@ describe("the recorder's sun mode", () => {
     await page.getByTestId("sun-toggle").click()
     await page.locator('[data-theme="sun"]').waitFor()
     await page.waitForLoadState("networkidle")
+    // It is a light theme in fact: the recorder's surfaces turn white and its text black (app/(cab)/sun.css).
+    const look = await page.getByTestId("cab-root").evaluate((el) => ({ bg: getComputedStyle(el).backgroundColor, fg: getComputedStyle(el).color }))
+    expect(look).toEqual({ bg: "rgb(255, 255, 255)", fg: "rgb(0, 0, 0)" })
     const aa = await new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa", "wcag22a", "wcag22aa"]).analyze()
     const aaa = await new AxeBuilder({ page }).withRules(["color-contrast-enhanced"]).analyze()
     const problems = [...aa.violations.filter((v) => v.impact === "serious" || v.impact === "critical"), ...aaa.violations].map(
