@@ -122,11 +122,14 @@ export default async function RoadsPage({ searchParams }: { searchParams: Promis
                 {view.loops.map((l, i) => (
                   <li key={l.loopId} className="space-y-1 rounded-lg border border-graphite-200 p-3 dark:border-asphalt-700" data-testid="best-loop">
                     <p className="flex items-center gap-2 font-semibold">
-                      <span className="inline-flex size-7 items-center justify-center rounded-full text-sm text-white" style={{ backgroundColor: LOOP_STROKE[i] }}>
+                      <span className="inline-flex size-7 shrink-0 items-center justify-center rounded-full text-sm text-white" style={{ backgroundColor: LOOP_STROKE[i] }}>
                         {l.rank}
                       </span>
-                      {l.name}
-                      {l.direction ? <span className="font-normal text-graphite-600 dark:text-graphite-300">· {l.direction}</span> : null}
+                      {/* One run of words, so a long name and its direction wrap together rather than in two columns. */}
+                      <span className="min-w-0">
+                        {l.name}
+                        {l.direction ? <span className="font-normal text-graphite-600 dark:text-graphite-300"> · {l.direction}</span> : null}
+                      </span>
                     </p>
                     <p className="tabular flex items-center gap-1">
                       <Clock aria-hidden className="size-4" /> Learn complete in a median {formatDuration(l.medianClearSeconds)} (fastest {formatDuration(l.fastestClearSeconds)})
