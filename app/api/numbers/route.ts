@@ -2,7 +2,7 @@ import { z } from "zod"
 import { requireRole } from "@/app/_server/auth"
 import { loadNumbers, loadNumbersDrives, NUMBERS_DEFAULT_DAYS } from "@/app/_server/numbers"
 import { parseQuery, route } from "@/app/_server/route"
-import { getDb } from "@/db/client"
+import { getReadDb } from "@/db/client"
 import { numbersToCsv } from "@/lib/numbers"
 
 const query = z.object({
@@ -14,7 +14,7 @@ export const GET = route(async (req) => {
   const { user } = await requireRole("shop_lead")
   const { days, format } = parseQuery(req, query)
   if (format === "csv") {
-    const drives = await loadNumbersDrives(getDb(), user.shopId, days)
+    const drives = await loadNumbersDrives(getReadDb(), user.shopId, days)
     return new Response(numbersToCsv(drives), {
       headers: {
         "content-type": "text/csv; charset=utf-8",
@@ -23,5 +23,5 @@ export const GET = route(async (req) => {
       },
     })
   }
-  return Response.json({ days, ...(await loadNumbers(getDb(), user.shopId, days)) })
+  return Response.json({ days, ...(await loadNumbers(getReadDb(), user.shopId, days)) })
 })
