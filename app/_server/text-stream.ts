@@ -16,6 +16,7 @@ export function textStream(
   const encoder = new TextEncoder()
   let timer: ReturnType<typeof setTimeout> | undefined
   let ended = false
+  let cancelled = false
   const end = async () => {
     if (timer) clearTimeout(timer)
     timer = undefined
@@ -49,18 +50,23 @@ export function textStream(
               return
             }
             if (value.length === 0) continue
+            if (cancelled) return
             controller.enqueue(encoder.encode(value))
             break
           }
         } catch (error) {
-          console.error("[straightaway] a streamed download failed after it started:", (error as Error).message)
-          controller.error(error)
+          // A reader that went away while this chunk was being made: nothing failed, there is no one to tell.
+          if (!cancelled) {
+            console.error("[straightaway] a streamed download failed after it started:", (error as Error).message)
+            controller.error(error)
+          }
           await end()
           return
         }
         watch(controller)
       },
       async cancel() {
+        cancelled = true
         await end()
       },
     },
