@@ -9,8 +9,8 @@ import { findDriveInShop } from "./drives"
 import { listMarks } from "./marks"
 import { SAMPLE_COLUMNS, sampleOfRow, type SampleRow } from "./samples"
 
-/** Rows per FETCH: about 1 MB of GPX a chunk, whatever the drive's length. */
-export const EXPORT_FETCH_ROWS = 5000
+/** Rows per FETCH: a few hundred kB of rows at a time, whatever the drive's length. */
+export const EXPORT_FETCH_ROWS = 2000
 
 export interface DriveExport {
   /** The drive file with `samples: []`. */

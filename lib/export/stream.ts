@@ -1,7 +1,7 @@
 // The exports written piece by piece as the samples arrive (from a database cursor: db/queries/drive-export.ts),
 // so a drive of any length is never held whole. Byte for byte the same as toGpx, toCsv and JSON.stringify of
 // the whole file (tests/unit/export/stream.test.ts and tests/integration/drives/export-stream.test.ts hold them
-// to it). Each generator yields one string per chunk of samples.
+// to it). Each generator yields a string of at most PIECE_LINES lines at a time.
 import type { AnyDriveFile, Mark2 as Mark, Sample } from "@/lib/drive-file/schema"
 import { resolveProfile } from "@/lib/drive-file/profile"
 import { applyLeadMark, type LeadState } from "@/lib/scoring/lead-state"
@@ -14,6 +14,13 @@ import { sortMarks, type SampleRow } from "./shared"
  * order): its format, kind, profile, road test and marks.
  */
 export type DriveFileHead = AnyDriveFile
+
+/**
+ * Lines per yielded piece: about 60 kB of GPX, well under V8's large-object size (128 kB), so each piece and its
+ * bytes die young instead of piling up in the old generation until a full collection (issue 10: a 360,000-sample
+ * export measured 313 MB with 1 MB pieces).
+ */
+export const PIECE_LINES = 256
 
 /** Samples in ascending `t`, a chunk at a time. */
 export type SampleChunks = AsyncIterable<readonly Sample[]>
@@ -74,19 +81,21 @@ export async function* gpxChunks(head: DriveFileHead, lookahead: GpxLookahead, s
   }
   gpxTrackHead(out, meta)
   yield lines(out, "\n")
+  out.length = 0
   let prevT: number | undefined
   for await (const chunk of samples) {
-    out.length = 0
     for (const sample of chunk) {
       if (!classify(sample).kept) continue
       if (prevT === undefined) out.push("<trkseg>")
       else if (sample.t - prevT > maxGapMs) out.push("</trkseg>", "<trkseg>")
       prevT = sample.t
       out.push(gpxTrkpt(sample, leadAt(sample.t)))
+      if (out.length >= PIECE_LINES) {
+        yield lines(out, "\n")
+        out.length = 0
+      }
     }
-    if (out.length > 0) yield lines(out, "\n")
   }
-  out.length = 0
   gpxTail(out, prevT !== undefined)
   yield lines(out, "\n")
 }
@@ -98,10 +107,15 @@ export async function* csvChunks(head: DriveFileHead, samples: SampleChunks): As
   yield SAMPLE_CSV_COLUMNS.join(",") + "\r\n"
   const out: string[] = []
   for await (const chunk of samples) {
-    out.length = 0
-    for (const sample of chunk) out.push(csvSampleLine(classify(sample), leadAt(sample.t)))
-    if (out.length > 0) yield lines(out, "\r\n")
+    for (const sample of chunk) {
+      out.push(csvSampleLine(classify(sample), leadAt(sample.t)))
+      if (out.length >= PIECE_LINES) {
+        yield lines(out, "\r\n")
+        out.length = 0
+      }
+    }
   }
+  yield lines(out, "\r\n")
 }
 
 /** JSON.stringify of the whole drive file, streamed. */
@@ -114,13 +128,20 @@ export async function* driveFileChunks(head: DriveFileHead, samples: SampleChunk
   if (at < 0 || whole.indexOf(JSON.stringify(standIn), at + 1) >= 0) throw new Error("the drive file's samples could not be placed")
   yield whole.slice(0, at) + "["
   let first = true
-  for await (const chunk of samples) {
-    if (chunk.length === 0) continue
-    const body = chunk.map((s) => JSON.stringify(s)).join(",")
-    yield first ? body : "," + body
+  const out: string[] = []
+  const flush = () => {
+    const body = (first ? "" : ",") + out.join(",")
     first = false
+    out.length = 0
+    return body
   }
-  yield "]" + whole.slice(at + JSON.stringify(standIn).length)
+  for await (const chunk of samples) {
+    for (const sample of chunk) {
+      out.push(JSON.stringify(sample))
+      if (out.length >= PIECE_LINES) yield flush()
+    }
+  }
+  yield (out.length > 0 ? flush() : "") + "]" + whole.slice(at + JSON.stringify(standIn).length)
 }
 
 /** Every line followed by the end-of-line, as `lines.join(eol) + eol` writes them. */

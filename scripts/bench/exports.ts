@@ -81,6 +81,7 @@ export const exportPeakRssMb360k: BenchFigure = {
           reset = false
         }
       }
+      const beforeKb = Math.max(...pids.map((pid) => statusKb(pid, "VmRSS")))
       let polledKb = 0
       const poll = setInterval(() => {
         for (const pid of pids) polledKb = Math.max(polledKb, statusKb(pid, "VmRSS"))
@@ -97,14 +98,14 @@ export const exportPeakRssMb360k: BenchFigure = {
             for (const b of chunk) if (b === 10) newlines++
           }
           if (format === "csv" && newlines !== SAMPLES + 1) throw new Error(`the CSV has ${newlines} lines, not ${SAMPLES + 1}`)
-          sizes.push(`${format} ${(bytes / 1e6).toFixed(1)} MB`)
+          sizes.push(`${format} ${(bytes / 1e6).toFixed(1)} MB (peak so far ${((polledKb * 1024) / 1e6).toFixed(0)} MB)`)
         }
       } finally {
         clearInterval(poll)
       }
       const hwmKb = Math.max(...pids.map((pid) => statusKb(pid, "VmHWM")))
       console.error(
-        `[bench] exports of ${SAMPLES} samples (${sizes.join(", ")}); server processes ${pids.join(",")}: polled peak ${(polledKb * 1.024 / 1000).toFixed(0)} MB, VmHWM ${reset ? "after reset" : "NOT reset (no access to clear_refs)"} ${(hwmKb * 1.024 / 1000).toFixed(0)} MB`,
+        `[bench] exports of ${SAMPLES} samples (${sizes.join(", ")}); server processes ${pids.join(",")}: ${((beforeKb * 1024) / 1e6).toFixed(0)} MB before the downloads, polled peak ${((polledKb * 1024) / 1e6).toFixed(0)} MB, VmHWM ${reset ? "after reset" : "NOT reset (no access to clear_refs)"} ${((hwmKb * 1024) / 1e6).toFixed(0)} MB`,
       )
       return (Math.max(reset ? hwmKb : 0, polledKb) * 1024) / 1e6
     } finally {
