@@ -7,12 +7,17 @@ pg.types.setTypeParser(pg.types.builtins.INT8, (value) => Number(value))
 
 export type Db = Kysely<Database>
 
-const globalForDb = globalThis as unknown as { straightawayPool?: pg.Pool; straightawayDb?: Db }
+const globalForDb = globalThis as unknown as { straightawayPool?: pg.Pool; straightawayDb?: Db; straightawayReadDb?: Db }
 
-export function createPool(connectionString = process.env.DATABASE_URL) {
+/** How the app's connections name themselves (pg_stat_activity.application_name). */
+export const APPLICATION_NAME = "straightaway"
+export const READ_APPLICATION_NAME = "straightaway-replica-reads"
+
+export function createPool(connectionString = process.env.DATABASE_URL, applicationName = APPLICATION_NAME) {
   if (!connectionString) throw new Error("DATABASE_URL is not set")
   const pool = new pg.Pool({
     connectionString,
+    application_name: applicationName,
     max: Number(process.env.DATABASE_POOL_MAX ?? 10),
     // A database that does not answer fails the request (a 503) instead of queueing it for ever.
     connectionTimeoutMillis: Number(process.env.DATABASE_CONNECT_TIMEOUT_MS ?? 5000),
@@ -34,6 +39,21 @@ export function getPool(): pg.Pool {
 export function getDb(): Db {
   globalForDb.straightawayDb ??= new Kysely<Database>({ dialect: new PostgresDialect({ pool: getPool() }) })
   return globalForDb.straightawayDb
+}
+
+/**
+ * Where analytics and list reads go (`dbRead`): the streaming replica named by DATABASE_REPLICA_URL, else the
+ * primary. Only for reads that may be a moment behind: never inside a write, never for what a request reads back
+ * after it writes, never for what decides a write (access checks before a change, claims, locks). Call sites:
+ * the numbers, the review queue, drive and job lists, the Roads page (DEVELOPERS.md "Read replica").
+ */
+export function getReadDb(): Db {
+  const replicaUrl = process.env.DATABASE_REPLICA_URL
+  if (!replicaUrl) return getDb()
+  globalForDb.straightawayReadDb ??= new Kysely<Database>({
+    dialect: new PostgresDialect({ pool: createPool(replicaUrl, READ_APPLICATION_NAME) }),
+  })
+  return globalForDb.straightawayReadDb
 }
 
 export function createDb(connectionString?: string): Db {

@@ -2,6 +2,8 @@ import { z } from "zod"
 
 const schema = z.object({
   DATABASE_URL: z.string().min(1),
+  // A streaming replica for analytics and list reads (db/client.ts getReadDb); unset: everything reads the primary.
+  DATABASE_REPLICA_URL: z.string().optional(),
   APP_URL: z.string().url().default("http://127.0.0.1:3000"),
   APP_SECRET: z.string().min(16).default("development-only-secret-change-me"),
   NODE_ENV: z.enum(["development", "production", "test"]).default("development"),

@@ -15,7 +15,7 @@ if (!process.env.BASE_URL || !process.env.DATABASE_URL) {
     s3Port: Number(process.env.BENCH_S3_PORT ?? 14589),
     smtpPort: Number(process.env.BENCH_SMTP_PORT ?? 12545),
   })
-  env = { ...stack.env, BASE_URL: stack.baseUrl, NODE_ENV: "production" }
+  env = { ...stack.env, BASE_URL: stack.baseUrl, BENCH_SERVER_PID: String(stack.server.pid), NODE_ENV: "production" }
 }
 let code = 1
 try {

@@ -15,18 +15,42 @@ if (missing.length) {
   aptInstall(missing)
 }
 
+// The read-replica suite (tests/integration/replica/) needs a streaming standby and a second app that reads from
+// it; both are started only when the run can include that suite: no file named, or one naming "replica", or
+// TEST_REPLICA=1 (TEST_REPLICA=0: never). Every other suite talks to the first app, which reads the primary only.
+const vitestArgs = process.argv.slice(2)
+const takesValue = new Set(["--project", "-t", "--testNamePattern", "--reporter", "--shard", "--config", "-c", "--root", "-r", "--dir", "--exclude"])
+const filters = vitestArgs.filter((a, i) => !a.startsWith("-") && !takesValue.has(vitestArgs[i - 1]))
+const projects = vitestArgs.flatMap((a, i) => (vitestArgs[i - 1] === "--project" ? [a] : a.startsWith("--project=") ? [a.slice(10)] : []))
+const wantsReplica =
+  process.env.TEST_REPLICA === "1" ||
+  (process.env.TEST_REPLICA !== "0" &&
+    (projects.length === 0 || projects.includes("integration")) &&
+    (filters.length === 0 || filters.some((f) => f.includes("replica"))))
+
+const port = Number(process.env.TEST_PORT ?? 3100)
+const pgPort = Number(process.env.TEST_PGPORT ?? 54339)
 let code = 1
 let stack = null
 try {
   stack = await startStack({
     name: "test",
-    port: Number(process.env.TEST_PORT ?? 3100),
-    pgPort: Number(process.env.TEST_PGPORT ?? 54339),
+    port,
+    pgPort,
     s3Port: Number(process.env.TEST_S3_PORT ?? 14569),
     smtpPort: Number(process.env.TEST_SMTP_PORT ?? 12525),
+    replica: wantsReplica
+      ? { port: Number(process.env.TEST_REPLICA_APP_PORT ?? port + 1000), pgPort: Number(process.env.TEST_PG_REPLICA_PORT ?? pgPort + 1000) }
+      : null,
   })
-  const env = { ...stack.env, TEST_BASE_URL: stack.baseUrl, CHROMIUM_PATH: chromium, NODE_ENV: "test" }
-  code = run(npx("vitest"), ["run", ...process.argv.slice(2)], { env, check: false }).status ?? 1
+  const env = {
+    ...stack.env,
+    TEST_BASE_URL: stack.baseUrl,
+    CHROMIUM_PATH: chromium,
+    NODE_ENV: "test",
+    ...(stack.replica ? { TEST_REPLICA_BASE_URL: stack.replica.baseUrl, TEST_REPLICA_DATABASE_URL: stack.replica.databaseUrl } : {}),
+  }
+  code = run(npx("vitest"), ["run", ...vitestArgs], { env, check: false }).status ?? 1
 } catch (error) {
   log(`Test set-up failed: ${error.message}`)
 } finally {

@@ -1,8 +1,9 @@
 import type { RoadTestCheck } from "@/lib/drive-file/road-test"
-import { DRIVE_FORMAT, DRIVE_FORMAT_2, type AnyDriveFile, type DriveFile, type Mark, type Profile } from "@/lib/drive-file/schema"
+import { DRIVE_FORMAT, DRIVE_FORMAT_2, type AnyDriveFile, type DriveFile, type Mark, type Profile, type Sample } from "@/lib/drive-file/schema"
 import { notFound } from "@/lib/errors"
 import type { Db } from "../client"
 import { findDriveInShop } from "./drives"
+import type { Drive } from "../types"
 import { listMarks } from "./marks"
 import { listSamples } from "./samples"
 
@@ -15,6 +16,11 @@ export async function loadDriveFile(db: Db, driveId: string, shopId: string): Pr
   const drive = await findDriveInShop(db, driveId, shopId)
   if (!drive) notFound("That drive")
   const [samples, marks] = await Promise.all([listSamples(db, driveId, shopId), listMarks(db, driveId, shopId)])
+  return driveFileOf(drive, samples, marks)
+}
+
+/** The file from the drive row, its samples by time and its marks (listMarks); the one place its shape is made. */
+export function driveFileOf(drive: Drive, samples: Sample[], marks: Awaited<ReturnType<typeof listMarks>>): AnyDriveFile {
   const fileMarks = marks.map(({ id: _id, ...m }) => m)
   // A learn drive with no check marks stays a version 1 file, exactly as before road tests existed.
   if (drive.kind === "learn" && !fileMarks.some((m) => m.kind === "check")) {

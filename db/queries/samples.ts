@@ -87,17 +87,30 @@ export async function insertSamples(trx: Db, driveId: string, shopId: string, sa
 export async function listSamples(db: Db, driveId: string, shopId: string): Promise<Sample[]> {
   const rows = await db
     .selectFrom("sample")
-    .select(["t", "lat", "lon", "speed", "accuracy"])
+    .select(SAMPLE_COLUMNS)
     .where("drive_id", "=", driveId)
     .where("shop_id", "=", shopId)
     .orderBy("t", "asc")
     .execute()
-  return rows.map((r) => {
-    const s: Sample = { t: r.t, lat: r.lat, lon: r.lon }
-    if (r.speed !== null) s.speed = r.speed
-    if (r.accuracy !== null) s.accuracy = r.accuracy
-    return s
-  })
+  return rows.map(sampleOfRow)
+}
+
+/** The columns a Sample is read from (listSamples, and the export cursor in db/queries/drive-export.ts). */
+export const SAMPLE_COLUMNS = ["t", "lat", "lon", "speed", "accuracy"] as const
+
+export interface SampleRow {
+  t: number
+  lat: number
+  lon: number
+  speed: number | null
+  accuracy: number | null
+}
+
+export function sampleOfRow(r: SampleRow): Sample {
+  const s: Sample = { t: r.t, lat: r.lat, lon: r.lon }
+  if (r.speed !== null) s.speed = r.speed
+  if (r.accuracy !== null) s.accuracy = r.accuracy
+  return s
 }
 
 /**

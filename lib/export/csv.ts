@@ -1,6 +1,7 @@
 import type { AnyDriveFile as DriveFile } from "@/lib/drive-file/schema"
 import { mpsToMph } from "@/lib/units"
-import { classifySamples, formatDecimal, isoUtc, leadStatesAt, sortMarks } from "./shared"
+import type { LeadState } from "@/lib/scoring/lead-state"
+import { classifySamples, formatDecimal, isoUtc, leadStatesAt, sortMarks, type SampleRow } from "./shared"
 
 export const SAMPLE_CSV_COLUMNS = [
   "time_utc",
@@ -26,26 +27,26 @@ export function toCsv(file: DriveFile): string {
     sortMarks(file.marks),
   )
   const lines = [SAMPLE_CSV_COLUMNS.join(",")]
-  rows.forEach((r, i) => {
-    const s = r.sample
-    const l = lead[i]!
-    lines.push(
-      [
-        isoUtc(s.t),
-        String(s.t),
-        formatDecimal(s.lat),
-        formatDecimal(s.lon),
-        s.speed == null ? "" : formatDecimal(s.speed),
-        s.speed == null ? "" : formatDecimal(Math.round(mpsToMph(s.speed) * 1000) / 1000),
-        s.accuracy == null ? "" : formatDecimal(s.accuracy),
-        l.leadOn ? "true" : "false",
-        l.leadOn && l.gapFt !== null ? formatDecimal(l.gapFt) : "",
-        r.kept ? "true" : "false",
-        r.dropReason ?? "",
-      ].join(","),
-    )
-  })
+  rows.forEach((r, i) => lines.push(csvSampleLine(r, lead[i]!)))
   return lines.join("\r\n") + "\r\n"
+}
+
+/** One sample's line, without its CRLF (shared with the streamed export, lib/export/stream.ts). */
+export function csvSampleLine(r: SampleRow, l: LeadState): string {
+  const s = r.sample
+  return [
+    isoUtc(s.t),
+    String(s.t),
+    formatDecimal(s.lat),
+    formatDecimal(s.lon),
+    s.speed == null ? "" : formatDecimal(s.speed),
+    s.speed == null ? "" : formatDecimal(Math.round(mpsToMph(s.speed) * 1000) / 1000),
+    s.accuracy == null ? "" : formatDecimal(s.accuracy),
+    l.leadOn ? "true" : "false",
+    l.leadOn && l.gapFt !== null ? formatDecimal(l.gapFt) : "",
+    r.kept ? "true" : "false",
+    r.dropReason ?? "",
+  ].join(",")
 }
 
 /** The marks in time order, notes included (RFC 4180, CRLF). */

@@ -3,6 +3,7 @@
 // and append it below. Give it `requiresEnv` (e.g. ["DATABASE_URL"] for ingestToRawInsertRatio,
 // ["BENCH_BASE_URL"] for syncSecondsFor36k) and it is reported as skipped when that is absent.
 import { ingestToRawInsertRatio, syncSecondsFor36k } from "./drives"
+import { exportPeakRssMb360k } from "./exports"
 import { ingestAtCadenceP95Ms, ingestCeilingRatio, replayRefusalP50Ms } from "./ingest"
 import { liveFanoutP95Seconds, recordingDriveGetMs36k } from "./live"
 import { detailHtmlKb36k, recorderFirstLoadKb } from "./pages"
@@ -19,6 +20,7 @@ export const figures: BenchFigure[] = [
   syncSecondsFor36k,
   recorderFirstLoadKb,
   detailHtmlKb36k,
+  exportPeakRssMb360k,
   reviewQueueP95Ms100k,
   numbersP95Ms100k,
   replayRefusalP50Ms,

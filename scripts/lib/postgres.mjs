@@ -88,11 +88,12 @@ export function startPostgres({ dataDir, port, database, fresh = false }) {
       quiet: true,
     })
   }
+  allowReplication(dataDir)
   if (!isRunning(bin, dataDir)) {
     log(`Starting PostgreSQL on 127.0.0.1:${port}`)
     asPostgres(path.join(bin, "pg_ctl"), [
       "-D", dataDir, "-l", path.join(dataDir, "server.log"), "-w", "-t", "60",
-      "-o", `-p ${port} -c listen_addresses=127.0.0.1 -c unix_socket_directories=${dataDir} -c fsync=${fresh ? "off" : "on"}`,
+      "-o", `-p ${port} -c listen_addresses=127.0.0.1 -c unix_socket_directories=${dataDir} -c fsync=${fresh ? "off" : "on"} ${REPLICATION_SETTINGS}`,
       "start",
     ], { quiet: true })
   }
@@ -105,6 +106,47 @@ export function startPostgres({ dataDir, port, database, fresh = false }) {
   if (exists.stdout.trim() !== "1") {
     run(path.join(bin, "createdb"), ["-h", "127.0.0.1", "-p", String(port), "-U", "postgres", database], { quiet: true })
   }
+  return `postgres://postgres@127.0.0.1:${port}/${database}`
+}
+
+// Every cluster we start can feed a streaming standby (startStandby): WAL detailed enough for one, senders for it,
+// and some WAL kept back so a standby that falls behind for a moment can catch up without a slot.
+const REPLICATION_SETTINGS = "-c wal_level=replica -c max_wal_senders=5 -c wal_keep_size=256MB"
+const REPLICATION_HBA = "host replication postgres 127.0.0.1/32 trust"
+
+/** pg_hba.conf lets postgres on 127.0.0.1 connect for replication (initdb --auth=trust writes such a line; we make sure). */
+function allowReplication(dataDir) {
+  const hba = path.join(dataDir, "pg_hba.conf")
+  if (!fs.existsSync(hba)) return
+  const lines = fs.readFileSync(hba, "utf8").split("\n").map((l) => l.replace(/#.*/, "").trim().split(/\s+/))
+  const allowed = lines.some(([type, db, user, address]) => type === "host" && db === "replication" && (user === "all" || user === "postgres") && address === "127.0.0.1/32")
+  if (!allowed) fs.appendFileSync(hba, `\n# streaming standby for the tests (scripts/lib/postgres.mjs)\n${REPLICATION_HBA}\n`)
+}
+
+/**
+ * A hot standby of the cluster on `primaryPort`: pg_basebackup (-R writes standby.signal and primary_conninfo;
+ * -X stream copies the WAL written meanwhile) as the postgres user over 127.0.0.1, then started on `port`. It
+ * follows the primary by streaming replication and answers reads only. Returns its connection URL.
+ */
+export function startStandby({ primaryPort, dataDir, port, database }) {
+  const bin = ensurePostgresInstalled()
+  if (fs.existsSync(dataDir)) {
+    if (isRunning(bin, dataDir)) stopPostgres({ dataDir })
+    fs.rmSync(dataDir, { recursive: true, force: true })
+  }
+  fs.mkdirSync(dataDir, { recursive: true })
+  if (isRoot) execFileSync("chown", ["postgres:postgres", dataDir])
+  fs.chmodSync(dataDir, 0o700)
+  log(`Copying the cluster on port ${primaryPort} to a streaming standby in ${dataDir} (pg_basebackup)`)
+  asPostgres(path.join(bin, "pg_basebackup"), [
+    "-h", "127.0.0.1", "-p", String(primaryPort), "-U", "postgres", "-D", dataDir, "-R", "-X", "stream", "-c", "fast",
+  ], { quiet: true })
+  log(`Starting the standby on 127.0.0.1:${port}`)
+  asPostgres(path.join(bin, "pg_ctl"), [
+    "-D", dataDir, "-l", path.join(dataDir, "server.log"), "-w", "-t", "60",
+    "-o", `-p ${port} -c listen_addresses=127.0.0.1 -c unix_socket_directories=${dataDir} -c fsync=off -c hot_standby=on`,
+    "start",
+  ], { quiet: true })
   return `postgres://postgres@127.0.0.1:${port}/${database}`
 }
 

@@ -3,10 +3,15 @@
 import fs from "node:fs"
 import path from "node:path"
 import { appSecret, fakeServiceEnv, startFakes } from "./services.mjs"
-import { resolveDataDir, startPostgres, stopPostgres } from "./postgres.mjs"
+import { resolveDataDir, startPostgres, startStandby, stopPostgres } from "./postgres.mjs"
 import { ensureBuild, ensurePackages, log, npx, root, run, startChild, stopChild } from "./shell.mjs"
 
-export async function startStack({ name, port, pgPort, s3Port, smtpPort, extraEnv = {} }) {
+/**
+ * `replica: { pgPort, port }` also starts a streaming standby of the cluster and a second `next start` on `port`
+ * with DATABASE_REPLICA_URL naming the standby (returned as `replica: { baseUrl, databaseUrl }`); the first app
+ * reads only the primary.
+ */
+export async function startStack({ name, port, pgPort, s3Port, smtpPort, extraEnv = {}, replica = null }) {
   ensurePackages()
   const dataRoot = path.join(root, `.${name}-data`)
   const pgDataDir = resolveDataDir(path.join(dataRoot, "pg"))
@@ -24,9 +29,14 @@ export async function startStack({ name, port, pgPort, s3Port, smtpPort, extraEn
   }
   let fakes = null
   let server = null
+  let replicaServer = null
+  let replicaInfo = null
+  const standbyDataDir = replica ? resolveDataDir(path.join(dataRoot, "pg-standby")) : null
   const stop = async () => {
+    await stopChild(replicaServer)
     await stopChild(server)
     await stopChild(fakes)
+    if (standbyDataDir) stopPostgres({ dataDir: standbyDataDir })
     stopPostgres({ dataDir: pgDataDir })
   }
   try {
@@ -34,13 +44,22 @@ export async function startStack({ name, port, pgPort, s3Port, smtpPort, extraEn
     run(npx("tsx"), ["db/migrate.ts"], { env })
     ensureBuild()
     server = startChild(npx("next"), ["start", "-H", "127.0.0.1", "-p", String(port)], { env, name: "next" })
+    if (replica) {
+      const standbyUrl = startStandby({ primaryPort: pgPort, dataDir: standbyDataDir, port: replica.pgPort, database: `straightaway_${name}` })
+      replicaServer = startChild(npx("next"), ["start", "-H", "127.0.0.1", "-p", String(replica.port)], {
+        env: { ...env, DATABASE_REPLICA_URL: standbyUrl, APP_URL: `http://127.0.0.1:${replica.port}` },
+        name: "next (reads from the standby)",
+      })
+      replicaInfo = { baseUrl: `http://127.0.0.1:${replica.port}`, databaseUrl: standbyUrl }
+    }
     await waitForHttp(`http://127.0.0.1:${port}/api/health`, 60_000)
+    if (replicaInfo) await waitForHttp(`${replicaInfo.baseUrl}/api/health`, 60_000)
   } catch (error) {
     log(`Set-up failed: ${error.message}`)
     await stop()
     throw error
   }
-  return { env, baseUrl: `http://127.0.0.1:${port}`, stop }
+  return { env, baseUrl: `http://127.0.0.1:${port}`, replica: replicaInfo, server, stop }
 }
 
 async function waitForHttp(url, timeoutMs) {

@@ -12,7 +12,8 @@ export type ApiResponse<T = any> = { status: number; headers: Headers; body: T; 
 /** A small HTTP client that keeps one session cookie, like a browser tab. */
 export class ApiClient {
   cookie: string | null = null
-  constructor(readonly address = freshClientAddress()) {}
+  /** `baseUrl`: another running app than the suites' own (the read-replica suite's second app). */
+  constructor(readonly address = freshClientAddress(), readonly baseUrl?: string) {}
 
   async request<T = any>(method: string, path: string, body?: unknown, init: { raw?: string | Uint8Array; headers?: Record<string, string> } = {}): Promise<ApiResponse<T>> {
     const headers: Record<string, string> = { "x-forwarded-for": this.address, ...init.headers }
@@ -22,7 +23,7 @@ export class ApiClient {
       headers["content-type"] ??= "application/json"
       payload = JSON.stringify(body)
     }
-    const res = await fetch(`${testEnv().baseUrl}${path}`, { method, headers, body: payload as BodyInit | undefined, redirect: "manual" })
+    const res = await fetch(`${this.baseUrl ?? testEnv().baseUrl}${path}`, { method, headers, body: payload as BodyInit | undefined, redirect: "manual" })
     const setCookie = res.headers.get("set-cookie")
     if (setCookie) {
       const pair = setCookie.split(";")[0]!
@@ -48,8 +49,8 @@ export class ApiClient {
   }
 }
 
-export async function signedIn(user: { email: string; password: string }) {
-  const client = new ApiClient()
+export async function signedIn(user: { email: string; password: string }, baseUrl?: string) {
+  const client = new ApiClient(undefined, baseUrl)
   const res = await client.post("/api/session", { email: user.email, password: user.password })
   if (res.status !== 200) throw new Error(`sign-in as ${user.email} failed: ${res.status} ${res.text}`)
   return client

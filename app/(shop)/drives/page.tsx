@@ -7,7 +7,7 @@ import { VerdictBadge } from "@/components/drives/verdict-badge"
 import { buttonVariants } from "@/components/ui/button"
 import { cn } from "@/components/ui/cn"
 import { PageHeader } from "@/components/ui/page-header"
-import { getDb } from "@/db/client"
+import { getReadDb } from "@/db/client"
 import { listDrives } from "@/db/queries/drives"
 import { roLabel, SENSOR_LABEL } from "@/lib/record"
 import { listDrivesQuery, parseDriveCursor } from "@/lib/validation/drive"
@@ -32,7 +32,7 @@ export default async function DrivesPage({ searchParams }: { searchParams: Promi
   const parsed = listDrivesQuery.safeParse(await searchParams)
   const query = parsed.success ? parsed.data : {}
   const cursor = parseDriveCursor(query.cursor) ?? undefined
-  const { rows, nextCursor } = await listDrives(getDb(), user.shopId, {
+  const { rows, nextCursor } = await listDrives(getReadDb(), user.shopId, {
     verdict: query.verdict,
     status: query.status,
     coDriverId: user.role === "co_driver" ? user.id : undefined,
@@ -41,7 +41,7 @@ export default async function DrivesPage({ searchParams }: { searchParams: Promi
   const prefs = await getFormatPrefs(user.shopId)
   // The co-driver's way in: a large card for each drive being recorded that names them.
   const joinable =
-    user.role === "co_driver" ? (await listDrives(getDb(), user.shopId, { status: "recording", coDriverId: user.id })).rows : []
+    user.role === "co_driver" ? (await listDrives(getReadDb(), user.shopId, { status: "recording", coDriverId: user.id })).rows : []
   const current = query.verdict ? `verdict=${query.verdict}` : query.status ? `status=${query.status}` : ""
   const canRecord = user.role !== "co_driver"
   return (

@@ -9,7 +9,7 @@ import { buttonVariants } from "@/components/ui/button"
 import { Card } from "@/components/ui/card"
 import { cn } from "@/components/ui/cn"
 import { PageHeader } from "@/components/ui/page-header"
-import { getDb } from "@/db/client"
+import { getReadDb } from "@/db/client"
 import { formatDuration } from "@/lib/format"
 
 export const metadata: Metadata = { title: "Numbers" }
@@ -22,7 +22,7 @@ export default async function NumbersPage({ searchParams }: { searchParams: Prom
   const asked = Number((await searchParams).days)
   const days = (RANGES as readonly number[]).includes(asked) ? asked : 90
   const { timeZone } = await getFormatPrefs(me.shopId)
-  const numbers = await loadNumbers(getDb(), me.shopId, days, timeZone)
+  const numbers = await loadNumbers(getReadDb(), me.shopId, days, timeZone)
   return (
     <>
       <PageHeader

@@ -5,7 +5,7 @@ import { requirePageRole } from "@/app/_server/auth"
 import { VerdictBadge } from "@/components/drives/verdict-badge"
 import { Card } from "@/components/ui/card"
 import { PageHeader } from "@/components/ui/page-header"
-import { getDb } from "@/db/client"
+import { getReadDb } from "@/db/client"
 import { listReviewQueue } from "@/db/queries/reviews"
 import { getFormatPrefs } from "@/app/_server/format-prefs"
 import { describeReasons } from "@/lib/format/conditions"
@@ -25,7 +25,7 @@ function waited(finishedAt: Date | string | null) {
 
 export default async function ReviewPage() {
   const me = await requirePageRole("shop_lead")
-  const [{ rows }, { units }] = await Promise.all([listReviewQueue(getDb(), me.shopId), getFormatPrefs(me.shopId)])
+  const [{ rows }, { units }] = await Promise.all([listReviewQueue(getReadDb(), me.shopId), getFormatPrefs(me.shopId)])
   return (
     <>
       <PageHeader title="Review" description="Finished drives that need a second look: not met, or with harsh events. Oldest first." />

@@ -7,7 +7,7 @@ import { LOOP_STROKE, RoadMap } from "@/components/roads/road-map"
 import { buttonVariants } from "@/components/ui/button"
 import { Card } from "@/components/ui/card"
 import { PageHeader } from "@/components/ui/page-header"
-import { getDb } from "@/db/client"
+import { getReadDb } from "@/db/client"
 import { listProfiles } from "@/db/queries/profiles"
 import { ROAD_RESOLUTION } from "@/lib/roads/cells"
 import { WEEKDAYS } from "@/lib/roads/clock"
@@ -38,7 +38,7 @@ export default async function RoadsPage({ searchParams }: { searchParams: Promis
   const raw = Object.fromEntries(Object.entries(await searchParams).filter(([, v]) => typeof v === "string" && v !== ""))
   const parsed = roadsQuery.safeParse(raw)
   const q = parsed.success ? parsed.data : roadsQuery.parse({})
-  const db = getDb()
+  const db = getReadDb()
   const [view, profiles] = await Promise.all([loadRoadsView(db, me.shopId, q), listProfiles(db, me.shopId, { includeArchived: false })])
   const isAdmin = me.role === "admin"
 

@@ -1,7 +1,7 @@
 import { randomUUID } from "node:crypto"
 import { requireRole } from "@/app/_server/auth"
 import { parseJson, parseQuery, route } from "@/app/_server/route"
-import { getDb } from "@/db/client"
+import { getDb, getReadDb } from "@/db/client"
 import { findDriveInShop, insertDrive, listDrives, setJobStatus } from "@/db/queries/drives"
 import type { Drive } from "@/db/types"
 import { canSeeDrive } from "@/lib/access/drive"
@@ -16,7 +16,7 @@ export const GET = route(async (req) => {
   const query = parseQuery(req, listDrivesQuery)
   const cursor = parseDriveCursor(query.cursor)
   if (cursor === null) throw new AppError("validation_failed", "cursor: is not one this server gave out", { cursor: "is invalid" })
-  const { rows, nextCursor } = await listDrives(getDb(), user.shopId, {
+  const { rows, nextCursor } = await listDrives(getReadDb(), user.shopId, {
     verdict: query.verdict,
     status: query.status,
     coDriverId: user.role === "co_driver" ? user.id : undefined,

@@ -1,6 +1,6 @@
 import { requireRole } from "@/app/_server/auth"
 import { parseJson, parseQuery, route } from "@/app/_server/route"
-import { getDb } from "@/db/client"
+import { getDb, getReadDb } from "@/db/client"
 import { decodeCursor, findJobByRoNumber, insertJob, isDuplicateRoNumber, listJobs, loadJobDetail, resolveTaskRows } from "@/db/queries/jobs"
 import { upsertVehicleByVin } from "@/db/queries/vehicles"
 import { AppError } from "@/lib/errors"
@@ -12,7 +12,7 @@ export const GET = route(async (req) => {
   const query = parseQuery(req, jobListQuerySchema)
   const cursor = query.cursor ? decodeCursor(query.cursor, query.sort) : undefined
   if (cursor === null) throw new AppError("validation_failed", "cursor: is not one this server gave out", { cursor: "is invalid" })
-  const { rows, nextCursor, total } = await listJobs(getDb(), user.shopId, { ...query, q: query.q || undefined, cursor })
+  const { rows, nextCursor, total } = await listJobs(getReadDb(), user.shopId, { ...query, q: query.q || undefined, cursor })
   return Response.json({
     jobs: rows.map((r) => ({
       id: r.id,

@@ -3,7 +3,7 @@ import { requireRole } from "@/app/_server/auth"
 import { getFormatPrefs } from "@/app/_server/format-prefs"
 import { loadNumbers, loadNumbersDrives, NUMBERS_DEFAULT_DAYS } from "@/app/_server/numbers"
 import { parseQuery, route } from "@/app/_server/route"
-import { getDb } from "@/db/client"
+import { getReadDb } from "@/db/client"
 import { numbersToCsv } from "@/lib/numbers"
 
 const query = z.object({
@@ -16,7 +16,7 @@ export const GET = route(async (req) => {
   const { days, format } = parseQuery(req, query)
   const { timeZone } = await getFormatPrefs(user.shopId)
   if (format === "csv") {
-    const drives = await loadNumbersDrives(getDb(), user.shopId, days)
+    const drives = await loadNumbersDrives(getReadDb(), user.shopId, days)
     return new Response(numbersToCsv(drives, timeZone), {
       headers: {
         "content-type": "text/csv; charset=utf-8",
@@ -25,5 +25,5 @@ export const GET = route(async (req) => {
       },
     })
   }
-  return Response.json({ days, ...(await loadNumbers(getDb(), user.shopId, days, timeZone)) })
+  return Response.json({ days, ...(await loadNumbers(getReadDb(), user.shopId, days, timeZone)) })
 })

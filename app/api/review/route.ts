@@ -1,7 +1,7 @@
 import { z } from "zod"
 import { requireRole } from "@/app/_server/auth"
 import { parseQuery, route } from "@/app/_server/route"
-import { getDb } from "@/db/client"
+import { getReadDb } from "@/db/client"
 import { listReviewQueue } from "@/db/queries/reviews"
 import { AppError } from "@/lib/errors"
 import { parseDriveCursor } from "@/lib/validation/drive"
@@ -11,7 +11,7 @@ export const GET = route(async (req) => {
   const { cursor } = parseQuery(req, z.object({ cursor: z.string().max(200).optional() }))
   const parsed = parseDriveCursor(cursor)
   if (parsed === null) throw new AppError("validation_failed", "cursor: is not one this server gave out", { cursor: "is invalid" })
-  const { rows, nextCursor } = await listReviewQueue(getDb(), user.shopId, parsed)
+  const { rows, nextCursor } = await listReviewQueue(getReadDb(), user.shopId, parsed)
   return Response.json({
     drives: rows.map((r) => {
       const score = r.result as { reasons?: string[]; harshEvents?: { accel: number; decel: number } }

@@ -1,7 +1,7 @@
 import { z } from "zod"
 import { requireRole } from "@/app/_server/auth"
 import { parseParams, route, uuidParam } from "@/app/_server/route"
-import { getDb } from "@/db/client"
+import { getReadDb } from "@/db/client"
 import { findLoopInShop, listDrivesOfLoop } from "@/db/queries/roads"
 import { notFound } from "@/lib/errors"
 import { median } from "@/lib/roads/model"
@@ -12,7 +12,7 @@ const params = z.object({ loopId: uuidParam })
 export const GET = route(async (_req, ctx) => {
   const { user } = await requireRole("technician", "shop_lead")
   const { loopId } = await parseParams(ctx.params, params)
-  const db = getDb()
+  const db = getReadDb()
   const loop = (await findLoopInShop(db, loopId, user.shopId)) ?? notFound("That loop")
   const drives = await listDrivesOfLoop(db, loop.id, user.shopId)
   const cleared = drives.filter((d) => d.cleared_seconds != null).map((d) => d.cleared_seconds!)

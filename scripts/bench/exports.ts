@@ -1,0 +1,117 @@
+// exportPeakRssMb360k: the app server's peak resident memory (MB of 1,000,000 bytes) while one signed-in user
+// downloads a finished 360,000-sample drive (10 h at 10 Hz) as GPX, CSV and the drive file, one after the other.
+// The drive is stored straight into the database (an import would itself raise the server's memory first); the
+// server's peak is reset just before the downloads (writing 5 to /proc/PID/clear_refs resets VmHWM) and read
+// after them, with VmRSS polled every 25 ms as a floor. Needs the running app (BASE_URL), its database
+// (DATABASE_URL) and the server's process id (BENCH_SERVER_PID, which `npm run bench` sets for its own stack).
+import { randomUUID } from "node:crypto"
+import fs from "node:fs"
+import { createDb } from "@/db/client"
+import { insertSamples } from "@/db/queries/samples"
+import { hashPassword } from "@/lib/auth/password"
+import { resolveProfile } from "@/lib/drive-file/profile"
+import { generateDrive } from "@/lib/tracks"
+import type { BenchFigure } from "./types"
+
+const SAMPLES = 360_000
+
+/** The process and everything it started (`next start` may serve from a child). */
+function processTree(pid: number): number[] {
+  const all = [pid]
+  for (let i = 0; i < all.length; i++) {
+    try {
+      const children = fs.readFileSync(`/proc/${all[i]}/task/${all[i]}/children`, "utf8").trim()
+      if (children) all.push(...children.split(/\s+/).map(Number))
+    } catch {}
+  }
+  return all
+}
+
+function statusKb(pid: number, field: "VmRSS" | "VmHWM"): number {
+  try {
+    const m = new RegExp(`^${field}:\\s+(\\d+) kB`, "m").exec(fs.readFileSync(`/proc/${pid}/status`, "utf8"))
+    return m ? Number(m[1]) : 0
+  } catch {
+    return 0
+  }
+}
+
+export const exportPeakRssMb360k: BenchFigure = {
+  name: "exportPeakRssMb360k",
+  target: "<= 300",
+  unit: "MB",
+  requiresEnv: ["BASE_URL", "DATABASE_URL", "BENCH_SERVER_PID"],
+  async run(ctx) {
+    const baseUrl = ctx.env.BASE_URL!
+    const db = createDb(ctx.env.DATABASE_URL)
+    const { id: shopId } = await db.insertInto("shop").values({ name: `Bench exports ${randomUUID().slice(0, 8)}`, settings: "{}" }).returning("id").executeTakeFirstOrThrow()
+    try {
+      const password = `bench-${randomUUID()}`
+      const email = `bench-exports-${randomUUID().slice(0, 8)}@bench.invalid`
+      const userId = randomUUID()
+      await db.insertInto("app_user").values({ id: userId, shop_id: shopId, email, name: "Bench", role: "technician", password_hash: await hashPassword(password) }).execute()
+      const file = generateDrive({ seed: 360, minutes: SAMPLES / 600, hz: 10, pattern: "met" })
+      if (file.samples.length !== SAMPLES) throw new Error(`generated ${file.samples.length} samples, not ${SAMPLES}`)
+      const driveId = randomUUID()
+      const at = new Date(file.samples[0]!.t)
+      await db
+        .insertInto("drive")
+        .values({ id: driveId, shop_id: shopId, profile: JSON.stringify(resolveProfile(file.profile)), driver_id: userId, status: "finished", created_at: at, finished_at: at })
+        .execute()
+      for (let i = 0; i < SAMPLES; i += 10_000) await insertSamples(db, driveId, shopId, file.samples.slice(i, i + 10_000))
+      await db
+        .insertInto("mark")
+        .values(file.marks.map((m) => ({ id: randomUUID(), drive_id: driveId, shop_id: shopId, t: m.t, kind: m.kind, gap_ft: "gapFt" in m ? (m.gapFt ?? null) : null, text: "text" in m ? (m.text ?? null) : null })))
+        .execute()
+
+      const signIn = await fetch(`${baseUrl}/api/session`, {
+        method: "POST",
+        headers: { "content-type": "application/json", "x-forwarded-for": `bench-exports-${process.pid}` },
+        body: JSON.stringify({ email, password }),
+      })
+      if (!signIn.ok) throw new Error(`bench sign-in failed: ${signIn.status}`)
+      const cookie = signIn.headers.get("set-cookie")!.split(";")[0]!
+
+      const pids = processTree(Number(ctx.env.BENCH_SERVER_PID))
+      let reset = true
+      for (const pid of pids) {
+        try {
+          fs.writeFileSync(`/proc/${pid}/clear_refs`, "5")
+        } catch {
+          reset = false
+        }
+      }
+      const beforeKb = Math.max(...pids.map((pid) => statusKb(pid, "VmRSS")))
+      let polledKb = 0
+      const poll = setInterval(() => {
+        for (const pid of pids) polledKb = Math.max(polledKb, statusKb(pid, "VmRSS"))
+      }, 25)
+      const sizes: string[] = []
+      try {
+        for (const format of ["gpx", "csv", "drive"]) {
+          const res = await fetch(`${baseUrl}/api/drives/${driveId}/file?format=${format}`, { headers: { cookie } })
+          if (!res.ok) throw new Error(`${format} export failed: ${res.status}`)
+          let bytes = 0
+          let newlines = 0
+          for await (const chunk of res.body as unknown as AsyncIterable<Uint8Array>) {
+            bytes += chunk.length
+            for (const b of chunk) if (b === 10) newlines++
+          }
+          if (format === "csv" && newlines !== SAMPLES + 1) throw new Error(`the CSV has ${newlines} lines, not ${SAMPLES + 1}`)
+          sizes.push(`${format} ${(bytes / 1e6).toFixed(1)} MB (peak so far ${((polledKb * 1024) / 1e6).toFixed(0)} MB)`)
+        }
+      } finally {
+        clearInterval(poll)
+      }
+      const hwmKb = Math.max(...pids.map((pid) => statusKb(pid, "VmHWM")))
+      console.error(
+        `[bench] exports of ${SAMPLES} samples (${sizes.join(", ")}); server processes ${pids.join(",")}: ${((beforeKb * 1024) / 1e6).toFixed(0)} MB before the downloads, polled peak ${((polledKb * 1024) / 1e6).toFixed(0)} MB, VmHWM ${reset ? "after reset" : "NOT reset (no access to clear_refs)"} ${((hwmKb * 1024) / 1e6).toFixed(0)} MB`,
+      )
+      return (Math.max(reset ? hwmKb : 0, polledKb) * 1024) / 1e6
+    } finally {
+      await db.deleteFrom("shop").where("id", "=", shopId).execute()
+      await db.destroy()
+    }
+  },
+  meets: (v) => v <= 300,
+}
