@@ -1,14 +1,42 @@
 // Lucia v3 is unmaintained upstream: it is kept behind this one module so that it can be swapped.
 import { NodePostgresAdapter } from "@lucia-auth/adapter-postgresql"
 import { createHash } from "node:crypto"
-import { generateIdFromEntropySize, Lucia, TimeSpan } from "lucia"
+import { generateIdFromEntropySize, Lucia, TimeSpan, type DatabaseSession, type DatabaseUser } from "lucia"
 import type pg from "pg"
 import type { Role } from "./roles"
 
 export type SessionUser = { id: string; email: string; name: string; role: Role; shopId: string; disabled: boolean }
 
+/**
+ * Lucia's PostgreSQL adapter, with the session and its user read in one statement (the adapter's own sends two,
+ * each on its own pooled connection). Every signed-in request starts here, the recorder's sample POST included.
+ * Only the user columns getUserAttributes maps are read (never the password hash).
+ */
+export class SessionAdapter extends NodePostgresAdapter {
+  constructor(private readonly pool: pg.Pool) {
+    super(pool, { user: "app_user", session: "user_session" })
+  }
+
+  override async getSessionAndUser(sessionId: string): Promise<[DatabaseSession | null, DatabaseUser | null]> {
+    const { rows } = await this.pool.query<SessionRow>({ name: "session-and-user", text: SESSION_AND_USER, values: [sessionId] })
+    const row = rows[0]
+    if (!row) return [null, null]
+    return [
+      { id: row.id, userId: row.user_id, expiresAt: row.expires_at, attributes: {} },
+      { id: row.user_id, attributes: { email: row.email, name: row.name, role: row.role, shop_id: row.shop_id, disabled: row.disabled } },
+    ]
+  }
+}
+
+const SESSION_AND_USER = `
+  select s.id, s.user_id, s.expires_at, u.email, u.name, u.role, u.shop_id, u.disabled
+  from user_session s join app_user u on u.id = s.user_id
+  where s.id = $1`
+
+type SessionRow = { id: string; user_id: string; expires_at: Date; email: string; name: string; role: Role; shop_id: string; disabled: boolean }
+
 export function createLucia(pool: pg.Pool, { secure }: { secure: boolean }) {
-  return new Lucia(new NodePostgresAdapter(pool, { user: "app_user", session: "user_session" }), {
+  return new Lucia(new SessionAdapter(pool), {
     sessionExpiresIn: new TimeSpan(12, "h"),
     // expires: the cookie lasts as long as the session (12 h, renewed when the session slides), not 400 days.
     sessionCookie: { name: "straightaway_session", expires: true, attributes: { secure, sameSite: "lax", path: "/" } },

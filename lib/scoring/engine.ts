@@ -1,7 +1,7 @@
 import type { Mark2 as Mark, Sample } from "@/lib/drive-file/schema"
 import type { ResolvedProfile } from "@/lib/drive-file/profile"
 import { mphToMps } from "@/lib/units"
-import { reducedLatitude, vincentyFromReduced } from "./geodesy"
+import { reducedLatitudeInto, vincentyFromReduced } from "./geodesy"
 import { applyLeadMark, type LeadState } from "./lead-state"
 
 /**
@@ -32,8 +32,6 @@ export interface EngineTotals {
   /** Marks sorted by time, ties in arrival (file) order. */
   marks: readonly Mark[]
 }
-
-const reduced = { sinU: 0, cosU: 0 }
 
 /**
  * The one scorer behind scoreDrive and the live meters. Samples and marks are kept sorted; the
@@ -196,23 +194,13 @@ export class ScoringEngine {
   }
 
   private computeGeometry(i: number): void {
-    reducedLatitude(this.lat[i]!, reduced)
-    this.sinU[i] = reduced.sinU
-    this.cosU[i] = reduced.cosU
+    reducedLatitudeInto(this.lat[i]!, this.sinU, this.cosU, i)
     if (i === 0) {
       this.cum[0] = 0
       return
     }
-    const d = vincentyFromReduced(
-      this.sinU[i - 1]!,
-      this.cosU[i - 1]!,
-      this.lon[i - 1]!,
-      reduced.sinU,
-      reduced.cosU,
-      this.lon[i]!,
-    )
-    this.dist[i - 1] = d
-    this.cum[i] = this.cum[i - 1]! + d
+    vincentyFromReduced(this.sinU, this.cosU, this.lon, i - 1, i, this.dist, i - 1)
+    this.cum[i] = this.cum[i - 1]! + this.dist[i - 1]!
   }
 
   /** Late samples (not after the last kept one): merge, keeping the earliest arrival per t. */
@@ -403,7 +391,7 @@ export class ScoringEngine {
     for (let i = h; i < last; i++) {
       if (committing && !((i > 0 || this.sampleSpeedFinal(0)) && this.sampleSpeedFinal(i + 1))) {
         committing = false
-        Object.assign(this, { h: i, hSpeed, accelEvents, decelEvents, inAccel, inDecel })
+        this.commitHarsh(i, hSpeed, accelEvents, decelEvents, inAccel, inDecel)
       }
       const next = this.sampleSpeed(i + 1)
       if (this.isGap(i)) {
@@ -421,8 +409,19 @@ export class ScoringEngine {
       }
       hSpeed = next
     }
-    if (committing) Object.assign(this, { h: Math.max(h, last), hSpeed, accelEvents, decelEvents, inAccel, inDecel })
+    if (committing) this.commitHarsh(Math.max(h, last), hSpeed, accelEvents, decelEvents, inAccel, inDecel)
     return { accel: accelEvents, decel: decelEvents }
+  }
+
+  // Plain field writes, not Object.assign with a literal: that line runs after the loop, where the optimised
+  // code (compiled while the loop ran) had no type feedback, and it threw that code away on every score.
+  private commitHarsh(h: number, hSpeed: number, accelEvents: number, decelEvents: number, inAccel: boolean, inDecel: boolean): void {
+    this.h = h
+    this.hSpeed = hSpeed
+    this.accelEvents = accelEvents
+    this.decelEvents = decelEvents
+    this.inAccel = inAccel
+    this.inDecel = inDecel
   }
 }
 

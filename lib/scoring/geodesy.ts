@@ -13,31 +13,39 @@ export const MEAN_EARTH_RADIUS_M = (2 * WGS84_A + WGS84_B) / 3
 const DEG = Math.PI / 180
 const A2_MINUS_B2_OVER_B2 = (WGS84_A * WGS84_A - WGS84_B * WGS84_B) / (WGS84_B * WGS84_B)
 
-/** sin and cos of the reduced latitude U = atan((1 - f) tan φ). */
-export function reducedLatitude(latDeg: number, out: { sinU: number; cosU: number }): void {
+/** sin and cos of the reduced latitude U = atan((1 - f) tan φ), into slot `i` of two arrays. */
+export function reducedLatitudeInto(latDeg: number, sinU: Float64Array, cosU: Float64Array, i: number): void {
   const phi = latDeg * DEG
   // Written with sin/cos rather than tan so that φ = ±90° stays finite.
   const y = (1 - WGS84_F) * Math.sin(phi)
   const x = Math.cos(phi)
   const r = Math.sqrt(x * x + y * y)
-  out.sinU = y / r
-  out.cosU = x / r
+  sinU[i] = y / r
+  cosU[i] = x / r
 }
 
 /**
- * Geodesic distance in metres between two points given by their reduced-latitude sine/cosine and
- * longitude in degrees. Returns the great-circle distance on the mean sphere when the iteration
+ * Geodesic distance in metres between points `a` and `b` given by their reduced-latitude sine/cosine and
+ * longitude in degrees, written to `out[k]`. Gives the great-circle distance on the mean sphere when the iteration
  * fails to converge (only for nearly antipodal points, never between consecutive GPS fixes).
  */
 export function vincentyFromReduced(
-  sinU1: number,
-  cosU1: number,
-  lon1Deg: number,
-  sinU2: number,
-  cosU2: number,
-  lon2Deg: number,
-): number {
-  let dLon = lon2Deg - lon1Deg
+  sinU: Float64Array,
+  cosU: Float64Array,
+  lonDeg: Float64Array,
+  a: number,
+  b: number,
+  out: Float64Array,
+  k: number,
+): void {
+  // The points come as slots of the scorer's arrays and the distance goes into `out[k]`, not as numbers in and
+  // out: the function is too big to be inlined, and a call passes doubles boxed; seven per sample pair were most
+  // of what scoring a drive allocated.
+  const sinU1 = sinU[a]!
+  const cosU1 = cosU[a]!
+  const sinU2 = sinU[b]!
+  const cosU2 = cosU[b]!
+  let dLon = lonDeg[b]! - lonDeg[a]!
   if (dLon > 180) dLon -= 360
   else if (dLon < -180) dLon += 360
   const L = dLon * DEG
@@ -48,7 +56,7 @@ export function vincentyFromReduced(
   let cosSqAlpha = 0
   let cos2SigmaM = 0
   let iterations = 0
-  let lambdaPrev: number
+  let lambdaPrev = 0
   const f = WGS84_F
   do {
     const sinLambda = Math.sin(lambda)
@@ -56,7 +64,10 @@ export function vincentyFromReduced(
     const p = cosU2 * sinLambda
     const q = cosU1 * sinU2 - sinU1 * cosU2 * cosLambda
     sinSigma = Math.sqrt(p * p + q * q)
-    if (sinSigma === 0) return 0 // coincident points
+    if (sinSigma === 0) {
+      out[k] = 0 // coincident points
+      return
+    }
     cosSigma = sinU1 * sinU2 + cosU1 * cosU2 * cosLambda
     sigma = Math.atan2(sinSigma, cosSigma)
     const sinAlpha = (cosU1 * cosU2 * sinLambda) / sinSigma
@@ -72,7 +83,10 @@ export function vincentyFromReduced(
         (sigma + C * sinSigma * (cos2SigmaM + C * cosSigma * (-1 + 2 * cos2SigmaM * cos2SigmaM)))
   } while (Math.abs(lambda - lambdaPrev) > 1e-12 && ++iterations < 200)
 
-  if (iterations >= 200) return greatCircleFromReduced(sinU1, cosU1, sinU2, cosU2, L)
+  if (iterations >= 200) {
+    out[k] = greatCircleFromReduced(sinU1, cosU1, sinU2, cosU2, L)
+    return
+  }
 
   const uSq = cosSqAlpha * A2_MINUS_B2_OVER_B2
   const A = 1 + (uSq / 16384) * (4096 + uSq * (-768 + uSq * (320 - 175 * uSq)))
@@ -84,7 +98,7 @@ export function vincentyFromReduced(
     (cos2SigmaM +
       (B / 4) *
         (cosSigma * (-1 + 2 * c2) - (B / 6) * cos2SigmaM * (-3 + 4 * sinSigma * sinSigma) * (-3 + 4 * c2)))
-  return WGS84_B * A * (sigma - deltaSigma)
+  out[k] = WGS84_B * A * (sigma - deltaSigma)
 }
 
 function greatCircleFromReduced(sinU1: number, cosU1: number, sinU2: number, cosU2: number, L: number): number {
@@ -92,12 +106,17 @@ function greatCircleFromReduced(sinU1: number, cosU1: number, sinU2: number, cos
   return MEAN_EARTH_RADIUS_M * Math.acos(Math.max(-1, Math.min(1, c)))
 }
 
-const r1 = { sinU: 0, cosU: 0 }
-const r2 = { sinU: 0, cosU: 0 }
+const pairSinU = new Float64Array(2)
+const pairCosU = new Float64Array(2)
+const pairLon = new Float64Array(2)
+const pairOut = new Float64Array(1)
 
 /** Geodesic (Vincenty, WGS-84) distance in metres between two points in decimal degrees. */
 export function geodesicDistanceM(lat1: number, lon1: number, lat2: number, lon2: number): number {
-  reducedLatitude(lat1, r1)
-  reducedLatitude(lat2, r2)
-  return vincentyFromReduced(r1.sinU, r1.cosU, lon1, r2.sinU, r2.cosU, lon2)
+  reducedLatitudeInto(lat1, pairSinU, pairCosU, 0)
+  reducedLatitudeInto(lat2, pairSinU, pairCosU, 1)
+  pairLon[0] = lon1
+  pairLon[1] = lon2
+  vincentyFromReduced(pairSinU, pairCosU, pairLon, 0, 1, pairOut, 0)
+  return pairOut[0]!
 }

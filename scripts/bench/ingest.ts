@@ -2,13 +2,14 @@
 // (DATABASE_URL); `npm run bench` starts both. One throwaway shop, deleted at the end.
 //   replayRefusalP50Ms     a replayed 2,000-sample batch answered from its claim, HTTP round trip, p50
 //   ingestCeilingRatio     closed-loop 50-sample POSTs through the API, against the same SQL sent straight
-//                          through pg (the session's two reads, the drive with the claim, the ingest statement)
+//                          through pg (the session read as the app reads it, the drive with the claim, the ingest
+//                          statement)
 //   ingestAtCadenceP95Ms   100 simulated recorders sending every 5 s or 50 samples for 2 minutes, p95, 0 errors
 import { randomUUID } from "node:crypto"
-import { NodePostgresAdapter } from "@lucia-auth/adapter-postgresql"
 import pg from "pg"
 import { createDb, type Db } from "@/db/client"
 import { findDriveAndBatch, ingestSampleBatch } from "@/db/queries/samples"
+import { SessionAdapter, sessionIdFromToken } from "@/lib/auth/lucia"
 import { hashPassword } from "@/lib/auth/password"
 import type { Sample } from "@/lib/drive-file"
 import { SEND_AT_SAMPLES, SEND_EVERY_MS, SEND_MAX_SAMPLES } from "@/lib/recorder/batching"
@@ -23,7 +24,8 @@ const CEILING_CLIENTS = 8
 interface Rig {
   db: Db
   shopId: string
-  sessionId: string
+  /** The cookie's token (the database keeps its SHA-256 as the session id). */
+  sessionToken: string
   post(path: string, body: unknown): Promise<{ status: number; ms: number }>
   newDrive(): Promise<string>
   uses: number
@@ -46,7 +48,7 @@ function rig(ctx: BenchContext): Promise<Rig> {
     })
     if (!signIn.ok) throw new Error(`bench sign-in failed: ${signIn.status}`)
     const cookie = signIn.headers.get("set-cookie")!.split(";")[0]!
-    const sessionId = cookie.slice(cookie.indexOf("=") + 1)
+    const sessionToken = cookie.slice(cookie.indexOf("=") + 1)
     const post = async (path: string, body: unknown) => {
       const t0 = performance.now()
       const res = await fetch(`${baseUrl}${path}`, {
@@ -60,7 +62,7 @@ function rig(ctx: BenchContext): Promise<Rig> {
     return {
       db,
       shopId,
-      sessionId,
+      sessionToken,
       post,
       uses: 0,
       async newDrive() {
@@ -149,10 +151,14 @@ export const ingestCeilingRatio: BenchFigure = {
     const sqlDrives = await Promise.all(Array.from({ length: CEILING_CLIENTS }, () => r.newDrive()))
     const pool = new pg.Pool({ connectionString: ctx.env.DATABASE_URL, max: Number(ctx.env.DATABASE_POOL_MAX ?? 10) })
     const db = createDb(ctx.env.DATABASE_URL)
-    const sessions = new NodePostgresAdapter(pool, { user: "app_user", session: "user_session" })
+    // The app's session adapter, looked up by what the app looks up: the SHA-256 of the cookie's token
+    // (lib/auth/lucia.ts). The raw token would find no session and skip the user's row.
+    const sessions = new SessionAdapter(pool)
+    const sessionId = sessionIdFromToken(r.sessionToken)
     const sqlRate = await closedLoop(CEILING_CLIENTS, CEILING_MS, async (c, k) => {
       const batchId = `sql-${k}`
-      await sessions.getSessionAndUser(r.sessionId)
+      const [session, user] = await sessions.getSessionAndUser(sessionId)
+      if (!session || !user) throw new Error("the straight ingest found no session")
       await findDriveAndBatch(db, sqlDrives[c]!, r.shopId, batchId)
       const res = await ingestSampleBatch(db, sqlDrives[c]!, r.shopId, batchId, batchSamples(file.samples, k, SEND_AT_SAMPLES))
       if (!res || res.replayed) throw new Error("the straight ingest did not store")

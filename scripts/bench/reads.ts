@@ -4,7 +4,7 @@
 import { randomUUID } from "node:crypto"
 import { sql } from "kysely"
 import { createDb, type Db } from "@/db/client"
-import { listDrivesForNumbers } from "@/db/queries/numbers"
+import { listDrivesForNumbers, loadNumbersSummary } from "@/db/queries/numbers"
 import { listReviewQueue } from "@/db/queries/reviews"
 import type { BenchContext, BenchFigure } from "./types"
 
@@ -111,6 +111,10 @@ export const numbersP95Ms100k: BenchFigure = {
     const rows = await listDrivesForNumbers(shop.db, shop.shopId, since)
     if (rows.length < 10_000) throw new Error(`expected about 12,000 drives in 90 days, got ${rows.length}`)
     const ms = await p95Ms(() => listDrivesForNumbers(shop.db, shop.shopId, since))
+    // Beside the figure (the period's drives as rows, which the CSV sends): the aggregate the page and the JSON
+    // API show (app/_server/numbers.ts loadNumbers), for the same shop and period.
+    const pageMs = await p95Ms(() => loadNumbersSummary(shop.db, shop.shopId, since))
+    console.error(`[bench] numbers: ${rows.length} drives in 90 days; rows p95 ${ms.toFixed(1)} ms, the page's aggregate p95 ${pageMs.toFixed(1)} ms`)
     await finish(ctx, shop)
     return ms
   },

@@ -12,7 +12,7 @@ import { assertDriveAccess, assertRecordingOpen, lockDriveFor, rescoreFinishedDr
 const params = z.object({ driveId: uuidParam })
 
 // The recorder sends a batch every 5 s or 50 samples (lib/recorder/batching.ts), so this is the hot path.
-// Statements for a new batch: the session (two, lib/auth/lucia.ts), the drive with the batch's claim (one),
+// Statements for a new batch: the session with its user (one, lib/auth/lucia.ts), the drive with the batch's claim (one),
 // then claim + insert + record + the live channel's notice in one statement (db/queries/samples.ts
 // ingestSampleBatch), which holds the drive FOR SHARE so that Finish (FOR UPDATE) waits for it or it for
 // Finish. A replayed batch is answered from its claim before its body is validated. A batch that arrives
