@@ -9,7 +9,7 @@ import { scoreDrive } from "@/lib/scoring"
 import { createRng } from "@/lib/tracks"
 import { DEMO_ROAD_LAYOUTS, generateRoadDrive, type RoadLayout } from "@/lib/tracks/roads"
 import type { Db } from "./client"
-import { applyDriveContribution } from "./queries/roads"
+import { applyDriveContribution, bumpRoadModelVersion } from "./queries/roads"
 import { findShopSettings, updateShopSettings } from "./queries/shop-settings"
 
 /** An invented spot in the US Midwest for the invented demo shop. */
@@ -103,5 +103,6 @@ export async function seedRoadHistory(db: Db, shopId: string, { nowMs = Date.now
     const row = await db.selectFrom("road_drive").select("loop_id").where("drive_id", "=", driveId).where("shop_id", "=", shopId).executeTakeFirst()
     if (row?.loop_id) await db.updateTable("road_loop").set({ name: layout.name }).where("id", "=", row.loop_id).where("shop_id", "=", shopId).where("name", "is", null).execute()
   }
+  await bumpRoadModelVersion(db, shopId)
   return made
 }

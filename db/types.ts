@@ -286,6 +286,13 @@ export interface RoadCellStatTable {
   speed_hist: number[]
 }
 
+/** A token that changes with every change to the shop's road model (what the Roads page's figures are kept by). */
+export interface RoadModelTable {
+  shop_id: string
+  version: Generated<string>
+  updated_at: GeneratedTimestamp
+}
+
 export interface RoadDriveTable {
   drive_id: string
   shop_id: string
@@ -378,6 +385,7 @@ export interface Database {
   road_loop: RoadLoopTable
   road_cell_stat: RoadCellStatTable
   road_drive: RoadDriveTable
+  road_model: RoadModelTable
   score_revision: ScoreRevisionTable
   issued_record: IssuedRecordTable
   share_link: ShareLinkTable

@@ -23,7 +23,8 @@ export function RoadMap({ view }: { view: RoadsView }) {
   for (const t of tracks) for (const [x, y] of t) extent = Math.max(extent, Math.abs(x), Math.abs(y))
   extent *= 1.08
   const k = SIZE / (2 * extent)
-  const px = ([x, y]: [number, number]) => `${((x + extent) * k).toFixed(1)},${((y + extent) * k).toFixed(1)}`
+  // whole units of a 1000-unit map: a shared corner rounds the same way for both its cells, and the page stays small
+  const px = ([x, y]: [number, number]) => `${Math.round((x + extent) * k)},${Math.round((y + extent) * k)}`
   const scale = niceScale(extent * 0.5, view.units)
   const unitM = view.units === "imperial" ? 1609.344 : 1000
   const unitWord = view.units === "imperial" ? "mi" : "km"
@@ -39,7 +40,7 @@ export function RoadMap({ view }: { view: RoadsView }) {
         <title id="road-map-title">
           {`Hex map of ${cells.length} road cells around the shop, coloured by the share of driving at qualifying speed, with the tracks of the ${view.loops.length} best loops.`}
         </title>
-        <g data-testid="road-cells">
+        <g data-testid="road-cells" stroke="#ffffff" strokeWidth={0.8}>
           {cells.map((c) => {
             const cls = shareClass(c.qualifyingShare)
             return (
@@ -48,8 +49,6 @@ export function RoadMap({ view }: { view: RoadsView }) {
                 points={c.points.map(px).join(" ")}
                 fill={SHARE_FILL[cls]}
                 fillOpacity={SHARE_OPACITY[cls]}
-                stroke="#ffffff"
-                strokeWidth={0.8}
                 data-share={cls}
               >
                 <title>

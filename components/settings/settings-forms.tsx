@@ -4,8 +4,9 @@ import { useRouter } from "next/navigation"
 import { useEffect, useState } from "react"
 import { apiFetch } from "@/components/ui/api-fetch"
 import { Button } from "@/components/ui/button"
-import { Field, Select } from "@/components/ui/field"
+import { Field, Input, Select } from "@/components/ui/field"
 import { formatDateTime, type UnitSystem } from "@/lib/format"
+import { parseLocationInput } from "@/lib/validation/shop-location"
 
 function Saved({ message }: { message: string | null }) {
   return (
@@ -120,6 +121,72 @@ export function ShopFormatForm({
         </Button>
       ) : (
         <p className="text-sm text-graphite-600 dark:text-graphite-300">An admin sets these for the whole shop.</p>
+      )}
+      <Saved message={message} />
+    </form>
+  )
+}
+
+/** Where the shop is (admin): the Roads page draws its map around it and takes its loops from drives starting near it. */
+export function ShopLocationForm({ initial, canEdit }: { initial: { lat: number; lon: number } | null; canEdit: boolean }) {
+  const router = useRouter()
+  const [lat, setLat] = useState(initial ? String(initial.lat) : "")
+  const [lon, setLon] = useState(initial ? String(initial.lon) : "")
+  const [error, setError] = useState<{ field: "lat" | "lon"; message: string } | null>(null)
+  const [message, setMessage] = useState<string | null>(null)
+  const [busy, setBusy] = useState(false)
+  async function save(e: React.FormEvent) {
+    e.preventDefault()
+    setMessage(null)
+    const parsed = parseLocationInput(lat, lon)
+    if (!parsed.ok) {
+      setError(parsed)
+      return
+    }
+    setError(null)
+    setBusy(true)
+    try {
+      await apiFetch("/api/shop/settings", { method: "PATCH", body: { location: parsed.location } })
+      setMessage(parsed.location ? "Saved. The Roads page draws its map around this place." : "Saved: no location. The Roads page takes the middle of where drives start.")
+      router.refresh()
+    } catch (err) {
+      setMessage((err as Error).message)
+    } finally {
+      setBusy(false)
+    }
+  }
+  return (
+    <form onSubmit={save} className="space-y-4" data-testid="shop-location-form" noValidate>
+      <div className="grid gap-3 sm:grid-cols-2">
+        <Field label="Latitude" htmlFor="shop-lat" hint="Decimal degrees, north positive" error={error?.field === "lat" ? error.message : undefined}>
+          <Input id="shop-lat" inputMode="decimal" autoComplete="off" placeholder="43.8731" value={lat} onChange={(e) => setLat(e.target.value)} disabled={!canEdit} />
+        </Field>
+        <Field label="Longitude" htmlFor="shop-lon" hint="Decimal degrees, east positive (west is minus)" error={error?.field === "lon" ? error.message : undefined}>
+          <Input id="shop-lon" inputMode="decimal" autoComplete="off" placeholder="-91.9187" value={lon} onChange={(e) => setLon(e.target.value)} disabled={!canEdit} />
+        </Field>
+      </div>
+      {canEdit ? (
+        <div className="flex flex-wrap gap-2">
+          <Button type="submit" disabled={busy} data-testid="save-shop-location">
+            Save location
+          </Button>
+          {initial ? (
+            <Button
+              type="button"
+              variant="outline"
+              disabled={busy}
+              onClick={() => {
+                setLat("")
+                setLon("")
+                setError(null)
+              }}
+            >
+              Clear
+            </Button>
+          ) : null}
+        </div>
+      ) : (
+        <p className="text-sm text-graphite-600 dark:text-graphite-300">An admin sets the shop&apos;s location.</p>
       )}
       <Saved message={message} />
     </form>

@@ -4,6 +4,7 @@ import { sql } from "kysely"
 import type { AnyDriveFile } from "@/lib/drive-file/schema"
 import {
   ALL,
+  SPEED_BUCKETS,
   computeDriveContribution,
   locationFromStarts,
   matchLoop,
@@ -41,6 +42,7 @@ export async function applyDriveContribution(
   { stats, buckets, summary }: DriveContribution,
 ) {
   const shopId = drive.shop_id
+  await bumpRoadModelVersion(db, shopId)
   const old = await db
     .selectFrom("road_drive")
     .select(["contribution", "loop_id"])
@@ -58,23 +60,24 @@ export async function applyDriveContribution(
   // One order for every writer, so two drives scored at once lock the shared cell rows in the same order.
   const ordered = [...delta.values()].sort((a, b) => a.hour - b.hour || a.weekday - b.weekday || (a.cell < b.cell ? -1 : a.cell > b.cell ? 1 : 0))
   // One statement with one array per column (not a parameter per value): a long drive touches ~1,000 rows.
+  // The speed histograms travel as one flat array, each row taking its slice of SPEED_BUCKETS values.
   for (let i = 0; i < ordered.length; i += UPSERT_CHUNK) {
     const part = ordered.slice(i, i + UPSERT_CHUNK)
+    const hists = `{${part.map((x) => x.speedHist.join(",")).join(",")}}`
     await sql`
       insert into road_cell_stat (shop_id, cell, hour, weekday, seconds, qualifying_seconds, following_seconds, harsh_events, speed_hist)
-      select ${shopId}::uuid, u.cell, u.hour, u.weekday, u.seconds, u.q, u.f, u.h, u.hist::float8[]
-      from unnest(
+      select ${shopId}::uuid, u.cell, u.hour, u.weekday, u.seconds, u.q, u.f, u.h, hist.a[(u.i - 1) * ${SPEED_BUCKETS}::int + 1 : u.i * ${SPEED_BUCKETS}::int]
+      from (select ${hists}::float8[] as a) as hist, unnest(
         ${part.map((x) => x.cell)}::text[], ${part.map((x) => x.hour)}::int2[], ${part.map((x) => x.weekday)}::int2[],
         ${part.map((x) => x.seconds)}::float8[], ${part.map((x) => x.qualifyingSeconds)}::float8[], ${part.map((x) => x.followingSeconds)}::float8[],
-        ${part.map((x) => x.harshEvents)}::int4[], ${part.map((x) => `{${x.speedHist.join(",")}}`)}::text[]
-      ) as u(cell, hour, weekday, seconds, q, f, h, hist)
+        ${part.map((x) => x.harshEvents)}::int4[]
+      ) with ordinality as u(cell, hour, weekday, seconds, q, f, h, i)
       on conflict (shop_id, hour, weekday, cell) do update set
         seconds = road_cell_stat.seconds + excluded.seconds,
         qualifying_seconds = road_cell_stat.qualifying_seconds + excluded.qualifying_seconds,
         following_seconds = road_cell_stat.following_seconds + excluded.following_seconds,
         harsh_events = road_cell_stat.harsh_events + excluded.harsh_events,
-        speed_hist = (select array_agg(coalesce(a, 0) + coalesce(b, 0) order by i)
-                      from unnest(road_cell_stat.speed_hist, excluded.speed_hist) with ordinality as u(a, b, i))
+        speed_hist = array(select coalesce(a, 0) + coalesce(b, 0) from unnest(road_cell_stat.speed_hist, excluded.speed_hist) with ordinality as u(a, b, i) order by i)
     `.execute(db)
   }
   if (!summary) {
@@ -109,6 +112,16 @@ export async function applyDriveContribution(
     .execute()
 }
 
+/** A new token for the shop's road model (taken in the writer's transaction, so it serialises the shop's writers). */
+export async function bumpRoadModelVersion(db: Db, shopId: string) {
+  await sql`insert into road_model (shop_id) values (${shopId}) on conflict (shop_id) do update set version = gen_random_uuid(), updated_at = now()`.execute(db)
+}
+
+/** The token of the shop's road model as it is now; null when the shop has none. */
+export async function findRoadModelVersion(db: Db, shopId: string): Promise<string | null> {
+  return (await db.selectFrom("road_model").select("version").where("shop_id", "=", shopId).executeTakeFirst())?.version ?? null
+}
+
 async function loopFor(db: Db, shopId: string, cells: string[]): Promise<string> {
   const loops = await db.selectFrom("road_loop").select(["id", "cells", "number"]).where("shop_id", "=", shopId).execute()
   const match = matchLoop(cells, loops)
@@ -120,6 +133,7 @@ async function loopFor(db: Db, shopId: string, cells: string[]): Promise<string>
 
 /** Removes every figure of the shop's road model (turning the feature off). */
 export async function deleteRoadModel(db: Db, shopId: string) {
+  await db.deleteFrom("road_model").where("shop_id", "=", shopId).execute()
   await db.deleteFrom("road_drive").where("shop_id", "=", shopId).execute()
   await db.deleteFrom("road_cell_stat").where("shop_id", "=", shopId).execute()
   await db.deleteFrom("road_loop").where("shop_id", "=", shopId).execute()

@@ -62,7 +62,15 @@ export function speedBucket(speedMps: number): number {
 }
 
 function keptSamples(samples: Sample[], profile: ResolvedProfile): Sample[] {
-  const kept = samples.filter((s) => s.accuracy == null || s.accuracy <= profile.maxAccuracyM)
+  const maxAcc = profile.maxAccuracyM
+  // The usual file: every fix accurate enough, in time order, no repeated time. Then the samples serve as they are.
+  let clean = true
+  for (let i = 0; i < samples.length && clean; i++) {
+    const s = samples[i]!
+    if ((s.accuracy != null && s.accuracy > maxAcc) || (i > 0 && s.t <= samples[i - 1]!.t)) clean = false
+  }
+  if (clean) return samples
+  const kept = samples.filter((s) => s.accuracy == null || s.accuracy <= maxAcc)
   let sorted = true
   for (let i = 1; i < kept.length && sorted; i++) if (kept[i]!.t < kept[i - 1]!.t) sorted = false
   if (!sorted) kept.sort((a, b) => a.t - b.t)

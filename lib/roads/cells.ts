@@ -12,51 +12,76 @@ export const LOOP_RESOLUTION = 8
 
 const M_PER_DEG_LAT = 110_574
 
-interface CellDisc {
+interface CellShape {
   cell: string
   lat: number
   lon: number
   cosLat: number
   /** Square of a radius (m) inside which every point is in the cell, with a margin. */
   safeR2: number
+  /** The edges as half-planes in local metres around the centre: inside when nx*x + ny*y < c (margin taken off). */
+  edges: Float64Array
 }
 
 /**
- * Finds the res-9 cell of each point of a track. A point inside the disc inscribed in the last cell is
- * in that cell, so most points of a drive (10+ in a row per cell at 1 Hz) skip the H3 look-up; the
+ * Finds the res-9 cell of each point of a track. A point well inside the last cell's hexagon (drawn in
+ * local metres around its centre, with a margin of at least 1 m, or 2 % of the cell's size for the coarse
+ * resolutions, against the flat approximation) is in that cell; so is a point well inside the cell before it
+ * (a track wavering along an edge). Only the points near an edge, or in a new cell, take the H3 look-up. The
  * answer is the same as latLngToCell for every point (checked against it in tests/unit/roads).
  */
 export function createCellLocator(resolution = ROAD_RESOLUTION) {
-  const discs = new Map<string, CellDisc>()
-  let last: CellDisc | null = null
-  const discOf = (cell: string): CellDisc => {
-    let disc = discs.get(cell)
-    if (!disc) {
+  const shapes = new Map<string, CellShape>()
+  let last: CellShape | null = null
+  let before: CellShape | null = null
+  const shapeOf = (cell: string): CellShape => {
+    let shape = shapes.get(cell)
+    if (!shape) {
       const [lat, lon] = cellToLatLng(cell)
       const cosLat = Math.cos((lat * Math.PI) / 180)
       const ring = cellToBoundary(cell).map(([a, b]) => [(b - lon) * cosLat * M_PER_DEG_LAT, (a - lat) * M_PER_DEG_LAT] as const)
+      const raw: [number, number, number][] = []
       let inner = Infinity
       for (let i = 0; i < ring.length; i++) {
         const [x1, y1] = ring[i]!
         const [x2, y2] = ring[(i + 1) % ring.length]!
-        // distance from the centre (0,0) to the line through the edge
-        const d = Math.abs(x1 * y2 - x2 * y1) / Math.hypot(x2 - x1, y2 - y1)
-        if (d < inner) inner = d
+        const len = Math.hypot(x2 - x1, y2 - y1)
+        // the edge's unit normal pointing away from the centre (0,0), and the centre's distance to the edge
+        let nx = (y2 - y1) / len
+        let ny = -(x2 - x1) / len
+        let c = nx * x1 + ny * y1
+        if (c < 0) (nx = -nx), (ny = -ny), (c = -c)
+        raw.push([nx, ny, c])
+        if (c < inner) inner = c
       }
-      const safe = inner * 0.9
-      disc = { cell, lat, lon, cosLat, safeR2: safe * safe }
-      discs.set(cell, disc)
+      const margin = Math.max(1, inner * 0.02)
+      const edges = new Float64Array(raw.length * 3)
+      raw.forEach(([nx, ny, c], i) => edges.set([nx, ny, c - margin], i * 3))
+      const safe = inner - margin
+      shape = { cell, lat, lon, cosLat, safeR2: safe * safe, edges }
+      shapes.set(cell, shape)
     }
-    return disc
+    return shape
+  }
+  const holds = (shape: CellShape, lat: number, lon: number): boolean => {
+    const y = (lat - shape.lat) * M_PER_DEG_LAT
+    const x = (lon - shape.lon) * shape.cosLat * M_PER_DEG_LAT
+    if (x * x + y * y < shape.safeR2) return true
+    const e = shape.edges
+    for (let k = 0; k < e.length; k += 3) if (e[k]! * x + e[k + 1]! * y >= e[k + 2]!) return false
+    return true
   }
   return (lat: number, lon: number): string => {
-    if (last) {
-      const dy = (lat - last.lat) * M_PER_DEG_LAT
-      const dx = (lon - last.lon) * last.cosLat * M_PER_DEG_LAT
-      if (dx * dx + dy * dy < last.safeR2) return last.cell
+    if (last && holds(last, lat, lon)) return last.cell
+    if (before && holds(before, lat, lon)) {
+      const b = before
+      before = last
+      last = b
+      return b.cell
     }
-    last = discOf(latLngToCell(lat, lon, resolution))
-    return last.cell
+    const next = shapeOf(latLngToCell(lat, lon, resolution))
+    if (next !== last) (before = last), (last = next)
+    return next.cell
   }
 }
 

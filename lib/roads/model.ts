@@ -119,6 +119,8 @@ export interface LoopQuery {
   hour: number | null
   /** null = any day */
   dayKind: DayKind | null
+  /** 0 = Sunday ... 6; null = any weekday (narrower than dayKind when both are given) */
+  weekday?: number | null
   profileId?: string | null
   home: { lat: number; lon: number } | null
 }
@@ -137,6 +139,7 @@ export function rankLoops(drives: LoopDrive[], q: LoopQuery): RankedLoop[] {
     if (q.profileId && d.profileId !== q.profileId) continue
     if (q.hour != null && hoursApart(d.hour, q.hour) > HOUR_WINDOW) continue
     if (q.dayKind && dayKindOf(d.weekday) !== q.dayKind) continue
+    if (q.weekday != null && d.weekday !== q.weekday) continue
     if (q.home && geodesicDistanceM(q.home.lat, q.home.lon, d.startLat, d.startLon) > NEAR_SHOP_M) continue
     const list = byLoop.get(d.loopId)
     if (list) list.push(d)
@@ -158,6 +161,22 @@ export function rankLoops(drives: LoopDrive[], q: LoopQuery): RankedLoop[] {
   }
   // Trusted loops first, then by median time; ties by qualifying share.
   return ranked.sort((a, b) => Number(b.trusted) - Number(a.trusted) || a.medianClearSeconds - b.medianClearSeconds || b.qualifyingShare - a.qualifyingShare)
+}
+
+export type LoopBasis = { weekday: number | null; dayKind: DayKind | null }
+
+/**
+ * Ranks on the narrowest basis the history can carry: the first of `bases` (e.g. this weekday, then this kind
+ * of day, then any day) whose best loop rests on at least TRUSTED_DRIVES drives; when none does, the last
+ * (the broadest). Says which basis it used.
+ */
+export function rankLoopsOnBasis(drives: LoopDrive[], q: Omit<LoopQuery, "dayKind" | "weekday">, bases: LoopBasis[]): { basis: LoopBasis; loops: RankedLoop[] } {
+  let result: { basis: LoopBasis; loops: RankedLoop[] } | null = null
+  for (const basis of bases) {
+    result = { basis, loops: rankLoops(drives, { ...q, ...basis }) }
+    if (result.loops[0]?.trusted) return result
+  }
+  return result ?? { basis: { weekday: null, dayKind: null }, loops: rankLoops(drives, { ...q, weekday: null, dayKind: null }) }
 }
 
 /** The shop's place when settings name none: the median start of its drives. */

@@ -73,6 +73,21 @@ export const roadModelUpdateMs: BenchFigure = {
   meets: (v) => v <= 200,
 }
 
+/** The roadsPageP95Ms shop: a lead and 2,000 drives over 10 weeks, 07:00-18:59, on the three invented roads, added as scoring adds them. */
+export async function seedRoadsPageShop(db: Db) {
+  const shop = await benchShop(db, "shop_lead")
+  const day0 = Date.now() - 70 * 86_400_000
+  for (let k = 0; k < 2000; k++) {
+    const layout = DEMO_ROAD_LAYOUTS[k % 3]!
+    const hour = 7 + (k % 12)
+    const startMs = Math.floor(day0 / 86_400_000) * 86_400_000 + Math.floor(k / 30) * 86_400_000 + (hour + 6) * 3_600_000
+    const file = generateRoadDrive({ layout, seed: 20_000 + k, startMs, home: HOME, traffic: hour === 8 || hour === 17 ? 0.7 : 0.1, hz: 0.2 })
+    const drive = await insertDriveRow(db, shop.shopId, shop.userId, startMs)
+    await applyDriveContribution(db, drive, scoreDrive(file).clearedAtSeconds, computeDriveContribution(file, "America/Chicago"))
+  }
+  return shop
+}
+
 export const roadsPageP95Ms: BenchFigure = {
   name: "roadsPageP95Ms",
   target: "<= 100",
@@ -81,18 +96,8 @@ export const roadsPageP95Ms: BenchFigure = {
   async run(ctx) {
     const baseUrl = ctx.env.BASE_URL!
     const db = createDb(ctx.env.DATABASE_URL)
-    const { shopId, userId, email, password } = await benchShop(db, "shop_lead")
+    const { shopId, email, password } = await seedRoadsPageShop(db)
     try {
-      // 2,000 drives over 10 weeks, 07:00-18:59, on the three invented roads, added as scoring adds them
-      const day0 = Date.now() - 70 * 86_400_000
-      for (let k = 0; k < 2000; k++) {
-        const layout = DEMO_ROAD_LAYOUTS[k % 3]!
-        const hour = 7 + (k % 12)
-        const startMs = Math.floor(day0 / 86_400_000) * 86_400_000 + Math.floor(k / 30) * 86_400_000 + (hour + 6) * 3_600_000
-        const file = generateRoadDrive({ layout, seed: 20_000 + k, startMs, home: HOME, traffic: hour === 8 || hour === 17 ? 0.7 : 0.1, hz: 0.2 })
-        const drive = await insertDriveRow(db, shopId, userId, startMs)
-        await applyDriveContribution(db, drive, scoreDrive(file).clearedAtSeconds, computeDriveContribution(file, "America/Chicago"))
-      }
       const signIn = await fetch(`${baseUrl}/api/session`, {
         method: "POST",
         headers: { "content-type": "application/json", "x-forwarded-for": `bench-roads-${process.pid}` },

@@ -12,7 +12,7 @@ import { listProfiles } from "@/db/queries/profiles"
 import { ROAD_RESOLUTION } from "@/lib/roads/cells"
 import { WEEKDAYS } from "@/lib/roads/clock"
 import { HOUR_WINDOW, NEAR_SHOP_M } from "@/lib/roads/model"
-import { roadsQuery } from "@/lib/validation/roads"
+import { roadsQuery, WEEKDAY_KEYS } from "@/lib/validation/roads"
 import { formatDistance, formatDuration, formatHour, formatLength } from "@/lib/format"
 
 export const metadata: Metadata = { title: "Roads" }
@@ -25,7 +25,7 @@ const hh = formatHour
 
 function slotWords(view: RoadsView) {
   const hour = view.hour == null ? "any hour" : `${hh((view.hour - HOUR_WINDOW + 24) % 24)} to ${hh((view.hour + HOUR_WINDOW + 1) % 24)}`
-  const day = view.dayKind == null ? "any day" : view.dayKind === "weekday" ? "weekdays" : "weekends"
+  const day = view.weekday != null ? `${WEEKDAYS[view.weekday]}s` : view.dayKind == null ? "any day" : view.dayKind === "weekday" ? "weekdays" : "weekends"
   return `${day}, ${hour}`
 }
 
@@ -76,7 +76,12 @@ export default async function RoadsPage({ searchParams }: { searchParams: Promis
         <label className="flex flex-col text-sm">
           Day
           <select name="day" defaultValue={q.day} className="min-h-12 rounded-lg border border-graphite-300 bg-white px-2 dark:border-asphalt-700 dark:bg-asphalt-800">
-            <option value="now">Today ({view.now.dayKind})</option>
+            <option value="now">Today ({WEEKDAYS[view.now.weekday]})</option>
+            {WEEKDAY_KEYS.map((key, i) => (
+              <option key={key} value={key}>
+                {WEEKDAYS[i]}s
+              </option>
+            ))}
             <option value="weekday">Weekdays</option>
             <option value="weekend">Weekends</option>
             <option value="all">Any day</option>
@@ -102,7 +107,16 @@ export default async function RoadsPage({ searchParams }: { searchParams: Promis
 
       <div className="grid gap-4 xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
         <Card className="space-y-2">
-          <h2 className="text-lg font-semibold">Road cells, {view.hour == null ? "all hours" : `${hh(view.hour)} to ${hh((view.hour + 1) % 24)}`}</h2>
+          <h2 className="text-lg font-semibold">
+            Road cells,{" "}
+            {view.hour != null
+              ? `${hh(view.hour)} to ${hh((view.hour + 1) % 24)}, any day`
+              : view.cellsBy === "weekday" && view.fellBackFromWeekday == null && view.weekday != null
+                ? `${WEEKDAYS[view.weekday]}s, all hours`
+                : view.cellsBy === "weekday" && view.fellBackFromWeekday != null
+                  ? `${WEEKDAYS[view.fellBackFromWeekday]}s, all hours`
+                  : "all hours"}
+          </h2>
           {view.location ? (
             view.cells.length ? (
               <RoadMap view={view} />
@@ -117,6 +131,16 @@ export default async function RoadsPage({ searchParams }: { searchParams: Promis
         <div className="space-y-4">
           <Card className="space-y-3" data-testid="best-loops">
             <h2 className="text-lg font-semibold">Best loops for {slotWords(view)}</h2>
+            {view.fellBackFromWeekday != null ? (
+              <p className="text-sm text-graphite-600 dark:text-graphite-300" data-testid="loops-fell-back">
+                Too few learns on {WEEKDAYS[view.fellBackFromWeekday]}s at this hour to rank by weekday (no loop with {view.trustedDrives} drives), so these rest on{" "}
+                {view.dayKind == null ? "every day of the week: hour of day only" : view.dayKind === "weekday" ? "all weekdays" : "both weekend days"}.
+              </p>
+            ) : view.weekday != null ? (
+              <p className="text-sm text-graphite-600 dark:text-graphite-300" data-testid="loops-by-weekday">
+                Ranked from {WEEKDAYS[view.weekday]} drives only, at this hour.
+              </p>
+            ) : null}
             {view.loops.length ? (
               <ol className="space-y-3">
                 {view.loops.map((l, i) => (
@@ -163,8 +187,9 @@ export default async function RoadsPage({ searchParams }: { searchParams: Promis
             </p>
             <p>
               A loop is a group of past drives that covered mostly the same roads. The best loops are those whose drives started within {distance(view, NEAR_SHOP_M)} of the shop,
-              completed the learn, and started within {HOUR_WINDOW} hour of the hour chosen on the same kind of day; they are ranked by the median time to learn complete. A loop
-              resting on fewer than {view.trustedDrives} drives is listed last and marked.
+              completed the learn, and started within {HOUR_WINDOW} hour of the hour chosen, on the same weekday when the history holds a loop of at least{" "}
+              {view.trustedDrives} such drives, else on the same kind of day (weekday or weekend), else on any day; they are ranked by the median time to learn complete. A
+              loop resting on fewer than {view.trustedDrives} drives is listed last and marked. The map by hour counts every day of the week.
             </p>
             <p className="flex items-start gap-1">
               <MapPin aria-hidden className="mt-0.5 size-4 shrink-0" />

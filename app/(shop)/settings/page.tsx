@@ -1,6 +1,6 @@
 import type { Metadata } from "next"
 import { requirePageRole } from "@/app/_server/auth"
-import { ReviewMailForm, ShopFormatForm } from "@/components/settings/settings-forms"
+import { ReviewMailForm, ShopFormatForm, ShopLocationForm } from "@/components/settings/settings-forms"
 import { Card } from "@/components/ui/card"
 import { PageHeader } from "@/components/ui/page-header"
 import { getDb } from "@/db/client"
@@ -33,6 +33,14 @@ export default async function SettingsPage() {
           Every page, drive record and e-mail writes numbers and times this way. Without a choice the shop reads US customary units in {DEFAULT_TIME_ZONE.replace("_", " ")} time.
         </p>
         <ShopFormatForm initial={{ units: settings.units, timeZone: settings.timeZone }} zones={zones} canEdit={me.role === "admin"} serverNow={formatDateTime(Date.now(), settings.timeZone, { zoneName: true })} />
+      </Card>
+      <Card className="space-y-2">
+        <h2 className="text-lg font-semibold">Where the shop is</h2>
+        <p className="text-sm text-graphite-600 dark:text-graphite-300">
+          The Roads page draws its map around this place, takes the best loops from drives that start near it, and reads hours and weekdays in the time zone above.
+          Without a location it takes the middle of where the shop&apos;s drives start.
+        </p>
+        <ShopLocationForm initial={settings.location} canEdit={me.role === "admin"} />
       </Card>
     </div>
   )

@@ -164,4 +164,63 @@ describe("road knowledge", () => {
       expect(text).not.toContain(road.route[0]!)
     }
   })
+
+  it("ranks by weekday where the history holds enough, and says when it fell back to the kind of day or the hour alone", async () => {
+    // Saturday 7 November 2026, 13:00 local: six drives on the bend road (the only drives near 13:00)
+    for (let k = 0; k < 6; k++) await importRoadDrive(WINDING, 1500 + k, at(5, 13, k * 8), 0.05)
+    const sat = await lead.get("/api/roads?hour=13&day=saturday")
+    expect(sat.status).toBe(200)
+    expect(sat.body).toMatchObject({ weekday: 6, dayKind: null, fellBackFromWeekday: null })
+    expect(await loopLayouts(lead, sat.body.loops[0].loopId)).toEqual(new Set(["winding"]))
+    expect(sat.body.loops[0].drives).toBeGreaterThanOrEqual(5)
+    // Sunday has none: the weekend's drives carry it
+    const sun = await lead.get("/api/roads?hour=13&day=sunday")
+    expect(sun.body).toMatchObject({ weekday: null, dayKind: "weekend", fellBackFromWeekday: 0 })
+    expect(sun.body.loops[0].loopId).toBe(sat.body.loops[0].loopId)
+    // Tuesday: no weekday drive near 13:00 either, so the hour alone (any day)
+    const tue = await lead.get("/api/roads?hour=13&day=tuesday")
+    expect(tue.body).toMatchObject({ weekday: null, dayKind: null, fellBackFromWeekday: 2 })
+    expect(tue.body.loops[0].loopId).toBe(sat.body.loops[0].loopId)
+    const page = await lead.get("/roads?hour=13&day=tuesday")
+    expect(page.status).toBe(200)
+    const words = page.text.replaceAll("<!-- -->", "")
+    expect(words).toContain("Too few learns on Tuesdays at this hour")
+    expect(words).toContain("hour of day only")
+    // 10:00 on a Tuesday: one drive a road, so the weekdays' five carry the ranking, steady road first
+    const tue10 = await lead.get("/api/roads?hour=10&day=tuesday")
+    expect(tue10.body).toMatchObject({ weekday: null, dayKind: "weekday", fellBackFromWeekday: 2 })
+    expect(await loopLayouts(lead, tue10.body.loops[0].loopId)).toEqual(new Set(["steady"]))
+    expect((await lead.get("/api/roads?day=someday")).status).toBe(400)
+  })
+
+  it("lets the admin set the shop's location and time zone, and the Roads page follows at once", async () => {
+    const own = await createTestShop("Roads place")
+    const admin = await signedIn(own.admin)
+    const ownLead = await signedIn(own.lead)
+    const ownTech = await signedIn(own.tech)
+    expect((await ownTech.post("/api/drives/import", generateRoadDrive({ layout: STEADY, seed: 88, startMs: at(0, 10, 0), home: HOME, hz: 0.5 }))).status).toBe(201)
+    const before = await ownLead.get("/api/roads?hour=all&day=all")
+    expect(before.body.location.source).toBe("drive starts")
+    const place = { lat: 43.9, lon: -91.95 }
+    const set = await admin.patch("/api/shop/settings", { location: place, timeZone: "America/Denver" })
+    expect(set.status).toBe(200)
+    expect(set.body.settings).toMatchObject({ location: place, timeZone: "America/Denver" })
+    const after = await ownLead.get("/api/roads?hour=all&day=all")
+    expect(after.body).toMatchObject({ location: { ...place, source: "settings" }, timeZone: "America/Denver" })
+    const page = await admin.get("/settings")
+    expect(page.text).toContain('data-testid="shop-location-form"')
+    expect(page.text).toContain('value="43.9"')
+    // out of range, not a zone, not a number: 400 with the field named, nothing stored
+    for (const body of [{ location: { lat: 95, lon: 0 } }, { location: { lat: 43, lon: -200 } }, { location: { lat: "43.9", lon: 0 } }, { timeZone: "Mars/Olympus" }]) {
+      const bad = await admin.patch("/api/shop/settings", body)
+      expect(bad.status).toBe(400)
+      expect(bad.body.error.code).toBeTruthy()
+    }
+    expect((await admin.get("/api/shop/settings")).body.settings).toMatchObject({ location: place, timeZone: "America/Denver" })
+    // a lead reads it but may not change it (the spec: the admin manages the shop's settings)
+    expect((await ownLead.patch("/api/shop/settings", { location: HOME })).status).toBe(403)
+    // cleared: the page takes the drive starts again
+    expect((await admin.patch("/api/shop/settings", { location: null })).status).toBe(200)
+    expect((await ownLead.get("/api/roads?hour=all&day=all")).body.location.source).toBe("drive starts")
+  })
 })

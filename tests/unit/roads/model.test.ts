@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest"
-import { compassWord, createLocalClock, hoursApart, jaccard, matchLoop, niceScale, rankLoops, shareClass, type LoopDrive } from "@/lib/roads"
+import { compassWord, createLocalClock, hoursApart, jaccard, matchLoop, niceScale, rankLoops, rankLoopsOnBasis, shareClass, type LoopDrive } from "@/lib/roads"
 
 describe("local clock", () => {
   it("reads the shop's hour and weekday across a daylight-saving change", () => {
@@ -52,6 +52,43 @@ describe("ranking loops", () => {
     const few = [...drives, drive("lucky", 10, 100), drive("lucky", 10, 110)]
     const ranked = rankLoops(few, { hour: 10, dayKind: "weekday", home })
     expect(ranked.at(-1)).toMatchObject({ loopId: "lucky", trusted: false, drives: 2 })
+  })
+})
+
+describe("ranking loops by hour and weekday", () => {
+  // Wednesdays (3) at 10:00 the parkway is jammed by a market; other weekdays it is the fastest.
+  const week = [
+    ...[1500, 1550, 1600, 1520, 1580].map((c) => drive("parkway", 10, c, { weekday: 3 })),
+    ...[900, 950, 920, 980, 940].map((c) => drive("avenue", 10, c, { weekday: 3 })),
+    ...[1, 2, 4, 5].flatMap((weekday) => [600, 620, 610].map((c) => drive("parkway", 10, c, { weekday }))),
+    ...[1, 2, 4, 5].flatMap((weekday) => [1100, 1150].map((c) => drive("avenue", 10, c, { weekday }))),
+    ...[800, 820].map((c) => drive("avenue", 10, c, { weekday: 6 })),
+  ]
+  const chain = (weekday: number) => [
+    { weekday, dayKind: null },
+    { weekday: null, dayKind: weekday === 0 || weekday === 6 ? ("weekend" as const) : ("weekday" as const) },
+    { weekday: null, dayKind: null },
+  ]
+
+  it("ranks on the weekday when the history holds a trusted loop for it", () => {
+    const wed = rankLoopsOnBasis(week, { hour: 10, home }, chain(3))
+    expect(wed.basis).toEqual({ weekday: 3, dayKind: null })
+    expect(wed.loops.map((l) => l.loopId)).toEqual(["avenue", "parkway"])
+    expect(wed.loops[0]).toMatchObject({ drives: 5, medianClearSeconds: 940 })
+    // hour only (any day), the parkway's many quick weekday drives win: the weekday changes the answer
+    expect(rankLoops(week, { hour: 10, dayKind: null, home })[0]!.loopId).toBe("parkway")
+  })
+
+  it("falls back to the kind of day, then to the hour alone, when the weekday has too few drives", () => {
+    // Mondays: 3 parkway drives, 2 avenue drives: no loop of 5, so all weekdays count
+    const mon = rankLoopsOnBasis(week, { hour: 10, home }, chain(1))
+    expect(mon.basis).toEqual({ weekday: null, dayKind: "weekday" })
+    expect(mon.loops[0]).toMatchObject({ loopId: "parkway", drives: 17 })
+    // Saturdays: 2 avenue drives, and no weekend loop of 5 either: every day at this hour, still marked by its count
+    const sat = rankLoopsOnBasis(week, { hour: 10, home }, chain(6))
+    expect(sat.basis).toEqual({ weekday: null, dayKind: null })
+    expect(sat.loops.map((l) => l.loopId)).toEqual(["parkway", "avenue"])
+    expect(sat.loops[1]!.drives).toBe(15)
   })
 })
 
