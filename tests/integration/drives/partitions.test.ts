@@ -94,7 +94,7 @@ describe("sample retention", () => {
     expect(partsBefore).toEqual(expect.arrayContaining(["sample_p1999_02", "sample_p1999_03"]))
     expect(retentionCutoffMs(now, 3)).toBeGreaterThan(OLDER_ONLY_A)
 
-    // (a generous lock wait: other test files insert samples all the while)
+    // (a generous lock wait: the browser tests may be inserting samples meanwhile)
     await applySampleRetention(testDb(), now, 15_000)
 
     // Shop A keeps 3 months: its 1999 samples are gone, in both months.
