@@ -4,10 +4,12 @@
 import { randomUUID } from "node:crypto"
 import { resolveProfile } from "@/lib/drive-file/profile"
 import { describeVehicle, VERDICT_WORD } from "@/lib/record/format"
+import { storedSample } from "@/lib/drive-file/stored"
 import { scoreDrive } from "@/lib/scoring"
 import { generateDrive, type DrivePattern } from "@/lib/tracks"
 import { withCheckDigit } from "@/lib/vin"
 import type { Db } from "./client"
+import { insertSamples } from "./queries/samples"
 
 type Outcome = "none" | "approved" | "redo"
 type DemoDrive = { pattern: DrivePattern; minutes: number; daysAgo: number; seed: number; review?: Outcome; note?: string }
@@ -155,7 +157,8 @@ export async function seedDemoJobsAndDrives(db: Db, shopId: string) {
       const vehicleWords = describeVehicle(demo.vehicle)
       for (const d of demo.drives) {
         const startMs = Math.floor(daysAgo(d.daysAgo).getTime() / 60_000) * 60_000
-        const file = generateDrive({ seed: d.seed, pattern: d.pattern, minutes: d.minutes, startMs, profile: resolved })
+        const generated = generateDrive({ seed: d.seed, pattern: d.pattern, minutes: d.minutes, startMs, profile: resolved })
+        const file = { ...generated, samples: generated.samples.map(storedSample) } // scored as stored
         const score = scoreDrive(file)
         const driveId = randomUUID()
         const needsReview = score.verdict !== "met" || score.harshEvents.accel + score.harshEvents.decel > 0
@@ -179,8 +182,7 @@ export async function seedDemoJobsAndDrives(db: Db, shopId: string) {
             finished_at: new Date(score.endedAtMs ?? startMs),
           })
           .execute()
-        const samples = file.samples.map((s) => ({ drive_id: driveId, shop_id: shopId, t: s.t, lat: s.lat, lon: s.lon, speed: s.speed ?? null, accuracy: s.accuracy ?? null }))
-        for (let i = 0; i < samples.length; i += 5000) await trx.insertInto("sample").values(samples.slice(i, i + 5000)).execute()
+        await insertSamples(trx, driveId, shopId, file.samples)
         const loggedByCoDriver = new Set(["lead-on", "gap", "lead-off", "note"])
         await trx
           .insertInto("mark")

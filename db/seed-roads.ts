@@ -3,6 +3,7 @@
 // drive is. Idempotent: once the history exists, re-running changes nothing.
 import { createHash } from "node:crypto"
 import { resolveProfile } from "@/lib/drive-file/profile"
+import { storedSample } from "@/lib/drive-file/stored"
 import { computeDriveContribution } from "@/lib/roads/aggregate"
 import { localSlot } from "@/lib/roads/clock"
 import { scoreDrive } from "@/lib/scoring"
@@ -10,6 +11,7 @@ import { createRng } from "@/lib/tracks"
 import { DEMO_ROAD_LAYOUTS, generateRoadDrive, type RoadLayout } from "@/lib/tracks/roads"
 import type { Db } from "./client"
 import { applyDriveContribution, bumpRoadModelVersion } from "./queries/roads"
+import { insertSamples } from "./queries/samples"
 import { findShopSettings, updateShopSettings } from "./queries/shop-settings"
 
 /** An invented spot in the US Midwest for the invented demo shop. */
@@ -66,7 +68,8 @@ export async function seedRoadHistory(db: Db, shopId: string, { nowMs = Date.now
     const day = today - (1 + Math.floor(rng() * HISTORY_DAYS)) * 86_400_000
     const startMs = utcForLocal(day, hour, Math.floor(rng() * 60), timeZone)
     if (localSlot(startMs, timeZone).weekday === 0) continue // closed on Sundays
-    const file = generateRoadDrive({ layout, seed: 90_000 + k, startMs, home: location, traffic: demoTraffic(layout, hour), hz: 0.25, profile: resolved })
+    const generated = generateRoadDrive({ layout, seed: 90_000 + k, startMs, home: location, traffic: demoTraffic(layout, hour), hz: 0.25, profile: resolved })
+    const file = { ...generated, samples: generated.samples.map(storedSample) } // scored as stored
     const score = scoreDrive(file)
     const id = uuidFrom(`${shopId}:road-history:${k}`)
     const drive = { id, shop_id: shopId, profile_version_id: profile?.version_id ?? null }
@@ -85,7 +88,7 @@ export async function seedRoadHistory(db: Db, shopId: string, { nowMs = Date.now
           finished_at: new Date(score.endedAtMs ?? startMs),
         })
         .execute()
-      await trx.insertInto("sample").values(file.samples.map((s) => ({ drive_id: id, shop_id: shopId, t: s.t, lat: s.lat, lon: s.lon, speed: s.speed ?? null, accuracy: s.accuracy ?? null }))).execute()
+      await insertSamples(trx, id, shopId, file.samples)
       await trx
         .insertInto("mark")
         .values(file.marks.map((m, i) => ({ id: uuidFrom(`${id}:mark:${i}`), drive_id: id, shop_id: shopId, t: m.t, kind: m.kind, gap_ft: "gapFt" in m ? (m.gapFt ?? null) : null, text: "text" in m ? (m.text ?? null) : null, created_by: tech.id })))

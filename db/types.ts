@@ -19,6 +19,8 @@ export interface ShopSettings {
   location?: { lat: number; lon: number } | null
   /** Road knowledge from the shop's own drives; default on. Turning it off removes the model. */
   roadKnowledge?: boolean
+  /** Whole months of samples kept before the current month (1-120); null or absent = keep everything. */
+  sampleRetentionMonths?: number | null
 }
 
 export interface ShopTable {
@@ -171,9 +173,30 @@ export interface DriveTable {
   unmet_conditions: Generated<string[]>
   /** A verdict other than met, or any harsh event (a generated column). */
   needs_review: Generated<boolean>
+  /** The drive's key in `sample` (an identity): samples carry this instead of the drive's and shop's uuids. */
+  sample_key: Generated<number>
 }
 
+/**
+ * A position sample, partitioned by month on `t` (migration 2026_12_02_1540_partitioned_samples), in the
+ * stored units of lib/drive-file/stored.ts. Reach it through the drive (`drive.sample_key`), by drive id
+ * and shop: queries/samples.ts.
+ */
 export interface SampleTable {
+  drive_key: number
+  t: number
+  /** 1e-7 degree */
+  lat: number
+  /** 1e-7 degree */
+  lon: number
+  /** mm/s */
+  speed: number | null
+  /** mm */
+  accuracy: number | null
+}
+
+/** View `sample_decoded`: samples in the drive file's units with their drive id and shop (for reading by hand and tests). */
+export interface SampleDecodedView {
   drive_id: string
   shop_id: string
   t: number
@@ -375,6 +398,7 @@ export interface Database {
   attachment: AttachmentTable
   drive: DriveTable
   sample: SampleTable
+  sample_decoded: SampleDecodedView
   sample_batch: SampleBatchTable
   mark: MarkTable
   score: ScoreTable

@@ -24,6 +24,7 @@ import {
 import { loadDriveFile } from "@/db/queries/drive-file"
 import { findDriveInShop } from "@/db/queries/drives"
 import { listSamples } from "@/db/queries/samples"
+import { storedSample } from "@/lib/drive-file/stored"
 import { findScore } from "@/db/queries/scores"
 import type { Drive } from "@/db/types"
 import type { Mark, Profile, Sample } from "@/lib/drive-file/schema"
@@ -273,7 +274,7 @@ export function noteSamplesStored(driveId: string, samples: readonly Sample[], s
   const stored: Sample[] = []
   for (const s of samples) {
     if (!want.delete(s.t)) continue // the first sample of each stored t is the one the database kept
-    stored.push(s)
+    stored.push(storedSample(s)) // as the database keeps it (lib/drive-file/stored.ts), so live = stored score
   }
   apply(entry, { type: "samples", samples: stored })
 }

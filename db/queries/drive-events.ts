@@ -5,6 +5,7 @@
 import { randomUUID } from "node:crypto"
 import { sql, type RawBuilder } from "kysely"
 import type { ApiMark, Mark, Sample } from "@/lib/drive-file/schema"
+import { encodeSampleColumns } from "@/lib/drive-file/stored"
 import type { Db } from "../client"
 
 export const DRIVE_CHANNEL = "straightaway_drive"
@@ -59,32 +60,20 @@ export interface SamplesInserted {
  */
 export async function insertSamplesNotifying(trx: Db, driveId: string, shopId: string, samples: readonly Sample[]): Promise<SamplesInserted> {
   if (samples.length === 0) return { accepted: 0, ts: [] }
-  const n = samples.length
-  const t = new Array<number>(n)
-  const lat = new Array<number>(n)
-  const lon = new Array<number>(n)
-  const speed = new Array<number | null>(n)
-  const accuracy = new Array<number | null>(n)
-  for (let i = 0; i < n; i++) {
-    const s = samples[i]!
-    t[i] = s.t
-    lat[i] = s.lat
-    lon[i] = s.lon
-    speed[i] = s.speed ?? null
-    accuracy[i] = s.accuracy ?? null
-  }
+  const { t, lat, lon, speed, accuracy } = encodeSampleColumns(samples)
   const result = await sql<{ n: number; ts: number[] }>`
     with ins as (
-      insert into sample (drive_id, shop_id, t, lat, lon, speed, accuracy)
-      select ${driveId}::uuid, ${shopId}::uuid, u.t, u.lat, u.lon, u.speed, u.accuracy
-      from unnest(${t}::bigint[], ${lat}::float8[], ${lon}::float8[], ${speed}::float8[], ${accuracy}::float8[])
+      insert into sample (drive_key, t, lat, lon, speed, accuracy)
+      select d.sample_key, u.t, u.lat, u.lon, u.speed, u.accuracy
+      from (select sample_key from drive where id = ${driveId}::uuid and shop_id = ${shopId}::uuid) d,
+        unnest(${t}::bigint[], ${lat}::int4[], ${lon}::int4[], ${speed}::int4[], ${accuracy}::int4[])
         with ordinality as u(t, lat, lon, speed, accuracy, ord)
       order by u.ord
-      on conflict (drive_id, t) do nothing
+      on conflict (drive_key, t) do nothing
       returning t, lat, lon, speed, accuracy
     ), agg as (
       select count(*)::int as n, array_agg(t) as ts,
-        case when count(*) <= ${NOTIFY_MAX_SAMPLES} then json_agg(json_build_array(t, lat, lon, speed, accuracy)) end as rows
+        case when count(*) <= ${NOTIFY_MAX_SAMPLES} then json_agg(json_build_array(t, lat / 1e7::float8, lon / 1e7::float8, speed / 1000::float8, accuracy / 1000::float8)) end as rows
       from ins
     )
     select n, ts, ${samplesNotice(driveId, shopId, sql`rows`)} as notified

@@ -1,5 +1,6 @@
 import { sql } from "kysely"
 import { resolveProfile } from "@/lib/drive-file/profile"
+import { MILLI_SCALE } from "@/lib/drive-file/stored"
 import type { Sample } from "@/lib/drive-file/schema"
 import { notFound } from "@/lib/errors"
 import type { Around, DriveFileHead, GpxLookahead } from "@/lib/export/stream"
@@ -7,7 +8,7 @@ import type { Db } from "../client"
 import { driveFileOf } from "./drive-file"
 import { findDriveInShop } from "./drives"
 import { listMarks } from "./marks"
-import { SAMPLE_COLUMNS, sampleOfRow, type SampleRow } from "./samples"
+import { driveKey, SAMPLE_COLUMNS, sampleOfRow, type SampleRow } from "./samples"
 
 /** Rows per FETCH: a few hundred kB of rows at a time, whatever the drive's length. */
 export const EXPORT_FETCH_ROWS = 2000
@@ -45,7 +46,7 @@ export async function openDriveExport(db: Db, driveId: string, shopId: string, {
     const lookahead = gpx ? await gpxLookahead(trx, driveId, shopId, resolveProfile(head.profile).maxAccuracyM, head.marks.map((m) => m.t)) : null
     await sql`declare drive_export no scroll cursor for
       select ${sql.join(SAMPLE_COLUMNS.map((c) => sql.ref(c)))} from sample
-      where drive_id = ${driveId} and shop_id = ${shopId}
+      where drive_key = ${driveKey(driveId, shopId)}
       order by t`.execute(trx)
     async function* samples(): AsyncGenerator<Sample[]> {
       try {
@@ -72,7 +73,8 @@ export async function openDriveExport(db: Db, driveId: string, shopId: string, {
  */
 async function gpxLookahead(db: Db, driveId: string, shopId: string, maxAccuracyM: number, markTimes: number[]): Promise<GpxLookahead> {
   const times = [...new Set(markTimes)]
-  const kept = sql`drive_id = ${driveId} and shop_id = ${shopId} and (accuracy is null or accuracy <= ${maxAccuracyM})`
+  // Accuracy is stored in mm (lib/drive-file/stored.ts); dividing in float8 here is the same IEEE division decodeSample does.
+  const kept = sql`drive_key = ${driveKey(driveId, shopId)} and (accuracy is null or accuracy::float8 / ${MILLI_SCALE}::float8 <= ${maxAccuracyM}::float8)`
   const cols = sql.join(SAMPLE_COLUMNS.map((c) => sql.ref(c)))
   const { rows } = await sql<{ ms: number | null; side: "first" | "before" | "after"; t: number; lat: number; lon: number; speed: number | null; accuracy: number | null }>`
     select null::bigint as ms, 'first' as side, f.* from (select ${cols} from sample where ${kept} order by t asc limit 1) f

@@ -16,8 +16,8 @@ export async function findDriveForKeyShare(trx: Db, driveId: string, shopId: str
   const row = opts.sampleSpan
     ? await q
         .select([
-          sql<number | null>`(select min(s.t) from sample s where s.drive_id = drive.id and s.shop_id = drive.shop_id)`.as("first_sample_t"),
-          sql<number | null>`(select max(s.t) from sample s where s.drive_id = drive.id and s.shop_id = drive.shop_id)`.as("last_sample_t"),
+          sql<number | null>`(select min(s.t) from sample s where s.drive_key = drive.sample_key)`.as("first_sample_t"),
+          sql<number | null>`(select max(s.t) from sample s where s.drive_key = drive.sample_key)`.as("last_sample_t"),
         ])
         .forKeyShare(["drive"])
         .executeTakeFirst()

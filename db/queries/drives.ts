@@ -1,6 +1,7 @@
 import type { DriveKind, RoadTestCheck } from "@/lib/drive-file/road-test"
 import { sql } from "kysely"
 import type { Db } from "../client"
+import { driveKey } from "./samples"
 import { harshEventCountSql } from "./scores"
 import type { Drive, DriveStatus, JobStatus, VerdictValue } from "../types"
 import type { TimeCursor } from "@/lib/validation/drive"
@@ -101,8 +102,7 @@ export async function countDriveData(db: Db, driveId: string, shopId: string) {
     db
       .selectFrom("sample")
       .select((eb) => eb.fn.countAll<number>().as("n"))
-      .where("drive_id", "=", driveId)
-      .where("shop_id", "=", shopId)
+      .where("drive_key", "=", driveKey(driveId, shopId))
       .executeTakeFirstOrThrow(),
     db
       .selectFrom("mark")

@@ -1,5 +1,6 @@
 import { sql } from "kysely"
 import type { Sample } from "@/lib/drive-file/schema"
+import { decodeSample, encodeSampleColumns } from "@/lib/drive-file/stored"
 import type { Db } from "../client"
 import { insertSamplesNotifying, NOTIFY_MAX_SAMPLES, samplesNotice } from "./drive-events"
 
@@ -60,36 +61,33 @@ export async function insertSampleBatch(
  */
 export async function insertSamples(trx: Db, driveId: string, shopId: string, samples: readonly Sample[]): Promise<number> {
   if (samples.length === 0) return 0
-  const n = samples.length
-  const t = new Array<number>(n)
-  const lat = new Array<number>(n)
-  const lon = new Array<number>(n)
-  const speed = new Array<number | null>(n)
-  const accuracy = new Array<number | null>(n)
-  for (let i = 0; i < n; i++) {
-    const s = samples[i]!
-    t[i] = s.t
-    lat[i] = s.lat
-    lon[i] = s.lon
-    speed[i] = s.speed ?? null
-    accuracy[i] = s.accuracy ?? null
-  }
+  const { t, lat, lon, speed, accuracy } = encodeSampleColumns(samples)
   const result = await sql`
-    insert into sample (drive_id, shop_id, t, lat, lon, speed, accuracy)
-    select ${driveId}::uuid, ${shopId}::uuid, u.t, u.lat, u.lon, u.speed, u.accuracy
-    from unnest(${t}::bigint[], ${lat}::float8[], ${lon}::float8[], ${speed}::float8[], ${accuracy}::float8[])
+    insert into sample (drive_key, t, lat, lon, speed, accuracy)
+    select d.sample_key, u.t, u.lat, u.lon, u.speed, u.accuracy
+    from (${driveKeyQuery(driveId, shopId)}) d,
+      unnest(${t}::bigint[], ${lat}::int4[], ${lon}::int4[], ${speed}::int4[], ${accuracy}::int4[])
       with ordinality as u(t, lat, lon, speed, accuracy, ord)
     order by u.ord
-    on conflict (drive_id, t) do nothing`.execute(trx)
+    on conflict (drive_key, t) do nothing`.execute(trx)
   return Number(result.numAffectedRows ?? 0)
+}
+
+/** The drive's key in `sample`, found by its id and shop: every read and write of samples goes through it. */
+export function driveKeyQuery(driveId: string, shopId: string) {
+  return sql<{ sample_key: number }>`select sample_key from drive where id = ${driveId}::uuid and shop_id = ${shopId}::uuid`
+}
+
+/** `(select sample_key ...)` as a value, for `where drive_key = ...`. */
+export function driveKey(driveId: string, shopId: string) {
+  return sql<number>`(${driveKeyQuery(driveId, shopId)})`
 }
 
 export async function listSamples(db: Db, driveId: string, shopId: string): Promise<Sample[]> {
   const rows = await db
     .selectFrom("sample")
     .select(SAMPLE_COLUMNS)
-    .where("drive_id", "=", driveId)
-    .where("shop_id", "=", shopId)
+    .where("drive_key", "=", driveKey(driveId, shopId))
     .orderBy("t", "asc")
     .execute()
   return rows.map(sampleOfRow)
@@ -98,6 +96,7 @@ export async function listSamples(db: Db, driveId: string, shopId: string): Prom
 /** The columns a Sample is read from (listSamples, and the export cursor in db/queries/drive-export.ts). */
 export const SAMPLE_COLUMNS = ["t", "lat", "lon", "speed", "accuracy"] as const
 
+/** A stored row: integers in the units of lib/drive-file/stored.ts. */
 export interface SampleRow {
   t: number
   lat: number
@@ -107,10 +106,7 @@ export interface SampleRow {
 }
 
 export function sampleOfRow(r: SampleRow): Sample {
-  const s: Sample = { t: r.t, lat: r.lat, lon: r.lon }
-  if (r.speed !== null) s.speed = r.speed
-  if (r.accuracy !== null) s.accuracy = r.accuracy
-  return s
+  return decodeSample(r.t, r.lat, r.lon, r.speed, r.accuracy)
 }
 
 /**
@@ -154,26 +150,26 @@ export async function ingestSampleBatch(
   batchId: string,
   samples: readonly Sample[],
 ): Promise<BatchResult | null> {
-  const c = sampleColumns(samples)
+  const c = encodeSampleColumns(samples)
   try {
     const { rows } = await sql<{ accepted: number; duplicates: number; ts: Array<number | string> | null }>`
       with d as (
-        select id from drive
+        select id, sample_key from drive
         where id = ${driveId}::uuid and shop_id = ${shopId}::uuid and status = 'recording' and review_status is null
         for share
       ),
       ins as (
-        insert into sample (drive_id, shop_id, t, lat, lon, speed, accuracy)
-        select d.id, ${shopId}::uuid, u.t, u.lat, u.lon, u.speed, u.accuracy
-        from d, unnest(${c.t}::bigint[], ${c.lat}::float8[], ${c.lon}::float8[], ${c.speed}::float8[], ${c.accuracy}::float8[])
+        insert into sample (drive_key, t, lat, lon, speed, accuracy)
+        select d.sample_key, u.t, u.lat, u.lon, u.speed, u.accuracy
+        from d, unnest(${c.t}::bigint[], ${c.lat}::int4[], ${c.lon}::int4[], ${c.speed}::int4[], ${c.accuracy}::int4[])
           with ordinality as u(t, lat, lon, speed, accuracy, ord)
         order by u.ord
-        on conflict (drive_id, t) do nothing
+        on conflict (drive_key, t) do nothing
         returning t, lat, lon, speed, accuracy
       ),
       n as (
         select count(*)::int as accepted, array_agg(t) as ts,
-          case when count(*) <= ${NOTIFY_MAX_SAMPLES} then json_agg(json_build_array(t, lat, lon, speed, accuracy)) end as rows
+          case when count(*) <= ${NOTIFY_MAX_SAMPLES} then json_agg(json_build_array(t, lat / 1e7::float8, lon / 1e7::float8, speed / 1000::float8, accuracy / 1000::float8)) end as rows
         from ins
       ),
       b as (
@@ -198,22 +194,4 @@ export async function ingestSampleBatch(
       .executeTakeFirstOrThrow()
     return { accepted: seen.accepted, duplicates: seen.duplicates, replayed: true, storedTs: [] }
   }
-}
-
-function sampleColumns(samples: readonly Sample[]) {
-  const n = samples.length
-  const t = new Array<number>(n)
-  const lat = new Array<number>(n)
-  const lon = new Array<number>(n)
-  const speed = new Array<number | null>(n)
-  const accuracy = new Array<number | null>(n)
-  for (let i = 0; i < n; i++) {
-    const s = samples[i]!
-    t[i] = s.t
-    lat[i] = s.lat
-    lon[i] = s.lon
-    speed[i] = s.speed ?? null
-    accuracy[i] = s.accuracy ?? null
-  }
-  return { t, lat, lon, speed, accuracy }
 }

@@ -9,6 +9,7 @@ export type ResolvedShopSettings = {
   timeZone: string
   location: { lat: number; lon: number } | null
   roadKnowledge: boolean
+  sampleRetentionMonths: number | null
 }
 
 export async function findShopSettings(db: Db, shopId: string): Promise<ResolvedShopSettings> {
@@ -20,6 +21,7 @@ export async function findShopSettings(db: Db, shopId: string): Promise<Resolved
     timeZone: s.timeZone && isTimeZone(s.timeZone) ? s.timeZone : DEFAULT_TIME_ZONE,
     location: s.location ?? null,
     roadKnowledge: s.roadKnowledge ?? true,
+    sampleRetentionMonths: s.sampleRetentionMonths ?? null,
   }
 }
 

@@ -1,4 +1,5 @@
 import type { Sample } from "@/lib/drive-file/schema"
+import { DEGREE_SCALE, encodeDegrees, encodeMillis, MILLI_SCALE } from "@/lib/drive-file/stored"
 
 /** The parts of a GeolocationPosition a sample needs (so this stays testable without a browser). */
 export interface PositionLike {
@@ -7,18 +8,22 @@ export interface PositionLike {
 }
 
 const finiteOrNull = (v: number | null | undefined) => (typeof v === "number" && Number.isFinite(v) && v >= 0 ? v : null)
+// Rounded as the server stores them (lib/drive-file/stored.ts), so the phone's meters score the same numbers.
+const degrees = (v: number) => encodeDegrees(v) / DEGREE_SCALE
+const millis = (v: number | null) => (v === null ? null : encodeMillis(v)! / MILLI_SCALE)
 
 /**
- * A fix as a drive-file sample. NOTE: some browsers give NaN or a negative speed when they have
- * none; that is stored as null so the scorer derives speed from positions.
+ * A fix as a drive-file sample, at the precision the server keeps (1e-7 degree, mm/s, mm). NOTE: some
+ * browsers give NaN or a negative speed when they have none; that is stored as null so the scorer derives
+ * speed from positions.
  */
 export function positionToSample(p: PositionLike): Sample {
   return {
     t: Math.round(p.timestamp),
-    lat: p.coords.latitude,
-    lon: p.coords.longitude,
-    speed: finiteOrNull(p.coords.speed),
-    accuracy: finiteOrNull(p.coords.accuracy),
+    lat: degrees(p.coords.latitude),
+    lon: degrees(p.coords.longitude),
+    speed: millis(finiteOrNull(p.coords.speed)),
+    accuracy: millis(finiteOrNull(p.coords.accuracy)),
   }
 }
 

@@ -54,5 +54,13 @@ export const shopSettingsSchema = z
     location: z.object({ lat: z.number().min(-90).max(90), lon: z.number().min(-180).max(180) }).nullable().optional(),
     /** false turns road knowledge off and removes the shop's road model. */
     roadKnowledge: z.boolean().optional(),
+    /** Whole months of samples to keep before the current month; null keeps everything (the default). */
+    sampleRetentionMonths: z
+      .number({ error: "must be a whole number of months, or null to keep everything" })
+      .int("must be a whole number of months")
+      .min(1, "must be at least 1 month")
+      .max(120, "must be at most 120 months")
+      .nullable()
+      .optional(),
   })
   .refine((v) => Object.values(v).some((x) => x !== undefined), "Nothing to change.")

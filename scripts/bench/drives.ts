@@ -7,7 +7,9 @@ import { randomUUID } from "node:crypto"
 import pg from "pg"
 import { createDb, type Db } from "@/db/client"
 import { hashPassword } from "@/lib/auth/password"
+import { driveKey } from "@/db/queries/samples"
 import type { Sample } from "@/lib/drive-file"
+import { encodeDegrees, encodeMillis } from "@/lib/drive-file/stored"
 import { flushOutbox, makeItem, memoryOutboxStore, type Transport } from "@/lib/recorder/outbox"
 import { SEND_MAX_SAMPLES } from "@/lib/recorder/batching"
 import { hourAt10Hz } from "./scoring"
@@ -56,7 +58,7 @@ async function rig(ctx: BenchContext): Promise<Rig> {
       userId,
       transport,
       async cleanup() {
-        await db.deleteFrom("sample").where("shop_id", "=", shopId).execute()
+        await db.deleteFrom("sample").where("drive_key", "in", db.selectFrom("drive").select("sample_key").where("shop_id", "=", shopId)).execute()
         await db.deleteFrom("drive").where("shop_id", "=", shopId).execute()
         await db.deleteFrom("app_user").where("shop_id", "=", shopId).execute()
         await db.deleteFrom("shop").where("id", "=", shopId).execute()
@@ -84,15 +86,17 @@ async function rawInsert(databaseUrl: string, driveId: string, shopId: string, s
   const client = new pg.Client({ connectionString: databaseUrl })
   await client.connect()
   try {
+    const { rows: keys } = await client.query("select sample_key from drive where id = $1 and shop_id = $2", [driveId, shopId])
+    const driveKey = Number(keys[0].sample_key)
     const t0 = performance.now()
     for (const batch of chunks(samples, SEND_MAX_SAMPLES)) {
       const values: unknown[] = []
       const rows = batch.map((s, i) => {
-        values.push(driveId, shopId, s.t, s.lat, s.lon, s.speed ?? null, s.accuracy ?? null)
-        const b = i * 7
-        return `($${b + 1},$${b + 2},$${b + 3},$${b + 4},$${b + 5},$${b + 6},$${b + 7})`
+        values.push(driveKey, s.t, encodeDegrees(s.lat), encodeDegrees(s.lon), encodeMillis(s.speed), encodeMillis(s.accuracy))
+        const b = i * 6
+        return `($${b + 1},$${b + 2},$${b + 3},$${b + 4},$${b + 5},$${b + 6})`
       })
-      await client.query(`insert into sample (drive_id, shop_id, t, lat, lon, speed, accuracy) values ${rows.join(",")}`, values)
+      await client.query(`insert into sample (drive_key, t, lat, lon, speed, accuracy) values ${rows.join(",")}`, values)
     }
     return performance.now() - t0
   } finally {
@@ -147,7 +151,7 @@ export const syncSecondsFor36k: BenchFigure = {
     const { n } = await r.db
       .selectFrom("sample")
       .select((eb) => eb.fn.countAll<string>().as("n"))
-      .where("drive_id", "=", driveId)
+      .where("drive_key", "=", driveKey(driveId, r.shopId))
       .executeTakeFirstOrThrow()
     if (Number(n) !== file.samples.length) throw new Error(`sync stored ${n} of ${file.samples.length} samples`)
     await r.cleanup()

@@ -9,6 +9,7 @@ import { liveFanoutP95Seconds, recordingDriveGetMs36k } from "./live"
 import { detailHtmlKb36k, recorderFirstLoadKb } from "./pages"
 import { numbersP95Ms100k, reviewQueueP95Ms100k } from "./reads"
 import { roadModelUpdateMs, roadsPageP95Ms } from "./roads"
+import { sampleBytes } from "./samples"
 import { samplesScoredPerSecond, scoreToParseRatio, validateScoreToParseRatio } from "./scoring"
 import type { BenchFigure } from "./types"
 
@@ -30,4 +31,5 @@ export const figures: BenchFigure[] = [
   recordingDriveGetMs36k,
   roadModelUpdateMs,
   roadsPageP95Ms,
+  sampleBytes,
 ]

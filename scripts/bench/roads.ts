@@ -5,6 +5,7 @@
 import { randomUUID } from "node:crypto"
 import { createDb, type Db } from "@/db/client"
 import { applyDriveContribution, updateRoadModel } from "@/db/queries/roads"
+import { insertSamples } from "@/db/queries/samples"
 import { hashPassword } from "@/lib/auth/password"
 import { resolveProfile } from "@/lib/drive-file/profile"
 import { computeDriveContribution } from "@/lib/roads/aggregate"
@@ -48,12 +49,7 @@ export const roadModelUpdateMs: BenchFigure = {
     try {
       const { file } = hourAt10Hz(ctx)
       const drive = await insertDriveRow(db, shopId, userId, file.samples[0]!.t)
-      for (let i = 0; i < file.samples.length; i += 5000) {
-        await db
-          .insertInto("sample")
-          .values(file.samples.slice(i, i + 5000).map((s) => ({ drive_id: drive.id, shop_id: shopId, t: s.t, lat: s.lat, lon: s.lon, speed: s.speed ?? null, accuracy: s.accuracy ?? null })))
-          .execute()
-      }
+      await insertSamples(db, drive.id, shopId, file.samples)
       await db.insertInto("mark").values(file.marks.map((m) => ({ id: randomUUID(), drive_id: drive.id, shop_id: shopId, t: m.t, kind: m.kind, gap_ft: "gapFt" in m ? (m.gapFt ?? null) : null, text: "text" in m ? (m.text ?? null) : null }))).execute()
       const score = scoreDrive(file)
       const times: number[] = []

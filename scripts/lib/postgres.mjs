@@ -23,13 +23,26 @@ export function findPgBin() {
 
 export function ensurePostgresInstalled() {
   let bin = findPgBin()
-  if (bin) return bin
-  if (!isRoot) throw new Error("PostgreSQL server binaries not found. Install PostgreSQL or set DATABASE_URL.")
-  log("Installing PostgreSQL from Debian's packages (one time)...")
-  aptInstall(["postgresql"])
-  bin = findPgBin()
-  if (!bin) throw new Error("PostgreSQL was installed but initdb was not found.")
+  if (!bin) {
+    if (!isRoot) throw new Error("PostgreSQL server binaries not found. Install PostgreSQL or set DATABASE_URL.")
+    log("Installing PostgreSQL from Debian's packages (one time)...")
+    aptInstall(["postgresql"])
+    bin = findPgBin()
+    if (!bin) throw new Error("PostgreSQL was installed but initdb was not found.")
+  }
+  ensurePartman(bin)
   return bin
+}
+
+// pg_partman makes the monthly partitions of `sample` ahead of time (migration 2026_12_02_1540); Debian
+// packages it per server version as postgresql-<major>-partman. Only its SQL functions are used (the app
+// calls partman.run_maintenance itself), so no shared_preload_libraries.
+function ensurePartman(bin) {
+  const major = path.basename(path.dirname(bin))
+  if (!/^\d+$/.test(major)) return // not Debian's layout: the migration says so when the extension is missing
+  if (fs.existsSync(`/usr/share/postgresql/${major}/extension/pg_partman.control`)) return
+  log(`Installing pg_partman from Debian's packages (postgresql-${major}-partman, one time)...`)
+  aptInstall([`postgresql-${major}-partman`])
 }
 
 let aptUpdated = false

@@ -77,7 +77,7 @@ export function ensurePackages() {
   run("npm", ["ci", "--no-audit", "--no-fund"])
 }
 
-const BUILD_INPUTS = ["app", "components", "lib", "db", "workers", "public", "proxy.ts", "scripts/build-sw.mjs", "scripts/gen-api-routes.mjs", "next.config.mjs",
+const BUILD_INPUTS = ["app", "components", "lib", "db", "workers", "public", "proxy.ts", "instrumentation.ts", "scripts/build-sw.mjs", "scripts/gen-api-routes.mjs", "next.config.mjs",
   "tailwind.config.ts", "postcss.config.mjs", "tsconfig.json", "package-lock.json"]
 
 /** next build (plus the service worker) when the build is missing or its inputs changed. */

@@ -81,7 +81,7 @@ describe("one live picture of the drive on two phones", () => {
     await driver.getByTestId("recording-screen").waitFor()
     const driveId = new URL(driver.url()).searchParams.get("drive")!
     const route = drive(driverCtx, 1)
-    await expect.poll(async () => (await testDb().selectFrom("sample").select("t").where("drive_id", "=", driveId).execute()).length, { timeout: 20_000 }).toBeGreaterThan(4)
+    await expect.poll(async () => (await testDb().selectFrom("sample_decoded").select("t").where("drive_id", "=", driveId).execute()).length, { timeout: 20_000 }).toBeGreaterThan(4)
 
     // The co-driver's own phone.
     const coCtx = await newPhoneContext(browser, { latitude: ROUTE[0]!.lat, longitude: ROUTE[0]!.lon })

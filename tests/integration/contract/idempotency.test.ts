@@ -3,6 +3,7 @@
 // recorder's outbox replays these after a lost answer, so every replay must store nothing twice.
 import { randomUUID } from "node:crypto"
 import { beforeAll, describe, expect, it } from "vitest"
+import { storedSample } from "@/lib/drive-file/stored"
 import { createTestShop, testDb } from "../../helpers/db"
 import { type ApiClient } from "../../helpers/http"
 import { clientsFor, countShopRows, driveFile, expectErrorShape, samplesOf, startDrive, type Clients } from "./world"
@@ -19,7 +20,7 @@ beforeAll(async () => {
 async function stored(driveId: string) {
   const db = testDb()
   const [samples, batches, marks] = await Promise.all([
-    db.selectFrom("sample").select(["t", "lat", "lon", "speed", "accuracy"]).where("drive_id", "=", driveId).orderBy("t").execute(),
+    db.selectFrom("sample_decoded").select(["t", "lat", "lon", "speed", "accuracy"]).where("drive_id", "=", driveId).orderBy("t").execute(),
     db.selectFrom("sample_batch").select("batch_id").where("drive_id", "=", driveId).execute(),
     db.selectFrom("mark").select(["id", "t", "kind", "text"]).where("drive_id", "=", driveId).orderBy("t").execute(),
   ])
@@ -56,7 +57,7 @@ describe("samples", () => {
     const s = await stored(id)
     expect(s.samples).toHaveLength(60)
     // The first sample stored for a `t` stays as it was.
-    expect(s.samples[0]!.lat).toBe(run[0]!.lat)
+    expect(s.samples[0]!.lat).toBe(storedSample(run[0]!).lat)
   })
 
   it("stores one copy when the same batch arrives five times at once", async () => {

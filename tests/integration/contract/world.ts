@@ -170,7 +170,7 @@ export function expectErrorShape(res: ApiResponse, status?: number) {
 
 const SHOP_TABLES = [
   "drive",
-  "sample",
+  "sample_decoded",
   "sample_batch",
   "mark",
   "score",

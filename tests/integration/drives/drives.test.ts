@@ -277,7 +277,7 @@ describe("POST /api/drives/import and POST /api/score", () => {
     expect(res.body.drive).toMatchObject({ status: "finished", source: "import", verdict: "unverified" })
     expect(res.body.score).toEqual(JSON.parse(JSON.stringify(scoreDrive(file))))
     expect(res.body.drive.profile.minSpeedMph).toBe(33)
-    const count = await testDb().selectFrom("sample").select((eb) => eb.fn.countAll<string>().as("n")).where("drive_id", "=", res.body.drive.id).executeTakeFirstOrThrow()
+    const count = await testDb().selectFrom("sample_decoded").select((eb) => eb.fn.countAll<string>().as("n")).where("drive_id", "=", res.body.drive.id).executeTakeFirstOrThrow()
     expect(Number(count.n)).toBe(file.samples.length)
   })
 

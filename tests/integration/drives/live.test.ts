@@ -273,7 +273,7 @@ describe("the server's live score", () => {
     const res = await tech.get(`/api/drives/${driveId}`)
     expect(res.status).toBe(200)
     expect(res.body.score).toEqual(JSON.parse(JSON.stringify(expected)))
-    const counts = await testDb().selectFrom("sample").select((eb) => eb.fn.countAll<string>().as("n")).where("drive_id", "=", driveId).executeTakeFirstOrThrow()
+    const counts = await testDb().selectFrom("sample_decoded").select((eb) => eb.fn.countAll<string>().as("n")).where("drive_id", "=", driveId).executeTakeFirstOrThrow()
     expect(res.body.drive.counts.samples).toBe(Number(counts.n))
     const scoreRoute = await tech.get(`/api/drives/${driveId}/score`)
     expect(scoreRoute.body).toEqual(res.body.score)

@@ -1,11 +1,12 @@
 import { randomUUID } from "node:crypto"
 import { beforeAll, describe, expect, it } from "vitest"
+import { storedSample } from "@/lib/drive-file/stored"
 import { createTestShop, testDb, type TestShop } from "../../helpers/db"
 import { signedIn, type ApiClient } from "../../helpers/http"
 import { addPerson, sampleRun, startDrive } from "./helpers"
 
 async function storedSamples(driveId: string) {
-  return testDb().selectFrom("sample").selectAll().where("drive_id", "=", driveId).orderBy("t").execute()
+  return testDb().selectFrom("sample_decoded").selectAll().where("drive_id", "=", driveId).orderBy("t").execute()
 }
 
 describe("POST /api/drives/:id/samples", () => {
@@ -29,7 +30,10 @@ describe("POST /api/drives/:id/samples", () => {
     const rows = await storedSamples(drive.id)
     expect(rows).toHaveLength(40)
     expect(rows.map((r) => r.t)).toEqual(samples.map((s) => s.t))
-    expect(rows[7]).toMatchObject({ lat: samples[7]!.lat, lon: samples[7]!.lon, speed: samples[7]!.speed, accuracy: samples[7]!.accuracy })
+    // Stored at 1e-7 degree, mm/s and mm (lib/drive-file/stored.ts): within half a step of what was sent.
+    const kept = storedSample(samples[7]!)
+    expect(rows[7]).toMatchObject({ lat: kept.lat, lon: kept.lon, speed: kept.speed, accuracy: kept.accuracy })
+    expect(Math.abs(rows[7]!.lat - samples[7]!.lat)).toBeLessThanOrEqual(5e-8)
   })
 
   it("stores the union of overlapping batches, each time once", async () => {
@@ -67,7 +71,7 @@ describe("POST /api/drives/:id/samples", () => {
     })
     expect(res.body).toMatchObject({ accepted: 2, duplicates: 1 })
     const rows = await storedSamples(drive.id)
-    expect(rows[1]!.lat).toBe(s1!.lat)
+    expect(rows[1]!.lat).toBe(storedSample(s1!).lat)
   })
 
   it("answers 404 to another shop and to a co-driver the drive does not name", async () => {

@@ -22,9 +22,9 @@ async function storedAndExported(client: ApiClient, driveId: string) {
 
 async function countRows(driveId: string) {
   const db = testDb()
-  const n = async (table: "mark" | "sample" | "score_revision") =>
+  const n = async (table: "mark" | "sample_decoded" | "score_revision") =>
     Number((await db.selectFrom(table).select((eb) => eb.fn.countAll<string>().as("n")).where("drive_id", "=", driveId).executeTakeFirstOrThrow()).n)
-  return { marks: await n("mark"), samples: await n("sample"), revisions: await n("score_revision") }
+  return { marks: await n("mark"), samples: await n("sample_decoded"), revisions: await n("score_revision") }
 }
 
 describe("Finish sent together with the last batches and marks", () => {

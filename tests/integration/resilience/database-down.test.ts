@@ -82,7 +82,7 @@ describe("the database stopped and started mid-stream", () => {
     expect(failures).toEqual([])
     expect(seen.filter((s) => s.status === 503).length).toBeGreaterThan(0)
 
-    const stored = await testDb().selectFrom("sample").select(["t"]).where("drive_id", "=", driveId).orderBy("t").execute()
+    const stored = await testDb().selectFrom("sample_decoded").select(["t"]).where("drive_id", "=", driveId).orderBy("t").execute()
     expect(stored.map((r) => Number(r.t))).toEqual(samples.map((s) => s.t))
   }, 180_000)
 })

@@ -3,6 +3,8 @@
 import { randomUUID } from "node:crypto"
 import type { DrivePattern } from "@/lib/tracks"
 import { generateDrive, PATTERN_MIN_MINUTES } from "@/lib/tracks"
+import { insertSamples } from "@/db/queries/samples"
+import { storedSample } from "@/lib/drive-file/stored"
 import { scoreDrive } from "@/lib/scoring"
 import { withCheckDigit } from "@/lib/vin"
 import { testDb, type TestShop } from "../../helpers/db"
@@ -86,7 +88,8 @@ export type InsertDriveOptions = {
 export async function insertScoredDrive(shop: TestShop, opts: InsertDriveOptions) {
   const db = testDb()
   const minutes = opts.minutes ?? Math.max(PATTERN_MIN_MINUTES[opts.pattern], 6)
-  const file = generateDrive({ seed: opts.seed ?? Math.floor(Math.random() * 1e6), pattern: opts.pattern, minutes })
+  const generated = generateDrive({ seed: opts.seed ?? Math.floor(Math.random() * 1e6), pattern: opts.pattern, minutes })
+  const file = { ...generated, samples: generated.samples.map(storedSample) } // scored as stored
   const score = scoreDrive(file)
   const id = randomUUID()
   const status = opts.status ?? "finished"
@@ -108,8 +111,7 @@ export async function insertScoredDrive(shop: TestShop, opts: InsertDriveOptions
       finished_at: status === "finished" ? (opts.finishedAt ?? new Date()) : null,
     })
     .execute()
-  const samples = file.samples.map((s) => ({ drive_id: id, shop_id: shop.shopId, t: s.t, lat: s.lat, lon: s.lon, speed: s.speed ?? null, accuracy: s.accuracy ?? null }))
-  for (let i = 0; i < samples.length; i += 2000) await db.insertInto("sample").values(samples.slice(i, i + 2000)).execute()
+  await insertSamples(db, id, shop.shopId, file.samples)
   await db
     .insertInto("mark")
     .values(
