@@ -46,8 +46,8 @@ const NEEDS_NO_DATABASE = new Set(["/manifest.webmanifest"])
 
 export async function proxy(req: NextRequest) {
   const raw = req.nextUrl.pathname
-  // next.config.mjs sets skipTrailingSlashRedirect so that the API never answers a bare 308: a trailing slash is
-  // served as the same route there, and pages keep Next's usual permanent redirect.
+  // next.config.mjs sets skipTrailingSlashRedirect so that the API never answers a bare 308: a trailing slash is a
+  // 404 in the error shape there (below), and pages keep Next's usual permanent redirect.
   const pathname = raw.length > 1 && raw.endsWith("/") ? raw.replace(/\/+$/, "") || "/" : raw
   const isApi = pathname === "/api" || pathname.startsWith("/api/")
   if (!isApi && /^\/api(\/|$)/i.test(pathname)) return apiError(404, "not_found", "There is no such API route.")
@@ -66,9 +66,12 @@ export async function proxy(req: NextRequest) {
     }
   }
   if (pathname !== raw) {
+    // Under /api a trailing slash is a 404 naming the address without it: a rewrite to that address left the request
+    // unanswered (Next 16.4), and a 308 would be an answer outside the error shape. Pages keep their 308.
+    if (isApi) return apiError(404, "not_found", `There is no such API route; the address has no trailing slash: ${pathname}`)
     const url = req.nextUrl.clone()
     url.pathname = pathname
-    return isApi ? NextResponse.rewrite(url) : NextResponse.redirect(url, 308)
+    return NextResponse.redirect(url, 308)
   }
   if (isApi) {
     const res = NextResponse.next()
