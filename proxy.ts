@@ -3,11 +3,15 @@
 //   generated table, app/_server/api-routes.generated.ts), a JSON 404 for /API/… spelt in another case, a 400
 //   for a path whose %-escapes are not UTF-8 text;
 // - pages with such a path get the app's 404 page instead of a 500;
+// - a page asked for while the database is not answering gets a calm page with a 503 and Retry-After (one probe
+//   on the app's pool, db/availability.ts; the page is lib/http/unavailable-page.ts) instead of a failing render;
 // - every page gets a content security policy with a fresh nonce (lib/http/security-headers.ts), and HSTS over HTTPS.
 import { NextResponse, type NextRequest } from "next/server"
 import { API_ROUTES } from "@/app/_server/api-routes.generated"
+import { probeDatabase } from "@/db/availability"
 import { allowedMethods, isWellFormedPath, matchApiRoute } from "@/lib/api-route-match"
 import { contentSecurityPolicy, originOf, STRICT_TRANSPORT_SECURITY } from "@/lib/http/security-headers"
+import { unavailablePageHtml } from "@/lib/http/unavailable-page"
 
 function apiError(status: number, code: string, message: string, headers: Record<string, string> = {}) {
   return Response.json({ error: { code, message } }, { status, headers: { "cache-control": "no-store", ...headers } })
@@ -34,10 +38,16 @@ function page(req: NextRequest, answer: (init: { request: { headers: Headers } }
   return res
 }
 
-export function proxy(req: NextRequest) {
+/** Seconds a client is told to wait when the database is not answering (the API's 503s say the same). */
+const DATABASE_RETRY_AFTER_SECONDS = "5"
+
+/** Pages that need nothing from the database. */
+const NEEDS_NO_DATABASE = new Set(["/manifest.webmanifest"])
+
+export async function proxy(req: NextRequest) {
   const raw = req.nextUrl.pathname
-  // next.config.mjs sets skipTrailingSlashRedirect so that the API never answers a bare 308: a trailing slash is
-  // served as the same route there, and pages keep Next's usual permanent redirect.
+  // next.config.mjs sets skipTrailingSlashRedirect so that the API never answers a bare 308: a trailing slash is a
+  // 404 in the error shape there (below), and pages keep Next's usual permanent redirect.
   const pathname = raw.length > 1 && raw.endsWith("/") ? raw.replace(/\/+$/, "") || "/" : raw
   const isApi = pathname === "/api" || pathname.startsWith("/api/")
   if (!isApi && /^\/api(\/|$)/i.test(pathname)) return apiError(404, "not_found", "There is no such API route.")
@@ -56,14 +66,24 @@ export function proxy(req: NextRequest) {
     }
   }
   if (pathname !== raw) {
+    // Under /api a trailing slash is a 404 naming the address without it: a rewrite to that address left the request
+    // unanswered (Next 16.4), and a 308 would be an answer outside the error shape. Pages keep their 308.
+    if (isApi) return apiError(404, "not_found", `There is no such API route; the address has no trailing slash: ${pathname}`)
     const url = req.nextUrl.clone()
     url.pathname = pathname
-    return isApi ? NextResponse.rewrite(url) : NextResponse.redirect(url, 308)
+    return NextResponse.redirect(url, 308)
   }
   if (isApi) {
     const res = NextResponse.next()
     if (servedOverHttps(req)) res.headers.set("strict-transport-security", STRICT_TRANSPORT_SECURITY)
     return res
+  }
+  if ((req.method === "GET" || req.method === "HEAD") && !NEEDS_NO_DATABASE.has(pathname) && (await probeDatabase()) === "down") {
+    // A rewrite cannot change a page's status, so the proxy answers itself (lib/http/unavailable-page.ts).
+    return page(req, () => {
+      const headers = { "content-type": "text/html; charset=utf-8", "retry-after": DATABASE_RETRY_AFTER_SECONDS, "cache-control": "no-store" }
+      return new NextResponse(req.method === "HEAD" ? null : unavailablePageHtml(), { status: 503, headers })
+    })
   }
   return page(req, (init) => NextResponse.next(init))
 }

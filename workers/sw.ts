@@ -49,10 +49,14 @@ registerRoute(
     })
     network.catch(() => {})
     const slow = new Promise<never>((_, reject) => setTimeout(() => reject(new Error("slow network")), NETWORK_WAIT_MS))
+    const saved = async () => (await cache.match(key, { ignoreVary: true })) ?? (await cache.match("/record", { ignoreVary: true }))
     try {
-      return await Promise.race([network, slow])
+      const res = await Promise.race([network, slow])
+      // The server up but its database not (a 503 page) or failing: the saved recorder still records offline.
+      if (res.status >= 500) return (await saved()) ?? res
+      return res
     } catch {
-      return (await cache.match(key, { ignoreVary: true })) ?? (await cache.match("/record", { ignoreVary: true })) ?? Response.error()
+      return (await saved()) ?? Response.error()
     }
   },
 )

@@ -95,7 +95,7 @@ export interface MarksInserted {
 }
 
 /**
- * Stores marks by their client-made ids (an id seen before is a duplicate), writes a `mark` event for
+ * Stores marks by their client-made ids (an id seen before on this drive is a duplicate), writes a `mark` event for
  * each new one and announces it, all in one statement.
  */
 export async function insertMarksNotifying(
@@ -121,7 +121,7 @@ export async function insertMarksNotifying(
       from unnest(${ids}::uuid[], ${ts}::bigint[], ${kinds}::text[], ${gaps}::float8[], ${texts}::text[], ${checkKeys}::text[], ${results}::text[])
         with ordinality as u(id, t, kind, gap_ft, text, check_key, result, ord)
       order by u.ord
-      on conflict (id) do nothing
+      on conflict (drive_id, id) do nothing
       returning id, t, kind, gap_ft, text, check_key, result, seq
     ), ev as (
       insert into drive_event (drive_id, shop_id, kind, body)

@@ -1,7 +1,7 @@
 import type { ApiMark, Mark2 as Mark } from "@/lib/drive-file/schema"
 import type { Db } from "../client"
 
-/** Stores marks by their client-made ids in one statement; an id seen before is a duplicate. */
+/** Stores marks by their client-made ids in one statement; an id seen before on this drive is a duplicate. */
 export async function insertMarks(
   trx: Db,
   driveId: string,
@@ -26,7 +26,7 @@ export async function insertMarks(
         created_by: createdBy,
       })),
     )
-    .onConflict((oc) => oc.column("id").doNothing())
+    .onConflict((oc) => oc.columns(["drive_id", "id"]).doNothing())
     .returning("id")
     .execute()
   return { accepted: rows.length, duplicates: marks.length - rows.length }

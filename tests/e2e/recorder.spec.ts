@@ -63,6 +63,14 @@ async function phoneRecord(page: Page, driveId: string) {
   }, driveId)
 }
 
+// The first test steps 180 fixes in real time (45 s) and then waits for the sync; on the shared 2-core test machine it
+// measured 115 s of a 120 s limit, and the runs that failed did so only by that limit. Every wait inside has its own
+// bound (worker 30 s, sync 60 s), so a longer test limit hides no hang; it is not a retry.
+const DRIVE_TEST_MS = 300_000
+// expect.poll gives up after 1 s by default: on that machine the phone took longer to show an offline send as
+// "waiting" (a run failed on "sending"). The states asserted are final ones, so a longer bound changes no verdict.
+const UI_WAIT = { timeout: 15_000 }
+
 describe("the recorder on a phone", () => {
   let shop: TestShop
   beforeAll(async () => {
@@ -93,7 +101,7 @@ describe("the recorder on a phone", () => {
     await page.getByTestId("gap-lead-passed").click()
     await new Promise((r) => setTimeout(r, 1200))
     await page.getByTestId("gap-we-passed").click()
-    await expect.poll(() => page.getByTestId("gap-result").textContent()).toMatch(/s ≈ \d+ ft/)
+    await expect.poll(() => page.getByTestId("gap-result").textContent(), UI_WAIT).toMatch(/s ≈ \d+ ft/)
     await page.getByTestId("gap-use").click()
     await page.getByTestId("mark-note").click()
     await page.getByTestId("note-text").fill("Logged by mistake")
@@ -102,8 +110,8 @@ describe("the recorder on a phone", () => {
     await page.getByTestId("mark-cleared").click()
     i = await step(context, i, 20)
     await page.getByTestId("mark-verified").click()
-    await expect.poll(() => page.getByTestId("mark-count").getAttribute("data-value")).toBe("4")
-    await expect.poll(async () => Number(await page.getByTestId("sync-status").getAttribute("data-waiting"))).toBeGreaterThan(0)
+    await expect.poll(() => page.getByTestId("mark-count").getAttribute("data-value"), UI_WAIT).toBe("4")
+    await expect.poll(async () => Number(await page.getByTestId("sync-status").getAttribute("data-waiting")), UI_WAIT).toBeGreaterThan(0)
 
     await context.setOffline(false)
     await expect
@@ -133,7 +141,7 @@ describe("the recorder on a phone", () => {
     expect(await live.getAttribute("data-verdict")).toBe(score.verdict)
     expect(i).toBeLessThanOrEqual(ROUTE.length)
     await context.close()
-  })
+  }, DRIVE_TEST_MS)
 
   it("opens and starts recording with the network off after one online visit", async () => {
     const context = await newPersistentPhoneContext({ latitude: ROUTE[0]!.lat, longitude: ROUTE[0]!.lon })
@@ -147,7 +155,7 @@ describe("the recorder on a phone", () => {
     await step(context, 1, 12)
     await expect.poll(async () => (await phoneRecord(page, driveId)).samples.length, { timeout: 10_000 }).toBeGreaterThan(5)
     await page.getByTestId("co-driver-mode").click()
-    await expect.poll(() => page.getByTestId("sync-status").getAttribute("data-state")).toBe("waiting")
+    await expect.poll(() => page.getByTestId("sync-status").getAttribute("data-state"), UI_WAIT).toBe("waiting")
     await context.close()
-  })
+  }, DRIVE_TEST_MS)
 })

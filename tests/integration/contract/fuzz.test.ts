@@ -375,6 +375,21 @@ describe("fuzz: malformed and hostile requests over every route", () => {
     expect(res.text).toBe("/api/drives")
   })
 
+  // A trailing slash (also one left by a resolved "." segment) on a real API route was once never answered at all.
+  it("answers an API address with a trailing slash with a 404 in the error shape that names the address without it", async () => {
+    for (const [path, bare] of [["/api/health/", "/api/health"], ["/api/drives/", "/api/drives"], ["/api/drives/%2e", "/api/drives"], ["/api/session/.", "/api/session"]] as const) {
+      const res = await sendRaw(rawRequest("GET", path, {}, ""))
+      expect(res.status, path).toBe(404)
+      expect(res.contentType, path).toContain("application/json")
+      const body = JSON.parse(res.text)
+      expect(body.error.code, path).toBe("not_found")
+      expect(body.error.message, path).toContain(bare)
+    }
+    // a method the route does not take is still the 405 with Allow
+    const put = await sendRaw(rawRequest("PUT", "/api/health/", { "content-type": "application/json", "content-length": "2" }, "{}"))
+    expect(put.status).toBe(405)
+  })
+
   it("answers a malformed page address with the app's 404 page, not a 500", async () => {
     for (const path of ["/drives/%", "/share/%", "/drives/%ED%A0%80", "/share/%E0%A4%A", "/jobs/%"]) {
       const res = await sendRaw(rawRequest("GET", path, {}, ""))

@@ -5,7 +5,7 @@ import { randomUUID } from "node:crypto"
 import { beforeAll, describe, expect, it } from "vitest"
 import { createTestShop, testDb } from "../../helpers/db"
 import { signedIn, type ApiClient } from "../../helpers/http"
-import { buildWorld, checklistBody, driveFile, expectErrorShape, samplesOf, snapshotShop, startDrive, type World } from "./world"
+import { buildWorld, checklistBody, driveFile, expectErrorShape, recordedDrive, samplesOf, snapshotShop, startDrive, type World } from "./world"
 
 let a: World
 let bAdmin: ApiClient
@@ -135,5 +135,30 @@ describe("another shop's rows are a 404 and stay as they were", () => {
     }
     const drives = await bAdmin.get("/api/drives")
     expect(drives.body.drives.map((d: { id: string }) => d.id)).toEqual([bDrive])
+  })
+
+  // Mark ids are the recorder's client-made UUIDs and name a mark within its drive only (primary key
+  // (drive_id, id)): shop B sending an id shop A used stores B's own mark, like any new id, and learns nothing.
+  it("a mark id shop A uses is, on shop B's own drive, just a new mark of B's", async () => {
+    const before = await snapshotShop(a.shop.shopId)
+    const bDrive = await recordedDrive(bTech, null)
+    const aMarkId = a.recording.markIds[0]!
+    const mark = { ...driveFile(9).marks[0]!, id: aMarkId }
+    const first = await bTech.post(`/api/drives/${bDrive.id}/marks`, { marks: [mark] })
+    expect(first.status, first.text).toBe(200)
+    expect(first.body).toEqual({ accepted: 1, duplicates: 0 })
+    // the same post again is a replay on B's drive, as for any mark
+    const again = await bTech.post(`/api/drives/${bDrive.id}/marks`, { marks: [mark] })
+    expect(again.body).toEqual({ accepted: 0, duplicates: 1 })
+    const bRows = await testDb().selectFrom("mark").select(["id", "drive_id", "shop_id"]).where("id", "=", aMarkId).where("shop_id", "=", bShopId).execute()
+    expect(bRows).toEqual([{ id: aMarkId, drive_id: bDrive.id, shop_id: bShopId }])
+    const shown = await bTech.get(`/api/drives/${bDrive.id}/file`)
+    expect(shown.status).toBe(200)
+    expect(shown.body.marks).toHaveLength(driveFile(9).marks.length + 1)
+    // B's undo of that mark takes back B's mark only
+    const undo = await bTech.delete(`/api/drives/${bDrive.id}/marks/${aMarkId}`)
+    expect(undo.status).toBe(204)
+    expect(await testDb().selectFrom("mark").select("id").where("id", "=", aMarkId).where("shop_id", "=", bShopId).execute()).toEqual([])
+    expect(await snapshotShop(a.shop.shopId)).toEqual(before)
   })
 })

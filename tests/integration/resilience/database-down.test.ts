@@ -5,7 +5,7 @@ import { sql } from "kysely"
 import { afterAll, describe, expect, it } from "vitest"
 import { testDb } from "../../helpers/db"
 import { testEnv } from "../../helpers/env"
-import { signedIn } from "../../helpers/http"
+import { ApiClient, signedIn } from "../../helpers/http"
 // @ts-expect-error: the project's PostgreSQL helper is plain .mjs without types
 import { startPostgres, stopPostgres } from "../../../scripts/lib/postgres.mjs"
 import { createTestShop } from "../../helpers/db"
@@ -69,6 +69,14 @@ describe("the database stopped and started mid-stream", () => {
     const whileDown = await tech.get(`/api/drives/${driveId}`)
     expect(whileDown.status).toBe(503)
     expect(whileDown.headers.get("retry-after")).toBeTruthy()
+    // Pages too: the calm page with a 503 and Retry-After (proxy.ts), signed in or not, never a 500.
+    for (const [who, path] of [[tech, `/drives/${driveId}`], [tech, "/drives"], [tech, "/record"], [new ApiClient(), "/sign-in"]] as const) {
+      const pageDown = await who.get(path)
+      expect(pageDown.status, path).toBe(503)
+      expect(Number(pageDown.headers.get("retry-after")), path).toBeGreaterThan(0)
+      expect(pageDown.headers.get("content-type"), path).toContain("text/html")
+      expect(pageDown.text, path).toContain('data-testid="service-unavailable"')
+    }
     await sleep(1500)
     startPostgres({ ...cluster, fresh: false })
     stopped = false
@@ -77,6 +85,11 @@ describe("the database stopped and started mid-stream", () => {
     const up = await health()
     expect(up.status).toBe(200)
     expect(up.body.parts).toEqual({ database: "up", storage: "up" })
+    for (const [who, path] of [[tech, "/record"], [new ApiClient(), "/sign-in"]] as const) {
+      const pageUp = await who.get(path)
+      expect(pageUp.status, path).toBe(200)
+      expect(pageUp.text, path).not.toContain('data-testid="service-unavailable"')
+    }
 
     const failures = seen.filter((s) => s.status !== 200 && !(s.status === 503 && Number(s.retryAfter) > 0 && s.code === "service_unavailable"))
     expect(failures).toEqual([])
