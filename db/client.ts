@@ -9,7 +9,7 @@ export type Db = Kysely<Database>
 
 const globalForDb = globalThis as unknown as { straightawayPool?: pg.Pool; straightawayDb?: Db }
 
-export function createPool(connectionString = process.env.DATABASE_URL) {
+function createPool(connectionString = process.env.DATABASE_URL) {
   if (!connectionString) throw new Error("DATABASE_URL is not set")
   const pool = new pg.Pool({
     connectionString,

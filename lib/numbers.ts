@@ -21,8 +21,6 @@ export interface NumbersDrive {
   reviewStatus: "approved" | "redo" | null
 }
 
-export const VERDICTS: NumbersVerdict[] = ["met", "short", "not_met", "unverified"]
-
 export const CONDITION_PROBLEM: Record<string, string> = {
   cleared: "Learn never reported complete",
   "time-limit": "Timed out",
@@ -161,7 +159,7 @@ export function computeNumbers(drives: readonly NumbersDrive[]) {
 }
 export type Numbers = ReturnType<typeof computeNumbers>
 
-export const NUMBERS_CSV_COLUMNS = [
+const NUMBERS_CSV_COLUMNS = [
   "drive_id",
   "finished_at",
   "technician",

@@ -1,9 +1,9 @@
 // VIN check digit and model-year code per 49 CFR Part 565 (check-digit calculation, year-code table,
 // and the §565.15(b) position-7 rule). Pure: no I/O, never throws from checkVin.
 
-export const VIN_LENGTH = 17
-export const CHECK_DIGIT_POSITION = 9
-export const MODEL_YEAR_POSITION = 10
+const VIN_LENGTH = 17
+const CHECK_DIGIT_POSITION = 9
+const MODEL_YEAR_POSITION = 10
 
 // 49 CFR 565, "Assigned Values" table. Digits keep their own value. I, O and Q have no value.
 const LETTER_VALUES: Readonly<Record<string, number>> = {
@@ -35,7 +35,7 @@ export type VinCheck = {
   problems: string[]
 }
 
-export function normaliseVin(input: string): string {
+function normaliseVin(input: string): string {
   return typeof input === "string" ? input.trim().toUpperCase() : ""
 }
 
@@ -45,7 +45,7 @@ export function transliterate(char: string): number | null {
   return LETTER_VALUES[char] ?? null
 }
 
-export function isVinCharacter(char: string): boolean {
+function isVinCharacter(char: string): boolean {
   return transliterate(char) !== null
 }
 

@@ -11,10 +11,10 @@ import { AppError } from "@/lib/errors"
 import { describeVehicle, VERDICT_WORD } from "@/lib/record"
 import { sha256Hex } from "@/lib/record/seal"
 
-export const VERIFY_WINDOW_SECONDS = 15 * 60
+const VERIFY_WINDOW_SECONDS = 15 * 60
 /** Per client address in the window: lookups that matched nothing, and lookups in all (like sign-in's limits). */
-export const MAX_UNMATCHED_VERIFY = 20
-export const MAX_VERIFY = 100
+const MAX_UNMATCHED_VERIFY = 20
+const MAX_VERIFY = 100
 /** An issued record with a dozen photo thumbnails is well under 2 MB. */
 export const MAX_VERIFY_PDF_BYTES = 10 * 1024 * 1024
 

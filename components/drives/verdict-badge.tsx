@@ -7,7 +7,7 @@ export type VerdictValue = "met" | "short" | "not_met" | "unverified"
 
 // Every verdict carries a word and an icon as well as a colour (never colour alone). Red is kept for
 // "Not met", the one verdict that means the learn has not been shown to be done.
-export const VERDICT_LOOK: Record<VerdictValue, { word: string; Icon: typeof CircleCheck; className: string }> = {
+const VERDICT_LOOK: Record<VerdictValue, { word: string; Icon: typeof CircleCheck; className: string }> = {
   met: {
     word: "Met",
     Icon: CircleCheck,
@@ -28,13 +28,6 @@ export const VERDICT_LOOK: Record<VerdictValue, { word: string; Icon: typeof Cir
     Icon: CircleHelp,
     className: "border-graphite-500 bg-graphite-100 text-graphite-800 dark:border-graphite-400 dark:bg-asphalt-700 dark:text-graphite-100",
   },
-}
-
-export const VERDICT_WORD: Record<VerdictValue, string> = {
-  met: "Met",
-  short: "Short",
-  not_met: "Not met",
-  unverified: "Unverified",
 }
 
 /** A drive's verdict as word + icon + colour. `null` = the drive is still being recorded. */

@@ -154,7 +154,7 @@ export function JobDetail({ initialJob, canEdit, isLead = false }: { initialJob:
                   </ul>
                 ) : null}
                 <p className="text-xs text-graphite-600 dark:text-graphite-300">
-                  A drive's score is a record of the conditions, not proof of the calibration: the vehicle's own confirmation decides.
+                  A drive&apos;s score is a record of the conditions, not proof of the calibration: the vehicle&apos;s own confirmation decides.
                 </p>
               </section>
             ) : null}

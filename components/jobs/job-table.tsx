@@ -21,7 +21,7 @@ import { JOB_STATUS_LABEL, JOB_STATUSES, SENSOR_LABEL, type JobSort, type Sensor
 import { apiFetch } from "@/components/ui/api-fetch"
 import { JobStatusBadge } from "./job-status"
 
-export type JobRow = {
+type JobRow = {
   id: string
   roNumber: string
   status: string
@@ -94,7 +94,7 @@ const PHONE_SORTS = [
   { value: "status:asc", label: "Status" },
 ]
 
-export function vehicleText(v: JobRow["vehicle"]) {
+function vehicleText(v: JobRow["vehicle"]) {
   return [v.year, v.make, v.model].filter(Boolean).join(" ") || "Vehicle"
 }
 

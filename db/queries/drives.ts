@@ -6,7 +6,7 @@ import type { Drive, DriveStatus, JobStatus, VerdictValue } from "../types"
 import type { TimeCursor } from "@/lib/validation/drive"
 import { cursorTimeSql, keysetPage } from "./paging"
 
-export const DRIVE_PAGE_SIZE = 50
+const DRIVE_PAGE_SIZE = 50
 
 export async function findDriveInShop(db: Db, driveId: string, shopId: string): Promise<Drive | undefined> {
   return db.selectFrom("drive").selectAll().where("id", "=", driveId).where("shop_id", "=", shopId).executeTakeFirst()

@@ -105,7 +105,7 @@ export async function listJobs(db: Db, shopId: string, opts: JobListOptions) {
   return { ...keysetPage(rows, opts.limit, (last) => encodeCursor(last.sort_key, last.id)), total: Number(total?.n ?? 0) }
 }
 
-export function encodeCursor(value: string, id: string) {
+function encodeCursor(value: string, id: string) {
   return Buffer.from(JSON.stringify([value, id])).toString("base64url")
 }
 
@@ -175,7 +175,7 @@ export function findTaskInJob(db: Db, taskId: string, jobId: string, shopId: str
     .executeTakeFirst()
 }
 
-export function listDrivesForJob(db: Db, jobId: string, shopId: string, onlyCoDriverId?: string) {
+function listDrivesForJob(db: Db, jobId: string, shopId: string, onlyCoDriverId?: string) {
   let q = db
     .selectFrom("drive")
     .select(["id", "task_id", "status", "verdict", "review_status", "created_at", "finished_at"])
@@ -362,7 +362,6 @@ export async function loadJobDetail(db: Db, jobId: string, shopId: string, opts:
     settings: { units: settings.units, tirePressureTolerancePsi: settings.tirePressureTolerancePsi },
   }
 }
-export type JobDetail = NonNullable<Awaited<ReturnType<typeof loadJobDetail>>>
 
 /**
  * Task rows with their condition profile: the one named (it must be the shop's), else the shop's default

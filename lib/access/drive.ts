@@ -47,7 +47,7 @@ export function recordingIsOpen(drive: Pick<DriveAccessFacts, "reviewStatus">): 
 
 export type JobStatus = "open" | "drive" | "review" | "complete" | "redo"
 
-export interface TaskDriveFacts {
+interface TaskDriveFacts {
   /** Tasks whose method is only "static" need no drive. */
   needsDrive: boolean
   /** The task's latest drive (by start), if any. */
@@ -60,7 +60,7 @@ export interface TaskDriveFacts {
 }
 
 /** A finished drive needs a lead's look when its verdict is not met or it had harsh events. */
-export function driveNeedsReview(d: { verdict: string | null; harshEvents: number }): boolean {
+function driveNeedsReview(d: { verdict: string | null; harshEvents: number }): boolean {
   return d.verdict !== "met" || d.harshEvents > 0
 }
 
@@ -69,7 +69,7 @@ export function driveNeedsReview(d: { verdict: string | null; harshEvents: numbe
  * Review wins when any latest drive (of a task, or of the job without a task) waits for one; complete needs every task that needs a
  * drive to have a finished drive that is met without harsh events, or approved.
  */
-export function jobStatusAfterFinish(tasks: readonly TaskDriveFacts[]): JobStatus {
+function jobStatusAfterFinish(tasks: readonly TaskDriveFacts[]): JobStatus {
   const relevant = tasks.filter((t) => t.needsDrive)
   const waitingForReview = tasks.some(
     (t) => t.latest?.status === "finished" && t.latest.reviewStatus === null && driveNeedsReview(t.latest),

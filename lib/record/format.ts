@@ -1,5 +1,4 @@
 import type { Verdict } from "@/lib/scoring/types"
-import { mToMi } from "@/lib/units"
 
 export const VERDICT_WORD: Record<Verdict, string> = { met: "Met", short: "Short", not_met: "Not met", unverified: "Unverified" }
 
@@ -7,10 +6,6 @@ export const VERDICT_WORD: Record<Verdict, string> = { met: "Met", short: "Short
 export function formatMinutes(seconds: number, requiredSeconds = Infinity): string {
   const m = seconds / 60
   return (seconds < requiredSeconds ? Math.floor(m * 10) / 10 : Math.round(m * 10) / 10).toFixed(1)
-}
-
-export function formatMiles(meters: number): string {
-  return mToMi(meters).toFixed(1)
 }
 
 // One duration style everywhere (lib/format).

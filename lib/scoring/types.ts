@@ -4,7 +4,7 @@ import type { RoadTestScore } from "./road-test"
 
 export type Verdict = "met" | "short" | "not_met" | "unverified"
 
-export type ConditionKey =
+type ConditionKey =
   | "cleared"
   | "time-limit"
   | "qualifying-time"

@@ -4,8 +4,8 @@ import { apiMarkSchema, profileSchema, sampleSchema } from "@/lib/drive-file/sch
 import { isTimestampText, UUID_TEXT } from "@/lib/validation/storable"
 
 /** Samples in one POST; the recorder sends far fewer (a few seconds' worth, or 1,000 when catching up). */
-export const MAX_SAMPLES_PER_BATCH = 10_000
-export const MAX_MARKS_PER_POST = 500
+const MAX_SAMPLES_PER_BATCH = 10_000
+const MAX_MARKS_PER_POST = 500
 /** Drive files sent to import or score: a long drive at 10 Hz is a few MB; room to spare. */
 export const MAX_DRIVE_FILE_BYTES = 20 * 1024 * 1024
 
@@ -35,7 +35,6 @@ export const sampleBatchSchema = z.object({
     .array(sampleSchema, { error: "must be an array" })
     .max(MAX_SAMPLES_PER_BATCH, { error: `must hold at most ${MAX_SAMPLES_PER_BATCH} samples` }),
 })
-export type SampleBatchInput = z.output<typeof sampleBatchSchema>
 
 export const markBatchSchema = z.object({
   marks: z
@@ -43,8 +42,8 @@ export const markBatchSchema = z.object({
     .max(MAX_MARKS_PER_POST, { error: `must hold at most ${MAX_MARKS_PER_POST} marks` }),
 })
 
-export const VERDICT_FILTERS = ["met", "short", "not_met", "unverified"] as const
-export const STATUS_FILTERS = ["recording", "finished"] as const
+const VERDICT_FILTERS = ["met", "short", "not_met", "unverified"] as const
+const STATUS_FILTERS = ["recording", "finished"] as const
 
 export const listDrivesQuery = z.object({
   verdict: z.enum(VERDICT_FILTERS, { error: `must be one of ${VERDICT_FILTERS.join(", ")}` }).optional(),

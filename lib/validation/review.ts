@@ -1,7 +1,7 @@
 import { z } from "zod"
 import { SHARE_MAX_DAYS } from "@/lib/share"
 
-export const REVIEW_NOTE_MAX_CHARS = 2000
+const REVIEW_NOTE_MAX_CHARS = 2000
 
 /** A redo needs a note saying what to do differently; an approval may carry one. */
 export const reviewSchema = z
