@@ -1,12 +1,11 @@
 // The shop's numbers, from plain rows: pure aggregation, no I/O. Times are in seconds in, minutes out.
 import { csvField } from "@/lib/export/csv"
-
-export type NumbersVerdict = "met" | "short" | "not_met" | "unverified"
+import type { Verdict } from "@/lib/scoring/types"
 
 export interface NumbersDrive {
   driveId: string
   finishedAt: string
-  verdict: NumbersVerdict
+  verdict: Verdict
   profileName: string
   technicianId: string
   technicianName: string
@@ -94,7 +93,7 @@ export function isoWeekStart(iso: string): string {
   return monday.toISOString().slice(0, 10)
 }
 
-export type VerdictMixRow = { weekStart: string; total: number } & Record<NumbersVerdict, number>
+export type VerdictMixRow = { weekStart: string; total: number } & Record<Verdict, number>
 
 export function verdictMixByWeek(drives: readonly NumbersDrive[]): VerdictMixRow[] {
   const rows = new Map<string, VerdictMixRow>()

@@ -3,7 +3,7 @@
 import { useQuery } from "@tanstack/react-query"
 import { CircleAlert, CircleCheck, Pencil, Play, RotateCcw } from "lucide-react"
 import Link from "next/link"
-import { VerdictBadge, type VerdictValue } from "@/components/drives/verdict-badge"
+import { VerdictBadge, type Verdict } from "@/components/drives/verdict-badge"
 import { buttonVariants } from "@/components/ui/button"
 import { Card } from "@/components/ui/card"
 import { LocalTime } from "@/components/ui/local-time"
@@ -148,7 +148,7 @@ export function JobDetail({ initialJob, canEdit, isLead = false }: { initialJob:
                         <Link href={`/drives/${d.id}`} className="underline-offset-4 hover:underline">
                           Drive of <LocalTime iso={d.createdAt} />
                         </Link>
-                        {d.verdict ? <VerdictBadge verdict={d.verdict as VerdictValue} /> : <span className="text-sm">{d.status === "recording" ? "Recording" : "Finished"}</span>}
+                        {d.verdict ? <VerdictBadge verdict={d.verdict as Verdict} /> : <span className="text-sm">{d.status === "recording" ? "Recording" : "Finished"}</span>}
                       </li>
                     ))}
                   </ul>

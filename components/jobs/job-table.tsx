@@ -115,10 +115,14 @@ export function JobTable() {
   const sort = (sorting[0]?.id ?? "createdAt") as JobSort
   const dir = sorting[0]?.desc === false ? "asc" : "desc"
   const filterKey = `${status}|${q}|${sort}|${dir}|${pagination.pageSize}`
-  useEffect(() => {
+  // A new filter, sort or page size starts again at page one (adjusted during render, React's pattern for state
+  // that follows other state).
+  const [shownFilterKey, setShownFilterKey] = useState(filterKey)
+  if (filterKey !== shownFilterKey) {
+    setShownFilterKey(filterKey)
     setCursors([null])
     setPagination((p) => ({ ...p, pageIndex: 0 }))
-  }, [filterKey])
+  }
 
   const cursor = cursors[pagination.pageIndex] ?? null
   const params = useMemo(() => {
@@ -135,16 +139,13 @@ export function JobTable() {
     placeholderData: keepPreviousData,
   })
 
-  useEffect(() => {
-    const next = result.data?.nextCursor
-    if (next && !result.isPlaceholderData) {
-      setCursors((list) => {
-        const copy = list.slice(0, pagination.pageIndex + 1)
-        copy[pagination.pageIndex + 1] = next
-        return copy
-      })
-    }
-  }, [result.data, result.isPlaceholderData, pagination.pageIndex])
+  // The page just loaded names the cursor of the next one; pages after it are forgotten.
+  const next = result.isPlaceholderData ? undefined : result.data?.nextCursor
+  if (next && (cursors[pagination.pageIndex + 1] !== next || cursors.length > pagination.pageIndex + 2)) {
+    const copy = cursors.slice(0, pagination.pageIndex + 1)
+    copy[pagination.pageIndex + 1] = next
+    setCursors(copy)
+  }
 
   const table = useTable({
     features,

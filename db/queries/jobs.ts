@@ -3,7 +3,8 @@ import type { JobSort } from "@/lib/validation/job"
 import { assessChecklist } from "@/lib/checklist"
 import { validationFailed } from "@/lib/errors"
 import { checklistSchema, type ChecklistData } from "@/lib/validation/checklist"
-import { isTimestampText, unstorableTextProblem, UUID_TEXT } from "@/lib/validation/storable"
+import { isTimestampText, unstorableTextProblem } from "@/lib/validation/storable"
+import { isUuid } from "@/lib/validation/uuid"
 import { listCompleteAttachmentsForJob } from "./attachments"
 import { listChecklistsForTasks } from "./checklists"
 import { findCurrentProfileVersionById, findDefaultProfileForSensor } from "./profiles"
@@ -118,7 +119,7 @@ export function decodeCursor(cursor: string, sort: JobSort): { value: string; id
     const parsed: unknown = JSON.parse(Buffer.from(cursor, "base64url").toString("utf8"))
     if (!Array.isArray(parsed) || parsed.length !== 2) return null
     const [value, id] = parsed
-    if (typeof value !== "string" || typeof id !== "string" || !UUID_TEXT.test(id)) return null
+    if (typeof value !== "string" || typeof id !== "string" || !isUuid(id)) return null
     if (unstorableTextProblem(value)) return null
     if ((sort === "createdAt" || sort === "updatedAt") && !isTimestampText(value)) return null
     if (sort === "status" && !/^[0-4]$/.test(value)) return null

@@ -1,5 +1,7 @@
 // Who may do what with a drive, and what a finished drive does to its job. Pure: callers load the rows.
 import type { Role } from "@/lib/auth/roles"
+import type { JobStatus, ReviewStatus } from "@/lib/labels"
+import type { Verdict } from "@/lib/scoring/types"
 
 export interface DriveActor {
   id: string
@@ -12,7 +14,7 @@ export interface DriveAccessFacts {
   driverId: string
   coDriverId: string | null
   status: "recording" | "finished"
-  reviewStatus: "approved" | "redo" | null
+  reviewStatus: ReviewStatus | null
 }
 
 /** Any role of the drive's shop, except a co-driver, who sees only drives that name them. */
@@ -45,7 +47,6 @@ export function recordingIsOpen(drive: Pick<DriveAccessFacts, "reviewStatus">): 
   return drive.reviewStatus === null
 }
 
-export type JobStatus = "open" | "drive" | "review" | "complete" | "redo"
 
 interface TaskDriveFacts {
   /** Tasks whose method is only "static" need no drive. */
@@ -53,9 +54,9 @@ interface TaskDriveFacts {
   /** The task's latest drive (by start), if any. */
   latest: {
     status: "recording" | "finished"
-    verdict: "met" | "short" | "not_met" | "unverified" | null
+    verdict: Verdict | null
     harshEvents: number
-    reviewStatus: "approved" | "redo" | null
+    reviewStatus: ReviewStatus | null
   } | null
 }
 
@@ -93,8 +94,8 @@ export interface JobTaskRow {
 export interface JobDriveRow {
   task_id: string | null
   status: "recording" | "finished"
-  verdict: "met" | "short" | "not_met" | "unverified" | null
-  review_status: "approved" | "redo" | null
+  verdict: Verdict | null
+  review_status: ReviewStatus | null
   harsh_events: number | string
 }
 

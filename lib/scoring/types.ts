@@ -2,7 +2,8 @@ import type { ResolvedProfile } from "@/lib/drive-file/profile"
 import type { DriveKind } from "@/lib/drive-file/road-test"
 import type { RoadTestScore } from "./road-test"
 
-export type Verdict = "met" | "short" | "not_met" | "unverified"
+export const VERDICTS = ["met", "short", "not_met", "unverified"] as const
+export type Verdict = (typeof VERDICTS)[number]
 
 type ConditionKey =
   | "cleared"

@@ -2,10 +2,11 @@ import { z } from "zod"
 import { AppError } from "@/lib/errors"
 import { JOB_STATUSES, METHODS, REASONS, SENSORS } from "@/lib/labels"
 import { vinSchema } from "@/lib/validation/vin"
+import { uuidSchema } from "@/lib/validation/uuid"
 
 // The job forms and tables import the task values and their words from here as well.
 export { JOB_STATUS_LABEL, JOB_STATUSES, METHOD_LABEL, METHODS, REASON_LABEL, REASONS, SENSOR_LABEL, SENSORS } from "@/lib/labels"
-export type { JobStatusValue, Method, Reason, Sensor } from "@/lib/labels"
+export type { JobStatus, Method, Reason, Sensor } from "@/lib/labels"
 
 // Forms send "" for an empty optional box; the API treats "" and a missing key alike.
 const optionalText = (max: number) =>
@@ -57,7 +58,7 @@ const vehicleSchema = z.object({
 })
 
 const taskSchema = z.object({
-  id: z.uuid().optional(),
+  id: uuidSchema.optional(),
   sensor: z.enum(SENSORS, { error: "must be one of " + SENSORS.join(", ") }),
   method: z.enum(METHODS, { error: "must be one of " + METHODS.join(", ") }),
   reason: z.enum(REASONS, { error: "must be one of " + REASONS.join(", ") }),
