@@ -52,6 +52,7 @@ export function JobForm({ jobId, initial }: { jobId?: string; initial?: JobFormV
   })
   const { errors, isSubmitting } = form.formState
   const vin = useWatch({ control: form.control, name: "vehicle.vin" }) ?? ""
+  const chosenYear = useWatch({ control: form.control, name: "vehicle.year" })
 
   async function save(values: NewJob) {
     setProblem(null)
@@ -103,7 +104,7 @@ export function JobForm({ jobId, initial }: { jobId?: string; initial?: JobFormV
         <VinField
           value={vin}
           serverError={err("vehicle.vin")}
-          chosenYear={String(form.watch("vehicle.year") ?? "")}
+          chosenYear={String(chosenYear ?? "")}
           onChooseYear={(y) => form.setValue("vehicle.year", String(y), { shouldDirty: true })}
           {...form.register("vehicle.vin")}
         />
