@@ -15,14 +15,14 @@ import { insertSamples } from "./queries/samples"
 import { findShopSettings, updateShopSettings } from "./queries/shop-settings"
 
 /** An invented spot in the US Midwest for the invented demo shop. */
-export const DEMO_SHOP_LOCATION = { lat: 43.8731, lon: -91.9187 }
-export const DEMO_TIME_ZONE = "America/Chicago"
+const DEMO_SHOP_LOCATION = { lat: 43.8731, lon: -91.9187 }
+const DEMO_TIME_ZONE = "America/Chicago"
 const HISTORY_DRIVES = 300
 const HISTORY_DAYS = 70
 const HISTORY_TAG = "Road history"
 
 /** Traffic (0 free .. 1 heavy) on each invented road by local hour: rush hours slow the parkway and the avenue. */
-export function demoTraffic(layout: RoadLayout, hour: number): number {
+function demoTraffic(layout: RoadLayout, hour: number): number {
   const rush = hour === 7 || hour === 8 || hour === 16 || hour === 17
   if (layout.kind === "steady") return rush ? 0.75 : 0.05
   if (layout.kind === "stop-and-go") return rush ? 0.8 : hour >= 11 && hour <= 13 ? 0.4 : 0.15

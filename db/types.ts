@@ -4,11 +4,13 @@ type Timestamp = ColumnType<Date, Date | string, Date | string>
 type GeneratedTimestamp = ColumnType<Date, Date | string | undefined, Date | string>
 type Json<T> = ColumnType<T, string | T, string | T>
 
-export type Role = "technician" | "co_driver" | "shop_lead" | "admin"
-export type JobStatus = "open" | "drive" | "review" | "complete" | "redo"
+import type { Role } from "@/lib/auth/roles"
+import type { JobStatus, ReviewDecision, ReviewStatus } from "@/lib/labels"
+import type { Verdict } from "@/lib/scoring/types"
+
+// The vocabulary is declared once in lib/ (roles, labels, scoring) and only re-exported here for the queries.
+export type { JobStatus, ReviewDecision, Role, Verdict }
 export type DriveStatus = "recording" | "finished"
-export type VerdictValue = "met" | "short" | "not_met" | "unverified"
-export type ReviewDecision = "approve" | "redo"
 
 export interface ShopSettings {
   units?: "imperial" | "metric"
@@ -153,8 +155,8 @@ export interface DriveTable {
   co_driver_id: string | null
   status: Generated<DriveStatus>
   source: Generated<"recorder" | "import">
-  verdict: VerdictValue | null
-  review_status: "approved" | "redo" | null
+  verdict: Verdict | null
+  review_status: ReviewStatus | null
   /** Share links are signed with this; withdrawing a drive's links moves it on by one. */
   share_epoch: Generated<number>
   /** learn, road_test or learn_and_road_test (lib/drive-file/road-test.ts). */
@@ -235,7 +237,7 @@ export interface MarkTable {
 export interface ScoreTable {
   drive_id: string
   shop_id: string
-  verdict: VerdictValue
+  verdict: Verdict
   result: Json<Record<string, unknown>>
   scored_at: GeneratedTimestamp
 }
@@ -346,7 +348,7 @@ export interface ScoreRevisionTable {
   drive_id: string
   revision: number
   cause: RevisionCause
-  verdict: VerdictValue
+  verdict: Verdict
   result: Json<Record<string, unknown>>
   review_decision: ReviewDecision | null
   /** SHA-256 (hex) of the canonical record (lib/record/seal.ts). */

@@ -52,11 +52,11 @@ export function alignmentRequired(task: TaskForChecklist): boolean {
 const FUEL_ORDER: FuelLevel[] = ["reserve", "1/4", "1/2", "3/4", "full"]
 
 /** Enough fuel for a 30-minute drive with margin; "reserve" is not. Common practice, no source. */
-export function fuelEnough(level: FuelLevel): boolean {
+function fuelEnough(level: FuelLevel): boolean {
   return FUEL_ORDER.indexOf(level) >= FUEL_ORDER.indexOf("1/4")
 }
 
-export type Blocker = { key: string; message: string }
+type Blocker = { key: string; message: string }
 
 export type ChecklistAssessment = { ready: boolean; blockers: Blocker[]; tires: TireCheck[] }
 

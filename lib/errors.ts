@@ -51,10 +51,6 @@ export function notFound(what = "That"): never {
   throw new AppError("not_found", `${what} was not found.`)
 }
 
-export function forbidden(message = "Your role cannot do that."): never {
-  throw new AppError("forbidden", message)
-}
-
 export function validationFailed(fields: Record<string, string>, message?: string): never {
   const first = Object.entries(fields)[0]
   throw new AppError("validation_failed", message ?? (first ? `${first[0]}: ${first[1]}` : "Invalid input."), fields)

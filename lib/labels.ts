@@ -20,7 +20,11 @@ export const JOB_STATUSES = ["open", "drive", "review", "complete", "redo"] as c
 export type Sensor = (typeof SENSORS)[number]
 export type Method = (typeof METHODS)[number]
 export type Reason = (typeof REASONS)[number]
-export type JobStatusValue = (typeof JOB_STATUSES)[number]
+export type JobStatus = (typeof JOB_STATUSES)[number]
+export const REVIEW_DECISIONS = ["approve", "redo"] as const
+export type ReviewDecision = (typeof REVIEW_DECISIONS)[number]
+/** A drive's review outcome as stored on the drive row. */
+export type ReviewStatus = "approved" | "redo"
 
 /** Complete for its keys; a stored value outside them (an older row) reads as undefined, so callers fall back to the raw value. */
 export type LabelTable<K extends string> = Readonly<Record<K, string>> & Readonly<Partial<Record<string, string>>>
@@ -51,7 +55,7 @@ export const REASON_LABEL: LabelTable<Reason> = {
   other: "Other reason",
 }
 
-export const JOB_STATUS_LABEL: LabelTable<JobStatusValue> = {
+export const JOB_STATUS_LABEL: LabelTable<JobStatus> = {
   open: "Open",
   drive: "Driving",
   review: "Needs review",

@@ -2,13 +2,12 @@
 // (lib/format wholeSeconds: the same rounding formatDuration shows); weeks are the shop's calendar weeks.
 import { csvField } from "@/lib/export/csv"
 import { isoDay, isoLocalDateTime, wholeSeconds } from "@/lib/format"
-
-export type NumbersVerdict = "met" | "short" | "not_met" | "unverified"
+import type { Verdict } from "@/lib/scoring/types"
 
 export interface NumbersDrive {
   driveId: string
   finishedAt: string
-  verdict: NumbersVerdict
+  verdict: Verdict
   profileName: string
   technicianId: string
   technicianName: string
@@ -22,8 +21,6 @@ export interface NumbersDrive {
   unmetConditions: string[]
   reviewStatus: "approved" | "redo" | null
 }
-
-export const VERDICTS: NumbersVerdict[] = ["met", "short", "not_met", "unverified"]
 
 export const CONDITION_PROBLEM: Record<string, string> = {
   cleared: "Learn never reported complete",
@@ -99,7 +96,7 @@ export function isoWeekStart(iso: string, timeZone: string): string {
   return new Date(Date.UTC(y!, m! - 1, day! - back)).toISOString().slice(0, 10)
 }
 
-export type VerdictMixRow = { weekStart: string; total: number } & Record<NumbersVerdict, number>
+export type VerdictMixRow = { weekStart: string; total: number } & Record<Verdict, number>
 
 export function verdictMixByWeek(drives: readonly NumbersDrive[], timeZone: string): VerdictMixRow[] {
   const rows = new Map<string, VerdictMixRow>()
@@ -166,7 +163,7 @@ export function computeNumbers(drives: readonly NumbersDrive[], timeZone: string
 }
 export type Numbers = ReturnType<typeof computeNumbers>
 
-export const NUMBERS_CSV_COLUMNS = [
+const NUMBERS_CSV_COLUMNS = [
   "drive_id",
   "finished_at",
   "technician",

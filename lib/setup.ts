@@ -33,7 +33,7 @@ export const SCAN_RESULT_LABEL: Readonly<Record<ScanResult, string>> = {
 const finite = (what: string) =>
   z.number({ error: (iss) => (iss.input === undefined ? "is required" : `must be ${what}`) }).refine(Number.isFinite, { error: "must be a finite number" })
 
-export const setupMeasurementSchema = z
+const setupMeasurementSchema = z
   .object({
     key: z.enum(SETUP_MEASUREMENT_KEYS, { error: `must be one of ${SETUP_MEASUREMENT_KEYS.join(", ")}` }),
     label: z.string().trim().max(120, { error: "must be at most 120 characters" }).optional(),

@@ -1,4 +1,5 @@
 import { createHmac, timingSafeEqual } from "node:crypto"
+import { isUuid } from "@/lib/validation/uuid"
 
 // A share link token: "<driveId>.<expiresAtSeconds>.<signature>", the signature being HMAC-SHA256 (RFC 2104,
 // FIPS 180-4) keyed with the app secret over "share:<driveId>.<expiresAtSeconds>", base64url without padding;
@@ -12,8 +13,6 @@ export type ShareCheck =
   | { ok: true; driveId: string; expiresAtMs: number }
   | { ok: false; reason: "malformed" | "bad_signature" | "expired" | "withdrawn" }
 
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i
-
 export function hmacSha256Base64url(secret: string | Uint8Array, message: string): string {
   return createHmac("sha256", secret).update(message, "utf8").digest("base64url")
 }
@@ -26,11 +25,11 @@ function payload(driveId: string, expiresAtSeconds: number, epoch: number) {
 export function shareTokenDriveId(token: string): string | null {
   if (typeof token !== "string" || token.length > 200) return null
   const id = token.split(".")[0] ?? ""
-  return UUID.test(id) ? id.toLowerCase() : null
+  return isUuid(id) ? id.toLowerCase() : null
 }
 
 export function signShareToken(secret: string, driveId: string, expiresAtMs: number, epoch = 0): string {
-  if (!UUID.test(driveId)) throw new RangeError("driveId must be a UUID")
+  if (!isUuid(driveId)) throw new RangeError("driveId must be a UUID")
   if (!Number.isFinite(expiresAtMs) || expiresAtMs <= 0) throw new RangeError("expiresAtMs must be a time")
   const expiresAtSeconds = Math.floor(expiresAtMs / 1000)
   const id = driveId.toLowerCase()
@@ -46,7 +45,7 @@ export function verifyShareToken(secret: string, token: string, nowMs: number, e
   const parts = token.split(".")
   if (parts.length !== 3) return { ok: false, reason: "malformed" }
   const [driveId, expires, signature] = parts as [string, string, string]
-  if (!UUID.test(driveId) || !/^\d{1,12}$/.test(expires) || !/^[A-Za-z0-9_-]{43}$/.test(signature)) {
+  if (!isUuid(driveId) || !/^\d{1,12}$/.test(expires) || !/^[A-Za-z0-9_-]{43}$/.test(signature)) {
     return { ok: false, reason: "malformed" }
   }
   const expiresAtSeconds = Number(expires)

@@ -2,8 +2,6 @@
 // 1 mi/h = 0.44704 m/s, 1 km/h = 1/3.6 m/s. Factors are applied as integer ratios so that
 // decimal inputs land on the nearest double of the exact decimal result (35 mph -> 15.6464).
 
-export const METERS_PER_FOOT = 0.3048
-export const METERS_PER_MILE = 1609.344
 export const MPS_PER_MPH = 0.44704
 export const STANDARD_GRAVITY_MPS2 = 9.80665
 
@@ -37,10 +35,6 @@ export function kmhToMps(kmh: number): number {
 
 export function mpsToKmh(mps: number): number {
   return mps * 3.6
-}
-
-export function minutesToSeconds(minutes: number): number {
-  return minutes * 60
 }
 
 export function gToMps2(g: number): number {

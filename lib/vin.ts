@@ -1,9 +1,9 @@
 // VIN check digit and model-year code per 49 CFR Part 565 (check-digit calculation, year-code table,
 // and the §565.15(b) position-7 rule). Pure: no I/O, never throws from checkVin.
 
-export const VIN_LENGTH = 17
-export const CHECK_DIGIT_POSITION = 9
-export const MODEL_YEAR_POSITION = 10
+const VIN_LENGTH = 17
+const CHECK_DIGIT_POSITION = 9
+const MODEL_YEAR_POSITION = 10
 
 // 49 CFR 565, "Assigned Values" table. Digits keep their own value. I, O and Q have no value.
 const LETTER_VALUES: Readonly<Record<string, number>> = {
@@ -35,7 +35,7 @@ export type VinCheck = {
   problems: string[]
 }
 
-export function normaliseVin(input: string): string {
+function normaliseVin(input: string): string {
   return typeof input === "string" ? input.trim().toUpperCase() : ""
 }
 
@@ -45,7 +45,7 @@ export function transliterate(char: string): number | null {
   return LETTER_VALUES[char] ?? null
 }
 
-export function isVinCharacter(char: string): boolean {
+function isVinCharacter(char: string): boolean {
   return transliterate(char) !== null
 }
 
@@ -66,7 +66,7 @@ export function computeWeightedSum(vin17: string): number {
     if (value === null) {
       throw new RangeError(`Position ${index + 1} holds ${describeChar(char)}, which a VIN cannot contain.`)
     }
-    sum += value * POSITION_WEIGHTS[index]
+    sum += value * POSITION_WEIGHTS[index]!
   })
   return sum
 }
@@ -89,8 +89,8 @@ type YearDecode = { modelYear: number | null; problem: string | null }
 
 function decodeYearFromChars(chars: string[]): YearDecode {
   if (chars.length !== VIN_LENGTH) return { modelYear: null, problem: null }
-  const yearCode = chars[MODEL_YEAR_POSITION - 1]
-  const position7 = chars[6]
+  const yearCode = chars[MODEL_YEAR_POSITION - 1]!
+  const position7 = chars[6]!
   if (NEVER_YEAR_CODES.includes(yearCode)) {
     return {
       modelYear: null,
@@ -154,7 +154,7 @@ export function checkVin(input: string): VinCheck {
   let checkDigit: string | null = null
   let expectedCheckDigit: string | null = null
   if (chars.length === VIN_LENGTH) {
-    checkDigit = chars[CHECK_DIGIT_POSITION - 1]
+    checkDigit = chars[CHECK_DIGIT_POSITION - 1]!
     // Position 9 has weight 0, so the expected digit is known even when position 9 itself is mistyped.
     const othersLegal = chars.every((char, index) => index === CHECK_DIGIT_POSITION - 1 || isVinCharacter(char))
     if (othersLegal) {

@@ -1,10 +1,19 @@
 // `npm test`: installs what the suites need, starts a throwaway database, the local fakes and a production
 // build of the app, then runs the unit, integration and end-to-end suites. Exits non-zero on any failure.
-// Extra arguments go to Vitest: `npm test -- --project unit`.
+// A full run (no arguments) first runs the static checks of scripts/check.mjs: both type checks, ESLint, Prettier's
+// format check and knip; a violation fails the run. Extra arguments go to Vitest and skip the static checks:
+// `npm test -- --project unit` (`npm run check` runs them alone).
 import fs from "node:fs"
+import { runChecks } from "./check.mjs"
 import { aptInstall } from "./lib/postgres.mjs"
-import { log, npx, run } from "./lib/shell.mjs"
+import { ensurePackages, log, npx, run } from "./lib/shell.mjs"
 import { startStack } from "./lib/stack.mjs"
+
+const vitestArgs = process.argv.slice(2)
+if (vitestArgs.length === 0) {
+  ensurePackages()
+  if (!runChecks()) process.exit(1)
+}
 
 const chromium = process.env.CHROMIUM_PATH ?? "/usr/bin/chromium"
 const missing = []
@@ -18,7 +27,6 @@ if (missing.length) {
 // The read-replica suite (tests/integration/replica/) needs a streaming standby and a second app that reads from
 // it; both are started only when the run can include that suite: no file named, or one naming "replica", or
 // TEST_REPLICA=1 (TEST_REPLICA=0: never). Every other suite talks to the first app, which reads the primary only.
-const vitestArgs = process.argv.slice(2)
 const takesValue = new Set(["--project", "-t", "--testNamePattern", "--reporter", "--shard", "--config", "-c", "--root", "-r", "--dir", "--exclude"])
 const filters = vitestArgs.filter((a, i) => !a.startsWith("-") && !takesValue.has(vitestArgs[i - 1]))
 const projects = vitestArgs.flatMap((a, i) => (vitestArgs[i - 1] === "--project" ? [a] : a.startsWith("--project=") ? [a.slice(10)] : []))

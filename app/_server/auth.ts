@@ -2,7 +2,7 @@ import "server-only"
 import { cookies } from "next/headers"
 import { redirect } from "next/navigation"
 import { cache } from "react"
-import { getDb, getPool } from "@/db/client"
+import { getPool } from "@/db/client"
 import { AppError } from "@/lib/errors"
 import { createLucia, sessionIdFromToken, type Auth, type SessionUser } from "@/lib/auth/lucia"
 import { hasRole, type Role } from "@/lib/auth/roles"
@@ -66,4 +66,4 @@ export async function requirePageRole(...roles: Role[]): Promise<SessionUser> {
   return current.user
 }
 
-export { getDb }
+

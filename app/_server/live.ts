@@ -34,7 +34,7 @@ import type { Score } from "@/lib/scoring/types"
 /** Live scorers kept per process (a 10 Hz hour is ~3 MB): the least recently read goes first. */
 const MAX_CACHED_DRIVES = 16
 /** A heartbeat on every open stream this often, so proxies keep it and screens know it is alive. */
-export const HEARTBEAT_MS = 10_000
+const HEARTBEAT_MS = 10_000
 /** At most one score event per drive this often (scores follow samples, which come every second). */
 const SCORE_EVERY_MS = 1000
 /** A screen that loses its stream tries again after this (the `retry:` field). */
@@ -89,7 +89,7 @@ function hub(): Hub {
 // ---- the LISTEN connection ----
 
 /** Starts listening once per process; resolves when listening (or when it failed: callers then fall back). */
-export function ensureListening(): Promise<void> {
+function ensureListening(): Promise<void> {
   const h = hub()
   if (h.connected) return Promise.resolve()
   h.connecting ??= (async () => {

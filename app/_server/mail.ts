@@ -14,7 +14,7 @@ function isLoopback(url: string) {
 }
 
 /** One SMTP transport per process, from SMTP_URL. The local mail fake speaks no TLS, so it is skipped there. */
-export function getMailTransport(): Transporter {
+function getMailTransport(): Transporter {
   const url = env().SMTP_URL
   if (!url) throw new AppError("conflict", "E-mail is not set up on this server (SMTP_URL is empty).")
   transport ??= nodemailer.createTransport({

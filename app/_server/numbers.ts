@@ -1,7 +1,8 @@
 import "server-only"
 import type { Db } from "@/db/client"
 import { listDrivesForNumbers, loadNumbersSummary } from "@/db/queries/numbers"
-import type { Numbers, NumbersDrive, NumbersVerdict } from "@/lib/numbers"
+import type { Numbers, NumbersDrive } from "@/lib/numbers"
+import type { Verdict } from "@/lib/scoring/types"
 
 export const NUMBERS_DEFAULT_DAYS = 90
 
@@ -12,7 +13,7 @@ export async function loadNumbersDrives(db: Db, shopId: string, days: number): P
   return rows.map((r) => ({
     driveId: r.id,
     finishedAt: new Date(r.finished_at ?? 0).toISOString(),
-    verdict: (r.verdict ?? "not_met") as NumbersVerdict,
+    verdict: (r.verdict ?? "not_met") as Verdict,
     profileName: r.profile_name ?? "Profile set on the drive",
     technicianId: r.driver_id,
     technicianName: r.driver_name ?? "Former staff",

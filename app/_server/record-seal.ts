@@ -12,7 +12,7 @@ import { sha256Hex } from "@/lib/record/seal"
 import { loadRecordData } from "./record-data"
 import { sealRevision } from "./revisions"
 
-export function verifyUrl() {
+function verifyUrl() {
   return `${env().APP_URL.replace(/\/$/, "")}/verify`
 }
 

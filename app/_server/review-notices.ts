@@ -12,7 +12,7 @@ import { sendMailQuietly } from "./mail"
 type Outgoing = { to: string; subject: string; text: string }
 
 /** The review queue's rule (db/queries/reviews.ts listReviewQueue): a verdict other than met, or any harsh event. */
-export function needsReview(score: Pick<Score, "verdict" | "harshEvents">): boolean {
+function needsReview(score: Pick<Score, "verdict" | "harshEvents">): boolean {
   return score.verdict !== "met" || (score.harshEvents?.accel ?? 0) + (score.harshEvents?.decel ?? 0) > 0
 }
 

@@ -15,7 +15,7 @@ import { WEEKDAY_KEYS, type RoadsQuery } from "@/lib/validation/roads"
 const MAP_RADIUS_M = 15_000
 const LOOPS_SHOWN = 3
 
-export interface RoadLoopView extends RankedLoop {
+interface RoadLoopView extends RankedLoop {
   rank: number
   number: number
   name: string
@@ -151,7 +151,10 @@ function farthest(track: [number, number][], home: { lat: number; lon: number } 
   let bestD = -1
   for (const p of track) {
     const d = (p[0] - home.lat) ** 2 + ((p[1] - home.lon) * Math.cos((home.lat * Math.PI) / 180)) ** 2
-    if (d > bestD) (best = p), (bestD = d)
+    if (d > bestD) {
+      best = p
+      bestD = d
+    }
   }
   return best
 }

@@ -7,6 +7,7 @@ import { AppError } from "@/lib/errors"
 import { BodyTooLargeError, jsonNestsDeeperThan, MAX_JSON_DEPTH, readBodyText } from "@/lib/validation/json-body"
 import { findUnstorableText, unstorableTextProblem } from "@/lib/validation/storable"
 import { issuesToFields } from "@/lib/validation/zod-fields"
+import { uuidSchema } from "@/lib/validation/uuid"
 
 type Ctx<P> = { params: Promise<P> }
 type Handler<P> = (req: Request, ctx: Ctx<P>) => Promise<Response>
@@ -149,4 +150,4 @@ export function parseQuery<S extends z.ZodType>(req: Request, schema: S): z.infe
   return parseWith(schema, query)
 }
 
-export const uuidParam = z.string().uuid()
+export const uuidParam = uuidSchema

@@ -26,26 +26,12 @@ export function bucket() {
 
 /** Minutes, not hours: a leaked upload address is soon worthless (and after `complete` it writes nowhere served). */
 const UPLOAD_URL_SECONDS = 5 * 60
-const DOWNLOAD_URL_SECONDS = 5 * 60
 
 /** A presigned PUT; the uploader must send the same Content-Type. */
 export function presignPut(key: string, contentType: string) {
   return getSignedUrl(getS3(), new PutObjectCommand({ Bucket: bucket(), Key: key, ContentType: contentType }), {
     expiresIn: UPLOAD_URL_SECONDS,
   })
-}
-
-export function presignGet(key: string, opts: { filename?: string; contentType?: string } = {}) {
-  return getSignedUrl(
-    getS3(),
-    new GetObjectCommand({
-      Bucket: bucket(),
-      Key: key,
-      ResponseContentType: opts.contentType,
-      ResponseContentDisposition: opts.filename ? `inline; filename="${opts.filename.replace(/["\\\r\n]/g, "_")}"` : undefined,
-    }),
-    { expiresIn: DOWNLOAD_URL_SECONDS },
-  )
 }
 
 /**

@@ -13,7 +13,7 @@ export type Thumbnail = { bytes: Uint8Array; widthPx: number; heightPx: number }
  * none unless asked, so location and camera tags stay behind). Throws when the bytes do not decode; a file cut
  * short counts as not decoding ("truncated"), harmless encoder warnings do not.
  */
-export async function makeThumbnail(bytes: Uint8Array, maxPx = THUMBNAIL_MAX_PX): Promise<Thumbnail> {
+async function makeThumbnail(bytes: Uint8Array, maxPx = THUMBNAIL_MAX_PX): Promise<Thumbnail> {
   const input = Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength)
   const meta = await sharp(input, { failOn: "truncated" }).metadata()
   if (!meta.width || !meta.height) throw new Error("the image has no size")

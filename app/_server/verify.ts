@@ -10,11 +10,12 @@ import { countRecentVerifyAttempts, findRevisionByCode, findRevisionByPdfHash, i
 import { AppError } from "@/lib/errors"
 import { describeVehicle, VERDICT_WORD } from "@/lib/record"
 import { sha256Hex } from "@/lib/record/seal"
+import { BodyTooLargeError, readBodyBytes as readStreamBytes } from "@/lib/validation/json-body"
 
-export const VERIFY_WINDOW_SECONDS = 15 * 60
+const VERIFY_WINDOW_SECONDS = 15 * 60
 /** Per client address in the window: lookups that matched nothing, and lookups in all (like sign-in's limits). */
-export const MAX_UNMATCHED_VERIFY = 20
-export const MAX_VERIFY = 100
+const MAX_UNMATCHED_VERIFY = 20
+const MAX_VERIFY = 100
 /** An issued record with a dozen photo thumbnails is well under 2 MB. */
 export const MAX_VERIFY_PDF_BYTES = 10 * 1024 * 1024
 
@@ -84,21 +85,12 @@ export async function verifyRecord(db: Db, clientAddress: string | null, input: 
 
 /** A request body read up to `maxBytes`, whatever Content-Length says (a chunked body is counted as it comes). */
 export async function readBodyBytes(req: Request, maxBytes: number): Promise<Uint8Array> {
-  const tooLarge = () => new AppError("too_large", `The file is over ${Math.round(maxBytes / 1024 / 1024)} MB; an issued record is far smaller.`)
-  if (Number(req.headers.get("content-length") ?? 0) > maxBytes) throw tooLarge()
-  const reader = req.body?.getReader()
-  if (!reader) return new Uint8Array()
-  const chunks: Uint8Array[] = []
-  let total = 0
-  for (;;) {
-    const { done, value } = await reader.read()
-    if (done) break
-    total += value.byteLength
-    if (total > maxBytes) {
-      await reader.cancel().catch(() => undefined)
-      throw tooLarge()
+  try {
+    return await readStreamBytes(req.body, maxBytes, Number(req.headers.get("content-length") ?? 0))
+  } catch (error) {
+    if (error instanceof BodyTooLargeError) {
+      throw new AppError("too_large", `The file is over ${Math.round(maxBytes / 1024 / 1024)} MB; an issued record is far smaller.`)
     }
-    chunks.push(value)
+    throw error
   }
-  return Buffer.concat(chunks)
 }

@@ -43,7 +43,7 @@ export function CabRoot({ children }: { children: ReactNode }) {
   )
 }
 
-export function SunToggle({ sun, onToggle }: { sun: boolean; onToggle: () => void }) {
+function SunToggle({ sun, onToggle }: { sun: boolean; onToggle: () => void }) {
   const Icon = sun ? SunDim : Sun
   return (
     <button

@@ -3,11 +3,13 @@ import { CircleAlert, CircleCheck, CircleHelp, CircleX, Radio } from "lucide-rea
 // Plain class joining (no tailwind-merge) keeps this badge light enough for the recorder bundle.
 const cx = (...parts: Array<string | false | null | undefined>) => parts.filter(Boolean).join(" ")
 
-export type VerdictValue = "met" | "short" | "not_met" | "unverified"
+import type { Verdict } from "@/lib/scoring/types"
+
+export type { Verdict }
 
 // Every verdict carries a word and an icon as well as a colour (never colour alone). Red is kept for
 // "Not met", the one verdict that means the learn has not been shown to be done.
-export const VERDICT_LOOK: Record<VerdictValue, { word: string; Icon: typeof CircleCheck; className: string }> = {
+const VERDICT_LOOK: Record<Verdict, { word: string; Icon: typeof CircleCheck; className: string }> = {
   met: {
     word: "Met",
     Icon: CircleCheck,
@@ -30,20 +32,13 @@ export const VERDICT_LOOK: Record<VerdictValue, { word: string; Icon: typeof Cir
   },
 }
 
-export const VERDICT_WORD: Record<VerdictValue, string> = {
-  met: "Met",
-  short: "Short",
-  not_met: "Not met",
-  unverified: "Unverified",
-}
-
 /** A drive's verdict as word + icon + colour. `null` = the drive is still being recorded. */
 export function VerdictBadge({
   verdict,
   size = "md",
   className,
 }: {
-  verdict: VerdictValue | null
+  verdict: Verdict | null
   size?: "md" | "lg"
   className?: string
 }) {

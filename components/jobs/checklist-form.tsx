@@ -4,7 +4,7 @@ import { zodResolver } from "@hookform/resolvers/zod"
 import { useQueryClient } from "@tanstack/react-query"
 import { CircleAlert, CircleCheck, TriangleAlert } from "lucide-react"
 import { useState } from "react"
-import { useForm, type FieldPath } from "react-hook-form"
+import { useForm, useWatch, type FieldPath } from "react-hook-form"
 import { Button } from "@/components/ui/button"
 import { ApiError, apiFetch } from "@/components/ui/api-fetch"
 import { Field, Input, Select, Textarea } from "@/components/ui/field"
@@ -71,8 +71,8 @@ export function ChecklistForm({
   })
   const [codesText, setCodesText] = useState((saved?.faultCodes.expected ?? []).join(", "))
   const { errors, isSubmitting } = form.formState
-  const tires = form.watch("tires")
-  const noCodes = form.watch("faultCodes.none")
+  const tires = useWatch({ control: form.control, name: "tires" })
+  const noCodes = useWatch({ control: form.control, name: "faultCodes.none" })
   const prefix = `task-${task.id.slice(0, 8)}`
 
   // Live flags while typing: the same rule the server applies.

@@ -3,7 +3,7 @@
 import { useQuery } from "@tanstack/react-query"
 import { CircleAlert, CircleCheck, Pencil, Play, RotateCcw } from "lucide-react"
 import Link from "next/link"
-import { VerdictBadge, type VerdictValue } from "@/components/drives/verdict-badge"
+import { VerdictBadge, type Verdict } from "@/components/drives/verdict-badge"
 import { buttonVariants } from "@/components/ui/button"
 import { Card } from "@/components/ui/card"
 import { LocalTime } from "@/components/ui/local-time"
@@ -148,13 +148,13 @@ export function JobDetail({ initialJob, canEdit, isLead = false }: { initialJob:
                         <Link href={`/drives/${d.id}`} className="underline-offset-4 hover:underline">
                           Drive of <LocalTime iso={d.createdAt} />
                         </Link>
-                        {d.verdict ? <VerdictBadge verdict={d.verdict as VerdictValue} /> : <span className="text-sm">{d.status === "recording" ? "Recording" : "Finished"}</span>}
+                        {d.verdict ? <VerdictBadge verdict={d.verdict as Verdict} /> : <span className="text-sm">{d.status === "recording" ? "Recording" : "Finished"}</span>}
                       </li>
                     ))}
                   </ul>
                 ) : null}
                 <p className="text-xs text-graphite-600 dark:text-graphite-300">
-                  A drive's score is a record of the conditions, not proof of the calibration: the vehicle's own confirmation decides.
+                  A drive&apos;s score is a record of the conditions, not proof of the calibration: the vehicle&apos;s own confirmation decides.
                 </p>
               </section>
             ) : null}

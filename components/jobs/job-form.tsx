@@ -5,7 +5,7 @@ import { useQuery, useQueryClient } from "@tanstack/react-query"
 import { Plus, Trash2 } from "lucide-react"
 import { useRouter } from "next/navigation"
 import { useState } from "react"
-import { useFieldArray, useForm, type FieldPath } from "react-hook-form"
+import { useFieldArray, useForm, useWatch, type FieldPath } from "react-hook-form"
 import { Button } from "@/components/ui/button"
 import { Card } from "@/components/ui/card"
 import { ApiError, apiFetch } from "@/components/ui/api-fetch"
@@ -51,7 +51,8 @@ export function JobForm({ jobId, initial }: { jobId?: string; initial?: JobFormV
     queryFn: () => apiFetch<{ profiles: ProfileOption[] }>("/api/profiles"),
   })
   const { errors, isSubmitting } = form.formState
-  const vin = form.watch("vehicle.vin") ?? ""
+  const vin = useWatch({ control: form.control, name: "vehicle.vin" }) ?? ""
+  const chosenYear = useWatch({ control: form.control, name: "vehicle.year" })
 
   async function save(values: NewJob) {
     setProblem(null)
@@ -103,7 +104,7 @@ export function JobForm({ jobId, initial }: { jobId?: string; initial?: JobFormV
         <VinField
           value={vin}
           serverError={err("vehicle.vin")}
-          chosenYear={String(form.watch("vehicle.year") ?? "")}
+          chosenYear={String(chosenYear ?? "")}
           onChooseYear={(y) => form.setValue("vehicle.year", String(y), { shouldDirty: true })}
           {...form.register("vehicle.vin")}
         />

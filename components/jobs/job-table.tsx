@@ -21,7 +21,7 @@ import { JOB_STATUS_LABEL, JOB_STATUSES, SENSOR_LABEL, type JobSort, type Sensor
 import { apiFetch } from "@/components/ui/api-fetch"
 import { JobStatusBadge } from "./job-status"
 
-export type JobRow = {
+type JobRow = {
   id: string
   roNumber: string
   status: string
@@ -94,7 +94,7 @@ const PHONE_SORTS = [
   { value: "status:asc", label: "Status" },
 ]
 
-export function vehicleText(v: JobRow["vehicle"]) {
+function vehicleText(v: JobRow["vehicle"]) {
   return [v.year, v.make, v.model].filter(Boolean).join(" ") || "Vehicle"
 }
 
@@ -115,10 +115,14 @@ export function JobTable() {
   const sort = (sorting[0]?.id ?? "createdAt") as JobSort
   const dir = sorting[0]?.desc === false ? "asc" : "desc"
   const filterKey = `${status}|${q}|${sort}|${dir}|${pagination.pageSize}`
-  useEffect(() => {
+  // A new filter, sort or page size starts again at page one (adjusted during render, React's pattern for state
+  // that follows other state).
+  const [shownFilterKey, setShownFilterKey] = useState(filterKey)
+  if (filterKey !== shownFilterKey) {
+    setShownFilterKey(filterKey)
     setCursors([null])
     setPagination((p) => ({ ...p, pageIndex: 0 }))
-  }, [filterKey])
+  }
 
   const cursor = cursors[pagination.pageIndex] ?? null
   const params = useMemo(() => {
@@ -135,16 +139,13 @@ export function JobTable() {
     placeholderData: keepPreviousData,
   })
 
-  useEffect(() => {
-    const next = result.data?.nextCursor
-    if (next && !result.isPlaceholderData) {
-      setCursors((list) => {
-        const copy = list.slice(0, pagination.pageIndex + 1)
-        copy[pagination.pageIndex + 1] = next
-        return copy
-      })
-    }
-  }, [result.data, result.isPlaceholderData, pagination.pageIndex])
+  // The page just loaded names the cursor of the next one; pages after it are forgotten.
+  const next = result.isPlaceholderData ? undefined : result.data?.nextCursor
+  if (next && (cursors[pagination.pageIndex + 1] !== next || cursors.length > pagination.pageIndex + 2)) {
+    const copy = cursors.slice(0, pagination.pageIndex + 1)
+    copy[pagination.pageIndex + 1] = next
+    setCursors(copy)
+  }
 
   const table = useTable({
     features,

@@ -2,7 +2,7 @@
 
 import { useQuery, useQueryClient } from "@tanstack/react-query"
 import { Plus, ShieldAlert, Trash2, TriangleAlert } from "lucide-react"
-import { useEffect, useState } from "react"
+import { useState } from "react"
 import { apiFetch, ApiError } from "@/components/ui/api-fetch"
 import { Button } from "@/components/ui/button"
 import { Field, Input, Select, Textarea } from "@/components/ui/field"
@@ -38,12 +38,15 @@ export function SetupForm({ jobId, taskId, canEdit, isLead, index }: { jobId: st
   const [problem, setProblem] = useState<string | null>(null)
   const [fields, setFields] = useState<Record<string, string>>({})
   const [done, setDone] = useState<string | null>(null)
-  useEffect(() => {
-    if (!setup) return
+  // A stored set-up fills the form when it arrives (or changes), during render: React's "adjusting state when a prop
+  // changes" pattern, without a second render pass from an effect.
+  const [shownSetup, setShownSetup] = useState<SetupView | null>(null)
+  if (setup && setup !== shownSetup) {
+    setShownSetup(setup)
     setRows(setup.measurements.length ? setup.measurements.map(toRow) : [emptyRow()])
     setScanResult(setup.scanResult)
     setScanNotes(setup.scanNotes)
-  }, [setup])
+  }
 
   const refresh = async (fresh: SetupView) => {
     queryClient.setQueryData(["setup", taskId], fresh)

@@ -2,13 +2,23 @@
 
 import { Bell, BellDot } from "lucide-react"
 import Link from "next/link"
-import { useCallback, useEffect, useRef, useState } from "react"
+import { useEffect, useRef, useState } from "react"
 import { cn } from "@/components/ui/cn"
 import { LocalTime } from "@/components/ui/local-time"
 
 type Notice = { id: string; message: string; link: string | null; readAt: string | null; createdAt: string }
 
 const POLL_MS = 60_000
+
+/** The latest notices and the unread count; null when offline or refused (keep what is shown; the next poll tries again). */
+async function fetchNotices(): Promise<{ notifications: Notice[]; unread: number } | null> {
+  try {
+    const res = await fetch("/api/notifications", { cache: "no-store" })
+    return res.ok ? ((await res.json()) as { notifications: Notice[]; unread: number }) : null
+  } catch {
+    return null
+  }
+}
 
 /** The header's bell: unread count as a number badge, the latest notices in a panel, read on open. */
 export function NotificationBell({ className }: { className?: string }) {
@@ -17,23 +27,21 @@ export function NotificationBell({ className }: { className?: string }) {
   const [open, setOpen] = useState(false)
   const panel = useRef<HTMLDivElement>(null)
 
-  const load = useCallback(async () => {
-    try {
-      const res = await fetch("/api/notifications", { cache: "no-store" })
-      if (!res.ok) return
-      const json = (await res.json()) as { notifications: Notice[]; unread: number }
-      setNotices(json.notifications)
-      setUnread(json.unread)
-    } catch {
-      // Offline: keep what we have; the next poll tries again.
-    }
-  }, [])
-
   useEffect(() => {
+    let live = true
+    const load = () =>
+      fetchNotices().then((json) => {
+        if (!live || !json) return
+        setNotices(json.notifications)
+        setUnread(json.unread)
+      })
     void load()
     const timer = setInterval(() => void load(), POLL_MS)
-    return () => clearInterval(timer)
-  }, [load])
+    return () => {
+      live = false
+      clearInterval(timer)
+    }
+  }, [])
 
   useEffect(() => {
     if (!open) return

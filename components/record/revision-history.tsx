@@ -1,11 +1,12 @@
 import { History } from "lucide-react"
 import { VerdictBadge } from "@/components/drives/verdict-badge"
+import type { Verdict } from "@/lib/scoring/types"
 import { LocalTime } from "@/components/ui/local-time"
 
 export interface RevisionRow {
   revision: number
   causeText: string
-  verdict: "met" | "short" | "not_met" | "unverified"
+  verdict: Verdict
   createdAt: string
   byName: string | null
   code: string

@@ -14,16 +14,23 @@ const cacheKey = (driveId: string) => `straightaway.road-test.${driveId}`
  * The drive's road-test checks, from the server (the drive may still be on its way there from the
  * outbox, so this asks again until it is) and kept on the phone for a reload without network.
  */
+function keptChecks(driveId: string): RoadTestCheck[] | null {
+  try {
+    const kept = localStorage.getItem(cacheKey(driveId))
+    return kept ? (JSON.parse(kept) as RoadTestCheck[]) : null
+  } catch {
+    return null
+  }
+}
+
 function useRoadTestChecks(driveId: string | undefined): RoadTestCheck[] | null {
-  const [checks, setChecks] = useState<RoadTestCheck[] | null>(null)
+  // What the phone kept is shown at once for a new drive id (set during render); the server's answer replaces it.
+  const [shown, setShown] = useState<{ driveId: string | undefined; checks: RoadTestCheck[] | null }>({ driveId: undefined, checks: null })
+  if (shown.driveId !== driveId) setShown({ driveId, checks: driveId ? keptChecks(driveId) : null })
   useEffect(() => {
     if (!driveId) return
     let stopped = false
     let timer: ReturnType<typeof setTimeout> | undefined
-    try {
-      const kept = localStorage.getItem(cacheKey(driveId))
-      if (kept) setChecks(JSON.parse(kept) as RoadTestCheck[])
-    } catch {}
     const ask = async (attempt: number) => {
       try {
         const res = await fetch(`/api/drives/${driveId}`, { credentials: "same-origin", cache: "no-store" })
@@ -31,7 +38,7 @@ function useRoadTestChecks(driveId: string | undefined): RoadTestCheck[] | null 
           const body = (await res.json()) as { drive?: { roadTestChecks?: RoadTestCheck[] | null } }
           const list = body.drive?.roadTestChecks ?? []
           if (stopped) return
-          setChecks(list)
+          setShown({ driveId, checks: list })
           try {
             localStorage.setItem(cacheKey(driveId), JSON.stringify(list))
           } catch {}
@@ -46,7 +53,7 @@ function useRoadTestChecks(driveId: string | undefined): RoadTestCheck[] | null 
       if (timer) clearTimeout(timer)
     }
   }, [driveId])
-  return checks
+  return shown.driveId === driveId ? shown.checks : null
 }
 
 const RESULT_LOOK: Record<CheckResult, { Icon: typeof CircleCheck; on: string }> = {

@@ -5,7 +5,7 @@ import type { RoadsView } from "@/app/_server/roads"
 import { formatDuration, formatSpeedMph } from "@/lib/format"
 import { SHARE_CLASSES, createProjection, niceScale, shareClass, type ShareClass } from "@/lib/roads/model"
 
-export const SHARE_FILL: Record<ShareClass, string> = { most: "#f5a30a", often: "#ffbf3d", some: "#ffd27a", rare: "#9aa0a8" }
+const SHARE_FILL: Record<ShareClass, string> = { most: "#f5a30a", often: "#ffbf3d", some: "#ffd27a", rare: "#9aa0a8" }
 const SHARE_OPACITY: Record<ShareClass, number> = { most: 0.95, often: 0.75, some: 0.6, rare: 0.45 }
 export const LOOP_STROKE = ["#0b5f58", "#14a89a", "#6d28d9"] as const
 const LOOP_DASH = ["", "10 6", "3 5"] as const

@@ -3,7 +3,7 @@ import type { Role } from "@/lib/auth/roles"
 export type NavItem = { href: string; label: string; icon: string; roles: Role[] }
 
 // admin sees everything; the order is the order on the bar.
-export const NAV_ITEMS: NavItem[] = [
+const NAV_ITEMS: NavItem[] = [
   { href: "/review", label: "Review", icon: "clipboard-check", roles: ["shop_lead"] },
   { href: "/drives", label: "Drives", icon: "route", roles: ["technician", "co_driver", "shop_lead"] },
   { href: "/record", label: "Record", icon: "circle-dot", roles: ["technician", "shop_lead"] },

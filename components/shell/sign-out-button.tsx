@@ -6,6 +6,8 @@ import { Button } from "@/components/ui/button"
 export function SignOutButton() {
   async function signOut() {
     await fetch("/api/session", { method: "DELETE" }).catch(() => null)
+    // A full page load on purpose: it drops every client cache (queries, the recorder store) with the session.
+    // eslint-disable-next-line @next/next/no-location-assign-relative-destination
     window.location.assign("/sign-in")
   }
   return (

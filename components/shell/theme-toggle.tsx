@@ -1,17 +1,23 @@
 "use client"
 
 import { Moon, Sun } from "lucide-react"
-import { useEffect, useState } from "react"
+import { useSyncExternalStore } from "react"
 import { Button } from "@/components/ui/button"
 
+// The theme lives on <html class="dark"> (set before paint by the layout's inline script); read it from there.
+function watchTheme(onChange: () => void) {
+  const observer = new MutationObserver(onChange)
+  observer.observe(document.documentElement, { attributes: true, attributeFilter: ["class"] })
+  return () => observer.disconnect()
+}
+const isDark = () => document.documentElement.classList.contains("dark")
+
 export function ThemeToggle() {
-  const [dark, setDark] = useState(false)
-  useEffect(() => setDark(document.documentElement.classList.contains("dark")), [])
+  const dark = useSyncExternalStore(watchTheme, isDark, () => false)
   function toggle() {
     const next = !dark
     document.documentElement.classList.toggle("dark", next)
     localStorage.setItem("straightaway-theme", next ? "dark" : "light")
-    setDark(next)
   }
   return (
     <Button variant="ghost" size="sm" onClick={toggle} aria-label={dark ? "Use the light theme" : "Use the dark theme"} className="min-h-12 min-w-12">

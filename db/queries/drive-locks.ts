@@ -12,7 +12,7 @@ export type DriveWithSampleSpan = Drive & { first_sample_t: number | null; last_
 
 /** The drive, locked FOR KEY SHARE until the transaction ends; with `sampleSpan`, its first and last sample times too. */
 export async function findDriveForKeyShare(trx: Db, driveId: string, shopId: string, opts: { sampleSpan?: boolean } = {}): Promise<DriveWithSampleSpan | undefined> {
-  let q = trx.selectFrom("drive").selectAll("drive").where("drive.id", "=", driveId).where("drive.shop_id", "=", shopId)
+  const q = trx.selectFrom("drive").selectAll("drive").where("drive.id", "=", driveId).where("drive.shop_id", "=", shopId)
   const row = opts.sampleSpan
     ? await q
         .select([

@@ -3,11 +3,11 @@ import { sql } from "kysely"
 import type { Db } from "../client"
 import { driveKey } from "./samples"
 import { harshEventCountSql } from "./scores"
-import type { Drive, DriveStatus, JobStatus, VerdictValue } from "../types"
+import type { Drive, DriveStatus, JobStatus, Verdict } from "../types"
 import type { TimeCursor } from "@/lib/validation/drive"
 import { cursorTimeSql, keysetPage } from "./paging"
 
-export const DRIVE_PAGE_SIZE = 50
+const DRIVE_PAGE_SIZE = 50
 
 export async function findDriveInShop(db: Db, driveId: string, shopId: string): Promise<Drive | undefined> {
   return db.selectFrom("drive").selectAll().where("id", "=", driveId).where("shop_id", "=", shopId).executeTakeFirst()
@@ -56,7 +56,7 @@ export async function insertDrive(db: Db, v: NewDriveValues): Promise<boolean> {
 }
 
 export interface DriveListFilter {
-  verdict?: VerdictValue
+  verdict?: Verdict
   status?: DriveStatus
   /** Co-drivers see only drives that name them. */
   coDriverId?: string
@@ -114,7 +114,7 @@ export async function countDriveData(db: Db, driveId: string, shopId: string) {
   return { samples: Number(samples.n), marks: Number(marks.n) }
 }
 
-export async function markDriveFinished(db: Db, driveId: string, shopId: string, verdict: VerdictValue): Promise<Drive> {
+export async function markDriveFinished(db: Db, driveId: string, shopId: string, verdict: Verdict): Promise<Drive> {
   return db
     .updateTable("drive")
     .set({ status: "finished", verdict, finished_at: sql<Date>`coalesce(finished_at, now())` })
@@ -124,7 +124,7 @@ export async function markDriveFinished(db: Db, driveId: string, shopId: string,
     .executeTakeFirstOrThrow()
 }
 
-export async function setDriveVerdict(db: Db, driveId: string, shopId: string, verdict: VerdictValue) {
+export async function setDriveVerdict(db: Db, driveId: string, shopId: string, verdict: Verdict) {
   await db.updateTable("drive").set({ verdict }).where("id", "=", driveId).where("shop_id", "=", shopId).execute()
 }
 

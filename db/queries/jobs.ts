@@ -3,7 +3,8 @@ import type { JobSort } from "@/lib/validation/job"
 import { assessChecklist } from "@/lib/checklist"
 import { validationFailed } from "@/lib/errors"
 import { checklistSchema, type ChecklistData } from "@/lib/validation/checklist"
-import { isTimestampText, unstorableTextProblem, UUID_TEXT } from "@/lib/validation/storable"
+import { isTimestampText, unstorableTextProblem } from "@/lib/validation/storable"
+import { isUuid } from "@/lib/validation/uuid"
 import { listCompleteAttachmentsForJob } from "./attachments"
 import { listChecklistsForTasks } from "./checklists"
 import { findCurrentProfileVersionById, findDefaultProfileForSensor } from "./profiles"
@@ -105,7 +106,7 @@ export async function listJobs(db: Db, shopId: string, opts: JobListOptions) {
   return { ...keysetPage(rows, opts.limit, (last) => encodeCursor(last.sort_key, last.id)), total: Number(total?.n ?? 0) }
 }
 
-export function encodeCursor(value: string, id: string) {
+function encodeCursor(value: string, id: string) {
   return Buffer.from(JSON.stringify([value, id])).toString("base64url")
 }
 
@@ -118,7 +119,7 @@ export function decodeCursor(cursor: string, sort: JobSort): { value: string; id
     const parsed: unknown = JSON.parse(Buffer.from(cursor, "base64url").toString("utf8"))
     if (!Array.isArray(parsed) || parsed.length !== 2) return null
     const [value, id] = parsed
-    if (typeof value !== "string" || typeof id !== "string" || !UUID_TEXT.test(id)) return null
+    if (typeof value !== "string" || typeof id !== "string" || !isUuid(id)) return null
     if (unstorableTextProblem(value)) return null
     if ((sort === "createdAt" || sort === "updatedAt") && !isTimestampText(value)) return null
     if (sort === "status" && !/^[0-4]$/.test(value)) return null
@@ -175,7 +176,7 @@ export function findTaskInJob(db: Db, taskId: string, jobId: string, shopId: str
     .executeTakeFirst()
 }
 
-export function listDrivesForJob(db: Db, jobId: string, shopId: string, onlyCoDriverId?: string) {
+function listDrivesForJob(db: Db, jobId: string, shopId: string, onlyCoDriverId?: string) {
   let q = db
     .selectFrom("drive")
     .select(["id", "task_id", "status", "verdict", "review_status", "created_at", "finished_at"])
@@ -362,7 +363,6 @@ export async function loadJobDetail(db: Db, jobId: string, shopId: string, opts:
     settings: { units: settings.units, tirePressureTolerancePsi: settings.tirePressureTolerancePsi },
   }
 }
-export type JobDetail = NonNullable<Awaited<ReturnType<typeof loadJobDetail>>>
 
 /**
  * Task rows with their condition profile: the one named (it must be the shop's), else the shop's default

@@ -33,7 +33,7 @@ export async function insertMarks(
 }
 
 /** Removes one mark (the recorder's undo). Returns whether a mark went. */
-export async function deleteMark(db: Db, driveId: string, shopId: string, markId: string): Promise<boolean> {
+async function deleteMark(db: Db, driveId: string, shopId: string, markId: string): Promise<boolean> {
   const res = await db
     .deleteFrom("mark")
     .where("id", "=", markId)

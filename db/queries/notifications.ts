@@ -1,6 +1,6 @@
 import type { Db } from "../client"
 
-export const NOTIFICATION_PAGE_SIZE = 30
+const NOTIFICATION_PAGE_SIZE = 30
 
 export async function insertNotification(db: Db, n: { shopId: string; userId: string; message: string; link: string | null }) {
   return db

@@ -41,17 +41,8 @@ function toInfo({ road_test_checks, ...row }: VersionRow): ProfileVersionInfo {
   return { ...row, settings: resolveProfile(row.settings as Profile), roadTestChecks: resolveRoadTestChecks(road_test_checks, row.sensor) }
 }
 
-export function resolveRoadTestChecks(stored: unknown[] | null, sensor: string | null): RoadTestCheck[] {
+function resolveRoadTestChecks(stored: unknown[] | null, sensor: string | null): RoadTestCheck[] {
   return stored ? (stored as RoadTestCheck[]) : defaultRoadTestChecks(sensor)
-}
-
-/** The current version of the profile a job task uses; undefined when the task has none or is not in the shop. */
-export async function findProfileVersionForTask(db: Db, taskId: string, shopId: string): Promise<ProfileVersionInfo | undefined> {
-  const row = await versionQuery(db, shopId)
-    .innerJoin("job_task as t", (j) => j.onRef("t.profile_id", "=", "p.id").on("t.shop_id", "=", shopId))
-    .where("t.id", "=", taskId)
-    .executeTakeFirst()
-  return row ? toInfo(row) : undefined
 }
 
 /** The current version of the shop's profile with this key (archived ones too, unless told: old links keep working). */
@@ -72,18 +63,6 @@ export async function findCurrentProfileVersionById(db: Db, profileId: string, s
   return row ? toInfo(row) : undefined
 }
 
-/** A profile version by its id (what a drive points at), shop-checked. */
-export async function findProfileVersionById(db: Db, versionId: string, shopId: string): Promise<ProfileVersionInfo | undefined> {
-  const row = await db
-    .selectFrom("condition_profile_version as v")
-    .innerJoin("condition_profile as p", "p.id", "v.profile_id")
-    .select(["p.id as profileId", "p.key", "p.name", "p.sensor", "v.version", "v.id as versionId", "v.settings", "v.road_test_checks"])
-    .where("v.id", "=", versionId)
-    .where("v.shop_id", "=", shopId)
-    .executeTakeFirst()
-  return row ? toInfo(row) : undefined
-}
-
 export async function listProfiles(db: Db, shopId: string, { includeArchived = true } = {}) {
   let q = versionQuery(db, shopId).select(["p.archived", "p.created_at as createdAt", "v.created_at as versionCreatedAt"])
   if (!includeArchived) q = q.where("p.archived", "=", false)
@@ -91,7 +70,7 @@ export async function listProfiles(db: Db, shopId: string, { includeArchived = t
   return rows.map((r) => ({ ...toInfo(r), archived: r.archived, createdAt: r.createdAt, versionCreatedAt: r.versionCreatedAt }))
 }
 
-export function listProfileVersions(db: Db, profileId: string, shopId: string) {
+function listProfileVersions(db: Db, profileId: string, shopId: string) {
   return db
     .selectFrom("condition_profile_version as v")
     .leftJoin("app_user as u", (j) => j.onRef("u.id", "=", "v.created_by").on("u.shop_id", "=", shopId))
@@ -102,7 +81,7 @@ export function listProfileVersions(db: Db, profileId: string, shopId: string) {
     .execute()
 }
 
-export function findProfileInShop(db: Db, profileId: string, shopId: string) {
+function findProfileInShop(db: Db, profileId: string, shopId: string) {
   return db.selectFrom("condition_profile").selectAll().where("id", "=", profileId).where("shop_id", "=", shopId).executeTakeFirst()
 }
 

@@ -1,7 +1,7 @@
 import { sql } from "kysely"
 import type { Score } from "@/lib/scoring/types"
 import type { Db } from "../client"
-import type { RevisionCause, ReviewDecision, VerdictValue } from "../types"
+import type { RevisionCause, ReviewDecision, Verdict } from "../types"
 
 export async function findLatestRevision(db: Db, driveId: string, shopId: string) {
   return db
@@ -34,7 +34,7 @@ export async function insertRevision(db: Db, r: NewRevision) {
       shop_id: r.shopId,
       revision: r.revision,
       cause: r.cause,
-      verdict: r.score.verdict as VerdictValue,
+      verdict: r.score.verdict as Verdict,
       result: JSON.stringify(r.score),
       review_decision: r.reviewDecision,
       digest: r.digest,

@@ -71,4 +71,3 @@ export function setupJson(row: SetupRow) {
     updatedAt: row.updated_at,
   }
 }
-export type SetupJson = ReturnType<typeof setupJson>

@@ -2,14 +2,6 @@ import type { Db } from "../client"
 
 export type VehicleFields = { vin: string; year: number | null; make: string | null; model: string | null; plate: string | null }
 
-export function findVehicleInShop(db: Db, id: string, shopId: string) {
-  return db.selectFrom("vehicle").selectAll().where("id", "=", id).where("shop_id", "=", shopId).executeTakeFirst()
-}
-
-export function findVehicleByVin(db: Db, vin: string, shopId: string) {
-  return db.selectFrom("vehicle").selectAll().where("vin", "=", vin).where("shop_id", "=", shopId).orderBy("created_at").executeTakeFirst()
-}
-
 /**
  * The shop's vehicle with this VIN, its details refreshed from the newest intake (a blank box keeps what
  * was known), or a new one. One statement on the (shop_id, vin) unique index: two intakes at once share one row.

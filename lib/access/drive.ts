@@ -1,5 +1,7 @@
 // Who may do what with a drive, and what a finished drive does to its job. Pure: callers load the rows.
 import type { Role } from "@/lib/auth/roles"
+import type { JobStatus, ReviewStatus } from "@/lib/labels"
+import type { Verdict } from "@/lib/scoring/types"
 
 export interface DriveActor {
   id: string
@@ -12,7 +14,7 @@ export interface DriveAccessFacts {
   driverId: string
   coDriverId: string | null
   status: "recording" | "finished"
-  reviewStatus: "approved" | "redo" | null
+  reviewStatus: ReviewStatus | null
 }
 
 /** Any role of the drive's shop, except a co-driver, who sees only drives that name them. */
@@ -45,22 +47,21 @@ export function recordingIsOpen(drive: Pick<DriveAccessFacts, "reviewStatus">): 
   return drive.reviewStatus === null
 }
 
-export type JobStatus = "open" | "drive" | "review" | "complete" | "redo"
 
-export interface TaskDriveFacts {
+interface TaskDriveFacts {
   /** Tasks whose method is only "static" need no drive. */
   needsDrive: boolean
   /** The task's latest drive (by start), if any. */
   latest: {
     status: "recording" | "finished"
-    verdict: "met" | "short" | "not_met" | "unverified" | null
+    verdict: Verdict | null
     harshEvents: number
-    reviewStatus: "approved" | "redo" | null
+    reviewStatus: ReviewStatus | null
   } | null
 }
 
 /** A finished drive needs a lead's look when its verdict is not met or it had harsh events. */
-export function driveNeedsReview(d: { verdict: string | null; harshEvents: number }): boolean {
+function driveNeedsReview(d: { verdict: string | null; harshEvents: number }): boolean {
   return d.verdict !== "met" || d.harshEvents > 0
 }
 
@@ -69,7 +70,7 @@ export function driveNeedsReview(d: { verdict: string | null; harshEvents: numbe
  * Review wins when any latest drive (of a task, or of the job without a task) waits for one; complete needs every task that needs a
  * drive to have a finished drive that is met without harsh events, or approved.
  */
-export function jobStatusAfterFinish(tasks: readonly TaskDriveFacts[]): JobStatus {
+function jobStatusAfterFinish(tasks: readonly TaskDriveFacts[]): JobStatus {
   const relevant = tasks.filter((t) => t.needsDrive)
   const waitingForReview = tasks.some(
     (t) => t.latest?.status === "finished" && t.latest.reviewStatus === null && driveNeedsReview(t.latest),
@@ -93,8 +94,8 @@ export interface JobTaskRow {
 export interface JobDriveRow {
   task_id: string | null
   status: "recording" | "finished"
-  verdict: "met" | "short" | "not_met" | "unverified" | null
-  review_status: "approved" | "redo" | null
+  verdict: Verdict | null
+  review_status: ReviewStatus | null
   harsh_events: number | string
 }
 

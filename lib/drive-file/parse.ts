@@ -11,10 +11,10 @@ export type ParseDriveFileResult =
   | { ok: false; path: string; message: string }
 
 /** Path of the whole document, used when the file itself is not an object. */
-export const ROOT_PATH = "file"
+const ROOT_PATH = "file"
 
 /** ["samples", 3, "lat"] -> "samples[3].lat" */
-export function formatIssuePath(path: ReadonlyArray<PropertyKey>): string {
+function formatIssuePath(path: ReadonlyArray<PropertyKey>): string {
   let out = ""
   for (const key of path) {
     if (typeof key === "number") out += `[${key}]`
@@ -29,7 +29,7 @@ export function formatFieldKey(path: ReadonlyArray<PropertyKey>): string {
 }
 
 /** zod's generic wording turned into the plain kind used across the drive file. */
-export function issueMessage(issue: z.core.$ZodIssue): string {
+function issueMessage(issue: z.core.$ZodIssue): string {
   // Our schemas give every check its own message; this only catches zod's stock wording.
   if (!issue.message.startsWith("Invalid")) return issue.message
   switch (issue.code) {

@@ -11,11 +11,11 @@ export const CHECK_RESULTS = ["pass", "fail", "not_equipped"] as const
 export type CheckResult = (typeof CHECK_RESULTS)[number]
 
 /** `required`: the check must pass; `where_equipped`: it may be marked not equipped instead. */
-export const CHECK_NEEDS = ["required", "where_equipped"] as const
-export type CheckNeed = (typeof CHECK_NEEDS)[number]
+const CHECK_NEEDS = ["required", "where_equipped"] as const
+type CheckNeed = (typeof CHECK_NEEDS)[number]
 
-export const CHECK_KEY_PATTERN = /^[a-z0-9]+(-[a-z0-9]+)*$/
-export const MAX_ROAD_TEST_CHECKS = 40
+const CHECK_KEY_PATTERN = /^[a-z0-9]+(-[a-z0-9]+)*$/
+const MAX_ROAD_TEST_CHECKS = 40
 
 export const checkKeySchema = z
   .string({ error: (iss) => (iss.input === undefined ? "is required" : "must be text") })
@@ -23,7 +23,7 @@ export const checkKeySchema = z
   .max(60, { error: "must be at most 60 characters" })
   .regex(CHECK_KEY_PATTERN, { error: "must be lower-case letters and digits joined by dashes (e.g. lane-keeping)" })
 
-export const roadTestCheckSchema = z.object({
+const roadTestCheckSchema = z.object({
   key: checkKeySchema,
   system: z.enum(ROAD_TEST_SYSTEMS, { error: `must be one of ${ROAD_TEST_SYSTEMS.join(", ")}` }),
   label: z

@@ -14,10 +14,10 @@ export const MARK_KINDS = [
   "note",
 ] as const
 /** Version 2 adds the road-test `check` mark (see lib/drive-file/FORMAT-2.md). */
-export const MARK_KINDS_2 = [...MARK_KINDS, "check"] as const
+const MARK_KINDS_2 = [...MARK_KINDS, "check"] as const
 export type MarkKind = (typeof MARK_KINDS_2)[number]
 
-export const NOTE_MAX_CHARS = 2000
+const NOTE_MAX_CHARS = 2000
 
 // Every check carries its own plain message; issueMessage() covers zod's generic type errors.
 const finite = (what: string) => z.number({ error: (iss) => typeMessage(iss.input, what) })
@@ -76,7 +76,7 @@ function checkMarkFields(mark: MarkShape, ctx: z.core.$RefinementCtx<MarkShape>)
 
 export const markSchema = markObject.superRefine(checkMarkFields)
 /** A mark of a `straightaway.drive/2` file: version 1's kinds plus `check` with `checkKey` and `result`. */
-export const markSchema2 = markObject2.superRefine(checkMarkFields)
+const markSchema2 = markObject2.superRefine(checkMarkFields)
 
 /** A mark posted to the API: the file's mark plus a client-made id so a replayed batch stores once. */
 export const apiMarkSchema = markObject2

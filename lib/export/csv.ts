@@ -17,7 +17,7 @@ export const SAMPLE_CSV_COLUMNS = [
   "drop_reason",
 ] as const
 
-export const MARK_CSV_COLUMNS = ["time_utc", "t_ms", "kind", "gap_ft", "text"] as const
+const MARK_CSV_COLUMNS = ["time_utc", "t_ms", "kind", "gap_ft", "text"] as const
 
 /** Every sample in time order (RFC 4180, CRLF), with whether the scorer kept it and why not. */
 export function toCsv(file: DriveFile): string {

@@ -3,8 +3,8 @@ import type { LeadState } from "@/lib/scoring/lead-state"
 import { resolveProfile } from "@/lib/drive-file/profile"
 import { MARK_LABELS, classifySamples, formatDecimal, isoUtc, leadStatesAt, sortMarks } from "./shared"
 
-export const GPX_NAMESPACE = "http://www.topografix.com/GPX/1/1"
-export const STRAIGHTAWAY_GPX_NAMESPACE = "https://straightaway.invalid/gpx/1"
+const GPX_NAMESPACE = "http://www.topografix.com/GPX/1/1"
+const STRAIGHTAWAY_GPX_NAMESPACE = "https://straightaway.invalid/gpx/1"
 
 export interface GpxMeta {
   name?: string

@@ -2,7 +2,7 @@ import type { AnyDriveFile as DriveFile, Mark2 as Mark, Sample } from "@/lib/dri
 import { resolveProfile } from "@/lib/drive-file/profile"
 import { applyLeadMark, type LeadState } from "@/lib/scoring/lead-state"
 
-export type DropReason = "accuracy" | "duplicate-time"
+type DropReason = "accuracy" | "duplicate-time"
 
 export interface SampleRow {
   sample: Sample

@@ -141,11 +141,11 @@ export function speedUnit(units: UnitSystem): "mph" | "km/h" {
   return units === "metric" ? "km/h" : "mph"
 }
 
-export function lengthUnit(units: UnitSystem): "ft" | "m" {
+function lengthUnit(units: UnitSystem): "ft" | "m" {
   return units === "metric" ? "m" : "ft"
 }
 
-export function distanceUnit(units: UnitSystem): "mi" | "km" {
+function distanceUnit(units: UnitSystem): "mi" | "km" {
   return units === "metric" ? "km" : "mi"
 }
 
@@ -199,8 +199,4 @@ export function formatAcceleration(mps2: number | null | undefined): string {
 /** "1 event", "2 events", "0 events". */
 export function plural(n: number, singular: string, pluralForm = `${singular}s`): string {
   return `${n} ${n === 1 ? singular : pluralForm}`
-}
-
-export function describeUnits(units: UnitSystem): string {
-  return units === "metric" ? "km/h, km and metres" : "mph, miles and feet"
 }

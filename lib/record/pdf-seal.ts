@@ -15,7 +15,7 @@ export function verifyLink(seal: RecordSeal): string {
 }
 
 /** When the revision was sealed, in the shop's time zone with the zone named, as every time on the record. */
-export function sealedAtWords(seal: RecordSeal, timeZone?: string | null): string {
+function sealedAtWords(seal: RecordSeal, timeZone?: string | null): string {
   return formatDateTime(seal.revisedAt, timeZone, { zoneName: true })
 }
 

@@ -19,7 +19,7 @@ const RULE = rgb(0.82, 0.84, 0.85)
 const BAND = rgb(0.99, 0.9, 0.66)
 const LINE = rgb(0.16, 0.18, 0.2)
 
-export const SPEED_CHART_TITLE = "Speed over time"
+const SPEED_CHART_TITLE = "Speed over time"
 
 function niceStep(span: number): number {
   const raw = span / 4

@@ -4,7 +4,7 @@
 import { createHash } from "node:crypto"
 import canonicalize from "canonicalize"
 
-export const SEAL_FORMAT = "straightaway.record/1"
+const SEAL_FORMAT = "straightaway.record/1"
 
 export interface SealInput {
   driveId: string
@@ -86,7 +86,7 @@ export function recordDigest(input: SealInput, driveFileJson?: string): string {
 
 // Crockford's base 32 (no I, L, O, U): read aloud and typed without mix-ups.
 const CROCKFORD = "0123456789ABCDEFGHJKMNPQRSTVWXYZ"
-export const CODE_LENGTH = 12
+const CODE_LENGTH = 12
 
 /** The first 60 bits of the digest in Crockford base 32, grouped 4-4-4: `7KQ2-M9XD-44TB`. */
 export function verificationCode(digestHex: string): string {

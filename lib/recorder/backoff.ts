@@ -6,7 +6,7 @@ export interface BackoffOptions {
   maxMs?: number
 }
 
-export const BACKOFF_BASE_MS = 1000
+const BACKOFF_BASE_MS = 1000
 export const BACKOFF_MAX_MS = 60_000
 
 /** The exponential ceiling for the n-th retry (attempt 1 = first retry). */

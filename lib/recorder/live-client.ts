@@ -6,14 +6,14 @@ import type { Score } from "@/lib/scoring/types"
 
 export type LiveMark = ApiMark & { seq?: number }
 
-export interface LiveStatus {
+interface LiveStatus {
   status: "recording" | "finished"
   verdict: string | null
   reviewStatus: string | null
   finishedAt: string | null
 }
 
-export interface LiveSnapshot {
+interface LiveSnapshot {
   lastEventId: number
   drive: LiveStatus & { id: string; roNumber: string | null; vehicleDescription: string | null; createdAt: string }
   marks: LiveMark[]

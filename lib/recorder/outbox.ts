@@ -40,7 +40,7 @@ export type FlushOutcome =
   | { kind: "signed-out"; sent: number }
 
 let counter = 0
-export function outboxKey(nowMs: number): string {
+function outboxKey(nowMs: number): string {
   counter = (counter + 1) % 1_000_000
   return `${String(nowMs).padStart(15, "0")}-${String(counter).padStart(6, "0")}-${Math.random().toString(36).slice(2, 8)}`
 }
@@ -85,7 +85,7 @@ function requestFor(group: OutboxItem[]): { method: "POST" | "DELETE"; path: str
 }
 
 /** What to do with an answer: 2xx done; 401 wait for sign-in; other 4xx final; 5xx and no answer retry. */
-export function classifyStatus(status: number): "ok" | "signed-out" | "refused" | "retry" {
+function classifyStatus(status: number): "ok" | "signed-out" | "refused" | "retry" {
   if (status >= 200 && status < 300) return "ok"
   if (status === 401) return "signed-out"
   if (status >= 400 && status < 500 && status !== 408 && status !== 429) return "refused"

@@ -29,7 +29,7 @@ import { connectLive, type LiveConnection, type LiveLink, type LiveMark } from "
 import { flushOutbox, makeItem, type OutboxItem, type Transport } from "./outbox"
 import { positionToSample, type GpsState } from "./position"
 
-export type SyncState = "idle" | "sending" | "waiting" | "signed-out"
+type SyncState = "idle" | "sending" | "waiting" | "signed-out"
 
 export interface RecorderState {
   meta: DriveMeta | null

@@ -16,12 +16,6 @@ export const CHECK_STATUS_LABEL: Readonly<Record<string, string>> = {
   not_logged: "Not logged",
 }
 
-export const DRIVE_KIND_LABEL: Readonly<Record<string, string>> = {
-  learn: "Drive learn",
-  road_test: "Road test",
-  learn_and_road_test: "Drive learn and road test",
-}
-
 export function checkSpeedWords(minSpeedMph: number | null): string {
   return minSpeedMph === null ? "any speed" : `${minSpeedMph} mph or faster`
 }

@@ -13,7 +13,7 @@ import { createLocalClock, type LocalSlot } from "./clock"
 
 /** Speed histogram: 2 mph buckets from 0; the last bucket holds 100 mph and above. Values are seconds. */
 export const SPEED_BUCKET_MPH = 2
-export const SPEED_BUCKETS = 51
+const SPEED_BUCKETS = 51
 /** `hour` / `weekday` of -1 mean "all": a row per cell for all times, per cell and hour, per cell and weekday. */
 export const ALL = -1
 
@@ -28,7 +28,7 @@ export interface CellStat {
   speedHist: number[]
 }
 
-export interface DriveRoadSummary {
+interface DriveRoadSummary {
   startedAtMs: number
   startLat: number
   startLon: number
@@ -57,7 +57,7 @@ export interface DriveContribution {
 /** [cell, weekday, hour, seconds, qualifying s, following s, harsh events, [bucket, seconds, bucket, seconds, ...]] */
 export type StoredBucket = [string, number, number, number, number, number, number, number[]]
 
-export function speedBucket(speedMps: number): number {
+function speedBucket(speedMps: number): number {
   return Math.min(SPEED_BUCKETS - 1, Math.floor(speedMps / MPS_PER_MPH / SPEED_BUCKET_MPH))
 }
 

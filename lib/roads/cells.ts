@@ -8,7 +8,7 @@ import { cellToBoundary, cellToLatLng, cellToParent, latLngToCell } from "h3-js"
 
 export const ROAD_RESOLUTION = 9
 /** The coarser grid that decides which past drives took the same loop (see loops.ts). */
-export const LOOP_RESOLUTION = 8
+const LOOP_RESOLUTION = 8
 
 const M_PER_DEG_LAT = 110_574
 

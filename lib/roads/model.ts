@@ -11,7 +11,7 @@ export const HOUR_WINDOW = 1
 /** "Starting near the shop": the first sample within this distance of the shop's location. */
 export const NEAR_SHOP_M = 1500
 /** Two drives take the same loop when their res-8 cells overlap this much (Jaccard index). */
-export const SAME_LOOP_OVERLAP = 0.5
+const SAME_LOOP_OVERLAP = 0.5
 
 export interface CellTotals {
   cell: string

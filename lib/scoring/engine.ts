@@ -9,7 +9,7 @@ import { applyLeadMark, type LeadState } from "./lead-state"
  * without their own speed): distance over time across the kept samples within ±1 s in the same
  * stretch without data gaps, and at least one neighbour on each side where the stretch has one.
  */
-export const DERIVED_SPEED_HALF_WINDOW_MS = 1000
+const DERIVED_SPEED_HALF_WINDOW_MS = 1000
 
 /** What the verdict needs from the engine, before wording. */
 export interface EngineTotals {
@@ -427,7 +427,7 @@ export class ScoringEngine {
 
 /** Insert after every element with t <= m.t: sorted by t, ties in arrival order. */
 function insertSortedStable(list: Mark[], m: Mark): void {
-  let i = list.length
+  const i = list.length
   if (i === 0 || list[i - 1]!.t <= m.t) {
     list.push(m)
     return

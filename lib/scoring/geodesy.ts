@@ -6,9 +6,9 @@
 
 export const WGS84_A = 6378137
 export const WGS84_F = 1 / 298.257223563
-export const WGS84_B = WGS84_A * (1 - WGS84_F) // 6356752.314245...
+const WGS84_B = WGS84_A * (1 - WGS84_F) // 6356752.314245...
 /** IUGG mean radius (2a + b) / 3, used only when Vincenty does not converge (near-antipodal points). */
-export const MEAN_EARTH_RADIUS_M = (2 * WGS84_A + WGS84_B) / 3
+const MEAN_EARTH_RADIUS_M = (2 * WGS84_A + WGS84_B) / 3
 
 const DEG = Math.PI / 180
 const A2_MINUS_B2_OVER_B2 = (WGS84_A * WGS84_A - WGS84_B * WGS84_B) / (WGS84_B * WGS84_B)

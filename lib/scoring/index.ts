@@ -1,12 +1,12 @@
 export { scoreDrive, createLiveScorer } from "./score"
-export type { LiveScorer } from "./score"
+
 export { predictMinutesLeft } from "./predict"
-export type { MinutesLeft } from "./predict"
+
 export { geodesicDistanceM } from "./geodesy"
-export { DERIVED_SPEED_HALF_WINDOW_MS } from "./engine"
-export type { Condition, ConditionKey, Score, Verdict } from "./types"
-export { scoreRoadTest, worseVerdict } from "./road-test"
-export type { CheckOutcome, CheckStatus, RoadTestScore } from "./road-test"
-export { DEFAULT_PROFILE, resolveProfile } from "@/lib/drive-file/profile"
-export type { ResolvedProfile } from "@/lib/drive-file/profile"
-export type { AnyDriveFile, DriveFile, DriveFile2, Mark, MarkKind, Profile, Sample } from "@/lib/drive-file/schema"
+
+export type {   Score,  } from "./types"
+export {  worseVerdict } from "./road-test"
+
+
+
+

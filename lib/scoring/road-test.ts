@@ -11,9 +11,9 @@ import type { Verdict } from "./types"
  * - `below_speed`: only passes below the check's speed (or at an unknown speed) were logged: not counted;
  * - `not_logged`: nobody logged it.
  */
-export type CheckStatus = "passed" | "failed" | "not_equipped" | "below_speed" | "not_logged"
+type CheckStatus = "passed" | "failed" | "not_equipped" | "below_speed" | "not_logged"
 
-export interface CheckOutcome extends RoadTestCheck {
+interface CheckOutcome extends RoadTestCheck {
   status: CheckStatus
   /** The result of the mark that decided the status (the latest uncounted pass for below_speed); null when not logged. */
   result: CheckResult | null

@@ -108,7 +108,7 @@ function checkVerification(engine: ScoringEngine, marks: readonly Mark[], cleare
   return out
 }
 
-export function buildScore(engine: ScoringEngine): Score {
+function buildScore(engine: ScoringEngine): Score {
   const profile = engine.profile
   const x = engine.totals()
   const cleared = x.clearedAtMs !== null

@@ -2,9 +2,10 @@ import type { ResolvedProfile } from "@/lib/drive-file/profile"
 import type { DriveKind } from "@/lib/drive-file/road-test"
 import type { RoadTestScore } from "./road-test"
 
-export type Verdict = "met" | "short" | "not_met" | "unverified"
+export const VERDICTS = ["met", "short", "not_met", "unverified"] as const
+export type Verdict = (typeof VERDICTS)[number]
 
-export type ConditionKey =
+type ConditionKey =
   | "cleared"
   | "time-limit"
   | "qualifying-time"

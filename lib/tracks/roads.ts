@@ -6,7 +6,7 @@ import { DRIVE_FORMAT, type DriveFile, type Mark, type Profile, type Sample } fr
 import { MPS_PER_MPH } from "@/lib/units"
 import { createRng } from "./index"
 
-export type RoadKind = "steady" | "stop-and-go" | "winding"
+type RoadKind = "steady" | "stop-and-go" | "winding"
 
 export interface RoadLayout {
   key: string

@@ -10,7 +10,7 @@ export const FUEL_LABEL: Record<FuelLevel, string> = {
   full: "Full",
 }
 
-export const PRESSURE_UNITS = ["psi", "kPa"] as const
+const PRESSURE_UNITS = ["psi", "kPa"] as const
 export type PressureUnit = (typeof PRESSURE_UNITS)[number]
 export const WHEELS = ["fl", "fr", "rl", "rr"] as const
 export type Wheel = (typeof WHEELS)[number]

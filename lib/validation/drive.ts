@@ -1,11 +1,13 @@
 import { z } from "zod"
 import { DRIVE_KINDS, roadTestChecksSchema } from "@/lib/drive-file/road-test"
 import { apiMarkSchema, profileSchema, sampleSchema } from "@/lib/drive-file/schema"
-import { isTimestampText, UUID_TEXT } from "@/lib/validation/storable"
+import { isTimestampText } from "@/lib/validation/storable"
+import { isUuid } from "@/lib/validation/uuid"
+import { VERDICTS } from "@/lib/scoring/types"
 
 /** Samples in one POST; the recorder sends far fewer (a few seconds' worth, or 1,000 when catching up). */
-export const MAX_SAMPLES_PER_BATCH = 10_000
-export const MAX_MARKS_PER_POST = 500
+const MAX_SAMPLES_PER_BATCH = 10_000
+const MAX_MARKS_PER_POST = 500
 /** Drive files sent to import or score: a long drive at 10 Hz is a few MB; room to spare. */
 export const MAX_DRIVE_FILE_BYTES = 20 * 1024 * 1024
 
@@ -35,7 +37,6 @@ export const sampleBatchSchema = z.object({
     .array(sampleSchema, { error: "must be an array" })
     .max(MAX_SAMPLES_PER_BATCH, { error: `must hold at most ${MAX_SAMPLES_PER_BATCH} samples` }),
 })
-export type SampleBatchInput = z.output<typeof sampleBatchSchema>
 
 export const markBatchSchema = z.object({
   marks: z
@@ -43,8 +44,8 @@ export const markBatchSchema = z.object({
     .max(MAX_MARKS_PER_POST, { error: `must hold at most ${MAX_MARKS_PER_POST} marks` }),
 })
 
-export const VERDICT_FILTERS = ["met", "short", "not_met", "unverified"] as const
-export const STATUS_FILTERS = ["recording", "finished"] as const
+const VERDICT_FILTERS = VERDICTS
+const STATUS_FILTERS = ["recording", "finished"] as const
 
 export const listDrivesQuery = z.object({
   verdict: z.enum(VERDICT_FILTERS, { error: `must be one of ${VERDICT_FILTERS.join(", ")}` }).optional(),
@@ -74,6 +75,6 @@ export function parseDriveCursor(cursor: string | undefined): TimeCursor | undef
   // The time keeps PostgreSQL's microseconds so that no row is skipped or repeated between pages.
   // A real date and a real UUID: the database would refuse anything else with an error, not a 400.
   if (!time || !id || !time.endsWith("Z") || !isTimestampText(time)) return null
-  if (!UUID_TEXT.test(id)) return null
+  if (!isUuid(id)) return null
   return { time, id }
 }

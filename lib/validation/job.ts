@@ -2,10 +2,11 @@ import { z } from "zod"
 import { AppError } from "@/lib/errors"
 import { JOB_STATUSES, METHODS, REASONS, SENSORS } from "@/lib/labels"
 import { vinSchema } from "@/lib/validation/vin"
+import { uuidSchema } from "@/lib/validation/uuid"
 
 // The job forms and tables import the task values and their words from here as well.
 export { JOB_STATUS_LABEL, JOB_STATUSES, METHOD_LABEL, METHODS, REASON_LABEL, REASONS, SENSOR_LABEL, SENSORS } from "@/lib/labels"
-export type { JobStatusValue, Method, Reason, Sensor } from "@/lib/labels"
+export type { JobStatus, Method, Reason, Sensor } from "@/lib/labels"
 
 // Forms send "" for an empty optional box; the API treats "" and a missing key alike.
 const optionalText = (max: number) =>
@@ -40,15 +41,15 @@ const optionalYear = z
     return n
   })
 
-export const roNumberSchema = z.string().trim().min(1, "is required").max(40, "must be at most 40 characters")
+const roNumberSchema = z.string().trim().min(1, "is required").max(40, "must be at most 40 characters")
 
-export const customerSchema = z.object({
+const customerSchema = z.object({
   name: z.string().trim().min(1, "is required").max(120, "must be at most 120 characters"),
   email: optionalEmail,
   phone: optionalText(40),
 })
 
-export const vehicleSchema = z.object({
+const vehicleSchema = z.object({
   vin: vinSchema,
   year: optionalYear,
   make: optionalText(60),
@@ -56,8 +57,8 @@ export const vehicleSchema = z.object({
   plate: optionalText(20),
 })
 
-export const taskSchema = z.object({
-  id: z.uuid().optional(),
+const taskSchema = z.object({
+  id: uuidSchema.optional(),
   sensor: z.enum(SENSORS, { error: "must be one of " + SENSORS.join(", ") }),
   method: z.enum(METHODS, { error: "must be one of " + METHODS.join(", ") }),
   reason: z.enum(REASONS, { error: "must be one of " + REASONS.join(", ") }),
@@ -87,9 +88,8 @@ export const jobChangeSchema = z
     tasks: newJobSchema.shape.tasks.optional(),
   })
   .refine((v) => Object.values(v).some((x) => x !== undefined), "Nothing to change.")
-export type JobChange = z.output<typeof jobChangeSchema>
 
-export const JOB_SORTS = ["createdAt", "updatedAt", "roNumber", "customer", "status"] as const
+const JOB_SORTS = ["createdAt", "updatedAt", "roNumber", "customer", "status"] as const
 export type JobSort = (typeof JOB_SORTS)[number]
 
 export const jobListQuerySchema = z.object({
@@ -100,7 +100,6 @@ export const jobListQuerySchema = z.object({
   dir: z.enum(["asc", "desc"]).default("desc"),
   limit: z.coerce.number().int().min(1).max(100).default(25),
 })
-export type JobListQuery = z.output<typeof jobListQuerySchema>
 
 export function duplicateRoError(roNumber: string) {
   return new AppError("conflict", `RO ${roNumber} is already a job in this shop.`, { roNumber: "is already used by another job" })

@@ -16,8 +16,13 @@ export class BodyTooLargeError extends Error {
  * A declared Content-Length over the limit is refused before any byte is read.
  */
 export async function readBodyText(body: ReadableStream<Uint8Array> | null, maxBytes: number, declaredLength?: number): Promise<string> {
+  return (await readBodyBytes(body, maxBytes, declaredLength)).toString("utf8")
+}
+
+/** The body's bytes, read up to `maxBytes` whatever Content-Length says (a chunked body is counted as it comes). */
+export async function readBodyBytes(body: ReadableStream<Uint8Array> | null, maxBytes: number, declaredLength?: number): Promise<Buffer> {
   if (declaredLength !== undefined && Number.isFinite(declaredLength) && declaredLength > maxBytes) throw new BodyTooLargeError(maxBytes)
-  if (!body) return ""
+  if (!body) return Buffer.alloc(0)
   const reader = body.getReader()
   const chunks: Uint8Array[] = []
   let total = 0
@@ -31,7 +36,7 @@ export async function readBodyText(body: ReadableStream<Uint8Array> | null, maxB
     }
     chunks.push(value)
   }
-  return Buffer.concat(chunks, total).toString("utf8")
+  return Buffer.concat(chunks, total)
 }
 
 /**

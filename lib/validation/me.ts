@@ -2,4 +2,3 @@ import { z } from "zod"
 
 /** What a person sets for themselves. */
 export const mySettingsSchema = z.object({ reviewMail: z.boolean() }).strict()
-export type MySettingsInput = z.infer<typeof mySettingsSchema>

@@ -3,7 +3,7 @@ import { profileSchema, roadTestChecksSchema } from "@/lib/drive-file"
 import { isTimeZone } from "@/lib/format"
 import { SENSORS } from "@/lib/labels"
 
-export const profileKeySchema = z
+const profileKeySchema = z
   .string()
   .trim()
   .toLowerCase()
@@ -22,7 +22,6 @@ export const newProfileSchema = z.object({
   /** Absent: the defaults of the profile's sensor (lib/drive-file/road-test.ts). */
   roadTestChecks: roadTestChecksSchema.optional(),
 })
-export type NewProfile = z.output<typeof newProfileSchema>
 
 export const profileChangeSchema = z
   .object({
@@ -33,7 +32,6 @@ export const profileChangeSchema = z
     roadTestChecks: roadTestChecksSchema.optional(),
   })
   .refine((v) => Object.values(v).some((x) => x !== undefined), "Nothing to change.")
-export type ProfileChange = z.output<typeof profileChangeSchema>
 
 export function keyFromName(name: string): string {
   const key = name

@@ -1,12 +1,13 @@
 import { z } from "zod"
 import { SHARE_MAX_DAYS } from "@/lib/share"
+import { REVIEW_DECISIONS } from "@/lib/labels"
 
-export const REVIEW_NOTE_MAX_CHARS = 2000
+const REVIEW_NOTE_MAX_CHARS = 2000
 
 /** A redo needs a note saying what to do differently; an approval may carry one. */
 export const reviewSchema = z
   .object({
-    decision: z.enum(["approve", "redo"], { error: "must be approve or redo" }),
+    decision: z.enum(REVIEW_DECISIONS, { error: "must be approve or redo" }),
     note: z.string({ error: "must be text" }).trim().max(REVIEW_NOTE_MAX_CHARS, { error: `must be at most ${REVIEW_NOTE_MAX_CHARS} characters` }).default(""),
   })
   .superRefine((v, ctx) => {

@@ -50,7 +50,6 @@ export function findUnstorableText(value: unknown): { path: string; problem: str
 }
 
 /** The 8-4-4-4-12 hex form PostgreSQL's uuid type reads (any version). */
-export const UUID_TEXT = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i
 
 /**
  * Whether text is a calendar timestamp PostgreSQL's timestamptz reads without an error: ISO 8601

@@ -5,7 +5,6 @@ export const MAX_UPLOAD_BYTES = 15 * 1024 * 1024
 
 export const ALLOWED_UPLOAD_TYPES = ["image/jpeg", "image/png", "image/webp", "image/heic", "application/pdf"] as const
 export type UploadType = (typeof ALLOWED_UPLOAD_TYPES)[number]
-export const PHOTO_TYPES: readonly string[] = ["image/jpeg", "image/png", "image/webp", "image/heic"]
 
 export const uploadRequestSchema = z.object({
   jobId: z.uuid("must be a job id"),
@@ -19,7 +18,6 @@ export const uploadRequestSchema = z.object({
   contentType: z.string().trim().toLowerCase().min(1, "is required").max(100),
   size: z.number().int("must be a whole number of bytes").positive("must be more than 0 bytes"),
 })
-export type UploadRequest = z.output<typeof uploadRequestSchema>
 
 export function isAllowedUploadType(contentType: string): contentType is UploadType {
   return (ALLOWED_UPLOAD_TYPES as readonly string[]).includes(contentType)

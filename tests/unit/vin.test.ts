@@ -98,7 +98,7 @@ describe("single-character changes", () => {
   it.each(PUBLISHED_VINS)("rejects every change of $vin to a character of a different value", ({ vin }) => {
     let mutations = 0
     for (let position = 1; position <= 17; position++) {
-      const original = vin[position - 1]
+      const original = vin[position - 1]!
       for (const char of LEGAL) {
         if (char === original) continue
         // Off position 9, a letter of equal value leaves the sum unchanged: only different values must fail.
@@ -133,7 +133,7 @@ describe("single-character changes", () => {
           expect(result.expectedCheckDigit).toBe(result.checkDigit)
           expect(result.problems.some((p) => p.startsWith("Position 9"))).toBe(false)
 
-          const original = vin[position - 1]
+          const original = vin[position - 1]!
           fc.pre(CFR_VALUES[replacement] !== CFR_VALUES[original])
           const mutated = checkVin(replaceAt(vin, position, replacement))
           expect(mutated.valid).toBe(false)
@@ -288,12 +288,12 @@ describe("vinSchema", () => {
   it("rejects a bad VIN with the first problem as its message", () => {
     const parsed = vinSchema.safeParse("1J9RP1A37A1644345")
     expect(parsed.success).toBe(false)
-    expect(parsed.error?.issues[0].message).toBe("Position 9 is 7 but the check digit works out to 6.")
+    expect(parsed.error?.issues[0]?.message).toBe("Position 9 is 7 but the check digit works out to 6.")
   })
 
   it("rejects a short VIN by its length first", () => {
     const parsed = vinSchema.safeParse("1J9RP1A36A16443O")
-    expect(parsed.error?.issues[0].message).toBe("VIN has 16 characters; it needs 17.")
+    expect(parsed.error?.issues[0]?.message).toBe("VIN has 16 characters; it needs 17.")
   })
 })
 

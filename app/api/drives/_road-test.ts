@@ -19,7 +19,7 @@ import { SENSOR_LABEL } from "@/lib/labels"
 import { describeMeasurement, isOutOfTolerance, type SetupMeasurement } from "@/lib/setup"
 
 /** A task's method says what its drive is for unless the caller says: static -> road test, both -> learn and road test. */
-export function driveKindFor(method: string | null | undefined, asked: DriveKind | undefined): DriveKind {
+function driveKindFor(method: string | null | undefined, asked: DriveKind | undefined): DriveKind {
   if (asked) return asked
   if (method === "static") return "road_test"
   if (method === "both") return "learn_and_road_test"

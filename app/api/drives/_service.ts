@@ -125,11 +125,6 @@ export function driveJson(drive: Drive, extra: Record<string, unknown> = {}) {
   }
 }
 
-/** Scores the stored samples and marks against the drive's frozen profile. */
-export async function scoreStoredDrive(db: Db, driveId: string, shopId: string): Promise<Score> {
-  return scoreDrive(await loadDriveFile(db, driveId, shopId))
-}
-
 /**
  * Finish (or finish again): store the score and verdict, mark the drive finished, move its job on, and seal
  * a revision of the record when it changed. Call inside a transaction holding the drive FOR UPDATE (or on a

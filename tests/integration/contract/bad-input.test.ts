@@ -5,7 +5,7 @@ import { beforeAll, describe, expect, it } from "vitest"
 import { withCheckDigit } from "@/lib/vin"
 import type { ApiClient, ApiResponse } from "../../helpers/http"
 import { inventedVin } from "../jobs/helpers"
-import { buildWorld, checklistBody, driveFile, expectErrorShape, samplesOf, snapshotShop, type World } from "./world"
+import { buildWorld, checklistBody, driveFile, expectErrorShape, snapshotShop, type World } from "./world"
 
 let w: World
 

@@ -98,8 +98,8 @@ describe("thumbnails made at upload", () => {
     expect([meta.width, meta.height]).toEqual([213, 320])
     const [lr, , lb] = await pixel(thumb.bytes, 20, 160)
     const [rr, , rb] = await pixel(thumb.bytes, 193, 160)
-    expect(lb).toBeGreaterThan(lr + 100) // left: blue
-    expect(rr).toBeGreaterThan(rb + 100) // right: red
+    expect(lb).toBeGreaterThan(lr! + 100) // left: blue
+    expect(rr).toBeGreaterThan(rb! + 100) // right: red
     expect(meta.orientation).toBeUndefined()
     expect(meta.exif).toBeUndefined()
     // Far smaller than the photo: under 3 % of its bytes.
@@ -125,7 +125,7 @@ describe("thumbnails made at upload", () => {
     const meta = await sharp(thumb.bytes).metadata()
     expect([meta.format, meta.width, meta.height]).toEqual(["jpeg", 320, 213])
     const [gr, gg] = await pixel(thumb.bytes, 40, 100)
-    expect(gg).toBeGreaterThan(gr + 60) // the green half
+    expect(gg).toBeGreaterThan(gr! + 60) // the green half
     const white = await pixel(thumb.bytes, 280, 100)
     for (const c of white) expect(c).toBeGreaterThan(240)
   })

@@ -65,12 +65,12 @@ describe("POST /api/uploads", () => {
 describe("POST /api/uploads/:id/complete", () => {
   it("completes a PNG whose bytes are a PNG, and lists it on the job with a link that serves the file", async () => {
     const tech = await signedIn(shop.tech)
-    const start = await tech.post("/api/uploads", { jobId: job.id, taskId: job.tasks[0].id, filename: "tires.png", contentType: "image/png", size: TINY_PNG.length })
+    const start = await tech.post("/api/uploads", { jobId: job.id, taskId: job.tasks[0]!.id, filename: "tires.png", contentType: "image/png", size: TINY_PNG.length })
     expect(start.status).toBe(201)
     await putToPresignedUrl(start.body.uploadUrl, "image/png", TINY_PNG)
     const done = await tech.post(`/api/uploads/${start.body.attachmentId}/complete`)
     expect(done.status).toBe(200)
-    expect(done.body.attachment).toMatchObject({ id: start.body.attachmentId, taskId: job.tasks[0].id, contentType: "image/png", size: TINY_PNG.length })
+    expect(done.body.attachment).toMatchObject({ id: start.body.attachmentId, taskId: job.tasks[0]!.id, contentType: "image/png", size: TINY_PNG.length })
     expect(done.body.attachment.thumbnailUrl).toContain(start.body.attachmentId)
 
     const detail = await tech.get(`/api/jobs/${job.id}`)

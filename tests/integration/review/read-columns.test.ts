@@ -5,7 +5,8 @@ import { randomUUID } from "node:crypto"
 import { sql } from "kysely"
 import { describe, expect, it } from "vitest"
 import { listDrivesForNumbers, loadNumbersSummary } from "@/db/queries/numbers"
-import { computeNumbers, type NumbersDrive, type NumbersVerdict } from "@/lib/numbers"
+import { computeNumbers, type NumbersDrive } from "@/lib/numbers"
+import type { Verdict } from "@/lib/scoring/types"
 import { listReviewQueue } from "@/db/queries/reviews"
 import { scoreDrive, type Score } from "@/lib/scoring"
 import { generateDrive, PATTERN_MIN_MINUTES, type DrivePattern } from "@/lib/tracks"
@@ -65,7 +66,7 @@ function asNumbersDrive(r: Awaited<ReturnType<typeof oldNumbers>>[number]): Numb
   return {
     driveId: r.id,
     finishedAt: new Date(r.finished_at ?? 0).toISOString(),
-    verdict: (r.verdict ?? "not_met") as NumbersVerdict,
+    verdict: (r.verdict ?? "not_met") as Verdict,
     profileName: r.profile_name ?? "Profile set on the drive",
     technicianId: r.driver_id,
     technicianName: r.driver_name ?? "Former staff",

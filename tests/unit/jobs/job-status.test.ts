@@ -22,7 +22,7 @@ describe("jobStatusFromDrives", () => {
   it("keeps the job driving while another task that needs a drive has none; a static task needs none", () => {
     const tasks = [{ id: "t1", method: "dynamic" }, { id: "t2", method: "both" }]
     expect(jobStatusFromDrives({ tasks, drives: [met] })).toBe("drive")
-    expect(jobStatusFromDrives({ tasks: [tasks[0], { id: "t2", method: "static" }], drives: [met] })).toBe("complete")
+    expect(jobStatusFromDrives({ tasks: [tasks[0]!, { id: "t2", method: "static" }], drives: [met] })).toBe("complete")
   })
 
   it("counts an approved drive as done and a drive without a task against the job as a whole", () => {

@@ -60,8 +60,13 @@ function direct(files: DriveFile[]) {
       let gap: number | null = null
       for (const m of marks) {
         if (m.t > a.t) break
-        if (m.kind === "lead-on") (leadOn = true), (gap = m.gapFt ?? null)
-        else if (m.kind === "lead-off") (leadOn = false), (gap = null)
+        if (m.kind === "lead-on") {
+          leadOn = true
+          gap = m.gapFt ?? null
+        } else if (m.kind === "lead-off") {
+          leadOn = false
+          gap = null
+        }
         else if (m.kind === "gap" && leadOn) gap = m.gapFt ?? gap
       }
       const v = speedOf(i)

@@ -24,16 +24,16 @@ import { canSeeDrive } from "@/lib/access/drive"
 import { hasRole } from "@/lib/auth/roles"
 import { DECISION_WORD, describeVehicle, roLabel, MARK_LABEL, METHOD_LABEL, REASON_LABEL, SENSOR_LABEL } from "@/lib/record"
 import { downsampleTimeline } from "@/lib/record/downsample"
+import { isUuid } from "@/lib/validation/uuid"
 
 export const metadata: Metadata = { title: "Drive" }
 export const dynamic = "force-dynamic"
 
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i
 
 export default async function DrivePage({ params }: { params: Promise<{ driveId: string }> }) {
   const me = await requirePageRole()
   const { driveId } = await params
-  if (!UUID.test(driveId)) notFound()
+  if (!isUuid(driveId)) notFound()
   const db = getDb()
   const loaded = await loadRecordData(db, driveId, me.shopId, { photos: false })
   if (!loaded) notFound()

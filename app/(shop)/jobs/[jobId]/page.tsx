@@ -6,13 +6,14 @@ import { PageHeader } from "@/components/ui/page-header"
 import { getDb } from "@/db/client"
 import { loadJobDetail } from "@/db/queries/jobs"
 import { roLabel } from "@/lib/record"
+import { isUuid } from "@/lib/validation/uuid"
 
 export const metadata: Metadata = { title: "Job" }
 
 export default async function JobPage({ params }: { params: Promise<{ jobId: string }> }) {
   const user = await requirePageRole("technician", "shop_lead")
   const { jobId } = await params
-  if (!/^[0-9a-f-]{36}$/i.test(jobId)) notFound()
+  if (!isUuid(jobId)) notFound()
   const job = await loadJobDetail(getDb(), jobId, user.shopId)
   if (!job) notFound()
   // Dates go to the client as the API gives them (ISO strings).

@@ -10,13 +10,14 @@ import { getDb } from "@/db/client"
 import { loadProfileDetail } from "@/db/queries/profiles"
 import { findShopSettings } from "@/db/queries/shop-settings"
 import { hasRole } from "@/lib/auth/roles"
+import { isUuid } from "@/lib/validation/uuid"
 
 export const metadata: Metadata = { title: "Condition profile" }
 
 export default async function ProfilePage({ params }: { params: Promise<{ profileId: string }> }) {
   const user = await requirePageRole("technician", "shop_lead")
   const { profileId } = await params
-  if (!/^[0-9a-f-]{36}$/i.test(profileId)) notFound()
+  if (!isUuid(profileId)) notFound()
   const db = getDb()
   const [detail, { units }] = await Promise.all([loadProfileDetail(db, profileId, user.shopId), findShopSettings(db, user.shopId)])
   if (!detail) notFound()

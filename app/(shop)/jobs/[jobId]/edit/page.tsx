@@ -9,13 +9,14 @@ import { getDb } from "@/db/client"
 import { loadJobDetail } from "@/db/queries/jobs"
 import { roLabel } from "@/lib/record"
 import type { Method, Reason, Sensor } from "@/lib/validation/job"
+import { isUuid } from "@/lib/validation/uuid"
 
 export const metadata: Metadata = { title: "Edit job" }
 
 export default async function EditJobPage({ params }: { params: Promise<{ jobId: string }> }) {
   const user = await requirePageRole("technician", "shop_lead")
   const { jobId } = await params
-  if (!/^[0-9a-f-]{36}$/i.test(jobId)) notFound()
+  if (!isUuid(jobId)) notFound()
   const job = await loadJobDetail(getDb(), jobId, user.shopId)
   if (!job) notFound()
   return (

@@ -1,0 +1,80 @@
+// ESLint flat config: Next's rules (core web vitals), typescript-eslint's, and the layer boundaries of
+// DEVELOPERS.md ("Layers"): lib/ is pure, components/ never reach the database, client files never import node:*.
+import nextCoreWebVitals from "eslint-config-next/core-web-vitals"
+import nextTypescript from "eslint-config-next/typescript"
+
+const restricted = (patterns, message) => ({ group: patterns, message })
+
+const config = [
+  {
+    ignores: [
+      "node_modules/**",
+      ".next/**",
+      ".next-slot*/**",
+      ".data/**",
+      ".test-data/**",
+      ".bench-data/**",
+      "public/sw.js",
+      "public/workbox-*.js",
+      "app/_server/api-routes.generated.ts",
+      "next-env.d.ts",
+      "test-results/**",
+      "coverage/**",
+      "bench-results/**",
+    ],
+  },
+  ...nextCoreWebVitals,
+  ...nextTypescript,
+  {
+    rules: {
+      "@typescript-eslint/no-unused-vars": ["error", { argsIgnorePattern: "^_", varsIgnorePattern: "^_" }],
+      // `let { a, b } = this` where only some are reassigned stays one statement.
+      "prefer-const": ["error", { destructuring: "all" }],
+    },
+  },
+  {
+    // Migrations run on Kysely<any> (frozen in time, no app types: Kysely's docs); tests read untyped JSON answers.
+    files: ["db/migrations/**/*.ts", "tests/**/*.ts"],
+    rules: { "@typescript-eslint/no-explicit-any": "off" },
+  },
+  {
+    files: ["lib/**/*.{ts,tsx}"],
+    rules: {
+      "no-restricted-imports": [
+        "error",
+        {
+          patterns: [
+            restricted(["next", "next/*"], "lib/ is pure: no Next imports."),
+            restricted(["react", "react-dom", "react/*", "react-dom/*"], "lib/ is pure: no React."),
+            restricted(["@/db", "@/db/*", "@/app/*", "@/components/*"], "lib/ imports no db/, app/ or components/."),
+          ],
+        },
+      ],
+    },
+  },
+  {
+    files: ["components/**/*.{ts,tsx}"],
+    rules: {
+      "no-restricted-imports": [
+        "error",
+        {
+          patterns: [
+            restricted(["@/db", "@/db/*"], "components/ never reach the database; go through a service or a route."),
+            restricted(["node:*"], "components/ run in the browser: no node:* modules."),
+          ],
+        },
+      ],
+    },
+  },
+  {
+    files: ["workers/**/*.ts"],
+    rules: {
+      "no-restricted-imports": [
+        "error",
+        { patterns: [restricted(["node:*", "@/db", "@/db/*", "@/app/*"], "the service worker runs in the browser.")] },
+      ],
+    },
+  },
+]
+
+export default config
