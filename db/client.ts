@@ -10,10 +10,10 @@ export type Db = Kysely<Database>
 const globalForDb = globalThis as unknown as { straightawayPool?: pg.Pool; straightawayDb?: Db; straightawayReadDb?: Db }
 
 /** How the app's connections name themselves (pg_stat_activity.application_name). */
-export const APPLICATION_NAME = "straightaway"
+const APPLICATION_NAME = "straightaway"
 export const READ_APPLICATION_NAME = "straightaway-replica-reads"
 
-export function createPool(connectionString = process.env.DATABASE_URL, applicationName = APPLICATION_NAME) {
+function createPool(connectionString = process.env.DATABASE_URL, applicationName = APPLICATION_NAME) {
   if (!connectionString) throw new Error("DATABASE_URL is not set")
   const pool = new pg.Pool({
     connectionString,

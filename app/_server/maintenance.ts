@@ -12,7 +12,7 @@ const EVERY_MS = 60 * 60 * 1000
 
 const globalForMaintenance = globalThis as unknown as { straightawayMaintenance?: NodeJS.Timeout }
 
-export async function runMaintenanceOnce(): Promise<void> {
+async function runMaintenanceOnce(): Promise<void> {
   const db = getDb()
   try {
     await runPartitionMaintenance(db)

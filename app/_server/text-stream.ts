@@ -1,7 +1,7 @@
 import "server-only"
 
 /** How long a download may wait for its reader before it is cut and its database connection returned. */
-export const STREAM_IDLE_MS = 60_000
+const STREAM_IDLE_MS = 60_000
 
 /**
  * A response body from text chunks, made as the reader asks for them: nothing is made ahead of the reader, so a

@@ -7,8 +7,8 @@
 import { sql } from "kysely"
 import type { Db } from "../client"
 
-export const SAMPLE_PARENT = "public.sample"
-export const MAX_RETENTION_MONTHS = 120
+const SAMPLE_PARENT = "public.sample"
+const MAX_RETENTION_MONTHS = 120
 
 /**
  * How long (ms) retention waits for the lock a detach needs before it leaves that month to the next run:

@@ -74,7 +74,7 @@ export async function insertSamples(trx: Db, driveId: string, shopId: string, sa
 }
 
 /** The drive's key in `sample`, found by its id and shop: every read and write of samples goes through it. */
-export function driveKeyQuery(driveId: string, shopId: string) {
+function driveKeyQuery(driveId: string, shopId: string) {
   return sql<{ sample_key: number }>`select sample_key from drive where id = ${driveId}::uuid and shop_id = ${shopId}::uuid`
 }
 

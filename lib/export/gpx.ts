@@ -91,11 +91,11 @@ export function gpxTail(out: string[], anyKept: boolean) {
 }
 
 /** GPX longitudeType is -180 <= lon < 180: 180 is written as -180 (the same meridian). */
-export function gpxLon(lon: number): number {
+function gpxLon(lon: number): number {
   return lon >= 180 ? lon - 360 : lon
 }
 
-export function markDescription(m: Mark): string | null {
+function markDescription(m: Mark): string | null {
   if (m.kind === "note") return m.text ?? null
   if (m.kind === "check" && m.checkKey) return `${m.checkKey}: ${m.result ?? ""}`
   if ((m.kind === "lead-on" || m.kind === "gap") && m.gapFt != null) return `Gap ${formatDecimal(m.gapFt)} ft`
@@ -130,7 +130,7 @@ export function between(a: { t: number; lat: number; lon: number }, b: { t: numb
   return [a.lat + f * (b.lat - a.lat), lon]
 }
 
-export function escapeXml(s: string): string {
+function escapeXml(s: string): string {
   return s
     .replace(/&/g, "&amp;")
     .replace(/</g, "&lt;")

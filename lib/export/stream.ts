@@ -20,7 +20,7 @@ export type DriveFileHead = AnyDriveFile
  * bytes die young instead of piling up in the old generation until a full collection (issue 10: a 360,000-sample
  * export measured 313 MB with 1 MB pieces).
  */
-export const PIECE_LINES = 256
+const PIECE_LINES = 256
 
 /** Samples in ascending `t`, a chunk at a time. */
 export type SampleChunks = AsyncIterable<readonly Sample[]>
@@ -62,7 +62,7 @@ function leadTracker(marks: readonly Mark[]) {
 }
 
 /** Where the track is at `ms`, from the kept samples around it (the same answer as toGpx's search of the whole track). */
-export function positionFromAround({ before, after }: Around, ms: number): [number, number] {
+function positionFromAround({ before, after }: Around, ms: number): [number, number] {
   if (before && after) return between(before, after, ms)
   const only = before ?? after
   if (!only) throw new Error(`no kept sample around ${ms}`)

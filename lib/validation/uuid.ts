@@ -1,7 +1,7 @@
 import { z } from "zod"
 
 /** The one UUID check: 8-4-4-4-12 hex digits (any version), the text form PostgreSQL's uuid type takes. */
-export const UUID_TEXT = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i
+const UUID_TEXT = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i
 
 export function isUuid(value: string): boolean {
   return UUID_TEXT.test(value)
