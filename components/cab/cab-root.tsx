@@ -1,34 +1,52 @@
 "use client"
 
 import { ArrowLeft, Sun, SunDim } from "lucide-react"
-import { useEffect, useState, type ReactNode } from "react"
+import { useEffect, useSyncExternalStore, type ReactNode } from "react"
 
 // No cn() (tailwind-merge) here: this wraps the recorder, whose first load has a budget (recorderFirstLoadKbGzip).
 
 const KEY = "straightaway.sun"
+
+// The choice lives in localStorage (this visit only, when storage is refused); read it as an external store so the
+// server and the first paint are the cab theme and the phone's choice follows without an effect.
+let choiceThisVisit: boolean | null = null
+const listeners = new Set<() => void>()
+function subscribe(onChange: () => void) {
+  listeners.add(onChange)
+  window.addEventListener("storage", onChange)
+  return () => {
+    listeners.delete(onChange)
+    window.removeEventListener("storage", onChange)
+  }
+}
+function readSun(): boolean {
+  if (choiceThisVisit !== null) return choiceThisVisit
+  try {
+    return window.localStorage.getItem(KEY) === "1"
+  } catch {
+    return false
+  }
+}
+function chooseSun(next: boolean) {
+  choiceThisVisit = next
+  try {
+    window.localStorage.setItem(KEY, next ? "1" : "0")
+  } catch {
+    // private mode: the choice lasts this visit
+  }
+  for (const listener of listeners) listener()
+}
 
 /**
  * The recorder's root: the dark cab theme, or sun mode (a high-contrast light theme, app/(cab)/sun.css) for
  * bright daylight. The choice stays on the phone.
  */
 export function CabRoot({ children }: { children: ReactNode }) {
-  const [sun, setSun] = useState(false)
-  useEffect(() => {
-    // localStorage is only readable after mount; the first paint is the cab theme.
-    setSun(window.localStorage.getItem(KEY) === "1")
-  }, [])
+  const sun = useSyncExternalStore(subscribe, readSun, () => false)
   useEffect(() => {
     document.querySelector('meta[name="theme-color"]')?.setAttribute("content", sun ? "#ffffff" : "#17181a")
   }, [sun])
-  function toggle() {
-    const next = !sun
-    setSun(next)
-    try {
-      window.localStorage.setItem(KEY, next ? "1" : "0")
-    } catch {
-      // private mode: the choice lasts this visit
-    }
-  }
+  const toggle = () => chooseSun(!sun)
   return (
     <div className={`dark min-h-dvh bg-asphalt-900 text-graphite-50${sun ? " sun" : ""}`} data-theme={sun ? "sun" : "cab"} data-testid="cab-root">
       <div className="mx-auto flex max-w-xl items-center justify-between gap-2 px-3 pt-[max(0.5rem,env(safe-area-inset-top))]">

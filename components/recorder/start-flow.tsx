@@ -40,17 +40,26 @@ const CAUTIONS = [
   "The vehicle's own confirmation that the learn is done governs. The score never replaces it.",
 ]
 
-async function getJson(path: string): Promise<any | null> {
+async function getJson<T>(path: string): Promise<T | null> {
   try {
     const res = await fetch(path, { credentials: "same-origin" })
     if (!res.ok) return null
-    return await res.json()
+    return (await res.json()) as T
   } catch {
     return null
   }
 }
 
-function jobLabel(j: any): string {
+/** A job as GET /api/jobs lists it (the fields the start screen reads). */
+type ListedJob = {
+  id: string
+  status: string
+  roNumber?: string
+  ro_number?: string
+  vehicle?: { year?: number | null; make?: string | null; model?: string | null } | null
+}
+
+function jobLabel(j: ListedJob): string {
   const v = j.vehicle ?? {}
   const car = [v.year, v.make, v.model].filter(Boolean).join(" ")
   return `${j.roNumber ?? j.ro_number ?? "RO"}${car ? ` · ${car}` : ""}`
@@ -75,36 +84,51 @@ export function StartFlow({ onStart }: { onStart: (choice: StartChoice) => void 
   })
 
   useEffect(() => {
-    void getJson("/api/jobs?limit=100&sort=updatedAt&dir=desc").then((body) => {
+    void getJson<{ jobs?: ListedJob[] }>("/api/jobs?limit=100&sort=updatedAt&dir=desc").then((body) => {
       const list = Array.isArray(body?.jobs) ? body.jobs : []
-      const open = list.filter((j: any) => OPEN_JOB_STATUSES.has(j.status) || j.id === wanted.jobId)
-      setJobs(open.map((j: any) => ({ id: j.id, roNumber: j.roNumber ?? j.ro_number, label: jobLabel(j) })))
-      if (wanted.jobId && open.some((j: any) => j.id === wanted.jobId)) setJobId(wanted.jobId)
+      const open = list.filter((j) => OPEN_JOB_STATUSES.has(j.status) || j.id === wanted.jobId)
+      setJobs(open.map((j) => ({ id: j.id, roNumber: j.roNumber ?? j.ro_number ?? "", label: jobLabel(j) })))
+      if (wanted.jobId && open.some((j) => j.id === wanted.jobId)) setJobId(wanted.jobId)
     })
-    void getJson("/api/people?role=co_driver").then((body) => setCoDrivers(Array.isArray(body?.people) ? body.people : []))
+    void getJson<{ people?: Person[] }>("/api/people?role=co_driver").then((body) =>
+      setCoDrivers(Array.isArray(body?.people) ? body.people : []),
+    )
   }, [wanted.jobId])
 
-  useEffect(() => {
+  // Another job's tasks are forgotten the moment the job changes (during render), then its own are fetched.
+  const [tasksOf, setTasksOf] = useState("")
+  if (tasksOf !== jobId) {
+    setTasksOf(jobId)
     setTasks([])
     setTaskId("")
+  }
+  useEffect(() => {
     if (!jobId) return
-    void getJson(`/api/jobs/${jobId}`).then((body) => {
-      // Static tasks too: their road test is a drive (issue 13).
+    let live = true
+    void getJson<{ job?: { tasks?: TaskSummary[] } }>(`/api/jobs/${jobId}`).then((body) => {
+      if (!live) return
+      // Static tasks too: their road test is a drive.
       const t: TaskSummary[] = body?.job?.tasks ?? []
       setTasks(t)
       const preferred = t.find((x) => x.id === wanted.taskId) ?? (t.length === 1 ? t[0] : undefined)
       if (preferred) setTaskId(preferred.id)
     })
+    return () => {
+      live = false
+    }
   }, [jobId, wanted.taskId])
 
   const checklist = tasks.find((t) => t.id === taskId)?.checklist ?? null
   // What the job's checklist already confirmed is ticked; the technician still sees and can untick each line.
-  useEffect(() => {
-    if (!checklist || checklist.blockers.some((b) => b.key === "checklist")) return
-    setChecks(
-      Object.fromEntries(GATE_CHECKS.map((c) => [c.key, !checklist.blockers.some((b) => b.key === c.blocker || b.key.startsWith(`${c.blocker}.`))])),
-    )
-  }, [checklist])
+  const [checksFrom, setChecksFrom] = useState<typeof checklist>(null)
+  if (checklist !== checksFrom) {
+    setChecksFrom(checklist)
+    if (checklist && !checklist.blockers.some((b) => b.key === "checklist")) {
+      setChecks(
+        Object.fromEntries(GATE_CHECKS.map((c) => [c.key, !checklist.blockers.some((b) => b.key === c.blocker || b.key.startsWith(`${c.blocker}.`))])),
+      )
+    }
+  }
 
   const task = tasks.find((t) => t.id === taskId) ?? null
   const profile = task?.profile ? resolveProfile(task.profile.settings) : resolveProfile(DEFAULT_PROFILE)

@@ -1,7 +1,7 @@
 "use client"
 
 import { useRouter } from "next/navigation"
-import { useEffect, useState } from "react"
+import { useState, useSyncExternalStore } from "react"
 import { apiFetch } from "@/components/ui/api-fetch"
 import { Button } from "@/components/ui/button"
 import { Field, Input, Select } from "@/components/ui/field"
@@ -47,14 +47,17 @@ export function ReviewMailForm({ initial }: { initial: boolean }) {
  * so the first render in the browser writes exactly what the server wrote (`serverNow`) and nothing is
  * hydrated against a different minute or a different ICU.
  */
+const CLOCK_STEP_MS = 15_000
+function tickEvery15s(onTick: () => void) {
+  const id = setInterval(onTick, CLOCK_STEP_MS)
+  return () => clearInterval(id)
+}
+// The same value for every read within a step, as useSyncExternalStore needs; null on the server and in hydration.
+const clockNow = () => Math.floor(Date.now() / CLOCK_STEP_MS) * CLOCK_STEP_MS
+const noClock = () => null
+
 function useClock(): number | null {
-  const [now, setNow] = useState<number | null>(null)
-  useEffect(() => {
-    setNow(Date.now())
-    const id = setInterval(() => setNow(Date.now()), 15_000)
-    return () => clearInterval(id)
-  }, [])
-  return now
+  return useSyncExternalStore(tickEvery15s, clockNow, noClock)
 }
 
 /** The shop's units and time zone (admin). `serverNow`: "Now: …" for the saved zone, as the server wrote it. */

@@ -32,17 +32,6 @@ export async function insertMarks(
   return { accepted: rows.length, duplicates: marks.length - rows.length }
 }
 
-/** Removes one mark (the recorder's undo). Returns whether a mark went. */
-async function deleteMark(db: Db, driveId: string, shopId: string, markId: string): Promise<boolean> {
-  const res = await db
-    .deleteFrom("mark")
-    .where("id", "=", markId)
-    .where("drive_id", "=", driveId)
-    .where("shop_id", "=", shopId)
-    .executeTakeFirst()
-  return Number(res.numDeletedRows) > 0
-}
-
 export async function listMarks(db: Db, driveId: string, shopId: string): Promise<Array<Mark & { id: string }>> {
   const rows = await db
     .selectFrom("mark")

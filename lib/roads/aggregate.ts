@@ -13,7 +13,7 @@ import { createLocalClock, type LocalSlot } from "./clock"
 
 /** Speed histogram: 2 mph buckets from 0; the last bucket holds 100 mph and above. Values are seconds. */
 export const SPEED_BUCKET_MPH = 2
-const SPEED_BUCKETS = 51
+export const SPEED_BUCKETS = 51
 /** `hour` / `weekday` of -1 mean "all": a row per cell for all times, per cell and hour, per cell and weekday. */
 export const ALL = -1
 

@@ -50,7 +50,11 @@ export function createCellLocator(resolution = ROAD_RESOLUTION) {
         let nx = (y2 - y1) / len
         let ny = -(x2 - x1) / len
         let c = nx * x1 + ny * y1
-        if (c < 0) (nx = -nx), (ny = -ny), (c = -c)
+        if (c < 0) {
+          nx = -nx
+          ny = -ny
+          c = -c
+        }
         raw.push([nx, ny, c])
         if (c < inner) inner = c
       }
@@ -80,7 +84,10 @@ export function createCellLocator(resolution = ROAD_RESOLUTION) {
       return b.cell
     }
     const next = shapeOf(latLngToCell(lat, lon, resolution))
-    if (next !== last) (before = last), (last = next)
+    if (next !== last) {
+      before = last
+      last = next
+    }
     return next.cell
   }
 }

@@ -32,6 +32,8 @@ export default async function SettingsPage() {
         <p className="text-sm text-graphite-600 dark:text-graphite-300">
           Every page, drive record and e-mail writes numbers and times this way. Without a choice the shop reads US customary units in {DEFAULT_TIME_ZONE.replace("_", " ")} time.
         </p>
+        {/* A server component renders once per request: reading the clock here is the request's time. */}
+        {/* eslint-disable-next-line react-hooks/purity */}
         <ShopFormatForm initial={{ units: settings.units, timeZone: settings.timeZone }} zones={zones} canEdit={me.role === "admin"} serverNow={formatDateTime(Date.now(), settings.timeZone, { zoneName: true })} />
       </Card>
       <Card className="space-y-2">
