@@ -20,7 +20,12 @@ function apiError(status: number, code: string, message: string, headers: Record
 /** Over HTTPS: the request itself, a proxy that says so (only when proxies are trusted), or an https APP_URL. */
 function servedOverHttps(req: NextRequest) {
   if (req.nextUrl.protocol === "https:") return true
-  if (process.env.TRUST_PROXY && process.env.TRUST_PROXY !== "0" && req.headers.get("x-forwarded-proto")?.split(",")[0]?.trim() === "https") return true
+  if (
+    process.env.TRUST_PROXY &&
+    process.env.TRUST_PROXY !== "0" &&
+    req.headers.get("x-forwarded-proto")?.split(",")[0]?.trim() === "https"
+  )
+    return true
   return (process.env.APP_URL ?? "").startsWith("https:")
 }
 
@@ -28,7 +33,11 @@ function servedOverHttps(req: NextRequest) {
 function page(req: NextRequest, answer: (init: { request: { headers: Headers } }) => NextResponse) {
   const nonce = Buffer.from(crypto.randomUUID()).toString("base64")
   const https = servedOverHttps(req)
-  const csp = contentSecurityPolicy(nonce, { https, dev: process.env.NODE_ENV === "development", uploadOrigin: originOf(process.env.S3_ENDPOINT) })
+  const csp = contentSecurityPolicy(nonce, {
+    https,
+    dev: process.env.NODE_ENV === "development",
+    uploadOrigin: originOf(process.env.S3_ENDPOINT),
+  })
   const headers = new Headers(req.headers)
   headers.set("x-nonce", nonce)
   headers.set("content-security-policy", csp)
@@ -60,15 +69,21 @@ export async function proxy(req: NextRequest) {
     if (!route) return apiError(404, "not_found", "There is no such API route.")
     const allowed = allowedMethods(route)
     if (!allowed.includes(req.method)) {
-      return apiError(405, "method_not_allowed", `${req.method} is not answered here; this address takes ${allowed.join(", ")}.`, {
-        allow: allowed.join(", "),
-      })
+      return apiError(
+        405,
+        "method_not_allowed",
+        `${req.method} is not answered here; this address takes ${allowed.join(", ")}.`,
+        {
+          allow: allowed.join(", "),
+        },
+      )
     }
   }
   if (pathname !== raw) {
     // Under /api a trailing slash is a 404 naming the address without it: a rewrite to that address left the request
     // unanswered (Next 16.4), and a 308 would be an answer outside the error shape. Pages keep their 308.
-    if (isApi) return apiError(404, "not_found", `There is no such API route; the address has no trailing slash: ${pathname}`)
+    if (isApi)
+      return apiError(404, "not_found", `There is no such API route; the address has no trailing slash: ${pathname}`)
     const url = req.nextUrl.clone()
     url.pathname = pathname
     return NextResponse.redirect(url, 308)
@@ -78,10 +93,18 @@ export async function proxy(req: NextRequest) {
     if (servedOverHttps(req)) res.headers.set("strict-transport-security", STRICT_TRANSPORT_SECURITY)
     return res
   }
-  if ((req.method === "GET" || req.method === "HEAD") && !NEEDS_NO_DATABASE.has(pathname) && (await probeDatabase()) === "down") {
+  if (
+    (req.method === "GET" || req.method === "HEAD") &&
+    !NEEDS_NO_DATABASE.has(pathname) &&
+    (await probeDatabase()) === "down"
+  ) {
     // A rewrite cannot change a page's status, so the proxy answers itself (lib/http/unavailable-page.ts).
     return page(req, () => {
-      const headers = { "content-type": "text/html; charset=utf-8", "retry-after": DATABASE_RETRY_AFTER_SECONDS, "cache-control": "no-store" }
+      const headers = {
+        "content-type": "text/html; charset=utf-8",
+        "retry-after": DATABASE_RETRY_AFTER_SECONDS,
+        "cache-control": "no-store",
+      }
       return new NextResponse(req.method === "HEAD" ? null : unavailablePageHtml(), { status: 503, headers })
     })
   }

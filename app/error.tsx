@@ -9,7 +9,10 @@ import { Logo } from "@/components/shell/logo"
  */
 export default function PageError({ reset }: { error: Error & { digest?: string }; reset: () => void }) {
   return (
-    <main className="mx-auto flex min-h-dvh max-w-md flex-col items-start justify-center gap-4 px-4" data-testid="page-error">
+    <main
+      className="mx-auto flex min-h-dvh max-w-md flex-col items-start justify-center gap-4 px-4"
+      data-testid="page-error"
+    >
       <Logo className="size-10" />
       <h1 className="text-2xl font-bold">This page did not load</h1>
       <p>Something on our side did not answer. Nothing you saved is lost; try again in a few seconds.</p>

@@ -4,7 +4,12 @@ import { headers } from "next/headers"
 import type { ReactNode } from "react"
 import "./globals.css"
 
-const inter = localFont({ src: "./fonts/inter-latin-wght.woff2", variable: "--font-inter", display: "swap", weight: "100 900" })
+const inter = localFont({
+  src: "./fonts/inter-latin-wght.woff2",
+  variable: "--font-inter",
+  display: "swap",
+  weight: "100 900",
+})
 
 export const metadata: Metadata = {
   title: { default: "Straightaway", template: "%s · Straightaway" },
@@ -40,9 +45,7 @@ export default async function RootLayout({ children }: { children: ReactNode }) 
       <head>
         <script nonce={nonce} dangerouslySetInnerHTML={{ __html: themeScript }} />
       </head>
-      <body className="min-h-dvh font-sans">
-        {children}
-      </body>
+      <body className="min-h-dvh font-sans">{children}</body>
     </html>
   )
 }

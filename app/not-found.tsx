@@ -11,7 +11,11 @@ export default function NotFound() {
       <Logo className="size-10" />
       <h1 className="text-2xl font-bold">Nothing to show here</h1>
       <p>This page does not exist, or it belongs to a drive or job you cannot open.</p>
-      <a href="/" className="inline-flex min-h-12 items-center gap-2 rounded-lg bg-graphite-900 px-4 font-semibold text-white dark:bg-signal-400 dark:text-graphite-950" data-testid="way-back">
+      <a
+        href="/"
+        className="inline-flex min-h-12 items-center gap-2 rounded-lg bg-graphite-900 px-4 font-semibold text-white dark:bg-signal-400 dark:text-graphite-950"
+        data-testid="way-back"
+      >
         <BackArrow /> Back to the start
       </a>
     </main>
@@ -20,7 +24,16 @@ export default function NotFound() {
 
 function BackArrow() {
   return (
-    <svg viewBox="0 0 24 24" fill="none" stroke="currentColor" strokeWidth={2} strokeLinecap="round" strokeLinejoin="round" aria-hidden className="size-5">
+    <svg
+      viewBox="0 0 24 24"
+      fill="none"
+      stroke="currentColor"
+      strokeWidth={2}
+      strokeLinecap="round"
+      strokeLinejoin="round"
+      aria-hidden
+      className="size-5"
+    >
       <path d="m12 19-7-7 7-7" />
       <path d="M19 12H5" />
     </svg>

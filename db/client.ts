@@ -7,7 +7,11 @@ pg.types.setTypeParser(pg.types.builtins.INT8, (value) => Number(value))
 
 export type Db = Kysely<Database>
 
-const globalForDb = globalThis as unknown as { straightawayPool?: pg.Pool; straightawayDb?: Db; straightawayReadDb?: Db }
+const globalForDb = globalThis as unknown as {
+  straightawayPool?: pg.Pool
+  straightawayDb?: Db
+  straightawayReadDb?: Db
+}
 
 /** How the app's connections name themselves (pg_stat_activity.application_name). */
 const APPLICATION_NAME = "straightaway"

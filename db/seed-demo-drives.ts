@@ -12,7 +12,14 @@ import type { Db } from "./client"
 import { insertSamples } from "./queries/samples"
 
 type Outcome = "none" | "approved" | "redo"
-type DemoDrive = { pattern: DrivePattern; minutes: number; daysAgo: number; seed: number; review?: Outcome; note?: string }
+type DemoDrive = {
+  pattern: DrivePattern
+  minutes: number
+  daysAgo: number
+  seed: number
+  review?: Outcome
+  note?: string
+}
 type DemoJob = {
   ro: string
   customer: { name: string; email: string; phone: string }
@@ -29,69 +36,150 @@ const JOBS: DemoJob[] = [
   {
     ro: "RO-24101",
     customer: { name: "Ines Marrow", email: "ines.marrow@example.invalid", phone: "555-0141" },
-    vehicle: { vin: withCheckDigit("0ZTCT2A10RM104417"), year: 2024, make: "Corvane", model: "Tessel", plate: "KTR 2210" },
+    vehicle: {
+      vin: withCheckDigit("0ZTCT2A10RM104417"),
+      year: 2024,
+      make: "Corvane",
+      model: "Tessel",
+      plate: "KTR 2210",
+    },
     task: { sensor: "forward_radar", method: "dynamic", reason: "bumper_or_grille_work", profileKey: "forward-radar" },
     drives: [{ pattern: "met", minutes: 18, daysAgo: 2, seed: 4101 }],
   },
   {
     ro: "RO-24102",
     customer: { name: "Oskar Lindgrove", email: "o.lindgrove@example.invalid", phone: "555-0172" },
-    vehicle: { vin: withCheckDigit("0ZTHS4B10SM208833"), year: 2025, make: "Haldrane", model: "Stratell", plate: "PLV 0915" },
-    task: { sensor: "forward_radar", method: "dynamic", reason: "removed_and_reinstalled", profileKey: "forward-radar" },
+    vehicle: {
+      vin: withCheckDigit("0ZTHS4B10SM208833"),
+      year: 2025,
+      make: "Haldrane",
+      model: "Stratell",
+      plate: "PLV 0915",
+    },
+    task: {
+      sensor: "forward_radar",
+      method: "dynamic",
+      reason: "removed_and_reinstalled",
+      profileKey: "forward-radar",
+    },
     drives: [{ pattern: "short", minutes: 9, daysAgo: 1, seed: 4102 }],
   },
   {
     ro: "RO-24103",
     customer: { name: "Perpetua Aldane", email: "p.aldane@example.invalid", phone: "555-0118" },
-    vehicle: { vin: withCheckDigit("0ZTMV3C10PM331207"), year: 2023, make: "Mirrovel", model: "Vantrey", plate: "DKE 4471" },
+    vehicle: {
+      vin: withCheckDigit("0ZTMV3C10PM331207"),
+      year: 2023,
+      make: "Mirrovel",
+      model: "Vantrey",
+      plate: "DKE 4471",
+    },
     task: { sensor: "forward_camera", method: "dynamic", reason: "windshield_replaced", profileKey: "forward-camera" },
     drives: [{ pattern: "never-cleared", minutes: 31, daysAgo: 1, seed: 4103 }],
   },
   {
     ro: "RO-24104",
     customer: { name: "Benedikt Oyelaran", email: "b.oyelaran@example.invalid", phone: "555-0190" },
-    vehicle: { vin: withCheckDigit("0ZTVP5D10RM412650"), year: 2024, make: "Ostrevane", model: "Pikett", plate: "RNM 7302" },
+    vehicle: {
+      vin: withCheckDigit("0ZTVP5D10RM412650"),
+      year: 2024,
+      make: "Ostrevane",
+      model: "Pikett",
+      plate: "RNM 7302",
+    },
     task: { sensor: "forward_radar", method: "dynamic", reason: "replaced", profileKey: "forward-radar" },
     drives: [{ pattern: "harsh", minutes: 18, daysAgo: 0, seed: 4104 }],
   },
   {
     ro: "RO-24105",
     customer: { name: "Saoirse Kettleby", email: "s.kettleby@example.invalid", phone: "555-0133" },
-    vehicle: { vin: withCheckDigit("0ZTKA2E10NM509981"), year: 2022, make: "Kestavon", model: "Ardell", plate: "TWB 1184" },
+    vehicle: {
+      vin: withCheckDigit("0ZTKA2E10NM509981"),
+      year: 2022,
+      make: "Kestavon",
+      model: "Ardell",
+      plate: "TWB 1184",
+    },
     task: { sensor: "corner_radar", method: "dynamic", reason: "bumper_or_grille_work", profileKey: "corner-radar" },
     drives: [{ pattern: "unverified", minutes: 17, daysAgo: 0, seed: 4105 }],
   },
   {
     ro: "RO-24098",
     customer: { name: "Tobiah Quennell", email: "t.quennell@example.invalid", phone: "555-0157" },
-    vehicle: { vin: withCheckDigit("0ZTNW6F10SM611472"), year: 2025, make: "Norvantic", model: "Quillet", plate: "HJC 5529" },
+    vehicle: {
+      vin: withCheckDigit("0ZTNW6F10SM611472"),
+      year: 2025,
+      make: "Norvantic",
+      model: "Quillet",
+      plate: "HJC 5529",
+    },
     task: { sensor: "forward_radar", method: "dynamic", reason: "wheel_alignment", profileKey: "forward-radar" },
     drives: [
-      { pattern: "short", minutes: 10, daysAgo: 9, seed: 4098, review: "redo", note: "Too little time behind a lead; use the ring road and follow at 120-150 ft." },
+      {
+        pattern: "short",
+        minutes: 10,
+        daysAgo: 9,
+        seed: 4098,
+        review: "redo",
+        note: "Too little time behind a lead; use the ring road and follow at 120-150 ft.",
+      },
       { pattern: "met", minutes: 20, daysAgo: 8, seed: 4099 },
     ],
   },
   {
     ro: "RO-24087",
     customer: { name: "Marisol Brackwater", email: "m.brackwater@example.invalid", phone: "555-0164" },
-    vehicle: { vin: withCheckDigit("0ZTCT2A10PM702318"), year: 2023, make: "Corvane", model: "Tessel", plate: "GLX 8803" },
+    vehicle: {
+      vin: withCheckDigit("0ZTCT2A10PM702318"),
+      year: 2023,
+      make: "Corvane",
+      model: "Tessel",
+      plate: "GLX 8803",
+    },
     task: { sensor: "rear_radar", method: "dynamic", reason: "bumper_or_grille_work", profileKey: "rear-radar" },
-    drives: [{ pattern: "harsh", minutes: 19, daysAgo: 20, seed: 4087, review: "approved", note: "Hard stop for a turning truck; the learn itself is fine." }],
+    drives: [
+      {
+        pattern: "harsh",
+        minutes: 19,
+        daysAgo: 20,
+        seed: 4087,
+        review: "approved",
+        note: "Hard stop for a turning truck; the learn itself is fine.",
+      },
+    ],
   },
   {
     ro: "RO-24071",
     customer: { name: "Emeric Dunstable", email: "e.dunstable@example.invalid", phone: "555-0129" },
-    vehicle: { vin: withCheckDigit("0ZTHS4B10RM803364"), year: 2024, make: "Haldrane", model: "Stratell", plate: "VQS 3317" },
+    vehicle: {
+      vin: withCheckDigit("0ZTHS4B10RM803364"),
+      year: 2024,
+      make: "Haldrane",
+      model: "Stratell",
+      plate: "VQS 3317",
+    },
     task: { sensor: "forward_radar", method: "dynamic", reason: "fault_code", profileKey: "forward-radar" },
     drives: [
-      { pattern: "never-cleared", minutes: 12, daysAgo: 34, seed: 4071, review: "redo", note: "Never cleared; check the fault codes again before the next drive." },
+      {
+        pattern: "never-cleared",
+        minutes: 12,
+        daysAgo: 34,
+        seed: 4071,
+        review: "redo",
+        note: "Never cleared; check the fault codes again before the next drive.",
+      },
       { pattern: "met", minutes: 22, daysAgo: 33, seed: 4072 },
     ],
   },
 ]
 
 export async function seedDemoJobsAndDrives(db: Db, shopId: string) {
-  const people = await db.selectFrom("app_user").select(["id", "role", "email", "name"]).where("shop_id", "=", shopId).orderBy("email").execute()
+  const people = await db
+    .selectFrom("app_user")
+    .select(["id", "role", "email", "name"])
+    .where("shop_id", "=", shopId)
+    .orderBy("email")
+    .execute()
   const tech = people.find((p) => p.role === "technician")
   const codriver = people.find((p) => p.role === "co_driver")
   const lead = people.find((p) => p.role === "shop_lead") ?? people.find((p) => p.role === "admin")
@@ -99,11 +187,24 @@ export async function seedDemoJobsAndDrives(db: Db, shopId: string) {
   const leads = people.filter((p) => p.role === "shop_lead")
   await seedOpenJobs(db, shopId, lead.id, tech.id)
   const existing = new Set(
-    (await db.selectFrom("job").select("ro_number").where("shop_id", "=", shopId).where("ro_number", "in", JOBS.map((j) => j.ro)).execute()).map((r) => r.ro_number),
+    (
+      await db
+        .selectFrom("job")
+        .select("ro_number")
+        .where("shop_id", "=", shopId)
+        .where(
+          "ro_number",
+          "in",
+          JOBS.map((j) => j.ro),
+        )
+        .execute()
+    ).map((r) => r.ro_number),
   )
   const profiles = await db
     .selectFrom("condition_profile as p")
-    .innerJoin("condition_profile_version as v", (j) => j.onRef("v.profile_id", "=", "p.id").onRef("v.version", "=", "p.current_version"))
+    .innerJoin("condition_profile_version as v", (j) =>
+      j.onRef("v.profile_id", "=", "p.id").onRef("v.version", "=", "p.current_version"),
+    )
     .select(["p.id", "p.key", "v.id as version_id", "v.settings"])
     .where("p.shop_id", "=", shopId)
     .execute()
@@ -112,7 +213,11 @@ export async function seedDemoJobsAndDrives(db: Db, shopId: string) {
     const profile = profiles.find((p) => p.key === demo.task.profileKey)
     const resolved = resolveProfile((profile?.settings ?? {}) as never)
     await db.transaction().execute(async (trx) => {
-      const vehicle = await trx.insertInto("vehicle").values({ shop_id: shopId, ...demo.vehicle }).returning("id").executeTakeFirstOrThrow()
+      const vehicle = await trx
+        .insertInto("vehicle")
+        .values({ shop_id: shopId, ...demo.vehicle })
+        .returning("id")
+        .executeTakeFirstOrThrow()
       const job = await trx
         .insertInto("job")
         .values({
@@ -131,7 +236,14 @@ export async function seedDemoJobsAndDrives(db: Db, shopId: string) {
       if (!job) return
       const task = await trx
         .insertInto("job_task")
-        .values({ shop_id: shopId, job_id: job.id, sensor: demo.task.sensor, method: demo.task.method, reason: demo.task.reason, profile_id: profile?.id ?? null })
+        .values({
+          shop_id: shopId,
+          job_id: job.id,
+          sensor: demo.task.sensor,
+          method: demo.task.method,
+          reason: demo.task.reason,
+          profile_id: profile?.id ?? null,
+        })
         .returning("id")
         .executeTakeFirstOrThrow()
       await trx
@@ -157,7 +269,13 @@ export async function seedDemoJobsAndDrives(db: Db, shopId: string) {
       const vehicleWords = describeVehicle(demo.vehicle)
       for (const d of demo.drives) {
         const startMs = Math.floor(daysAgo(d.daysAgo).getTime() / 60_000) * 60_000
-        const generated = generateDrive({ seed: d.seed, pattern: d.pattern, minutes: d.minutes, startMs, profile: resolved })
+        const generated = generateDrive({
+          seed: d.seed,
+          pattern: d.pattern,
+          minutes: d.minutes,
+          startMs,
+          profile: resolved,
+        })
         const file = { ...generated, samples: generated.samples.map(storedSample) } // scored as stored
         const score = scoreDrive(file)
         const driveId = randomUUID()
@@ -199,12 +317,22 @@ export async function seedDemoJobsAndDrives(db: Db, shopId: string) {
             })),
           )
           .execute()
-        await trx.insertInto("score").values({ drive_id: driveId, shop_id: shopId, verdict: score.verdict, result: JSON.stringify(score) }).execute()
+        await trx
+          .insertInto("score")
+          .values({ drive_id: driveId, shop_id: shopId, verdict: score.verdict, result: JSON.stringify(score) })
+          .execute()
         const reviewedAt = new Date((score.endedAtMs ?? startMs) + 3 * 3_600_000)
         if (d.review && d.review !== "none") {
           await trx
             .insertInto("review")
-            .values({ shop_id: shopId, drive_id: driveId, decision: d.review === "approved" ? "approve" : "redo", note: d.note ?? "", reviewer_id: lead.id, created_at: reviewedAt })
+            .values({
+              shop_id: shopId,
+              drive_id: driveId,
+              decision: d.review === "approved" ? "approve" : "redo",
+              note: d.note ?? "",
+              reviewer_id: lead.id,
+              created_at: reviewedAt,
+            })
             .execute()
           if (d.review === "redo") {
             // As app/_server/review.ts words it: the notice leads to the job, where "Drive again" is the main action.
@@ -234,9 +362,15 @@ export async function seedDemoJobsAndDrives(db: Db, shopId: string) {
               })
               .execute()
         }
-        jobStatus = reviewStatus === "redo" ? "redo" : reviewStatus === "approved" || !needsReview ? "complete" : "review"
+        jobStatus =
+          reviewStatus === "redo" ? "redo" : reviewStatus === "approved" || !needsReview ? "complete" : "review"
       }
-      await trx.updateTable("job").set({ status: jobStatus }).where("id", "=", job.id).where("shop_id", "=", shopId).execute()
+      await trx
+        .updateTable("job")
+        .set({ status: jobStatus })
+        .where("id", "=", job.id)
+        .where("shop_id", "=", shopId)
+        .execute()
     })
   }
 }
@@ -245,7 +379,13 @@ type OpenJob = {
   ro: string
   customer: { name: string; email: string; phone: string }
   vehicle: { vin: string; year: number; make: string; model: string; plate: string }
-  tasks: Array<{ sensor: string; method: string; reason: string; profileKey: string | null; checklist: Record<string, unknown> | null }>
+  tasks: Array<{
+    sensor: string
+    method: string
+    reason: string
+    profileKey: string | null
+    checklist: Record<string, unknown> | null
+  }>
 }
 
 const READY_CHECKLIST = {
@@ -264,15 +404,41 @@ const OPEN_JOBS: OpenJob[] = [
   {
     ro: "RO-24110",
     customer: { name: "Wilhelmina Strand", email: "w.strand@example.invalid", phone: "555-0106" },
-    vehicle: { vin: withCheckDigit("0ZTVP5D10SM120045"), year: 2025, make: "Ostrevane", model: "Pikett", plate: "MBE 6620" },
-    tasks: [{ sensor: "forward_radar", method: "dynamic", reason: "bumper_or_grille_work", profileKey: "forward-radar", checklist: READY_CHECKLIST }],
+    vehicle: {
+      vin: withCheckDigit("0ZTVP5D10SM120045"),
+      year: 2025,
+      make: "Ostrevane",
+      model: "Pikett",
+      plate: "MBE 6620",
+    },
+    tasks: [
+      {
+        sensor: "forward_radar",
+        method: "dynamic",
+        reason: "bumper_or_grille_work",
+        profileKey: "forward-radar",
+        checklist: READY_CHECKLIST,
+      },
+    ],
   },
   {
     ro: "RO-24111",
     customer: { name: "Caspian Thorne", email: "c.thorne@example.invalid", phone: "555-0187" },
-    vehicle: { vin: withCheckDigit("0ZTMV3C10RM220318"), year: 2024, make: "Mirrovel", model: "Vantrey", plate: "ZRA 1043" },
+    vehicle: {
+      vin: withCheckDigit("0ZTMV3C10RM220318"),
+      year: 2024,
+      make: "Mirrovel",
+      model: "Vantrey",
+      plate: "ZRA 1043",
+    },
     tasks: [
-      { sensor: "forward_camera", method: "dynamic", reason: "windshield_replaced", profileKey: "forward-camera", checklist: null },
+      {
+        sensor: "forward_camera",
+        method: "dynamic",
+        reason: "windshield_replaced",
+        profileKey: "forward-camera",
+        checklist: null,
+      },
       {
         sensor: "forward_radar",
         method: "dynamic",
@@ -286,14 +452,31 @@ const OPEN_JOBS: OpenJob[] = [
 
 async function seedOpenJobs(db: Db, shopId: string, createdBy: string, completedBy: string) {
   const existing = new Set(
-    (await db.selectFrom("job").select("ro_number").where("shop_id", "=", shopId).where("ro_number", "in", OPEN_JOBS.map((j) => j.ro)).execute()).map(
-      (r) => r.ro_number,
-    ),
+    (
+      await db
+        .selectFrom("job")
+        .select("ro_number")
+        .where("shop_id", "=", shopId)
+        .where(
+          "ro_number",
+          "in",
+          OPEN_JOBS.map((j) => j.ro),
+        )
+        .execute()
+    ).map((r) => r.ro_number),
   )
-  const profiles = await db.selectFrom("condition_profile").select(["id", "key"]).where("shop_id", "=", shopId).execute()
+  const profiles = await db
+    .selectFrom("condition_profile")
+    .select(["id", "key"])
+    .where("shop_id", "=", shopId)
+    .execute()
   for (const demo of OPEN_JOBS.filter((j) => !existing.has(j.ro))) {
     await db.transaction().execute(async (trx) => {
-      const vehicle = await trx.insertInto("vehicle").values({ shop_id: shopId, ...demo.vehicle }).returning("id").executeTakeFirstOrThrow()
+      const vehicle = await trx
+        .insertInto("vehicle")
+        .values({ shop_id: shopId, ...demo.vehicle })
+        .returning("id")
+        .executeTakeFirstOrThrow()
       const job = await trx
         .insertInto("job")
         .values({

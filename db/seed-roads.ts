@@ -41,16 +41,35 @@ function utcForLocal(dayMs: number, hour: number, minute: number, zone: string):
 }
 
 /** `drives`: how many to generate; `hours`: local hours to spread them over (default 07:00-18:00, shop hours). */
-export async function seedRoadHistory(db: Db, shopId: string, { nowMs = Date.now(), drives = HISTORY_DRIVES, hours }: { nowMs?: number; drives?: number; hours?: number[] } = {}) {
+export async function seedRoadHistory(
+  db: Db,
+  shopId: string,
+  { nowMs = Date.now(), drives = HISTORY_DRIVES, hours }: { nowMs?: number; drives?: number; hours?: number[] } = {},
+) {
   const settings = await findShopSettings(db, shopId)
-  if (!settings.location) await updateShopSettings(db, shopId, { location: DEMO_SHOP_LOCATION, timeZone: DEMO_TIME_ZONE })
-  const already = await db.selectFrom("drive").select("id").where("shop_id", "=", shopId).where("vehicle_description", "like", `${HISTORY_TAG}%`).limit(1).executeTakeFirst()
+  if (!settings.location)
+    await updateShopSettings(db, shopId, { location: DEMO_SHOP_LOCATION, timeZone: DEMO_TIME_ZONE })
+  const already = await db
+    .selectFrom("drive")
+    .select("id")
+    .where("shop_id", "=", shopId)
+    .where("vehicle_description", "like", `${HISTORY_TAG}%`)
+    .limit(1)
+    .executeTakeFirst()
   if (already) return 0
   const { location, timeZone, roadKnowledge } = await findShopSettings(db, shopId)
-  const tech = await db.selectFrom("app_user").select("id").where("shop_id", "=", shopId).where("role", "=", "technician").orderBy("email").executeTakeFirst()
+  const tech = await db
+    .selectFrom("app_user")
+    .select("id")
+    .where("shop_id", "=", shopId)
+    .where("role", "=", "technician")
+    .orderBy("email")
+    .executeTakeFirst()
   const profile = await db
     .selectFrom("condition_profile as p")
-    .innerJoin("condition_profile_version as v", (j) => j.onRef("v.profile_id", "=", "p.id").onRef("v.version", "=", "p.current_version"))
+    .innerJoin("condition_profile_version as v", (j) =>
+      j.onRef("v.profile_id", "=", "p.id").onRef("v.version", "=", "p.current_version"),
+    )
     .select(["v.id as version_id", "v.settings"])
     .where("p.shop_id", "=", shopId)
     .where("p.key", "=", "forward-radar")
@@ -68,7 +87,15 @@ export async function seedRoadHistory(db: Db, shopId: string, { nowMs = Date.now
     const day = today - (1 + Math.floor(rng() * HISTORY_DAYS)) * 86_400_000
     const startMs = utcForLocal(day, hour, Math.floor(rng() * 60), timeZone)
     if (localSlot(startMs, timeZone).weekday === 0) continue // closed on Sundays
-    const generated = generateRoadDrive({ layout, seed: 90_000 + k, startMs, home: location, traffic: demoTraffic(layout, hour), hz: 0.25, profile: resolved })
+    const generated = generateRoadDrive({
+      layout,
+      seed: 90_000 + k,
+      startMs,
+      home: location,
+      traffic: demoTraffic(layout, hour),
+      hz: 0.25,
+      profile: resolved,
+    })
     const file = { ...generated, samples: generated.samples.map(storedSample) } // scored as stored
     const score = scoreDrive(file)
     const id = uuidFrom(`${shopId}:road-history:${k}`)
@@ -91,10 +118,25 @@ export async function seedRoadHistory(db: Db, shopId: string, { nowMs = Date.now
       await insertSamples(trx, id, shopId, file.samples)
       await trx
         .insertInto("mark")
-        .values(file.marks.map((m, i) => ({ id: uuidFrom(`${id}:mark:${i}`), drive_id: id, shop_id: shopId, t: m.t, kind: m.kind, gap_ft: "gapFt" in m ? (m.gapFt ?? null) : null, text: "text" in m ? (m.text ?? null) : null, created_by: tech.id })))
+        .values(
+          file.marks.map((m, i) => ({
+            id: uuidFrom(`${id}:mark:${i}`),
+            drive_id: id,
+            shop_id: shopId,
+            t: m.t,
+            kind: m.kind,
+            gap_ft: "gapFt" in m ? (m.gapFt ?? null) : null,
+            text: "text" in m ? (m.text ?? null) : null,
+            created_by: tech.id,
+          })),
+        )
         .execute()
-      await trx.insertInto("score").values({ drive_id: id, shop_id: shopId, verdict: score.verdict, result: JSON.stringify(score) }).execute()
-      if (roadKnowledge) await applyDriveContribution(trx, drive, score.clearedAtSeconds, computeDriveContribution(file, timeZone))
+      await trx
+        .insertInto("score")
+        .values({ drive_id: id, shop_id: shopId, verdict: score.verdict, result: JSON.stringify(score) })
+        .execute()
+      if (roadKnowledge)
+        await applyDriveContribution(trx, drive, score.clearedAtSeconds, computeDriveContribution(file, timeZone))
     })
     if (!loopNames.has(layout.key)) loopNames.set(layout.key, id)
     made++
@@ -103,8 +145,20 @@ export async function seedRoadHistory(db: Db, shopId: string, { nowMs = Date.now
   for (const layout of DEMO_ROAD_LAYOUTS) {
     const driveId = loopNames.get(layout.key)
     if (!driveId) continue
-    const row = await db.selectFrom("road_drive").select("loop_id").where("drive_id", "=", driveId).where("shop_id", "=", shopId).executeTakeFirst()
-    if (row?.loop_id) await db.updateTable("road_loop").set({ name: layout.name }).where("id", "=", row.loop_id).where("shop_id", "=", shopId).where("name", "is", null).execute()
+    const row = await db
+      .selectFrom("road_drive")
+      .select("loop_id")
+      .where("drive_id", "=", driveId)
+      .where("shop_id", "=", shopId)
+      .executeTakeFirst()
+    if (row?.loop_id)
+      await db
+        .updateTable("road_loop")
+        .set({ name: layout.name })
+        .where("id", "=", row.loop_id)
+        .where("shop_id", "=", shopId)
+        .where("name", "is", null)
+        .execute()
   }
   await bumpRoadModelVersion(db, shopId)
   return made

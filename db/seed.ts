@@ -28,8 +28,18 @@ const SHOPS = [
 /** Default condition profiles: one per drive-type sensor task. Keys as in the drive file's profile. */
 export const DEFAULT_PROFILES = [
   { key: "forward-radar", name: "Forward radar, drive learn", sensor: "forward_radar", settings: {} },
-  { key: "forward-camera", name: "Forward camera, drive learn", sensor: "forward_camera", settings: { minFollowingMinutes: 0 } },
-  { key: "corner-radar", name: "Corner radar, drive learn", sensor: "corner_radar", settings: { minFollowingMinutes: 0 } },
+  {
+    key: "forward-camera",
+    name: "Forward camera, drive learn",
+    sensor: "forward_camera",
+    settings: { minFollowingMinutes: 0 },
+  },
+  {
+    key: "corner-radar",
+    name: "Corner radar, drive learn",
+    sensor: "corner_radar",
+    settings: { minFollowingMinutes: 0 },
+  },
   { key: "rear-radar", name: "Rear radar, drive learn", sensor: "rear_radar", settings: { minFollowingMinutes: 0 } },
 ] as const
 
@@ -44,14 +54,24 @@ export async function seed(db: Db) {
         (
           await trx
             .insertInto("shop")
-            .values({ name: shopSeed.name, settings: JSON.stringify({ units: "imperial", tirePressureTolerancePsi: 3 }) })
+            .values({
+              name: shopSeed.name,
+              settings: JSON.stringify({ units: "imperial", tirePressureTolerancePsi: 3 }),
+            })
             .returning("id")
             .executeTakeFirstOrThrow()
         ).id
       await trx
         .insertInto("app_user")
         .values(
-          shopSeed.users.map((u) => ({ id: randomUUID(), shop_id: shopId, email: u.email, name: u.name, role: u.role, password_hash: passwordHash })),
+          shopSeed.users.map((u) => ({
+            id: randomUUID(),
+            shop_id: shopId,
+            email: u.email,
+            name: u.name,
+            role: u.role,
+            password_hash: passwordHash,
+          })),
         )
         .onConflict((oc) => oc.column("email").doNothing())
         .execute()
@@ -75,7 +95,10 @@ export async function seed(db: Db) {
   }
   await seedDemoJobsAndDrives(db, shopIds[0]!)
   await seedRoadHistory(db, shopIds[0]!)
-  const counts = await sql<{ users: number; shops: number }>`select (select count(*) from app_user)::int as users, (select count(*) from shop)::int as shops`.execute(db)
+  const counts = await sql<{
+    users: number
+    shops: number
+  }>`select (select count(*) from app_user)::int as users, (select count(*) from shop)::int as shops`.execute(db)
   return counts.rows[0]
 }
 

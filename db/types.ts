@@ -339,7 +339,8 @@ export interface RoadDriveTable {
   updated_at: GeneratedTimestamp
 }
 
-export type RevisionCause = "finish" | "import" | "late_samples" | "late_marks" | "mark_removed" | "refinish" | "review" | "resealed"
+export type RevisionCause =
+  "finish" | "import" | "late_samples" | "late_marks" | "mark_removed" | "refinish" | "review" | "resealed"
 
 /** One revision of a finished drive's record: the score then, and the digest of drive file + score + review. */
 export interface ScoreRevisionTable {

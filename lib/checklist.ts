@@ -35,7 +35,14 @@ export function checkTires(tires: ChecklistData["tires"], tolerancePsi: number):
   return WHEELS.map((wheel) => {
     const difference = tires[wheel] - tires.placard
     // The 1e-9 slack keeps a reading exactly at the tolerance (after a unit conversion) inside it.
-    return { wheel, label: WHEEL_LABEL[wheel], pressure: tires[wheel], unit: tires.unit, difference, ok: Math.abs(difference) <= tolerance + 1e-9 }
+    return {
+      wheel,
+      label: WHEEL_LABEL[wheel],
+      pressure: tires[wheel],
+      unit: tires.unit,
+      difference,
+      ok: Math.abs(difference) <= tolerance + 1e-9,
+    }
   })
 }
 
@@ -60,10 +67,17 @@ type Blocker = { key: string; message: string }
 
 export type ChecklistAssessment = { ready: boolean; blockers: Blocker[]; tires: TireCheck[] }
 
-export function assessChecklist(data: ChecklistData, task: TaskForChecklist, tolerancePsi = DEFAULT_TIRE_TOLERANCE_PSI): ChecklistAssessment {
+export function assessChecklist(
+  data: ChecklistData,
+  task: TaskForChecklist,
+  tolerancePsi = DEFAULT_TIRE_TOLERANCE_PSI,
+): ChecklistAssessment {
   const blockers: Blocker[] = []
   if (!data.faultCodes.none && data.faultCodes.expected.length === 0) {
-    blockers.push({ key: "faultCodes", message: "Read the stored fault codes: tick none, or list the ones you expect." })
+    blockers.push({
+      key: "faultCodes",
+      message: "Read the stored fault codes: tick none, or list the ones you expect.",
+    })
   }
   const tires = checkTires(data.tires, tolerancePsi)
   const unitTolerance = data.tires.unit === "psi" ? `${tolerancePsi} psi` : `${round1(psiToKpa(tolerancePsi))} kPa`
@@ -74,10 +88,16 @@ export function assessChecklist(data: ChecklistData, task: TaskForChecklist, tol
       message: `${t.label} tire is ${round1(Math.abs(t.difference))} ${t.unit} ${side} the placard (allowed ${unitTolerance}): set it before driving.`,
     })
   }
-  if (!data.loadNormal) blockers.push({ key: "loadNormal", message: "Unload the vehicle to its normal load (no heavy cargo, no trailer)." })
-  if (!fuelEnough(data.fuelLevel)) blockers.push({ key: "fuelLevel", message: "Add fuel: a drive can take 30 minutes." })
+  if (!data.loadNormal)
+    blockers.push({ key: "loadNormal", message: "Unload the vehicle to its normal load (no heavy cargo, no trailer)." })
+  if (!fuelEnough(data.fuelLevel))
+    blockers.push({ key: "fuelLevel", message: "Add fuel: a drive can take 30 minutes." })
   if (!data.sensorClean) blockers.push({ key: "sensorClean", message: "Clean the sensor face and its cover." })
-  if (!data.mountUndamaged) blockers.push({ key: "mountUndamaged", message: "Fix the mount or bracket first: a bent bracket cannot be calibrated out." })
+  if (!data.mountUndamaged)
+    blockers.push({
+      key: "mountUndamaged",
+      message: "Fix the mount or bracket first: a bent bracket cannot be calibrated out.",
+    })
   if (alignmentRequired(task) && data.alignmentChecked !== true) {
     blockers.push({ key: "alignmentChecked", message: "Check the wheel alignment (thrust line) before calibrating." })
   }

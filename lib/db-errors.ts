@@ -15,7 +15,12 @@ const UNAVAILABLE_CODES = new Set([
   "53300", // too_many_connections
 ])
 
-const UNAVAILABLE_MESSAGES = [/Connection terminated/i, /timeout exceeded when trying to connect/i, /Client has encountered a connection error/i, /the database system is (starting up|shutting down)/i]
+const UNAVAILABLE_MESSAGES = [
+  /Connection terminated/i,
+  /timeout exceeded when trying to connect/i,
+  /Client has encountered a connection error/i,
+  /the database system is (starting up|shutting down)/i,
+]
 
 /** Whether an error means the database cannot be reached now (a 503), rather than a bug (a 500). */
 export function isDatabaseUnavailable(error: unknown, depth = 0): boolean {
@@ -39,5 +44,9 @@ const UNIQUE_MESSAGES: Record<string, { message: string; fields: Record<string, 
 
 export function uniqueViolationAnswer(error: unknown): { message: string; fields?: Record<string, string> } {
   const constraint = (error as { constraint?: unknown } | null)?.constraint
-  return (typeof constraint === "string" && UNIQUE_MESSAGES[constraint]) || { message: "That exists already (made by another request at the same time)." }
+  return (
+    (typeof constraint === "string" && UNIQUE_MESSAGES[constraint]) || {
+      message: "That exists already (made by another request at the same time).",
+    }
+  )
 }

@@ -7,8 +7,14 @@ const schema = z.object({
   APP_URL: z.string().url().default("http://127.0.0.1:3000"),
   APP_SECRET: z.string().min(16).default("development-only-secret-change-me"),
   NODE_ENV: z.enum(["development", "production", "test"]).default("development"),
-  TRUST_PROXY: z.string().optional().transform((v) => v === "1" || v === "true"),
-  SECURE_COOKIES: z.string().optional().transform((v) => v === "1" || v === "true"),
+  TRUST_PROXY: z
+    .string()
+    .optional()
+    .transform((v) => v === "1" || v === "true"),
+  SECURE_COOKIES: z
+    .string()
+    .optional()
+    .transform((v) => v === "1" || v === "true"),
   S3_ENDPOINT: z.string().optional(),
   S3_REGION: z.string().default("us-east-1"),
   S3_BUCKET: z.string().default("straightaway"),

@@ -3,7 +3,14 @@ import type { MarkKind } from "@/lib/drive-file/schema"
 // The task values of the API contract (shared/specs/api.md) and the words people read for them.
 // No zod here: the recorder's client bundle imports this file.
 
-export const SENSORS = ["forward_radar", "forward_camera", "corner_radar", "rear_radar", "surround_camera", "other"] as const
+export const SENSORS = [
+  "forward_radar",
+  "forward_camera",
+  "corner_radar",
+  "rear_radar",
+  "surround_camera",
+  "other",
+] as const
 export const METHODS = ["dynamic", "static", "both"] as const
 export const REASONS = [
   "removed_and_reinstalled",

@@ -116,7 +116,12 @@ export function topReasons(drives: readonly NumbersDrive[], limit = 7): ReasonCo
   const counts = new Map<string, number>()
   for (const d of drives) for (const key of new Set(d.unmetConditions)) counts.set(key, (counts.get(key) ?? 0) + 1)
   return [...counts.entries()]
-    .map(([key, n]) => ({ key, label: CONDITION_PROBLEM[key] ?? key, drives: n, share: drives.length ? n / drives.length : 0 }))
+    .map(([key, n]) => ({
+      key,
+      label: CONDITION_PROBLEM[key] ?? key,
+      drives: n,
+      share: drives.length ? n / drives.length : 0,
+    }))
     .sort((a, b) => b.drives - a.drives || a.key.localeCompare(b.key))
     .slice(0, limit)
 }
@@ -143,7 +148,12 @@ export function perTechnician(drives: readonly NumbersDrive[]): TechnicianNumber
         drives: list.length,
         met,
         metShare: met / list.length,
-        medianSecondsToClear: wholeSeconds(percentile(list.filter((d) => d.clearedAtSeconds != null).map((d) => d.clearedAtSeconds!), 50)),
+        medianSecondsToClear: wholeSeconds(
+          percentile(
+            list.filter((d) => d.clearedAtSeconds != null).map((d) => d.clearedAtSeconds!),
+            50,
+          ),
+        ),
         harshEvents: list.reduce((n, d) => n + d.harshEvents, 0),
         sentBack: list.filter((d) => d.reviewStatus === "redo").length,
       }

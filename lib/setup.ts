@@ -31,7 +31,9 @@ export const SCAN_RESULT_LABEL: Readonly<Record<ScanResult, string>> = {
 }
 
 const finite = (what: string) =>
-  z.number({ error: (iss) => (iss.input === undefined ? "is required" : `must be ${what}`) }).refine(Number.isFinite, { error: "must be a finite number" })
+  z
+    .number({ error: (iss) => (iss.input === undefined ? "is required" : `must be ${what}`) })
+    .refine(Number.isFinite, { error: "must be a finite number" })
 
 const setupMeasurementSchema = z
   .object({
@@ -47,12 +49,15 @@ const setupMeasurementSchema = z
       .max(12, { error: "must be at most 12 characters" }),
   })
   .superRefine((m, ctx) => {
-    if (m.key === "other" && !m.label) ctx.addIssue({ code: "custom", path: ["label"], message: "is required for an other measurement" })
+    if (m.key === "other" && !m.label)
+      ctx.addIssue({ code: "custom", path: ["label"], message: "is required for an other measurement" })
   })
 export type SetupMeasurement = z.output<typeof setupMeasurementSchema>
 
 export const setupInputSchema = z.object({
-  measurements: z.array(setupMeasurementSchema, { error: "must be an array" }).max(30, { error: "must hold at most 30 measurements" }),
+  measurements: z
+    .array(setupMeasurementSchema, { error: "must be an array" })
+    .max(30, { error: "must hold at most 30 measurements" }),
   scanResult: z.enum(SCAN_RESULTS, { error: `must be one of ${SCAN_RESULTS.join(", ")}` }),
   scanNotes: z.string().trim().max(2000, { error: "must be at most 2000 characters" }).optional(),
 })

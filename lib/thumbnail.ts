@@ -25,7 +25,12 @@ export function isQuarterTurn(orientation: number | undefined) {
  * The thumbnail's size: the picture as it should be seen (EXIF orientation applied) scaled so its long side is at
  * most `maxPx`, keeping the aspect ratio. Never enlarges; each side is at least 1 px.
  */
-export function thumbnailSize(widthPx: number, heightPx: number, orientation?: number, maxPx = THUMBNAIL_MAX_PX): { widthPx: number; heightPx: number } {
+export function thumbnailSize(
+  widthPx: number,
+  heightPx: number,
+  orientation?: number,
+  maxPx = THUMBNAIL_MAX_PX,
+): { widthPx: number; heightPx: number } {
   if (![widthPx, heightPx, maxPx].every((v) => Number.isInteger(v) && v > 0)) {
     throw new RangeError("thumbnailSize: width, height and maxPx must be positive whole numbers of pixels")
   }

@@ -7,10 +7,29 @@ const MODEL_YEAR_POSITION = 10
 
 // 49 CFR 565, "Assigned Values" table. Digits keep their own value. I, O and Q have no value.
 const LETTER_VALUES: Readonly<Record<string, number>> = {
-  A: 1, B: 2, C: 3, D: 4, E: 5, F: 6, G: 7, H: 8,
-  J: 1, K: 2, L: 3, M: 4, N: 5,
-  P: 7, R: 9,
-  S: 2, T: 3, U: 4, V: 5, W: 6, X: 7, Y: 8, Z: 9,
+  A: 1,
+  B: 2,
+  C: 3,
+  D: 4,
+  E: 5,
+  F: 6,
+  G: 7,
+  H: 8,
+  J: 1,
+  K: 2,
+  L: 3,
+  M: 4,
+  N: 5,
+  P: 7,
+  R: 9,
+  S: 2,
+  T: 3,
+  U: 4,
+  V: 5,
+  W: 6,
+  X: 7,
+  Y: 8,
+  Z: 9,
 }
 
 // 49 CFR 565, "VIN Position and Weight Factor" table, positions 1-17. Position 9 (the check digit) weighs 0.

@@ -72,7 +72,9 @@ const mailApi = http.createServer((req, res) => {
 })
 await new Promise((resolve) => mailApi.listen(mailApiPort, host, resolve))
 
-process.stdout.write(`[straightaway] Fakes ready: S3 on ${host}:${s3Port}, SMTP on ${host}:${smtpPort}, mail list on ${host}:${mailApiPort}\n`)
+process.stdout.write(
+  `[straightaway] Fakes ready: S3 on ${host}:${s3Port}, SMTP on ${host}:${smtpPort}, mail list on ${host}:${mailApiPort}\n`,
+)
 process.send?.({ ready: true })
 
 const stop = async () => {

@@ -8,25 +8,47 @@ const out = path.join(import.meta.dirname, "..", "public", "icons")
 fs.mkdirSync(out, { recursive: true })
 
 // Shapes in a 32 x 32 box, as in components/shell/logo.tsx.
-const ROAD = [[6, 28], [14.5, 6], [17.5, 6], [26, 28]]
+const ROAD = [
+  [6, 28],
+  [14.5, 6],
+  [17.5, 6],
+  [26, 28],
+]
 const DASHES = [
-  [[15.4, 26], [16.6, 26], [16.3, 21], [15.7, 21]],
-  [[15.6, 18], [16.4, 18], [16.2, 14.5], [15.8, 14.5]],
-  [[15.8, 12], [16.2, 12], [16.1, 9.5], [15.9, 9.5]],
+  [
+    [15.4, 26],
+    [16.6, 26],
+    [16.3, 21],
+    [15.7, 21],
+  ],
+  [
+    [15.6, 18],
+    [16.4, 18],
+    [16.2, 14.5],
+    [15.8, 14.5],
+  ],
+  [
+    [15.8, 12],
+    [16.2, 12],
+    [16.1, 9.5],
+    [15.9, 9.5],
+  ],
 ]
 const COLORS = { bg: [0x27, 0x2c, 0x33], road: [0x5d, 0x67, 0x73], line: [0xff, 0xbf, 0x3d], sky: [0x17, 0x18, 0x1a] }
 
 function inside(poly, x, y) {
   let c = false
   for (let i = 0, j = poly.length - 1; i < poly.length; j = i++) {
-    const [xi, yi] = poly[i], [xj, yj] = poly[j]
+    const [xi, yi] = poly[i],
+      [xj, yj] = poly[j]
     if (yi > y !== yj > y && x < ((xj - xi) * (y - yi)) / (yj - yi) + xi) c = !c
   }
   return c
 }
 
 function inRoundedSquare(x, y, r) {
-  const cx = Math.min(Math.max(x, r), 32 - r), cy = Math.min(Math.max(y, r), 32 - r)
+  const cx = Math.min(Math.max(x, r), 32 - r),
+    cy = Math.min(Math.max(y, r), 32 - r)
   return (x - cx) ** 2 + (y - cy) ** 2 <= r * r
 }
 
@@ -42,7 +64,8 @@ function draw(size, { safe = 1, rounded = true } = {}) {
           const X = ((pxi + (sx + 0.5) / ss) / size) * 32
           const Y = ((py + (sy + 0.5) / ss) / size) * 32
           if (rounded && !inRoundedSquare(X, Y, 7)) continue
-          const x = 16 + (X - 16) / safe, y = 16 + (Y - 16) / safe
+          const x = 16 + (X - 16) / safe,
+            y = 16 + (Y - 16) / safe
           let c = COLORS.bg
           if (y < 6) c = COLORS.sky
           if (inside(ROAD, x, y)) c = COLORS.road
@@ -50,7 +73,8 @@ function draw(size, { safe = 1, rounded = true } = {}) {
           acc = [acc[0] + c[0], acc[1] + c[1], acc[2] + c[2], acc[3] + 255]
         }
       }
-      const n = ss * ss, o = (py * size + pxi) * 4
+      const n = ss * ss,
+        o = (py * size + pxi) * 4
       const a = acc[3] / n
       px[o] = a ? Math.round(acc[0] / (acc[3] / 255)) : 0
       px[o + 1] = a ? Math.round(acc[1] / (acc[3] / 255)) : 0
@@ -62,7 +86,8 @@ function draw(size, { safe = 1, rounded = true } = {}) {
 }
 
 function crc32(buf) {
-  let c, crc = 0xffffffff
+  let c,
+    crc = 0xffffffff
   for (let n = 0; n < buf.length; n++) {
     c = (crc ^ buf[n]) & 0xff
     for (let k = 0; k < 8; k++) c = c & 1 ? 0xedb88320 ^ (c >>> 1) : c >>> 1
@@ -72,19 +97,31 @@ function crc32(buf) {
 }
 
 function chunk(type, data) {
-  const len = Buffer.alloc(4); len.writeUInt32BE(data.length)
+  const len = Buffer.alloc(4)
+  len.writeUInt32BE(data.length)
   const td = Buffer.concat([Buffer.from(type), data])
-  const crc = Buffer.alloc(4); crc.writeUInt32BE(crc32(td))
+  const crc = Buffer.alloc(4)
+  crc.writeUInt32BE(crc32(td))
   return Buffer.concat([len, td, crc])
 }
 
 function png(size, rgba) {
   const ihdr = Buffer.alloc(13)
-  ihdr.writeUInt32BE(size, 0); ihdr.writeUInt32BE(size, 4)
-  ihdr[8] = 8; ihdr[9] = 6; ihdr[10] = 0; ihdr[11] = 0; ihdr[12] = 0
+  ihdr.writeUInt32BE(size, 0)
+  ihdr.writeUInt32BE(size, 4)
+  ihdr[8] = 8
+  ihdr[9] = 6
+  ihdr[10] = 0
+  ihdr[11] = 0
+  ihdr[12] = 0
   const raw = Buffer.alloc((size * 4 + 1) * size)
   for (let y = 0; y < size; y++) rgba.copy(raw, y * (size * 4 + 1) + 1, y * size * 4, (y + 1) * size * 4)
-  return Buffer.concat([Buffer.from([137, 80, 78, 71, 13, 10, 26, 10]), chunk("IHDR", ihdr), chunk("IDAT", zlib.deflateSync(raw, { level: 9 })), chunk("IEND", Buffer.alloc(0))])
+  return Buffer.concat([
+    Buffer.from([137, 80, 78, 71, 13, 10, 26, 10]),
+    chunk("IHDR", ihdr),
+    chunk("IDAT", zlib.deflateSync(raw, { level: 9 })),
+    chunk("IEND", Buffer.alloc(0)),
+  ])
 }
 
 fs.writeFileSync(path.join(out, "icon-192.png"), draw(192))

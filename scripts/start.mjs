@@ -24,12 +24,15 @@ if (!process.env.DATABASE_URL) {
   startedPostgres = !isRunning(ensurePostgresInstalled(), pgDataDir)
 }
 const wanted = [["PORT", port, host]]
-if (!process.env.S3_ENDPOINT) wanted.push(["S3_PORT", s3Port], ["SMTP_PORT", smtpPort], ["SMTP_PORT + 1 (captured mail list)", smtpPort + 1])
+if (!process.env.S3_ENDPOINT)
+  wanted.push(["S3_PORT", s3Port], ["SMTP_PORT", smtpPort], ["SMTP_PORT + 1 (captured mail list)", smtpPort + 1])
 if (startedPostgres) wanted.push(["PGPORT", pgPort])
 for (const [name, p, h] of wanted) {
   const busy = await firstBusyPort([[name, p]], h ?? "127.0.0.1")
   if (busy) {
-    log(`Port ${busy.port} (${busy.name}) is already in use, perhaps by another copy of Straightaway; stop it or set ${busy.name.split(" ")[0]} to a free port.`)
+    log(
+      `Port ${busy.port} (${busy.name}) is already in use, perhaps by another copy of Straightaway; stop it or set ${busy.name.split(" ")[0]} to a free port.`,
+    )
     process.exit(1)
   }
 }
@@ -76,5 +79,7 @@ server.on("exit", (code) => {
 })
 log(`Straightaway is at ${env.APP_URL}`)
 log("Demo accounts (demo data only; password drive-demo-2026):")
-log("  admin@demo.test (admin), lead@demo.test (shop lead), tech@demo.test (technician), codriver@demo.test (co-driver)")
+log(
+  "  admin@demo.test (admin), lead@demo.test (shop lead), tech@demo.test (technician), codriver@demo.test (co-driver)",
+)
 log("  lead@othershop.test (shop lead of a second shop)")

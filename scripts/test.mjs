@@ -27,9 +27,23 @@ if (missing.length) {
 // The read-replica suite (tests/integration/replica/) needs a streaming standby and a second app that reads from
 // it; both are started only when the run can include that suite: no file named, or one naming "replica", or
 // TEST_REPLICA=1 (TEST_REPLICA=0: never). Every other suite talks to the first app, which reads the primary only.
-const takesValue = new Set(["--project", "-t", "--testNamePattern", "--reporter", "--shard", "--config", "-c", "--root", "-r", "--dir", "--exclude"])
+const takesValue = new Set([
+  "--project",
+  "-t",
+  "--testNamePattern",
+  "--reporter",
+  "--shard",
+  "--config",
+  "-c",
+  "--root",
+  "-r",
+  "--dir",
+  "--exclude",
+])
 const filters = vitestArgs.filter((a, i) => !a.startsWith("-") && !takesValue.has(vitestArgs[i - 1]))
-const projects = vitestArgs.flatMap((a, i) => (vitestArgs[i - 1] === "--project" ? [a] : a.startsWith("--project=") ? [a.slice(10)] : []))
+const projects = vitestArgs.flatMap((a, i) =>
+  vitestArgs[i - 1] === "--project" ? [a] : a.startsWith("--project=") ? [a.slice(10)] : [],
+)
 const wantsReplica =
   process.env.TEST_REPLICA === "1" ||
   (process.env.TEST_REPLICA !== "0" &&
@@ -48,7 +62,10 @@ try {
     s3Port: Number(process.env.TEST_S3_PORT ?? 14569),
     smtpPort: Number(process.env.TEST_SMTP_PORT ?? 12525),
     replica: wantsReplica
-      ? { port: Number(process.env.TEST_REPLICA_APP_PORT ?? port + 1000), pgPort: Number(process.env.TEST_PG_REPLICA_PORT ?? pgPort + 1000) }
+      ? {
+          port: Number(process.env.TEST_REPLICA_APP_PORT ?? port + 1000),
+          pgPort: Number(process.env.TEST_PG_REPLICA_PORT ?? pgPort + 1000),
+        }
       : null,
   })
   const env = {
@@ -56,7 +73,9 @@ try {
     TEST_BASE_URL: stack.baseUrl,
     CHROMIUM_PATH: chromium,
     NODE_ENV: "test",
-    ...(stack.replica ? { TEST_REPLICA_BASE_URL: stack.replica.baseUrl, TEST_REPLICA_DATABASE_URL: stack.replica.databaseUrl } : {}),
+    ...(stack.replica
+      ? { TEST_REPLICA_BASE_URL: stack.replica.baseUrl, TEST_REPLICA_DATABASE_URL: stack.replica.databaseUrl }
+      : {}),
   }
   code = run(npx("vitest"), ["run", ...vitestArgs], { env, check: false }).status ?? 1
 } catch (error) {

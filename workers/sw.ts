@@ -23,7 +23,8 @@ const PAGES = "straightaway-pages"
 
 // A page that redirected (to sign-in, say) must never be kept as the page that was asked for.
 const notRedirected = {
-  cacheWillUpdate: async ({ response }: { response: Response }) => (response.ok && !response.redirected ? response : null),
+  cacheWillUpdate: async ({ response }: { response: Response }) =>
+    response.ok && !response.redirected ? response : null,
 }
 
 // The recorder keeps its drive in `?drive=`: every recorder address is served by the one saved /record page,
@@ -38,7 +39,8 @@ function shellKey(url: URL) {
 }
 
 registerRoute(
-  ({ request, url }) => request.mode === "navigate" && url.origin === self.location.origin && url.pathname.startsWith("/record"),
+  ({ request, url }) =>
+    request.mode === "navigate" && url.origin === self.location.origin && url.pathname.startsWith("/record"),
   async ({ request, url }) => {
     const cache = await caches.open(SHELL)
     const key = shellKey(url)
@@ -49,7 +51,8 @@ registerRoute(
     })
     network.catch(() => {})
     const slow = new Promise<never>((_, reject) => setTimeout(() => reject(new Error("slow network")), NETWORK_WAIT_MS))
-    const saved = async () => (await cache.match(key, { ignoreVary: true })) ?? (await cache.match("/record", { ignoreVary: true }))
+    const saved = async () =>
+      (await cache.match(key, { ignoreVary: true })) ?? (await cache.match("/record", { ignoreVary: true }))
     try {
       const res = await Promise.race([network, slow])
       // The server up but its database not (a 503 page) or failing: the saved recorder still records offline.
@@ -101,7 +104,11 @@ self.addEventListener("message", (event) => {
 // React Server Component payloads for client-side navigation between cached pages.
 registerRoute(
   ({ request, url }) => url.origin === self.location.origin && request.headers.get("RSC") === "1",
-  new NetworkFirst({ cacheName: "straightaway-rsc", networkTimeoutSeconds: 4, plugins: [new ExpirationPlugin({ maxEntries: 120 })] }),
+  new NetworkFirst({
+    cacheName: "straightaway-rsc",
+    networkTimeoutSeconds: 4,
+    plugins: [new ExpirationPlugin({ maxEntries: 120 })],
+  }),
 )
 
 // Read-only API data the recorder needs offline (jobs, profiles, the drive list): last good copy.
@@ -111,7 +118,11 @@ registerRoute(
     url.origin === self.location.origin &&
     /^\/api\/(jobs|profiles|drives|session)(\/|$|\?)/.test(url.pathname) &&
     !/\/live$/.test(url.pathname), // the live channel streams: never through a cache
-  new NetworkFirst({ cacheName: "straightaway-api", networkTimeoutSeconds: 4, plugins: [notRedirected, new ExpirationPlugin({ maxEntries: 200 })] }),
+  new NetworkFirst({
+    cacheName: "straightaway-api",
+    networkTimeoutSeconds: 4,
+    plugins: [notRedirected, new ExpirationPlugin({ maxEntries: 200 })],
+  }),
 )
 
 registerRoute(

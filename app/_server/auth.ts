@@ -65,5 +65,3 @@ export async function requirePageRole(...roles: Role[]): Promise<SessionUser> {
   if (roles.length && !hasRole(current.user.role, roles)) redirect("/")
   return current.user
 }
-
-

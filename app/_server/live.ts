@@ -82,7 +82,13 @@ interface Hub {
 const globalForLive = globalThis as unknown as { straightawayLiveHub?: Hub }
 
 function hub(): Hub {
-  globalForLive.straightawayLiveHub ??= { client: null, connecting: null, connected: false, cache: new Map(), watches: new Map() }
+  globalForLive.straightawayLiveHub ??= {
+    client: null,
+    connecting: null,
+    connected: false,
+    cache: new Map(),
+    watches: new Map(),
+  }
   return globalForLive.straightawayLiveHub
 }
 
@@ -140,7 +146,11 @@ function onNotice(n: DriveNotice) {
   if (n.k === "samples") {
     // This process applied its own batches when they committed (noteSamplesStored).
     if (n.o !== liveOrigin() && entry) {
-      if (n.rows) apply(entry, { type: "samples", samples: n.rows.map(([t, lat, lon, speed, accuracy]) => ({ t, lat, lon, speed, accuracy })) })
+      if (n.rows)
+        apply(entry, {
+          type: "samples",
+          samples: n.rows.map(([t, lat, lon, speed, accuracy]) => ({ t, lat, lon, speed, accuracy })),
+        })
       else apply(entry, { type: "drop" })
     }
     scheduleScore(n.d)
@@ -226,7 +236,10 @@ function entryFor(db: Db, drive: Drive): Entry {
   while (h.cache.size > MAX_CACHED_DRIVES) drop(h.cache.values().next().value!)
   entry.ready = (async () => {
     try {
-      const [samples, marks] = await Promise.all([listSamples(db, drive.id, drive.shop_id), listMarksWithSeq(db, drive.id, drive.shop_id)])
+      const [samples, marks] = await Promise.all([
+        listSamples(db, drive.id, drive.shop_id),
+        listMarksWithSeq(db, drive.id, drive.shop_id),
+      ])
       for (const s of samples) entry.ts.add(s.t)
       entry.scorer.addSamples(samples)
       for (const m of marks) entry.marks.set(m.id, { t: m.t, seq: m.seq })
@@ -296,13 +309,23 @@ export function noteMarkRemoved(driveId: string) {
  * Finish or review, or any other event kind the live channel defines. Call inside the transaction of the
  * change; the event goes out when it commits. Returns the event id.
  */
-export function publishDriveEvent(db: Db, drive: Pick<Drive, "id" | "shop_id">, kind: DriveEventKind, body: Record<string, unknown>) {
+export function publishDriveEvent(
+  db: Db,
+  drive: Pick<Drive, "id" | "shop_id">,
+  kind: DriveEventKind,
+  body: Record<string, unknown>,
+) {
   return insertDriveEvent(db, drive.id, drive.shop_id, kind, body)
 }
 
 /** The status body of a drive, as `status` events and snapshots carry it. */
 export function statusBody(drive: Drive) {
-  return { status: drive.status, verdict: drive.verdict, reviewStatus: drive.review_status, finishedAt: drive.finished_at }
+  return {
+    status: drive.status,
+    verdict: drive.verdict,
+    reviewStatus: drive.review_status,
+    finishedAt: drive.finished_at,
+  }
 }
 
 // ---- what a screen gets ----
@@ -318,7 +341,12 @@ async function currentScore(db: Db, drive: Drive): Promise<Score> {
 
 async function roNumber(db: Db, drive: Drive): Promise<string | null> {
   if (!drive.job_id) return null
-  const row = await db.selectFrom("job").select("ro_number").where("id", "=", drive.job_id).where("shop_id", "=", drive.shop_id).executeTakeFirst()
+  const row = await db
+    .selectFrom("job")
+    .select("ro_number")
+    .where("id", "=", drive.job_id)
+    .where("shop_id", "=", drive.shop_id)
+    .executeTakeFirst()
   return row?.ro_number ?? null
 }
 

@@ -40,7 +40,11 @@ export async function sendMail(mail: OutgoingMail) {
     to: mail.to,
     subject: mail.subject,
     text: mail.text,
-    attachments: mail.attachments?.map((a) => ({ filename: a.filename, contentType: a.contentType, content: Buffer.from(a.content) })),
+    attachments: mail.attachments?.map((a) => ({
+      filename: a.filename,
+      contentType: a.contentType,
+      content: Buffer.from(a.content),
+    })),
   })
 }
 
@@ -71,7 +75,10 @@ export type CapturedMail = {
 export async function listCapturedMail(): Promise<CapturedMail[]> {
   const base = env().MAIL_FAKE_URL
   if (!base) return []
-  const res = await fetch(`${base.replace(/\/$/, "")}/messages`, { cache: "no-store", signal: AbortSignal.timeout(5000) })
+  const res = await fetch(`${base.replace(/\/$/, "")}/messages`, {
+    cache: "no-store",
+    signal: AbortSignal.timeout(5000),
+  })
   if (!res.ok) throw new Error(`mail fake answered ${res.status}`)
   const body = (await res.json()) as { messages?: CapturedMail[] }
   return (body.messages ?? []).map((m) => ({

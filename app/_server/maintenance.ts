@@ -22,7 +22,9 @@ async function runMaintenanceOnce(): Promise<void> {
   try {
     const { deletedSamples, droppedPartitions } = await applySampleRetention(db)
     if (deletedSamples > 0 || droppedPartitions.length > 0) {
-      console.log(`[straightaway] sample retention: ${deletedSamples} samples deleted, months dropped: ${droppedPartitions.join(", ") || "none"}`)
+      console.log(
+        `[straightaway] sample retention: ${deletedSamples} samples deleted, months dropped: ${droppedPartitions.join(", ") || "none"}`,
+      )
     }
   } catch (error) {
     console.error("[straightaway] sample retention failed:", (error as Error).message)

@@ -10,7 +10,12 @@ import type { Score } from "@/lib/scoring/types"
  * The record's per-system section (issue 13): for each task of the drive's job, its static set-up, the
  * learn drives made for it, and its checks in the job's latest road test (by start; finished ones first).
  */
-export async function loadCalibrations(db: Db, jobId: string, shopId: string, thisDriveId: string): Promise<CalibrationRecord[]> {
+export async function loadCalibrations(
+  db: Db,
+  jobId: string,
+  shopId: string,
+  thisDriveId: string,
+): Promise<CalibrationRecord[]> {
   const [tasks, setups, drives] = await Promise.all([
     listTasksForJob(db, jobId, shopId),
     listSetupRecordsForJob(db, jobId, shopId),
@@ -47,7 +52,11 @@ export async function loadCalibrations(db: Db, jobId: string, shopId: string, th
             scanResult: setup.scanResult,
             scanNotes: setup.scanNotes,
             override: setup.override
-              ? { note: setup.override.note, by: setup.override.by, at: setup.override.at ? new Date(setup.override.at).toISOString() : null }
+              ? {
+                  note: setup.override.note,
+                  by: setup.override.by,
+                  at: setup.override.at ? new Date(setup.override.at).toISOString() : null,
+                }
               : null,
             recordedBy: setup.updatedBy,
             recordedAt: setup.updatedAt ? new Date(setup.updatedAt).toISOString() : null,
@@ -55,13 +64,24 @@ export async function loadCalibrations(db: Db, jobId: string, shopId: string, th
         : null,
       learnDrives: drives
         .filter((d) => d.kind !== "road_test" && d.task_id === t.id)
-        .map((d) => ({ driveId: d.id, verdict: d.verdict, startedAt: new Date(d.created_at).toISOString(), thisDrive: d.id === thisDriveId })),
+        .map((d) => ({
+          driveId: d.id,
+          verdict: d.verdict,
+          startedAt: new Date(d.created_at).toISOString(),
+          thisDrive: d.id === thisDriveId,
+        })),
       roadTest: latestRoadTest
         ? {
             driveId: latestRoadTest.id,
             verdict: latestRoadTest.verdict,
             thisDrive: latestRoadTest.id === thisDriveId,
-            checks: checks.map((c) => ({ label: c.label, need: c.need, minSpeedMph: c.minSpeedMph, status: c.status, speedMph: c.speedMph })),
+            checks: checks.map((c) => ({
+              label: c.label,
+              need: c.need,
+              minSpeedMph: c.minSpeedMph,
+              status: c.status,
+              speedMph: c.speedMph,
+            })),
           }
         : null,
       cautions: calibrationCautions(t.sensor, t.method),

@@ -1,7 +1,13 @@
 import "server-only"
 import type { Db } from "@/db/client"
 import { findChecklistForTask } from "@/db/queries/checklists"
-import { findDriveRecordHead, findLatestReview, findSharedDriveShop, listMarksWithLoggers, listRecordPhotos } from "@/db/queries/reviews"
+import {
+  findDriveRecordHead,
+  findLatestReview,
+  findSharedDriveShop,
+  listMarksWithLoggers,
+  listRecordPhotos,
+} from "@/db/queries/reviews"
 import { env } from "@/lib/env"
 import { DEFAULT_TIME_ZONE, isTimeZone } from "@/lib/format"
 import { shareTokenDriveId, verifyShareToken } from "@/lib/share"
@@ -35,7 +41,9 @@ export async function loadRecordData(
     listMarksWithLoggers(db, driveId, shopId),
     findLatestReview(db, driveId, shopId),
     head.task_id ? findChecklistForTask(db, head.task_id, shopId) : Promise.resolve(undefined),
-    head.job_id && opts.photos !== false ? listRecordPhotos(db, head.job_id, head.task_id, shopId) : Promise.resolve([]),
+    head.job_id && opts.photos !== false
+      ? listRecordPhotos(db, head.job_id, head.task_id, shopId)
+      : Promise.resolve([]),
   ])
   const profile = resolveProfile(head.profile as Profile)
   // Thumbnails rather than the full photos, so a record with a dozen phone photos stays a small PDF.
@@ -58,11 +66,21 @@ export async function loadRecordData(
     shopName: head.shop_name,
     job: head.ro_number ? { roNumber: head.ro_number, customerName: head.customer_name ?? "" } : null,
     vehicle: head.vin
-      ? { vin: head.vin, year: head.vehicle_year, make: head.vehicle_make, model: head.vehicle_model, plate: head.vehicle_plate }
+      ? {
+          vin: head.vin,
+          year: head.vehicle_year,
+          make: head.vehicle_make,
+          model: head.vehicle_model,
+          plate: head.vehicle_plate,
+        }
       : null,
     vehicleDescription: head.vehicle_description,
-    task: head.task_sensor ? { sensor: head.task_sensor, method: head.task_method ?? "", reason: head.task_reason ?? "" } : null,
-    profileName: head.profile_name ? `${head.profile_name}${head.profile_version ? ` (version ${head.profile_version})` : ""}` : null,
+    task: head.task_sensor
+      ? { sensor: head.task_sensor, method: head.task_method ?? "", reason: head.task_reason ?? "" }
+      : null,
+    profileName: head.profile_name
+      ? `${head.profile_name}${head.profile_version ? ` (version ${head.profile_version})` : ""}`
+      : null,
     checklist: checklist
       ? {
           rows: checklistRows(checklist.data as Record<string, unknown>, settings.tirePressureTolerancePsi ?? 3),
@@ -83,7 +101,12 @@ export async function loadRecordData(
     coDriverName: head.co_driver_name,
     markLoggers,
     review: review
-      ? { decision: review.decision, note: review.note, reviewerName: review.reviewer_name, at: new Date(review.created_at).toISOString() }
+      ? {
+          decision: review.decision,
+          note: review.note,
+          reviewerName: review.reviewer_name,
+          at: new Date(review.created_at).toISOString(),
+        }
       : null,
     startedAt: score.startedAtMs ? new Date(score.startedAtMs).toISOString() : new Date(head.created_at).toISOString(),
     finishedAt: head.finished_at ? new Date(head.finished_at).toISOString() : null,

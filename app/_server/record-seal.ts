@@ -33,10 +33,21 @@ export async function issueRecordPdf(db: Db, driveId: string, shopId: string, ch
     if (!loaded?.data || !sealed) return loaded ? { head: loaded.head, data: null, pdf: null } : undefined
     const data = {
       ...loaded.data,
-      seal: { revision: sealed.revision.revision, revisedAt: new Date(sealed.revision.created_at).toISOString(), code: sealed.revision.code, verifyUrl: verifyUrl() },
+      seal: {
+        revision: sealed.revision.revision,
+        revisedAt: new Date(sealed.revision.created_at).toISOString(),
+        code: sealed.revision.code,
+        verifyUrl: verifyUrl(),
+      },
     }
     const pdf = await buildDriveRecordPdf(data)
-    await insertIssuedRecord(trx, { shopId, driveId: drive.id, revisionId: sealed.revision.id, pdfSha256: sha256Hex(pdf), channel })
+    await insertIssuedRecord(trx, {
+      shopId,
+      driveId: drive.id,
+      revisionId: sealed.revision.id,
+      pdfSha256: sha256Hex(pdf),
+      channel,
+    })
     return { head: loaded.head, data, pdf }
   })
 }
@@ -54,8 +65,17 @@ export async function sealCurrentRecord(db: Db, driveId: string, shopId: string)
 
 /** For a share link's page: the record's latest revision, and whether it was revised after the link was made. */
 export async function shareRevisionState(db: Db, token: string, driveId: string, shopId: string) {
-  const [latest, link] = await Promise.all([findLatestRevision(db, driveId, shopId), findShareLink(db, sha256Hex(token), driveId, shopId)])
+  const [latest, link] = await Promise.all([
+    findLatestRevision(db, driveId, shopId),
+    findShareLink(db, sha256Hex(token), driveId, shopId),
+  ])
   if (!latest) return null
   const revisedAfterLink = link !== undefined && latest.revision > link.revision
-  return { revision: latest.revision, revisedAt: new Date(latest.created_at).toISOString(), code: latest.code, revisedAfterLink, linkMadeAt: link ? new Date(link.created_at).toISOString() : null }
+  return {
+    revision: latest.revision,
+    revisedAt: new Date(latest.created_at).toISOString(),
+    code: latest.code,
+    revisedAfterLink,
+    linkMadeAt: link ? new Date(link.created_at).toISOString() : null,
+  }
 }

@@ -23,8 +23,14 @@ function needsReview(score: Pick<Score, "verdict" | "harshEvents">): boolean {
  */
 export async function noticeDriveWaiting(trx: Db, drive: Drive, score: Score): Promise<Outgoing[]> {
   if (!needsReview(score)) return []
-  const [leads, head] = await Promise.all([listReviewListeners(trx, drive.shop_id), findDriveRecordHead(trx, drive.id, drive.shop_id)])
-  const vehicle = describeVehicle(head?.vin ? { year: head.vehicle_year, make: head.vehicle_make, model: head.vehicle_model } : null, drive.vehicle_description)
+  const [leads, head] = await Promise.all([
+    listReviewListeners(trx, drive.shop_id),
+    findDriveRecordHead(trx, drive.id, drive.shop_id),
+  ])
+  const vehicle = describeVehicle(
+    head?.vin ? { year: head.vehicle_year, make: head.vehicle_make, model: head.vehicle_model } : null,
+    drive.vehicle_description,
+  )
   const what = `${head?.ro_number ? `${roLabel(head.ro_number)}, ` : ""}${vehicle}`
   const verdict = drive.verdict ? (VERDICT_WORD[drive.verdict] ?? drive.verdict) : "not scored"
   const message = `A drive waits for your review (${what}): ${verdict}, driven by ${head?.driver_name ?? "someone"}.`
@@ -37,7 +43,16 @@ export async function noticeDriveWaiting(trx: Db, drive: Drive, score: Score): P
       mails.push({
         to: lead.email,
         subject: `Drive waiting for review: ${what}`,
-        text: [`Hello ${lead.name},`, "", message, "", "Review it here:", `${env().APP_URL.replace(/\/$/, "")}${link}`, "", "You get this e-mail because you asked for it on your settings page."].join("\n"),
+        text: [
+          `Hello ${lead.name},`,
+          "",
+          message,
+          "",
+          "Review it here:",
+          `${env().APP_URL.replace(/\/$/, "")}${link}`,
+          "",
+          "You get this e-mail because you asked for it on your settings page.",
+        ].join("\n"),
       })
   }
   return mails

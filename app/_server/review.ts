@@ -18,8 +18,14 @@ import { sealRevision } from "./revisions"
  * The lead's decision: close the review, move the job (redo reopens it; approve completes it once every
  * task that needs a drive is done), and on a redo tell the driver in the app and by e-mail.
  */
-export async function decideReview(db: Db, drive: Drive, reviewer: { id: string; name: string; shopId: string }, input: ReviewInput) {
-  if (drive.status !== "finished") throw new AppError("conflict", "The drive is still being recorded; review it once it is finished.")
+export async function decideReview(
+  db: Db,
+  drive: Drive,
+  reviewer: { id: string; name: string; shopId: string },
+  input: ReviewInput,
+) {
+  if (drive.status !== "finished")
+    throw new AppError("conflict", "The drive is still being recorded; review it once it is finished.")
   if (drive.review_status !== null) throw new AppError("conflict", "This drive has been reviewed already.")
   const head = await findDriveRecordHead(db, drive.id, reviewer.shopId)
   const what = `${head?.ro_number ? `${roLabel(head.ro_number)}, ` : ""}${describeVehicle(
@@ -30,10 +36,19 @@ export async function decideReview(db: Db, drive: Drive, reviewer: { id: string;
   const result = await db.transaction().execute(async (trx) => {
     // Waits for samples and marks being written (they hold the drive FOR KEY SHARE); none are taken after this.
     await findDriveForUpdate(trx, drive.id, reviewer.shopId)
-    const decided = await insertReviewDecision(trx, { driveId: drive.id, shopId: reviewer.shopId, decision: input.decision, note: input.note, reviewerId: reviewer.id })
+    const decided = await insertReviewDecision(trx, {
+      driveId: drive.id,
+      shopId: reviewer.shopId,
+      decision: input.decision,
+      note: input.note,
+      reviewerId: reviewer.id,
+    })
     if (!decided) throw new AppError("conflict", "This drive has been reviewed already.")
     if (decided.drive.job_id) {
-      const status = input.decision === "redo" ? "redo" : jobStatusFromDrives(await findJobTaskDrives(trx, decided.drive.job_id, reviewer.shopId))
+      const status =
+        input.decision === "redo"
+          ? "redo"
+          : jobStatusFromDrives(await findJobTaskDrives(trx, decided.drive.job_id, reviewer.shopId))
       await setJobStatus(trx, decided.drive.job_id, reviewer.shopId, status)
     }
     if (input.decision === "redo" && decided.drive.driver_id !== reviewer.id) {

@@ -48,9 +48,15 @@ export async function sealRevision(
     findLatestReview(trx, drive.id, drive.shop_id),
     findLatestRevision(trx, drive.id, drive.shop_id),
   ])
-  const sealed = { driveId: drive.id, driveFile, score: opts.score, review: review ? { decision: review.decision, note: review.note } : null }
+  const sealed = {
+    driveId: drive.id,
+    driveFile,
+    score: opts.score,
+    review: review ? { decision: review.decision, note: review.note } : null,
+  }
   const fileJson = canonicalDriveFile(driveFile) // the bulk of the record: written once for both digests
-  if (latest && recordDigest({ ...sealed, revision: latest.revision }, fileJson) === latest.digest) return { revision: latest, previous: null, created: false }
+  if (latest && recordDigest({ ...sealed, revision: latest.revision }, fileJson) === latest.digest)
+    return { revision: latest, previous: null, created: false }
   const revision = (latest?.revision ?? 0) + 1
   const digest = recordDigest({ ...sealed, revision }, fileJson)
   const made = await insertRevision(trx, {
@@ -74,11 +80,18 @@ export type FollowUp = { mail: OutgoingMail[] }
  * A verdict that changed after the finish: a notice in the app for every shop lead (inside the transaction)
  * and an e-mail to each (returned, to send after the commit).
  */
-export async function noticeVerdictChange(trx: Db, drive: { id: string; shop_id: string }, sealed: SealResult): Promise<FollowUp | undefined> {
+export async function noticeVerdictChange(
+  trx: Db,
+  drive: { id: string; shop_id: string },
+  sealed: SealResult,
+): Promise<FollowUp | undefined> {
   const before = sealed.previous?.verdict
   const now = sealed.revision.verdict
   if (!sealed.created || !before || before === now) return undefined
-  const [head, leads] = await Promise.all([findDriveRecordHead(trx, drive.id, drive.shop_id), listShopLeads(trx, drive.shop_id)])
+  const [head, leads] = await Promise.all([
+    findDriveRecordHead(trx, drive.id, drive.shop_id),
+    listShopLeads(trx, drive.shop_id),
+  ])
   const what = `${head?.ro_number ? `${roLabel(head.ro_number)}, ` : ""}${describeVehicle(
     head?.vin ? { year: head.vehicle_year, make: head.vehicle_make, model: head.vehicle_model } : null,
     head?.vehicle_description,

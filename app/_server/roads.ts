@@ -2,12 +2,29 @@
 // stored road model (db/queries/roads): never recomputed from samples.
 import "server-only"
 import type { Db } from "@/db/client"
-import { countRoadDrives, findLocationFromStarts, findRoadModelVersion, findRoadTracks, listCellTotals, listLoopDrives, listLoops } from "@/db/queries/roads"
+import {
+  countRoadDrives,
+  findLocationFromStarts,
+  findRoadModelVersion,
+  findRoadTracks,
+  listCellTotals,
+  listLoopDrives,
+  listLoops,
+} from "@/db/queries/roads"
 import { findShopSettings, type ResolvedShopSettings } from "@/db/queries/shop-settings"
 import { wholeSeconds } from "@/lib/format"
 import { cellCentre, cellCorners } from "@/lib/roads/cells"
 import { dayKindOf, localSlot, WEEKDAYS, type DayKind } from "@/lib/roads/clock"
-import { cellFigures, compassWord, HOUR_WINDOW, rankLoopsOnBasis, TRUSTED_DRIVES, type CellFigures, type LoopBasis, type RankedLoop } from "@/lib/roads/model"
+import {
+  cellFigures,
+  compassWord,
+  HOUR_WINDOW,
+  rankLoopsOnBasis,
+  TRUSTED_DRIVES,
+  type CellFigures,
+  type LoopBasis,
+  type RankedLoop,
+} from "@/lib/roads/model"
 import { geodesicDistanceM } from "@/lib/scoring/geodesy"
 import { WEEKDAY_KEYS, type RoadsQuery } from "@/lib/validation/roads"
 
@@ -55,7 +72,13 @@ type ModelPart = Omit<RoadsView, "enabled" | "timeZone" | "units" | "hour" | "no
 const VIEW_CACHE_MAX = 300
 const viewCache = new Map<string, Promise<ModelPart>>()
 
-export async function loadRoadsView(db: Db, shopId: string, q: RoadsQuery, nowMs = Date.now(), { withCells = true } = {}): Promise<RoadsView> {
+export async function loadRoadsView(
+  db: Db,
+  shopId: string,
+  q: RoadsQuery,
+  nowMs = Date.now(),
+  { withCells = true } = {},
+): Promise<RoadsView> {
   const [settings, version] = await Promise.all([findShopSettings(db, shopId), findRoadModelVersion(db, shopId)])
   const nowSlot = localSlot(nowMs, settings.timeZone)
   const now = { ...nowSlot, dayKind: dayKindOf(nowSlot.weekday) }
@@ -63,16 +86,50 @@ export async function loadRoadsView(db: Db, shopId: string, q: RoadsQuery, nowMs
   const askedWeekday = q.day === "now" ? now.weekday : WEEKDAY_KEYS.indexOf(q.day as (typeof WEEKDAY_KEYS)[number])
   const bases: LoopBasis[] =
     askedWeekday >= 0
-      ? [{ weekday: askedWeekday, dayKind: null }, { weekday: null, dayKind: dayKindOf(askedWeekday) }, { weekday: null, dayKind: null }]
+      ? [
+          { weekday: askedWeekday, dayKind: null },
+          { weekday: null, dayKind: dayKindOf(askedWeekday) },
+          { weekday: null, dayKind: null },
+        ]
       : [{ weekday: null, dayKind: q.day === "weekday" || q.day === "weekend" ? q.day : null }]
   const base = { timeZone: settings.timeZone, units: settings.units, hour, now, trustedDrives: TRUSTED_DRIVES }
   if (!settings.roadKnowledge) {
-    return { ...base, enabled: false, weekday: null, dayKind: null, fellBackFromWeekday: null, location: null, drives: 0, completedDrives: 0, cellsBy: "all", cells: [], loops: [] }
+    return {
+      ...base,
+      enabled: false,
+      weekday: null,
+      dayKind: null,
+      fellBackFromWeekday: null,
+      location: null,
+      drives: 0,
+      completedDrives: 0,
+      cellsBy: "all",
+      cells: [],
+      loops: [],
+    }
   }
-  const key = JSON.stringify([shopId, version, hour, bases, q.profileId ?? null, withCells, settings.location, settings.timeZone])
+  const key = JSON.stringify([
+    shopId,
+    version,
+    hour,
+    bases,
+    q.profileId ?? null,
+    withCells,
+    settings.location,
+    settings.timeZone,
+  ])
   let part = viewCache.get(key)
   if (!part) {
-    part = loadModelPart(db, shopId, settings, hour, bases, q.profileId ?? null, askedWeekday >= 0 ? askedWeekday : null, withCells)
+    part = loadModelPart(
+      db,
+      shopId,
+      settings,
+      hour,
+      bases,
+      q.profileId ?? null,
+      askedWeekday >= 0 ? askedWeekday : null,
+      withCells,
+    )
     viewCache.set(key, part)
     part.catch(() => viewCache.delete(key))
     if (viewCache.size > VIEW_CACHE_MAX) viewCache.delete(viewCache.keys().next().value!)
@@ -94,7 +151,9 @@ async function loadModelPart(
   const cellsBy = hour != null ? "hour" : askedWeekday != null ? "weekday" : "all"
   const [drives, totals, loops, derived, counts] = await Promise.all([
     listLoopDrives(db, shopId, hour == null ? undefined : hourWindow(hour)),
-    withCells ? listCellTotals(db, shopId, { hour, weekday: cellsBy === "weekday" ? askedWeekday : null }) : Promise.resolve([]),
+    withCells
+      ? listCellTotals(db, shopId, { hour, weekday: cellsBy === "weekday" ? askedWeekday : null })
+      : Promise.resolve([]),
     listLoops(db, shopId),
     settings.location ? Promise.resolve(null) : findLocationFromStarts(db, shopId),
     countRoadDrives(db, shopId),
@@ -107,7 +166,11 @@ async function loadModelPart(
   const home = location ? { lat: location.lat, lon: location.lon } : null
   const { basis, loops: allRanked } = rankLoopsOnBasis(drives, { hour, profileId, home }, bases)
   const ranked = allRanked.slice(0, LOOPS_SHOWN)
-  const tracks = await findRoadTracks(db, shopId, ranked.map((l) => l.fastestDriveId))
+  const tracks = await findRoadTracks(
+    db,
+    shopId,
+    ranked.map((l) => l.fastestDriveId),
+  )
   const loopById = new Map(loops.map((l) => [l.id, l]))
   const loopViews = ranked.map((l, i): RoadLoopView => {
     const loop = loopById.get(l.loopId)
@@ -161,7 +224,8 @@ function farthest(track: [number, number][], home: { lat: number; lon: number } 
 
 function trackLength(track: [number, number][]): number {
   let m = 0
-  for (let i = 1; i < track.length; i++) m += geodesicDistanceM(track[i - 1]![0], track[i - 1]![1], track[i]![0], track[i]![1])
+  for (let i = 1; i < track.length; i++)
+    m += geodesicDistanceM(track[i - 1]![0], track[i - 1]![1], track[i]![0], track[i]![1])
   return m
 }
 
@@ -182,7 +246,14 @@ export async function loadGoodRoadsNow(db: Db, shopId: string, nowMs = Date.now(
           drives: best.drives,
           trusted: best.trusted,
           /** the days the figure rests on: "Tuesdays", "weekdays", "weekends", or null for every day */
-          days: view.weekday != null ? `${WEEKDAYS[view.weekday]}s` : view.dayKind === "weekday" ? "weekdays" : view.dayKind === "weekend" ? "weekends" : null,
+          days:
+            view.weekday != null
+              ? `${WEEKDAYS[view.weekday]}s`
+              : view.dayKind === "weekday"
+                ? "weekdays"
+                : view.dayKind === "weekend"
+                  ? "weekends"
+                  : null,
         }
       : null,
   }

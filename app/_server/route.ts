@@ -27,9 +27,17 @@ export function route<P = Record<string, string>>(handler: Handler<P>): Handler<
       }
       if (isNextControlFlow(error)) throw error
       if (isDatabaseUnavailable(error)) {
-        console.error(`[straightaway] ${req.method} ${new URL(req.url).pathname}: the database is unavailable`, (error as Error).message)
+        console.error(
+          `[straightaway] ${req.method} ${new URL(req.url).pathname}: the database is unavailable`,
+          (error as Error).message,
+        )
         return Response.json(
-          { error: { code: "service_unavailable", message: "The database is not answering right now; try again shortly." } },
+          {
+            error: {
+              code: "service_unavailable",
+              message: "The database is not answering right now; try again shortly.",
+            },
+          },
           { status: 503, headers: { "Retry-After": String(DATABASE_RETRY_AFTER_SECONDS) } },
         )
       }
@@ -97,7 +105,8 @@ export async function readRequestText(req: Request, maxBytes = MAX_JSON_BYTES): 
     const declared = req.headers.get("content-length")
     return await readBodyText(req.body, maxBytes, declared === null ? undefined : Number(declared))
   } catch (error) {
-    if (error instanceof BodyTooLargeError) throw new AppError("too_large", `The body is over ${Math.round(maxBytes / 1024 / 1024)} MB.`)
+    if (error instanceof BodyTooLargeError)
+      throw new AppError("too_large", `The body is over ${Math.round(maxBytes / 1024 / 1024)} MB.`)
     throw new AppError("invalid_request", "The request body could not be read.")
   }
 }
@@ -119,7 +128,10 @@ export function jsonFromText(text: string, emptyAs?: unknown): unknown {
   }
   // Before any schema: text the database cannot store as sent is a 400, not a 500 or a silent change.
   const unstorable = findUnstorableText(body)
-  if (unstorable) throw new AppError("validation_failed", `${unstorable.path}: ${unstorable.problem}`, { [unstorable.path]: unstorable.problem })
+  if (unstorable)
+    throw new AppError("validation_failed", `${unstorable.path}: ${unstorable.problem}`, {
+      [unstorable.path]: unstorable.problem,
+    })
   return body
 }
 

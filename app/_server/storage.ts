@@ -1,5 +1,12 @@
 import "server-only"
-import { CopyObjectCommand, DeleteObjectCommand, GetObjectCommand, HeadObjectCommand, PutObjectCommand, S3Client } from "@aws-sdk/client-s3"
+import {
+  CopyObjectCommand,
+  DeleteObjectCommand,
+  GetObjectCommand,
+  HeadObjectCommand,
+  PutObjectCommand,
+  S3Client,
+} from "@aws-sdk/client-s3"
 import { getSignedUrl } from "@aws-sdk/s3-request-presigner"
 import { env } from "@/lib/env"
 
@@ -12,7 +19,10 @@ export function getS3(): S3Client {
     region: e.S3_REGION,
     endpoint: e.S3_ENDPOINT,
     forcePathStyle: true,
-    credentials: e.S3_ACCESS_KEY_ID && e.S3_SECRET_ACCESS_KEY ? { accessKeyId: e.S3_ACCESS_KEY_ID, secretAccessKey: e.S3_SECRET_ACCESS_KEY } : undefined,
+    credentials:
+      e.S3_ACCESS_KEY_ID && e.S3_SECRET_ACCESS_KEY
+        ? { accessKeyId: e.S3_ACCESS_KEY_ID, secretAccessKey: e.S3_SECRET_ACCESS_KEY }
+        : undefined,
     // Checksums on presigned PUTs would make browsers send headers they cannot compute.
     requestChecksumCalculation: "WHEN_REQUIRED",
     responseChecksumValidation: "WHEN_REQUIRED",
@@ -45,7 +55,13 @@ export function storedKeyFor(uploadKey: string) {
 /** A server-side copy (no bytes through the app), with the type given rather than the uploader's. */
 export async function copyObject(from: string, to: string, contentType: string) {
   await getS3().send(
-    new CopyObjectCommand({ Bucket: bucket(), CopySource: `${bucket()}/${from.split("/").map(encodeURIComponent).join("/")}`, Key: to, ContentType: contentType, MetadataDirective: "REPLACE" }),
+    new CopyObjectCommand({
+      Bucket: bucket(),
+      CopySource: `${bucket()}/${from.split("/").map(encodeURIComponent).join("/")}`,
+      Key: to,
+      ContentType: contentType,
+      MetadataDirective: "REPLACE",
+    }),
   )
 }
 
@@ -81,7 +97,15 @@ export async function getObjectBytes(key: string): Promise<Uint8Array> {
 
 /** Stores bytes made on the server (thumbnails). */
 export async function putObject(key: string, bytes: Uint8Array, contentType: string) {
-  await getS3().send(new PutObjectCommand({ Bucket: bucket(), Key: key, Body: bytes, ContentType: contentType, ContentLength: bytes.byteLength }))
+  await getS3().send(
+    new PutObjectCommand({
+      Bucket: bucket(),
+      Key: key,
+      Body: bytes,
+      ContentType: contentType,
+      ContentLength: bytes.byteLength,
+    }),
+  )
 }
 
 export async function deleteObject(key: string) {

@@ -1,6 +1,13 @@
 import "server-only"
 import sharp from "sharp"
-import { THUMBNAIL_CONTENT_TYPE, THUMBNAIL_JPEG_QUALITY, THUMBNAIL_MAX_PX, THUMBNAIL_SOURCE_TYPES, thumbnailKeyFor, thumbnailSize } from "@/lib/thumbnail"
+import {
+  THUMBNAIL_CONTENT_TYPE,
+  THUMBNAIL_JPEG_QUALITY,
+  THUMBNAIL_MAX_PX,
+  THUMBNAIL_SOURCE_TYPES,
+  thumbnailKeyFor,
+  thumbnailSize,
+} from "@/lib/thumbnail"
 import { deleteObject, getObjectBytes, putObject } from "./storage"
 
 // Every input is a different photo, so libvips' operation cache would only hold memory.
@@ -24,7 +31,11 @@ async function makeThumbnail(bytes: Uint8Array, maxPx = THUMBNAIL_MAX_PX): Promi
     .flatten({ background: "#ffffff" })
     .jpeg({ quality: THUMBNAIL_JPEG_QUALITY, mozjpeg: true })
     .toBuffer({ resolveWithObject: true })
-  return { bytes: new Uint8Array(data.buffer, data.byteOffset, data.byteLength), widthPx: info.width, heightPx: info.height }
+  return {
+    bytes: new Uint8Array(data.buffer, data.byteOffset, data.byteLength),
+    widthPx: info.width,
+    heightPx: info.height,
+  }
 }
 
 export type StoredThumbnail = { ok: true; key: string; thumbnail: Thumbnail } | { ok: false; reason: string }
@@ -57,7 +68,12 @@ export async function deleteAttachmentObjects(a: { object_key: string; thumbnail
  * A photo's bytes for the drive record PDF: its stored thumbnail, or for an upload made before thumbnails existed
  * one scaled in memory, or the original when even that fails (the PDF then says it could not be read).
  */
-export async function recordPhotoBytes(p: { id: string; object_key: string; thumbnail_key: string | null; content_type: string }) {
+export async function recordPhotoBytes(p: {
+  id: string
+  object_key: string
+  thumbnail_key: string | null
+  content_type: string
+}) {
   if (p.thumbnail_key) {
     try {
       return { contentType: THUMBNAIL_CONTENT_TYPE, bytes: await getObjectBytes(p.thumbnail_key) }

@@ -6,7 +6,12 @@ import { findShopSettings } from "@/db/queries/shop-settings"
 import { formatDateTime } from "@/lib/format"
 import type { Db } from "@/db/client"
 import { findDriveRecordHead } from "@/db/queries/reviews"
-import { countRecentVerifyAttempts, findRevisionByCode, findRevisionByPdfHash, insertVerifyAttempt } from "@/db/queries/revisions"
+import {
+  countRecentVerifyAttempts,
+  findRevisionByCode,
+  findRevisionByPdfHash,
+  insertVerifyAttempt,
+} from "@/db/queries/revisions"
 import { AppError } from "@/lib/errors"
 import { describeVehicle, VERDICT_WORD } from "@/lib/record"
 import { sha256Hex } from "@/lib/record/seal"
@@ -41,12 +46,22 @@ async function printedTime(db: Db, shopId: string, at: Date) {
  * applies, as for sign-in, so no client can lock others out; a code is 60 random bits, too many to guess.
  */
 export async function verifyRecord(db: Db, clientAddress: string | null, input: VerifyInput): Promise<VerifyAnswer> {
-  const seen = clientAddress ? await countRecentVerifyAttempts(db, clientAddress, VERIFY_WINDOW_SECONDS) : { unmatched: 0, all: 0, oldest: null }
+  const seen = clientAddress
+    ? await countRecentVerifyAttempts(db, clientAddress, VERIFY_WINDOW_SECONDS)
+    : { unmatched: 0, all: 0, oldest: null }
   if (seen.unmatched >= MAX_UNMATCHED_VERIFY || seen.all >= MAX_VERIFY) {
-    const wait = seen.oldest ? Math.max(1, Math.ceil((new Date(seen.oldest).getTime() + VERIFY_WINDOW_SECONDS * 1000 - Date.now()) / 1000)) : VERIFY_WINDOW_SECONDS
-    throw new AppError("too_many_attempts", `Too many checks from this address. Try again in ${Math.ceil(wait / 60)} min.`, undefined, { "Retry-After": String(wait) })
+    const wait = seen.oldest
+      ? Math.max(1, Math.ceil((new Date(seen.oldest).getTime() + VERIFY_WINDOW_SECONDS * 1000 - Date.now()) / 1000))
+      : VERIFY_WINDOW_SECONDS
+    throw new AppError(
+      "too_many_attempts",
+      `Too many checks from this address. Try again in ${Math.ceil(wait / 60)} min.`,
+      undefined,
+      { "Retry-After": String(wait) },
+    )
   }
-  const found = "code" in input ? await findRevisionByCode(db, input.code) : await findRevisionByPdfHash(db, sha256Hex(input.pdf))
+  const found =
+    "code" in input ? await findRevisionByCode(db, input.code) : await findRevisionByPdfHash(db, sha256Hex(input.pdf))
   const head = found ? await findDriveRecordHead(db, found.drive_id, found.shop_id) : undefined
   if (clientAddress) await insertVerifyAttempt(db, clientAddress, Boolean(found && head))
   if (!found || !head) {
@@ -61,7 +76,10 @@ export async function verifyRecord(db: Db, clientAddress: string | null, input: 
   const latest = Number(found.latest_revision)
   const record = {
     shopName: head.shop_name,
-    vehicle: describeVehicle(head.vin ? { year: head.vehicle_year, make: head.vehicle_make, model: head.vehicle_model } : null, head.vehicle_description),
+    vehicle: describeVehicle(
+      head.vin ? { year: head.vehicle_year, make: head.vehicle_make, model: head.vehicle_model } : null,
+      head.vehicle_description,
+    ),
     verdict: VERDICT_WORD[found.verdict],
     sealedAt: await printedTime(db, found.shop_id, found.created_at),
   }
@@ -89,7 +107,10 @@ export async function readBodyBytes(req: Request, maxBytes: number): Promise<Uin
     return await readStreamBytes(req.body, maxBytes, Number(req.headers.get("content-length") ?? 0))
   } catch (error) {
     if (error instanceof BodyTooLargeError) {
-      throw new AppError("too_large", `The file is over ${Math.round(maxBytes / 1024 / 1024)} MB; an issued record is far smaller.`)
+      throw new AppError(
+        "too_large",
+        `The file is over ${Math.round(maxBytes / 1024 / 1024)} MB; an issued record is far smaller.`,
+      )
     }
     throw error
   }

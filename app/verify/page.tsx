@@ -13,10 +13,18 @@ import { AppError } from "@/lib/errors"
 import { normalizeCode } from "@/lib/record/seal"
 
 export const dynamic = "force-dynamic"
-export const metadata: Metadata = { title: "Check a drive record", robots: { index: false, follow: false }, referrer: "no-referrer" }
+export const metadata: Metadata = {
+  title: "Check a drive record",
+  robots: { index: false, follow: false },
+  referrer: "no-referrer",
+}
 
 /** Public: no sign-in. A code in the address (the PDF's QR code opens it so) is checked on the server. */
-export default async function VerifyPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
+export default async function VerifyPage({
+  searchParams,
+}: {
+  searchParams: Promise<Record<string, string | string[] | undefined>>
+}) {
   const raw = (await searchParams).code
   const typed = typeof raw === "string" ? raw.slice(0, 40) : ""
   let answer: VerifyAnswerView | null = null
@@ -26,7 +34,11 @@ export default async function VerifyPage({ searchParams }: { searchParams: Promi
     if (!code) problem = "That is not a verification code. It has 12 letters and digits, like 7KQ2-M9XD-44TB."
     else {
       try {
-        answer = await verifyRecord(getDb(), clientAddress(new Request("http://verify.invalid/", { headers: await headers() })), { code })
+        answer = await verifyRecord(
+          getDb(),
+          clientAddress(new Request("http://verify.invalid/", { headers: await headers() })),
+          { code },
+        )
       } catch (error) {
         if (!(error instanceof AppError)) throw error
         problem = error.message
@@ -41,7 +53,9 @@ export default async function VerifyPage({ searchParams }: { searchParams: Promi
           <h1 className="flex items-center gap-2 text-2xl font-bold tracking-tight">
             <ShieldCheck aria-hidden className="size-6" /> Check a drive record
           </h1>
-          <p className="text-graphite-600 dark:text-graphite-300">Is this the record the shop issued, and is it the latest revision?</p>
+          <p className="text-graphite-600 dark:text-graphite-300">
+            Is this the record the shop issued, and is it the latest revision?
+          </p>
         </div>
       </header>
       <Card className="space-y-3">
@@ -66,7 +80,9 @@ export default async function VerifyPage({ searchParams }: { searchParams: Promi
             Check
           </button>
         </form>
-        <p className="text-sm text-graphite-600 dark:text-graphite-300">The code is printed on the record beside its square QR code.</p>
+        <p className="text-sm text-graphite-600 dark:text-graphite-300">
+          The code is printed on the record beside its square QR code.
+        </p>
         {problem ? (
           <p role="alert" className="font-semibold text-stop-600 dark:text-stop-400" data-testid="verify-problem">
             {problem}
@@ -82,7 +98,8 @@ export default async function VerifyPage({ searchParams }: { searchParams: Promi
         <VerifyUpload />
       </Card>
       <p className="text-sm text-graphite-600 dark:text-graphite-300">
-        A record shows how the calibration drive went. Whether the calibration is done is what the vehicle itself reports, following the maker&apos;s procedure.
+        A record shows how the calibration drive went. Whether the calibration is done is what the vehicle itself
+        reports, following the maker&apos;s procedure.
       </p>
     </main>
   )

@@ -70,7 +70,12 @@ export function UserAdmin({ meId, initialUsers }: { meId: string; initialUsers: 
             <li key={u.id} className="flex flex-wrap items-center gap-3 p-3" data-testid={`person-${u.email}`}>
               <div className="min-w-40 flex-1">
                 <p className="font-semibold">
-                  {u.name} {u.disabled ? <span className="ml-1 rounded bg-graphite-200 px-2 py-0.5 text-xs dark:bg-asphalt-700">Disabled</span> : null}
+                  {u.name}{" "}
+                  {u.disabled ? (
+                    <span className="ml-1 rounded bg-graphite-200 px-2 py-0.5 text-xs dark:bg-asphalt-700">
+                      Disabled
+                    </span>
+                  ) : null}
                 </p>
                 <p className="text-sm text-graphite-600 dark:text-graphite-300">{u.email}</p>
               </div>
@@ -95,12 +100,22 @@ export function UserAdmin({ meId, initialUsers }: { meId: string; initialUsers: 
                 {u.disabled ? "Enable" : "Disable"}
               </Button>
               {confirming === u.id ? (
-                <div role="alertdialog" aria-label={`Disable ${u.name}?`} className="basis-full space-y-2 rounded-lg border-2 border-stop-500 p-3" data-testid="confirm-disable">
+                <div
+                  role="alertdialog"
+                  aria-label={`Disable ${u.name}?`}
+                  className="basis-full space-y-2 rounded-lg border-2 border-stop-500 p-3"
+                  data-testid="confirm-disable"
+                >
                   <p className="font-medium">
-                    Disable {u.name}? They are signed out on every phone at once and cannot sign in until you enable them again.
+                    Disable {u.name}? They are signed out on every phone at once and cannot sign in until you enable
+                    them again.
                   </p>
                   <div className="flex flex-wrap gap-2">
-                    <Button variant="danger" onClick={() => change(u.id, { disabled: true })} data-testid="confirm-disable-yes">
+                    <Button
+                      variant="danger"
+                      onClick={() => change(u.id, { disabled: true })}
+                      data-testid="confirm-disable-yes"
+                    >
                       Disable and sign out
                     </Button>
                     <Button variant="outline" onClick={() => setConfirming(null)}>
@@ -110,7 +125,11 @@ export function UserAdmin({ meId, initialUsers }: { meId: string; initialUsers: 
                 </div>
               ) : null}
               {saved?.id === u.id ? (
-                <p role="status" className="basis-full text-sm font-medium text-teal-700 dark:text-teal-300" data-testid="person-saved">
+                <p
+                  role="status"
+                  className="basis-full text-sm font-medium text-teal-700 dark:text-teal-300"
+                  data-testid="person-saved"
+                >
                   {saved.text}
                 </p>
               ) : null}
@@ -134,7 +153,12 @@ export function UserAdmin({ meId, initialUsers }: { meId: string; initialUsers: 
               <Options values={ROLES} labels={ROLE_LABEL} />
             </Select>
           </Field>
-          <Field label="First password" htmlFor="new-password" error={errors.password?.message} hint="At least 12 characters. Share it in person.">
+          <Field
+            label="First password"
+            htmlFor="new-password"
+            error={errors.password?.message}
+            hint="At least 12 characters. Share it in person."
+          >
             <Input id="new-password" type="password" autoComplete="new-password" {...form.register("password")} />
           </Field>
           <FormProblem>{problem}</FormProblem>

@@ -31,11 +31,18 @@ export function SignInForm() {
       <Field label="E-mail" htmlFor="email" error={errors.email?.message && `E-mail ${errors.email.message}.`}>
         <Input id="email" type="email" autoComplete="username" inputMode="email" {...form.register("email")} />
       </Field>
-      <Field label="Password" htmlFor="password" error={errors.password?.message && `Password ${errors.password.message}.`}>
+      <Field
+        label="Password"
+        htmlFor="password"
+        error={errors.password?.message && `Password ${errors.password.message}.`}
+      >
         <Input id="password" type="password" autoComplete="current-password" {...form.register("password")} />
       </Field>
       {problem ? (
-        <p role="alert" className="rounded-lg border-2 border-stop-500 bg-stop-500/10 p-3 font-medium text-stop-700 dark:text-stop-400">
+        <p
+          role="alert"
+          className="rounded-lg border-2 border-stop-500 bg-stop-500/10 p-3 font-medium text-stop-700 dark:text-stop-400"
+        >
           {problem}
         </p>
       ) : null}

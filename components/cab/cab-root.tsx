@@ -48,10 +48,18 @@ export function CabRoot({ children }: { children: ReactNode }) {
   }, [sun])
   const toggle = () => chooseSun(!sun)
   return (
-    <div className={`dark min-h-dvh bg-asphalt-900 text-graphite-50${sun ? " sun" : ""}`} data-theme={sun ? "sun" : "cab"} data-testid="cab-root">
+    <div
+      className={`dark min-h-dvh bg-asphalt-900 text-graphite-50${sun ? "sun" : ""}`}
+      data-theme={sun ? "sun" : "cab"}
+      data-testid="cab-root"
+    >
       <div className="mx-auto flex max-w-xl items-center justify-between gap-2 px-3 pt-[max(0.5rem,env(safe-area-inset-top))]">
         {/* The way out of the full-screen recorder; a drive being recorded carries on and reopens from Record. */}
-        <a href="/" className="inline-flex min-h-12 items-center gap-2 rounded-lg px-2 text-sm font-semibold text-graphite-50" data-testid="leave-recorder">
+        <a
+          href="/"
+          className="inline-flex min-h-12 items-center gap-2 rounded-lg px-2 text-sm font-semibold text-graphite-50"
+          data-testid="leave-recorder"
+        >
           <ArrowLeft aria-hidden className="size-5" /> Back to the app
         </a>
         <SunToggle sun={sun} onToggle={toggle} />

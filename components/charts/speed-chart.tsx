@@ -4,12 +4,21 @@ import { MARK_ICON } from "@/components/drives/mark-icon"
 import { useFormatPrefs } from "@/components/shell/format-prefs"
 import { formatDuration, formatSpeedMph, speedUnit } from "@/lib/format"
 import { useState } from "react"
-import { CartesianGrid, ComposedChart, Line, ReferenceArea, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts"
+import {
+  CartesianGrid,
+  ComposedChart,
+  Line,
+  ReferenceArea,
+  ReferenceLine,
+  ResponsiveContainer,
+  Tooltip,
+  XAxis,
+  YAxis,
+} from "recharts"
 
 export type SpeedPoint = { min: number; mph: number | null }
 export type Stretch = { fromMin: number; toMin: number }
 export type ChartMark = { min: number; label: string; kind?: string }
-
 
 const BADGE_PX = 18 // a numbered mark badge: 16 px circle plus a hair of air
 const LANE_PX = 19
@@ -79,9 +88,29 @@ export function SpeedChart({
         <ResponsiveContainer width="100%" height="100%" onResize={(w) => setWidthPx(w)}>
           <ComposedChart data={shown} margin={{ top, bottom: 4, ...MARGIN }}>
             <CartesianGrid strokeDasharray="3 3" stroke="currentColor" strokeOpacity={0.2} />
-            <XAxis dataKey="min" type="number" domain={[0, domainMax]} tickFormatter={(v: number) => `${v}`} unit=" min" tick={{ fontSize: 12, fill: "currentColor" }} stroke="currentColor" />
-            <YAxis domain={[0, yMax]} unit={` ${unit}`} tick={{ fontSize: 12, fill: "currentColor" }} stroke="currentColor" width={Y_AXIS_PX} />
-            <ReferenceArea y1={minSpeedMph * k} y2={maxSpeedMph == null ? yMax : maxSpeedMph * k} fill="#ffbf3d" fillOpacity={0.18} ifOverflow="hidden" />
+            <XAxis
+              dataKey="min"
+              type="number"
+              domain={[0, domainMax]}
+              tickFormatter={(v: number) => `${v}`}
+              unit=" min"
+              tick={{ fontSize: 12, fill: "currentColor" }}
+              stroke="currentColor"
+            />
+            <YAxis
+              domain={[0, yMax]}
+              unit={` ${unit}`}
+              tick={{ fontSize: 12, fill: "currentColor" }}
+              stroke="currentColor"
+              width={Y_AXIS_PX}
+            />
+            <ReferenceArea
+              y1={minSpeedMph * k}
+              y2={maxSpeedMph == null ? yMax : maxSpeedMph * k}
+              fill="#ffbf3d"
+              fillOpacity={0.18}
+              ifOverflow="hidden"
+            />
             {following.map((s, i) => (
               <ReferenceArea key={i} x1={s.fromMin} x2={s.toMin} fill="#2fcbbb" fillOpacity={0.2} ifOverflow="hidden" />
             ))}
@@ -92,7 +121,9 @@ export function SpeedChart({
                 stroke="currentColor"
                 strokeOpacity={0.6}
                 strokeDasharray="2 3"
-                label={(props: { viewBox?: { x?: number; y?: number } }) => <MarkBadge n={m.n} lane={m.lane} lanes={lanes} x={props.viewBox?.x ?? 0} y={props.viewBox?.y ?? 0} />}
+                label={(props: { viewBox?: { x?: number; y?: number } }) => (
+                  <MarkBadge n={m.n} lane={m.lane} lanes={lanes} x={props.viewBox?.x ?? 0} y={props.viewBox?.y ?? 0} />
+                )}
               />
             ))}
             <Tooltip
@@ -100,7 +131,15 @@ export function SpeedChart({
               formatter={(v) => [`${Math.round(Number(v))} ${unit}`, "Speed"]}
               labelFormatter={(v) => `${formatAt(Number(v))} into the drive`}
             />
-            <Line type="monotone" dataKey="speed" stroke="currentColor" strokeWidth={2} dot={false} isAnimationActive={false} connectNulls={false} />
+            <Line
+              type="monotone"
+              dataKey="speed"
+              stroke="currentColor"
+              strokeWidth={2}
+              dot={false}
+              isAnimationActive={false}
+              connectNulls={false}
+            />
           </ComposedChart>
         </ResponsiveContainer>
       </div>
@@ -108,7 +147,10 @@ export function SpeedChart({
         <div className="flex flex-wrap gap-x-4 gap-y-1">
           <span className="inline-flex items-center gap-1.5">
             <span aria-hidden className="inline-block size-3 rounded-sm bg-signal-400/40" /> Qualifying band (
-            {maxSpeedMph == null ? `${formatSpeedMph(minSpeedMph, units)} or faster` : `${formatSpeedMph(minSpeedMph, units)} to ${formatSpeedMph(maxSpeedMph, units)}`})
+            {maxSpeedMph == null
+              ? `${formatSpeedMph(minSpeedMph, units)} or faster`
+              : `${formatSpeedMph(minSpeedMph, units)} to ${formatSpeedMph(maxSpeedMph, units)}`}
+            )
           </span>
           <span className="inline-flex items-center gap-1.5">
             <span aria-hidden className="inline-block size-3 rounded-sm bg-teal-400/40" /> Following a lead vehicle
@@ -116,18 +158,25 @@ export function SpeedChart({
           {placed.length ? <span>Numbered dashed lines: marks, listed below</span> : null}
         </div>
         {placed.length ? (
-          <ol className="grid grid-cols-[repeat(auto-fill,minmax(9.5rem,1fr))] gap-x-4 gap-y-1" data-testid="chart-marks">
+          <ol
+            className="grid grid-cols-[repeat(auto-fill,minmax(9.5rem,1fr))] gap-x-4 gap-y-1"
+            data-testid="chart-marks"
+          >
             {placed.map((m) => {
               const Icon = MARK_ICON[m.kind ?? ""] ?? MARK_ICON.note!
               return (
                 <li key={m.n} className="flex items-center gap-1.5" data-kind={m.kind}>
-                  <span aria-hidden className="tabular inline-flex size-5 shrink-0 items-center justify-center rounded-full border border-current text-xs font-bold">
+                  <span
+                    aria-hidden
+                    className="inline-flex size-5 shrink-0 items-center justify-center rounded-full border border-current tabular text-xs font-bold"
+                  >
                     {m.n}
                   </span>
                   <Icon aria-hidden className="size-4 shrink-0" />
                   <span>
                     <span className="sr-only">Mark {m.n}: </span>
-                    {m.label} <span className="tabular text-graphite-600 dark:text-graphite-300">{formatAt(m.min)}</span>
+                    {m.label}{" "}
+                    <span className="tabular text-graphite-600 dark:text-graphite-300">{formatAt(m.min)}</span>
                   </span>
                 </li>
               )
@@ -145,8 +194,23 @@ function MarkBadge({ n, lane, lanes, x, y }: { n: number; lane: number; lanes: n
   return (
     <g aria-hidden>
       <line x1={x} x2={x} y1={cy + 8} y2={y} stroke="currentColor" strokeOpacity={0.6} strokeDasharray="2 3" />
-      <circle cx={x} cy={cy} r={8} className="fill-white dark:fill-asphalt-800" stroke="currentColor" strokeWidth={1.25} />
-      <text x={x} y={cy} textAnchor="middle" dominantBaseline="central" fontSize={10} fontWeight={700} fill="currentColor">
+      <circle
+        cx={x}
+        cy={cy}
+        r={8}
+        className="fill-white dark:fill-asphalt-800"
+        stroke="currentColor"
+        strokeWidth={1.25}
+      />
+      <text
+        x={x}
+        y={cy}
+        textAnchor="middle"
+        dominantBaseline="central"
+        fontSize={10}
+        fontWeight={700}
+        fill="currentColor"
+      >
         {n}
       </text>
     </g>

@@ -20,7 +20,12 @@ export function LiveDrive({ driveId }: { driveId: string }) {
         setMarks(s.marks)
         setScore(s.score)
       },
-      mark: (m) => setMarks((list) => (list.some((x) => x.id === m.id) ? list : [...list, m].sort((a, b) => a.t - b.t || (a.seq ?? 0) - (b.seq ?? 0)))),
+      mark: (m) =>
+        setMarks((list) =>
+          list.some((x) => x.id === m.id)
+            ? list
+            : [...list, m].sort((a, b) => a.t - b.t || (a.seq ?? 0) - (b.seq ?? 0)),
+        ),
       unmark: (id) => setMarks((list) => list.filter((m) => m.id !== id)),
       status: (s) => {
         if (s.status === "finished") router.refresh()
@@ -32,10 +37,27 @@ export function LiveDrive({ driveId }: { driveId: string }) {
   }, [driveId, router])
   const t0 = score?.startedAtMs ?? marks[0]?.t ?? 0
   return (
-    <div className="space-y-3" data-testid="live-drive" data-marks={marks.length} data-following={score?.followingSeconds ?? ""}>
-      <p className="flex items-center gap-2 text-sm text-graphite-600 dark:text-graphite-300" data-testid="live-drive-connection" data-state={connection}>
-        {connection === "offline" ? <CloudOff aria-hidden className="size-4" /> : <Radio aria-hidden className="size-4" />}
-        {connection === "offline" ? "No connection: showing the last word from the crew" : connection === "connecting" ? "Connecting…" : "Live from the crew"}
+    <div
+      className="space-y-3"
+      data-testid="live-drive"
+      data-marks={marks.length}
+      data-following={score?.followingSeconds ?? ""}
+    >
+      <p
+        className="flex items-center gap-2 text-sm text-graphite-600 dark:text-graphite-300"
+        data-testid="live-drive-connection"
+        data-state={connection}
+      >
+        {connection === "offline" ? (
+          <CloudOff aria-hidden className="size-4" />
+        ) : (
+          <Radio aria-hidden className="size-4" />
+        )}
+        {connection === "offline"
+          ? "No connection: showing the last word from the crew"
+          : connection === "connecting"
+            ? "Connecting…"
+            : "Live from the crew"}
       </p>
       {score ? (
         <dl className="grid grid-cols-3 gap-2 text-center">
@@ -50,8 +72,14 @@ export function LiveDrive({ driveId }: { driveId: string }) {
           <div>
             <dt className="text-xs text-graphite-600 dark:text-graphite-300">Learn</dt>
             <dd className="flex items-center justify-center gap-1 font-semibold">
-              {score.clearedAtSeconds !== null ? <CircleCheck aria-hidden className="size-4" /> : <Hourglass aria-hidden className="size-4" />}
-              {score.clearedAtSeconds !== null ? `complete at ${minutes(score.clearedAtSeconds)} min` : "not complete yet"}
+              {score.clearedAtSeconds !== null ? (
+                <CircleCheck aria-hidden className="size-4" />
+              ) : (
+                <Hourglass aria-hidden className="size-4" />
+              )}
+              {score.clearedAtSeconds !== null
+                ? `complete at ${minutes(score.clearedAtSeconds)} min`
+                : "not complete yet"}
             </dd>
           </div>
         </dl>
@@ -59,7 +87,9 @@ export function LiveDrive({ driveId }: { driveId: string }) {
       <ul className="space-y-1 text-sm">
         {marks.map((m) => (
           <li key={m.id} className="flex gap-2">
-            <span className="tabular w-16 text-graphite-600 dark:text-graphite-300">{minutes((m.t - t0) / 1000)} min</span>
+            <span className="w-16 tabular text-graphite-600 dark:text-graphite-300">
+              {minutes((m.t - t0) / 1000)} min
+            </span>
             <span className="font-semibold">{MARK_LABEL[m.kind] ?? m.kind}</span>
             {m.gapFt != null ? <span>{m.gapFt} ft</span> : null}
             {m.text ? <span className="truncate">{m.text}</span> : null}

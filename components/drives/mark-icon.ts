@@ -1,4 +1,14 @@
-import { Ban, Car, CarFront, CheckCheck, CircleCheck, CircleStop, MessageSquare, MoveHorizontal, type LucideIcon } from "lucide-react"
+import {
+  Ban,
+  Car,
+  CarFront,
+  CheckCheck,
+  CircleCheck,
+  CircleStop,
+  MessageSquare,
+  MoveHorizontal,
+  type LucideIcon,
+} from "lucide-react"
 
 /** One icon per mark kind, so a mark never relies on colour alone (chart, timeline). */
 export const MARK_ICON: Record<string, LucideIcon> = {

@@ -13,22 +13,26 @@ const VERDICT_LOOK: Record<Verdict, { word: string; Icon: typeof CircleCheck; cl
   met: {
     word: "Met",
     Icon: CircleCheck,
-    className: "border-teal-600 bg-teal-300/20 text-teal-700 dark:border-teal-400 dark:bg-teal-700/30 dark:text-teal-300",
+    className:
+      "border-teal-600 bg-teal-300/20 text-teal-700 dark:border-teal-400 dark:bg-teal-700/30 dark:text-teal-300",
   },
   short: {
     word: "Short",
     Icon: CircleAlert,
-    className: "border-signal-600 bg-signal-300/30 text-signal-700 dark:border-signal-400 dark:bg-signal-700/30 dark:text-signal-300",
+    className:
+      "border-signal-600 bg-signal-300/30 text-signal-700 dark:border-signal-400 dark:bg-signal-700/30 dark:text-signal-300",
   },
   not_met: {
     word: "Not met",
     Icon: CircleX,
-    className: "border-stop-600 bg-stop-400/15 text-stop-700 dark:border-stop-400 dark:bg-stop-700/30 dark:text-stop-400",
+    className:
+      "border-stop-600 bg-stop-400/15 text-stop-700 dark:border-stop-400 dark:bg-stop-700/30 dark:text-stop-400",
   },
   unverified: {
     word: "Unverified",
     Icon: CircleHelp,
-    className: "border-graphite-500 bg-graphite-100 text-graphite-800 dark:border-graphite-400 dark:bg-asphalt-700 dark:text-graphite-100",
+    className:
+      "border-graphite-500 bg-graphite-100 text-graphite-800 dark:border-graphite-400 dark:bg-asphalt-700 dark:text-graphite-100",
   },
 }
 

@@ -10,7 +10,15 @@ import { ApiError, apiFetch } from "@/components/ui/api-fetch"
 import { Field, Input, Select, Textarea } from "@/components/ui/field"
 import { errorAt as errorIn, FormDone, FormProblem, Options } from "@/components/ui/form"
 import { alignmentRequired, checkTires, kpaToPsi, psiToKpa } from "@/lib/checklist"
-import { checklistSchema, FUEL_LABEL, FUEL_LEVELS, WHEEL_LABEL, WHEELS, type ChecklistData, type ChecklistInput } from "@/lib/validation/checklist"
+import {
+  checklistSchema,
+  FUEL_LABEL,
+  FUEL_LEVELS,
+  WHEEL_LABEL,
+  WHEELS,
+  type ChecklistData,
+  type ChecklistInput,
+} from "@/lib/validation/checklist"
 
 export type ChecklistView = ChecklistData & {
   completedBy: string | null
@@ -80,7 +88,10 @@ export function ChecklistForm({
   const placard = Number(tires.placard)
   const liveChecks =
     tires.placard !== "" && placard > 0
-      ? checkTires({ unit: tires.unit, placard, fl: numbers[0]!, fr: numbers[1]!, rl: numbers[2]!, rr: numbers[3]! }, tolerancePsi)
+      ? checkTires(
+          { unit: tires.unit, placard, fl: numbers[0]!, fr: numbers[1]!, rl: numbers[2]!, rr: numbers[3]! },
+          tolerancePsi,
+        )
       : null
   const toleranceText = tires.unit === "psi" ? `${tolerancePsi} psi` : `${round1(psiToKpa(tolerancePsi))} kPa`
 
@@ -110,7 +121,8 @@ export function ChecklistForm({
       setSavedNow(true)
     } catch (error) {
       if (error instanceof ApiError && error.fields) {
-        for (const [path, message] of Object.entries(error.fields)) form.setError(path as FieldPath<ChecklistInput>, { message })
+        for (const [path, message] of Object.entries(error.fields))
+          form.setError(path as FieldPath<ChecklistInput>, { message })
       }
       setProblem(error instanceof Error ? error.message : "That did not save.")
     }
@@ -120,7 +132,12 @@ export function ChecklistForm({
 
   const check = (name: FieldPath<ChecklistInput>, label: string, hint?: string) => (
     <label className="flex min-h-12 items-start gap-3 py-1">
-      <input type="checkbox" className="mt-1 size-6 shrink-0 accent-graphite-900 dark:accent-signal-400" disabled={!canEdit} {...form.register(name)} />
+      <input
+        type="checkbox"
+        className="mt-1 size-6 shrink-0 accent-graphite-900 dark:accent-signal-400"
+        disabled={!canEdit}
+        {...form.register(name)}
+      />
       <span>
         <span className="font-medium">{label}</span>
         {hint ? <span className="block text-sm text-graphite-600 dark:text-graphite-300">{hint}</span> : null}
@@ -134,14 +151,22 @@ export function ChecklistForm({
         <legend className="font-semibold">Stored fault codes (DTCs)</legend>
         {check("faultCodes.none", "No fault codes stored", "Scan before driving.")}
         {!noCodes ? (
-          <Field label="Codes you expect (comma between)" htmlFor={`${prefix}-codes`} error={errorAt("faultCodes.expected")} hint="e.g. the sensor's own 'calibration needed' code">
+          <Field
+            label="Codes you expect (comma between)"
+            htmlFor={`${prefix}-codes`}
+            error={errorAt("faultCodes.expected")}
+            hint="e.g. the sensor's own 'calibration needed' code"
+          >
             <Input
               id={`${prefix}-codes`}
               value={codesText}
               autoCapitalize="characters"
               onChange={(e) => {
                 setCodesText(e.target.value)
-                const codes = e.target.value.split(/[,\s]+/).map((c) => c.trim()).filter(Boolean)
+                const codes = e.target.value
+                  .split(/[,\s]+/)
+                  .map((c) => c.trim())
+                  .filter(Boolean)
                 form.setValue("faultCodes.expected", codes, { shouldValidate: form.formState.isSubmitted })
               }}
             />
@@ -153,11 +178,22 @@ export function ChecklistForm({
         <legend className="font-semibold">Tire pressure</legend>
         <div className="flex items-end gap-3">
           <Field label="Door placard" htmlFor={`${prefix}-placard`} error={errorAt("tires.placard")}>
-            <Input id={`${prefix}-placard`} inputMode="decimal" className="w-28 tabular" {...form.register("tires.placard")} />
+            <Input
+              id={`${prefix}-placard`}
+              inputMode="decimal"
+              className="w-28 tabular"
+              {...form.register("tires.placard")}
+            />
           </Field>
           <div role="group" aria-label="Pressure unit" className="flex gap-1 pb-0.5">
             {(["psi", "kPa"] as const).map((u) => (
-              <Button key={u} size="sm" variant={tires.unit === u ? "primary" : "outline"} aria-pressed={tires.unit === u} onClick={() => switchUnit(u)}>
+              <Button
+                key={u}
+                size="sm"
+                variant={tires.unit === u ? "primary" : "outline"}
+                aria-pressed={tires.unit === u}
+                onClick={() => switchUnit(u)}
+              >
                 {u}
               </Button>
             ))}
@@ -167,7 +203,12 @@ export function ChecklistForm({
           {WHEELS.map((w, i) => {
             const flag = liveChecks && tires[w] !== "" && Number.isFinite(numbers[i]) ? liveChecks[i]! : null
             return (
-              <Field key={w} label={`${WHEEL_LABEL[w]} (${tires.unit})`} htmlFor={`${prefix}-${w}`} error={errorAt(`tires.${w}`)}>
+              <Field
+                key={w}
+                label={`${WHEEL_LABEL[w]} (${tires.unit})`}
+                htmlFor={`${prefix}-${w}`}
+                error={errorAt(`tires.${w}`)}
+              >
                 <Input id={`${prefix}-${w}`} inputMode="decimal" className="tabular" {...form.register(`tires.${w}`)} />
                 {flag ? (
                   flag.ok ? (
@@ -175,8 +216,12 @@ export function ChecklistForm({
                       <CircleCheck aria-hidden className="size-4 text-teal-600" /> Within {toleranceText}
                     </p>
                   ) : (
-                    <p className="flex items-center gap-1 text-sm font-medium text-stop-600 dark:text-stop-400" data-testid={`tire-flag-${w}`}>
-                      <TriangleAlert aria-hidden className="size-4" /> {round1(Math.abs(flag.difference))} {tires.unit} {flag.difference > 0 ? "over" : "under"}
+                    <p
+                      className="flex items-center gap-1 text-sm font-medium text-stop-600 dark:text-stop-400"
+                      data-testid={`tire-flag-${w}`}
+                    >
+                      <TriangleAlert aria-hidden className="size-4" /> {round1(Math.abs(flag.difference))} {tires.unit}{" "}
+                      {flag.difference > 0 ? "over" : "under"}
                     </p>
                   )
                 ) : null}
@@ -184,7 +229,9 @@ export function ChecklistForm({
             )
           })}
         </div>
-        <p className="text-sm text-graphite-600 dark:text-graphite-300">The shop allows {toleranceText} either side of the placard.</p>
+        <p className="text-sm text-graphite-600 dark:text-graphite-300">
+          The shop allows {toleranceText} either side of the placard.
+        </p>
       </fieldset>
 
       <fieldset className="space-y-1" disabled={!canEdit}>
@@ -197,7 +244,9 @@ export function ChecklistForm({
         </Field>
         {check("sensorClean", "Sensor face clean", "Cover or glass in front of it clean and free of stickers.")}
         {check("mountUndamaged", "Mount and bracket undamaged")}
-        {needsAlignment ? check("alignmentChecked", "Wheel alignment checked", "Needed after an alignment or for a target set-up.") : null}
+        {needsAlignment
+          ? check("alignmentChecked", "Wheel alignment checked", "Needed after an alignment or for a target set-up.")
+          : null}
       </fieldset>
 
       <Field label="Notes" htmlFor={`${prefix}-notes`} error={errorAt("notes")}>

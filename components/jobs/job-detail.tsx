@@ -19,7 +19,14 @@ export type JobView = {
   roNumber: string
   status: string
   customer: { name: string; email: string | null; phone: string | null }
-  vehicle: { id: string; vin: string; year: number | null; make: string | null; model: string | null; plate: string | null }
+  vehicle: {
+    id: string
+    vin: string
+    year: number | null
+    make: string | null
+    model: string | null
+    plate: string | null
+  }
   tasks: {
     id: string
     sensor: string
@@ -29,11 +36,27 @@ export type JobView = {
     checklist: ChecklistView | null
   }[]
   attachments: AttachmentView[]
-  drives: { id: string; taskId: string | null; status: string; verdict: string | null; reviewStatus: string | null; createdAt: string; finishedAt: string | null }[]
+  drives: {
+    id: string
+    taskId: string | null
+    status: string
+    verdict: string | null
+    reviewStatus: string | null
+    createdAt: string
+    finishedAt: string | null
+  }[]
   settings: { units: "imperial" | "metric"; tirePressureTolerancePsi: number }
 }
 
-export function JobDetail({ initialJob, canEdit, isLead = false }: { initialJob: JobView; canEdit: boolean; isLead?: boolean }) {
+export function JobDetail({
+  initialJob,
+  canEdit,
+  isLead = false,
+}: {
+  initialJob: JobView
+  canEdit: boolean
+  isLead?: boolean
+}) {
   const { data } = useQuery({
     queryKey: ["job", initialJob.id],
     queryFn: async () => (await apiFetch<{ job: JobView }>(`/api/jobs/${initialJob.id}`)).job,
@@ -84,22 +107,32 @@ export function JobDetail({ initialJob, canEdit, isLead = false }: { initialJob:
           <Card key={task.id} className="space-y-4" data-testid={`task-card-${i}`}>
             <header className="space-y-1">
               <h2 className="text-lg font-bold">
-                {SENSOR_LABEL[task.sensor as Sensor] ?? task.sensor} · {METHOD_LABEL[task.method as Method] ?? task.method}
+                {SENSOR_LABEL[task.sensor as Sensor] ?? task.sensor} ·{" "}
+                {METHOD_LABEL[task.method as Method] ?? task.method}
               </h2>
               <p className="text-sm text-graphite-600 dark:text-graphite-300">
                 {REASON_LABEL[task.reason as Reason] ?? task.reason}
-                {task.profile ? ` · held to ${task.profile.name} (version ${task.profile.version})` : drivable ? " · default conditions" : ""}
+                {task.profile
+                  ? ` · held to ${task.profile.name} (version ${task.profile.version})`
+                  : drivable
+                    ? " · default conditions"
+                    : ""}
               </p>
             </header>
 
             <section aria-label={`Checklist for calibration ${i + 1}`} className="space-y-2">
               <h3 className="flex items-center gap-2 font-semibold">
-                {ready ? <CircleCheck aria-hidden className="size-5 text-teal-600" /> : <CircleAlert aria-hidden className="size-5 text-signal-600" />}
+                {ready ? (
+                  <CircleCheck aria-hidden className="size-5 text-teal-600" />
+                ) : (
+                  <CircleAlert aria-hidden className="size-5 text-signal-600" />
+                )}
                 Before the drive: {task.checklist ? (ready ? "ready" : "not ready yet") : "not filled in"}
               </h3>
               {task.checklist ? (
                 <p className="text-sm text-graphite-600 dark:text-graphite-300" data-testid="checklist-stamp">
-                  Saved by {task.checklist.completedBy ?? "someone no longer here"} on <LocalTime iso={task.checklist.completedAt} />
+                  Saved by {task.checklist.completedBy ?? "someone no longer here"} on{" "}
+                  <LocalTime iso={task.checklist.completedAt} />
                 </p>
               ) : null}
               <ChecklistForm
@@ -127,14 +160,19 @@ export function JobDetail({ initialJob, canEdit, isLead = false }: { initialJob:
             {drivable ? (
               <section className="space-y-2">
                 {ready ? (
-                  <Link href={`/record?jobId=${job.id}&taskId=${task.id}`} className={buttonVariants({ variant: "signal", size: "lg" })} data-testid="start-drive">
+                  <Link
+                    href={`/record?jobId=${job.id}&taskId=${task.id}`}
+                    className={buttonVariants({ variant: "signal", size: "lg" })}
+                    data-testid="start-drive"
+                  >
                     {job.status === "redo" && drives.length ? (
                       <>
                         <RotateCcw aria-hidden className="size-5" /> Drive again
                       </>
                     ) : (
                       <>
-                        <Play aria-hidden className="size-5" /> {task.method === "static" ? "Start the road test" : "Start a drive"}
+                        <Play aria-hidden className="size-5" />{" "}
+                        {task.method === "static" ? "Start the road test" : "Start a drive"}
                       </>
                     )}
                   </Link>
@@ -148,13 +186,18 @@ export function JobDetail({ initialJob, canEdit, isLead = false }: { initialJob:
                         <Link href={`/drives/${d.id}`} className="underline-offset-4 hover:underline">
                           Drive of <LocalTime iso={d.createdAt} />
                         </Link>
-                        {d.verdict ? <VerdictBadge verdict={d.verdict as Verdict} /> : <span className="text-sm">{d.status === "recording" ? "Recording" : "Finished"}</span>}
+                        {d.verdict ? (
+                          <VerdictBadge verdict={d.verdict as Verdict} />
+                        ) : (
+                          <span className="text-sm">{d.status === "recording" ? "Recording" : "Finished"}</span>
+                        )}
                       </li>
                     ))}
                   </ul>
                 ) : null}
                 <p className="text-xs text-graphite-600 dark:text-graphite-300">
-                  A drive&apos;s score is a record of the conditions, not proof of the calibration: the vehicle&apos;s own confirmation decides.
+                  A drive&apos;s score is a record of the conditions, not proof of the calibration: the vehicle&apos;s
+                  own confirmation decides.
                 </p>
               </section>
             ) : null}
@@ -165,7 +208,12 @@ export function JobDetail({ initialJob, canEdit, isLead = false }: { initialJob:
       {job.attachments.some((a) => !a.taskId) ? (
         <Card className="space-y-2">
           <h2 className="font-semibold">Other files</h2>
-          <PhotoUpload jobId={job.id} taskId={null} attachments={job.attachments.filter((a) => !a.taskId)} canUpload={false} />
+          <PhotoUpload
+            jobId={job.id}
+            taskId={null}
+            attachments={job.attachments.filter((a) => !a.taskId)}
+            canUpload={false}
+          />
         </Card>
       ) : null}
     </div>

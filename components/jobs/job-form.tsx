@@ -69,7 +69,8 @@ export function JobForm({ jobId, initial }: { jobId?: string; initial?: JobFormV
       router.refresh()
     } catch (error) {
       if (error instanceof ApiError && error.fields) {
-        for (const [path, message] of Object.entries(error.fields)) form.setError(path as FieldPath<NewJobInput>, { message })
+        for (const [path, message] of Object.entries(error.fields))
+          form.setError(path as FieldPath<NewJobInput>, { message })
       }
       setProblem(error instanceof Error ? error.message : "That did not work.")
     }
@@ -90,11 +91,28 @@ export function JobForm({ jobId, initial }: { jobId?: string; initial?: JobFormV
           </Field>
         </div>
         <div className="grid gap-3 sm:grid-cols-2">
-          <Field label="Customer e-mail" htmlFor="customer-email" error={err("customer.email")} hint="For the drive record.">
-            <Input id="customer-email" type="email" inputMode="email" autoComplete="off" {...form.register("customer.email")} />
+          <Field
+            label="Customer e-mail"
+            htmlFor="customer-email"
+            error={err("customer.email")}
+            hint="For the drive record."
+          >
+            <Input
+              id="customer-email"
+              type="email"
+              inputMode="email"
+              autoComplete="off"
+              {...form.register("customer.email")}
+            />
           </Field>
           <Field label="Customer phone" htmlFor="customer-phone" error={err("customer.phone")}>
-            <Input id="customer-phone" type="tel" inputMode="tel" autoComplete="off" {...form.register("customer.phone")} />
+            <Input
+              id="customer-phone"
+              type="tel"
+              inputMode="tel"
+              autoComplete="off"
+              {...form.register("customer.phone")}
+            />
           </Field>
         </div>
       </Card>
@@ -128,7 +146,11 @@ export function JobForm({ jobId, initial }: { jobId?: string; initial?: JobFormV
         <h2 className="text-lg font-bold">Calibrations</h2>
         <FormProblem className="text-sm">{err("tasks")}</FormProblem>
         {tasks.fields.map((field, i) => (
-          <fieldset key={field.id} className="space-y-3 rounded-lg border border-graphite-200 p-3 dark:border-asphalt-700" data-testid={`task-${i}`}>
+          <fieldset
+            key={field.id}
+            className="space-y-3 rounded-lg border border-graphite-200 p-3 dark:border-asphalt-700"
+            data-testid={`task-${i}`}
+          >
             <legend className="px-1 text-sm font-semibold">Calibration {i + 1}</legend>
             <div className="grid gap-3 sm:grid-cols-3">
               <Field label="Sensor" htmlFor={`task-${i}-sensor`} error={err(`tasks.${i}.sensor`)}>
@@ -166,7 +188,10 @@ export function JobForm({ jobId, initial }: { jobId?: string; initial?: JobFormV
             ) : null}
           </fieldset>
         ))}
-        <Button variant="outline" onClick={() => tasks.append({ sensor: "forward_radar", method: "dynamic", reason: "bumper_or_grille_work" })}>
+        <Button
+          variant="outline"
+          onClick={() => tasks.append({ sensor: "forward_radar", method: "dynamic", reason: "bumper_or_grille_work" })}
+        >
           <Plus aria-hidden className="size-5" /> Add a calibration
         </Button>
       </Card>

@@ -15,7 +15,12 @@ export function JobStatusBadge({ status }: { status: string }) {
   const look = LOOK[status as JobStatus] ?? LOOK.open
   const Icon = look.icon
   return (
-    <span className={cn("inline-flex items-center gap-1 rounded-full px-2 py-0.5 text-sm font-semibold whitespace-nowrap", look.className)}>
+    <span
+      className={cn(
+        "inline-flex items-center gap-1 rounded-full px-2 py-0.5 text-sm font-semibold whitespace-nowrap",
+        look.className,
+      )}
+    >
       <Icon aria-hidden className="size-4" />
       {JOB_STATUS_LABEL[status as JobStatus] ?? status}
     </span>

@@ -40,7 +40,10 @@ const columns = helper.columns([
     id: "roNumber",
     header: "RO",
     cell: (info) => (
-      <Link href={`/jobs/${info.row.original.id}`} className="inline-flex min-h-12 items-center font-semibold underline-offset-4 hover:underline">
+      <Link
+        href={`/jobs/${info.row.original.id}`}
+        className="inline-flex min-h-12 items-center font-semibold underline-offset-4 hover:underline"
+      >
         {info.getValue()}
       </Link>
     ),
@@ -53,7 +56,9 @@ const columns = helper.columns([
     cell: (info) => (
       <span>
         {info.getValue()}
-        <span className="block font-mono text-xs text-graphite-500 dark:text-graphite-300">…{info.row.original.vehicle.vin.slice(-8)}</span>
+        <span className="block font-mono text-xs text-graphite-500 dark:text-graphite-300">
+          …{info.row.original.vehicle.vin.slice(-8)}
+        </span>
       </span>
     ),
   }),
@@ -62,7 +67,11 @@ const columns = helper.columns([
     header: "Calibrations",
     enableSorting: false,
   }),
-  helper.accessor("status", { id: "status", header: "Status", cell: (info) => <JobStatusBadge status={info.getValue()} /> }),
+  helper.accessor("status", {
+    id: "status",
+    header: "Status",
+    cell: (info) => <JobStatusBadge status={info.getValue()} />,
+  }),
   helper.accessor("createdAt", {
     id: "createdAt",
     header: "Opened",
@@ -170,7 +179,10 @@ export function JobTable() {
     <div className="space-y-3">
       <div className="flex flex-wrap gap-2">
         <div className="relative min-w-56 flex-1">
-          <Search aria-hidden className="pointer-events-none absolute top-1/2 left-3 size-5 -translate-y-1/2 text-graphite-400" />
+          <Search
+            aria-hidden
+            className="pointer-events-none absolute top-1/2 left-3 size-5 -translate-y-1/2 text-graphite-400"
+          />
           <label htmlFor="job-search" className="sr-only">
             Search jobs
           </label>
@@ -227,10 +239,16 @@ export function JobTable() {
                       aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : undefined}
                     >
                       {header.column.getCanSort() ? (
-                        <button type="button" className="inline-flex min-h-12 items-center gap-1" onClick={header.column.getToggleSortingHandler()}>
+                        <button
+                          type="button"
+                          className="inline-flex min-h-12 items-center gap-1"
+                          onClick={header.column.getToggleSortingHandler()}
+                        >
                           <table.FlexRender header={header} />
                           <Icon aria-hidden className="size-4" />
-                          <span className="sr-only">{sorted ? `sorted ${sorted === "asc" ? "ascending" : "descending"}` : "sort"}</span>
+                          <span className="sr-only">
+                            {sorted ? `sorted ${sorted === "asc" ? "ascending" : "descending"}` : "sort"}
+                          </span>
                         </button>
                       ) : (
                         <table.FlexRender header={header} />
@@ -243,7 +261,11 @@ export function JobTable() {
           </thead>
           <tbody className="divide-y divide-graphite-100 max-md:block dark:divide-asphalt-700">
             {table.getRowModel().rows.map((row) => (
-              <tr key={row.id} data-testid="job-row" className="max-md:grid max-md:grid-cols-[1fr_auto] max-md:items-center max-md:gap-x-3 max-md:px-3 max-md:py-2">
+              <tr
+                key={row.id}
+                data-testid="job-row"
+                className="max-md:grid max-md:grid-cols-[1fr_auto] max-md:items-center max-md:gap-x-3 max-md:px-3 max-md:py-2"
+              >
                 {row.getAllCells().map((cell) => (
                   <td key={cell.id} className={`px-3 py-1 align-middle max-md:p-0 ${PHONE_CELL[cell.column.id] ?? ""}`}>
                     <table.FlexRender cell={cell} />
@@ -260,16 +282,23 @@ export function JobTable() {
           </p>
         ) : null}
         {result.data && total === 0 ? (
-          <p className="p-4 text-graphite-600 dark:text-graphite-300">{q || status ? "No job matches." : "No jobs yet. Open the first one."}</p>
+          <p className="p-4 text-graphite-600 dark:text-graphite-300">
+            {q || status ? "No job matches." : "No jobs yet. Open the first one."}
+          </p>
         ) : null}
       </div>
 
       <div className="flex items-center justify-between gap-2">
-        <p className="text-sm text-graphite-600 tabular dark:text-graphite-300">
+        <p className="tabular text-sm text-graphite-600 dark:text-graphite-300">
           {total ? `${first}–${last} of ${total}` : ""}
         </p>
         <div className="flex gap-2">
-          <Button variant="outline" aria-label="Previous page" disabled={pagination.pageIndex === 0} onClick={() => table.previousPage()}>
+          <Button
+            variant="outline"
+            aria-label="Previous page"
+            disabled={pagination.pageIndex === 0}
+            onClick={() => table.previousPage()}
+          >
             <ChevronLeft aria-hidden className="size-5" />
           </Button>
           <Button variant="outline" aria-label="Next page" disabled={!canNext} onClick={() => table.nextPage()}>

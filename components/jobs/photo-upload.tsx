@@ -6,7 +6,15 @@ import { useId, useState } from "react"
 import { ALLOWED_UPLOAD_TYPES, MAX_UPLOAD_BYTES } from "@/lib/validation/upload"
 import { apiFetch } from "@/components/ui/api-fetch"
 
-export type AttachmentView = { id: string; taskId: string | null; filename: string; contentType: string; size: number; url: string; thumbnailUrl: string | null }
+export type AttachmentView = {
+  id: string
+  taskId: string | null
+  filename: string
+  contentType: string
+  size: number
+  url: string
+  thumbnailUrl: string | null
+}
 
 // Some phones give HEIC photos no MIME type; the name tells.
 function typeOf(file: File) {
@@ -26,7 +34,17 @@ async function uploadOne(jobId: string, taskId: string | null, file: File) {
   return apiFetch<{ attachment: AttachmentView }>(`/api/uploads/${attachmentId}/complete`, { method: "POST" })
 }
 
-export function PhotoUpload({ jobId, taskId, attachments, canUpload }: { jobId: string; taskId: string | null; attachments: AttachmentView[]; canUpload: boolean }) {
+export function PhotoUpload({
+  jobId,
+  taskId,
+  attachments,
+  canUpload,
+}: {
+  jobId: string
+  taskId: string | null
+  attachments: AttachmentView[]
+  canUpload: boolean
+}) {
   const id = useId()
   const queryClient = useQueryClient()
   const [busy, setBusy] = useState(false)
@@ -70,7 +88,14 @@ export function PhotoUpload({ jobId, taskId, attachments, canUpload }: { jobId: 
                 ) : a.thumbnailUrl ? (
                   // A 320 px JPEG made at upload.
                   // eslint-disable-next-line @next/next/no-img-element
-                  <img src={a.thumbnailUrl} alt={a.filename} width={80} height={80} loading="lazy" className="size-20 rounded-lg border border-graphite-200 object-cover dark:border-asphalt-700" />
+                  <img
+                    src={a.thumbnailUrl}
+                    alt={a.filename}
+                    width={80}
+                    height={80}
+                    loading="lazy"
+                    className="size-20 rounded-lg border border-graphite-200 object-cover dark:border-asphalt-700"
+                  />
                 ) : (
                   <span className="flex size-20 flex-col items-center justify-center gap-1 rounded-lg border border-graphite-200 p-1 text-center text-xs dark:border-asphalt-700">
                     <FileText aria-hidden className="size-6" />

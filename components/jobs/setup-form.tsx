@@ -7,9 +7,25 @@ import { apiFetch, ApiError } from "@/components/ui/api-fetch"
 import { Button } from "@/components/ui/button"
 import { Field, Input, Select, Textarea } from "@/components/ui/field"
 import { FormDone, FormProblem, Options } from "@/components/ui/form"
-import { SCAN_RESULT_LABEL, SCAN_RESULTS, SETUP_MEASUREMENT_KEYS, SETUP_MEASUREMENT_LABEL, isOutOfTolerance, type ScanResult, type SetupMeasurementKey } from "@/lib/setup"
+import {
+  SCAN_RESULT_LABEL,
+  SCAN_RESULTS,
+  SETUP_MEASUREMENT_KEYS,
+  SETUP_MEASUREMENT_LABEL,
+  isOutOfTolerance,
+  type ScanResult,
+  type SetupMeasurementKey,
+} from "@/lib/setup"
 
-type MeasurementView = { key: SetupMeasurementKey; label?: string; value: number; specified: number; tolerance: number; unit: string; outOfTolerance: boolean }
+type MeasurementView = {
+  key: SetupMeasurementKey
+  label?: string
+  value: number
+  specified: number
+  tolerance: number
+  unit: string
+  outOfTolerance: boolean
+}
 export type SetupView = {
   measurements: MeasurementView[]
   scanResult: ScanResult
@@ -20,17 +36,53 @@ export type SetupView = {
   updatedBy: string | null
   updatedAt: string
 }
-type Row = { key: SetupMeasurementKey; label: string; value: string; specified: string; tolerance: string; unit: string }
+type Row = {
+  key: SetupMeasurementKey
+  label: string
+  value: string
+  specified: string
+  tolerance: string
+  unit: string
+}
 
-const emptyRow = (key: SetupMeasurementKey = "target_distance"): Row => ({ key, label: "", value: "", specified: "", tolerance: "", unit: "mm" })
-const toRow = (m: MeasurementView): Row => ({ key: m.key, label: m.label ?? "", value: String(m.value), specified: String(m.specified), tolerance: String(m.tolerance), unit: m.unit })
+const emptyRow = (key: SetupMeasurementKey = "target_distance"): Row => ({
+  key,
+  label: "",
+  value: "",
+  specified: "",
+  tolerance: "",
+  unit: "mm",
+})
+const toRow = (m: MeasurementView): Row => ({
+  key: m.key,
+  label: m.label ?? "",
+  value: String(m.value),
+  specified: String(m.specified),
+  tolerance: String(m.tolerance),
+  unit: m.unit,
+})
 const num = (s: string) => (s.trim() === "" ? Number.NaN : Number(s.replace(",", ".")))
 
 /** The static set-up of one task: figures typed from the maker's service information, scan tool result, a lead's override. */
-export function SetupForm({ jobId, taskId, canEdit, isLead, index }: { jobId: string; taskId: string; canEdit: boolean; isLead: boolean; index: number }) {
+export function SetupForm({
+  jobId,
+  taskId,
+  canEdit,
+  isLead,
+  index,
+}: {
+  jobId: string
+  taskId: string
+  canEdit: boolean
+  isLead: boolean
+  index: number
+}) {
   const queryClient = useQueryClient()
   const url = `/api/jobs/${jobId}/tasks/${taskId}/setup`
-  const { data: setup } = useQuery({ queryKey: ["setup", taskId], queryFn: async () => (await apiFetch<{ setup: SetupView | null }>(url)).setup })
+  const { data: setup } = useQuery({
+    queryKey: ["setup", taskId],
+    queryFn: async () => (await apiFetch<{ setup: SetupView | null }>(url)).setup,
+  })
   const [rows, setRows] = useState<Row[]>([emptyRow()])
   const [scanResult, setScanResult] = useState<ScanResult>("not_run")
   const [scanNotes, setScanNotes] = useState("")
@@ -60,7 +112,14 @@ export function SetupForm({ jobId, taskId, canEdit, isLead, index }: { jobId: st
       const body = {
         measurements: rows
           .filter((r) => r.value || r.specified || r.tolerance)
-          .map((r) => ({ key: r.key, ...(r.label.trim() ? { label: r.label.trim() } : {}), value: num(r.value), specified: num(r.specified), tolerance: num(r.tolerance), unit: r.unit })),
+          .map((r) => ({
+            key: r.key,
+            ...(r.label.trim() ? { label: r.label.trim() } : {}),
+            value: num(r.value),
+            specified: num(r.specified),
+            tolerance: num(r.tolerance),
+            unit: r.unit,
+          })),
         scanResult,
         scanNotes,
       }
@@ -83,20 +142,25 @@ export function SetupForm({ jobId, taskId, canEdit, isLead, index }: { jobId: st
       setProblem(e instanceof Error ? e.message : "That did not save.")
     }
   }
-  const update = (i: number, patch: Partial<Row>) => setRows((rs) => rs.map((r, j) => (j === i ? { ...r, ...patch } : r)))
+  const update = (i: number, patch: Partial<Row>) =>
+    setRows((rs) => rs.map((r, j) => (j === i ? { ...r, ...patch } : r)))
   const id = (what: string, i?: number) => `setup-${index}-${what}${i === undefined ? "" : `-${i}`}`
 
   return (
     <div className="space-y-3" data-testid={`setup-form-${index}`}>
       <p className="flex gap-2 rounded-lg border-2 border-signal-500 p-2 text-sm dark:border-signal-400">
         <ShieldAlert aria-hidden className="size-5 shrink-0" />
-        Enter each figure, its specified value and its tolerance from the vehicle maker&apos;s service information for this vehicle.
-        Straightaway holds no maker&apos;s values.
+        Enter each figure, its specified value and its tolerance from the vehicle maker&apos;s service information for
+        this vehicle. Straightaway holds no maker&apos;s values.
       </p>
       {setup?.blocksRoadTest ? (
-        <p role="alert" className="flex gap-2 font-semibold text-stop-700 dark:text-stop-400" data-testid="setup-blocks">
-          <TriangleAlert aria-hidden className="size-5 shrink-0" /> {setup.outOfTolerance} out of tolerance: the road test waits until the set-up is
-          corrected or a shop lead overrides with a note.
+        <p
+          role="alert"
+          className="flex gap-2 font-semibold text-stop-700 dark:text-stop-400"
+          data-testid="setup-blocks"
+        >
+          <TriangleAlert aria-hidden className="size-5 shrink-0" /> {setup.outOfTolerance} out of tolerance: the road
+          test waits until the set-up is corrected or a shop lead overrides with a note.
         </p>
       ) : null}
       {setup?.override ? (
@@ -111,33 +175,75 @@ export function SetupForm({ jobId, taskId, canEdit, isLead, index }: { jobId: st
           const t = num(r.tolerance)
           const out = [v, s, t].every(Number.isFinite) && isOutOfTolerance({ value: v, specified: s, tolerance: t })
           return (
-            <li key={i} className="grid grid-cols-2 gap-2 rounded-lg border border-graphite-200 p-2 sm:grid-cols-6 dark:border-asphalt-700">
+            <li
+              key={i}
+              className="grid grid-cols-2 gap-2 rounded-lg border border-graphite-200 p-2 sm:grid-cols-6 dark:border-asphalt-700"
+            >
               <div className="col-span-2">
                 <Field label="Measurement" htmlFor={id("key", i)}>
-                  <Select id={id("key", i)} value={r.key} disabled={!canEdit} onChange={(e) => update(i, { key: e.target.value as SetupMeasurementKey })}>
+                  <Select
+                    id={id("key", i)}
+                    value={r.key}
+                    disabled={!canEdit}
+                    onChange={(e) => update(i, { key: e.target.value as SetupMeasurementKey })}
+                  >
                     <Options values={SETUP_MEASUREMENT_KEYS} labels={SETUP_MEASUREMENT_LABEL} />
                   </Select>
                 </Field>
                 {r.key === "other" ? (
                   <Field label="Name" htmlFor={id("label", i)} error={fields[`measurements.${i}.label`]}>
-                    <Input id={id("label", i)} value={r.label} disabled={!canEdit} onChange={(e) => update(i, { label: e.target.value })} />
+                    <Input
+                      id={id("label", i)}
+                      value={r.label}
+                      disabled={!canEdit}
+                      onChange={(e) => update(i, { label: e.target.value })}
+                    />
                   </Field>
                 ) : null}
               </div>
               <Field label="Measured" htmlFor={id("value", i)} error={fields[`measurements.${i}.value`]}>
-                <Input id={id("value", i)} inputMode="decimal" value={r.value} disabled={!canEdit} onChange={(e) => update(i, { value: e.target.value })} />
+                <Input
+                  id={id("value", i)}
+                  inputMode="decimal"
+                  value={r.value}
+                  disabled={!canEdit}
+                  onChange={(e) => update(i, { value: e.target.value })}
+                />
               </Field>
               <Field label="Specified" htmlFor={id("specified", i)} error={fields[`measurements.${i}.specified`]}>
-                <Input id={id("specified", i)} inputMode="decimal" value={r.specified} disabled={!canEdit} onChange={(e) => update(i, { specified: e.target.value })} />
+                <Input
+                  id={id("specified", i)}
+                  inputMode="decimal"
+                  value={r.specified}
+                  disabled={!canEdit}
+                  onChange={(e) => update(i, { specified: e.target.value })}
+                />
               </Field>
               <Field label="Tolerance (±)" htmlFor={id("tolerance", i)} error={fields[`measurements.${i}.tolerance`]}>
-                <Input id={id("tolerance", i)} inputMode="decimal" value={r.tolerance} disabled={!canEdit} onChange={(e) => update(i, { tolerance: e.target.value })} />
+                <Input
+                  id={id("tolerance", i)}
+                  inputMode="decimal"
+                  value={r.tolerance}
+                  disabled={!canEdit}
+                  onChange={(e) => update(i, { tolerance: e.target.value })}
+                />
               </Field>
               <Field label="Unit" htmlFor={id("unit", i)} error={fields[`measurements.${i}.unit`]}>
-                <Input id={id("unit", i)} value={r.unit} disabled={!canEdit} onChange={(e) => update(i, { unit: e.target.value })} />
+                <Input
+                  id={id("unit", i)}
+                  value={r.unit}
+                  disabled={!canEdit}
+                  onChange={(e) => update(i, { unit: e.target.value })}
+                />
               </Field>
               <div className="col-span-2 flex items-center justify-between gap-2 sm:col-span-6">
-                <span className={out ? "flex items-center gap-1 font-semibold text-stop-700 dark:text-stop-400" : "text-sm text-graphite-600 dark:text-graphite-300"}>
+                <span
+                  className={
+                    out
+                      ? "flex items-center gap-1 font-semibold text-stop-700 dark:text-stop-400"
+                      : "text-sm text-graphite-600 dark:text-graphite-300"
+                  }
+                >
                   {out ? (
                     <>
                       <TriangleAlert aria-hidden className="size-4" /> Out of tolerance
@@ -149,7 +255,12 @@ export function SetupForm({ jobId, taskId, canEdit, isLead, index }: { jobId: st
                   )}
                 </span>
                 {canEdit && rows.length > 1 ? (
-                  <Button variant="ghost" size="sm" onClick={() => setRows((rs) => rs.filter((_, j) => j !== i))} aria-label={`Remove measurement ${i + 1}`}>
+                  <Button
+                    variant="ghost"
+                    size="sm"
+                    onClick={() => setRows((rs) => rs.filter((_, j) => j !== i))}
+                    aria-label={`Remove measurement ${i + 1}`}
+                  >
                     <Trash2 aria-hidden className="size-4" />
                   </Button>
                 ) : null}
@@ -164,12 +275,26 @@ export function SetupForm({ jobId, taskId, canEdit, isLead, index }: { jobId: st
         </Button>
       ) : null}
       <Field label="Scan tool result" htmlFor={id("scan")}>
-        <Select id={id("scan")} value={scanResult} disabled={!canEdit} onChange={(e) => setScanResult(e.target.value as ScanResult)}>
+        <Select
+          id={id("scan")}
+          value={scanResult}
+          disabled={!canEdit}
+          onChange={(e) => setScanResult(e.target.value as ScanResult)}
+        >
           <Options values={SCAN_RESULTS} labels={SCAN_RESULT_LABEL} />
         </Select>
       </Field>
-      <Field label="Scan tool notes" htmlFor={id("scan-notes")} hint="Codes read, the tool's own wording. Photos of the set-up and printouts go under Photos and printouts.">
-        <Textarea id={id("scan-notes")} value={scanNotes} disabled={!canEdit} onChange={(e) => setScanNotes(e.target.value)} />
+      <Field
+        label="Scan tool notes"
+        htmlFor={id("scan-notes")}
+        hint="Codes read, the tool's own wording. Photos of the set-up and printouts go under Photos and printouts."
+      >
+        <Textarea
+          id={id("scan-notes")}
+          value={scanNotes}
+          disabled={!canEdit}
+          onChange={(e) => setScanNotes(e.target.value)}
+        />
       </Field>
       {canEdit ? (
         <Button onClick={() => void save()} data-testid={`setup-save-${index}`}>

@@ -12,7 +12,12 @@ export function VinField({
   chosenYear,
   onChooseYear,
   ...props
-}: { value: string; serverError?: string; chosenYear?: string; onChooseYear?: (year: number) => void } & InputHTMLAttributes<HTMLInputElement>) {
+}: {
+  value: string
+  serverError?: string
+  chosenYear?: string
+  onChooseYear?: (year: number) => void
+} & InputHTMLAttributes<HTMLInputElement>) {
   const typed = value.trim()
   const check = typed ? checkVin(typed) : null
   const problems = check?.problems ?? []
@@ -35,11 +40,14 @@ export function VinField({
       />
       <div id={describedBy} aria-live="polite" className="min-h-6 text-sm">
         {!check ? (
-          <p className="text-graphite-500 dark:text-graphite-300">17 characters, from the windshield plate or the door label.</p>
+          <p className="text-graphite-500 dark:text-graphite-300">
+            17 characters, from the windshield plate or the door label.
+          </p>
         ) : check.valid ? (
           <p className="flex items-center gap-1 font-medium text-graphite-800 dark:text-graphite-100">
             <CircleCheck aria-hidden className="size-4 text-teal-600" />
-            Check digit {check.checkDigit} is right{check.modelYear && check.modelYearChoices.length < 2 ? ` · model year ${check.modelYear}` : ""}.
+            Check digit {check.checkDigit} is right
+            {check.modelYear && check.modelYearChoices.length < 2 ? ` · model year ${check.modelYear}` : ""}.
           </p>
         ) : (
           <ul className="space-y-0.5 font-medium text-stop-600 dark:text-stop-400" data-testid="vin-problems">
@@ -49,11 +57,19 @@ export function VinField({
                 {p}
               </li>
             ))}
-            {check.modelYear ? <li className="text-graphite-600 dark:text-graphite-300">Model year from position 10: {check.modelYear}.</li> : null}
+            {check.modelYear ? (
+              <li className="text-graphite-600 dark:text-graphite-300">
+                Model year from position 10: {check.modelYear}.
+              </li>
+            ) : null}
           </ul>
         )}
         {check?.valid && check.modelYearChoices.length === 2 ? (
-          <YearChoice choices={check.modelYearChoices as [number, number]} chosen={chosenYear} onChoose={onChooseYear} />
+          <YearChoice
+            choices={check.modelYearChoices as [number, number]}
+            chosen={chosenYear}
+            onChoose={onChooseYear}
+          />
         ) : null}
         {serverError && check?.valid ? <p className="font-medium text-stop-600">{serverError}</p> : null}
       </div>
@@ -65,7 +81,15 @@ export function VinField({
  * Position 10 stands for two model years 30 years apart; position 7 settles it only for cars, SUVs, vans and
  * light trucks (49 CFR 565.15(b)). Both years are shown and the person says which.
  */
-function YearChoice({ choices, chosen, onChoose }: { choices: [number, number]; chosen?: string; onChoose?: (year: number) => void }) {
+function YearChoice({
+  choices,
+  chosen,
+  onChoose,
+}: {
+  choices: [number, number]
+  chosen?: string
+  onChoose?: (year: number) => void
+}) {
   const [light, other] = choices
   const settled = chosen === String(light) || chosen === String(other)
   return (
@@ -74,7 +98,8 @@ function YearChoice({ choices, chosen, onChoose }: { choices: [number, number]; 
         Model year {light} or {other}? {settled ? `You chose ${chosen}.` : "Which is it?"}
       </legend>
       <p className="text-graphite-600 dark:text-graphite-300">
-        {light} for a car, SUV, van or light truck; {other} is possible for a heavier truck, a bus, a trailer or a motorcycle.
+        {light} for a car, SUV, van or light truck; {other} is possible for a heavier truck, a bus, a trailer or a
+        motorcycle.
       </p>
       {onChoose ? (
         <div className="flex gap-2">

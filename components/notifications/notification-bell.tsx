@@ -61,7 +61,11 @@ export function NotificationBell({ className }: { className?: string }) {
     setOpen(next)
     if (next && unread > 0) {
       setUnread(0)
-      await fetch("/api/notifications", { method: "PATCH", headers: { "content-type": "application/json" }, body: JSON.stringify({ all: true }) }).catch(() => null)
+      await fetch("/api/notifications", {
+        method: "PATCH",
+        headers: { "content-type": "application/json" },
+        body: JSON.stringify({ all: true }),
+      }).catch(() => null)
     }
   }
 
@@ -78,7 +82,10 @@ export function NotificationBell({ className }: { className?: string }) {
       >
         <Icon aria-hidden className="size-6" />
         {unread > 0 ? (
-          <span className="tabular absolute top-1 right-1 min-w-5 rounded-full bg-signal-400 px-1 text-center text-xs font-bold text-graphite-950" data-testid="notification-count">
+          <span
+            className="absolute top-1 right-1 min-w-5 rounded-full bg-signal-400 px-1 text-center tabular text-xs font-bold text-graphite-950"
+            data-testid="notification-count"
+          >
             {unread > 99 ? "99+" : unread}
           </span>
         ) : null}
@@ -94,7 +101,9 @@ export function NotificationBell({ className }: { className?: string }) {
         >
           <p className="px-2 pt-1 pb-2 font-semibold">Notices</p>
           {notices.length === 0 ? (
-            <p className="px-2 pb-2 text-sm text-graphite-600 dark:text-graphite-300">Nothing new. Drives waiting for review and records sent show up here.</p>
+            <p className="px-2 pb-2 text-sm text-graphite-600 dark:text-graphite-300">
+              Nothing new. Drives waiting for review and records sent show up here.
+            </p>
           ) : (
             <ul className="max-h-[60dvh] divide-y divide-graphite-100 overflow-y-auto dark:divide-asphalt-700">
               {notices.map((n) => {
@@ -102,17 +111,25 @@ export function NotificationBell({ className }: { className?: string }) {
                   <>
                     <span className={cn("block text-sm", !n.readAt && "font-semibold")}>
                       {!n.readAt ? (
-                        <span className="mr-1.5 inline-block rounded bg-signal-400 px-1 text-xs font-bold text-graphite-950">New</span>
+                        <span className="mr-1.5 inline-block rounded bg-signal-400 px-1 text-xs font-bold text-graphite-950">
+                          New
+                        </span>
                       ) : null}
                       {n.message}
                     </span>
-                    <span className="block text-xs text-graphite-600 dark:text-graphite-300"><LocalTime iso={n.createdAt} /></span>
+                    <span className="block text-xs text-graphite-600 dark:text-graphite-300">
+                      <LocalTime iso={n.createdAt} />
+                    </span>
                   </>
                 )
                 return (
                   <li key={n.id}>
                     {n.link ? (
-                      <Link href={n.link} onClick={() => setOpen(false)} className="block rounded-lg p-2 hover:bg-graphite-100 dark:hover:bg-asphalt-700">
+                      <Link
+                        href={n.link}
+                        onClick={() => setOpen(false)}
+                        className="block rounded-lg p-2 hover:bg-graphite-100 dark:hover:bg-asphalt-700"
+                      >
                         {body}
                       </Link>
                     ) : (

@@ -28,7 +28,14 @@ export function TimeToClearChart({ data }: { data: Numbers["timeToClear"] }) {
     <Card>
       <h2 className="text-lg font-semibold">Time to learn complete, by condition profile</h2>
       <p className="mb-2 text-sm text-graphite-600 dark:text-graphite-300">
-        Drives per band of minutes from start to the learn-complete mark. {profiles.map((p) => (p.cleared ? `${p.profileName}: median ${formatDuration(p.medianSeconds)} (${p.cleared} of ${p.drives} completed)` : `${p.profileName}: none of ${p.drives} completed`)).join(" · ")}
+        Drives per band of minutes from start to the learn-complete mark.{" "}
+        {profiles
+          .map((p) =>
+            p.cleared
+              ? `${p.profileName}: median ${formatDuration(p.medianSeconds)} (${p.cleared} of ${p.drives} completed)`
+              : `${p.profileName}: none of ${p.drives} completed`,
+          )
+          .join(" · ")}
       </p>
       <div className="h-64 text-graphite-800 dark:text-graphite-100" data-testid="chart-time-to-clear">
         <ResponsiveContainer width="100%" height="100%">
@@ -52,14 +59,24 @@ export function VerdictMixChart({ data }: { data: Numbers["verdictMix"] }) {
   return (
     <Card>
       <h2 className="text-lg font-semibold">Verdicts week by week</h2>
-      <p className="mb-2 text-sm text-graphite-600 dark:text-graphite-300">Finished drives per week (weeks start on Monday at midnight, shop time).</p>
+      <p className="mb-2 text-sm text-graphite-600 dark:text-graphite-300">
+        Finished drives per week (weeks start on Monday at midnight, shop time).
+      </p>
       <div className="h-64 text-graphite-800 dark:text-graphite-100" data-testid="chart-verdict-mix">
         <ResponsiveContainer width="100%" height="100%">
           <BarChart data={data} margin={{ top: 8, right: 8, bottom: 4, left: -16 }}>
             <CartesianGrid strokeDasharray="3 3" stroke="currentColor" strokeOpacity={0.2} />
-            <XAxis dataKey="weekStart" tick={{ fontSize: 12, fill: "currentColor" }} stroke="currentColor" tickFormatter={(v: string) => formatDay(`${v}T12:00:00Z`, "UTC")} />
+            <XAxis
+              dataKey="weekStart"
+              tick={{ fontSize: 12, fill: "currentColor" }}
+              stroke="currentColor"
+              tickFormatter={(v: string) => formatDay(`${v}T12:00:00Z`, "UTC")}
+            />
             <YAxis allowDecimals={false} tick={{ fontSize: 12, fill: "currentColor" }} stroke="currentColor" />
-            <Tooltip contentStyle={TOOLTIP_STYLE} labelFormatter={(v) => `Week of ${formatDay(`${v}T12:00:00Z`, "UTC")}`} />
+            <Tooltip
+              contentStyle={TOOLTIP_STYLE}
+              labelFormatter={(v) => `Week of ${formatDay(`${v}T12:00:00Z`, "UTC")}`}
+            />
             <Legend formatter={legendText} />
             {VERDICT_SERIES.map((s) => (
               <Bar key={s.key} dataKey={s.key} name={s.name} stackId="v" fill={s.colour} isAnimationActive={false} />
@@ -79,12 +96,27 @@ export function TopReasonsChart({ data }: { data: Numbers["topReasons"] }) {
       {data.length === 0 ? (
         <p>No condition was missed.</p>
       ) : (
-        <div className="text-graphite-800 dark:text-graphite-100" style={{ height: Math.max(120, data.length * 44) }} data-testid="chart-top-reasons">
+        <div
+          className="text-graphite-800 dark:text-graphite-100"
+          style={{ height: Math.max(120, data.length * 44) }}
+          data-testid="chart-top-reasons"
+        >
           <ResponsiveContainer width="100%" height="100%">
             <BarChart data={data} layout="vertical" margin={{ top: 4, right: 16, bottom: 4, left: 8 }}>
               <CartesianGrid strokeDasharray="3 3" stroke="currentColor" strokeOpacity={0.2} />
-              <XAxis type="number" allowDecimals={false} tick={{ fontSize: 12, fill: "currentColor" }} stroke="currentColor" />
-              <YAxis type="category" dataKey="label" width={170} tick={{ fontSize: 12, fill: "currentColor" }} stroke="currentColor" />
+              <XAxis
+                type="number"
+                allowDecimals={false}
+                tick={{ fontSize: 12, fill: "currentColor" }}
+                stroke="currentColor"
+              />
+              <YAxis
+                type="category"
+                dataKey="label"
+                width={170}
+                tick={{ fontSize: 12, fill: "currentColor" }}
+                stroke="currentColor"
+              />
               <Tooltip contentStyle={TOOLTIP_STYLE} formatter={(v) => [`${v} drives`, "Drives"]} />
               <Bar dataKey="drives" name="Drives" fill="#7d8794" isAnimationActive={false} />
             </BarChart>

@@ -48,7 +48,9 @@ export function ProfileEditor({
       return [fieldKey(f.name), v === null ? "" : formatShown(toDisplay(f.kind, v, units), f.kind)]
     }),
   )
-  const form = useForm<Values>({ defaultValues: { name: profile?.name ?? "", sensor: profile?.sensor ?? "", fields: shown } })
+  const form = useForm<Values>({
+    defaultValues: { name: profile?.name ?? "", sensor: profile?.sensor ?? "", fields: shown },
+  })
   const { errors, isSubmitting } = form.formState
 
   function toSettings(values: Values) {
@@ -84,14 +86,28 @@ export function ProfileEditor({
     let checks: RoadTestCheck[] | undefined
     if (roadTestChecks) {
       const c = roadTestChecksSchema.safeParse(fromDrafts(checkDrafts))
-      setCheckErrors(c.success ? {} : Object.fromEntries(Object.entries(issuesToFields(c.error.issues)).map(([k, v]) => [`roadTestChecks.${k}`, v])))
+      setCheckErrors(
+        c.success
+          ? {}
+          : Object.fromEntries(
+              Object.entries(issuesToFields(c.error.issues)).map(([k, v]) => [`roadTestChecks.${k}`, v]),
+            ),
+      )
       if (!c.success) return
       checks = c.data
     }
-    const body = { name: values.name, sensor: values.sensor || null, settings: parsed.data, ...(checks ? { roadTestChecks: checks } : {}) }
+    const body = {
+      name: values.name,
+      sensor: values.sensor || null,
+      settings: parsed.data,
+      ...(checks ? { roadTestChecks: checks } : {}),
+    }
     try {
       if (profile) {
-        const res = await apiFetch<{ profile: { version: number } }>(`/api/profiles/${profile.id}`, { method: "PATCH", body })
+        const res = await apiFetch<{ profile: { version: number } }>(`/api/profiles/${profile.id}`, {
+          method: "PATCH",
+          body,
+        })
         setDone(`Saved. Current version: ${res.profile.version}.`)
         router.refresh()
       } else {
@@ -109,7 +125,11 @@ export function ProfileEditor({
         <Field label="Name" htmlFor="profile-name" error={errors.name?.message}>
           <Input id="profile-name" disabled={!canEdit} {...form.register("name")} />
         </Field>
-        <Field label="For sensor" htmlFor="profile-sensor" hint="New calibrations of this sensor get this profile by default.">
+        <Field
+          label="For sensor"
+          htmlFor="profile-sensor"
+          hint="New calibrations of this sensor get this profile by default."
+        >
           <Select id="profile-sensor" disabled={!canEdit} {...form.register("sensor")}>
             <option value="">Any (chosen by hand)</option>
             <Options values={SENSORS} labels={SENSOR_LABEL} />
@@ -120,16 +140,36 @@ export function ProfileEditor({
         {PROFILE_FIELDS.map((f) => {
           const key = fieldKey(f.name)
           return (
-            <Field key={f.name} label={`${f.label} (${unitLabel(f.kind, units)})`} htmlFor={`pf-${key}`} hint={f.hint} error={errors.fields?.[key]?.message}>
-              <Input id={`pf-${key}`} inputMode="decimal" className="tabular" disabled={!canEdit} {...form.register(`fields.${key}`)} />
+            <Field
+              key={f.name}
+              label={`${f.label} (${unitLabel(f.kind, units)})`}
+              htmlFor={`pf-${key}`}
+              hint={f.hint}
+              error={errors.fields?.[key]?.message}
+            >
+              <Input
+                id={`pf-${key}`}
+                inputMode="decimal"
+                className="tabular"
+                disabled={!canEdit}
+                {...form.register(`fields.${key}`)}
+              />
             </Field>
           )
         })}
       </Card>
       {roadTestChecks ? (
-        <RoadTestChecksEditor drafts={checkDrafts} onChange={setCheckDrafts} sensor={profile?.sensor ?? null} canEdit={canEdit} errors={checkErrors} />
+        <RoadTestChecksEditor
+          drafts={checkDrafts}
+          onChange={setCheckDrafts}
+          sensor={profile?.sensor ?? null}
+          canEdit={canEdit}
+          errors={checkErrors}
+        />
       ) : (
-        <p className="text-sm text-graphite-600 dark:text-graphite-300">A new profile starts with its sensor&apos;s usual road-test checks; edit them once it is created.</p>
+        <p className="text-sm text-graphite-600 dark:text-graphite-300">
+          A new profile starts with its sensor&apos;s usual road-test checks; edit them once it is created.
+        </p>
       )}
       <FormProblem>{problem}</FormProblem>
       <FormDone>{done}</FormDone>
@@ -139,7 +179,9 @@ export function ProfileEditor({
             {isSubmitting ? "Saving…" : profile ? "Save as a new version" : "Create profile"}
           </Button>
           {profile ? (
-            <p className="text-sm text-graphite-600 dark:text-graphite-300">Drives already recorded keep the version they were held to.</p>
+            <p className="text-sm text-graphite-600 dark:text-graphite-300">
+              Drives already recorded keep the version they were held to.
+            </p>
           ) : null}
         </div>
       ) : null}

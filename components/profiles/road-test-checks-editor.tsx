@@ -14,10 +14,19 @@ export const toDrafts = (checks: readonly RoadTestCheck[]): CheckDraft[] =>
   checks.map(({ minSpeedMph, ...c }) => ({ ...c, minSpeedText: minSpeedMph === null ? "" : String(minSpeedMph) }))
 
 export const fromDrafts = (drafts: readonly CheckDraft[]): RoadTestCheck[] =>
-  drafts.map(({ minSpeedText, ...c }) => ({ ...c, label: c.label.trim(), minSpeedMph: minSpeedText.trim() === "" ? null : Number(minSpeedText) }))
+  drafts.map(({ minSpeedText, ...c }) => ({
+    ...c,
+    label: c.label.trim(),
+    minSpeedMph: minSpeedText.trim() === "" ? null : Number(minSpeedText),
+  }))
 
 function keyFromLabel(label: string, taken: Set<string>): string {
-  const base = label.toLowerCase().replace(/[^a-z0-9]+/g, "-").replace(/^-+|-+$/g, "").slice(0, 50) || "check"
+  const base =
+    label
+      .toLowerCase()
+      .replace(/[^a-z0-9]+/g, "-")
+      .replace(/^-+|-+$/g, "")
+      .slice(0, 50) || "check"
   let key = base.length >= 2 ? base : `check-${base}`
   for (let n = 2; taken.has(key); n++) key = `${base}-${n}`
   return key
@@ -40,43 +49,92 @@ export function RoadTestChecksEditor({
   canEdit: boolean
   errors: Record<string, string>
 }) {
-  const update = (i: number, patch: Partial<CheckDraft>) => onChange(drafts.map((d, j) => (j === i ? { ...d, ...patch } : d)))
+  const update = (i: number, patch: Partial<CheckDraft>) =>
+    onChange(drafts.map((d, j) => (j === i ? { ...d, ...patch } : d)))
   const add = () => {
     const label = "New check"
-    onChange([...drafts, { key: keyFromLabel(label, new Set(drafts.map((d) => d.key))), system: (sensor as RoadTestCheck["system"]) ?? "other", label, minSpeedText: "", need: "required" }])
+    onChange([
+      ...drafts,
+      {
+        key: keyFromLabel(label, new Set(drafts.map((d) => d.key))),
+        system: (sensor as RoadTestCheck["system"]) ?? "other",
+        label,
+        minSpeedText: "",
+        need: "required",
+      },
+    ])
   }
   return (
     <Card className="space-y-3" data-testid="road-test-checks-editor">
       <div>
         <h2 className="text-lg font-semibold">Road-test checks</h2>
         <p className="text-sm text-graphite-600 dark:text-graphite-300">
-          What the crew confirms on the road after the calibration. The starting list is common practice, with no published source:
-          follow the vehicle maker&apos;s service information where it says more. A pass counts at the minimum speed or faster; leave it
-          empty for a check at any speed.
+          What the crew confirms on the road after the calibration. The starting list is common practice, with no
+          published source: follow the vehicle maker&apos;s service information where it says more. A pass counts at the
+          minimum speed or faster; leave it empty for a check at any speed.
         </p>
       </div>
-      {drafts.length === 0 ? <p className="text-sm">No checks: a road test with this profile has nothing to confirm for this system.</p> : null}
+      {drafts.length === 0 ? (
+        <p className="text-sm">No checks: a road test with this profile has nothing to confirm for this system.</p>
+      ) : null}
       <ul className="space-y-3">
         {drafts.map((d, i) => (
-          <li key={d.key} className="grid gap-2 rounded-lg border border-graphite-200 p-2 sm:grid-cols-6 dark:border-asphalt-700">
+          <li
+            key={d.key}
+            className="grid gap-2 rounded-lg border border-graphite-200 p-2 sm:grid-cols-6 dark:border-asphalt-700"
+          >
             <div className="sm:col-span-3">
-              <Field label="Check" htmlFor={`rtc-label-${i}`} hint={SENSOR_LABEL[d.system] ?? d.system} error={errors[`roadTestChecks.${i}.label`]}>
+              <Field
+                label="Check"
+                htmlFor={`rtc-label-${i}`}
+                hint={SENSOR_LABEL[d.system] ?? d.system}
+                error={errors[`roadTestChecks.${i}.label`]}
+              >
                 {/* Two lines on a phone: a check's words are a sentence, not a word. */}
-                <Textarea id={`rtc-label-${i}`} rows={2} className="min-h-12" value={d.label} disabled={!canEdit} onKeyDown={(e) => e.key === "Enter" && e.preventDefault()} onChange={(e) => update(i, { label: e.target.value.replace(/\s*\n\s*/g, " ") })} />
+                <Textarea
+                  id={`rtc-label-${i}`}
+                  rows={2}
+                  className="min-h-12"
+                  value={d.label}
+                  disabled={!canEdit}
+                  onKeyDown={(e) => e.key === "Enter" && e.preventDefault()}
+                  onChange={(e) => update(i, { label: e.target.value.replace(/\s*\n\s*/g, " ") })}
+                />
               </Field>
             </div>
-            <Field label="Minimum speed (mph)" htmlFor={`rtc-speed-${i}`} error={errors[`roadTestChecks.${i}.minSpeedMph`]}>
-              <Input id={`rtc-speed-${i}`} inputMode="decimal" placeholder="any" value={d.minSpeedText} disabled={!canEdit} onChange={(e) => update(i, { minSpeedText: e.target.value })} />
+            <Field
+              label="Minimum speed (mph)"
+              htmlFor={`rtc-speed-${i}`}
+              error={errors[`roadTestChecks.${i}.minSpeedMph`]}
+            >
+              <Input
+                id={`rtc-speed-${i}`}
+                inputMode="decimal"
+                placeholder="any"
+                value={d.minSpeedText}
+                disabled={!canEdit}
+                onChange={(e) => update(i, { minSpeedText: e.target.value })}
+              />
             </Field>
             <Field label="Needed" htmlFor={`rtc-need-${i}`}>
-              <Select id={`rtc-need-${i}`} value={d.need} disabled={!canEdit} onChange={(e) => update(i, { need: e.target.value as RoadTestCheck["need"] })}>
+              <Select
+                id={`rtc-need-${i}`}
+                value={d.need}
+                disabled={!canEdit}
+                onChange={(e) => update(i, { need: e.target.value as RoadTestCheck["need"] })}
+              >
                 <option value="required">Required</option>
                 <option value="where_equipped">Where equipped</option>
               </Select>
             </Field>
             {canEdit ? (
               <div className="flex items-end">
-                <Button variant="ghost" size="sm" aria-label={`Remove check ${i + 1}`} onClick={() => onChange(drafts.filter((_, j) => j !== i))}>
+                <Button
+                  variant="ghost"
+                  size="sm"
+                  aria-label={`Remove check ${i + 1}`}
+                  onClick={() => onChange(drafts.filter((_, j) => j !== i))}
+                >
                   <Trash2 aria-hidden className="size-4" /> Remove
                 </Button>
               </div>

@@ -34,7 +34,8 @@ export function ServiceWorkerRegistration() {
         void workbox.register()
         setWb(workbox)
       })
-    const whenIdle = () => ("requestIdleCallback" in window ? requestIdleCallback(register, { timeout: 2000 }) : setTimeout(register, 200))
+    const whenIdle = () =>
+      "requestIdleCallback" in window ? requestIdleCallback(register, { timeout: 2000 }) : setTimeout(register, 200)
     if (document.readyState === "complete") whenIdle()
     else window.addEventListener("load", whenIdle, { once: true })
     return () => {
@@ -75,7 +76,10 @@ export function ServiceWorkerRegistration() {
 
   if (!waiting || driving || !wb) return null
   return (
-    <div role="status" className="fixed inset-x-3 bottom-3 z-50 flex items-center gap-3 rounded-xl bg-asphalt-700 p-3 text-white shadow-lg">
+    <div
+      role="status"
+      className="fixed inset-x-3 bottom-3 z-50 flex items-center gap-3 rounded-xl bg-asphalt-700 p-3 text-white shadow-lg"
+    >
       <span className="flex-1">A new version of Straightaway is ready.</span>
       <button
         type="button"

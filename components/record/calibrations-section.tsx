@@ -1,5 +1,13 @@
 import { Card } from "@/components/ui/card"
-import { checkWords, measurementWords, METHOD_LABEL, scanResultWords, SENSOR_LABEL, VERDICT_WORD, type CalibrationRecord } from "@/lib/record"
+import {
+  checkWords,
+  measurementWords,
+  METHOD_LABEL,
+  scanResultWords,
+  SENSOR_LABEL,
+  VERDICT_WORD,
+  type CalibrationRecord,
+} from "@/lib/record"
 
 const verdictWord = (v: string | null) => (v ? ((VERDICT_WORD as Record<string, string>)[v] ?? v) : "not finished")
 
@@ -19,14 +27,22 @@ export function CalibrationsSection({ calibrations }: { calibrations: Calibratio
           {sys.method !== "dynamic" ? (
             sys.setup ? (
               <div>
-                <p className="text-sm font-semibold">Static set-up (figures from the maker&apos;s service information)</p>
+                <p className="text-sm font-semibold">
+                  Static set-up (figures from the maker&apos;s service information)
+                </p>
                 <ul className="list-disc pl-5 text-sm">
                   {sys.setup.measurements.map((m) => (
-                    <li key={m.label} className={m.outOfTolerance ? "font-semibold text-stop-700 dark:text-stop-400" : undefined}>
+                    <li
+                      key={m.label}
+                      className={m.outOfTolerance ? "font-semibold text-stop-700 dark:text-stop-400" : undefined}
+                    >
                       {m.label}: {measurementWords(m)}
                     </li>
                   ))}
-                  <li>Scan tool: {scanResultWords(sys.setup.scanResult)}{sys.setup.scanNotes ? `: ${sys.setup.scanNotes}` : ""}</li>
+                  <li>
+                    Scan tool: {scanResultWords(sys.setup.scanResult)}
+                    {sys.setup.scanNotes ? `: ${sys.setup.scanNotes}` : ""}
+                  </li>
                   {sys.setup.override ? <li>Lead&apos;s override: {sys.setup.override.note}</li> : null}
                 </ul>
               </div>

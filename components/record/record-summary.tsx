@@ -6,15 +6,30 @@ import type { Score } from "@/lib/scoring"
 import { formatDistance, formatDuration, formatSpeedMph, plural, type UnitSystem } from "@/lib/format"
 import { describeConditions, describeReasons, formatAgainst, type ConditionLine } from "@/lib/format/conditions"
 
-
 /** The verdict with its reasons, the key figures and every condition with value and requirement. */
-export function RecordSummary({ score, meaning, className, units = "imperial" }: { score: Score; meaning?: string; className?: string; units?: UnitSystem }) {
+export function RecordSummary({
+  score,
+  meaning,
+  className,
+  units = "imperial",
+}: {
+  score: Score
+  meaning?: string
+  className?: string
+  units?: UnitSystem
+}) {
   const verified = score.conditions.find((c) => c.key === "verified")
   const lines = describeConditions(score, units)
   const { reasons, notes } = describeReasons(score, units)
   const figures: Array<[string, string]> = [
-    ["Qualifying before the learn completed", formatAgainst(score.qualifyingSecondsBeforeClear, (score.profile?.minQualifyingMinutes ?? 10) * 60)],
-    ["Following before the learn completed", formatAgainst(score.followingSecondsBeforeClear, (score.profile?.minFollowingMinutes ?? 2) * 60)],
+    [
+      "Qualifying before the learn completed",
+      formatAgainst(score.qualifyingSecondsBeforeClear, (score.profile?.minQualifyingMinutes ?? 10) * 60),
+    ],
+    [
+      "Following before the learn completed",
+      formatAgainst(score.followingSecondsBeforeClear, (score.profile?.minFollowingMinutes ?? 2) * 60),
+    ],
     ["Distance", formatDistance(score.distanceMeters, units)],
     ["Duration", formatDuration(score.durationSeconds)],
     [
@@ -31,7 +46,9 @@ export function RecordSummary({ score, meaning, className, units = "imperial" }:
         <div className="flex flex-wrap items-center gap-3">
           <VerdictBadge verdict={score.verdict} size="lg" />
           {score.clearedAtSeconds != null ? (
-            <span className="text-sm text-graphite-600 dark:text-graphite-300">Learn reported complete {formatDuration(score.clearedAtSeconds)} into the drive</span>
+            <span className="text-sm text-graphite-600 dark:text-graphite-300">
+              Learn reported complete {formatDuration(score.clearedAtSeconds)} into the drive
+            </span>
           ) : null}
         </div>
         {meaning ? <p className="font-medium">{meaning}</p> : null}

@@ -27,12 +27,17 @@ export function RevisionHistory({ revisions, finished }: { revisions: RevisionRo
     <div className="space-y-2" data-testid="revision-history">
       {changed ? (
         <p className="flex items-start gap-2 text-sm font-semibold" data-testid="verdict-changed">
-          <History aria-hidden className="mt-0.5 size-4 shrink-0" /> The verdict changed after the finish. Records sent before show the old verdict.
+          <History aria-hidden className="mt-0.5 size-4 shrink-0" /> The verdict changed after the finish. Records sent
+          before show the old verdict.
         </p>
       ) : null}
       <ol className="divide-y divide-graphite-100 dark:divide-asphalt-700">
         {revisions.map((r, i) => (
-          <li key={r.revision} className="flex flex-wrap items-center justify-between gap-x-3 gap-y-1 py-2 text-sm" data-testid="revision-row">
+          <li
+            key={r.revision}
+            className="flex flex-wrap items-center justify-between gap-x-3 gap-y-1 py-2 text-sm"
+            data-testid="revision-row"
+          >
             <span className="min-w-0">
               <span className="font-semibold">
                 Revision {r.revision}

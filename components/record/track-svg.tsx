@@ -20,13 +20,20 @@ export function TrackSvg({ timeline, className }: { timeline: TimelinePoint[]; c
   const width = 600
   const height = 360
   const paths = projectTrack(downsampleTimeline(timeline, 2000), width, height, 16)
-  if (paths.length === 0) return <p className="text-sm text-graphite-600 dark:text-graphite-300">No positions to draw.</p>
+  if (paths.length === 0)
+    return <p className="text-sm text-graphite-600 dark:text-graphite-300">No positions to draw.</p>
   const start = paths[0]!.points[0]!
   const end = paths.at(-1)!.points.at(-1)!
   const present = [...new Set(paths.map((p) => p.state))]
   return (
     <figure className={cn("space-y-2", className)}>
-      <svg viewBox={`0 0 ${width} ${height}`} role="img" aria-label="Track of the drive, coloured by state" className="h-auto w-full rounded-lg bg-graphite-50 dark:bg-asphalt-900" data-testid="track-svg">
+      <svg
+        viewBox={`0 0 ${width} ${height}`}
+        role="img"
+        aria-label="Track of the drive, coloured by state"
+        className="h-auto w-full rounded-lg bg-graphite-50 dark:bg-asphalt-900"
+        data-testid="track-svg"
+      >
         {paths.map((p, i) => (
           <polyline
             key={i}

@@ -1,5 +1,17 @@
 "use client"
-import { CircleCheck, CircleStop, CircleX, Flag, Link2, Link2Off, Pencil, Ruler, ShieldCheck, TriangleAlert, Undo2 } from "lucide-react"
+import {
+  CircleCheck,
+  CircleStop,
+  CircleX,
+  Flag,
+  Link2,
+  Link2Off,
+  Pencil,
+  Ruler,
+  ShieldCheck,
+  TriangleAlert,
+  Undo2,
+} from "lucide-react"
 import { useState, type ReactNode } from "react"
 import type { MarkKind } from "@/lib/drive-file/schema"
 import { MARK_LABEL as MARK_WORD } from "@/lib/labels"
@@ -15,7 +27,19 @@ const buzz = (pattern: number | number[] = 40) => {
   } catch {}
 }
 
-function Big({ children, onClick, tone = "plain", testId, disabled }: { children: ReactNode; onClick: () => void; tone?: "plain" | "signal" | "teal" | "stop"; testId?: string; disabled?: boolean }) {
+function Big({
+  children,
+  onClick,
+  tone = "plain",
+  testId,
+  disabled,
+}: {
+  children: ReactNode
+  onClick: () => void
+  tone?: "plain" | "signal" | "teal" | "stop"
+  testId?: string
+  disabled?: boolean
+}) {
   const tones = {
     plain: "bg-asphalt-700 text-white",
     signal: "bg-signal-400 text-graphite-950",
@@ -28,7 +52,10 @@ function Big({ children, onClick, tone = "plain", testId, disabled }: { children
       data-testid={testId}
       disabled={disabled}
       onClick={onClick}
-      className={cx("flex min-h-16 items-center justify-center gap-2 rounded-xl px-3 text-lg font-bold disabled:opacity-40", tones[tone])}
+      className={cx(
+        "flex min-h-16 items-center justify-center gap-2 rounded-xl px-3 text-lg font-bold disabled:opacity-40",
+        tones[tone],
+      )}
     >
       {children}
     </button>
@@ -67,10 +94,13 @@ function GapCounter({ onUse }: { onUse: (gapFt: number) => void }) {
           We pass it
         </Big>
       </div>
-      {leadAt !== null ? <p className="text-center text-graphite-300">Counting… tap when you pass the same object.</p> : null}
+      {leadAt !== null ? (
+        <p className="text-center text-graphite-300">Counting… tap when you pass the same object.</p>
+      ) : null}
       {gap ? (
-        <p className="text-center text-xl tabular" data-testid="gap-result">
-          {gap.seconds.toFixed(1)} s{gap.gapFt === null ? " (speed unknown: no feet)" : ` ≈ ${roundGapFt(gap.gapFt)} ft`}
+        <p className="text-center tabular text-xl" data-testid="gap-result">
+          {gap.seconds.toFixed(1)} s
+          {gap.gapFt === null ? " (speed unknown: no feet)" : ` ≈ ${roundGapFt(gap.gapFt)} ft`}
         </p>
       ) : null}
       <div className="flex gap-2">
@@ -109,7 +139,9 @@ export function CoDriverPanel() {
   // Every mark the phone knows (its own and the other phone's): the buttons follow the shared state.
   const marks = useRecorder((s) => s.knownMarks)
   const ownMarks = useRecorder((s) => s.marks)
-  const finished = useRecorder((s) => s.driveInfo?.status === "finished" || (s.meta !== null && s.meta.status !== "recording"))
+  const finished = useRecorder(
+    (s) => s.driveInfo?.status === "finished" || (s.meta !== null && s.meta.status !== "recording"),
+  )
   const [asking, setAsking] = useState<"lead-on" | "gap" | null>(null)
   const [note, setNote] = useState<string | null>(null)
   const [flash, setFlash] = useState<string | null>(null)
@@ -131,7 +163,11 @@ export function CoDriverPanel() {
   if (finished) {
     return (
       <div className="space-y-2" data-testid="co-driver-panel">
-        <p role="status" className="flex items-center gap-2 rounded-xl border-2 border-teal-400 p-3 text-lg font-semibold" data-testid="marks-closed">
+        <p
+          role="status"
+          className="flex items-center gap-2 rounded-xl border-2 border-teal-400 p-3 text-lg font-semibold"
+          data-testid="marks-closed"
+        >
           <Flag aria-hidden className="size-6 shrink-0" /> The drive is finished: it takes no new marks.
         </p>
         <p className="text-sm text-graphite-400" data-testid="mark-count" data-value={marks.length}>
@@ -163,16 +199,17 @@ export function CoDriverPanel() {
         </Big>
       </div>
       <p className="flex items-center gap-2 text-sm text-signal-300" data-testid="verify-caution">
-        <TriangleAlert aria-hidden className="size-4 shrink-0" /> Check the function only where traffic law allows; the driver keeps eyes on the road.
+        <TriangleAlert aria-hidden className="size-4 shrink-0" /> Check the function only where traffic law allows; the
+        driver keeps eyes on the road.
       </p>
       {/* Far apart on purpose: one must never be hit for the other. */}
       <div className="flex justify-between gap-16">
-        <div className="flex-1 grid">
+        <div className="grid flex-1">
           <Big testId="mark-verified" onClick={() => void log("verified")}>
             <ShieldCheck aria-hidden /> Verified
           </Big>
         </div>
-        <div className="flex-1 grid">
+        <div className="grid flex-1">
           <Big testId="mark-verify-failed" tone="stop" onClick={() => void log("verify-failed")}>
             <CircleX aria-hidden /> Verify failed
           </Big>
@@ -202,7 +239,12 @@ export function CoDriverPanel() {
             data-testid="note-text"
           />
           <div className="grid grid-cols-2 gap-2">
-            <Big testId="note-save" tone="teal" disabled={!note.trim()} onClick={() => void log("note", { text: note.trim() }).then(() => setNote(null))}>
+            <Big
+              testId="note-save"
+              tone="teal"
+              disabled={!note.trim()}
+              onClick={() => void log("note", { text: note.trim() }).then(() => setNote(null))}
+            >
               Save note
             </Big>
             <Big onClick={() => setNote(null)}>Cancel</Big>

@@ -6,7 +6,19 @@ const cx = (...parts: Array<string | false | null | undefined>) => parts.filter(
 const minutes = (seconds: number) => (seconds / 60).toFixed(1)
 const clock = (ms: number) => new Date(ms).toLocaleTimeString([], { hour: "2-digit", minute: "2-digit" })
 
-function Stat({ label, value, of, testId, raw }: { label: string; value: string; of?: string; testId: string; raw: number | null }) {
+function Stat({
+  label,
+  value,
+  of,
+  testId,
+  raw,
+}: {
+  label: string
+  value: string
+  of?: string
+  testId: string
+  raw: number | null
+}) {
   return (
     <div className="rounded-lg bg-asphalt-900/60 px-1 py-1 text-center" data-testid={testId} data-value={raw ?? ""}>
       <div className="text-xs text-graphite-300">{label}</div>
@@ -47,7 +59,12 @@ export function CrewSummary() {
         ? "Offline: showing what this phone holds"
         : "Connecting…"
   return (
-    <section className="space-y-1.5 rounded-xl bg-asphalt-800 p-2" data-testid="crew-summary" data-verdict={score?.verdict ?? ""} aria-label="The drive so far">
+    <section
+      className="space-y-1.5 rounded-xl bg-asphalt-800 p-2"
+      data-testid="crew-summary"
+      data-verdict={score?.verdict ?? ""}
+      aria-label="The drive so far"
+    >
       <div className="flex items-center gap-2 text-sm">
         <span className="min-w-0 flex-1 truncate font-semibold" data-testid="crew-job">
           {info?.roNumber ? `RO ${info.roNumber} · ` : ""}
@@ -56,26 +73,56 @@ export function CrewSummary() {
       </div>
       <div className="grid grid-cols-4 gap-1">
         <Stat testId="crew-elapsed" raw={elapsedS} label="Elapsed" value={minutes(elapsedS)} />
-        <Stat testId="crew-qualifying" raw={score?.qualifyingSeconds ?? null} label="Qualifying" value={minutes(q)} of={String(p.minQualifyingMinutes)} />
-        <Stat testId="crew-following" raw={score?.followingSeconds ?? null} label="Following" value={minutes(f)} of={String(p.minFollowingMinutes)} />
-        <Stat testId="crew-left" raw={left?.minutesLeft ?? null} label="Left" value={left?.minutesLeft == null ? "—" : left.minutesLeft.toFixed(0)} />
+        <Stat
+          testId="crew-qualifying"
+          raw={score?.qualifyingSeconds ?? null}
+          label="Qualifying"
+          value={minutes(q)}
+          of={String(p.minQualifyingMinutes)}
+        />
+        <Stat
+          testId="crew-following"
+          raw={score?.followingSeconds ?? null}
+          label="Following"
+          value={minutes(f)}
+          of={String(p.minFollowingMinutes)}
+        />
+        <Stat
+          testId="crew-left"
+          raw={left?.minutesLeft ?? null}
+          label="Left"
+          value={left?.minutesLeft == null ? "—" : left.minutesLeft.toFixed(0)}
+        />
       </div>
       <div className="flex flex-wrap items-center gap-x-3 gap-y-0.5 text-sm">
         <span
-          className={cx("inline-flex items-center gap-1 font-semibold", cleared !== null ? "text-teal-300" : "text-graphite-300")}
+          className={cx(
+            "inline-flex items-center gap-1 font-semibold",
+            cleared !== null ? "text-teal-300" : "text-graphite-300",
+          )}
           data-testid="crew-learn"
           data-cleared={cleared !== null}
         >
-          {cleared !== null ? <CircleCheck aria-hidden className="size-4" /> : <Hourglass aria-hidden className="size-4" />}
+          {cleared !== null ? (
+            <CircleCheck aria-hidden className="size-4" />
+          ) : (
+            <Hourglass aria-hidden className="size-4" />
+          )}
           {cleared !== null ? `Learn complete at ${minutes(cleared)} min` : "Learn not complete yet"}
         </span>
-        <span className={cx("ml-auto inline-flex items-center gap-1", offline && "text-signal-300")} data-testid="crew-sync" data-state={live.state}>
+        <span
+          className={cx("ml-auto inline-flex items-center gap-1", offline && "text-signal-300")}
+          data-testid="crew-sync"
+          data-state={live.state}
+        >
           {offline ? <CloudOff aria-hidden className="size-4" /> : <Radio aria-hidden className="size-4" />}
           {syncWord}
           {waitingMarks ? ` · ${waitingMarks} to send` : ""}
         </span>
       </div>
-      {secondPhone && offline && scoreAsOf ? <p className="text-xs text-graphite-300">Minutes as of {clock(scoreAsOf)}, the last word from the server.</p> : null}
+      {secondPhone && offline && scoreAsOf ? (
+        <p className="text-xs text-graphite-300">Minutes as of {clock(scoreAsOf)}, the last word from the server.</p>
+      ) : null}
     </section>
   )
 }

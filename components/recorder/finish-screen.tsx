@@ -32,11 +32,17 @@ export function FinishScreen({ onNewDrive }: { onNewDrive: () => void }) {
         <div className="flex flex-wrap items-center gap-x-3 gap-y-1">
           <VerdictBadge verdict={score.verdict} size="lg" />
           <span className="text-sm text-graphite-300" data-testid="score-source">
-            {serverScore ? "Scored by the server" : "Scored on this phone; the server scores it when the network returns"}
+            {serverScore
+              ? "Scored by the server"
+              : "Scored on this phone; the server scores it when the network returns"}
           </span>
         </div>
         <ul className="list-disc space-y-1 pl-5" data-testid="verdict-reasons">
-          {score.reasons.length ? score.reasons.map((r) => <li key={r}>{r}</li>) : <li>Every condition the drive was held to was met.</li>}
+          {score.reasons.length ? (
+            score.reasons.map((r) => <li key={r}>{r}</li>)
+          ) : (
+            <li>Every condition the drive was held to was met.</li>
+          )}
           {score.notes.map((n) => (
             <li key={n} className="text-graphite-300">
               {n}
@@ -45,26 +51,39 @@ export function FinishScreen({ onNewDrive }: { onNewDrive: () => void }) {
         </ul>
       </section>
       <RoadTestResult score={score} />
-      <section className="space-y-1 rounded-xl border-2 border-signal-400 p-3" aria-labelledby="final-word" data-testid="finish-caution">
+      <section
+        className="space-y-1 rounded-xl border-2 border-signal-400 p-3"
+        aria-labelledby="final-word"
+        data-testid="finish-caution"
+      >
         <h2 id="final-word" className="flex items-center gap-2 text-lg font-bold">
-          <ShieldAlert aria-hidden className="size-5 shrink-0 text-signal-300" /> Now check the vehicle: it has the final word
+          <ShieldAlert aria-hidden className="size-5 shrink-0 text-signal-300" /> Now check the vehicle: it has the
+          final word
         </h2>
         <p>
-          Its own learn status must read complete, with no driver-assist fault codes stored, and the function must work on
-          the road, as the maker&apos;s service information says. This score describes the drive; it never replaces that.
+          Its own learn status must read complete, with no driver-assist fault codes stored, and the function must work
+          on the road, as the maker&apos;s service information says. This score describes the drive; it never replaces
+          that.
         </p>
       </section>
       <SyncStatus />
       <div className="grid grid-cols-2 gap-2">
         {serverScore ? (
-          <a href={`/drives/${meta.id}`} className="col-span-2 flex min-h-14 items-center justify-center rounded-xl bg-asphalt-700 font-semibold">
+          <a
+            href={`/drives/${meta.id}`}
+            className="col-span-2 flex min-h-14 items-center justify-center rounded-xl bg-asphalt-700 font-semibold"
+          >
             Open this drive
           </a>
         ) : null}
         <a href="/drives" className="flex min-h-14 items-center justify-center rounded-xl bg-asphalt-700 font-semibold">
           All drives
         </a>
-        <button type="button" onClick={onNewDrive} className="min-h-14 rounded-xl bg-signal-400 font-bold text-graphite-950">
+        <button
+          type="button"
+          onClick={onNewDrive}
+          className="min-h-14 rounded-xl bg-signal-400 font-bold text-graphite-950"
+        >
           New drive
         </button>
       </div>

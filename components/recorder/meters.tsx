@@ -10,7 +10,16 @@ function minutes(seconds: number) {
   return (seconds / 60).toFixed(1)
 }
 
-function Meter({ label, icon, value, unit, detail, tone = "plain", testId, raw }: {
+function Meter({
+  label,
+  icon,
+  value,
+  unit,
+  detail,
+  tone = "plain",
+  testId,
+  raw,
+}: {
   label: string
   icon: ReactNode
   value: string
@@ -27,7 +36,11 @@ function Meter({ label, icon, value, unit, detail, tone = "plain", testId, raw }
     stop: "border-stop-400",
   }
   return (
-    <div className={cx("rounded-xl border-2 bg-asphalt-800 p-3", tones[tone])} data-testid={testId} data-value={raw ?? ""}>
+    <div
+      className={cx("rounded-xl border-2 bg-asphalt-800 p-3", tones[tone])}
+      data-testid={testId}
+      data-value={raw ?? ""}
+    >
       <div className="flex items-center gap-1.5 text-sm font-semibold text-graphite-300">
         {icon}
         {label}
@@ -107,7 +120,11 @@ export function Meters() {
         icon={<Hourglass aria-hidden className="size-4" />}
         value={minutes(elapsedS)}
         unit="min"
-        detail={elapsedS >= p.maxDriveMinutes * 60 ? `Past the ${p.maxDriveMinutes} min limit: the drive has timed out` : `limit ${p.maxDriveMinutes} min`}
+        detail={
+          elapsedS >= p.maxDriveMinutes * 60
+            ? `Past the ${p.maxDriveMinutes} min limit: the drive has timed out`
+            : `limit ${p.maxDriveMinutes} min`
+        }
         tone={elapsedS >= p.maxDriveMinutes * 60 ? "stop" : "plain"}
       />
       <Meter
@@ -130,18 +147,40 @@ export function Meters() {
         tone={harsh > 0 ? "signal" : "plain"}
       />
       <div
-        className={cx("col-span-2 flex items-center gap-2 rounded-xl border-2 bg-asphalt-800 px-3 py-2 text-lg font-semibold", cleared !== null ? "border-teal-400" : "border-asphalt-700")}
+        className={cx(
+          "col-span-2 flex items-center gap-2 rounded-xl border-2 bg-asphalt-800 px-3 py-2 text-lg font-semibold",
+          cleared !== null ? "border-teal-400" : "border-asphalt-700",
+        )}
         data-testid="meter-learn"
         data-cleared={cleared !== null}
       >
-        {cleared !== null ? <CircleCheck aria-hidden className="size-5 shrink-0 text-teal-300" /> : <Hourglass aria-hidden className="size-5 shrink-0" />}
+        {cleared !== null ? (
+          <CircleCheck aria-hidden className="size-5 shrink-0 text-teal-300" />
+        ) : (
+          <Hourglass aria-hidden className="size-5 shrink-0" />
+        )}
         {cleared !== null ? `Learn complete at ${minutes(cleared)} min` : "Learn not complete yet"}
-        <span className="ml-auto inline-flex items-center gap-1 text-sm font-normal text-graphite-300" data-testid="meter-live" data-state={live}>
+        <span
+          className="ml-auto inline-flex items-center gap-1 text-sm font-normal text-graphite-300"
+          data-testid="meter-live"
+          data-state={live}
+        >
           {live === "offline" ? <CloudOff aria-hidden className="size-4" /> : <Radio aria-hidden className="size-4" />}
-          {live === "offline" ? "Offline: this phone's marks" : live === "connecting" ? "Connecting…" : "Crew marks live"}
+          {live === "offline"
+            ? "Offline: this phone's marks"
+            : live === "connecting"
+              ? "Connecting…"
+              : "Crew marks live"}
         </span>
       </div>
-      <div className="col-span-2 text-xs text-graphite-400" data-testid="live-score" data-samples-used={score?.samplesUsed ?? 0} data-duration={score?.durationSeconds ?? 0} data-verdict={score?.verdict ?? ""} data-marks={markCount}>
+      <div
+        className="col-span-2 text-xs text-graphite-400"
+        data-testid="live-score"
+        data-samples-used={score?.samplesUsed ?? 0}
+        data-duration={score?.durationSeconds ?? 0}
+        data-verdict={score?.verdict ?? ""}
+        data-marks={markCount}
+      >
         {score?.samplesUsed ?? 0} samples used · {Math.round(score?.distanceMeters ?? 0)} m
       </div>
     </div>

@@ -67,7 +67,9 @@ export function RecorderApp({ coDriver = false }: { coDriver?: boolean }) {
         return
       }
       if (coDriver && id) {
-        const body = await fetch(`/api/drives/${id}`, { credentials: "same-origin" }).then((r) => (r.ok ? r.json() : null)).catch(() => null)
+        const body = await fetch(`/api/drives/${id}`, { credentials: "same-origin" })
+          .then((r) => (r.ok ? r.json() : null))
+          .catch(() => null)
         if (body?.drive) {
           await recorder.joinAsCoDriver(id, body.drive.profile, body.drive.vehicleDescription ?? "Drive")
           setPhase("drive")
@@ -137,9 +139,14 @@ export function RecorderApp({ coDriver = false }: { coDriver?: boolean }) {
   return (
     <>
       {driverFinished ? (
-        <p role="status" className="mb-3 rounded-xl border-2 border-teal-400 bg-asphalt-800 p-3 font-semibold" data-testid="driver-finished">
-          The driver finished this drive at {new Date(driverFinished).toLocaleTimeString([], { hour: "2-digit", minute: "2-digit" })}. The
-          drive takes no new marks; marks this phone logged during the drive still go to the server.
+        <p
+          role="status"
+          className="mb-3 rounded-xl border-2 border-teal-400 bg-asphalt-800 p-3 font-semibold"
+          data-testid="driver-finished"
+        >
+          The driver finished this drive at{" "}
+          {new Date(driverFinished).toLocaleTimeString([], { hour: "2-digit", minute: "2-digit" })}. The drive takes no
+          new marks; marks this phone logged during the drive still go to the server.
         </p>
       ) : null}
       <Suspense fallback={opening}>

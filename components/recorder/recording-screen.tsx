@@ -28,7 +28,8 @@ export function RecordingScreen() {
     <div className="space-y-3" data-testid="recording-screen" data-moving={moving}>
       <div className="flex items-center gap-2">
         <span className="inline-flex shrink-0 items-center gap-1.5 rounded-full bg-signal-400 px-2 py-0.5 text-sm font-bold text-graphite-950">
-          <span aria-hidden className="size-2 animate-pulse rounded-full bg-graphite-950" /> {secondPhone ? "Co-driver" : "Recording"}
+          <span aria-hidden className="size-2 animate-pulse rounded-full bg-graphite-950" />{" "}
+          {secondPhone ? "Co-driver" : "Recording"}
         </span>
         <span className="truncate text-graphite-300">{meta.label}</span>
       </div>
@@ -40,8 +41,12 @@ export function RecordingScreen() {
       {mode === "driver" ? (
         <>
           <Meters />
-          <p className="flex items-center gap-2 rounded-xl border-2 border-signal-400 p-3 text-lg font-semibold" data-testid="driver-caution">
-            <Car aria-hidden className="size-6 shrink-0" /> Eyes on the road. The co-driver logs marks; the driver does not touch the phone while moving.
+          <p
+            className="flex items-center gap-2 rounded-xl border-2 border-signal-400 p-3 text-lg font-semibold"
+            data-testid="driver-caution"
+          >
+            <Car aria-hidden className="size-6 shrink-0" /> Eyes on the road. The co-driver logs marks; the driver does
+            not touch the phone while moving.
           </p>
           <button
             type="button"
@@ -58,7 +63,11 @@ export function RecordingScreen() {
           <CrewSummary />
           <CoDriverPanel />
           {!secondPhone ? (
-            <button type="button" onClick={() => setMode("driver")} className="min-h-16 w-full rounded-xl bg-asphalt-700 text-lg font-semibold">
+            <button
+              type="button"
+              onClick={() => setMode("driver")}
+              className="min-h-16 w-full rounded-xl bg-asphalt-700 text-lg font-semibold"
+            >
               Back to the driver&apos;s meters
             </button>
           ) : null}
@@ -71,7 +80,11 @@ export function RecordingScreen() {
           {!secondPhone ? (
             confirmFinish ? (
               <div className="grid grid-cols-2 gap-2">
-                <button type="button" onClick={() => setConfirmFinish(false)} className="min-h-16 rounded-xl bg-asphalt-700 font-semibold">
+                <button
+                  type="button"
+                  onClick={() => setConfirmFinish(false)}
+                  className="min-h-16 rounded-xl bg-asphalt-700 font-semibold"
+                >
                   Keep recording
                 </button>
                 <button

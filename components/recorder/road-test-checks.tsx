@@ -25,7 +25,10 @@ function keptChecks(driveId: string): RoadTestCheck[] | null {
 
 function useRoadTestChecks(driveId: string | undefined): RoadTestCheck[] | null {
   // What the phone kept is shown at once for a new drive id (set during render); the server's answer replaces it.
-  const [shown, setShown] = useState<{ driveId: string | undefined; checks: RoadTestCheck[] | null }>({ driveId: undefined, checks: null })
+  const [shown, setShown] = useState<{ driveId: string | undefined; checks: RoadTestCheck[] | null }>({
+    driveId: undefined,
+    checks: null,
+  })
   if (shown.driveId !== driveId) setShown({ driveId, checks: driveId ? keptChecks(driveId) : null })
   useEffect(() => {
     if (!driveId) return
@@ -85,25 +88,38 @@ export function RoadTestChecks() {
     }
   }
   return (
-    <section className="space-y-3 rounded-xl border-2 border-teal-400 p-3" aria-labelledby="road-test-title" data-testid="road-test-checks">
+    <section
+      className="space-y-3 rounded-xl border-2 border-teal-400 p-3"
+      aria-labelledby="road-test-title"
+      data-testid="road-test-checks"
+    >
       <h2 id="road-test-title" className="flex items-center gap-2 text-lg font-bold">
         <ClipboardCheck aria-hidden className="size-6 shrink-0" /> Road test
       </h2>
       <p className="text-sm text-graphite-300">
-        Try each function only where it is safe and legal, as the maker&apos;s service information says. The driver drives;
-        the co-driver taps. A pass counts at the check&apos;s speed or faster; the speed is taken from the track.
+        Try each function only where it is safe and legal, as the maker&apos;s service information says. The driver
+        drives; the co-driver taps. A pass counts at the check&apos;s speed or faster; the speed is taken from the
+        track.
       </p>
       <ul className="space-y-3">
         {checks.map((c) => {
           const done = latest.get(c.key)
           const slow = c.minSpeedMph !== null && (mph === null || mph < c.minSpeedMph)
           return (
-            <li key={c.key} className="space-y-2 rounded-lg bg-asphalt-800 p-2" data-testid={`check-${c.key}`} data-result={done ?? ""}>
+            <li
+              key={c.key}
+              className="space-y-2 rounded-lg bg-asphalt-800 p-2"
+              data-testid={`check-${c.key}`}
+              data-result={done ?? ""}
+            >
               <div>
                 <p className="font-semibold">{c.label}</p>
                 <p className="text-sm text-graphite-300">
-                  {SENSOR_LABEL[c.system] ?? c.system} · {checkSpeedWords(c.minSpeedMph)} · {c.need === "required" ? "required" : "where equipped"}
-                  {done ? <span className="font-semibold text-white"> · logged: {CHECK_RESULT_LABEL[done]}</span> : null}
+                  {SENSOR_LABEL[c.system] ?? c.system} · {checkSpeedWords(c.minSpeedMph)} ·{" "}
+                  {c.need === "required" ? "required" : "where equipped"}
+                  {done ? (
+                    <span className="font-semibold text-white"> · logged: {CHECK_RESULT_LABEL[done]}</span>
+                  ) : null}
                 </p>
                 {slow ? (
                   <p className="text-sm text-signal-300">Under {c.minSpeedMph} mph now: a pass here would not count.</p>

@@ -10,7 +10,13 @@ import { GoodRoadsNow } from "@/components/roads/good-roads-now"
 type JobSummary = { id: string; roNumber: string; label: string }
 type Blocker = { key: string; message: string }
 type ChecklistSummary = { ready: boolean; blockers: Blocker[]; completedBy: string | null; completedAt: string }
-type TaskSummary = { id: string; sensor: string; method: string; profile: { name: string; settings: Profile } | null; checklist: ChecklistSummary | null }
+type TaskSummary = {
+  id: string
+  sensor: string
+  method: string
+  profile: { name: string; settings: Profile } | null
+  checklist: ChecklistSummary | null
+}
 type Person = { id: string; name: string }
 
 export interface StartChoice {
@@ -125,7 +131,12 @@ export function StartFlow({ onStart }: { onStart: (choice: StartChoice) => void 
     setChecksFrom(checklist)
     if (checklist && !checklist.blockers.some((b) => b.key === "checklist")) {
       setChecks(
-        Object.fromEntries(GATE_CHECKS.map((c) => [c.key, !checklist.blockers.some((b) => b.key === c.blocker || b.key.startsWith(`${c.blocker}.`))])),
+        Object.fromEntries(
+          GATE_CHECKS.map((c) => [
+            c.key,
+            !checklist.blockers.some((b) => b.key === c.blocker || b.key.startsWith(`${c.blocker}.`)),
+          ]),
+        ),
       )
     }
   }
@@ -141,7 +152,10 @@ export function StartFlow({ onStart }: { onStart: (choice: StartChoice) => void 
       <div className="space-y-4">
         <div className="flex items-center justify-between gap-2">
           <h1 className="text-2xl font-bold">Start a drive</h1>
-          <a href="/drives" className="flex min-h-12 items-center gap-1 rounded-lg px-3 font-semibold text-graphite-200 hover:bg-asphalt-700">
+          <a
+            href="/drives"
+            className="flex min-h-12 items-center gap-1 rounded-lg px-3 font-semibold text-graphite-200 hover:bg-asphalt-700"
+          >
             <ArrowLeft aria-hidden className="size-5" /> Drives
           </a>
         </div>
@@ -155,7 +169,12 @@ export function StartFlow({ onStart }: { onStart: (choice: StartChoice) => void 
           ) : jobs.length === 0 ? (
             <p className="text-graphite-300">No open jobs here (or no network). Start an unplanned drive below.</p>
           ) : (
-            <select aria-label="Job" className="min-h-12 w-full rounded-lg bg-asphalt-700 px-3" value={jobId} onChange={(e) => setJobId(e.target.value)}>
+            <select
+              aria-label="Job"
+              className="min-h-12 w-full rounded-lg bg-asphalt-700 px-3"
+              value={jobId}
+              onChange={(e) => setJobId(e.target.value)}
+            >
               <option value="">Choose a job…</option>
               {jobs.map((j) => (
                 <option key={j.id} value={j.id}>
@@ -165,7 +184,12 @@ export function StartFlow({ onStart }: { onStart: (choice: StartChoice) => void 
             </select>
           )}
           {tasks.length > 1 ? (
-            <select aria-label="Task" className="min-h-12 w-full rounded-lg bg-asphalt-700 px-3" value={taskId} onChange={(e) => setTaskId(e.target.value)}>
+            <select
+              aria-label="Task"
+              className="min-h-12 w-full rounded-lg bg-asphalt-700 px-3"
+              value={taskId}
+              onChange={(e) => setTaskId(e.target.value)}
+            >
               <option value="">Choose the calibration…</option>
               {tasks.map((t) => (
                 <option key={t.id} value={t.id}>
@@ -212,7 +236,9 @@ export function StartFlow({ onStart }: { onStart: (choice: StartChoice) => void 
           </section>
         ) : null}
         <section className="rounded-xl bg-asphalt-800 p-3">
-          <h2 className="font-semibold">Condition profile{task?.profile ? `: ${task.profile.name}` : ": shop default"}</h2>
+          <h2 className="font-semibold">
+            Condition profile{task?.profile ? `: ${task.profile.name}` : ": shop default"}
+          </h2>
           <ul className="mt-2 list-disc space-y-1 pl-5 text-graphite-200">
             {profileInWords(profile).map((line) => (
               <li key={line}>{line}</li>
@@ -230,7 +256,9 @@ export function StartFlow({ onStart }: { onStart: (choice: StartChoice) => void 
         </button>
         {!canGoOn ? (
           <p className="text-center text-sm text-graphite-300">
-            {jobId ? "Choose the calibration to drive for." : "Choose a job, or name the vehicle for an unplanned drive."}
+            {jobId
+              ? "Choose the calibration to drive for."
+              : "Choose a job, or name the vehicle for an unplanned drive."}
           </p>
         ) : null}
       </div>
@@ -246,7 +274,11 @@ export function StartFlow({ onStart }: { onStart: (choice: StartChoice) => void 
           data-testid="checklist-status"
         >
           <h2 className="flex items-center gap-2 font-semibold">
-            {checklist.ready ? <ClipboardCheck aria-hidden className="size-5 text-teal-300" /> : <ClipboardX aria-hidden className="size-5 text-stop-400" />}
+            {checklist.ready ? (
+              <ClipboardCheck aria-hidden className="size-5 text-teal-300" />
+            ) : (
+              <ClipboardX aria-hidden className="size-5 text-stop-400" />
+            )}
             {checklist.ready ? "Job checklist: ready" : "Job checklist: not ready"}
           </h2>
           <p className="text-sm text-graphite-300">
@@ -269,7 +301,13 @@ export function StartFlow({ onStart }: { onStart: (choice: StartChoice) => void 
       <section className="space-y-1 rounded-xl bg-asphalt-800 p-3">
         {GATE_CHECKS.map((c) => (
           <label key={c.key} className="flex min-h-12 items-center gap-3">
-            <input type="checkbox" className="size-6 shrink-0 accent-signal-400" checked={Boolean(checks[c.key])} onChange={(e) => setChecks({ ...checks, [c.key]: e.target.checked })} data-testid={`gate-${c.key}`} />
+            <input
+              type="checkbox"
+              className="size-6 shrink-0 accent-signal-400"
+              checked={Boolean(checks[c.key])}
+              onChange={(e) => setChecks({ ...checks, [c.key]: e.target.checked })}
+              data-testid={`gate-${c.key}`}
+            />
             <span>{c.text}</span>
           </label>
         ))}
@@ -285,11 +323,21 @@ export function StartFlow({ onStart }: { onStart: (choice: StartChoice) => void 
         </ul>
       </section>
       <label className="flex min-h-12 items-center gap-3 rounded-xl bg-asphalt-800 p-3 font-semibold">
-        <input type="checkbox" className="size-6 shrink-0 accent-signal-400" checked={ready} onChange={(e) => setReady(e.target.checked)} data-testid="gate-ready" />
+        <input
+          type="checkbox"
+          className="size-6 shrink-0 accent-signal-400"
+          checked={ready}
+          onChange={(e) => setReady(e.target.checked)}
+          data-testid="gate-ready"
+        />
         The vehicle is out of the bay, running and ready to drive.
       </label>
       <div className="grid grid-cols-3 gap-2">
-        <button type="button" onClick={() => setStep("pick")} className="min-h-16 rounded-xl bg-asphalt-700 font-semibold">
+        <button
+          type="button"
+          onClick={() => setStep("pick")}
+          className="min-h-16 rounded-xl bg-asphalt-700 font-semibold"
+        >
           Back
         </button>
         <button

@@ -12,7 +12,13 @@ export function SyncStatus() {
   // a co-driver's own phone sends marks only
   const marksOnly = useRecorder((s) => s.meta?.role === "co-driver")
   const waiting = sync.waitingSamples + sync.waitingOther
-  const Icon = sync.failed.length ? TriangleAlert : sync.state === "waiting" ? CloudOff : waiting ? CloudUpload : CircleCheck
+  const Icon = sync.failed.length
+    ? TriangleAlert
+    : sync.state === "waiting"
+      ? CloudOff
+      : waiting
+        ? CloudUpload
+        : CircleCheck
   const word =
     sync.state === "signed-out"
       ? "Signed out: sign in again to send"
@@ -22,21 +28,32 @@ export function SyncStatus() {
           ? "Sending"
           : "All sent"
   return (
-    <div className="rounded-lg bg-asphalt-800 px-3 py-2 text-sm text-graphite-200" data-testid="sync-status" data-waiting={sync.waitingSamples} data-state={sync.state}>
+    <div
+      className="rounded-lg bg-asphalt-800 px-3 py-2 text-sm text-graphite-200"
+      data-testid="sync-status"
+      data-waiting={sync.waitingSamples}
+      data-state={sync.state}
+    >
       <div className="flex flex-wrap items-center gap-x-2 gap-y-0.5">
         <Icon aria-hidden className="size-5 shrink-0" />
         <span className="font-semibold whitespace-nowrap">{word}</span>
         <span className="ml-auto tabular">
-          {marksOnly ? `${sync.waitingOther} marks waiting` : `${sync.waitingSamples} samples waiting`} · last synced {clock(sync.lastSyncedAt)}
+          {marksOnly ? `${sync.waitingOther} marks waiting` : `${sync.waitingSamples} samples waiting`} · last synced{" "}
+          {clock(sync.lastSyncedAt)}
         </span>
       </div>
       {sync.failed.map((f) => (
         <div key={f.key} className="mt-2 flex items-center gap-2 rounded bg-stop-700/40 p-2 text-stop-400" role="alert">
           <TriangleAlert aria-hidden className="size-4 shrink-0" />
           <span className="flex-1">
-            The server refused {f.type === "samples" ? `${f.samples.length} samples` : f.type.replace("-", " ")}: {f.failed?.message}
+            The server refused {f.type === "samples" ? `${f.samples.length} samples` : f.type.replace("-", " ")}:{" "}
+            {f.failed?.message}
           </span>
-          <button type="button" className="min-h-16 rounded-lg border-2 border-stop-400 px-3 font-semibold" onClick={() => void getRecorder().retryFailed(f.key)}>
+          <button
+            type="button"
+            className="min-h-16 rounded-lg border-2 border-stop-400 px-3 font-semibold"
+            onClick={() => void getRecorder().retryFailed(f.key)}
+          >
             Try again
           </button>
         </div>

@@ -1,7 +1,6 @@
 import { MARK_ICON } from "@/components/drives/mark-icon"
 import { formatDuration, MARK_LABEL, type RecordMark } from "@/lib/record"
 
-
 /** Every mark in time order, with when, what and who logged it. */
 export function MarkTimeline({ marks, startMs }: { marks: RecordMark[]; startMs: number }) {
   if (marks.length === 0) return <p className="text-graphite-600 dark:text-graphite-300">No marks were logged.</p>
@@ -11,13 +10,17 @@ export function MarkTimeline({ marks, startMs }: { marks: RecordMark[]; startMs:
         const Icon = MARK_ICON[m.kind] ?? MARK_ICON.note!
         return (
           <li key={i} className="flex items-start gap-3">
-            <span className="tabular w-24 shrink-0 text-sm text-graphite-600 dark:text-graphite-300">{formatDuration(Math.max(0, (m.t - startMs) / 1000))}</span>
+            <span className="w-24 shrink-0 tabular text-sm text-graphite-600 dark:text-graphite-300">
+              {formatDuration(Math.max(0, (m.t - startMs) / 1000))}
+            </span>
             <Icon aria-hidden className="mt-0.5 size-4 shrink-0" />
             <span className="min-w-0">
               <span className="font-medium">{MARK_LABEL[m.kind] ?? m.kind}</span>
               {m.gapFt != null ? <span> · {Math.round(m.gapFt)} ft</span> : null}
               {m.text ? <span> · {m.text}</span> : null}
-              {m.byName ? <span className="text-sm text-graphite-600 dark:text-graphite-300"> · {m.byName}</span> : null}
+              {m.byName ? (
+                <span className="text-sm text-graphite-600 dark:text-graphite-300"> · {m.byName}</span>
+              ) : null}
             </span>
           </li>
         )

@@ -8,7 +8,15 @@ import { Field, Input } from "@/components/ui/field"
 import { FormDone, FormProblem } from "@/components/ui/form"
 
 /** Open the record PDF; for leads, e-mail it and make a share link for the customer. */
-export function RecordActions({ driveId, canShare, customerEmail }: { driveId: string; canShare: boolean; customerEmail: string | null }) {
+export function RecordActions({
+  driveId,
+  canShare,
+  customerEmail,
+}: {
+  driveId: string
+  canShare: boolean
+  customerEmail: string | null
+}) {
   const [to, setTo] = useState(customerEmail ?? "")
   const [mailState, setMailState] = useState<{ ok: boolean; text: string } | null>(null)
   const [share, setShare] = useState<{ url: string; expiresAt: string } | null>(null)
@@ -25,7 +33,12 @@ export function RecordActions({ driveId, canShare, customerEmail }: { driveId: s
       await apiFetch(`/api/drives/${driveId}/record/email`, { method: "POST", body: { to } })
       setMailState({ ok: true, text: `Sent to ${to}.` })
     } catch (error) {
-      const text = error instanceof ApiError && error.fields?.to ? `Address ${error.fields.to}.` : error instanceof Error ? error.message : "Not sent."
+      const text =
+        error instanceof ApiError && error.fields?.to
+          ? `Address ${error.fields.to}.`
+          : error instanceof Error
+            ? error.message
+            : "Not sent."
       setMailState({ ok: false, text })
     } finally {
       setBusy(null)
@@ -37,7 +50,12 @@ export function RecordActions({ driveId, canShare, customerEmail }: { driveId: s
     setCopied(false)
     setBusy("link")
     try {
-      setShare(await apiFetch<{ url: string; expiresAt: string }>(`/api/drives/${driveId}/share`, { method: "POST", body: {} }))
+      setShare(
+        await apiFetch<{ url: string; expiresAt: string }>(`/api/drives/${driveId}/share`, {
+          method: "POST",
+          body: {},
+        }),
+      )
     } catch (error) {
       setShareProblem(error instanceof Error ? error.message : "No link made.")
     } finally {
@@ -46,7 +64,12 @@ export function RecordActions({ driveId, canShare, customerEmail }: { driveId: s
   }
 
   async function withdrawLinks() {
-    if (!window.confirm("Withdraw every share link made for this drive so far? Anyone who has one will no longer see the record.")) return
+    if (
+      !window.confirm(
+        "Withdraw every share link made for this drive so far? Anyone who has one will no longer see the record.",
+      )
+    )
+      return
     setShareProblem(null)
     setBusy("withdraw")
     try {
@@ -62,19 +85,35 @@ export function RecordActions({ driveId, canShare, customerEmail }: { driveId: s
   }
 
   async function copy(url: string) {
-    await navigator.clipboard?.writeText(url).then(() => setCopied(true)).catch(() => setCopied(false))
+    await navigator.clipboard
+      ?.writeText(url)
+      .then(() => setCopied(true))
+      .catch(() => setCopied(false))
   }
 
   return (
     <div className="space-y-4">
-      <a className={buttonVariants({ variant: "primary" })} href={`/api/drives/${driveId}/record`} target="_blank" rel="noopener" data-testid="open-record">
+      <a
+        className={buttonVariants({ variant: "primary" })}
+        href={`/api/drives/${driveId}/record`}
+        target="_blank"
+        rel="noopener"
+        data-testid="open-record"
+      >
         <FileText aria-hidden className="size-5" /> Open the drive record (PDF)
       </a>
       {canShare ? (
         <>
           <form onSubmit={email} className="space-y-2">
             <Field label="E-mail the record to" htmlFor="record-to">
-              <Input id="record-to" type="email" required value={to} onChange={(e) => setTo(e.target.value)} autoComplete="email" />
+              <Input
+                id="record-to"
+                type="email"
+                required
+                value={to}
+                onChange={(e) => setTo(e.target.value)}
+                autoComplete="email"
+              />
             </Field>
             <Button type="submit" variant="outline" disabled={busy !== null || !to}>
               <Mail aria-hidden className="size-5" /> {busy === "mail" ? "Sending…" : "E-mail the record"}
@@ -83,13 +122,25 @@ export function RecordActions({ driveId, canShare, customerEmail }: { driveId: s
           </form>
           <div className="space-y-2">
             <Button variant="outline" onClick={makeLink} disabled={busy !== null}>
-              <Link2 aria-hidden className="size-5" /> {busy === "link" ? "Making the link…" : share ? "Make a new share link" : "Make a share link"}
+              <Link2 aria-hidden className="size-5" />{" "}
+              {busy === "link" ? "Making the link…" : share ? "Make a new share link" : "Make a share link"}
             </Button>
             {share ? (
               <div className="space-y-1">
                 <div className="flex gap-2">
-                  <Input readOnly value={share.url} aria-label="Share link" onFocus={(e) => e.currentTarget.select()} data-testid="share-url" />
-                  <Button variant="outline" aria-label="Copy the link" className="min-w-12 shrink-0 px-3" onClick={() => void copy(share.url)}>
+                  <Input
+                    readOnly
+                    value={share.url}
+                    aria-label="Share link"
+                    onFocus={(e) => e.currentTarget.select()}
+                    data-testid="share-url"
+                  />
+                  <Button
+                    variant="outline"
+                    aria-label="Copy the link"
+                    className="min-w-12 shrink-0 px-3"
+                    onClick={() => void copy(share.url)}
+                  >
                     <Copy aria-hidden className="size-5" />
                   </Button>
                 </div>
@@ -100,9 +151,12 @@ export function RecordActions({ driveId, canShare, customerEmail }: { driveId: s
               </div>
             ) : null}
             <Button variant="ghost" onClick={withdrawLinks} disabled={busy !== null} data-testid="withdraw-links">
-              <Link2Off aria-hidden className="size-5" /> {busy === "withdraw" ? "Withdrawing…" : "Withdraw all share links"}
+              <Link2Off aria-hidden className="size-5" />{" "}
+              {busy === "withdraw" ? "Withdrawing…" : "Withdraw all share links"}
             </Button>
-            <FormDone className="text-sm">{withdrawn && !share ? "Every earlier link is withdrawn. A new link works again." : null}</FormDone>
+            <FormDone className="text-sm">
+              {withdrawn && !share ? "Every earlier link is withdrawn. A new link works again." : null}
+            </FormDone>
             <FormProblem>{shareProblem}</FormProblem>
           </div>
         </>

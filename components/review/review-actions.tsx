@@ -38,8 +38,19 @@ export function ReviewActions({ driveId }: { driveId: string }) {
 
   return (
     <div className="space-y-3" data-testid="review-actions">
-      <Field label="Note for the technician" htmlFor="review-note" error={noteError ?? undefined} hint="Needed to send the drive back; optional to approve.">
-        <Textarea id="review-note" value={note} maxLength={2000} onChange={(e) => setNote(e.target.value)} placeholder="e.g. Too little time behind a lead vehicle; follow at 120-150 ft on the highway loop." />
+      <Field
+        label="Note for the technician"
+        htmlFor="review-note"
+        error={noteError ?? undefined}
+        hint="Needed to send the drive back; optional to approve."
+      >
+        <Textarea
+          id="review-note"
+          value={note}
+          maxLength={2000}
+          onChange={(e) => setNote(e.target.value)}
+          placeholder="e.g. Too little time behind a lead vehicle; follow at 120-150 ft on the highway loop."
+        />
       </Field>
       <FormProblem>{problem}</FormProblem>
       <div className="flex flex-wrap gap-2">

@@ -3,7 +3,14 @@ import { MapPinned } from "lucide-react"
 import { useEffect, useState } from "react"
 import { formatDuration } from "@/lib/format"
 
-type Line = { name: string; direction: string; medianClearSeconds: number; drives: number; trusted: boolean; days: string | null }
+type Line = {
+  name: string
+  direction: string
+  medianClearSeconds: number
+  drives: number
+  trusted: boolean
+  days: string | null
+}
 type State = { status: "loading" } | { status: "off" } | { status: "none" } | { status: "line"; line: Line }
 
 /** The recorder's "good roads now" line, fetched from /api/roads/now (the road model stays on the server). */
@@ -32,8 +39,10 @@ export function GoodRoadsNow() {
       ) : (
         <span>
           <strong>Good roads now:</strong> {state.line.name}
-          {state.line.direction ? ` (${state.line.direction})` : ""}, learn complete in a median {formatDuration(state.line.medianClearSeconds)}, from {state.line.drives}{" "}
-          {state.line.drives === 1 ? "drive" : "drives"} at this hour{state.line.days ? ` on ${state.line.days}` : " (any day)"}
+          {state.line.direction ? ` (${state.line.direction})` : ""}, learn complete in a median{" "}
+          {formatDuration(state.line.medianClearSeconds)}, from {state.line.drives}{" "}
+          {state.line.drives === 1 ? "drive" : "drives"} at this hour
+          {state.line.days ? ` on ${state.line.days}` : " (any day)"}
           {state.line.trusted ? "." : ": too few to trust."}
         </span>
       )}

@@ -10,7 +10,11 @@ export function RoadKnowledgeSwitch({ enabled }: { enabled: boolean }) {
   const [busy, setBusy] = useState(false)
   const [error, setError] = useState<string | null>(null)
   async function set(next: boolean) {
-    if (!next && !window.confirm("Turn road knowledge off? The shop's road model is removed now; drives and scores stay.")) return
+    if (
+      !next &&
+      !window.confirm("Turn road knowledge off? The shop's road model is removed now; drives and scores stay.")
+    )
+      return
     setBusy(true)
     setError(null)
     try {
@@ -24,7 +28,13 @@ export function RoadKnowledgeSwitch({ enabled }: { enabled: boolean }) {
   }
   return (
     <div className="space-y-2">
-      <Button variant={enabled ? "outline" : "primary"} size="sm" disabled={busy} onClick={() => set(!enabled)} data-testid="road-knowledge-switch">
+      <Button
+        variant={enabled ? "outline" : "primary"}
+        size="sm"
+        disabled={busy}
+        onClick={() => set(!enabled)}
+        data-testid="road-knowledge-switch"
+      >
         {enabled ? "Turn road knowledge off and remove the model" : "Turn road knowledge on"}
       </Button>
       {error ? (

@@ -60,7 +60,15 @@ export function RoadMap({ view }: { view: RoadsView }) {
         </g>
         <g fill="none" strokeLinejoin="round" strokeLinecap="round" data-testid="road-loop-tracks">
           {tracks.map((t, i) =>
-            t.length > 1 ? <polyline key={i} points={t.map(px).join(" ")} stroke={LOOP_STROKE[i]} strokeWidth={5} strokeDasharray={LOOP_DASH[i]} /> : null,
+            t.length > 1 ? (
+              <polyline
+                key={i}
+                points={t.map(px).join(" ")}
+                stroke={LOOP_STROKE[i]}
+                strokeWidth={5}
+                strokeDasharray={LOOP_DASH[i]}
+              />
+            ) : null,
           )}
           {tracks.map((t, i) => {
             const far = t.reduce((f, p) => (p[0] ** 2 + p[1] ** 2 > f[0] ** 2 + f[1] ** 2 ? p : f), t[0] ?? [0, 0])
@@ -76,8 +84,27 @@ export function RoadMap({ view }: { view: RoadsView }) {
           })}
         </g>
         <g data-testid="road-shop">
-          <rect x={SIZE / 2 - 16} y={SIZE / 2 - 16} width={32} height={32} rx={4} fill="#17181a" stroke="#ffffff" strokeWidth={3} />
-          <text x={SIZE / 2} y={SIZE / 2 + 48} textAnchor="middle" fontSize={28} fontWeight={700} fill="#17181a" stroke="#ffffff" strokeWidth={6} paintOrder="stroke">
+          <rect
+            x={SIZE / 2 - 16}
+            y={SIZE / 2 - 16}
+            width={32}
+            height={32}
+            rx={4}
+            fill="#17181a"
+            stroke="#ffffff"
+            strokeWidth={3}
+          />
+          <text
+            x={SIZE / 2}
+            y={SIZE / 2 + 48}
+            textAnchor="middle"
+            fontSize={28}
+            fontWeight={700}
+            fill="#17181a"
+            stroke="#ffffff"
+            strokeWidth={6}
+            paintOrder="stroke"
+          >
             Shop
           </text>
         </g>
@@ -98,13 +125,19 @@ export function RoadMap({ view }: { view: RoadsView }) {
         </g>
       </svg>
       <figcaption className="text-sm text-graphite-600 dark:text-graphite-300">
-        About {(((2 * extent) / unitM).toFixed(1))} {unitWord} across. Hover or long-press a cell for its figures.
+        About {((2 * extent) / unitM).toFixed(1)} {unitWord} across. Hover or long-press a cell for its figures.
       </figcaption>
       <ul className="grid gap-1 text-sm sm:grid-cols-2" data-testid="road-legend" aria-label="Legend">
         {SHARE_CLASSES.map((c) => (
           <li key={c.key} className="flex items-center gap-2">
             <svg viewBox="0 0 20 20" className="size-5 shrink-0" aria-hidden>
-              <polygon points="10,1 18,5.5 18,14.5 10,19 2,14.5 2,5.5" fill={SHARE_FILL[c.key]} fillOpacity={SHARE_OPACITY[c.key]} stroke="#17181a" strokeWidth={0.8} />
+              <polygon
+                points="10,1 18,5.5 18,14.5 10,19 2,14.5 2,5.5"
+                fill={SHARE_FILL[c.key]}
+                fillOpacity={SHARE_OPACITY[c.key]}
+                stroke="#17181a"
+                strokeWidth={0.8}
+              />
             </svg>
             {c.words}
           </li>
@@ -112,7 +145,15 @@ export function RoadMap({ view }: { view: RoadsView }) {
         {view.loops.map((l, i) => (
           <li key={l.loopId} className="flex items-center gap-2">
             <svg viewBox="0 0 28 10" className="h-3 w-7 shrink-0" aria-hidden>
-              <line x1={1} x2={27} y1={5} y2={5} stroke={LOOP_STROKE[i]} strokeWidth={3} strokeDasharray={LOOP_DASH[i]} />
+              <line
+                x1={1}
+                x2={27}
+                y1={5}
+                y2={5}
+                stroke={LOOP_STROKE[i]}
+                strokeWidth={3}
+                strokeDasharray={LOOP_DASH[i]}
+              />
             </svg>
             Track {i + 1}: fastest drive on {l.name}
           </li>

@@ -34,7 +34,13 @@ export function ReviewMailForm({ initial }: { initial: boolean }) {
   return (
     <div className="space-y-1">
       <label className="flex min-h-12 items-center gap-3 font-medium">
-        <input type="checkbox" className="size-6" checked={on} onChange={(e) => void change(e.target.checked)} data-testid="review-mail" />
+        <input
+          type="checkbox"
+          className="size-6"
+          checked={on}
+          onChange={(e) => void change(e.target.checked)}
+          data-testid="review-mail"
+        />
         E-mail me when a drive waits for my review
       </label>
       <Saved message={message} />
@@ -103,13 +109,26 @@ export function ShopFormatForm({
           ] as const
         ).map(([value, label]) => (
           <label key={value} className="flex min-h-12 items-center gap-3">
-            <input type="radio" name="units" value={value} className="size-5" checked={units === value} onChange={() => setUnits(value)} />
+            <input
+              type="radio"
+              name="units"
+              value={value}
+              className="size-5"
+              checked={units === value}
+              onChange={() => setUnits(value)}
+            />
             {label}
           </label>
         ))}
-        <p className="text-sm text-graphite-600 dark:text-graphite-300">Accelerations read in g, with m/s² beside them, either way.</p>
+        <p className="text-sm text-graphite-600 dark:text-graphite-300">
+          Accelerations read in g, with m/s² beside them, either way.
+        </p>
       </fieldset>
-      <Field label="Time zone" htmlFor="time-zone" hint={`Now: ${now == null ? serverNow : formatDateTime(now, timeZone, { zoneName: true })}`}>
+      <Field
+        label="Time zone"
+        htmlFor="time-zone"
+        hint={`Now: ${now == null ? serverNow : formatDateTime(now, timeZone, { zoneName: true })}`}
+      >
         <Select id="time-zone" value={timeZone} onChange={(e) => setTimeZone(e.target.value)} disabled={!canEdit}>
           {zones.map((z) => (
             <option key={z} value={z}>
@@ -131,7 +150,13 @@ export function ShopFormatForm({
 }
 
 /** Where the shop is (admin): the Roads page draws its map around it and takes its loops from drives starting near it. */
-export function ShopLocationForm({ initial, canEdit }: { initial: { lat: number; lon: number } | null; canEdit: boolean }) {
+export function ShopLocationForm({
+  initial,
+  canEdit,
+}: {
+  initial: { lat: number; lon: number } | null
+  canEdit: boolean
+}) {
   const router = useRouter()
   const [lat, setLat] = useState(initial ? String(initial.lat) : "")
   const [lon, setLon] = useState(initial ? String(initial.lon) : "")
@@ -150,7 +175,11 @@ export function ShopLocationForm({ initial, canEdit }: { initial: { lat: number;
     setBusy(true)
     try {
       await apiFetch("/api/shop/settings", { method: "PATCH", body: { location: parsed.location } })
-      setMessage(parsed.location ? "Saved. The Roads page draws its map around this place." : "Saved: no location. The Roads page takes the middle of where drives start.")
+      setMessage(
+        parsed.location
+          ? "Saved. The Roads page draws its map around this place."
+          : "Saved: no location. The Roads page takes the middle of where drives start.",
+      )
       router.refresh()
     } catch (err) {
       setMessage((err as Error).message)
@@ -161,11 +190,37 @@ export function ShopLocationForm({ initial, canEdit }: { initial: { lat: number;
   return (
     <form onSubmit={save} className="space-y-4" data-testid="shop-location-form" noValidate>
       <div className="grid gap-3 sm:grid-cols-2">
-        <Field label="Latitude" htmlFor="shop-lat" hint="Decimal degrees, north positive" error={error?.field === "lat" ? error.message : undefined}>
-          <Input id="shop-lat" inputMode="decimal" autoComplete="off" placeholder="43.8731" value={lat} onChange={(e) => setLat(e.target.value)} disabled={!canEdit} />
+        <Field
+          label="Latitude"
+          htmlFor="shop-lat"
+          hint="Decimal degrees, north positive"
+          error={error?.field === "lat" ? error.message : undefined}
+        >
+          <Input
+            id="shop-lat"
+            inputMode="decimal"
+            autoComplete="off"
+            placeholder="43.8731"
+            value={lat}
+            onChange={(e) => setLat(e.target.value)}
+            disabled={!canEdit}
+          />
         </Field>
-        <Field label="Longitude" htmlFor="shop-lon" hint="Decimal degrees, east positive (west is minus)" error={error?.field === "lon" ? error.message : undefined}>
-          <Input id="shop-lon" inputMode="decimal" autoComplete="off" placeholder="-91.9187" value={lon} onChange={(e) => setLon(e.target.value)} disabled={!canEdit} />
+        <Field
+          label="Longitude"
+          htmlFor="shop-lon"
+          hint="Decimal degrees, east positive (west is minus)"
+          error={error?.field === "lon" ? error.message : undefined}
+        >
+          <Input
+            id="shop-lon"
+            inputMode="decimal"
+            autoComplete="off"
+            placeholder="-91.9187"
+            value={lon}
+            onChange={(e) => setLon(e.target.value)}
+            disabled={!canEdit}
+          />
         </Field>
       </div>
       {canEdit ? (

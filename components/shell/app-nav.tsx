@@ -53,7 +53,8 @@ export function SideNav({ items }: { items: NavItem[] }) {
             aria-current={active ? "page" : undefined}
             className={cn(
               "flex min-h-12 items-center gap-3 rounded-lg px-3 font-medium text-graphite-700 hover:bg-graphite-100 dark:text-graphite-200 dark:hover:bg-asphalt-700",
-              active && "bg-graphite-900 text-white hover:bg-graphite-800 dark:bg-signal-400 dark:text-graphite-950 dark:hover:bg-signal-300",
+              active &&
+                "bg-graphite-900 text-white hover:bg-graphite-800 dark:bg-signal-400 dark:text-graphite-950 dark:hover:bg-signal-300",
             )}
           >
             <Icon aria-hidden className="size-5" />
@@ -107,7 +108,15 @@ export function BottomNav({ items }: { items: NavItem[] }) {
   )
 }
 
-function MoreSheet({ items, active, isActive }: { items: NavItem[]; active: boolean; isActive: (href: string) => boolean }) {
+function MoreSheet({
+  items,
+  active,
+  isActive,
+}: {
+  items: NavItem[]
+  active: boolean
+  isActive: (href: string) => boolean
+}) {
   const [open, setOpen] = useState(false)
   const sheet = useRef<HTMLDivElement>(null)
   const button = useRef<HTMLButtonElement>(null)
@@ -120,7 +129,8 @@ function MoreSheet({ items, active, isActive }: { items: NavItem[]; active: bool
           setOpen(false)
           button.current?.focus()
         }
-      } else if (!sheet.current?.contains(e.target as Node) && !button.current?.contains(e.target as Node)) setOpen(false)
+      } else if (!sheet.current?.contains(e.target as Node) && !button.current?.contains(e.target as Node))
+        setOpen(false)
     }
     document.addEventListener("mousedown", close)
     document.addEventListener("keydown", close)

@@ -5,7 +5,8 @@ import { useState, type ReactNode } from "react"
 
 export function QueryProvider({ children }: { children: ReactNode }) {
   const [client] = useState(
-    () => new QueryClient({ defaultOptions: { queries: { staleTime: 30_000, retry: 1, refetchOnWindowFocus: false } } }),
+    () =>
+      new QueryClient({ defaultOptions: { queries: { staleTime: 30_000, retry: 1, refetchOnWindowFocus: false } } }),
   )
   return <QueryClientProvider client={client}>{children}</QueryClientProvider>
 }

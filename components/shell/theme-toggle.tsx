@@ -20,7 +20,13 @@ export function ThemeToggle() {
     localStorage.setItem("straightaway-theme", next ? "dark" : "light")
   }
   return (
-    <Button variant="ghost" size="sm" onClick={toggle} aria-label={dark ? "Use the light theme" : "Use the dark theme"} className="min-h-12 min-w-12">
+    <Button
+      variant="ghost"
+      size="sm"
+      onClick={toggle}
+      aria-label={dark ? "Use the light theme" : "Use the dark theme"}
+      className="min-h-12 min-w-12"
+    >
       {dark ? <Sun aria-hidden className="size-5" /> : <Moon aria-hidden className="size-5" />}
     </Button>
   )

@@ -22,6 +22,7 @@ export async function apiFetch<T>(url: string, init: { method?: string; body?: u
     throw new ApiError("No connection. Check the network and try again.", 0)
   }
   const json = await res.json().catch(() => null)
-  if (!res.ok) throw new ApiError(json?.error?.message ?? `That did not work (${res.status}).`, res.status, json?.error?.fields)
+  if (!res.ok)
+    throw new ApiError(json?.error?.message ?? `That did not work (${res.status}).`, res.status, json?.error?.fields)
   return json as T
 }

@@ -7,7 +7,8 @@ export const buttonVariants = cva(
   {
     variants: {
       variant: {
-        primary: "bg-graphite-900 text-white hover:bg-graphite-700 dark:bg-signal-400 dark:text-graphite-950 dark:hover:bg-signal-300",
+        primary:
+          "bg-graphite-900 text-white hover:bg-graphite-700 dark:bg-signal-400 dark:text-graphite-950 dark:hover:bg-signal-300",
         signal: "bg-signal-400 text-graphite-950 hover:bg-signal-300",
         follow: "bg-teal-400 text-graphite-950 hover:bg-teal-300",
         outline:

@@ -4,7 +4,19 @@ import { cn } from "./cn"
 const control =
   "block w-full min-h-12 rounded-lg border-2 border-graphite-300 bg-white px-3 text-base text-graphite-900 placeholder:text-graphite-400 focus:border-graphite-700 dark:border-graphite-600 dark:bg-asphalt-800 dark:text-graphite-50"
 
-export function Field({ label, error, hint, children, htmlFor }: { label: string; error?: string; hint?: string; children: ReactNode; htmlFor: string }) {
+export function Field({
+  label,
+  error,
+  hint,
+  children,
+  htmlFor,
+}: {
+  label: string
+  error?: string
+  hint?: string
+  children: ReactNode
+  htmlFor: string
+}) {
   return (
     <div className="space-y-1">
       <label htmlFor={htmlFor} className="block text-sm font-semibold text-graphite-700 dark:text-graphite-200">

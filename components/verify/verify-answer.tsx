@@ -1,19 +1,39 @@
 import { CircleCheck, CircleX, History } from "lucide-react"
 
 export type VerifyAnswerView =
-  | { result: "matches" | "newer_revision"; message: string; revision: number; latestRevision: number; record: { shopName: string; vehicle: string; verdict: string; sealedAt: string } }
+  | {
+      result: "matches" | "newer_revision"
+      message: string
+      revision: number
+      latestRevision: number
+      record: { shopName: string; vehicle: string; verdict: string; sealedAt: string }
+    }
   | { result: "no_match"; message: string }
 
 /** The answer of a check, in words and an icon; only what the PDF itself prints. */
 export function VerifyAnswer({ answer }: { answer: VerifyAnswerView }) {
   const look =
     answer.result === "matches"
-      ? { Icon: CircleCheck, title: `Matches revision ${answer.revision}`, className: "border-teal-600 dark:border-teal-400" }
+      ? {
+          Icon: CircleCheck,
+          title: `Matches revision ${answer.revision}`,
+          className: "border-teal-600 dark:border-teal-400",
+        }
       : answer.result === "newer_revision"
-        ? { Icon: History, title: `Revision ${answer.revision}: a newer revision exists`, className: "border-signal-600 dark:border-signal-400" }
+        ? {
+            Icon: History,
+            title: `Revision ${answer.revision}: a newer revision exists`,
+            className: "border-signal-600 dark:border-signal-400",
+          }
         : { Icon: CircleX, title: "Matches nothing", className: "border-stop-600 dark:border-stop-400" }
   return (
-    <section role="status" aria-live="polite" className={`space-y-2 rounded-xl border-2 p-4 ${look.className}`} data-testid="verify-answer" data-result={answer.result}>
+    <section
+      role="status"
+      aria-live="polite"
+      className={`space-y-2 rounded-xl border-2 p-4 ${look.className}`}
+      data-testid="verify-answer"
+      data-result={answer.result}
+    >
       <h2 className="flex items-center gap-2 text-xl font-bold">
         <look.Icon aria-hidden className="size-6 shrink-0" /> {look.title}
       </h2>

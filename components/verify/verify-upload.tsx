@@ -16,7 +16,11 @@ export function VerifyUpload() {
     if (!file) return
     setBusy(true)
     try {
-      const res = await fetch("/api/verify", { method: "POST", headers: { "content-type": "application/pdf" }, body: file })
+      const res = await fetch("/api/verify", {
+        method: "POST",
+        headers: { "content-type": "application/pdf" },
+        body: file,
+      })
       const body = await res.json().catch(() => null)
       if (res.ok) setAnswer(body as VerifyAnswerView)
       else setProblem(body?.error?.message ?? `The check failed (${res.status}). Try again.`)
@@ -32,7 +36,13 @@ export function VerifyUpload() {
       <label className="flex min-h-12 cursor-pointer items-center justify-center gap-2 rounded-lg border-2 border-dashed border-graphite-300 px-4 py-3 font-semibold dark:border-graphite-600">
         <FileUp aria-hidden className="size-5" />
         {busy ? "Checking the PDF…" : "Choose the record's PDF"}
-        <input type="file" accept="application/pdf,.pdf" className="sr-only" data-testid="verify-file" onChange={(e) => check(e.target.files?.[0])} />
+        <input
+          type="file"
+          accept="application/pdf,.pdf"
+          className="sr-only"
+          data-testid="verify-file"
+          onChange={(e) => check(e.target.files?.[0])}
+        />
       </label>
       {problem ? (
         <p role="alert" className="font-semibold text-stop-600 dark:text-stop-400">

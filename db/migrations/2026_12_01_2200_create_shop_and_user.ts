@@ -37,7 +37,11 @@ export async function up(db: Kysely<any>): Promise<void> {
     .addColumn("client_address", "text", (c) => c.notNull())
     .addColumn("created_at", "timestamptz", (c) => c.notNull().defaultTo(sql`now()`))
     .execute()
-  await db.schema.createIndex("sign_in_failure_email_idx").on("sign_in_failure").columns(["email", "created_at"]).execute()
+  await db.schema
+    .createIndex("sign_in_failure_email_idx")
+    .on("sign_in_failure")
+    .columns(["email", "created_at"])
+    .execute()
   await db.schema
     .createIndex("sign_in_failure_address_idx")
     .on("sign_in_failure")

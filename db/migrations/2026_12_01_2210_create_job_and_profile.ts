@@ -49,7 +49,10 @@ export async function up(db: Kysely<any>): Promise<void> {
     .addColumn("customer_phone", "text")
     .addColumn("vehicle_id", "uuid", (c) => c.notNull().references("vehicle.id"))
     .addColumn("status", "text", (c) =>
-      c.notNull().defaultTo("open").check(sql`status in ('open','drive','review','complete','redo')`),
+      c
+        .notNull()
+        .defaultTo("open")
+        .check(sql`status in ('open','drive','review','complete','redo')`),
     )
     .addColumn("created_by", "text", (c) => c.references("app_user.id").onDelete("set null"))
     .addColumn("created_at", "timestamptz", (c) => c.notNull().defaultTo(sql`now()`))
@@ -91,7 +94,12 @@ export async function up(db: Kysely<any>): Promise<void> {
     .addColumn("size", "integer", (c) => c.notNull())
     .addColumn("object_key", "text", (c) => c.notNull().unique())
     .addColumn("thumbnail_key", "text")
-    .addColumn("status", "text", (c) => c.notNull().defaultTo("pending").check(sql`status in ('pending','complete')`))
+    .addColumn("status", "text", (c) =>
+      c
+        .notNull()
+        .defaultTo("pending")
+        .check(sql`status in ('pending','complete')`),
+    )
     .addColumn("uploaded_by", "text", (c) => c.references("app_user.id").onDelete("set null"))
     .addColumn("created_at", "timestamptz", (c) => c.notNull().defaultTo(sql`now()`))
     .addColumn("completed_at", "timestamptz")
@@ -100,7 +108,15 @@ export async function up(db: Kysely<any>): Promise<void> {
 }
 
 export async function down(db: Kysely<any>): Promise<void> {
-  for (const table of ["attachment", "checklist", "job_task", "job", "vehicle", "condition_profile_version", "condition_profile"]) {
+  for (const table of [
+    "attachment",
+    "checklist",
+    "job_task",
+    "job",
+    "vehicle",
+    "condition_profile_version",
+    "condition_profile",
+  ]) {
     await db.schema.dropTable(table).execute()
   }
 }

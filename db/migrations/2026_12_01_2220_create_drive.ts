@@ -12,8 +12,18 @@ export async function up(db: Kysely<any>): Promise<void> {
     .addColumn("profile", "jsonb", (c) => c.notNull())
     .addColumn("driver_id", "text", (c) => c.notNull().references("app_user.id"))
     .addColumn("co_driver_id", "text", (c) => c.references("app_user.id").onDelete("set null"))
-    .addColumn("status", "text", (c) => c.notNull().defaultTo("recording").check(sql`status in ('recording','finished')`))
-    .addColumn("source", "text", (c) => c.notNull().defaultTo("recorder").check(sql`source in ('recorder','import')`))
+    .addColumn("status", "text", (c) =>
+      c
+        .notNull()
+        .defaultTo("recording")
+        .check(sql`status in ('recording','finished')`),
+    )
+    .addColumn("source", "text", (c) =>
+      c
+        .notNull()
+        .defaultTo("recorder")
+        .check(sql`source in ('recorder','import')`),
+    )
     .addColumn("verdict", "text", (c) => c.check(sql`verdict in ('met','short','not_met','unverified')`))
     .addColumn("review_status", "text", (c) => c.check(sql`review_status in ('approved','redo')`))
     .addColumn("created_at", "timestamptz", (c) => c.notNull().defaultTo(sql`now()`))

@@ -11,7 +11,11 @@ export async function up(db: Kysely<any>): Promise<void> {
     .addColumn("drive_id", "uuid", (c) => c.notNull().references("drive.id").onDelete("cascade"))
     .addColumn("revision", "integer", (c) => c.notNull().check(sql`revision >= 1`))
     .addColumn("cause", "text", (c) =>
-      c.notNull().check(sql`cause in ('finish','import','late_samples','late_marks','mark_removed','refinish','review','resealed')`),
+      c
+        .notNull()
+        .check(
+          sql`cause in ('finish','import','late_samples','late_marks','mark_removed','refinish','review','resealed')`,
+        ),
     )
     .addColumn("verdict", "text", (c) => c.notNull().check(sql`verdict in ('met','short','not_met','unverified')`))
     .addColumn("result", "jsonb", (c) => c.notNull())
@@ -51,9 +55,14 @@ export async function up(db: Kysely<any>): Promise<void> {
     .addColumn("matched", "boolean", (c) => c.notNull())
     .addColumn("created_at", "timestamptz", (c) => c.notNull().defaultTo(sql`now()`))
     .execute()
-  await db.schema.createIndex("verify_attempt_address_idx").on("verify_attempt").columns(["client_address", "created_at"]).execute()
+  await db.schema
+    .createIndex("verify_attempt_address_idx")
+    .on("verify_attempt")
+    .columns(["client_address", "created_at"])
+    .execute()
 }
 
 export async function down(db: Kysely<any>): Promise<void> {
-  for (const table of ["verify_attempt", "share_link", "issued_record", "score_revision"]) await db.schema.dropTable(table).execute()
+  for (const table of ["verify_attempt", "share_link", "issued_record", "score_revision"])
+    await db.schema.dropTable(table).execute()
 }

@@ -36,7 +36,9 @@ export async function up(db: Kysely<any>): Promise<void> {
       where id = new.drive_id and shop_id = new.shop_id;
       return null;
     end $$`.execute(db)
-  await sql`create trigger score_to_drive after insert or update on score for each row execute function drive_take_score()`.execute(db)
+  await sql`create trigger score_to_drive after insert or update on score for each row execute function drive_take_score()`.execute(
+    db,
+  )
   // Scores stored before this migration: touching each row runs the trigger once.
   await sql`update score set scored_at = scored_at`.execute(db)
 

@@ -5,7 +5,12 @@ import { type Kysely, sql } from "kysely"
 export async function up(db: Kysely<any>): Promise<void> {
   await db.schema
     .alterTable("drive")
-    .addColumn("kind", "text", (c) => c.notNull().defaultTo("learn").check(sql`kind in ('learn','road_test','learn_and_road_test')`))
+    .addColumn("kind", "text", (c) =>
+      c
+        .notNull()
+        .defaultTo("learn")
+        .check(sql`kind in ('learn','road_test','learn_and_road_test')`),
+    )
     .addColumn("road_test", "jsonb")
     .execute()
   await db.schema

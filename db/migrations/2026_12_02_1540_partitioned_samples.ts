@@ -27,7 +27,9 @@ export async function up(db: Kysely<any>): Promise<void> {
   await sql`alter table drive add constraint drive_sample_key_unique unique (sample_key)`.execute(db)
 
   await sql`alter table sample rename to sample_before_partitioning`.execute(db)
-  await sql`alter table sample_before_partitioning rename constraint sample_pk to sample_before_partitioning_pk`.execute(db)
+  await sql`alter table sample_before_partitioning rename constraint sample_pk to sample_before_partitioning_pk`.execute(
+    db,
+  )
 
   await sql`
     create table sample (
@@ -39,7 +41,9 @@ export async function up(db: Kysely<any>): Promise<void> {
       accuracy integer,
       constraint sample_pk primary key (drive_key, t)
     ) partition by range (t)`.execute(db)
-  await sql`comment on table sample is 'Position samples, partitioned by month on t (pg_partman). lat/lon in 1e-7 degree, speed in mm/s, accuracy in mm (lib/drive-file/stored.ts).'`.execute(db)
+  await sql`comment on table sample is 'Position samples, partitioned by month on t (pg_partman). lat/lon in 1e-7 degree, speed in mm/s, accuracy in mm (lib/drive-file/stored.ts).'`.execute(
+    db,
+  )
 
   // Month boundaries in UTC: partman works in the session's time zone (app/_server/maintenance.ts too).
   const { rows: zone } = await sql<{ tz: string }>`select current_setting('TimeZone') as tz`.execute(db)
@@ -58,7 +62,9 @@ export async function up(db: Kysely<any>): Promise<void> {
       p_parent_table => 'public.sample', p_control => 't', p_type => 'native', p_interval => 'monthly',
       p_epoch => 'milliseconds', p_premake => 4, p_start_partition => ${rows[0]!.start}, p_jobmon => false)`.execute(db)
   // Months ahead of the clock whether or not samples arrived lately (partman's default waits for new data).
-  await sql`update partman.part_config set infinite_time_partitions = true where parent_table = 'public.sample'`.execute(db)
+  await sql`update partman.part_config set infinite_time_partitions = true where parent_table = 'public.sample'`.execute(
+    db,
+  )
 
   await sql`select set_config('TimeZone', ${zone[0]!.tz}, true)`.execute(db)
 

@@ -2,7 +2,17 @@ import type { Db } from "../client"
 
 export function insertPendingAttachment(
   db: Db,
-  a: { id: string; shopId: string; jobId: string; taskId: string | null; filename: string; contentType: string; size: number; objectKey: string; userId: string },
+  a: {
+    id: string
+    shopId: string
+    jobId: string
+    taskId: string | null
+    filename: string
+    contentType: string
+    size: number
+    objectKey: string
+    userId: string
+  },
 ) {
   return db
     .insertInto("attachment")
@@ -25,10 +35,23 @@ export function findAttachmentInShop(db: Db, id: string, shopId: string) {
   return db.selectFrom("attachment").selectAll().where("id", "=", id).where("shop_id", "=", shopId).executeTakeFirst()
 }
 
-export function markAttachmentComplete(db: Db, id: string, shopId: string, size: number, thumbnailKey: string | null = null, objectKey?: string) {
+export function markAttachmentComplete(
+  db: Db,
+  id: string,
+  shopId: string,
+  size: number,
+  thumbnailKey: string | null = null,
+  objectKey?: string,
+) {
   return db
     .updateTable("attachment")
-    .set({ status: "complete", size, thumbnail_key: thumbnailKey, completed_at: new Date(), ...(objectKey ? { object_key: objectKey } : {}) })
+    .set({
+      status: "complete",
+      size,
+      thumbnail_key: thumbnailKey,
+      completed_at: new Date(),
+      ...(objectKey ? { object_key: objectKey } : {}),
+    })
     .where("id", "=", id)
     .where("shop_id", "=", shopId)
     .returningAll()

@@ -34,7 +34,13 @@ export interface DriveEvent {
 /** What a notice on DRIVE_CHANNEL holds (short keys: the payload limit is 8000 bytes). */
 export type DriveNotice =
   | { k: "event"; d: string; s: string; o: string; id: number; kind: DriveEventKind; body?: Record<string, unknown> }
-  | { k: "samples"; d: string; s: string; o: string; rows: Array<[number, number, number, number | null, number | null]> | null }
+  | {
+      k: "samples"
+      d: string
+      s: string
+      o: string
+      rows: Array<[number, number, number, number | null, number | null]> | null
+    }
 
 /** The notify call for a json payload, trimmed to `fallback` when it would be too long for pg_notify. */
 function notify(payload: RawBuilder<unknown>, fallback: RawBuilder<unknown>) {
@@ -58,7 +64,12 @@ export interface SamplesInserted {
  * with the notice folded into the same statement: up to NOTIFY_MAX_SAMPLES stored rows travel in it,
  * a larger batch tells other processes to read the drive again.
  */
-export async function insertSamplesNotifying(trx: Db, driveId: string, shopId: string, samples: readonly Sample[]): Promise<SamplesInserted> {
+export async function insertSamplesNotifying(
+  trx: Db,
+  driveId: string,
+  shopId: string,
+  samples: readonly Sample[],
+): Promise<SamplesInserted> {
   if (samples.length === 0) return { accepted: 0, ts: [] }
   const { t, lat, lon, speed, accuracy } = encodeSampleColumns(samples)
   const result = await sql<{ n: number; ts: number[] }>`
@@ -150,7 +161,13 @@ export async function deleteMarkNotifying(trx: Db, driveId: string, shopId: stri
 }
 
 /** Writes one durable event and announces it (one statement). Call inside the transaction of the change. */
-export async function insertDriveEvent(db: Db, driveId: string, shopId: string, kind: DriveEventKind, body: Record<string, unknown>): Promise<number> {
+export async function insertDriveEvent(
+  db: Db,
+  driveId: string,
+  shopId: string,
+  kind: DriveEventKind,
+  body: Record<string, unknown>,
+): Promise<number> {
   const result = await sql<{ id: number }>`
     with ev as (
       insert into drive_event (drive_id, shop_id, kind, body)
@@ -166,7 +183,13 @@ export async function insertDriveEvent(db: Db, driveId: string, shopId: string, 
  * one that started later, so events of the last few seconds are sent again whatever their id: a
  * screen applies them by mark id, so a repeat changes nothing.
  */
-export async function listDriveEventsAfter(db: Db, driveId: string, shopId: string, afterId: number, limit = 1000): Promise<DriveEvent[]> {
+export async function listDriveEventsAfter(
+  db: Db,
+  driveId: string,
+  shopId: string,
+  afterId: number,
+  limit = 1000,
+): Promise<DriveEvent[]> {
   const rows = await db
     .selectFrom("drive_event")
     .select(["id", "kind", "body"])
@@ -176,10 +199,19 @@ export async function listDriveEventsAfter(db: Db, driveId: string, shopId: stri
     .orderBy("id", "asc")
     .limit(limit)
     .execute()
-  return rows.map((r) => ({ id: Number(r.id), kind: r.kind as DriveEventKind, body: r.body as Record<string, unknown> }))
+  return rows.map((r) => ({
+    id: Number(r.id),
+    kind: r.kind as DriveEventKind,
+    body: r.body as Record<string, unknown>,
+  }))
 }
 
-export async function findDriveEvent(db: Db, driveId: string, shopId: string, id: number): Promise<DriveEvent | undefined> {
+export async function findDriveEvent(
+  db: Db,
+  driveId: string,
+  shopId: string,
+  id: number,
+): Promise<DriveEvent | undefined> {
   const r = await db
     .selectFrom("drive_event")
     .select(["id", "kind", "body"])
@@ -202,7 +234,11 @@ export async function lastDriveEventId(db: Db, driveId: string, shopId: string):
 }
 
 /** Marks of the drive with their arrival order, by time then arrival (the live scorer's start). */
-export async function listMarksWithSeq(db: Db, driveId: string, shopId: string): Promise<Array<Mark & { id: string; seq: number }>> {
+export async function listMarksWithSeq(
+  db: Db,
+  driveId: string,
+  shopId: string,
+): Promise<Array<Mark & { id: string; seq: number }>> {
   const rows = await db
     .selectFrom("mark")
     .select(["id", "t", "kind", "gap_ft", "text", "seq"])

@@ -30,20 +30,36 @@ export interface DriveExport {
  * (DECLARE ... CURSOR, FETCH FORWARD) hands the samples over a chunk at a time. Another shop's drive (or none)
  * is a not_found AppError, thrown before anything is sent. The caller must drain `samples` or call close().
  */
-export async function openDriveExport(db: Db, driveId: string, shopId: string, { gpx = false } = {}): Promise<DriveExport> {
+export async function openDriveExport(
+  db: Db,
+  driveId: string,
+  shopId: string,
+  { gpx = false } = {},
+): Promise<DriveExport> {
   const trx = await db.startTransaction().setIsolationLevel("repeatable read").setAccessMode("read only").execute()
   let open = true
   const close = async () => {
     if (!open) return
     open = false
     // Read-only: rolling back and committing are the same; rollback releases the connection even if it fails.
-    await trx.rollback().execute().catch(() => {})
+    await trx
+      .rollback()
+      .execute()
+      .catch(() => {})
   }
   try {
     const drive = await findDriveInShop(trx, driveId, shopId)
     if (!drive) notFound("That drive")
     const head = driveFileOf(drive, [], await listMarks(trx, driveId, shopId))
-    const lookahead = gpx ? await gpxLookahead(trx, driveId, shopId, resolveProfile(head.profile).maxAccuracyM, head.marks.map((m) => m.t)) : null
+    const lookahead = gpx
+      ? await gpxLookahead(
+          trx,
+          driveId,
+          shopId,
+          resolveProfile(head.profile).maxAccuracyM,
+          head.marks.map((m) => m.t),
+        )
+      : null
     await sql`declare drive_export no scroll cursor for
       select ${sql.join(SAMPLE_COLUMNS.map((c) => sql.ref(c)))} from sample
       where drive_key = ${driveKey(driveId, shopId)}
@@ -51,7 +67,8 @@ export async function openDriveExport(db: Db, driveId: string, shopId: string, {
     async function* samples(): AsyncGenerator<Sample[]> {
       try {
         while (open) {
-          const { rows } = await sql<SampleRow>`fetch forward ${sql.raw(String(EXPORT_FETCH_ROWS))} from drive_export`.execute(trx)
+          const { rows } =
+            await sql<SampleRow>`fetch forward ${sql.raw(String(EXPORT_FETCH_ROWS))} from drive_export`.execute(trx)
           if (rows.length > 0) yield rows.map(sampleOfRow)
           if (rows.length < EXPORT_FETCH_ROWS) break
         }
@@ -71,12 +88,26 @@ export async function openDriveExport(db: Db, driveId: string, shopId: string, {
  * the first after it): what GPX writes before its first track point. Kept is rule 1 of drive-file.md (accuracy
  * within the profile's limit; `t` is unique per drive in the table). One statement.
  */
-async function gpxLookahead(db: Db, driveId: string, shopId: string, maxAccuracyM: number, markTimes: number[]): Promise<GpxLookahead> {
+async function gpxLookahead(
+  db: Db,
+  driveId: string,
+  shopId: string,
+  maxAccuracyM: number,
+  markTimes: number[],
+): Promise<GpxLookahead> {
   const times = [...new Set(markTimes)]
   // Accuracy is stored in mm (lib/drive-file/stored.ts); dividing in float8 here is the same IEEE division decodeSample does.
   const kept = sql`drive_key = ${driveKey(driveId, shopId)} and (accuracy is null or accuracy::float8 / ${MILLI_SCALE}::float8 <= ${maxAccuracyM}::float8)`
   const cols = sql.join(SAMPLE_COLUMNS.map((c) => sql.ref(c)))
-  const { rows } = await sql<{ ms: number | null; side: "first" | "before" | "after"; t: number; lat: number; lon: number; speed: number | null; accuracy: number | null }>`
+  const { rows } = await sql<{
+    ms: number | null
+    side: "first" | "before" | "after"
+    t: number
+    lat: number
+    lon: number
+    speed: number | null
+    accuracy: number | null
+  }>`
     select null::bigint as ms, 'first' as side, f.* from (select ${cols} from sample where ${kept} order by t asc limit 1) f
     union all
     select m.ms, 'before', b.* from unnest(${times}::bigint[]) as m(ms)

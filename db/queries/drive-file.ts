@@ -1,5 +1,13 @@
 import type { RoadTestCheck } from "@/lib/drive-file/road-test"
-import { DRIVE_FORMAT, DRIVE_FORMAT_2, type AnyDriveFile, type DriveFile, type Mark, type Profile, type Sample } from "@/lib/drive-file/schema"
+import {
+  DRIVE_FORMAT,
+  DRIVE_FORMAT_2,
+  type AnyDriveFile,
+  type DriveFile,
+  type Mark,
+  type Profile,
+  type Sample,
+} from "@/lib/drive-file/schema"
 import { notFound } from "@/lib/errors"
 import type { Db } from "../client"
 import { findDriveInShop } from "./drives"
@@ -20,11 +28,20 @@ export async function loadDriveFile(db: Db, driveId: string, shopId: string): Pr
 }
 
 /** The file from the drive row, its samples by time and its marks (listMarks); the one place its shape is made. */
-export function driveFileOf(drive: Drive, samples: Sample[], marks: Awaited<ReturnType<typeof listMarks>>): AnyDriveFile {
+export function driveFileOf(
+  drive: Drive,
+  samples: Sample[],
+  marks: Awaited<ReturnType<typeof listMarks>>,
+): AnyDriveFile {
   const fileMarks = marks.map(({ id: _id, ...m }) => m)
   // A learn drive with no check marks stays a version 1 file, exactly as before road tests existed.
   if (drive.kind === "learn" && !fileMarks.some((m) => m.kind === "check")) {
-    const v1: DriveFile = { format: DRIVE_FORMAT, profile: drive.profile as Profile, samples, marks: fileMarks as Mark[] }
+    const v1: DriveFile = {
+      format: DRIVE_FORMAT,
+      profile: drive.profile as Profile,
+      samples,
+      marks: fileMarks as Mark[],
+    }
     return v1
   }
   return {

@@ -11,8 +11,17 @@ import type { Drive } from "../types"
 export type DriveWithSampleSpan = Drive & { first_sample_t: number | null; last_sample_t: number | null }
 
 /** The drive, locked FOR KEY SHARE until the transaction ends; with `sampleSpan`, its first and last sample times too. */
-export async function findDriveForKeyShare(trx: Db, driveId: string, shopId: string, opts: { sampleSpan?: boolean } = {}): Promise<DriveWithSampleSpan | undefined> {
-  const q = trx.selectFrom("drive").selectAll("drive").where("drive.id", "=", driveId).where("drive.shop_id", "=", shopId)
+export async function findDriveForKeyShare(
+  trx: Db,
+  driveId: string,
+  shopId: string,
+  opts: { sampleSpan?: boolean } = {},
+): Promise<DriveWithSampleSpan | undefined> {
+  const q = trx
+    .selectFrom("drive")
+    .selectAll("drive")
+    .where("drive.id", "=", driveId)
+    .where("drive.shop_id", "=", shopId)
   const row = opts.sampleSpan
     ? await q
         .select([
@@ -28,7 +37,13 @@ export async function findDriveForKeyShare(trx: Db, driveId: string, shopId: str
 
 /** The drive, locked FOR UPDATE until the transaction ends (Finish, review): waits for the writes that hold it FOR KEY SHARE. */
 export async function findDriveForUpdate(trx: Db, driveId: string, shopId: string): Promise<Drive | undefined> {
-  return trx.selectFrom("drive").selectAll().where("id", "=", driveId).where("shop_id", "=", shopId).forUpdate().executeTakeFirst()
+  return trx
+    .selectFrom("drive")
+    .selectAll()
+    .where("id", "=", driveId)
+    .where("shop_id", "=", shopId)
+    .forUpdate()
+    .executeTakeFirst()
 }
 
 /**

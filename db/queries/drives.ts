@@ -68,7 +68,9 @@ export async function listDrives(db: Db, shopId: string, filter: DriveListFilter
   let q = db
     .selectFrom("drive")
     .leftJoin("job", (j) => j.onRef("job.id", "=", "drive.job_id").on("job.shop_id", "=", shopId))
-    .leftJoin("app_user as driver", (j) => j.onRef("driver.id", "=", "drive.driver_id").on("driver.shop_id", "=", shopId))
+    .leftJoin("app_user as driver", (j) =>
+      j.onRef("driver.id", "=", "drive.driver_id").on("driver.shop_id", "=", shopId),
+    )
     .leftJoin("app_user as co", (j) => j.onRef("co.id", "=", "drive.co_driver_id").on("co.shop_id", "=", shopId))
     .leftJoin("job_task as task", (j) => j.onRef("task.id", "=", "drive.task_id").on("task.shop_id", "=", shopId))
     .leftJoin("vehicle", (j) => j.onRef("vehicle.id", "=", "job.vehicle_id").on("vehicle.shop_id", "=", shopId))

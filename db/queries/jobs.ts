@@ -97,13 +97,20 @@ export async function listJobs(db: Db, shopId: string, opts: JobListOptions) {
     .limit(opts.limit + 1)
   if (opts.cursor) {
     const op = opts.dir === "asc" ? sql`>` : sql`<`
-    q = q.where(sql<boolean>`(${expr}, job.id) ${op} (cast(${opts.cursor.value} as ${type}), cast(${opts.cursor.id} as uuid))`)
+    q = q.where(
+      sql<boolean>`(${expr}, job.id) ${op} (cast(${opts.cursor.value} as ${type}), cast(${opts.cursor.id} as uuid))`,
+    )
   }
   const [rows, total] = await Promise.all([
     q.execute(),
-    filteredJobs(db, shopId, opts).select((eb) => eb.fn.countAll<string>().as("n")).executeTakeFirst(),
+    filteredJobs(db, shopId, opts)
+      .select((eb) => eb.fn.countAll<string>().as("n"))
+      .executeTakeFirst(),
   ])
-  return { ...keysetPage(rows, opts.limit, (last) => encodeCursor(last.sort_key, last.id)), total: Number(total?.n ?? 0) }
+  return {
+    ...keysetPage(rows, opts.limit, (last) => encodeCursor(last.sort_key, last.id)),
+    total: Number(total?.n ?? 0),
+  }
 }
 
 function encodeCursor(value: string, id: string) {
@@ -140,7 +147,12 @@ export function findJobInShop(db: Db, jobId: string, shopId: string) {
 }
 
 export function findJobByRoNumber(db: Db, roNumber: string, shopId: string) {
-  return db.selectFrom("job").select(["id"]).where("ro_number", "=", roNumber).where("shop_id", "=", shopId).executeTakeFirst()
+  return db
+    .selectFrom("job")
+    .select(["id"])
+    .where("ro_number", "=", roNumber)
+    .where("shop_id", "=", shopId)
+    .executeTakeFirst()
 }
 
 /** Whether a co-driver is named on any drive of this job (what lets them see it). */
@@ -192,7 +204,12 @@ export async function insertJob(
   db: Db,
   shopId: string,
   userId: string,
-  job: { roNumber: string; customer: { name: string; email: string | null; phone: string | null }; vehicleId: string; tasks: NewTaskRow[] },
+  job: {
+    roNumber: string
+    customer: { name: string; email: string | null; phone: string | null }
+    vehicleId: string
+    tasks: NewTaskRow[]
+  },
 ) {
   const row = await db
     .insertInto("job")
@@ -242,12 +259,23 @@ export function updateTask(db: Db, taskId: string, jobId: string, shopId: string
 
 export function deleteTasks(db: Db, taskIds: string[], jobId: string, shopId: string) {
   if (taskIds.length === 0) return Promise.resolve([])
-  return db.deleteFrom("job_task").where("id", "in", taskIds).where("job_id", "=", jobId).where("shop_id", "=", shopId).execute()
+  return db
+    .deleteFrom("job_task")
+    .where("id", "in", taskIds)
+    .where("job_id", "=", jobId)
+    .where("shop_id", "=", shopId)
+    .execute()
 }
 
 export async function taskIdsWithDrives(db: Db, taskIds: string[], shopId: string) {
   if (taskIds.length === 0) return []
-  const rows = await db.selectFrom("drive").select("task_id").distinct().where("task_id", "in", taskIds).where("shop_id", "=", shopId).execute()
+  const rows = await db
+    .selectFrom("drive")
+    .select("task_id")
+    .distinct()
+    .where("task_id", "in", taskIds)
+    .where("shop_id", "=", shopId)
+    .execute()
   return rows.map((r) => r.task_id!)
 }
 
@@ -255,13 +283,23 @@ export function updateJobFields(
   db: Db,
   jobId: string,
   shopId: string,
-  changes: { roNumber?: string; customer?: { name: string; email: string | null; phone: string | null }; vehicleId?: string },
+  changes: {
+    roNumber?: string
+    customer?: { name: string; email: string | null; phone: string | null }
+    vehicleId?: string
+  },
 ) {
   return db
     .updateTable("job")
     .set({
       ...(changes.roNumber !== undefined ? { ro_number: changes.roNumber } : {}),
-      ...(changes.customer ? { customer_name: changes.customer.name, customer_email: changes.customer.email, customer_phone: changes.customer.phone } : {}),
+      ...(changes.customer
+        ? {
+            customer_name: changes.customer.name,
+            customer_email: changes.customer.email,
+            customer_phone: changes.customer.phone,
+          }
+        : {}),
       ...(changes.vehicleId ? { vehicle_id: changes.vehicleId } : {}),
       updated_at: sql`now()`,
     })
@@ -278,7 +316,12 @@ export function isDuplicateRoNumber(error: unknown) {
 
 // ---- the job as GET /api/jobs/:id returns it ----
 
-type ChecklistRow = { data: Record<string, unknown>; completed_by: string | null; completed_at: Date; completed_by_name: string | null }
+type ChecklistRow = {
+  data: Record<string, unknown>
+  completed_by: string | null
+  completed_at: Date
+  completed_by_name: string | null
+}
 
 export function checklistJson(row: ChecklistRow, task: { method: string; reason: string }, tolerancePsi: number) {
   const parsed = checklistSchema.safeParse(row.data)
@@ -328,8 +371,14 @@ export async function loadJobDetail(db: Db, jobId: string, shopId: string, opts:
     listDrivesForJob(db, jobId, shopId, opts.onlyCoDriverId),
     findShopSettings(db, shopId),
   ])
-  const checklists = await listChecklistsForTasks(db, tasks.map((t) => t.id), shopId)
-  const profiles = await Promise.all(tasks.map((t) => (t.profile_id ? findCurrentProfileVersionById(db, t.profile_id, shopId) : undefined)))
+  const checklists = await listChecklistsForTasks(
+    db,
+    tasks.map((t) => t.id),
+    shopId,
+  )
+  const profiles = await Promise.all(
+    tasks.map((t) => (t.profile_id ? findCurrentProfileVersionById(db, t.profile_id, shopId) : undefined)),
+  )
   return {
     id: job.id,
     roNumber: job.ro_number,
@@ -346,7 +395,16 @@ export async function loadJobDetail(db: Db, jobId: string, shopId: string, opts:
         sensor: t.sensor,
         method: t.method,
         reason: t.reason,
-        profile: p ? { id: p.profileId, key: p.key, name: p.name, version: p.version, versionId: p.versionId, settings: p.settings } : null,
+        profile: p
+          ? {
+              id: p.profileId,
+              key: p.key,
+              name: p.name,
+              version: p.version,
+              versionId: p.versionId,
+              settings: p.settings,
+            }
+          : null,
         checklist: c ? checklistJson(c, t, settings.tirePressureTolerancePsi) : null,
       }
     }),

@@ -2,7 +2,10 @@ import type { Db } from "../client"
 
 const NOTIFICATION_PAGE_SIZE = 30
 
-export async function insertNotification(db: Db, n: { shopId: string; userId: string; message: string; link: string | null }) {
+export async function insertNotification(
+  db: Db,
+  n: { shopId: string; userId: string; message: string; link: string | null },
+) {
   return db
     .insertInto("notification")
     .values({ shop_id: n.shopId, user_id: n.userId, message: n.message, link: n.link })

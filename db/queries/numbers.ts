@@ -11,8 +11,12 @@ import type { Db } from "../client"
 export async function listDrivesForNumbers(db: Db, shopId: string, since: Date) {
   return db
     .selectFrom("drive")
-    .leftJoin("app_user as driver", (j) => j.onRef("driver.id", "=", "drive.driver_id").on("driver.shop_id", "=", shopId))
-    .leftJoin("condition_profile_version as pv", (j) => j.onRef("pv.id", "=", "drive.profile_version_id").on("pv.shop_id", "=", shopId))
+    .leftJoin("app_user as driver", (j) =>
+      j.onRef("driver.id", "=", "drive.driver_id").on("driver.shop_id", "=", shopId),
+    )
+    .leftJoin("condition_profile_version as pv", (j) =>
+      j.onRef("pv.id", "=", "drive.profile_version_id").on("pv.shop_id", "=", shopId),
+    )
     .leftJoin("condition_profile as p", (j) => j.onRef("p.id", "=", "pv.profile_id").on("p.shop_id", "=", shopId))
     .select([
       "drive.id",
@@ -95,10 +99,22 @@ export async function loadNumbersSummary(db: Db, shopId: string, since: Date, ti
       }))
       .sort((a, b) => b.drives - a.drives || a.profileName.localeCompare(b.profileName)),
     verdictMix: s.weeks
-      .map((w) => ({ weekStart: w.week, total: w.total, met: w.met, short: w.short, not_met: w.not_met, unverified: w.unverified }))
+      .map((w) => ({
+        weekStart: w.week,
+        total: w.total,
+        met: w.met,
+        short: w.short,
+        not_met: w.not_met,
+        unverified: w.unverified,
+      }))
       .sort((a, b) => a.weekStart.localeCompare(b.weekStart)),
     topReasons: s.reasons
-      .map((r) => ({ key: r.key, label: CONDITION_PROBLEM[r.key] ?? r.key, drives: r.n, share: drives ? r.n / drives : 0 }))
+      .map((r) => ({
+        key: r.key,
+        label: CONDITION_PROBLEM[r.key] ?? r.key,
+        drives: r.n,
+        share: drives ? r.n / drives : 0,
+      }))
       .sort((a, b) => b.drives - a.drives || a.key.localeCompare(b.key))
       .slice(0, 7),
     perTechnician: s.techs
@@ -118,8 +134,23 @@ export async function loadNumbersSummary(db: Db, shopId: string, since: Date, ti
 
 interface SummaryJson {
   drives: number
-  profiles: Array<{ profile_name: string; drives: number; cleared: number; median: number | null; p90: number | null; bins: number[] }>
+  profiles: Array<{
+    profile_name: string
+    drives: number
+    cleared: number
+    median: number | null
+    p90: number | null
+    bins: number[]
+  }>
   weeks: Array<{ week: string; total: number; met: number; short: number; not_met: number; unverified: number }>
   reasons: Array<{ key: string; n: number }>
-  techs: Array<{ driver_id: string; name: string; drives: number; met: number; median: number | null; harsh: number; sent_back: number }>
+  techs: Array<{
+    driver_id: string
+    name: string
+    drives: number
+    met: number
+    median: number | null
+    harsh: number
+    sent_back: number
+  }>
 }

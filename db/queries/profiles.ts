@@ -1,5 +1,11 @@
 import type { Transaction } from "kysely"
-import { defaultRoadTestChecks, resolveProfile, type Profile, type ResolvedProfile, type RoadTestCheck } from "@/lib/drive-file"
+import {
+  defaultRoadTestChecks,
+  resolveProfile,
+  type Profile,
+  type ResolvedProfile,
+  type RoadTestCheck,
+} from "@/lib/drive-file"
 import type { Db } from "../client"
 import type { Database } from "../types"
 
@@ -22,7 +28,16 @@ function versionQuery(db: Db, shopId: string) {
     .innerJoin("condition_profile_version as v", (j) =>
       j.onRef("v.profile_id", "=", "p.id").onRef("v.version", "=", "p.current_version").on("v.shop_id", "=", shopId),
     )
-    .select(["p.id as profileId", "p.key", "p.name", "p.sensor", "v.version", "v.id as versionId", "v.settings", "v.road_test_checks"])
+    .select([
+      "p.id as profileId",
+      "p.key",
+      "p.name",
+      "p.sensor",
+      "v.version",
+      "v.id as versionId",
+      "v.settings",
+      "v.road_test_checks",
+    ])
     .where("p.shop_id", "=", shopId)
 }
 
@@ -38,7 +53,11 @@ type VersionRow = {
 }
 
 function toInfo({ road_test_checks, ...row }: VersionRow): ProfileVersionInfo {
-  return { ...row, settings: resolveProfile(row.settings as Profile), roadTestChecks: resolveRoadTestChecks(road_test_checks, row.sensor) }
+  return {
+    ...row,
+    settings: resolveProfile(row.settings as Profile),
+    roadTestChecks: resolveRoadTestChecks(road_test_checks, row.sensor),
+  }
 }
 
 function resolveRoadTestChecks(stored: unknown[] | null, sensor: string | null): RoadTestCheck[] {
@@ -58,23 +77,43 @@ export async function findCurrentProfileVersionByKey(
   return row ? toInfo(row) : undefined
 }
 
-export async function findCurrentProfileVersionById(db: Db, profileId: string, shopId: string): Promise<ProfileVersionInfo | undefined> {
+export async function findCurrentProfileVersionById(
+  db: Db,
+  profileId: string,
+  shopId: string,
+): Promise<ProfileVersionInfo | undefined> {
   const row = await versionQuery(db, shopId).where("p.id", "=", profileId).executeTakeFirst()
   return row ? toInfo(row) : undefined
 }
 
 export async function listProfiles(db: Db, shopId: string, { includeArchived = true } = {}) {
-  let q = versionQuery(db, shopId).select(["p.archived", "p.created_at as createdAt", "v.created_at as versionCreatedAt"])
+  let q = versionQuery(db, shopId).select([
+    "p.archived",
+    "p.created_at as createdAt",
+    "v.created_at as versionCreatedAt",
+  ])
   if (!includeArchived) q = q.where("p.archived", "=", false)
   const rows = await q.orderBy("p.archived").orderBy("p.name").execute()
-  return rows.map((r) => ({ ...toInfo(r), archived: r.archived, createdAt: r.createdAt, versionCreatedAt: r.versionCreatedAt }))
+  return rows.map((r) => ({
+    ...toInfo(r),
+    archived: r.archived,
+    createdAt: r.createdAt,
+    versionCreatedAt: r.versionCreatedAt,
+  }))
 }
 
 function listProfileVersions(db: Db, profileId: string, shopId: string) {
   return db
     .selectFrom("condition_profile_version as v")
     .leftJoin("app_user as u", (j) => j.onRef("u.id", "=", "v.created_by").on("u.shop_id", "=", shopId))
-    .select(["v.id", "v.version", "v.settings", "v.road_test_checks", "v.created_at as createdAt", "u.name as createdByName"])
+    .select([
+      "v.id",
+      "v.version",
+      "v.settings",
+      "v.road_test_checks",
+      "v.created_at as createdAt",
+      "u.name as createdByName",
+    ])
     .where("v.profile_id", "=", profileId)
     .where("v.shop_id", "=", shopId)
     .orderBy("v.version", "desc")
@@ -82,11 +121,21 @@ function listProfileVersions(db: Db, profileId: string, shopId: string) {
 }
 
 function findProfileInShop(db: Db, profileId: string, shopId: string) {
-  return db.selectFrom("condition_profile").selectAll().where("id", "=", profileId).where("shop_id", "=", shopId).executeTakeFirst()
+  return db
+    .selectFrom("condition_profile")
+    .selectAll()
+    .where("id", "=", profileId)
+    .where("shop_id", "=", shopId)
+    .executeTakeFirst()
 }
 
 export function findProfileByKey(db: Db, key: string, shopId: string) {
-  return db.selectFrom("condition_profile").select(["id"]).where("key", "=", key).where("shop_id", "=", shopId).executeTakeFirst()
+  return db
+    .selectFrom("condition_profile")
+    .select(["id"])
+    .where("key", "=", key)
+    .where("shop_id", "=", shopId)
+    .executeTakeFirst()
 }
 
 /** The profile a new task of this sensor gets by default: the shop's oldest active profile for the sensor. */
@@ -104,7 +153,15 @@ export function findDefaultProfileForSensor(db: Db, sensor: string, shopId: stri
 
 export async function insertProfile(
   db: Db,
-  input: { shopId: string; key: string; name: string; sensor: string | null; settings: ResolvedProfile; userId: string; roadTestChecks?: RoadTestCheck[] },
+  input: {
+    shopId: string
+    key: string
+    name: string
+    sensor: string | null
+    settings: ResolvedProfile
+    userId: string
+    roadTestChecks?: RoadTestCheck[]
+  },
 ) {
   const profile = await db
     .insertInto("condition_profile")
@@ -156,12 +213,27 @@ export async function insertProfileVersion(
       created_by: userId,
     })
     .execute()
-  await db.updateTable("condition_profile").set({ current_version: version }).where("id", "=", profileId).where("shop_id", "=", shopId).execute()
+  await db
+    .updateTable("condition_profile")
+    .set({ current_version: version })
+    .where("id", "=", profileId)
+    .where("shop_id", "=", shopId)
+    .execute()
   return version
 }
 
-export function updateProfileFields(db: Db, profileId: string, shopId: string, changes: { name?: string; sensor?: string | null; archived?: boolean }) {
-  return db.updateTable("condition_profile").set(changes).where("id", "=", profileId).where("shop_id", "=", shopId).execute()
+export function updateProfileFields(
+  db: Db,
+  profileId: string,
+  shopId: string,
+  changes: { name?: string; sensor?: string | null; archived?: boolean },
+) {
+  return db
+    .updateTable("condition_profile")
+    .set(changes)
+    .where("id", "=", profileId)
+    .where("shop_id", "=", shopId)
+    .execute()
 }
 
 export function profileVersionJson(p: ProfileVersionInfo) {

@@ -13,11 +13,22 @@ export function listReviewListeners(db: Db, shopId: string) {
 }
 
 export async function findReviewMail(db: Db, userId: string, shopId: string): Promise<boolean> {
-  const row = await db.selectFrom("app_user").select("review_mail").where("id", "=", userId).where("shop_id", "=", shopId).executeTakeFirst()
+  const row = await db
+    .selectFrom("app_user")
+    .select("review_mail")
+    .where("id", "=", userId)
+    .where("shop_id", "=", shopId)
+    .executeTakeFirst()
   return row?.review_mail ?? false
 }
 
 export async function setReviewMail(db: Db, userId: string, shopId: string, on: boolean): Promise<boolean> {
-  const row = await db.updateTable("app_user").set({ review_mail: on }).where("id", "=", userId).where("shop_id", "=", shopId).returning("review_mail").executeTakeFirst()
+  const row = await db
+    .updateTable("app_user")
+    .set({ review_mail: on })
+    .where("id", "=", userId)
+    .where("shop_id", "=", shopId)
+    .returning("review_mail")
+    .executeTakeFirst()
   return row?.review_mail ?? false
 }

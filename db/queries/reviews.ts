@@ -42,13 +42,22 @@ export async function listReviewQueue(db: Db, shopId: string, cursor?: TimeCurso
     .orderBy("drive.finished_at", "asc")
     .orderBy("drive.id", "asc")
     .limit(REVIEW_PAGE_SIZE + 1)
-  if (cursor) q = q.where(sql<boolean>`(drive.finished_at, drive.id) > (${cursor.time}::timestamptz, ${cursor.id}::uuid)`)
-  return keysetPage(await q.execute(), REVIEW_PAGE_SIZE, (last) => (last.cursor_time ? `${last.cursor_time}|${last.id}` : null))
+  if (cursor)
+    q = q.where(sql<boolean>`(drive.finished_at, drive.id) > (${cursor.time}::timestamptz, ${cursor.id}::uuid)`)
+  return keysetPage(await q.execute(), REVIEW_PAGE_SIZE, (last) =>
+    last.cursor_time ? `${last.cursor_time}|${last.id}` : null,
+  )
 }
 
 // ---- deciding a review ----
 
-export type ReviewDecisionInput = { driveId: string; shopId: string; decision: "approve" | "redo"; note: string; reviewerId: string }
+export type ReviewDecisionInput = {
+  driveId: string
+  shopId: string
+  decision: "approve" | "redo"
+  note: string
+  reviewerId: string
+}
 
 /**
  * Stores the decision and closes the drive's review, only when nobody reviewed it first (the guard
@@ -68,7 +77,13 @@ export async function insertReviewDecision(trx: Db, input: ReviewDecisionInput) 
   if (!drive) return undefined
   const review = await trx
     .insertInto("review")
-    .values({ shop_id: input.shopId, drive_id: input.driveId, decision: input.decision, note: input.note, reviewer_id: input.reviewerId })
+    .values({
+      shop_id: input.shopId,
+      drive_id: input.driveId,
+      decision: input.decision,
+      note: input.note,
+      reviewer_id: input.reviewerId,
+    })
     .returningAll()
     .executeTakeFirstOrThrow()
   return { drive, review }
@@ -106,9 +121,13 @@ export async function findDriveRecordHead(db: Db, driveId: string, shopId: strin
     .leftJoin("job", (j) => j.onRef("job.id", "=", "drive.job_id").on("job.shop_id", "=", shopId))
     .leftJoin("vehicle", (j) => j.onRef("vehicle.id", "=", "job.vehicle_id").on("vehicle.shop_id", "=", shopId))
     .leftJoin("job_task as task", (j) => j.onRef("task.id", "=", "drive.task_id").on("task.shop_id", "=", shopId))
-    .leftJoin("condition_profile_version as pv", (j) => j.onRef("pv.id", "=", "drive.profile_version_id").on("pv.shop_id", "=", shopId))
+    .leftJoin("condition_profile_version as pv", (j) =>
+      j.onRef("pv.id", "=", "drive.profile_version_id").on("pv.shop_id", "=", shopId),
+    )
     .leftJoin("condition_profile as p", (j) => j.onRef("p.id", "=", "pv.profile_id").on("p.shop_id", "=", shopId))
-    .leftJoin("app_user as driver", (j) => j.onRef("driver.id", "=", "drive.driver_id").on("driver.shop_id", "=", shopId))
+    .leftJoin("app_user as driver", (j) =>
+      j.onRef("driver.id", "=", "drive.driver_id").on("driver.shop_id", "=", shopId),
+    )
     .leftJoin("app_user as co", (j) => j.onRef("co.id", "=", "drive.co_driver_id").on("co.shop_id", "=", shopId))
     .selectAll("drive")
     .select([
@@ -168,7 +187,11 @@ export async function listRecordPhotos(db: Db, jobId: string, taskId: string | n
  * is what grants access, so this is the one lookup by drive id alone. Every read after it filters by shop.
  */
 export async function findSharedDriveShop(db: Db, driveId: string) {
-  return db.selectFrom("drive").select(["id", "shop_id", "status", "share_epoch"]).where("id", "=", driveId).executeTakeFirst()
+  return db
+    .selectFrom("drive")
+    .select(["id", "shop_id", "status", "share_epoch"])
+    .where("id", "=", driveId)
+    .executeTakeFirst()
 }
 
 /** Withdraws every share link of the drive made so far; returns the new epoch, or undefined when not in the shop. */

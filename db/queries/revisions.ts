@@ -50,7 +50,18 @@ export async function listRevisions(db: Db, driveId: string, shopId: string) {
   return db
     .selectFrom("score_revision as r")
     .leftJoin("app_user as u", (j) => j.onRef("u.id", "=", "r.created_by").on("u.shop_id", "=", shopId))
-    .select(["r.id", "r.revision", "r.cause", "r.verdict", "r.result", "r.review_decision", "r.digest", "r.code", "r.created_at", "u.name as by_name"])
+    .select([
+      "r.id",
+      "r.revision",
+      "r.cause",
+      "r.verdict",
+      "r.result",
+      "r.review_decision",
+      "r.digest",
+      "r.code",
+      "r.created_at",
+      "u.name as by_name",
+    ])
     .where("r.drive_id", "=", driveId)
     .where("r.shop_id", "=", shopId)
     .orderBy("r.revision", "desc")
@@ -70,7 +81,11 @@ const PUBLIC_REVISION_COLUMNS = [
 ] as const
 
 export async function findRevisionByCode(db: Db, code: string) {
-  return db.selectFrom("score_revision as r").select(PUBLIC_REVISION_COLUMNS).where("r.code", "=", code).executeTakeFirst()
+  return db
+    .selectFrom("score_revision as r")
+    .select(PUBLIC_REVISION_COLUMNS)
+    .where("r.code", "=", code)
+    .executeTakeFirst()
 }
 
 export async function findRevisionByPdfHash(db: Db, pdfSha256: string) {
@@ -84,14 +99,32 @@ export async function findRevisionByPdfHash(db: Db, pdfSha256: string) {
     .executeTakeFirst()
 }
 
-export async function insertIssuedRecord(db: Db, v: { shopId: string; driveId: string; revisionId: string; pdfSha256: string; channel: "download" | "email" | "share" }) {
+export async function insertIssuedRecord(
+  db: Db,
+  v: {
+    shopId: string
+    driveId: string
+    revisionId: string
+    pdfSha256: string
+    channel: "download" | "email" | "share"
+  },
+) {
   await db
     .insertInto("issued_record")
-    .values({ shop_id: v.shopId, drive_id: v.driveId, revision_id: v.revisionId, pdf_sha256: v.pdfSha256, channel: v.channel })
+    .values({
+      shop_id: v.shopId,
+      drive_id: v.driveId,
+      revision_id: v.revisionId,
+      pdf_sha256: v.pdfSha256,
+      channel: v.channel,
+    })
     .execute()
 }
 
-export async function insertShareLink(db: Db, v: { tokenSha256: string; shopId: string; driveId: string; revision: number }) {
+export async function insertShareLink(
+  db: Db,
+  v: { tokenSha256: string; shopId: string; driveId: string; revision: number },
+) {
   await db
     .insertInto("share_link")
     .values({ token_sha256: v.tokenSha256, shop_id: v.shopId, drive_id: v.driveId, revision: v.revision })

@@ -28,10 +28,18 @@ const UPSERT_CHUNK = 2000
  * Adds a scored drive to its shop's road model (or replaces what an earlier score of it added).
  * Nothing happens when the shop has turned road knowledge off. Call inside the scoring transaction.
  */
-export async function updateRoadModel(db: Db, drive: Pick<Drive, "id" | "shop_id" | "profile_version_id">, score: Pick<Score, "clearedAtSeconds">, file?: AnyDriveFile) {
+export async function updateRoadModel(
+  db: Db,
+  drive: Pick<Drive, "id" | "shop_id" | "profile_version_id">,
+  score: Pick<Score, "clearedAtSeconds">,
+  file?: AnyDriveFile,
+) {
   const settings = await findShopSettings(db, drive.shop_id)
   if (!settings.roadKnowledge) return
-  const contribution = computeDriveContribution(file ?? (await loadDriveFile(db, drive.id, drive.shop_id)), settings.timeZone)
+  const contribution = computeDriveContribution(
+    file ?? (await loadDriveFile(db, drive.id, drive.shop_id)),
+    settings.timeZone,
+  )
   await applyDriveContribution(db, drive, score.clearedAtSeconds, contribution)
 }
 
@@ -55,10 +63,28 @@ export async function applyDriveContribution(
   for (const s of old ? statsFromStored(old.contribution as StoredBucket[]) : []) {
     const k = keyOf(s)
     const cur = delta.get(k)
-    delta.set(k, cur ? mergeStat(cur, s, -1) : mergeStat({ ...s, seconds: 0, qualifyingSeconds: 0, followingSeconds: 0, harshEvents: 0, speedHist: s.speedHist.map(() => 0) }, s, -1))
+    delta.set(
+      k,
+      cur
+        ? mergeStat(cur, s, -1)
+        : mergeStat(
+            {
+              ...s,
+              seconds: 0,
+              qualifyingSeconds: 0,
+              followingSeconds: 0,
+              harshEvents: 0,
+              speedHist: s.speedHist.map(() => 0),
+            },
+            s,
+            -1,
+          ),
+    )
   }
   // One order for every writer, so two drives scored at once lock the shared cell rows in the same order.
-  const ordered = [...delta.values()].sort((a, b) => a.hour - b.hour || a.weekday - b.weekday || (a.cell < b.cell ? -1 : a.cell > b.cell ? 1 : 0))
+  const ordered = [...delta.values()].sort(
+    (a, b) => a.hour - b.hour || a.weekday - b.weekday || (a.cell < b.cell ? -1 : a.cell > b.cell ? 1 : 0),
+  )
   // One statement with one array per column (not a parameter per value): a long drive touches ~1,000 rows.
   // The speed histograms travel as one flat array, each row taking its slice of SPEED_BUCKETS values.
   for (let i = 0; i < ordered.length; i += UPSERT_CHUNK) {
@@ -85,7 +111,14 @@ export async function applyDriveContribution(
     return
   }
   const profileId = drive.profile_version_id
-    ? ((await db.selectFrom("condition_profile_version").select("profile_id").where("id", "=", drive.profile_version_id).where("shop_id", "=", shopId).executeTakeFirst())?.profile_id ?? null)
+    ? ((
+        await db
+          .selectFrom("condition_profile_version")
+          .select("profile_id")
+          .where("id", "=", drive.profile_version_id)
+          .where("shop_id", "=", shopId)
+          .executeTakeFirst()
+      )?.profile_id ?? null)
     : null
   const loopId = old?.loop_id ?? (await loopFor(db, shopId, summary.loopCells))
   const values = {
@@ -114,20 +147,33 @@ export async function applyDriveContribution(
 
 /** A new token for the shop's road model (taken in the writer's transaction, so it serialises the shop's writers). */
 export async function bumpRoadModelVersion(db: Db, shopId: string) {
-  await sql`insert into road_model (shop_id) values (${shopId}) on conflict (shop_id) do update set version = gen_random_uuid(), updated_at = now()`.execute(db)
+  await sql`insert into road_model (shop_id) values (${shopId}) on conflict (shop_id) do update set version = gen_random_uuid(), updated_at = now()`.execute(
+    db,
+  )
 }
 
 /** The token of the shop's road model as it is now; null when the shop has none. */
 export async function findRoadModelVersion(db: Db, shopId: string): Promise<string | null> {
-  return (await db.selectFrom("road_model").select("version").where("shop_id", "=", shopId).executeTakeFirst())?.version ?? null
+  return (
+    (await db.selectFrom("road_model").select("version").where("shop_id", "=", shopId).executeTakeFirst())?.version ??
+    null
+  )
 }
 
 async function loopFor(db: Db, shopId: string, cells: string[]): Promise<string> {
-  const loops = await db.selectFrom("road_loop").select(["id", "cells", "number"]).where("shop_id", "=", shopId).execute()
+  const loops = await db
+    .selectFrom("road_loop")
+    .select(["id", "cells", "number"])
+    .where("shop_id", "=", shopId)
+    .execute()
   const match = matchLoop(cells, loops)
   if (match) return match.id
   const number = loops.reduce((m, l) => Math.max(m, l.number), 0) + 1
-  const { id } = await db.insertInto("road_loop").values({ shop_id: shopId, number, cells }).returning("id").executeTakeFirstOrThrow()
+  const { id } = await db
+    .insertInto("road_loop")
+    .values({ shop_id: shopId, number, cells })
+    .returning("id")
+    .executeTakeFirstOrThrow()
   return id
 }
 
@@ -140,7 +186,11 @@ export async function deleteRoadModel(db: Db, shopId: string) {
 }
 
 /** Cell totals for one local hour (any day), one weekday (any hour), or all times (both null). */
-export async function listCellTotals(db: Db, shopId: string, slot: { hour: number | null; weekday: number | null }): Promise<CellTotals[]> {
+export async function listCellTotals(
+  db: Db,
+  shopId: string,
+  slot: { hour: number | null; weekday: number | null },
+): Promise<CellTotals[]> {
   const rows = await db
     .selectFrom("road_cell_stat")
     .select(["cell", "seconds", "qualifying_seconds", "following_seconds", "harsh_events", "speed_hist"])
@@ -163,7 +213,18 @@ export async function listCellTotals(db: Db, shopId: string, slot: { hour: numbe
 export async function listLoopDrives(db: Db, shopId: string, hours?: number[]): Promise<LoopDrive[]> {
   let q = db
     .selectFrom("road_drive")
-    .select(["drive_id", "loop_id", "profile_id", "hour", "weekday", "start_lat", "start_lon", "driven_seconds", "qualifying_seconds", "cleared_seconds"])
+    .select([
+      "drive_id",
+      "loop_id",
+      "profile_id",
+      "hour",
+      "weekday",
+      "start_lat",
+      "start_lon",
+      "driven_seconds",
+      "qualifying_seconds",
+      "cleared_seconds",
+    ])
     .where("shop_id", "=", shopId)
   if (hours) q = q.where("hour", "in", hours)
   const rows = await q.execute()
@@ -182,23 +243,48 @@ export async function listLoopDrives(db: Db, shopId: string, hours?: number[]): 
 }
 
 export async function listLoops(db: Db, shopId: string) {
-  return db.selectFrom("road_loop").select(["id", "number", "name"]).where("shop_id", "=", shopId).orderBy("number").execute()
+  return db
+    .selectFrom("road_loop")
+    .select(["id", "number", "name"])
+    .where("shop_id", "=", shopId)
+    .orderBy("number")
+    .execute()
 }
 
-export async function findRoadTracks(db: Db, shopId: string, driveIds: string[]): Promise<Map<string, [number, number][]>> {
+export async function findRoadTracks(
+  db: Db,
+  shopId: string,
+  driveIds: string[],
+): Promise<Map<string, [number, number][]>> {
   if (!driveIds.length) return new Map()
-  const rows = await db.selectFrom("road_drive").select(["drive_id", "track"]).where("shop_id", "=", shopId).where("drive_id", "in", driveIds).execute()
+  const rows = await db
+    .selectFrom("road_drive")
+    .select(["drive_id", "track"])
+    .where("shop_id", "=", shopId)
+    .where("drive_id", "in", driveIds)
+    .execute()
   return new Map(rows.map((r) => [r.drive_id, r.track]))
 }
 
 /** The shop's place from where its drives start (median of up to the last 500 starts). */
 export async function findLocationFromStarts(db: Db, shopId: string) {
-  const rows = await db.selectFrom("road_drive").select(["start_lat", "start_lon"]).where("shop_id", "=", shopId).orderBy("started_at", "desc").limit(500).execute()
+  const rows = await db
+    .selectFrom("road_drive")
+    .select(["start_lat", "start_lon"])
+    .where("shop_id", "=", shopId)
+    .orderBy("started_at", "desc")
+    .limit(500)
+    .execute()
   return locationFromStarts(rows.map((r) => ({ lat: r.start_lat, lon: r.start_lon })))
 }
 
 export async function findLoopInShop(db: Db, loopId: string, shopId: string) {
-  return db.selectFrom("road_loop").select(["id", "number", "name"]).where("id", "=", loopId).where("shop_id", "=", shopId).executeTakeFirst()
+  return db
+    .selectFrom("road_loop")
+    .select(["id", "number", "name"])
+    .where("id", "=", loopId)
+    .where("shop_id", "=", shopId)
+    .executeTakeFirst()
 }
 
 export async function listDrivesOfLoop(db: Db, loopId: string, shopId: string) {

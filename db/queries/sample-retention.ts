@@ -25,7 +25,9 @@ export function retentionCutoffMs(now: Date, months: number): number {
 export async function runPartitionMaintenance(db: Db): Promise<void> {
   await db.transaction().execute(async (trx) => {
     await sql`set local timezone to 'UTC'`.execute(trx)
-    await sql`select partman.run_maintenance(p_parent_table => ${SAMPLE_PARENT}, p_analyze => false, p_jobmon => false)`.execute(trx)
+    await sql`select partman.run_maintenance(p_parent_table => ${SAMPLE_PARENT}, p_analyze => false, p_jobmon => false)`.execute(
+      trx,
+    )
   })
 }
 
@@ -62,7 +64,11 @@ export interface RetentionResult {
  * month (UTC). Safe to run again and from several processes at once (deletes of deleted rows find nothing;
  * a partition another run dropped is skipped).
  */
-export async function applySampleRetention(db: Db, now: Date = new Date(), lockTimeoutMs = DETACH_LOCK_TIMEOUT_MS): Promise<RetentionResult> {
+export async function applySampleRetention(
+  db: Db,
+  now: Date = new Date(),
+  lockTimeoutMs = DETACH_LOCK_TIMEOUT_MS,
+): Promise<RetentionResult> {
   const shops = await db
     .selectFrom("shop")
     .select(["id", sql<number>`(settings->>'sampleRetentionMonths')::int`.as("months")])
@@ -94,7 +100,10 @@ export async function applySampleRetention(db: Db, now: Date = new Date(), lockT
         if ((error as { code?: string }).code === "55P03") return false // busy: the next run tries again
         throw error
       }
-      const exists = await sql`select 1 from pg_class where relname = ${p.name} and relnamespace = 'public'::regnamespace`.execute(trx)
+      const exists =
+        await sql`select 1 from pg_class where relname = ${p.name} and relnamespace = 'public'::regnamespace`.execute(
+          trx,
+        )
       if (exists.rows.length === 0) return false
       const { rows } = await sql`select 1 from ${sql.table(p.name)} limit 1`.execute(trx)
       if (rows.length > 0) return false // some shop still keeps samples of this month

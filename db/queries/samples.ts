@@ -59,7 +59,12 @@ export async function insertSampleBatch(
  * turns them into rows (a VALUES list would hit PostgreSQL's 65,535-parameter limit at ~9,000 rows).
  * Returns how many rows were new.
  */
-export async function insertSamples(trx: Db, driveId: string, shopId: string, samples: readonly Sample[]): Promise<number> {
+export async function insertSamples(
+  trx: Db,
+  driveId: string,
+  shopId: string,
+  samples: readonly Sample[],
+): Promise<number> {
   if (samples.length === 0) return 0
   const { t, lat, lon, speed, accuracy } = encodeSampleColumns(samples)
   const result = await sql`
@@ -75,7 +80,9 @@ export async function insertSamples(trx: Db, driveId: string, shopId: string, sa
 
 /** The drive's key in `sample`, found by its id and shop: every read and write of samples goes through it. */
 function driveKeyQuery(driveId: string, shopId: string) {
-  return sql<{ sample_key: number }>`select sample_key from drive where id = ${driveId}::uuid and shop_id = ${shopId}::uuid`
+  return sql<{
+    sample_key: number
+  }>`select sample_key from drive where id = ${driveId}::uuid and shop_id = ${shopId}::uuid`
 }
 
 /** `(select sample_key ...)` as a value, for `where drive_key = ...`. */
@@ -117,7 +124,10 @@ export async function findDriveAndBatch(db: Db, driveId: string, shopId: string,
   const row = await db
     .selectFrom("drive")
     .leftJoin("sample_batch as b", (j) =>
-      j.onRef("b.drive_id", "=", "drive.id").onRef("b.shop_id", "=", "drive.shop_id").on("b.batch_id", "=", batchId ?? ""),
+      j
+        .onRef("b.drive_id", "=", "drive.id")
+        .onRef("b.shop_id", "=", "drive.shop_id")
+        .on("b.batch_id", "=", batchId ?? ""),
     )
     .selectAll("drive")
     .select(["b.accepted as batch_accepted", "b.duplicates as batch_duplicates"])
@@ -181,7 +191,9 @@ export async function ingestSampleBatch(
         case when n.accepted > 0 then ${samplesNotice(driveId, shopId, sql`n.rows`)} end as notified
       from b, n`.execute(db)
     const row = rows[0]
-    return row ? { accepted: row.accepted, duplicates: row.duplicates, replayed: false, storedTs: (row.ts ?? []).map(Number) } : null
+    return row
+      ? { accepted: row.accepted, duplicates: row.duplicates, replayed: false, storedTs: (row.ts ?? []).map(Number) }
+      : null
   } catch (error) {
     const e = error as { code?: string; constraint?: string }
     if (e.code !== "23505" || e.constraint !== "sample_batch_pk") throw error

@@ -28,7 +28,10 @@ export function listSetupRecordsForJob(db: Db, jobId: string, shopId: string) {
 }
 
 /** New figures replace the old ones and withdraw any override: a lead looks again at what is now recorded. */
-export async function upsertSetupRecord(db: Db, v: { taskId: string; jobId: string; shopId: string; userId: string; input: SetupInput }) {
+export async function upsertSetupRecord(
+  db: Db,
+  v: { taskId: string; jobId: string; shopId: string; userId: string; input: SetupInput },
+) {
   const values = {
     measurements: JSON.stringify(v.input.measurements),
     scan_result: v.input.scanResult,

@@ -28,6 +28,10 @@ export async function findShopSettings(db: Db, shopId: string): Promise<Resolved
 export async function updateShopSettings(db: Db, shopId: string, changes: ShopSettings) {
   const current = await findShopSettings(db, shopId)
   const next = { ...current, ...Object.fromEntries(Object.entries(changes).filter(([, v]) => v !== undefined)) }
-  await db.updateTable("shop").set({ settings: JSON.stringify(next) }).where("id", "=", shopId).execute()
+  await db
+    .updateTable("shop")
+    .set({ settings: JSON.stringify(next) })
+    .where("id", "=", shopId)
+    .execute()
   return next as ResolvedShopSettings
 }

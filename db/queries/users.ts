@@ -8,7 +8,12 @@ export function findUserByEmail(db: Db, email: string) {
 }
 
 export function findUserInShop(db: Db, id: string, shopId: string) {
-  return db.selectFrom("app_user").select(PUBLIC_COLUMNS).where("id", "=", id).where("shop_id", "=", shopId).executeTakeFirst()
+  return db
+    .selectFrom("app_user")
+    .select(PUBLIC_COLUMNS)
+    .where("id", "=", id)
+    .where("shop_id", "=", shopId)
+    .executeTakeFirst()
 }
 
 export function listUsersInShop(db: Db, shopId: string) {
@@ -34,7 +39,12 @@ export function insertUser(db: Db, user: NewAppUser) {
     .executeTakeFirstOrThrow()
 }
 
-export function updateUserInShop(db: Db, id: string, shopId: string, changes: { role?: Role; disabled?: boolean; name?: string }) {
+export function updateUserInShop(
+  db: Db,
+  id: string,
+  shopId: string,
+  changes: { role?: Role; disabled?: boolean; name?: string },
+) {
   return db
     .updateTable("app_user")
     .set(changes)

@@ -1,6 +1,12 @@
 import type { Db } from "../client"
 
-export type VehicleFields = { vin: string; year: number | null; make: string | null; model: string | null; plate: string | null }
+export type VehicleFields = {
+  vin: string
+  year: number | null
+  make: string | null
+  model: string | null
+  plate: string | null
+}
 
 /**
  * The shop's vehicle with this VIN, its details refreshed from the newest intake (a blank box keeps what

@@ -47,7 +47,6 @@ export function recordingIsOpen(drive: Pick<DriveAccessFacts, "reviewStatus">): 
   return drive.reviewStatus === null
 }
 
-
 interface TaskDriveFacts {
   /** Tasks whose method is only "static" need no drive. */
   needsDrive: boolean
@@ -100,16 +99,25 @@ export interface JobDriveRow {
 }
 
 /** The job's status from its tasks and all of its drives: each task is held to its latest drive. */
-export function jobStatusFromDrives({ tasks, drives }: { tasks: readonly JobTaskRow[]; drives: readonly JobDriveRow[] }): JobStatus {
+export function jobStatusFromDrives({
+  tasks,
+  drives,
+}: {
+  tasks: readonly JobTaskRow[]
+  drives: readonly JobDriveRow[]
+}): JobStatus {
   const latestByTask = new Map<string | null, JobDriveRow>()
   for (const d of drives) latestByTask.set(d.task_id, d) // ascending by start: the last one wins
   const toFacts = (d: JobDriveRow | undefined): TaskDriveFacts["latest"] =>
-    d ? { status: d.status, verdict: d.verdict, harshEvents: Number(d.harsh_events), reviewStatus: d.review_status } : null
+    d
+      ? { status: d.status, verdict: d.verdict, harshEvents: Number(d.harsh_events), reviewStatus: d.review_status }
+      : null
   const facts: TaskDriveFacts[] =
     tasks.length > 0
       ? tasks.map((t) => ({ needsDrive: t.method !== "static", latest: toFacts(latestByTask.get(t.id)) }))
       : [{ needsDrive: true, latest: toFacts(drives.at(-1)) }]
   // Drives on the job without a task count for the job as a whole.
-  if (tasks.length > 0 && latestByTask.has(null)) facts.push({ needsDrive: false, latest: toFacts(latestByTask.get(null)) })
+  if (tasks.length > 0 && latestByTask.has(null))
+    facts.push({ needsDrive: false, latest: toFacts(latestByTask.get(null)) })
   return jobStatusAfterFinish(facts)
 }

@@ -12,7 +12,8 @@ export interface DriveSpan {
 
 export function markWindow(span: DriveSpan): { fromMs: number | null; toMs: number | null } {
   const fromMs = span.firstSampleT === null ? null : span.firstSampleT - MARK_MARGIN_MS
-  const toMs = span.finishedAtMs === null ? null : Math.max(span.finishedAtMs, span.lastSampleT ?? -Infinity) + MARK_MARGIN_MS
+  const toMs =
+    span.finishedAtMs === null ? null : Math.max(span.finishedAtMs, span.lastSampleT ?? -Infinity) + MARK_MARGIN_MS
   return { fromMs, toMs }
 }
 
@@ -27,9 +28,11 @@ export function marksOutsideDrive(marks: ReadonlyArray<{ t: number }>, span: Dri
   const fields: Record<string, string> = {}
   marks.forEach((m, i) => {
     if (fromMs !== null && m.t < fromMs) {
-      fields[`marks.${i}.t`] = `is ${minutes(fromMs + MARK_MARGIN_MS - m.t)} min before the drive's first position; a mark must fall within the drive (up to 2 min before its start)`
+      fields[`marks.${i}.t`] =
+        `is ${minutes(fromMs + MARK_MARGIN_MS - m.t)} min before the drive's first position; a mark must fall within the drive (up to 2 min before its start)`
     } else if (toMs !== null && m.t > toMs) {
-      fields[`marks.${i}.t`] = `is ${minutes(m.t - (toMs - MARK_MARGIN_MS))} min after the drive finished; a mark must fall within the drive (up to 2 min after its finish)`
+      fields[`marks.${i}.t`] =
+        `is ${minutes(m.t - (toMs - MARK_MARGIN_MS))} min after the drive finished; a mark must fall within the drive (up to 2 min after its finish)`
     }
   })
   return fields

@@ -14,7 +14,10 @@ export function trustedProxyHops(value: string | undefined): number {
  */
 export function pickClientAddress(forwardedFor: string | null, hops: number): string | null {
   if (!hops || !forwardedFor) return null
-  const entries = forwardedFor.split(",").map((s) => s.trim()).filter(Boolean)
+  const entries = forwardedFor
+    .split(",")
+    .map((s) => s.trim())
+    .filter(Boolean)
   if (!entries.length) return null
   return entries[Math.max(0, entries.length - hops)] ?? null
 }

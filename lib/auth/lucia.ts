@@ -18,12 +18,19 @@ export class SessionAdapter extends NodePostgresAdapter {
   }
 
   override async getSessionAndUser(sessionId: string): Promise<[DatabaseSession | null, DatabaseUser | null]> {
-    const { rows } = await this.pool.query<SessionRow>({ name: "session-and-user", text: SESSION_AND_USER, values: [sessionId] })
+    const { rows } = await this.pool.query<SessionRow>({
+      name: "session-and-user",
+      text: SESSION_AND_USER,
+      values: [sessionId],
+    })
     const row = rows[0]
     if (!row) return [null, null]
     return [
       { id: row.id, userId: row.user_id, expiresAt: row.expires_at, attributes: {} },
-      { id: row.user_id, attributes: { email: row.email, name: row.name, role: row.role, shop_id: row.shop_id, disabled: row.disabled } },
+      {
+        id: row.user_id,
+        attributes: { email: row.email, name: row.name, role: row.role, shop_id: row.shop_id, disabled: row.disabled },
+      },
     ]
   }
 }
@@ -33,7 +40,16 @@ const SESSION_AND_USER = `
   from user_session s join app_user u on u.id = s.user_id
   where s.id = $1`
 
-type SessionRow = { id: string; user_id: string; expires_at: Date; email: string; name: string; role: Role; shop_id: string; disabled: boolean }
+type SessionRow = {
+  id: string
+  user_id: string
+  expires_at: Date
+  email: string
+  name: string
+  role: Role
+  shop_id: string
+  disabled: boolean
+}
 
 export function createLucia(pool: pg.Pool, { secure }: { secure: boolean }) {
   return new Lucia(new SessionAdapter(pool), {

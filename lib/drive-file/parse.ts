@@ -1,14 +1,17 @@
 import type { z } from "zod"
 import { fastParseDriveFile } from "./fast-check"
-import { DRIVE_FORMAT, DRIVE_FORMAT_2, driveFileSchema, driveFileSchema2, type AnyDriveFile, type DriveFile } from "./schema"
+import {
+  DRIVE_FORMAT,
+  DRIVE_FORMAT_2,
+  driveFileSchema,
+  driveFileSchema2,
+  type AnyDriveFile,
+  type DriveFile,
+} from "./schema"
 
-export type ParseAnyDriveFileResult =
-  | { ok: true; file: AnyDriveFile }
-  | { ok: false; path: string; message: string }
+export type ParseAnyDriveFileResult = { ok: true; file: AnyDriveFile } | { ok: false; path: string; message: string }
 
-export type ParseDriveFileResult =
-  | { ok: true; file: DriveFile }
-  | { ok: false; path: string; message: string }
+export type ParseDriveFileResult = { ok: true; file: DriveFile } | { ok: false; path: string; message: string }
 
 /** Path of the whole document, used when the file itself is not an object. */
 const ROOT_PATH = "file"

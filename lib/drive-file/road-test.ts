@@ -4,7 +4,14 @@ import { z } from "zod"
 // below are common practice, no published source; the vehicle maker's service information comes first,
 // and a shop lead edits them per condition profile (each edit is a new profile version).
 
-export const ROAD_TEST_SYSTEMS = ["forward_radar", "forward_camera", "corner_radar", "rear_radar", "surround_camera", "other"] as const
+export const ROAD_TEST_SYSTEMS = [
+  "forward_radar",
+  "forward_camera",
+  "corner_radar",
+  "rear_radar",
+  "surround_camera",
+  "other",
+] as const
 export type RoadTestSystem = (typeof ROAD_TEST_SYSTEMS)[number]
 
 export const CHECK_RESULTS = ["pass", "fail", "not_equipped"] as const
@@ -33,7 +40,10 @@ const roadTestCheckSchema = z.object({
     .max(200, { error: "must be at most 200 characters" }),
   /** Slowest speed at which a pass counts; null = any speed (a parking-lot check). */
   minSpeedMph: z
-    .number({ error: (iss) => (iss.input === undefined ? "is required (a number, or null for any speed)" : "must be a number or null") })
+    .number({
+      error: (iss) =>
+        iss.input === undefined ? "is required (a number, or null for any speed)" : "must be a number or null",
+    })
     .min(0, { error: "must be 0 mph or more" })
     .max(200, { error: "must be at most 200 mph" })
     .nullable(),
@@ -53,8 +63,13 @@ export const roadTestChecksSchema = z
     })
   })
 
-const check = (system: RoadTestSystem, key: string, label: string, minSpeedMph: number | null, need: CheckNeed): RoadTestCheck =>
-  Object.freeze({ key, system, label, minSpeedMph, need })
+const check = (
+  system: RoadTestSystem,
+  key: string,
+  label: string,
+  minSpeedMph: number | null,
+  need: CheckNeed,
+): RoadTestCheck => Object.freeze({ key, system, label, minSpeedMph, need })
 
 /**
  * Default checks per system: common practice, no published source. Speeds are typical engagement
@@ -63,7 +78,13 @@ const check = (system: RoadTestSystem, key: string, label: string, minSpeedMph: 
 export const DEFAULT_ROAD_TEST_CHECKS: Readonly<Record<RoadTestSystem, readonly RoadTestCheck[]>> = Object.freeze({
   forward_radar: [
     check("forward_radar", "acc-engages", "Adaptive cruise engages at or above its speed", 25, "required"),
-    check("forward_radar", "acc-follows-lead", "Adaptive cruise holds a gap behind a lead vehicle and slows with it", 25, "required"),
+    check(
+      "forward_radar",
+      "acc-follows-lead",
+      "Adaptive cruise holds a gap behind a lead vehicle and slows with it",
+      25,
+      "required",
+    ),
   ],
   forward_camera: [
     check("forward_camera", "lane-keeping-engages", "Lane keeping or centring engages on marked lanes", 40, "required"),
@@ -73,16 +94,40 @@ export const DEFAULT_ROAD_TEST_CHECKS: Readonly<Record<RoadTestSystem, readonly 
   corner_radar: [
     check("corner_radar", "blind-spot-left", "Blind-spot alert, left side, as a vehicle passes", 20, "required"),
     check("corner_radar", "blind-spot-right", "Blind-spot alert, right side, as a vehicle passes", 20, "required"),
-    check("corner_radar", "rear-cross-traffic", "Rear cross-traffic alert reversing out of a space", null, "where_equipped"),
+    check(
+      "corner_radar",
+      "rear-cross-traffic",
+      "Rear cross-traffic alert reversing out of a space",
+      null,
+      "where_equipped",
+    ),
   ],
   rear_radar: [
     check("rear_radar", "blind-spot-left", "Blind-spot alert, left side, as a vehicle passes", 20, "required"),
     check("rear_radar", "blind-spot-right", "Blind-spot alert, right side, as a vehicle passes", 20, "required"),
-    check("rear_radar", "rear-cross-traffic", "Rear cross-traffic alert reversing out of a space", null, "where_equipped"),
+    check(
+      "rear_radar",
+      "rear-cross-traffic",
+      "Rear cross-traffic alert reversing out of a space",
+      null,
+      "where_equipped",
+    ),
   ],
   surround_camera: [
-    check("surround_camera", "surround-views-aligned", "Each camera view lines up with its neighbours", null, "required"),
-    check("surround_camera", "surround-guide-lines", "Guide lines are straight and where they belong", null, "required"),
+    check(
+      "surround_camera",
+      "surround-views-aligned",
+      "Each camera view lines up with its neighbours",
+      null,
+      "required",
+    ),
+    check(
+      "surround_camera",
+      "surround-guide-lines",
+      "Guide lines are straight and where they belong",
+      null,
+      "required",
+    ),
   ],
   other: [],
 })

@@ -21,11 +21,9 @@ const NOTE_MAX_CHARS = 2000
 
 // Every check carries its own plain message; issueMessage() covers zod's generic type errors.
 const finite = (what: string) => z.number({ error: (iss) => typeMessage(iss.input, what) })
-const nonNegative = (unit: string) =>
-  finite("a number").min(0, { error: `must be 0 ${unit} or more` })
+const nonNegative = (unit: string) => finite("a number").min(0, { error: `must be 0 ${unit} or more` })
 const nullableNonNegative = (unit: string) => nonNegative(unit).nullable().optional()
-const positive = (unit: string) =>
-  finite("a number").gt(0, { error: `must be more than 0 ${unit}` })
+const positive = (unit: string) => finite("a number").gt(0, { error: `must be more than 0 ${unit}` })
 
 const timeMs = finite("a number")
   .int({ error: "must be a whole number of milliseconds" })
@@ -63,8 +61,10 @@ type MarkShape = z.output<typeof markObject2>
 
 function checkMarkFields(mark: MarkShape, ctx: z.core.$RefinementCtx<MarkShape>) {
   if (mark.kind === "check") {
-    if (mark.checkKey === undefined) ctx.addIssue({ code: "custom", path: ["checkKey"], message: "is required for a check mark" })
-    if (mark.result === undefined) ctx.addIssue({ code: "custom", path: ["result"], message: "is required for a check mark" })
+    if (mark.checkKey === undefined)
+      ctx.addIssue({ code: "custom", path: ["checkKey"], message: "is required for a check mark" })
+    if (mark.result === undefined)
+      ctx.addIssue({ code: "custom", path: ["result"], message: "is required for a check mark" })
   }
   if (mark.kind === "gap" && (mark.gapFt === undefined || mark.gapFt === null)) {
     ctx.addIssue({ code: "custom", path: ["gapFt"], message: "is required for a gap mark" })
@@ -84,29 +84,36 @@ export const apiMarkSchema = markObject2
   .superRefine(checkMarkFields)
 
 export const profileSchema = z
-  .object({
-    minSpeedMph: nonNegative("mph").optional(),
-    maxSpeedMph: positive("mph").nullable().optional(),
-    leadGapFt: z
-      .object(
-        { min: nonNegative("ft").optional(), max: nonNegative("ft").optional() },
-        { error: (iss) => typeMessage(iss.input, "an object") },
-      )
-      .optional(),
-    minQualifyingMinutes: nonNegative("minutes").optional(),
-    minFollowingMinutes: nonNegative("minutes").optional(),
-    maxDriveMinutes: positive("minutes").optional(),
-    maxAccelMps2: positive("m/s²").optional(),
-    maxDecelMps2: positive("m/s²").optional(),
-    maxGapSeconds: positive("s").optional(),
-    maxAccuracyM: nonNegative("m").optional(),
-    verifySpeedMph: nonNegative("mph").optional(),
-  }, { error: (iss) => typeMessage(iss.input, "an object") })
+  .object(
+    {
+      minSpeedMph: nonNegative("mph").optional(),
+      maxSpeedMph: positive("mph").nullable().optional(),
+      leadGapFt: z
+        .object(
+          { min: nonNegative("ft").optional(), max: nonNegative("ft").optional() },
+          { error: (iss) => typeMessage(iss.input, "an object") },
+        )
+        .optional(),
+      minQualifyingMinutes: nonNegative("minutes").optional(),
+      minFollowingMinutes: nonNegative("minutes").optional(),
+      maxDriveMinutes: positive("minutes").optional(),
+      maxAccelMps2: positive("m/s²").optional(),
+      maxDecelMps2: positive("m/s²").optional(),
+      maxGapSeconds: positive("s").optional(),
+      maxAccuracyM: nonNegative("m").optional(),
+      verifySpeedMph: nonNegative("mph").optional(),
+    },
+    { error: (iss) => typeMessage(iss.input, "an object") },
+  )
   .superRefine((p, ctx) => {
     const min = p.leadGapFt?.min ?? 100
     const max = p.leadGapFt?.max ?? 165
     if (min > max) {
-      ctx.addIssue({ code: "custom", path: ["leadGapFt", "max"], message: `must be at least leadGapFt.min (${min} ft)` })
+      ctx.addIssue({
+        code: "custom",
+        path: ["leadGapFt", "max"],
+        message: `must be at least leadGapFt.min (${min} ft)`,
+      })
     }
     const minSpeed = p.minSpeedMph ?? 35
     if (p.maxSpeedMph !== undefined && p.maxSpeedMph !== null && p.maxSpeedMph < minSpeed) {
@@ -144,12 +151,20 @@ export const driveFileSchema2 = z
   .superRefine((file, ctx) => {
     const checks = file.roadTest?.checks ?? []
     if (file.kind !== "learn" && checks.length === 0) {
-      ctx.addIssue({ code: "custom", path: ["roadTest", "checks"], message: `must hold at least one check for a ${file.kind} drive` })
+      ctx.addIssue({
+        code: "custom",
+        path: ["roadTest", "checks"],
+        message: `must hold at least one check for a ${file.kind} drive`,
+      })
     }
     const keys = new Set(checks.map((c) => c.key))
     file.marks.forEach((m, i) => {
       if (m.kind === "check" && m.checkKey !== undefined && !keys.has(m.checkKey)) {
-        ctx.addIssue({ code: "custom", path: ["marks", i, "checkKey"], message: "is not one of the file's roadTest.checks" })
+        ctx.addIssue({
+          code: "custom",
+          path: ["marks", i, "checkKey"],
+          message: "is not one of the file's roadTest.checks",
+        })
       }
     })
   })

@@ -28,7 +28,13 @@ export function encodeMillis(x: number | null | undefined): number | null {
 }
 
 /** A sample as read back from its stored integers (null speed or accuracy left out, as listSamples does). */
-export function decodeSample(t: number, lat: number, lon: number, speed: number | null, accuracy: number | null): Sample {
+export function decodeSample(
+  t: number,
+  lat: number,
+  lon: number,
+  speed: number | null,
+  accuracy: number | null,
+): Sample {
   const s: Sample = { t, lat: lat / DEGREE_SCALE, lon: lon / DEGREE_SCALE }
   if (speed !== null) s.speed = speed / MILLI_SCALE
   if (accuracy !== null) s.accuracy = accuracy / MILLI_SCALE

@@ -119,7 +119,11 @@ function positionAt(kept: readonly { t: number; lat: number; lon: number }[], ms
 }
 
 /** The position at `ms` on the straight line from `a` to `b` (a.t <= ms < b.t), across the 180° meridian too. */
-export function between(a: { t: number; lat: number; lon: number }, b: { t: number; lat: number; lon: number }, ms: number): [number, number] {
+export function between(
+  a: { t: number; lat: number; lon: number },
+  b: { t: number; lat: number; lon: number },
+  ms: number,
+): [number, number] {
   const f = (ms - a.t) / (b.t - a.t)
   let dLon = b.lon - a.lon
   if (dLon > 180) dLon -= 360
@@ -131,13 +135,15 @@ export function between(a: { t: number; lat: number; lon: number }, b: { t: numb
 }
 
 function escapeXml(s: string): string {
-  return s
-    .replace(/&/g, "&amp;")
-    .replace(/</g, "&lt;")
-    .replace(/>/g, "&gt;")
-    .replace(/"/g, "&quot;")
-    .replace(/'/g, "&apos;")
-    // XML 1.0 section 2.2 Char: tab, LF, CR, U+0020-U+D7FF, U+E000-U+FFFD, U+10000-U+10FFFF; anything else (other
-    // controls, U+FFFE, U+FFFF, a lone surrogate) makes the file not XML at all, so it is left out.
-    .replace(/[^\t\n\r\u0020-\uD7FF\uE000-\uFFFD\u{10000}-\u{10FFFF}]/gu, "")
+  return (
+    s
+      .replace(/&/g, "&amp;")
+      .replace(/</g, "&lt;")
+      .replace(/>/g, "&gt;")
+      .replace(/"/g, "&quot;")
+      .replace(/'/g, "&apos;")
+      // XML 1.0 section 2.2 Char: tab, LF, CR, U+0020-U+D7FF, U+E000-U+FFFD, U+10000-U+10FFFF; anything else (other
+      // controls, U+FFFE, U+FFFF, a lone surrogate) makes the file not XML at all, so it is left out.
+      .replace(/[^\t\n\r\u0020-\uD7FF\uE000-\uFFFD\u{10000}-\u{10FFFF}]/gu, "")
+  )
 }

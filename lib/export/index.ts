@@ -1,3 +1,3 @@
-export { toGpx,   } from "./gpx"
+export { toGpx } from "./gpx"
 
-export { toCsv, toMarksCsv, csvField, SAMPLE_CSV_COLUMNS,  } from "./csv"
+export { toCsv, toMarksCsv, csvField, SAMPLE_CSV_COLUMNS } from "./csv"

@@ -18,7 +18,8 @@ export function classifySamples(file: DriveFile): SampleRow[] {
     .sort((a, b) => a.sample.t - b.sample.t || a.index - b.index)
   const seen = new Set<number>()
   return rows.map(({ sample }) => {
-    if (sample.accuracy != null && sample.accuracy > maxAccuracyM) return { sample, kept: false, dropReason: "accuracy" }
+    if (sample.accuracy != null && sample.accuracy > maxAccuracyM)
+      return { sample, kept: false, dropReason: "accuracy" }
     if (seen.has(sample.t)) return { sample, kept: false, dropReason: "duplicate-time" }
     seen.add(sample.t)
     return { sample, kept: true, dropReason: null }

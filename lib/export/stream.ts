@@ -43,7 +43,8 @@ function classifier(head: DriveFileHead) {
   const { maxAccuracyM } = resolveProfile(head.profile)
   let lastKeptT: number | undefined
   return (sample: Sample): SampleRow => {
-    if (sample.accuracy != null && sample.accuracy > maxAccuracyM) return { sample, kept: false, dropReason: "accuracy" }
+    if (sample.accuracy != null && sample.accuracy > maxAccuracyM)
+      return { sample, kept: false, dropReason: "accuracy" }
     if (sample.t === lastKeptT) return { sample, kept: false, dropReason: "duplicate-time" }
     lastKeptT = sample.t
     return { sample, kept: true, dropReason: null }
@@ -70,7 +71,12 @@ function positionFromAround({ before, after }: Around, ms: number): [number, num
 }
 
 /** toGpx, streamed. */
-export async function* gpxChunks(head: DriveFileHead, lookahead: GpxLookahead, samples: SampleChunks, meta: GpxMeta = {}): AsyncGenerator<string> {
+export async function* gpxChunks(
+  head: DriveFileHead,
+  lookahead: GpxLookahead,
+  samples: SampleChunks,
+  meta: GpxMeta = {},
+): AsyncGenerator<string> {
   const maxGapMs = resolveProfile(head.profile).maxGapSeconds * 1000
   const classify = classifier(head)
   const leadAt = leadTracker(head.marks)
@@ -125,7 +131,8 @@ export async function* driveFileChunks(head: DriveFileHead, samples: SampleChunk
   const standIn = "\u0000samples\u0000"
   const whole = JSON.stringify({ ...head, samples: standIn })
   const at = whole.indexOf(JSON.stringify(standIn))
-  if (at < 0 || whole.indexOf(JSON.stringify(standIn), at + 1) >= 0) throw new Error("the drive file's samples could not be placed")
+  if (at < 0 || whole.indexOf(JSON.stringify(standIn), at + 1) >= 0)
+    throw new Error("the drive file's samples could not be placed")
   yield whole.slice(0, at) + "["
   let first = true
   const out: string[] = []

@@ -1,6 +1,14 @@
 import { resolveProfile, type ResolvedProfile } from "@/lib/drive-file/profile"
 import type { Condition, Score } from "@/lib/scoring/types"
-import { formatAcceleration, formatDuration, formatLengthFt, formatMinutesSetting, formatSpeedMph, plural, type UnitSystem } from "./index"
+import {
+  formatAcceleration,
+  formatDuration,
+  formatLengthFt,
+  formatMinutesSetting,
+  formatSpeedMph,
+  plural,
+  type UnitSystem,
+} from "./index"
 
 // The scorer writes its labels and reasons in mph, feet and decimal minutes (its stored output is a contract).
 // People read them here again, from the same figures, in the shop's units and the one duration style.
@@ -22,7 +30,9 @@ function profileOf(score: Pick<Score, "profile">): ResolvedProfile {
 }
 
 function speedBand(p: ResolvedProfile, units: UnitSystem): string {
-  return p.maxSpeedMph === null ? `${formatSpeedMph(p.minSpeedMph, units)} or faster` : `${formatSpeedMph(p.minSpeedMph, units)} to ${formatSpeedMph(p.maxSpeedMph, units)}`
+  return p.maxSpeedMph === null
+    ? `${formatSpeedMph(p.minSpeedMph, units)} or faster`
+    : `${formatSpeedMph(p.minSpeedMph, units)} to ${formatSpeedMph(p.maxSpeedMph, units)}`
 }
 
 function gapWindow(p: ResolvedProfile, units: UnitSystem): string {
@@ -89,7 +99,9 @@ function reason(c: Condition, score: Score, p: ResolvedProfile, units: UnitSyste
       return `Position data stopped for ${formatDuration(c.value)} in total (pauses over ${formatDuration(p.maxGapSeconds)}); that time counts toward nothing.`
     case "verified":
       if (!cleared) return "Not checked: the learn never completed."
-      return c.reason.replace(/(\d+(?:\.\d+)?) mph/g, (_, mph: string) => formatSpeedMph(Number(mph), units)).replace(/after the clear/g, "after the learn completed")
+      return c.reason
+        .replace(/(\d+(?:\.\d+)?) mph/g, (_, mph: string) => formatSpeedMph(Number(mph), units))
+        .replace(/after the clear/g, "after the learn completed")
     default:
       return c.reason
   }

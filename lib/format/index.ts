@@ -59,44 +59,72 @@ function toDate(at: Moment): Date {
   return at instanceof Date ? at : new Date(at)
 }
 
-const DATE_TIME: Intl.DateTimeFormatOptions = { month: "short", day: "numeric", year: "numeric", hour: "numeric", minute: "2-digit" }
+const DATE_TIME: Intl.DateTimeFormatOptions = {
+  month: "short",
+  day: "numeric",
+  year: "numeric",
+  hour: "numeric",
+  minute: "2-digit",
+}
 
 /** "Dec 2, 2026, 9:42 AM", with the zone's short name after it when `zoneName` ("… 9:42 AM CST"). */
 export function formatDateTime(at: Moment, timeZone?: string | null, opts: { zoneName?: boolean } = {}): string {
   const d = toDate(at)
   if (Number.isNaN(d.getTime())) return "—"
-  return new Intl.DateTimeFormat("en-US", { ...DATE_TIME, timeZone: zoneOrDefault(timeZone), ...(opts.zoneName ? { timeZoneName: "short" } : {}) }).format(d)
+  return new Intl.DateTimeFormat("en-US", {
+    ...DATE_TIME,
+    timeZone: zoneOrDefault(timeZone),
+    ...(opts.zoneName ? { timeZoneName: "short" } : {}),
+  }).format(d)
 }
 
 /** "Dec 2, 2026" */
 export function formatDate(at: Moment, timeZone?: string | null): string {
   const d = toDate(at)
   if (Number.isNaN(d.getTime())) return "—"
-  return new Intl.DateTimeFormat("en-US", { month: "short", day: "numeric", year: "numeric", timeZone: zoneOrDefault(timeZone) }).format(d)
+  return new Intl.DateTimeFormat("en-US", {
+    month: "short",
+    day: "numeric",
+    year: "numeric",
+    timeZone: zoneOrDefault(timeZone),
+  }).format(d)
 }
 
 /** "Dec 2": a day on a chart axis, where the year is plain from the range. */
 export function formatDay(at: Moment, timeZone?: string | null): string {
   const d = toDate(at)
   if (Number.isNaN(d.getTime())) return "—"
-  return new Intl.DateTimeFormat("en-US", { month: "short", day: "numeric", timeZone: zoneOrDefault(timeZone) }).format(d)
+  return new Intl.DateTimeFormat("en-US", { month: "short", day: "numeric", timeZone: zoneOrDefault(timeZone) }).format(
+    d,
+  )
 }
 
 /** "9:42 AM" */
 export function formatTime(at: Moment, timeZone?: string | null): string {
   const d = toDate(at)
   if (Number.isNaN(d.getTime())) return "—"
-  return new Intl.DateTimeFormat("en-US", { hour: "numeric", minute: "2-digit", timeZone: zoneOrDefault(timeZone) }).format(d)
+  return new Intl.DateTimeFormat("en-US", {
+    hour: "numeric",
+    minute: "2-digit",
+    timeZone: zoneOrDefault(timeZone),
+  }).format(d)
 }
 
 /** An hour of the shop's day (0-23), in formatTime's style: 9 -> "9:00 AM", 0 -> "12:00 AM". */
 export function formatHour(hour: number): string {
-  return new Intl.DateTimeFormat("en-US", { hour: "numeric", minute: "2-digit", timeZone: "UTC" }).format(Date.UTC(2000, 0, 1, ((hour % 24) + 24) % 24))
+  return new Intl.DateTimeFormat("en-US", { hour: "numeric", minute: "2-digit", timeZone: "UTC" }).format(
+    Date.UTC(2000, 0, 1, ((hour % 24) + 24) % 24),
+  )
 }
 
 /** The calendar day in the zone as YYYY-MM-DD (file names, grouping by day). */
 export function isoDay(at: Moment, timeZone?: string | null): string {
-  const parts = new Intl.DateTimeFormat("en-CA", { year: "numeric", month: "2-digit", day: "2-digit", timeZone: zoneOrDefault(timeZone) }).formatToParts(toDate(at))
+  const parts = new Intl.DateTimeFormat("en-CA", {
+    year: "numeric",
+    month: "2-digit",
+    day: "2-digit",
+    timeZone: zoneOrDefault(timeZone),
+  }).formatToParts(toDate(at))
   const get = (t: string) => parts.find((p) => p.type === t)?.value ?? ""
   return `${get("year")}-${get("month")}-${get("day")}`
 }
@@ -117,7 +145,14 @@ export function isoLocalDateTime(at: Moment, timeZone?: string | null): string {
   const d = toDate(at)
   if (Number.isNaN(d.getTime())) return ""
   const parts = new Intl.DateTimeFormat("en-CA", {
-    year: "numeric", month: "2-digit", day: "2-digit", hour: "2-digit", minute: "2-digit", second: "2-digit", hourCycle: "h23", timeZone: zoneOrDefault(timeZone),
+    year: "numeric",
+    month: "2-digit",
+    day: "2-digit",
+    hour: "2-digit",
+    minute: "2-digit",
+    second: "2-digit",
+    hourCycle: "h23",
+    timeZone: zoneOrDefault(timeZone),
   }).formatToParts(d)
   const get = (t: string) => Number(parts.find((p) => p.type === t)?.value ?? 0)
   const wallMs = Date.UTC(get("year"), get("month") - 1, get("day"), get("hour"), get("minute"), get("second"))
@@ -131,7 +166,9 @@ export function isoLocalDateTime(at: Moment, timeZone?: string | null): string {
 /** "America/Chicago (CST)": the zone as the PDF names it; the short name is the one in force at `at`. */
 export function describeTimeZone(timeZone?: string | null, at: Moment = Date.now()): string {
   const zone = zoneOrDefault(timeZone)
-  const short = new Intl.DateTimeFormat("en-US", { timeZone: zone, timeZoneName: "short" }).formatToParts(toDate(at)).find((p) => p.type === "timeZoneName")?.value
+  const short = new Intl.DateTimeFormat("en-US", { timeZone: zone, timeZoneName: "short" })
+    .formatToParts(toDate(at))
+    .find((p) => p.type === "timeZoneName")?.value
   return short && short !== zone ? `${zone} (${short})` : zone
 }
 

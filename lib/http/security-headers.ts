@@ -6,7 +6,10 @@
  * `uploadOrigin`: the object store the browser PUTs photos to through presigned addresses (S3_ENDPOINT's origin);
  * without it in connect-src the upload itself would be refused.
  */
-export function contentSecurityPolicy(nonce: string, { https, dev, uploadOrigin }: { https: boolean; dev: boolean; uploadOrigin?: string | null }): string {
+export function contentSecurityPolicy(
+  nonce: string,
+  { https, dev, uploadOrigin }: { https: boolean; dev: boolean; uploadOrigin?: string | null },
+): string {
   return [
     "default-src 'self'",
     `script-src 'self' 'nonce-${nonce}' 'strict-dynamic'${dev ? " 'unsafe-eval'" : ""}`,

@@ -23,10 +23,15 @@ export function checkWords(c: RecordCheck): string {
 export function calibrationCautions(sensor: string, method: string): string[] {
   const out: string[] = []
   if (method !== "dynamic") {
-    out.push("Set-up figures are the shop's entries from the vehicle maker's service information; Straightaway holds no maker's values.")
+    out.push(
+      "Set-up figures are the shop's entries from the vehicle maker's service information; Straightaway holds no maker's values.",
+    )
   }
   out.push("Road-test checks were tried only where safe and legal; the driver never operated the phone while moving.")
-  if (sensor === "corner_radar" || sensor === "rear_radar") out.push("Blind-spot and cross-traffic alerts assist the driver; they never replace looking.")
-  out.push("The vehicle's own status (no driver-assist fault codes, the function working) has the final word over this record.")
+  if (sensor === "corner_radar" || sensor === "rear_radar")
+    out.push("Blind-spot and cross-traffic alerts assist the driver; they never replace looking.")
+  out.push(
+    "The vehicle's own status (no driver-assist fault codes, the function working) has the final word over this record.",
+  )
   return out
 }

@@ -6,7 +6,12 @@
 import type { TimelinePoint } from "./timeline"
 
 /** Indices LTTB keeps out of `n` points with x(i), y(i), `threshold` of them (first and last included). */
-export function lttbIndices(n: number, x: (i: number) => number, y: (i: number) => number, threshold: number): number[] {
+export function lttbIndices(
+  n: number,
+  x: (i: number) => number,
+  y: (i: number) => number,
+  threshold: number,
+): number[] {
   if (threshold >= n) return Array.from({ length: n }, (_, i) => i)
   if (threshold < 3) return n === 1 ? [0] : [0, n - 1]
   const out = [0]
@@ -58,7 +63,10 @@ export function downsampleTimeline(points: readonly TimelinePoint[], max = 2000)
     else runs.at(-1)!.to = i
   }
   const edgeBudget = Math.floor(max / 2)
-  const kept = runs.length * 2 <= edgeBudget ? runs : [...runs].sort((p, q) => q.to - q.from - (p.to - p.from)).slice(0, Math.floor(edgeBudget / 2))
+  const kept =
+    runs.length * 2 <= edgeBudget
+      ? runs
+      : [...runs].sort((p, q) => q.to - q.from - (p.to - p.from)).slice(0, Math.floor(edgeBudget / 2))
   const keep = new Set<number>([0, n - 1])
   for (const r of kept) {
     keep.add(r.from)

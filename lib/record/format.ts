@@ -1,6 +1,11 @@
 import type { Verdict } from "@/lib/scoring/types"
 
-export const VERDICT_WORD: Record<Verdict, string> = { met: "Met", short: "Short", not_met: "Not met", unverified: "Unverified" }
+export const VERDICT_WORD: Record<Verdict, string> = {
+  met: "Met",
+  short: "Short",
+  not_met: "Not met",
+  unverified: "Unverified",
+}
 
 // One duration style everywhere (lib/format).
 export { formatDuration } from "@/lib/format"
@@ -8,7 +13,10 @@ export { formatDuration } from "@/lib/format"
 // One set of words for task values everywhere: the job pages, the recorder and the record.
 export { MARK_LABEL, METHOD_LABEL, REASON_LABEL, SENSOR_LABEL } from "@/lib/labels"
 
-export function describeVehicle(v: { year: number | null; make: string | null; model: string | null } | null, fallback?: string | null) {
+export function describeVehicle(
+  v: { year: number | null; make: string | null; model: string | null } | null,
+  fallback?: string | null,
+) {
   if (!v) return fallback ?? "Vehicle not named"
   return [v.year, v.make, v.model].filter(Boolean).join(" ") || fallback || "Vehicle not named"
 }

@@ -33,28 +33,53 @@ export function drawQrCode(page: PDFPage, text: string, x: number, top: number, 
   for (let r = 0; r < n; r++) {
     for (let c = 0; c < n; c++) {
       if (!qr.modules.get(r, c)) continue
-      page.drawRectangle({ x: x + (quiet + c) * cell, y: top - (quiet + r + 1) * cell, width: cell, height: cell, color: INK })
+      page.drawRectangle({
+        x: x + (quiet + c) * cell,
+        y: top - (quiet + r + 1) * cell,
+        width: cell,
+        height: cell,
+        color: INK,
+      })
     }
   }
   return side
 }
 
 /** The text lines beside the QR code. */
-export function verificationLines(seal: RecordSeal, timeZone?: string | null): Array<{ text: string; bold?: boolean; muted?: boolean }> {
+export function verificationLines(
+  seal: RecordSeal,
+  timeZone?: string | null,
+): Array<{ text: string; bold?: boolean; muted?: boolean }> {
   return [
     { text: `Verification code: ${seal.code}`, bold: true },
     { text: `Revision ${seal.revision}, sealed ${sealedAtWords(seal, timeZone)}.` },
     { text: `Check it at ${seal.verifyUrl}: scan the square or type the code, or upload this PDF.` },
     { text: "The page says whether this is the latest revision of the record the shop issued.", muted: true },
-    { text: "Every change to the drive's record after the finish makes a new revision with its own code.", muted: true },
+    {
+      text: "Every change to the drive's record after the finish makes a new revision with its own code.",
+      muted: true,
+    },
   ]
 }
 
-export function drawVerificationText(page: PDFPage, fonts: { font: PDFFont; bold: PDFFont }, lines: string[][], x: number, top: number, styles: Array<{ bold?: boolean; muted?: boolean }>) {
+export function drawVerificationText(
+  page: PDFPage,
+  fonts: { font: PDFFont; bold: PDFFont },
+  lines: string[][],
+  x: number,
+  top: number,
+  styles: Array<{ bold?: boolean; muted?: boolean }>,
+) {
   let y = top
   lines.forEach((wrapped, i) => {
     for (const line of wrapped) {
-      page.drawText(line, { x, y: y - 10, size: 10, font: styles[i]?.bold ? fonts.bold : fonts.font, color: styles[i]?.muted ? MUTED : INK })
+      page.drawText(line, {
+        x,
+        y: y - 10,
+        size: 10,
+        font: styles[i]?.bold ? fonts.bold : fonts.font,
+        color: styles[i]?.muted ? MUTED : INK,
+      })
       y -= 13.5
     }
     y -= 2

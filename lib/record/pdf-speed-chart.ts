@@ -53,26 +53,43 @@ export function drawSpeedChart(w: Writer, data: RecordData, units: UnitSystem) {
 
   // Qualifying band first, so the line and the grid sit on top of it.
   const bandTop = bandHigh == null ? yMax : Math.min(bandHigh, yMax)
-  if (bandLow < yMax) page.drawRectangle({ x: left, y: y(bandLow), width: plotW, height: y(bandTop) - y(bandLow), color: BAND })
+  if (bandLow < yMax)
+    page.drawRectangle({ x: left, y: y(bandLow), width: plotW, height: y(bandTop) - y(bandLow), color: BAND })
 
   for (let v = 0; v <= yMax + 1e-9; v += yStep) {
     page.drawLine({ start: { x: left, y: y(v) }, end: { x: left + plotW, y: y(v) }, thickness: 0.4, color: RULE })
     page.drawText(String(Math.round(v)), { x: MARGIN, y: y(v) - 3, size: 7, font: w.font, color: MUTED })
   }
   for (let m = 0; m <= totalMin + 1e-9; m += xStep) {
-    page.drawLine({ start: { x: x(m), y: top - HEIGHT }, end: { x: x(m), y: top - HEIGHT - 3 }, thickness: 0.6, color: MUTED })
-    page.drawText(String(Math.round(m * 10) / 10), { x: x(m) - 4, y: top - HEIGHT - 12, size: 7, font: w.font, color: MUTED })
+    page.drawLine({
+      start: { x: x(m), y: top - HEIGHT },
+      end: { x: x(m), y: top - HEIGHT - 3 },
+      thickness: 0.6,
+      color: MUTED,
+    })
+    page.drawText(String(Math.round(m * 10) / 10), {
+      x: x(m) - 4,
+      y: top - HEIGHT - 12,
+      size: 7,
+      font: w.font,
+      color: MUTED,
+    })
   }
   page.drawRectangle({ x: left, y: top - HEIGHT, width: plotW, height: HEIGHT, borderColor: RULE, borderWidth: 0.75 })
 
-  const d = points.map((p, i) => `${i ? "L" : "M"}${(x(p.tS / 60) - left).toFixed(1)} ${(top - y(toUnit(p.speedMph!))).toFixed(1)}`).join(" ")
+  const d = points
+    .map((p, i) => `${i ? "L" : "M"}${(x(p.tS / 60) - left).toFixed(1)} ${(top - y(toUnit(p.speedMph!))).toFixed(1)}`)
+    .join(" ")
   // drawSvgPath's origin is (x, y) with y growing downward.
   page.drawSvgPath(d, { x: left, y: top, borderColor: LINE, borderWidth: 1.2 })
 
   page.drawText(`Speed (${unit})`, { x: MARGIN, y: top + 4, size: 7, font: w.bold, color: MUTED })
   w.y = top - HEIGHT - 16
   w.text("Minutes into the drive", { size: 7, color: MUTED, x: left + plotW / 2 - 35, gap: 4 })
-  const band = bandHigh == null ? `${formatSpeedMph(profile.minSpeedMph, units)} or faster` : `${formatSpeedMph(profile.minSpeedMph, units)} to ${formatSpeedMph(profile.maxSpeedMph, units)}`
+  const band =
+    bandHigh == null
+      ? `${formatSpeedMph(profile.minSpeedMph, units)} or faster`
+      : `${formatSpeedMph(profile.minSpeedMph, units)} to ${formatSpeedMph(profile.maxSpeedMph, units)}`
   w.page.drawRectangle({ x: MARGIN, y: w.y - 9, width: 14, height: 8, color: BAND })
   w.text(`Shaded: the qualifying band, ${band}. Line: the phone's speed.`, { size: 8, color: INK, x: MARGIN + 18 })
 }

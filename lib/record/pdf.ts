@@ -10,7 +10,16 @@ import {
   VERDICT_WORD,
 } from "./format"
 import { describeConditions, describeReasons, formatAgainst } from "@/lib/format/conditions"
-import { describeTimeZone, DEFAULT_PREFS, formatDateTime, formatDistance, formatDuration, formatLengthFt, formatSpeedMph, plural } from "@/lib/format"
+import {
+  describeTimeZone,
+  DEFAULT_PREFS,
+  formatDateTime,
+  formatDistance,
+  formatDuration,
+  formatLengthFt,
+  formatSpeedMph,
+  plural,
+} from "@/lib/format"
 import { drawSpeedChart } from "./pdf-speed-chart"
 import { drawQrCode, drawVerificationText, revisionLine, verificationLines, verifyLink } from "./pdf-seal"
 import { projectTrack, STATE_LABEL, thinTimeline, type StretchState } from "./timeline"
@@ -32,16 +41,31 @@ const STATE_COLOUR: Record<StretchState, RGB> = {
   slow: rgb(0.49, 0.53, 0.58), // graphite
   gap: rgb(0.82, 0.84, 0.85),
 }
-const VERDICT_COLOUR = { met: rgb(0.05, 0.5, 0.47), short: rgb(0.56, 0.36, 0), not_met: rgb(0.72, 0.2, 0.16), unverified: rgb(0.56, 0.36, 0) }
+const VERDICT_COLOUR = {
+  met: rgb(0.05, 0.5, 0.47),
+  short: rgb(0.56, 0.36, 0),
+  not_met: rgb(0.72, 0.2, 0.16),
+  unverified: rgb(0.56, 0.36, 0),
+}
 
 // The standard fonts speak Windows-1252 only; anything else becomes a plain look-alike or "?".
 const CP1252_EXTRA = "€‚ƒ„…†‡ˆ‰Š‹ŒŽ‘’“”•–—˜™š›œžŸ"
-const SWAPS: Record<string, string> = { "≥": ">=", "≤": "<=", "→": "->", "←": "<-", "−": "-", "·": "·", "✓": "OK", "✗": "X" }
+const SWAPS: Record<string, string> = {
+  "≥": ">=",
+  "≤": "<=",
+  "→": "->",
+  "←": "<-",
+  "−": "-",
+  "·": "·",
+  "✓": "OK",
+  "✗": "X",
+}
 export function toWinAnsi(text: string): string {
   let out = ""
   for (const ch of text.normalize("NFC")) {
     const code = ch.codePointAt(0)!
-    if (ch === "\n" || (code >= 0x20 && code <= 0x7e) || (code >= 0xa0 && code <= 0xff) || CP1252_EXTRA.includes(ch)) out += ch
+    if (ch === "\n" || (code >= 0x20 && code <= 0x7e) || (code >= 0xa0 && code <= 0xff) || CP1252_EXTRA.includes(ch))
+      out += ch
     else if (ch === "\t") out += " "
     else out += SWAPS[ch] ?? "?"
   }
@@ -65,7 +89,13 @@ export class Writer {
     this.page = this.doc.addPage([PAGE_W, PAGE_H])
     this.pageNumber += 1
     this.y = PAGE_H - MARGIN
-    this.page.drawText(toWinAnsi(`${this.footer} - page ${this.pageNumber}`), { x: MARGIN, y: 28, size: 8, font: this.font, color: MUTED })
+    this.page.drawText(toWinAnsi(`${this.footer} - page ${this.pageNumber}`), {
+      x: MARGIN,
+      y: 28,
+      size: 8,
+      font: this.font,
+      color: MUTED,
+    })
   }
 
   ensure(height: number) {
@@ -89,7 +119,10 @@ export class Writer {
     return lines
   }
 
-  text(text: string, opts: { size?: number; bold?: boolean; color?: RGB; x?: number; width?: number; gap?: number } = {}) {
+  text(
+    text: string,
+    opts: { size?: number; bold?: boolean; color?: RGB; x?: number; width?: number; gap?: number } = {},
+  ) {
     const size = opts.size ?? 10
     const font = opts.bold ? this.bold : this.font
     const x = opts.x ?? MARGIN
@@ -107,7 +140,12 @@ export class Writer {
     this.y -= 10
     this.page.drawText(toWinAnsi(text), { x: MARGIN, y: this.y - 13, size: 13, font: this.bold, color: INK })
     this.y -= 18
-    this.page.drawLine({ start: { x: MARGIN, y: this.y }, end: { x: PAGE_W - MARGIN, y: this.y }, thickness: 0.75, color: RULE })
+    this.page.drawLine({
+      start: { x: MARGIN, y: this.y },
+      end: { x: PAGE_W - MARGIN, y: this.y },
+      thickness: 0.75,
+      color: RULE,
+    })
     this.y -= 6
   }
 
@@ -119,11 +157,26 @@ export class Writer {
     const height = Math.max(lines.length, labelLines.length) * 13.5
     this.ensure(height + 2)
     const top = this.y
-    labelLines.forEach((line, i) => this.page.drawText(line, { x: MARGIN, y: top - 10 - i * 13.5, size: 10, font: this.bold, color: MUTED }))
-    lines.forEach((line, i) =>
-      this.page.drawText(line, { x: MARGIN + labelW, y: top - 10 - i * 13.5, size: 10, font: this.font, color: opts.valueColor ?? INK }),
+    labelLines.forEach((line, i) =>
+      this.page.drawText(line, { x: MARGIN, y: top - 10 - i * 13.5, size: 10, font: this.bold, color: MUTED }),
     )
-    if (opts.mark) this.page.drawText(toWinAnsi(opts.mark), { x: PAGE_W - MARGIN - 24, y: top - 10, size: 9, font: this.bold, color: opts.valueColor ?? INK })
+    lines.forEach((line, i) =>
+      this.page.drawText(line, {
+        x: MARGIN + labelW,
+        y: top - 10 - i * 13.5,
+        size: 10,
+        font: this.font,
+        color: opts.valueColor ?? INK,
+      }),
+    )
+    if (opts.mark)
+      this.page.drawText(toWinAnsi(opts.mark), {
+        x: PAGE_W - MARGIN - 24,
+        y: top - 10,
+        size: 9,
+        font: this.bold,
+        color: opts.valueColor ?? INK,
+      })
     this.y = top - height - 3
   }
 }
@@ -152,16 +205,33 @@ export async function buildDriveRecordPdf(data: RecordData): Promise<Uint8Array>
   w.text("Drive record", { size: 22, bold: true, gap: 0 })
   w.text(`${data.shopName} - calibration drive on public roads`, { size: 11, color: MUTED, gap: 4 })
   w.text(`Made ${fmtDateTime(data.generatedAt)}. Drive ${data.driveId}.`, { size: 8, color: MUTED, gap: 0 })
-  w.text(`Times are in the shop's time zone, ${describeTimeZone(zone, data.startedAt ?? data.generatedAt)}.`, { size: 8, color: MUTED, gap: 8 })
+  w.text(`Times are in the shop's time zone, ${describeTimeZone(zone, data.startedAt ?? data.generatedAt)}.`, {
+    size: 8,
+    color: MUTED,
+    gap: 8,
+  })
   if (data.seal) w.text(revisionLine(data.seal, data.timeZone), { size: 8, color: MUTED, gap: 8 })
 
   // Verdict box
   w.ensure(60)
   const verdictWord = VERDICT_WORD[score.verdict] ?? score.verdict
   const boxTop = w.y
-  w.page.drawRectangle({ x: MARGIN, y: boxTop - 44, width: CONTENT_W, height: 44, borderColor: VERDICT_COLOUR[score.verdict], borderWidth: 2 })
+  w.page.drawRectangle({
+    x: MARGIN,
+    y: boxTop - 44,
+    width: CONTENT_W,
+    height: 44,
+    borderColor: VERDICT_COLOUR[score.verdict],
+    borderWidth: 2,
+  })
   w.page.drawText("Verdict", { x: MARGIN + 12, y: boxTop - 18, size: 9, font: bold, color: MUTED })
-  w.page.drawText(toWinAnsi(verdictWord), { x: MARGIN + 12, y: boxTop - 37, size: 18, font: bold, color: VERDICT_COLOUR[score.verdict] })
+  w.page.drawText(toWinAnsi(verdictWord), {
+    x: MARGIN + 12,
+    y: boxTop - 37,
+    size: 18,
+    font: bold,
+    color: VERDICT_COLOUR[score.verdict],
+  })
   const reviewLine = data.review
     ? `${DECISION_WORD[data.review.decision]} by ${data.review.reviewerName ?? "a shop lead"}`
     : "Not reviewed by a shop lead"
@@ -197,15 +267,25 @@ export async function buildDriveRecordPdf(data: RecordData): Promise<Uint8Array>
   w.row("Started", data.startedAt ? fmtDateTime(data.startedAt) : "Not recorded")
   w.row("Duration", formatDuration(score.durationSeconds ?? 0))
   w.row("Distance", formatDistance(score.distanceMeters ?? 0, units))
-  w.row("Qualifying time before the learn completed", formatAgainst(score.qualifyingSecondsBeforeClear, qual?.required), {
-    mark: qual ? (qual.met ? "OK" : "SHORT") : undefined,
-  })
+  w.row(
+    "Qualifying time before the learn completed",
+    formatAgainst(score.qualifyingSecondsBeforeClear, qual?.required),
+    {
+      mark: qual ? (qual.met ? "OK" : "SHORT") : undefined,
+    },
+  )
   w.row("Following time before the learn completed", formatAgainst(score.followingSecondsBeforeClear, foll?.required), {
     mark: foll ? (foll.met ? "OK" : "SHORT") : undefined,
   })
-  w.row("Learn reported complete", score.clearedAtSeconds == null ? "No learn-complete mark" : `${formatDuration(score.clearedAtSeconds)} into the drive`, {
-    mark: score.clearedAtSeconds == null ? "NO" : "OK",
-  })
+  w.row(
+    "Learn reported complete",
+    score.clearedAtSeconds == null
+      ? "No learn-complete mark"
+      : `${formatDuration(score.clearedAtSeconds)} into the drive`,
+    {
+      mark: score.clearedAtSeconds == null ? "NO" : "OK",
+    },
+  )
   w.row(
     "Function check",
     verified?.met
@@ -214,14 +294,20 @@ export async function buildDriveRecordPdf(data: RecordData): Promise<Uint8Array>
     { mark: verified ? (verified.met ? "OK" : "NO") : undefined },
   )
   const harsh = score.harshEvents ?? { accel: 0, decel: 0 }
-  w.row("Harsh events", `${plural(harsh.decel, "hard braking", "hard braking")}, ${plural(harsh.accel, "hard acceleration", "hard acceleration")} (advisory)`, {
-    mark: harsh.accel + harsh.decel === 0 ? "OK" : "NOTE",
-  })
+  w.row(
+    "Harsh events",
+    `${plural(harsh.decel, "hard braking", "hard braking")}, ${plural(harsh.accel, "hard acceleration", "hard acceleration")} (advisory)`,
+    {
+      mark: harsh.accel + harsh.decel === 0 ? "OK" : "NOTE",
+    },
+  )
   if ((score.gapSeconds ?? 0) > 0) w.row("Position data gaps", `${formatDuration(score.gapSeconds)} in total`)
 
   w.heading("Every condition")
   for (const c of describeConditions(score, units)) {
-    w.row(c.label, `${c.value}${c.requirement ? `; ${c.requirement}` : ""}`, { mark: c.state === "met" ? "OK" : c.state === "advisory" ? "NOTE" : "NO" })
+    w.row(c.label, `${c.value}${c.requirement ? `; ${c.requirement}` : ""}`, {
+      mark: c.state === "met" ? "OK" : c.state === "advisory" ? "NOTE" : "NO",
+    })
   }
 
   drawTrack(w, data)
@@ -235,16 +321,25 @@ export async function buildDriveRecordPdf(data: RecordData): Promise<Uint8Array>
   const t0 = score.startedAtMs ?? data.marks[0]?.t ?? 0
   const shownMarks = data.marks.filter((m) => m.kind !== "gap" || data.marks.length < 40).slice(0, 40)
   for (const m of shownMarks) {
-    const detail = m.kind === "note" ? `: ${m.text ?? ""}` : m.gapFt != null ? ` (${formatLengthFt(m.gapFt, units)})` : ""
-    w.text(`${formatDuration(Math.max(0, (m.t - t0) / 1000))}  ${MARK_LABEL[m.kind] ?? m.kind}${detail}${m.byName ? ` - ${m.byName}` : ""}`, { size: 9, x: MARGIN + 10 })
+    const detail =
+      m.kind === "note" ? `: ${m.text ?? ""}` : m.gapFt != null ? ` (${formatLengthFt(m.gapFt, units)})` : ""
+    w.text(
+      `${formatDuration(Math.max(0, (m.t - t0) / 1000))}  ${MARK_LABEL[m.kind] ?? m.kind}${detail}${m.byName ? ` - ${m.byName}` : ""}`,
+      { size: 9, x: MARGIN + 10 },
+    )
   }
 
   // Checklist
   w.heading("Checks before the drive")
   if (data.checklist) {
-    for (const r of data.checklist.rows) w.row(r.label, r.value, { mark: r.ok === null ? undefined : r.ok ? "OK" : "NO" })
+    for (const r of data.checklist.rows)
+      w.row(r.label, r.value, { mark: r.ok === null ? undefined : r.ok ? "OK" : "NO" })
     if (data.checklist.notes) w.row("Notes", data.checklist.notes)
-    if (data.checklist.completedBy) w.row("Checked by", `${data.checklist.completedBy}${data.checklist.completedAt ? `, ${fmtDateTime(data.checklist.completedAt)}` : ""}`)
+    if (data.checklist.completedBy)
+      w.row(
+        "Checked by",
+        `${data.checklist.completedBy}${data.checklist.completedAt ? `, ${fmtDateTime(data.checklist.completedAt)}` : ""}`,
+      )
   } else w.text("No checklist was recorded for this drive.", { color: MUTED })
   await drawPhotos(w, data)
   drawCalibrations(w, data)
@@ -278,7 +373,12 @@ function drawTrack(w: Writer, data: RecordData) {
   for (const path of paths) {
     const d = path.points.map(([x, y], i) => `${i ? "L" : "M"}${x.toFixed(1)} ${y.toFixed(1)}`).join(" ")
     // drawSvgPath puts the path's origin at (x, y) with y growing downward, as SVG does.
-    w.page.drawSvgPath(d, { x: MARGIN, y: top, borderColor: STATE_COLOUR[path.state], borderWidth: path.state === "gap" ? 1 : 2.5 })
+    w.page.drawSvgPath(d, {
+      x: MARGIN,
+      y: top,
+      borderColor: STATE_COLOUR[path.state],
+      borderWidth: path.state === "gap" ? 1 : 2.5,
+    })
   }
   w.y = top - height - 8
   let x = MARGIN
@@ -288,7 +388,10 @@ function drawTrack(w: Writer, data: RecordData) {
     x += 110
   }
   w.y -= 18
-  w.text("Drawn from the phone's positions; no map. Amber: qualifying speed. Teal: following a lead vehicle.", { size: 8, color: MUTED })
+  w.text("Drawn from the phone's positions; no map. Amber: qualifying speed. Teal: following a lead vehicle.", {
+    size: 8,
+    color: MUTED,
+  })
 }
 
 /** "Check this record": the verification code, the verify address and a QR code that opens it. */
@@ -312,7 +415,8 @@ async function drawPhotos(w: Writer, data: RecordData) {
   const images: Array<{ image: PDFImage; filename: string }> = []
   for (const photo of data.photos.slice(0, 12)) {
     try {
-      const image = photo.contentType === "image/png" ? await w.doc.embedPng(photo.bytes) : await w.doc.embedJpg(photo.bytes)
+      const image =
+        photo.contentType === "image/png" ? await w.doc.embedPng(photo.bytes) : await w.doc.embedJpg(photo.bytes)
       images.push({ image, filename: photo.filename })
     } catch {
       w.text(`Photo ${photo.filename} could not be read.`, { size: 9, color: MUTED })
@@ -345,21 +449,39 @@ function drawCalibrations(w: Writer, data: RecordData) {
   w.heading("Each system calibrated on this job")
   for (const sys of systems) {
     w.ensure(60)
-    w.text(`${SENSOR_LABEL[sys.sensor] ?? sys.sensor} - ${METHOD_LABEL[sys.method] ?? sys.method}`, { size: 12, bold: true, gap: 4 })
+    w.text(`${SENSOR_LABEL[sys.sensor] ?? sys.sensor} - ${METHOD_LABEL[sys.method] ?? sys.method}`, {
+      size: 12,
+      bold: true,
+      gap: 4,
+    })
     if (sys.method !== "dynamic") {
       if (sys.setup) {
         w.text("Static set-up (figures typed from the maker's service information)", { size: 10, bold: true })
-        for (const m of sys.setup.measurements) w.row(m.label, measurementWords(m), { mark: m.outOfTolerance ? "NO" : "OK" })
-        w.row("Scan tool result", `${scanResultWords(sys.setup.scanResult)}${sys.setup.scanNotes ? `: ${sys.setup.scanNotes}` : ""}`)
+        for (const m of sys.setup.measurements)
+          w.row(m.label, measurementWords(m), { mark: m.outOfTolerance ? "NO" : "OK" })
+        w.row(
+          "Scan tool result",
+          `${scanResultWords(sys.setup.scanResult)}${sys.setup.scanNotes ? `: ${sys.setup.scanNotes}` : ""}`,
+        )
         if (sys.setup.override) {
-          w.row("Lead's override", `${sys.setup.override.note} (${sys.setup.override.by ?? "a shop lead"}${sys.setup.override.at ? `, ${fmtDateTime(sys.setup.override.at)}` : ""})`)
+          w.row(
+            "Lead's override",
+            `${sys.setup.override.note} (${sys.setup.override.by ?? "a shop lead"}${sys.setup.override.at ? `, ${fmtDateTime(sys.setup.override.at)}` : ""})`,
+          )
         }
-        if (sys.setup.recordedBy) w.row("Recorded by", `${sys.setup.recordedBy}${sys.setup.recordedAt ? `, ${fmtDateTime(sys.setup.recordedAt)}` : ""}`)
+        if (sys.setup.recordedBy)
+          w.row(
+            "Recorded by",
+            `${sys.setup.recordedBy}${sys.setup.recordedAt ? `, ${fmtDateTime(sys.setup.recordedAt)}` : ""}`,
+          )
       } else w.text("No static set-up was recorded.", { color: MUTED })
     }
     if (sys.learnDrives.length) {
       for (const d of sys.learnDrives) {
-        w.row("Learn drive", `Drive ${d.driveId.slice(0, 8)}, ${fmtDateTime(d.startedAt)}: ${verdictWord(d.verdict)}${d.thisDrive ? " (this record)" : ""}`)
+        w.row(
+          "Learn drive",
+          `Drive ${d.driveId.slice(0, 8)}, ${fmtDateTime(d.startedAt)}: ${verdictWord(d.verdict)}${d.thisDrive ? " (this record)" : ""}`,
+        )
       }
     } else if (sys.method !== "static") w.row("Learn drive", "None recorded")
     if (sys.roadTest) {

@@ -47,7 +47,8 @@ export function canonicalRecord(input: SealInput, driveFileJson = canonicalDrive
  * generic canonicalizer, which takes seconds for a long drive. Anything unexpected goes the generic way.
  */
 export function canonicalDriveFile(file: unknown): string {
-  const samples = file && typeof file === "object" && !Array.isArray(file) ? (file as { samples?: unknown }).samples : undefined
+  const samples =
+    file && typeof file === "object" && !Array.isArray(file) ? (file as { samples?: unknown }).samples : undefined
   const fast = Array.isArray(samples) ? canonicalSamples(samples) : null
   return fast === null ? canonicalJson(file) : canonicalObject(file as Record<string, unknown>, { samples: fast })
 }
@@ -70,7 +71,9 @@ function canonicalSamples(samples: readonly unknown[]): string | null {
 
 /** A JCS object whose members are canonicalized, except those given already as canonical text in `written`. */
 function canonicalObject(obj: Record<string, unknown>, written: Record<string, string>): string {
-  const plain = JSON.parse(JSON.stringify(Object.fromEntries(Object.entries(obj).filter(([k]) => !(k in written))))) as Record<string, unknown>
+  const plain = JSON.parse(
+    JSON.stringify(Object.fromEntries(Object.entries(obj).filter(([k]) => !(k in written)))),
+  ) as Record<string, unknown>
   const keys = [...new Set([...Object.keys(plain), ...Object.keys(written)])].sort() // default sort: UTF-16 code units
   return `{${keys.map((k) => `${JSON.stringify(k)}:${k in written ? written[k] : canonicalJson(plain[k])}`).join(",")}}`
 }
@@ -105,7 +108,11 @@ export function verificationCode(digestHex: string): string {
  * as digits (O -> 0, I and L -> 1) are taken as those digits. null when it cannot be a code.
  */
 export function normalizeCode(input: string): string | null {
-  const plain = input.toUpperCase().replace(/[\s-]+/g, "").replace(/O/g, "0").replace(/[IL]/g, "1")
+  const plain = input
+    .toUpperCase()
+    .replace(/[\s-]+/g, "")
+    .replace(/O/g, "0")
+    .replace(/[IL]/g, "1")
   if (plain.length !== CODE_LENGTH || [...plain].some((ch) => !CROCKFORD.includes(ch))) return null
   return `${plain.slice(0, 4)}-${plain.slice(4, 8)}-${plain.slice(8)}`
 }

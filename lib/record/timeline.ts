@@ -19,10 +19,16 @@ export interface TimelinePoint {
  * For pictures only (chart, track, record): the state of each interval under drive-file rules 1-4.
  * The verdict and the minutes always come from the stored score, never from here.
  */
-export function computeTimeline(samples: readonly Sample[], marks: readonly Mark[], profile: ResolvedProfile): TimelinePoint[] {
+export function computeTimeline(
+  samples: readonly Sample[],
+  marks: readonly Mark[],
+  profile: ResolvedProfile,
+): TimelinePoint[] {
   const kept: Sample[] = []
   const seen = new Set<number>()
-  for (const s of [...samples].filter((s) => s.accuracy == null || s.accuracy <= profile.maxAccuracyM).sort((a, b) => a.t - b.t)) {
+  for (const s of [...samples]
+    .filter((s) => s.accuracy == null || s.accuracy <= profile.maxAccuracyM)
+    .sort((a, b) => a.t - b.t)) {
     if (seen.has(s.t)) continue
     seen.add(s.t)
     kept.push(s)
@@ -57,14 +63,22 @@ export function computeTimeline(samples: readonly Sample[], marks: readonly Mark
       if (dtS > profile.maxGapSeconds) state = "gap"
       else {
         intervalMps =
-          a.speed != null && b.speed != null ? (a.speed + b.speed) / 2 : geodesicDistanceM(a.lat, a.lon, b.lat, b.lon) / dtS
+          a.speed != null && b.speed != null
+            ? (a.speed + b.speed) / 2
+            : geodesicDistanceM(a.lat, a.lon, b.lat, b.lon) / dtS
         const qualifying = intervalMps >= minMps && intervalMps <= maxMps
         const gapInWindow = gapFt == null || (gapFt >= profile.leadGapFt.min && gapFt <= profile.leadGapFt.max)
         state = !qualifying ? "slow" : leadOn && gapInWindow ? "following" : "qualifying"
       }
     }
     const ownMps = a.speed ?? intervalMps ?? null
-    points.push({ tS: (a.t - t0) / 1000, lat: a.lat, lon: a.lon, speedMph: ownMps == null ? null : mpsToMph(ownMps), state })
+    points.push({
+      tS: (a.t - t0) / 1000,
+      lat: a.lat,
+      lon: a.lon,
+      speedMph: ownMps == null ? null : mpsToMph(ownMps),
+      state,
+    })
   }
   return points
 }
@@ -73,7 +87,9 @@ export function computeTimeline(samples: readonly Sample[], marks: readonly Mark
 export function thinTimeline(points: readonly TimelinePoint[], max: number): TimelinePoint[] {
   if (points.length <= max) return [...points]
   const step = Math.ceil(points.length / max)
-  return points.filter((p, i) => i === 0 || i === points.length - 1 || i % step === 0 || p.state !== points[i - 1]!.state)
+  return points.filter(
+    (p, i) => i === 0 || i === points.length - 1 || i % step === 0 || p.state !== points[i - 1]!.state,
+  )
 }
 
 export interface TrackPath {
@@ -86,7 +102,12 @@ export interface TrackPath {
  * Projects the track into a width x height box (equirectangular around the mid latitude, which is
  * plenty for a few km of road), split into runs of one state. Keeps the aspect ratio.
  */
-export function projectTrack(points: readonly TimelinePoint[], width: number, height: number, padding = 8): TrackPath[] {
+export function projectTrack(
+  points: readonly TimelinePoint[],
+  width: number,
+  height: number,
+  padding = 8,
+): TrackPath[] {
   if (points.length < 2) return []
   const midLat = (Math.min(...points.map((p) => p.lat)) + Math.max(...points.map((p) => p.lat))) / 2
   const k = Math.cos((midLat * Math.PI) / 180)

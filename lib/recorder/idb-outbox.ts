@@ -35,16 +35,28 @@ export const idbOutbox: OutboxStore = {
     return (await getMany<OutboxItem | undefined>(all, db())).filter((i): i is OutboxItem => i !== undefined)
   },
   async remove(list) {
-    await delMany(list.map((k) => OUTBOX + k), db())
+    await delMany(
+      list.map((k) => OUTBOX + k),
+      db(),
+    )
   },
   async put(items) {
-    await setMany(items.map((i) => [OUTBOX + i.key, i]), db())
+    await setMany(
+      items.map((i) => [OUTBOX + i.key, i]),
+      db(),
+    )
   },
 }
 
 /** One piece of samples and its outbox item in one IndexedDB transaction. */
 export async function persistSamples(driveId: string, seq: number, samples: Sample[], item: OutboxItem) {
-  await setMany([[sampleKey(driveId, seq), samples], [OUTBOX + item.key, item]], db())
+  await setMany(
+    [
+      [sampleKey(driveId, seq), samples],
+      [OUTBOX + item.key, item],
+    ],
+    db(),
+  )
 }
 
 export async function loadSamples(driveId: string): Promise<{ samples: Sample[]; nextSeq: number }> {
@@ -64,7 +76,8 @@ export interface RemoteMarks {
   lastEventId: number | null
 }
 export const saveRemoteMarks = (driveId: string, remote: RemoteMarks) => set(`remote:${driveId}`, remote, db())
-export const loadRemoteMarks = async (driveId: string) => (await get<RemoteMarks>(`remote:${driveId}`, db())) ?? { marks: [], lastEventId: null }
+export const loadRemoteMarks = async (driveId: string) =>
+  (await get<RemoteMarks>(`remote:${driveId}`, db())) ?? { marks: [], lastEventId: null }
 export const loadMarks = async (driveId: string) => (await get<ApiMark[]>(`marks:${driveId}`, db())) ?? []
 export const saveOutboxItems = (items: OutboxItem[]) => idbOutbox.put(items)
 export const setActiveDrive = (id: string | null) => (id ? set("active", id, db()) : del("active", db()))

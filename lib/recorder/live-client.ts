@@ -46,7 +46,12 @@ export interface LiveOptions {
 export function connectLive(driveId: string, h: LiveHandlers, options: LiveOptions = {}) {
   const pollMs = options.pollMs ?? 3000
   const silentMs = options.silentMs ?? 25_000
-  const ES = options.EventSourceImpl === undefined ? (typeof EventSource === "undefined" ? null : EventSource) : options.EventSourceImpl
+  const ES =
+    options.EventSourceImpl === undefined
+      ? typeof EventSource === "undefined"
+        ? null
+        : EventSource
+      : options.EventSourceImpl
   const doFetch = options.fetchImpl ?? ((...a: Parameters<typeof fetch>) => fetch(...a))
   const base = `/api/drives/${encodeURIComponent(driveId)}/live`
   let lastEventId: number | null = options.lastEventId ?? null
@@ -122,7 +127,12 @@ export function connectLive(driveId: string, h: LiveHandlers, options: LiveOptio
     try {
       const res = await doFetch(`${base}?after=${lastEventId ?? 0}`, { credentials: "same-origin", cache: "no-store" })
       if (res.ok) {
-        const body = (await res.json()) as { lastEventId: number; events: Array<{ id: number; kind: string; body: unknown }>; status: LiveStatus; score: Score }
+        const body = (await res.json()) as {
+          lastEventId: number
+          events: Array<{ id: number; kind: string; body: unknown }>
+          status: LiveStatus
+          score: Score
+        }
         for (const e of body.events) apply(e.kind, e.body)
         noteId(body.lastEventId)
         h.status(body.status)

@@ -76,7 +76,11 @@ function requestFor(group: OutboxItem[]): { method: "POST" | "DELETE"; path: str
       }
     }
     case "marks":
-      return { method: "POST", path: `${base}/marks`, body: { marks: (group as Array<Extract<OutboxItem, { type: "marks" }>>).flatMap((i) => i.marks) } }
+      return {
+        method: "POST",
+        path: `${base}/marks`,
+        body: { marks: (group as Array<Extract<OutboxItem, { type: "marks" }>>).flatMap((i) => i.marks) },
+      }
     case "delete-mark":
       return { method: "DELETE", path: `${base}/marks/${first.markId}` }
     case "finish":
@@ -105,7 +109,11 @@ export interface FlushOptions {
  * SEND_MAX_SAMPLES. Stops at the first network failure or 5xx (the rest would fail the same way)
  * and gives that item its next retry time. A 4xx marks the item failed and carries on.
  */
-export async function flushOutbox(store: OutboxStore, transport: Transport, options: FlushOptions = {}): Promise<FlushOutcome> {
+export async function flushOutbox(
+  store: OutboxStore,
+  transport: Transport,
+  options: FlushOptions = {},
+): Promise<FlushOutcome> {
   const now = options.nowMs ?? Date.now
   const random = options.random ?? Math.random
   let sent = 0
@@ -122,7 +130,10 @@ export async function flushOutbox(store: OutboxStore, transport: Transport, opti
 
   async function refuse(item: OutboxItem, status: number, body: unknown) {
     const err = (body as { error?: { code?: string; message?: string } } | null)?.error
-    const failed: OutboxItem = { ...item, failed: { status, code: err?.code ?? "refused", message: err?.message ?? `Refused (${status})` } }
+    const failed: OutboxItem = {
+      ...item,
+      failed: { status, code: err?.code ?? "refused", message: err?.message ?? `Refused (${status})` },
+    }
     await store.put([failed])
     options.onRefused?.(failed)
   }

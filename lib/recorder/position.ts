@@ -7,7 +7,8 @@ export interface PositionLike {
   coords: { latitude: number; longitude: number; speed: number | null; accuracy: number | null }
 }
 
-const finiteOrNull = (v: number | null | undefined) => (typeof v === "number" && Number.isFinite(v) && v >= 0 ? v : null)
+const finiteOrNull = (v: number | null | undefined) =>
+  typeof v === "number" && Number.isFinite(v) && v >= 0 ? v : null
 // Rounded as the server stores them (lib/drive-file/stored.ts), so the phone's meters score the same numbers.
 const degrees = (v: number) => encodeDegrees(v) / DEGREE_SCALE
 const millis = (v: number | null) => (v === null ? null : encodeMillis(v)! / MILLI_SCALE)

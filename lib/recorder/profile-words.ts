@@ -2,7 +2,8 @@ import type { ResolvedProfile } from "@/lib/drive-file/profile"
 
 /** The condition profile as short plain sentences for the crew before they drive. */
 export function profileInWords(p: ResolvedProfile): string[] {
-  const band = p.maxSpeedMph === null ? `${p.minSpeedMph} mph or faster` : `between ${p.minSpeedMph} and ${p.maxSpeedMph} mph`
+  const band =
+    p.maxSpeedMph === null ? `${p.minSpeedMph} mph or faster` : `between ${p.minSpeedMph} and ${p.maxSpeedMph} mph`
   return [
     `Drive ${band} for at least ${p.minQualifyingMinutes} minutes (qualifying time).`,
     `Follow a lead vehicle ${p.leadGapFt.min} to ${p.leadGapFt.max} ft ahead for at least ${p.minFollowingMinutes} minutes of that (following time).`,

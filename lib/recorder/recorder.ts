@@ -51,10 +51,22 @@ export interface RecorderState {
   /** The live channel: how this phone hears the drive, and when it last heard from the server. */
   live: { state: LiveConnection; lastContactAt: number | null }
   /** What the server says of the drive (RO, status), from the live channel. */
-  driveInfo: { roNumber: string | null; vehicleDescription: string | null; status: "recording" | "finished"; finishedAt: string | null } | null
+  driveInfo: {
+    roNumber: string | null
+    vehicleDescription: string | null
+    status: "recording" | "finished"
+    finishedAt: string | null
+  } | null
   /** When the server's live score shown on a phone without samples (the co-driver's own) was computed. */
   scoreAsOf: number | null
-  sync: { state: SyncState; waitingSamples: number; waitingOther: number; failed: OutboxItem[]; lastSyncedAt: number | null; retryAtMs: number | null }
+  sync: {
+    state: SyncState
+    waitingSamples: number
+    waitingOther: number
+    failed: OutboxItem[]
+    lastSyncedAt: number | null
+    retryAtMs: number | null
+  }
   serverScore: Score | null
 }
 
@@ -128,7 +140,10 @@ export function createRecorder(transport: Transport = fetchTransport) {
   }
 
   function byTime(list: ApiMark[]): ApiMark[] {
-    return list.map((m, i) => [m, i] as const).sort((a, b) => a[0].t - b[0].t || a[1] - b[1]).map(([m]) => m)
+    return list
+      .map((m, i) => [m, i] as const)
+      .sort((a, b) => a[0].t - b[0].t || a[1] - b[1])
+      .map(([m]) => m)
   }
 
   function setMarks(next: { marks?: ApiMark[]; remoteMarks?: ApiMark[] }) {
@@ -153,7 +168,8 @@ export function createRecorder(transport: Transport = fetchTransport) {
 
   function saveRemote() {
     const meta = store.getState().meta
-    if (meta) void saveRemoteMarks(meta.id, { marks: store.getState().remoteMarks, lastEventId: live?.lastEventId ?? null })
+    if (meta)
+      void saveRemoteMarks(meta.id, { marks: store.getState().remoteMarks, lastEventId: live?.lastEventId ?? null })
   }
 
   /** Marks from the server: the ones this phone does not hold yet join, once each (reconciled by id). */
@@ -189,7 +205,14 @@ export function createRecorder(transport: Transport = fetchTransport) {
       {
         snapshot: (snap) => {
           const current = store.getState().meta
-          store.setState({ driveInfo: { roNumber: snap.drive.roNumber, vehicleDescription: snap.drive.vehicleDescription, status: snap.drive.status, finishedAt: snap.drive.finishedAt } })
+          store.setState({
+            driveInfo: {
+              roNumber: snap.drive.roNumber,
+              vehicleDescription: snap.drive.vehicleDescription,
+              status: snap.drive.status,
+              finishedAt: snap.drive.finishedAt,
+            },
+          })
           if (current?.role === "co-driver") {
             const startedAtMs = Date.parse(snap.drive.createdAt)
             if (Number.isFinite(startedAtMs) && startedAtMs !== current.startedAtMs) {
@@ -212,7 +235,14 @@ export function createRecorder(transport: Transport = fetchTransport) {
         },
         status: (st) => {
           const info = store.getState().driveInfo
-          store.setState({ driveInfo: { roNumber: info?.roNumber ?? null, vehicleDescription: info?.vehicleDescription ?? null, status: st.status, finishedAt: st.finishedAt } })
+          store.setState({
+            driveInfo: {
+              roNumber: info?.roNumber ?? null,
+              vehicleDescription: info?.vehicleDescription ?? null,
+              status: st.status,
+              finishedAt: st.finishedAt,
+            },
+          })
         },
         score: (score) => {
           if (store.getState().meta?.role === "co-driver") {
@@ -246,7 +276,9 @@ export function createRecorder(transport: Transport = fetchTransport) {
       else if (i.type === "samples") waitingSamples += i.samples.length
       else waitingOther += 1
     }
-    store.setState((s) => ({ sync: { ...s.sync, waitingSamples: waitingSamples + buffer.length, waitingOther, failed } }))
+    store.setState((s) => ({
+      sync: { ...s.sync, waitingSamples: waitingSamples + buffer.length, waitingOther, failed },
+    }))
   }
 
   async function persistBuffer(force = false) {
@@ -281,9 +313,12 @@ export function createRecorder(transport: Transport = fetchTransport) {
     const prev = store.getState().lastSample
     const speedMps =
       sample.speed ??
-      (prev && sample.t > prev.t ? geodesicDistanceM(prev.lat, prev.lon, sample.lat, sample.lon) / ((sample.t - prev.t) / 1000) : null)
+      (prev && sample.t > prev.t
+        ? geodesicDistanceM(prev.lat, prev.lon, sample.lat, sample.lon) / ((sample.t - prev.t) / 1000)
+        : null)
     store.setState({ speedMps })
-    const poor = sample.accuracy !== null && sample.accuracy !== undefined && sample.accuracy > meta.profile.maxAccuracyM
+    const poor =
+      sample.accuracy !== null && sample.accuracy !== undefined && sample.accuracy > meta.profile.maxAccuracyM
     store.setState({ gps: poor ? "poor" : "ok", accuracyM: sample.accuracy ?? null })
     if (meta.role === "co-driver") {
       store.setState({ lastSample: sample })
@@ -310,13 +345,18 @@ export function createRecorder(transport: Transport = fetchTransport) {
       store.setState({ gps: "unavailable" })
       return
     }
-    watchId = navigator.geolocation.watchPosition(onPosition, onPositionError, { enableHighAccuracy: true, maximumAge: 0, timeout: 30_000 })
+    watchId = navigator.geolocation.watchPosition(onPosition, onPositionError, {
+      enableHighAccuracy: true,
+      maximumAge: 0,
+      timeout: 30_000,
+    })
     lastFixAt = Date.now()
     ticker = setInterval(() => {
       void persistBuffer()
       sendWhenDue()
       const s = store.getState()
-      if (s.gps !== "denied" && s.gps !== "unavailable" && Date.now() - lastFixAt > NO_FIX_AFTER_MS) store.setState({ gps: "no-fix" })
+      if (s.gps !== "denied" && s.gps !== "unavailable" && Date.now() - lastFixAt > NO_FIX_AFTER_MS)
+        store.setState({ gps: "no-fix" })
       rescore()
     }, PERSIST_EVERY_MS)
     void keepScreenOn()
@@ -334,7 +374,9 @@ export function createRecorder(transport: Transport = fetchTransport) {
   }
 
   async function keepScreenOn() {
-    const nav = navigator as Navigator & { wakeLock?: { request(type: "screen"): Promise<{ release(): Promise<void> }> } }
+    const nav = navigator as Navigator & {
+      wakeLock?: { request(type: "screen"): Promise<{ release(): Promise<void> }> }
+    }
     try {
       wakeLock = (await nav.wakeLock?.request("screen")) ?? null
     } catch {
@@ -365,8 +407,11 @@ export function createRecorder(transport: Transport = fetchTransport) {
       if (outcome.kind === "offline") {
         retryTimer = setTimeout(() => void flush(), Math.max(250, outcome.retryAtMs - Date.now()))
       }
-      const state: SyncState = outcome.kind === "done" ? "idle" : outcome.kind === "signed-out" ? "signed-out" : "waiting"
-      store.setState((s) => ({ sync: { ...s.sync, state, retryAtMs: outcome.kind === "offline" ? outcome.retryAtMs : null } }))
+      const state: SyncState =
+        outcome.kind === "done" ? "idle" : outcome.kind === "signed-out" ? "signed-out" : "waiting"
+      store.setState((s) => ({
+        sync: { ...s.sync, state, retryAtMs: outcome.kind === "offline" ? outcome.retryAtMs : null },
+      }))
       await refreshSyncCounts()
     })().finally(() => {
       flushing = null
@@ -428,7 +473,17 @@ export function createRecorder(transport: Transport = fetchTransport) {
   async function joinAsCoDriver(driveId: string, profile: ResolvedProfile, label: string) {
     const existing = await loadMeta(driveId)
     if (!existing) {
-      await saveMeta({ id: driveId, profile, startedAtMs: Date.now(), vehicleDescription: null, jobId: null, taskId: null, label, status: "recording", role: "co-driver" })
+      await saveMeta({
+        id: driveId,
+        profile,
+        startedAtMs: Date.now(),
+        vehicleDescription: null,
+        jobId: null,
+        taskId: null,
+        label,
+        status: "recording",
+        role: "co-driver",
+      })
       await saveMarks(driveId, [])
     }
     return load(driveId)
@@ -538,7 +593,22 @@ export function createRecorder(transport: Transport = fetchTransport) {
     void persistBuffer(true)
   }
 
-  return { store, load, start, joinAsCoDriver, addMark, undoLastMark, finish, flush, flushNow, retryFailed, dispose, persistBuffer, online, offline }
+  return {
+    store,
+    load,
+    start,
+    joinAsCoDriver,
+    addMark,
+    undoLastMark,
+    finish,
+    flush,
+    flushNow,
+    retryFailed,
+    dispose,
+    persistBuffer,
+    online,
+    offline,
+  }
 }
 
 export type Recorder = ReturnType<typeof createRecorder>

@@ -86,7 +86,13 @@ interface Acc {
   harshEvents: number
   speedHist: number[]
 }
-const newAcc = (): Acc => ({ seconds: 0, qualifyingSeconds: 0, followingSeconds: 0, harshEvents: 0, speedHist: new Array(SPEED_BUCKETS).fill(0) })
+const newAcc = (): Acc => ({
+  seconds: 0,
+  qualifyingSeconds: 0,
+  followingSeconds: 0,
+  harshEvents: 0,
+  speedHist: new Array(SPEED_BUCKETS).fill(0),
+})
 
 export function computeDriveContribution(file: AnyDriveFile, timeZone: string): DriveContribution {
   const profile = resolveProfile(file.profile)
@@ -110,7 +116,8 @@ export function computeDriveContribution(file: AnyDriveFile, timeZone: string): 
     const b = samples[i + 1]!
     const dt = (b.t - a.t) / 1000
     if (dt > profile.maxGapSeconds) isGap[i] = 1
-    intervalMps[i] = a.speed != null && b.speed != null ? (a.speed + b.speed) / 2 : geodesicDistanceM(a.lat, a.lon, b.lat, b.lon) / dt
+    intervalMps[i] =
+      a.speed != null && b.speed != null ? (a.speed + b.speed) / 2 : geodesicDistanceM(a.lat, a.lon, b.lat, b.lon) / dt
   }
   const sampleMps = (i: number): number => samples[i]!.speed ?? (i > 0 ? intervalMps[i - 1]! : intervalMps[0]!)
 
@@ -207,7 +214,16 @@ function toStored(cells: Map<string, Acc>): StoredBucket[] {
     const [cell, weekday, hour] = key.split("|") as [string, string, string]
     const hist: number[] = []
     acc.speedHist.forEach((x, b) => x && hist.push(b, x))
-    out.push([cell, Number(weekday), Number(hour), acc.seconds, acc.qualifyingSeconds, acc.followingSeconds, acc.harshEvents, hist])
+    out.push([
+      cell,
+      Number(weekday),
+      Number(hour),
+      acc.seconds,
+      acc.qualifyingSeconds,
+      acc.followingSeconds,
+      acc.harshEvents,
+      hist,
+    ])
   }
   return out
 }

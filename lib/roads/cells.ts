@@ -39,7 +39,9 @@ export function createCellLocator(resolution = ROAD_RESOLUTION) {
     if (!shape) {
       const [lat, lon] = cellToLatLng(cell)
       const cosLat = Math.cos((lat * Math.PI) / 180)
-      const ring = cellToBoundary(cell).map(([a, b]) => [(b - lon) * cosLat * M_PER_DEG_LAT, (a - lat) * M_PER_DEG_LAT] as const)
+      const ring = cellToBoundary(cell).map(
+        ([a, b]) => [(b - lon) * cosLat * M_PER_DEG_LAT, (a - lat) * M_PER_DEG_LAT] as const,
+      )
       const raw: [number, number, number][] = []
       let inner = Infinity
       for (let i = 0; i < ring.length; i++) {

@@ -1,8 +1,6 @@
 // Local hour of day and weekday in the shop's time zone (IANA name, e.g. "America/Chicago").
 // Every zone's offset is a whole number of quarter hours, so one look-up per quarter hour is exact.
 
-
-
 export const WEEKDAYS = ["Sunday", "Monday", "Tuesday", "Wednesday", "Thursday", "Friday", "Saturday"] as const
 const SHORT_DAY: Record<string, number> = { Sun: 0, Mon: 1, Tue: 2, Wed: 3, Thu: 4, Fri: 5, Sat: 6 }
 

@@ -160,7 +160,12 @@ export function rankLoops(drives: LoopDrive[], q: LoopQuery): RankedLoop[] {
     })
   }
   // Trusted loops first, then by median time; ties by qualifying share.
-  return ranked.sort((a, b) => Number(b.trusted) - Number(a.trusted) || a.medianClearSeconds - b.medianClearSeconds || b.qualifyingShare - a.qualifyingShare)
+  return ranked.sort(
+    (a, b) =>
+      Number(b.trusted) - Number(a.trusted) ||
+      a.medianClearSeconds - b.medianClearSeconds ||
+      b.qualifyingShare - a.qualifyingShare,
+  )
 }
 
 export type LoopBasis = { weekday: number | null; dayKind: DayKind | null }
@@ -170,13 +175,22 @@ export type LoopBasis = { weekday: number | null; dayKind: DayKind | null }
  * of day, then any day) whose best loop rests on at least TRUSTED_DRIVES drives; when none does, the last
  * (the broadest). Says which basis it used.
  */
-export function rankLoopsOnBasis(drives: LoopDrive[], q: Omit<LoopQuery, "dayKind" | "weekday">, bases: LoopBasis[]): { basis: LoopBasis; loops: RankedLoop[] } {
+export function rankLoopsOnBasis(
+  drives: LoopDrive[],
+  q: Omit<LoopQuery, "dayKind" | "weekday">,
+  bases: LoopBasis[],
+): { basis: LoopBasis; loops: RankedLoop[] } {
   let result: { basis: LoopBasis; loops: RankedLoop[] } | null = null
   for (const basis of bases) {
     result = { basis, loops: rankLoops(drives, { ...q, ...basis }) }
     if (result.loops[0]?.trusted) return result
   }
-  return result ?? { basis: { weekday: null, dayKind: null }, loops: rankLoops(drives, { ...q, weekday: null, dayKind: null }) }
+  return (
+    result ?? {
+      basis: { weekday: null, dayKind: null },
+      loops: rankLoops(drives, { ...q, weekday: null, dayKind: null }),
+    }
+  )
 }
 
 /** The shop's place when settings name none: the median start of its drives. */
@@ -198,7 +212,10 @@ export function compassWord(from: { lat: number; lon: number }, to: { lat: numbe
 /** Flat local projection around `origin`, metres east (x) and south (y, as SVG draws). Fine for ~30 km. */
 export function createProjection(origin: { lat: number; lon: number }) {
   const cosLat = Math.cos((origin.lat * Math.PI) / 180)
-  return (lat: number, lon: number): [number, number] => [(lon - origin.lon) * cosLat * 111_320, -(lat - origin.lat) * 110_574]
+  return (lat: number, lon: number): [number, number] => [
+    (lon - origin.lon) * cosLat * 111_320,
+    -(lat - origin.lat) * 110_574,
+  ]
 }
 
 /** A round scale-bar length (1, 2, 5 x 10^n metres, or miles) no longer than `maxM`. */

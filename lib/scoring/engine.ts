@@ -345,7 +345,16 @@ export class ScoringEngine {
       }
     }
     this.p = last
-    Object.assign(this, { mp, leadOn: lead.leadOn, gapFt: lead.gapFt, gapS, qualS, follS, qualBeforeClearS, follBeforeClearS })
+    Object.assign(this, {
+      mp,
+      leadOn: lead.leadOn,
+      gapFt: lead.gapFt,
+      gapS,
+      qualS,
+      follS,
+      qualBeforeClearS,
+      follBeforeClearS,
+    })
   }
 
   // ---- rule 5: harsh events ----
@@ -415,7 +424,14 @@ export class ScoringEngine {
 
   // Plain field writes, not Object.assign with a literal: that line runs after the loop, where the optimised
   // code (compiled while the loop ran) had no type feedback, and it threw that code away on every score.
-  private commitHarsh(h: number, hSpeed: number, accelEvents: number, decelEvents: number, inAccel: boolean, inDecel: boolean): void {
+  private commitHarsh(
+    h: number,
+    hSpeed: number,
+    accelEvents: number,
+    decelEvents: number,
+    inAccel: boolean,
+    inDecel: boolean,
+  ): void {
     this.h = h
     this.hSpeed = hSpeed
     this.accelEvents = accelEvents

@@ -77,10 +77,7 @@ export function vincentyFromReduced(
     lambdaPrev = lambda
     lambda =
       L +
-      (1 - C) *
-        f *
-        sinAlpha *
-        (sigma + C * sinSigma * (cos2SigmaM + C * cosSigma * (-1 + 2 * cos2SigmaM * cos2SigmaM)))
+      (1 - C) * f * sinAlpha * (sigma + C * sinSigma * (cos2SigmaM + C * cosSigma * (-1 + 2 * cos2SigmaM * cos2SigmaM)))
   } while (Math.abs(lambda - lambdaPrev) > 1e-12 && ++iterations < 200)
 
   if (iterations >= 200) {
@@ -96,8 +93,7 @@ export function vincentyFromReduced(
     B *
     sinSigma *
     (cos2SigmaM +
-      (B / 4) *
-        (cosSigma * (-1 + 2 * c2) - (B / 6) * cos2SigmaM * (-3 + 4 * sinSigma * sinSigma) * (-3 + 4 * c2)))
+      (B / 4) * (cosSigma * (-1 + 2 * c2) - (B / 6) * cos2SigmaM * (-3 + 4 * sinSigma * sinSigma) * (-3 + 4 * c2)))
   out[k] = WGS84_B * A * (sigma - deltaSigma)
 }
 

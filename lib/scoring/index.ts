@@ -4,9 +4,5 @@ export { predictMinutesLeft } from "./predict"
 
 export { geodesicDistanceM } from "./geodesy"
 
-export type {   Score,  } from "./types"
-export {  worseVerdict } from "./road-test"
-
-
-
-
+export type { Score } from "./types"
+export { worseVerdict } from "./road-test"

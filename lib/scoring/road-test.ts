@@ -50,7 +50,13 @@ export function scoreRoadTest(
   marks: readonly Mark[],
   speedAtMoment: (ms: number) => number | null,
 ): RoadTestScore {
-  const outcomes = checks.map((c) => checkOutcome(c, marks.filter((m) => m.kind === "check" && m.checkKey === c.key), speedAtMoment))
+  const outcomes = checks.map((c) =>
+    checkOutcome(
+      c,
+      marks.filter((m) => m.kind === "check" && m.checkKey === c.key),
+      speedAtMoment,
+    ),
+  )
   const failed = outcomes.filter((o) => o.status === "failed")
   const verdict: Verdict = failed.length > 0 ? "not_met" : outcomes.some((o) => o.blocks) ? "unverified" : "met"
   const required = outcomes.filter((o) => o.need === "required")
@@ -64,7 +70,11 @@ export function scoreRoadTest(
   }
 }
 
-function checkOutcome(c: RoadTestCheck, own: readonly Mark[], speedAtMoment: (ms: number) => number | null): CheckOutcome {
+function checkOutcome(
+  c: RoadTestCheck,
+  own: readonly Mark[],
+  speedAtMoment: (ms: number) => number | null,
+): CheckOutcome {
   const minMps = c.minSpeedMph === null ? null : mphToMps(c.minSpeedMph)
   let decided: { mark: Mark; speed: number | null } | null = null
   let slow: { mark: Mark; speed: number | null } | null = null
@@ -86,20 +96,38 @@ function checkOutcome(c: RoadTestCheck, own: readonly Mark[], speedAtMoment: (ms
   if (decided) {
     const result = decided.mark.result
     if (result === "pass") return { ...base, status: "passed", blocks: false }
-    if (result === "fail") return { ...base, status: "failed", blocks: true, reason: `Road test: "${c.label}" failed (${at}).` }
+    if (result === "fail")
+      return { ...base, status: "failed", blocks: true, reason: `Road test: "${c.label}" failed (${at}).` }
     if (c.need === "required") {
-      return { ...base, status: "not_equipped", blocks: true, reason: `Road test: "${c.label}" is required but was marked not equipped.` }
+      return {
+        ...base,
+        status: "not_equipped",
+        blocks: true,
+        reason: `Road test: "${c.label}" is required but was marked not equipped.`,
+      }
     }
     return { ...base, status: "not_equipped", blocks: false }
   }
   if (slow) {
     const reason = `Road test: "${c.label}" passed only ${at}; it counts${speedWords}.`
-    return c.need === "required" ? { ...base, status: "below_speed", blocks: true, reason } : { ...base, status: "below_speed", blocks: false, reason }
+    return c.need === "required"
+      ? { ...base, status: "below_speed", blocks: true, reason }
+      : { ...base, status: "below_speed", blocks: false, reason }
   }
   if (c.need === "required") {
-    return { ...base, status: "not_logged", blocks: true, reason: `Road test: "${c.label}" was not logged as passed${speedWords}.` }
+    return {
+      ...base,
+      status: "not_logged",
+      blocks: true,
+      reason: `Road test: "${c.label}" was not logged as passed${speedWords}.`,
+    }
   }
-  return { ...base, status: "not_logged", blocks: false, reason: `Road test: "${c.label}" (where equipped) was not logged.` }
+  return {
+    ...base,
+    status: "not_logged",
+    blocks: false,
+    reason: `Road test: "${c.label}" (where equipped) was not logged.`,
+  }
 }
 
 const SEVERITY: Record<Verdict, number> = { met: 0, unverified: 1, short: 2, not_met: 3 }

@@ -131,7 +131,10 @@ function buildScore(engine: ScoringEngine): Score {
     verdict = "met"
     deciding = []
   }
-  const reasons = deciding.map(byKey).filter((c) => !c.met).map((c) => c.reason!)
+  const reasons = deciding
+    .map(byKey)
+    .filter((c) => !c.met)
+    .map((c) => c.reason!)
   const notes = conditions.filter((c) => c.advisory && !c.met).map((c) => c.reason!)
 
   return {
@@ -167,7 +170,10 @@ function clearedAtSeconds(x: EngineTotals): number | null {
 function buildConditions(p: ResolvedProfile, x: EngineTotals, v: Verification): Condition[] {
   const cleared = x.clearedAtMs !== null
   const when = cleared ? "before the clear was" : "so far is"
-  const speedBand = p.maxSpeedMph === null ? `${num(p.minSpeedMph)} mph or faster` : `${num(p.minSpeedMph)} to ${num(p.maxSpeedMph)} mph`
+  const speedBand =
+    p.maxSpeedMph === null
+      ? `${num(p.minSpeedMph)} mph or faster`
+      : `${num(p.minSpeedMph)} to ${num(p.maxSpeedMph)} mph`
   const qualRequiredS = p.minQualifyingMinutes * 60
   const follRequiredS = p.minFollowingMinutes * 60
   const timeLimitS = p.maxDriveMinutes * 60
@@ -197,7 +203,9 @@ function buildConditions(p: ResolvedProfile, x: EngineTotals, v: Verification): 
       unit: "s",
       advisory: false,
       ...(timedOut
-        ? { reason: `The drive timed out: ${minutes(x.durationSeconds, Infinity)} min without a clear; the limit is ${num(p.maxDriveMinutes)} min.` }
+        ? {
+            reason: `The drive timed out: ${minutes(x.durationSeconds, Infinity)} min without a clear; the limit is ${num(p.maxDriveMinutes)} min.`,
+          }
         : {}),
     },
     {
@@ -210,7 +218,9 @@ function buildConditions(p: ResolvedProfile, x: EngineTotals, v: Verification): 
       advisory: false,
       ...(qualMet
         ? {}
-        : { reason: `Qualifying time (${speedBand}) ${when} ${minutes(x.qualifyingSecondsBeforeClear, qualRequiredS)} min; ${num(p.minQualifyingMinutes)} min needed.` }),
+        : {
+            reason: `Qualifying time (${speedBand}) ${when} ${minutes(x.qualifyingSecondsBeforeClear, qualRequiredS)} min; ${num(p.minQualifyingMinutes)} min needed.`,
+          }),
     },
     {
       key: "following-time",

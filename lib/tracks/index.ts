@@ -119,7 +119,7 @@ export function generateDrive(options: GenerateDriveOptions): DriveFile {
       const target = tS >= totalS - 35 ? 0 : cruiseMps + wiggleMps * Math.sin((2 * Math.PI * tS) / wigglePeriodS)
       accel = clamp(0.5 * (target - v), -1.2, 1.2)
     }
-    const stepM = Math.max(0, v + accel * dtS / 2) * dtS
+    const stepM = Math.max(0, v + (accel * dtS) / 2) * dtS
     v = Math.max(0, v + accel * dtS)
     // Heading along the road.
     if (straightLeftM > 0) straightLeftM -= stepM

@@ -101,12 +101,19 @@ export function generateRoadDrive(o: RoadDriveOptions): DriveFile {
   let slowUntil = -1
   let slowTarget = 0
   let hardStop = false
-  let nextSlow = kind === "stop-and-go" ? between(30, 70) : traffic > 0 ? between(30, 200 * (1 - traffic) + 40) : Infinity
+  let nextSlow =
+    kind === "stop-and-go" ? between(30, 70) : traffic > 0 ? between(30, 200 * (1 - traffic) + 40) : Infinity
   for (let i = 0; ; i++) {
     const tS = i * dt
     if (tS > endS) break
     const [lat, lon] = pointAt(pts, s)
-    samples.push({ t: at(tS), lat: round(lat, 7), lon: round(lon, 7), speed: round(v, 2), accuracy: Math.round(between(3, 8) * 10) / 10 })
+    samples.push({
+      t: at(tS),
+      lat: round(lat, 7),
+      lon: round(lon, 7),
+      speed: round(v, 2),
+      accuracy: Math.round(between(3, 8) * 10) / 10,
+    })
     if (tS >= nextSlow && tS >= slowUntil) {
       if (kind === "stop-and-go") {
         slowTarget = 0

@@ -14,7 +14,12 @@ const PRESSURE_UNITS = ["psi", "kPa"] as const
 export type PressureUnit = (typeof PRESSURE_UNITS)[number]
 export const WHEELS = ["fl", "fr", "rl", "rr"] as const
 export type Wheel = (typeof WHEELS)[number]
-export const WHEEL_LABEL: Record<Wheel, string> = { fl: "Front left", fr: "Front right", rl: "Rear left", rr: "Rear right" }
+export const WHEEL_LABEL: Record<Wheel, string> = {
+  fl: "Front left",
+  fr: "Front right",
+  rl: "Rear left",
+  rr: "Rear right",
+}
 
 // A form's number box yields "" or a string; numbers pass through.
 const pressure = z.union([z.number(), z.string()]).transform((v, ctx) => {
@@ -57,7 +62,11 @@ export const checklistSchema = z
   })
   .superRefine((c, ctx) => {
     if (c.faultCodes.none && c.faultCodes.expected.length > 0) {
-      ctx.addIssue({ code: "custom", path: ["faultCodes", "expected"], message: "must be empty when no fault codes are stored" })
+      ctx.addIssue({
+        code: "custom",
+        path: ["faultCodes", "expected"],
+        message: "must be empty when no fault codes are stored",
+      })
     }
   })
 

@@ -5,7 +5,16 @@ import { vinSchema } from "@/lib/validation/vin"
 import { uuidSchema } from "@/lib/validation/uuid"
 
 // The job forms and tables import the task values and their words from here as well.
-export { JOB_STATUS_LABEL, JOB_STATUSES, METHOD_LABEL, METHODS, REASON_LABEL, REASONS, SENSOR_LABEL, SENSORS } from "@/lib/labels"
+export {
+  JOB_STATUS_LABEL,
+  JOB_STATUSES,
+  METHOD_LABEL,
+  METHODS,
+  REASON_LABEL,
+  REASONS,
+  SENSOR_LABEL,
+  SENSORS,
+} from "@/lib/labels"
 export type { JobStatus, Method, Reason, Sensor } from "@/lib/labels"
 
 // Forms send "" for an empty optional box; the API treats "" and a missing key alike.
@@ -102,5 +111,7 @@ export const jobListQuerySchema = z.object({
 })
 
 export function duplicateRoError(roNumber: string) {
-  return new AppError("conflict", `RO ${roNumber} is already a job in this shop.`, { roNumber: "is already used by another job" })
+  return new AppError("conflict", `RO ${roNumber} is already a job in this shop.`, {
+    roNumber: "is already used by another job",
+  })
 }

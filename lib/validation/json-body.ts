@@ -15,13 +15,22 @@ export class BodyTooLargeError extends Error {
  * Reads a body stream to text, stopping (and cancelling the stream) as soon as more than `maxBytes` arrived.
  * A declared Content-Length over the limit is refused before any byte is read.
  */
-export async function readBodyText(body: ReadableStream<Uint8Array> | null, maxBytes: number, declaredLength?: number): Promise<string> {
+export async function readBodyText(
+  body: ReadableStream<Uint8Array> | null,
+  maxBytes: number,
+  declaredLength?: number,
+): Promise<string> {
   return (await readBodyBytes(body, maxBytes, declaredLength)).toString("utf8")
 }
 
 /** The body's bytes, read up to `maxBytes` whatever Content-Length says (a chunked body is counted as it comes). */
-export async function readBodyBytes(body: ReadableStream<Uint8Array> | null, maxBytes: number, declaredLength?: number): Promise<Buffer> {
-  if (declaredLength !== undefined && Number.isFinite(declaredLength) && declaredLength > maxBytes) throw new BodyTooLargeError(maxBytes)
+export async function readBodyBytes(
+  body: ReadableStream<Uint8Array> | null,
+  maxBytes: number,
+  declaredLength?: number,
+): Promise<Buffer> {
+  if (declaredLength !== undefined && Number.isFinite(declaredLength) && declaredLength > maxBytes)
+    throw new BodyTooLargeError(maxBytes)
   if (!body) return Buffer.alloc(0)
   const reader = body.getReader()
   const chunks: Uint8Array[] = []
@@ -49,7 +58,8 @@ export function jsonNestsDeeperThan(text: string, limit: number): boolean {
   for (let i = 0; i < text.length; i++) {
     const c = text.charCodeAt(i)
     if (inString) {
-      if (c === 0x5c) i++ // backslash: skip the escaped character
+      if (c === 0x5c)
+        i++ // backslash: skip the escaped character
       else if (c === 0x22) inString = false
       continue
     }

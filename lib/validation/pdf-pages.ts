@@ -7,7 +7,11 @@ import { PDFDocument } from "pdf-lib"
  */
 export async function countPdfPages(bytes: Uint8Array): Promise<number | null> {
   try {
-    const doc = await PDFDocument.load(bytes, { ignoreEncryption: true, throwOnInvalidObject: true, updateMetadata: false })
+    const doc = await PDFDocument.load(bytes, {
+      ignoreEncryption: true,
+      throwOnInvalidObject: true,
+      updateMetadata: false,
+    })
     const pages = doc.getPageCount()
     return pages > 0 ? pages : null
   } catch {

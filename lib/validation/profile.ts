@@ -47,9 +47,16 @@ export function keyFromName(name: string): string {
 export const shopSettingsSchema = z
   .object({
     units: z.enum(["imperial", "metric"]).optional(),
-    tirePressureTolerancePsi: z.number().min(0.5, "must be at least 0.5 psi").max(15, "must be at most 15 psi").optional(),
+    tirePressureTolerancePsi: z
+      .number()
+      .min(0.5, "must be at least 0.5 psi")
+      .max(15, "must be at most 15 psi")
+      .optional(),
     timeZone: z.string().max(64).refine(isTimeZone, "must be a time zone name such as America/Chicago").optional(),
-    location: z.object({ lat: z.number().min(-90).max(90), lon: z.number().min(-180).max(180) }).nullable().optional(),
+    location: z
+      .object({ lat: z.number().min(-90).max(90), lon: z.number().min(-180).max(180) })
+      .nullable()
+      .optional(),
     /** false turns road knowledge off and removes the shop's road model. */
     roadKnowledge: z.boolean().optional(),
     /** Whole months of samples to keep before the current month; null keeps everything (the default). */

@@ -8,17 +8,29 @@ const REVIEW_NOTE_MAX_CHARS = 2000
 export const reviewSchema = z
   .object({
     decision: z.enum(REVIEW_DECISIONS, { error: "must be approve or redo" }),
-    note: z.string({ error: "must be text" }).trim().max(REVIEW_NOTE_MAX_CHARS, { error: `must be at most ${REVIEW_NOTE_MAX_CHARS} characters` }).default(""),
+    note: z
+      .string({ error: "must be text" })
+      .trim()
+      .max(REVIEW_NOTE_MAX_CHARS, { error: `must be at most ${REVIEW_NOTE_MAX_CHARS} characters` })
+      .default(""),
   })
   .superRefine((v, ctx) => {
     if (v.decision === "redo" && v.note === "") {
-      ctx.addIssue({ code: "custom", path: ["note"], message: "is required to send a drive back: say what to do differently" })
+      ctx.addIssue({
+        code: "custom",
+        path: ["note"],
+        message: "is required to send a drive back: say what to do differently",
+      })
     }
   })
 export type ReviewInput = z.infer<typeof reviewSchema>
 
 export const recordEmailSchema = z.object({
-  to: z.string({ error: "must be an e-mail address" }).trim().max(254).pipe(z.email({ error: "must be an e-mail address" })),
+  to: z
+    .string({ error: "must be an e-mail address" })
+    .trim()
+    .max(254)
+    .pipe(z.email({ error: "must be an e-mail address" })),
 })
 
 export const shareSchema = z.object({
@@ -32,5 +44,10 @@ export const shareSchema = z.object({
 
 export const markReadSchema = z.union([
   z.object({ all: z.literal(true) }),
-  z.object({ ids: z.array(z.uuid({ error: "must be a notice id" })).min(1).max(100) }),
+  z.object({
+    ids: z
+      .array(z.uuid({ error: "must be a notice id" }))
+      .min(1)
+      .max(100),
+  }),
 ])

@@ -2,15 +2,23 @@
 // (the Roads page then takes the middle of where the shop's drives start).
 
 export type LocationInput =
-  | { ok: true; location: { lat: number; lon: number } | null }
-  | { ok: false; field: "lat" | "lon"; message: string }
+  { ok: true; location: { lat: number; lon: number } | null } | { ok: false; field: "lat" | "lon"; message: string }
 
 const DECIMAL = /^[+-]?(\d+(\.\d*)?|\.\d+)$/
 
-function degrees(text: string, max: number, field: "lat" | "lon"): { ok: true; value: number } | { ok: false; field: "lat" | "lon"; message: string } {
+function degrees(
+  text: string,
+  max: number,
+  field: "lat" | "lon",
+): { ok: true; value: number } | { ok: false; field: "lat" | "lon"; message: string } {
   // a decimal comma is common outside the US: 43,8731
   const t = text.trim().replace(/^([+-]?\d+),(\d+)$/, "$1.$2")
-  if (!DECIMAL.test(t)) return { ok: false, field, message: `Write the ${field === "lat" ? "latitude" : "longitude"} in decimal degrees, e.g. ${field === "lat" ? "43.8731" : "-91.9187"}.` }
+  if (!DECIMAL.test(t))
+    return {
+      ok: false,
+      field,
+      message: `Write the ${field === "lat" ? "latitude" : "longitude"} in decimal degrees, e.g. ${field === "lat" ? "43.8731" : "-91.9187"}.`,
+    }
   const value = Number(t)
   if (!(Math.abs(value) <= max)) return { ok: false, field, message: `must be between -${max} and ${max}` }
   return { ok: true, value }

@@ -59,7 +59,14 @@ export function findUnstorableText(value: unknown): { path: string; problem: str
 export function isTimestampText(text: string): boolean {
   const m = /^(\d{4})-(\d\d)-(\d\d)[T ](\d\d):(\d\d):(\d\d)(\.\d{1,6})?(Z|[+-]\d\d(?::?\d\d)?)$/.exec(text)
   if (!m) return false
-  const [year, month, day, hour, minute, second] = m.slice(1, 7).map(Number) as [number, number, number, number, number, number]
+  const [year, month, day, hour, minute, second] = m.slice(1, 7).map(Number) as [
+    number,
+    number,
+    number,
+    number,
+    number,
+    number,
+  ]
   if (year < 1 || month < 1 || month > 12 || day < 1 || hour > 23 || minute > 59 || second > 59) return false
   const daysInMonth = new Date(Date.UTC(2000, month, 0)).getUTCDate() // 2000: a leap year, February 29
   if (day > daysInMonth) return false

@@ -10,5 +10,9 @@ export const newUserSchema = z.object({
 export type NewUserInput = z.infer<typeof newUserSchema>
 
 export const userChangeSchema = z
-  .object({ role: z.enum(ROLES).optional(), disabled: z.boolean().optional(), name: z.string().trim().min(1).max(120).optional() })
+  .object({
+    role: z.enum(ROLES).optional(),
+    disabled: z.boolean().optional(),
+    name: z.string().trim().min(1).max(120).optional(),
+  })
   .refine((v) => Object.keys(v).length > 0, "Nothing to change.")

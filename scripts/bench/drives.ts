@@ -28,11 +28,25 @@ async function rig(ctx: BenchContext): Promise<Rig> {
   return ctx.memo("drives-rig", async () => {
     const baseUrl = ctx.env.BASE_URL!
     const db = createDb(ctx.env.DATABASE_URL)
-    const { id: shopId } = await db.insertInto("shop").values({ name: `Bench shop ${randomUUID().slice(0, 8)}`, settings: "{}" }).returning("id").executeTakeFirstOrThrow()
+    const { id: shopId } = await db
+      .insertInto("shop")
+      .values({ name: `Bench shop ${randomUUID().slice(0, 8)}`, settings: "{}" })
+      .returning("id")
+      .executeTakeFirstOrThrow()
     const userId = randomUUID()
     const email = `bench-${userId.slice(0, 8)}@bench.invalid`
     const password = `bench-${randomUUID()}`
-    await db.insertInto("app_user").values({ id: userId, shop_id: shopId, email, name: "Bench technician", role: "technician", password_hash: await hashPassword(password) }).execute()
+    await db
+      .insertInto("app_user")
+      .values({
+        id: userId,
+        shop_id: shopId,
+        email,
+        name: "Bench technician",
+        role: "technician",
+        password_hash: await hashPassword(password),
+      })
+      .execute()
     const address = `bench-${process.pid}-${Date.now()}`
     const signIn = await fetch(`${baseUrl}/api/session`, {
       method: "POST",
@@ -45,7 +59,11 @@ async function rig(ctx: BenchContext): Promise<Rig> {
       async request(method, path, body) {
         const res = await fetch(`${baseUrl}${path}`, {
           method,
-          headers: { cookie, "x-forwarded-for": address, ...(body === undefined ? {} : { "content-type": "application/json" }) },
+          headers: {
+            cookie,
+            "x-forwarded-for": address,
+            ...(body === undefined ? {} : { "content-type": "application/json" }),
+          },
           body: body === undefined ? undefined : JSON.stringify(body),
         })
         const text = await res.text()
@@ -58,7 +76,10 @@ async function rig(ctx: BenchContext): Promise<Rig> {
       userId,
       transport,
       async cleanup() {
-        await db.deleteFrom("sample").where("drive_key", "in", db.selectFrom("drive").select("sample_key").where("shop_id", "=", shopId)).execute()
+        await db
+          .deleteFrom("sample")
+          .where("drive_key", "in", db.selectFrom("drive").select("sample_key").where("shop_id", "=", shopId))
+          .execute()
         await db.deleteFrom("drive").where("shop_id", "=", shopId).execute()
         await db.deleteFrom("app_user").where("shop_id", "=", shopId).execute()
         await db.deleteFrom("shop").where("id", "=", shopId).execute()
@@ -86,17 +107,30 @@ async function rawInsert(databaseUrl: string, driveId: string, shopId: string, s
   const client = new pg.Client({ connectionString: databaseUrl })
   await client.connect()
   try {
-    const { rows: keys } = await client.query("select sample_key from drive where id = $1 and shop_id = $2", [driveId, shopId])
+    const { rows: keys } = await client.query("select sample_key from drive where id = $1 and shop_id = $2", [
+      driveId,
+      shopId,
+    ])
     const driveKey = Number(keys[0].sample_key)
     const t0 = performance.now()
     for (const batch of chunks(samples, SEND_MAX_SAMPLES)) {
       const values: unknown[] = []
       const rows = batch.map((s, i) => {
-        values.push(driveKey, s.t, encodeDegrees(s.lat), encodeDegrees(s.lon), encodeMillis(s.speed), encodeMillis(s.accuracy))
+        values.push(
+          driveKey,
+          s.t,
+          encodeDegrees(s.lat),
+          encodeDegrees(s.lon),
+          encodeMillis(s.speed),
+          encodeMillis(s.accuracy),
+        )
         const b = i * 6
         return `($${b + 1},$${b + 2},$${b + 3},$${b + 4},$${b + 5},$${b + 6})`
       })
-      await client.query(`insert into sample (drive_key, t, lat, lon, speed, accuracy) values ${rows.join(",")}`, values)
+      await client.query(
+        `insert into sample (drive_key, t, lat, lon, speed, accuracy) values ${rows.join(",")}`,
+        values,
+      )
     }
     return performance.now() - t0
   } finally {
@@ -115,7 +149,10 @@ export const ingestToRawInsertRatio: BenchFigure = {
     const t0 = performance.now()
     let n = 0
     for (const batch of chunks(file.samples, SEND_MAX_SAMPLES)) {
-      const res = await r.transport.request("POST", `/api/drives/${apiDrive}/samples`, { batchId: `bench-${n++}`, samples: batch })
+      const res = await r.transport.request("POST", `/api/drives/${apiDrive}/samples`, {
+        batchId: `bench-${n++}`,
+        samples: batch,
+      })
       if (res.status !== 200) throw new Error(`ingest failed: ${res.status} ${JSON.stringify(res.body)}`)
     }
     const apiMs = performance.now() - t0
@@ -142,12 +179,15 @@ export const syncSecondsFor36k: BenchFigure = {
     let now = 1
     await store.put([makeItem(driveId, { type: "create-drive", body: { vehicleDescription: "Bench sync" } }, now++)])
     await store.put(
-      chunks(file.samples, 10).map((piece, i) => makeItem(driveId, { type: "samples", batchId: `p${i}-${randomUUID().slice(0, 8)}`, samples: piece }, now++)),
+      chunks(file.samples, 10).map((piece, i) =>
+        makeItem(driveId, { type: "samples", batchId: `p${i}-${randomUUID().slice(0, 8)}`, samples: piece }, now++),
+      ),
     )
     const t0 = performance.now()
     const outcome = await flushOutbox(store, r.transport)
     const seconds = (performance.now() - t0) / 1000
-    if (outcome.kind !== "done" || store.items.size !== 0) throw new Error(`sync did not finish: ${JSON.stringify(outcome)}`)
+    if (outcome.kind !== "done" || store.items.size !== 0)
+      throw new Error(`sync did not finish: ${JSON.stringify(outcome)}`)
     const { n } = await r.db
       .selectFrom("sample")
       .select((eb) => eb.fn.countAll<string>().as("n"))

@@ -44,24 +44,57 @@ export const exportPeakRssMb360k: BenchFigure = {
   async run(ctx) {
     const baseUrl = ctx.env.BASE_URL!
     const db = createDb(ctx.env.DATABASE_URL)
-    const { id: shopId } = await db.insertInto("shop").values({ name: `Bench exports ${randomUUID().slice(0, 8)}`, settings: "{}" }).returning("id").executeTakeFirstOrThrow()
+    const { id: shopId } = await db
+      .insertInto("shop")
+      .values({ name: `Bench exports ${randomUUID().slice(0, 8)}`, settings: "{}" })
+      .returning("id")
+      .executeTakeFirstOrThrow()
     try {
       const password = `bench-${randomUUID()}`
       const email = `bench-exports-${randomUUID().slice(0, 8)}@bench.invalid`
       const userId = randomUUID()
-      await db.insertInto("app_user").values({ id: userId, shop_id: shopId, email, name: "Bench", role: "technician", password_hash: await hashPassword(password) }).execute()
+      await db
+        .insertInto("app_user")
+        .values({
+          id: userId,
+          shop_id: shopId,
+          email,
+          name: "Bench",
+          role: "technician",
+          password_hash: await hashPassword(password),
+        })
+        .execute()
       const file = generateDrive({ seed: 360, minutes: SAMPLES / 600, hz: 10, pattern: "met" })
       if (file.samples.length !== SAMPLES) throw new Error(`generated ${file.samples.length} samples, not ${SAMPLES}`)
       const driveId = randomUUID()
       const at = new Date(file.samples[0]!.t)
       await db
         .insertInto("drive")
-        .values({ id: driveId, shop_id: shopId, profile: JSON.stringify(resolveProfile(file.profile)), driver_id: userId, status: "finished", created_at: at, finished_at: at })
+        .values({
+          id: driveId,
+          shop_id: shopId,
+          profile: JSON.stringify(resolveProfile(file.profile)),
+          driver_id: userId,
+          status: "finished",
+          created_at: at,
+          finished_at: at,
+        })
         .execute()
-      for (let i = 0; i < SAMPLES; i += 10_000) await insertSamples(db, driveId, shopId, file.samples.slice(i, i + 10_000))
+      for (let i = 0; i < SAMPLES; i += 10_000)
+        await insertSamples(db, driveId, shopId, file.samples.slice(i, i + 10_000))
       await db
         .insertInto("mark")
-        .values(file.marks.map((m) => ({ id: randomUUID(), drive_id: driveId, shop_id: shopId, t: m.t, kind: m.kind, gap_ft: "gapFt" in m ? (m.gapFt ?? null) : null, text: "text" in m ? (m.text ?? null) : null })))
+        .values(
+          file.marks.map((m) => ({
+            id: randomUUID(),
+            drive_id: driveId,
+            shop_id: shopId,
+            t: m.t,
+            kind: m.kind,
+            gap_ft: "gapFt" in m ? (m.gapFt ?? null) : null,
+            text: "text" in m ? (m.text ?? null) : null,
+          })),
+        )
         .execute()
 
       const signIn = await fetch(`${baseUrl}/api/session`, {
@@ -97,8 +130,11 @@ export const exportPeakRssMb360k: BenchFigure = {
             bytes += chunk.length
             for (const b of chunk) if (b === 10) newlines++
           }
-          if (format === "csv" && newlines !== SAMPLES + 1) throw new Error(`the CSV has ${newlines} lines, not ${SAMPLES + 1}`)
-          sizes.push(`${format} ${(bytes / 1e6).toFixed(1)} MB (peak so far ${((polledKb * 1024) / 1e6).toFixed(0)} MB)`)
+          if (format === "csv" && newlines !== SAMPLES + 1)
+            throw new Error(`the CSV has ${newlines} lines, not ${SAMPLES + 1}`)
+          sizes.push(
+            `${format} ${(bytes / 1e6).toFixed(1)} MB (peak so far ${((polledKb * 1024) / 1e6).toFixed(0)} MB)`,
+          )
         }
       } finally {
         clearInterval(poll)

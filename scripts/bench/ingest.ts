@@ -35,11 +35,25 @@ function rig(ctx: BenchContext): Promise<Rig> {
   return ctx.memo("ingest-rig", async () => {
     const baseUrl = ctx.env.BASE_URL!
     const db = createDb(ctx.env.DATABASE_URL)
-    const { id: shopId } = await db.insertInto("shop").values({ name: `Bench ingest ${randomUUID().slice(0, 8)}`, settings: "{}" }).returning("id").executeTakeFirstOrThrow()
+    const { id: shopId } = await db
+      .insertInto("shop")
+      .values({ name: `Bench ingest ${randomUUID().slice(0, 8)}`, settings: "{}" })
+      .returning("id")
+      .executeTakeFirstOrThrow()
     const userId = randomUUID()
     const email = `ingest-${userId.slice(0, 8)}@bench.invalid`
     const password = `bench-${randomUUID()}`
-    await db.insertInto("app_user").values({ id: userId, shop_id: shopId, email, name: "Bench technician", role: "technician", password_hash: await hashPassword(password) }).execute()
+    await db
+      .insertInto("app_user")
+      .values({
+        id: userId,
+        shop_id: shopId,
+        email,
+        name: "Bench technician",
+        role: "technician",
+        password_hash: await hashPassword(password),
+      })
+      .execute()
     const address = `bench-ingest-${process.pid}`
     const signIn = await fetch(`${baseUrl}/api/session`, {
       method: "POST",
@@ -144,7 +158,10 @@ export const ingestCeilingRatio: BenchFigure = {
     const { file } = hourAt10Hz(ctx)
     const apiDrives = await Promise.all(Array.from({ length: CEILING_CLIENTS }, () => r.newDrive()))
     const apiRate = await closedLoop(CEILING_CLIENTS, CEILING_MS, async (c, k) => {
-      const res = await r.post(`/api/drives/${apiDrives[c]}/samples`, { batchId: `api-${k}`, samples: batchSamples(file.samples, k, SEND_AT_SAMPLES) })
+      const res = await r.post(`/api/drives/${apiDrives[c]}/samples`, {
+        batchId: `api-${k}`,
+        samples: batchSamples(file.samples, k, SEND_AT_SAMPLES),
+      })
       if (res.status !== 200) throw new Error(`ingest failed: ${res.status}`)
     })
     // The same statements the route runs, through a pool of the app's size, without HTTP, Next.js or validation.
@@ -160,13 +177,21 @@ export const ingestCeilingRatio: BenchFigure = {
       const [session, user] = await sessions.getSessionAndUser(sessionId)
       if (!session || !user) throw new Error("the straight ingest found no session")
       await findDriveAndBatch(db, sqlDrives[c]!, r.shopId, batchId)
-      const res = await ingestSampleBatch(db, sqlDrives[c]!, r.shopId, batchId, batchSamples(file.samples, k, SEND_AT_SAMPLES))
+      const res = await ingestSampleBatch(
+        db,
+        sqlDrives[c]!,
+        r.shopId,
+        batchId,
+        batchSamples(file.samples, k, SEND_AT_SAMPLES),
+      )
       if (!res || res.replayed) throw new Error("the straight ingest did not store")
     })
     await pool.end()
     await db.destroy()
     await done(r)
-    console.error(`[bench] ingest ceiling: ${apiRate.toFixed(0)} POSTs/s through the API, ${sqlRate.toFixed(0)}/s straight through pg`)
+    console.error(
+      `[bench] ingest ceiling: ${apiRate.toFixed(0)} POSTs/s through the API, ${sqlRate.toFixed(0)}/s straight through pg`,
+    )
     return apiRate / sqlRate
   },
   meets: (v) => v >= 0.6,
@@ -193,7 +218,10 @@ export const ingestAtCadenceP95Ms: BenchFigure = {
           const wait = next - performance.now()
           if (wait > 0) await new Promise((res) => setTimeout(res, wait))
           try {
-            const res = await r.post(`/api/drives/${driveId}/samples`, { batchId: `c-${k}`, samples: batchSamples(file.samples, k, SEND_AT_SAMPLES) })
+            const res = await r.post(`/api/drives/${driveId}/samples`, {
+              batchId: `c-${k}`,
+              samples: batchSamples(file.samples, k, SEND_AT_SAMPLES),
+            })
             if (res.status === 200) times.push(res.ms)
             else cadenceErrors++
           } catch {
@@ -204,7 +232,9 @@ export const ingestAtCadenceP95Ms: BenchFigure = {
       }),
     )
     await done(r)
-    console.error(`[bench] ingest at cadence: ${times.length} POSTs, ${cadenceErrors} errors, p50 ${percentileOf(times, 50).toFixed(1)} ms, p99 ${percentileOf(times, 99).toFixed(1)} ms`)
+    console.error(
+      `[bench] ingest at cadence: ${times.length} POSTs, ${cadenceErrors} errors, p50 ${percentileOf(times, 50).toFixed(1)} ms, p99 ${percentileOf(times, 99).toFixed(1)} ms`,
+    )
     return percentileOf(times, 95)
   },
   meets: (v) => v <= 100 && cadenceErrors === 0,

@@ -25,13 +25,20 @@ async function crew(ctx: BenchContext): Promise<Crew> {
   return ctx.memo("live-crew", async () => {
     const baseUrl = ctx.env.BASE_URL!
     const db = createDb(ctx.env.DATABASE_URL)
-    const { id: shopId } = await db.insertInto("shop").values({ name: `Bench live ${randomUUID().slice(0, 8)}`, settings: "{}" }).returning("id").executeTakeFirstOrThrow()
+    const { id: shopId } = await db
+      .insertInto("shop")
+      .values({ name: `Bench live ${randomUUID().slice(0, 8)}`, settings: "{}" })
+      .returning("id")
+      .executeTakeFirstOrThrow()
     const password = `bench-${randomUUID()}`
     const hash = await hashPassword(password)
     const person = async (role: "technician" | "co_driver"): Promise<Phone & { id: string }> => {
       const id = randomUUID()
       const email = `bench-${id.slice(0, 8)}@bench.invalid`
-      await db.insertInto("app_user").values({ id, shop_id: shopId, email, name: `Bench ${role}`, role, password_hash: hash }).execute()
+      await db
+        .insertInto("app_user")
+        .values({ id, shop_id: shopId, email, name: `Bench ${role}`, role, password_hash: hash })
+        .execute()
       const address = `bench-live-${id.slice(0, 8)}`
       const res = await fetch(`${baseUrl}/api/session`, {
         method: "POST",
@@ -62,7 +69,11 @@ async function crew(ctx: BenchContext): Promise<Crew> {
 async function call(c: Crew, phone: Phone, method: string, path: string, body?: unknown) {
   const res = await fetch(`${c.baseUrl}${path}`, {
     method,
-    headers: { cookie: phone.cookie, "x-forwarded-for": phone.address, ...(body === undefined ? {} : { "content-type": "application/json" }) },
+    headers: {
+      cookie: phone.cookie,
+      "x-forwarded-for": phone.address,
+      ...(body === undefined ? {} : { "content-type": "application/json" }),
+    },
     body: body === undefined ? undefined : JSON.stringify(body),
   })
   const text = await res.text()
@@ -83,7 +94,11 @@ export const liveFanoutP95Seconds: BenchFigure = {
   async run(ctx) {
     const c = await crew(ctx)
     const driveId = randomUUID()
-    await call(c, c.driver, "POST", "/api/drives", { id: driveId, vehicleDescription: "Bench live", coDriverId: c.codriverId })
+    await call(c, c.driver, "POST", "/api/drives", {
+      id: driveId,
+      vehicleDescription: "Bench live",
+      coDriverId: c.codriverId,
+    })
     // Some driving first, so every mark falls inside the drive.
     const { file } = hourAt10Hz(ctx)
     const driven = file.samples.slice(0, 1100)
@@ -134,7 +149,9 @@ export const liveFanoutP95Seconds: BenchFigure = {
     for (let i = 0; i < 100; i++) {
       const id = randomUUID()
       const sentAt = performance.now()
-      await call(c, c.codriver, "POST", `/api/drives/${driveId}/marks`, { marks: [{ id, t: driven[i * 10]!.t, kind: "note", text: `Bench mark ${i}` }] })
+      await call(c, c.codriver, "POST", `/api/drives/${driveId}/marks`, {
+        marks: [{ id, t: driven[i * 10]!.t, kind: "note", text: `Bench mark ${i}` }],
+      })
       await until(() => arrived.has(id))
       seconds.push((arrived.get(id)! - sentAt) / 1000)
     }
@@ -155,11 +172,20 @@ export const recordingDriveGetMs36k: BenchFigure = {
     const driveId = randomUUID()
     await call(c, c.driver, "POST", "/api/drives", { id: driveId, vehicleDescription: "Bench recording drive" })
     for (let i = 0, n = 0; i < file.samples.length; i += SEND_MAX_SAMPLES, n++) {
-      await call(c, c.driver, "POST", `/api/drives/${driveId}/samples`, { batchId: `g${n}`, samples: file.samples.slice(i, i + SEND_MAX_SAMPLES) })
+      await call(c, c.driver, "POST", `/api/drives/${driveId}/samples`, {
+        batchId: `g${n}`,
+        samples: file.samples.slice(i, i + SEND_MAX_SAMPLES),
+      })
     }
-    await call(c, c.driver, "POST", `/api/drives/${driveId}/marks`, { marks: file.marks.map((m) => ({ ...m, id: randomUUID() })) })
+    await call(c, c.driver, "POST", `/api/drives/${driveId}/marks`, {
+      marks: file.marks.map((m) => ({ ...m, id: randomUUID() })),
+    })
     const first = await call(c, c.driver, "GET", `/api/drives/${driveId}`)
-    if (first.drive.status !== "recording" || first.score.samplesUsed + first.score.samplesDropped !== file.samples.length) throw new Error("recording drive bench: unexpected drive")
+    if (
+      first.drive.status !== "recording" ||
+      first.score.samplesUsed + first.score.samplesDropped !== file.samples.length
+    )
+      throw new Error("recording drive bench: unexpected drive")
     const times: number[] = []
     const floor: number[] = []
     for (let i = 0; i < 40; i++) {
@@ -171,7 +197,9 @@ export const recordingDriveGetMs36k: BenchFigure = {
       await call(c, c.driver, "GET", "/api/session")
       floor.push(performance.now() - t1)
     }
-    console.error(`recordingDriveGetMs36k: for context, GET /api/session p50 ${percentile(floor, 50).toFixed(1)} ms in the same run`)
+    console.error(
+      `recordingDriveGetMs36k: for context, GET /api/session p50 ${percentile(floor, 50).toFixed(1)} ms in the same run`,
+    )
     await c.cleanup()
     return percentile(times, 50)
   },

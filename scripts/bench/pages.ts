@@ -11,10 +11,24 @@ import type { BenchFigure } from "./types"
 
 export async function signedInCookie(baseUrl: string, databaseUrl: string) {
   const db = createDb(databaseUrl)
-  const { id: shopId } = await db.insertInto("shop").values({ name: `Bench pages ${randomUUID().slice(0, 8)}`, settings: "{}" }).returning("id").executeTakeFirstOrThrow()
+  const { id: shopId } = await db
+    .insertInto("shop")
+    .values({ name: `Bench pages ${randomUUID().slice(0, 8)}`, settings: "{}" })
+    .returning("id")
+    .executeTakeFirstOrThrow()
   const password = `bench-${randomUUID()}`
   const email = `bench-pages-${randomUUID().slice(0, 8)}@bench.invalid`
-  await db.insertInto("app_user").values({ id: randomUUID(), shop_id: shopId, email, name: "Bench", role: "technician", password_hash: await hashPassword(password) }).execute()
+  await db
+    .insertInto("app_user")
+    .values({
+      id: randomUUID(),
+      shop_id: shopId,
+      email,
+      name: "Bench",
+      role: "technician",
+      password_hash: await hashPassword(password),
+    })
+    .execute()
   const res = await fetch(`${baseUrl}/api/session`, {
     method: "POST",
     headers: { "content-type": "application/json", "x-forwarded-for": `bench-pages-${process.pid}` },
@@ -82,7 +96,9 @@ export async function loadedScriptsGzipBytes(baseUrl: string, path: string, cook
       bodies.set(res.url(), body)
     })
     await page.goto(`${baseUrl}${path}`, { waitUntil: "load" })
-    await page.waitForFunction(() => (window as unknown as { __readyAt?: number }).__readyAt !== undefined, null, { timeout: 60_000 })
+    await page.waitForFunction(() => (window as unknown as { __readyAt?: number }).__readyAt !== undefined, null, {
+      timeout: 60_000,
+    })
     await page.waitForLoadState("networkidle")
     // Every script asked for before that moment counts, even one that arrived after it.
     const asked: string[] = await page.evaluate(() => {
@@ -115,8 +131,15 @@ export const recorderFirstLoadKb: BenchFigure = {
     try {
       const { bytes: htmlOnly } = await firstLoadGzipBytes(ctx.env.BASE_URL!, "/record", cookie)
       // The start screen works once its first step's button is hydrated.
-      const { bytes, scripts, later } = await loadedScriptsGzipBytes(ctx.env.BASE_URL!, "/record", cookie, '[data-testid="to-gate"]')
-      console.error(`[bench] /record: ${scripts} scripts before the start screen works (${later} after); the HTML's script tags alone: ${(htmlOnly / 1000).toFixed(1)} kB`)
+      const { bytes, scripts, later } = await loadedScriptsGzipBytes(
+        ctx.env.BASE_URL!,
+        "/record",
+        cookie,
+        '[data-testid="to-gate"]',
+      )
+      console.error(
+        `[bench] /record: ${scripts} scripts before the start screen works (${later} after); the HTML's script tags alone: ${(htmlOnly / 1000).toFixed(1)} kB`,
+      )
       return bytes / 1000
     } finally {
       await cleanup()
@@ -136,7 +159,11 @@ export const detailHtmlKb36k: BenchFigure = {
     const { cookie, cleanup } = await signedInCookie(baseUrl, ctx.env.DATABASE_URL!)
     try {
       const { text } = hourAt10Hz(ctx)
-      const res = await fetch(`${baseUrl}/api/drives/import`, { method: "POST", headers: { cookie, "content-type": "application/json" }, body: text })
+      const res = await fetch(`${baseUrl}/api/drives/import`, {
+        method: "POST",
+        headers: { cookie, "content-type": "application/json" },
+        body: text,
+      })
       if (res.status !== 201) throw new Error(`import failed: ${res.status} ${await res.text()}`)
       const { drive } = (await res.json()) as { drive: { id: string } }
       const page = await fetch(`${baseUrl}/drives/${drive.id}`, { headers: { cookie } })

@@ -20,7 +20,11 @@ interface BigShop {
 function bigShop(ctx: BenchContext): Promise<BigShop> {
   return ctx.memo("reads-big-shop", async () => {
     const db = createDb(ctx.env.DATABASE_URL)
-    const { id: shopId } = await db.insertInto("shop").values({ name: `Bench history ${randomUUID().slice(0, 8)}`, settings: "{}" }).returning("id").executeTakeFirstOrThrow()
+    const { id: shopId } = await db
+      .insertInto("shop")
+      .values({ name: `Bench history ${randomUUID().slice(0, 8)}`, settings: "{}" })
+      .returning("id")
+      .executeTakeFirstOrThrow()
     await sql`
       insert into app_user (id, shop_id, email, name, role, password_hash)
       select 'bench-' || ${shopId}::text || '-' || i, ${shopId}::uuid, 'bench-' || ${shopId}::text || '-' || i || '@bench.invalid',
@@ -29,7 +33,9 @@ function bigShop(ctx: BenchContext): Promise<BigShop> {
     await sql`
       with p as (insert into condition_profile (shop_id, key, name, sensor)
                  select ${shopId}::uuid, 'bench-' || i, 'Bench profile ' || i, 'forward_radar' from generate_series(1, 3) i returning id)
-      insert into condition_profile_version (shop_id, profile_id, version, settings) select ${shopId}::uuid, id, 1, '{}' from p`.execute(db)
+      insert into condition_profile_version (shop_id, profile_id, version, settings) select ${shopId}::uuid, id, 1, '{}' from p`.execute(
+      db,
+    )
     // Two years of drives, about 137 a day; 98% finished, 70% met; older drives mostly reviewed.
     await sql`
       insert into drive (id, shop_id, vehicle_description, profile_version_id, profile, driver_id, status, verdict, review_status, created_at, finished_at)
@@ -56,7 +62,9 @@ function bigShop(ctx: BenchContext): Promise<BigShop> {
           jsonb_build_object('key', 'speed', 'met', d.verdict = 'met' or h % 2 = 0),
           jsonb_build_object('key', 'following', 'met', d.verdict = 'met' or h % 3 = 0),
           jsonb_build_object('key', 'accuracy', 'met', d.verdict <> 'unverified')))
-      from (select id, shop_id, verdict, abs(hashtext(id::text)) as h from drive where shop_id = ${shopId}::uuid and status = 'finished') d`.execute(db)
+      from (select id, shop_id, verdict, abs(hashtext(id::text)) as h from drive where shop_id = ${shopId}::uuid and status = 'finished') d`.execute(
+      db,
+    )
     // As autovacuum leaves a table that has settled (the trigger rewrote each drive row once).
     await sql`vacuum analyze drive`.execute(db)
     await sql`vacuum analyze score`.execute(db)
@@ -114,7 +122,9 @@ export const numbersP95Ms100k: BenchFigure = {
     // Beside the figure (the period's drives as rows, which the CSV sends): the aggregate the page and the JSON
     // API show (app/_server/numbers.ts loadNumbers), for the same shop and period.
     const pageMs = await p95Ms(() => loadNumbersSummary(shop.db, shop.shopId, since, "America/Chicago"))
-    console.error(`[bench] numbers: ${rows.length} drives in 90 days; rows p95 ${ms.toFixed(1)} ms, the page's aggregate p95 ${pageMs.toFixed(1)} ms`)
+    console.error(
+      `[bench] numbers: ${rows.length} drives in 90 days; rows p95 ${ms.toFixed(1)} ms, the page's aggregate p95 ${pageMs.toFixed(1)} ms`,
+    )
     await finish(ctx, shop)
     return ms
   },

@@ -19,13 +19,19 @@ const HOME = { lat: 43.8731, lon: -91.9187 }
 async function benchShop(db: Db, role: "technician" | "shop_lead") {
   const { id: shopId } = await db
     .insertInto("shop")
-    .values({ name: `Bench roads ${randomUUID().slice(0, 8)}`, settings: JSON.stringify({ location: HOME, timeZone: "America/Chicago" }) })
+    .values({
+      name: `Bench roads ${randomUUID().slice(0, 8)}`,
+      settings: JSON.stringify({ location: HOME, timeZone: "America/Chicago" }),
+    })
     .returning("id")
     .executeTakeFirstOrThrow()
   const password = `bench-${randomUUID()}`
   const email = `bench-roads-${randomUUID().slice(0, 8)}@bench.invalid`
   const userId = randomUUID()
-  await db.insertInto("app_user").values({ id: userId, shop_id: shopId, email, name: "Bench", role, password_hash: await hashPassword(password) }).execute()
+  await db
+    .insertInto("app_user")
+    .values({ id: userId, shop_id: shopId, email, name: "Bench", role, password_hash: await hashPassword(password) })
+    .execute()
   return { shopId, userId, email, password }
 }
 
@@ -33,7 +39,15 @@ async function insertDriveRow(db: Db, shopId: string, userId: string, startMs: n
   const id = randomUUID()
   await db
     .insertInto("drive")
-    .values({ id, shop_id: shopId, profile: JSON.stringify(resolveProfile({})), driver_id: userId, status: "finished", created_at: new Date(startMs), finished_at: new Date(startMs) })
+    .values({
+      id,
+      shop_id: shopId,
+      profile: JSON.stringify(resolveProfile({})),
+      driver_id: userId,
+      status: "finished",
+      created_at: new Date(startMs),
+      finished_at: new Date(startMs),
+    })
     .execute()
   return { id, shop_id: shopId, profile_version_id: null }
 }
@@ -50,7 +64,20 @@ export const roadModelUpdateMs: BenchFigure = {
       const { file } = hourAt10Hz(ctx)
       const drive = await insertDriveRow(db, shopId, userId, file.samples[0]!.t)
       await insertSamples(db, drive.id, shopId, file.samples)
-      await db.insertInto("mark").values(file.marks.map((m) => ({ id: randomUUID(), drive_id: drive.id, shop_id: shopId, t: m.t, kind: m.kind, gap_ft: "gapFt" in m ? (m.gapFt ?? null) : null, text: "text" in m ? (m.text ?? null) : null }))).execute()
+      await db
+        .insertInto("mark")
+        .values(
+          file.marks.map((m) => ({
+            id: randomUUID(),
+            drive_id: drive.id,
+            shop_id: shopId,
+            t: m.t,
+            kind: m.kind,
+            gap_ft: "gapFt" in m ? (m.gapFt ?? null) : null,
+            text: "text" in m ? (m.text ?? null) : null,
+          })),
+        )
+        .execute()
       const score = scoreDrive(file)
       const times: number[] = []
       // the first run adds the drive, the later ones replace it (a drive scored again): both are updates
@@ -76,10 +103,23 @@ export async function seedRoadsPageShop(db: Db) {
   for (let k = 0; k < 2000; k++) {
     const layout = DEMO_ROAD_LAYOUTS[k % 3]!
     const hour = 7 + (k % 12)
-    const startMs = Math.floor(day0 / 86_400_000) * 86_400_000 + Math.floor(k / 30) * 86_400_000 + (hour + 6) * 3_600_000
-    const file = generateRoadDrive({ layout, seed: 20_000 + k, startMs, home: HOME, traffic: hour === 8 || hour === 17 ? 0.7 : 0.1, hz: 0.2 })
+    const startMs =
+      Math.floor(day0 / 86_400_000) * 86_400_000 + Math.floor(k / 30) * 86_400_000 + (hour + 6) * 3_600_000
+    const file = generateRoadDrive({
+      layout,
+      seed: 20_000 + k,
+      startMs,
+      home: HOME,
+      traffic: hour === 8 || hour === 17 ? 0.7 : 0.1,
+      hz: 0.2,
+    })
     const drive = await insertDriveRow(db, shop.shopId, shop.userId, startMs)
-    await applyDriveContribution(db, drive, scoreDrive(file).clearedAtSeconds, computeDriveContribution(file, "America/Chicago"))
+    await applyDriveContribution(
+      db,
+      drive,
+      scoreDrive(file).clearedAtSeconds,
+      computeDriveContribution(file, "America/Chicago"),
+    )
   }
   return shop
 }

@@ -31,34 +31,68 @@ export const sampleBytes: BenchFigure = {
   requiresEnv: ["DATABASE_URL"],
   async run(ctx) {
     const db = createDb(ctx.env.DATABASE_URL)
-    const { id: shopId } = await db.insertInto("shop").values({ name: `Bench samples ${randomUUID().slice(0, 8)}`, settings: "{}" }).returning("id").executeTakeFirstOrThrow()
+    const { id: shopId } = await db
+      .insertInto("shop")
+      .values({ name: `Bench samples ${randomUUID().slice(0, 8)}`, settings: "{}" })
+      .returning("id")
+      .executeTakeFirstOrThrow()
     const userId = randomUUID()
     await db
       .insertInto("app_user")
-      .values({ id: userId, shop_id: shopId, email: `bench-samples-${userId.slice(0, 8)}@bench.invalid`, name: "Bench", role: "technician", password_hash: await hashPassword(randomUUID()) })
+      .values({
+        id: userId,
+        shop_id: shopId,
+        email: `bench-samples-${userId.slice(0, 8)}@bench.invalid`,
+        name: "Bench",
+        role: "technician",
+        password_hash: await hashPassword(randomUUID()),
+      })
       .execute()
     try {
       await db.transaction().execute(async (trx) => {
         await sql`set local timezone to 'UTC'`.execute(trx)
-        await sql`select partman.create_partition_time('public.sample', array[${MONTH}]::timestamptz[], false)`.execute(trx)
+        await sql`select partman.create_partition_time('public.sample', array[${MONTH}]::timestamptz[], false)`.execute(
+          trx,
+        )
       })
       const existing = await sql<{ n: string }>`select count(*) as n from ${sql.table(PARTITION)}`.execute(db)
-      if (Number(existing.rows[0]!.n) !== 0) throw new Error(`${PARTITION} is not empty: sampleBytes needs a month of its own`)
+      if (Number(existing.rows[0]!.n) !== 0)
+        throw new Error(`${PARTITION} is not empty: sampleBytes needs a month of its own`)
 
       // One 10 Hz track (16 min 40 s, 10,000 samples); each drive takes it at its own start within the month.
-      const track = generateDrive({ seed: 1_000_000, hz: 10, minutes: Math.ceil(PER_DRIVE / 600) + 1, pattern: "met" }).samples.slice(0, PER_DRIVE)
+      const track = generateDrive({
+        seed: 1_000_000,
+        hz: 10,
+        minutes: Math.ceil(PER_DRIVE / 600) + 1,
+        pattern: "met",
+      }).samples.slice(0, PER_DRIVE)
       if (track.length !== PER_DRIVE) throw new Error(`track has ${track.length} samples, not ${PER_DRIVE}`)
       const t0 = track[0]!.t
-      const drives = Array.from({ length: DRIVES }, (_, i) => ({ id: randomUUID(), startMs: MONTH_START_MS + i * 3 * 3_600_000 }))
+      const drives = Array.from({ length: DRIVES }, (_, i) => ({
+        id: randomUUID(),
+        startMs: MONTH_START_MS + i * 3 * 3_600_000,
+      }))
       await db
         .insertInto("drive")
-        .values(drives.map((d) => ({ id: d.id, shop_id: shopId, profile: JSON.stringify(resolveProfile({})), driver_id: userId, created_at: new Date(d.startMs) })))
+        .values(
+          drives.map((d) => ({
+            id: d.id,
+            shop_id: shopId,
+            profile: JSON.stringify(resolveProfile({})),
+            driver_id: userId,
+            created_at: new Date(d.startMs),
+          })),
+        )
         .execute()
 
       // Round robin: batch k of every drive, then batch k+1 of every drive, as recorders interleave.
       const jobs: Array<{ driveId: string; samples: Sample[] }> = []
       for (let k = 0; k < PER_DRIVE; k += SEND_MAX_SAMPLES) {
-        for (const d of drives) jobs.push({ driveId: d.id, samples: track.slice(k, k + SEND_MAX_SAMPLES).map((s) => ({ ...s, t: s.t - t0 + d.startMs })) })
+        for (const d of drives)
+          jobs.push({
+            driveId: d.id,
+            samples: track.slice(k, k + SEND_MAX_SAMPLES).map((s) => ({ ...s, t: s.t - t0 + d.startMs })),
+          })
       }
       let next = 0
       await Promise.all(
@@ -77,7 +111,9 @@ export const sampleBytes: BenchFigure = {
           pg_indexes_size(${PARTITION}::regclass) as indexes`.execute(db)
       const r = rows[0]!
       if (Number(r.n) !== SAMPLES) throw new Error(`stored ${r.n} samples, not ${SAMPLES}`)
-      console.error(`[sampleBytes] per sample: table ${(Number(r.heap) / SAMPLES).toFixed(1)} B, primary key ${(Number(r.indexes) / SAMPLES).toFixed(1)} B`)
+      console.error(
+        `[sampleBytes] per sample: table ${(Number(r.heap) / SAMPLES).toFixed(1)} B, primary key ${(Number(r.indexes) / SAMPLES).toFixed(1)} B`,
+      )
       return Number(r.total) / SAMPLES
     } finally {
       // The month first (a drop, not a million deletes), then the drives.

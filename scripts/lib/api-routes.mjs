@@ -16,8 +16,13 @@ export function scanApiRoutes(root) {
       if (entry.isDirectory()) walk(full)
       else if (/^route\.(ts|tsx|js|mjs)$/.test(entry.name)) {
         const source = fs.readFileSync(full, "utf8")
-        const methods = [...new Set([...source.matchAll(EXPORT)].map((m) => m[1]))].sort((a, b) => METHODS.indexOf(a) - METHODS.indexOf(b))
-        const rel = path.relative(path.join(root, "app"), dir).split(path.sep).filter((s) => !/^\(.*\)$/.test(s))
+        const methods = [...new Set([...source.matchAll(EXPORT)].map((m) => m[1]))].sort(
+          (a, b) => METHODS.indexOf(a) - METHODS.indexOf(b),
+        )
+        const rel = path
+          .relative(path.join(root, "app"), dir)
+          .split(path.sep)
+          .filter((s) => !/^\(.*\)$/.test(s))
         out.push({ pattern: `/${rel.join("/")}`, methods })
       }
     }

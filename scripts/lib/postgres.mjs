@@ -97,27 +97,53 @@ export function startPostgres({ dataDir, port, database, fresh = false }) {
     if (isRoot) execFileSync("chown", ["postgres:postgres", dataDir])
     fs.chmodSync(dataDir, 0o700)
     log(`Creating a PostgreSQL cluster in ${dataDir}`)
-    asPostgres(path.join(bin, "initdb"), ["-D", dataDir, "-U", "postgres", "--auth=trust", "-E", "UTF8", "--locale=C.UTF-8"], {
-      quiet: true,
-    })
+    asPostgres(
+      path.join(bin, "initdb"),
+      ["-D", dataDir, "-U", "postgres", "--auth=trust", "-E", "UTF8", "--locale=C.UTF-8"],
+      {
+        quiet: true,
+      },
+    )
   }
   allowReplication(dataDir)
   if (!isRunning(bin, dataDir)) {
     log(`Starting PostgreSQL on 127.0.0.1:${port}`)
-    asPostgres(path.join(bin, "pg_ctl"), [
-      "-D", dataDir, "-l", path.join(dataDir, "server.log"), "-w", "-t", "60",
-      "-o", `-p ${port} -c listen_addresses=127.0.0.1 -c unix_socket_directories=${dataDir} -c fsync=${fresh ? "off" : "on"} ${REPLICATION_SETTINGS}`,
-      "start",
-    ], { quiet: true })
+    asPostgres(
+      path.join(bin, "pg_ctl"),
+      [
+        "-D",
+        dataDir,
+        "-l",
+        path.join(dataDir, "server.log"),
+        "-w",
+        "-t",
+        "60",
+        "-o",
+        `-p ${port} -c listen_addresses=127.0.0.1 -c unix_socket_directories=${dataDir} -c fsync=${fresh ? "off" : "on"} ${REPLICATION_SETTINGS}`,
+        "start",
+      ],
+      { quiet: true },
+    )
   }
   const exists = spawnSync(
     path.join(bin, "psql"),
-    ["-h", "127.0.0.1", "-p", String(port), "-U", "postgres", "-tAc", `SELECT 1 FROM pg_database WHERE datname='${database}'`],
+    [
+      "-h",
+      "127.0.0.1",
+      "-p",
+      String(port),
+      "-U",
+      "postgres",
+      "-tAc",
+      `SELECT 1 FROM pg_database WHERE datname='${database}'`,
+    ],
     { encoding: "utf8" },
   )
   if (exists.status !== 0) throw new Error(`Cannot reach PostgreSQL on port ${port}: ${exists.stderr}`)
   if (exists.stdout.trim() !== "1") {
-    run(path.join(bin, "createdb"), ["-h", "127.0.0.1", "-p", String(port), "-U", "postgres", database], { quiet: true })
+    run(path.join(bin, "createdb"), ["-h", "127.0.0.1", "-p", String(port), "-U", "postgres", database], {
+      quiet: true,
+    })
   }
   return `postgres://postgres@127.0.0.1:${port}/${database}`
 }
@@ -131,9 +157,16 @@ const REPLICATION_HBA = "host replication postgres 127.0.0.1/32 trust"
 function allowReplication(dataDir) {
   const hba = path.join(dataDir, "pg_hba.conf")
   if (!fs.existsSync(hba)) return
-  const lines = fs.readFileSync(hba, "utf8").split("\n").map((l) => l.replace(/#.*/, "").trim().split(/\s+/))
-  const allowed = lines.some(([type, db, user, address]) => type === "host" && db === "replication" && (user === "all" || user === "postgres") && address === "127.0.0.1/32")
-  if (!allowed) fs.appendFileSync(hba, `\n# streaming standby for the tests (scripts/lib/postgres.mjs)\n${REPLICATION_HBA}\n`)
+  const lines = fs
+    .readFileSync(hba, "utf8")
+    .split("\n")
+    .map((l) => l.replace(/#.*/, "").trim().split(/\s+/))
+  const allowed = lines.some(
+    ([type, db, user, address]) =>
+      type === "host" && db === "replication" && (user === "all" || user === "postgres") && address === "127.0.0.1/32",
+  )
+  if (!allowed)
+    fs.appendFileSync(hba, `\n# streaming standby for the tests (scripts/lib/postgres.mjs)\n${REPLICATION_HBA}\n`)
 }
 
 /**
@@ -151,15 +184,28 @@ export function startStandby({ primaryPort, dataDir, port, database }) {
   if (isRoot) execFileSync("chown", ["postgres:postgres", dataDir])
   fs.chmodSync(dataDir, 0o700)
   log(`Copying the cluster on port ${primaryPort} to a streaming standby in ${dataDir} (pg_basebackup)`)
-  asPostgres(path.join(bin, "pg_basebackup"), [
-    "-h", "127.0.0.1", "-p", String(primaryPort), "-U", "postgres", "-D", dataDir, "-R", "-X", "stream", "-c", "fast",
-  ], { quiet: true })
+  asPostgres(
+    path.join(bin, "pg_basebackup"),
+    ["-h", "127.0.0.1", "-p", String(primaryPort), "-U", "postgres", "-D", dataDir, "-R", "-X", "stream", "-c", "fast"],
+    { quiet: true },
+  )
   log(`Starting the standby on 127.0.0.1:${port}`)
-  asPostgres(path.join(bin, "pg_ctl"), [
-    "-D", dataDir, "-l", path.join(dataDir, "server.log"), "-w", "-t", "60",
-    "-o", `-p ${port} -c listen_addresses=127.0.0.1 -c unix_socket_directories=${dataDir} -c fsync=off -c hot_standby=on`,
-    "start",
-  ], { quiet: true })
+  asPostgres(
+    path.join(bin, "pg_ctl"),
+    [
+      "-D",
+      dataDir,
+      "-l",
+      path.join(dataDir, "server.log"),
+      "-w",
+      "-t",
+      "60",
+      "-o",
+      `-p ${port} -c listen_addresses=127.0.0.1 -c unix_socket_directories=${dataDir} -c fsync=off -c hot_standby=on`,
+      "start",
+    ],
+    { quiet: true },
+  )
   return `postgres://postgres@127.0.0.1:${port}/${database}`
 }
 

@@ -77,14 +77,33 @@ export function ensurePackages() {
   run("npm", ["ci", "--no-audit", "--no-fund"])
 }
 
-const BUILD_INPUTS = ["app", "components", "lib", "db", "workers", "public", "proxy.ts", "instrumentation.ts", "scripts/build-sw.mjs", "scripts/gen-api-routes.mjs", "next.config.mjs",
-  "tailwind.config.ts", "postcss.config.mjs", "tsconfig.json", "package-lock.json"]
+const BUILD_INPUTS = [
+  "app",
+  "components",
+  "lib",
+  "db",
+  "workers",
+  "public",
+  "proxy.ts",
+  "instrumentation.ts",
+  "scripts/build-sw.mjs",
+  "scripts/gen-api-routes.mjs",
+  "next.config.mjs",
+  "tailwind.config.ts",
+  "postcss.config.mjs",
+  "tsconfig.json",
+  "package-lock.json",
+]
 
 /** next build (plus the service worker) when the build is missing or its inputs changed. */
 export function ensureBuild() {
   const stamp = path.join(root, ".next", "straightaway-build-stamp")
   const want = fingerprint(BUILD_INPUTS)
-  if (fs.existsSync(stamp) && fs.readFileSync(stamp, "utf8") === want && fs.existsSync(path.join(root, ".next", "BUILD_ID"))) {
+  if (
+    fs.existsSync(stamp) &&
+    fs.readFileSync(stamp, "utf8") === want &&
+    fs.existsSync(path.join(root, ".next", "BUILD_ID"))
+  ) {
     log("Build is up to date")
     return
   }

@@ -45,7 +45,12 @@ export async function startStack({ name, port, pgPort, s3Port, smtpPort, extraEn
     ensureBuild()
     server = startChild(npx("next"), ["start", "-H", "127.0.0.1", "-p", String(port)], { env, name: "next" })
     if (replica) {
-      const standbyUrl = startStandby({ primaryPort: pgPort, dataDir: standbyDataDir, port: replica.pgPort, database: `straightaway_${name}` })
+      const standbyUrl = startStandby({
+        primaryPort: pgPort,
+        dataDir: standbyDataDir,
+        port: replica.pgPort,
+        database: `straightaway_${name}`,
+      })
       replicaServer = startChild(npx("next"), ["start", "-H", "127.0.0.1", "-p", String(replica.port)], {
         env: { ...env, DATABASE_REPLICA_URL: standbyUrl, APP_URL: `http://127.0.0.1:${replica.port}` },
         name: "next (reads from the standby)",

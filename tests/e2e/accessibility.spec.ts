@@ -19,7 +19,12 @@ beforeAll(async () => {
   shop = await createTestShop("E2EA11y")
   const job = await insertJob(shop)
   jobId = job.jobId
-  const drive = await insertScoredDrive(shop, { pattern: "short", seed: 811, job, finishedAt: new Date(Date.now() - 3_600_000) })
+  const drive = await insertScoredDrive(shop, {
+    pattern: "short",
+    seed: 811,
+    job,
+    finishedAt: new Date(Date.now() - 3_600_000),
+  })
   driveId = drive.id
 })
 afterAll(async () => {
@@ -31,10 +36,20 @@ async function blockingViolations(page: Page) {
   const { violations } = await new AxeBuilder({ page }).withTags(WCAG_TAGS).analyze()
   return violations
     .filter((v) => BLOCKING.has(v.impact ?? ""))
-    .map((v) => `${v.id} (${v.impact}): ${v.help} at ${v.nodes.map((n) => n.target.join(" ")).slice(0, 5).join(" | ")}`)
+    .map(
+      (v) =>
+        `${v.id} (${v.impact}): ${v.help} at ${v.nodes
+          .map((n) => n.target.join(" "))
+          .slice(0, 5)
+          .join(" | ")}`,
+    )
 }
 
-async function check(user: TestUser | null, paths: Array<{ path: string; ready: (page: Page) => Promise<unknown> }>, scheme: "light" | "dark" = "light") {
+async function check(
+  user: TestUser | null,
+  paths: Array<{ path: string; ready: (page: Page) => Promise<unknown> }>,
+  scheme: "light" | "dark" = "light",
+) {
   const context = await newPhoneContext(browser)
   const page = await context.newPage()
   await page.emulateMedia({ colorScheme: scheme })

@@ -104,19 +104,31 @@ describe("a job on a phone", () => {
     expect(await page.getByTestId("checklist-stamp").textContent()).toContain(`Saved by ${shop.tech.name}`)
 
     // A photo through the presigned upload.
-    await page.getByLabel("Add photos or a PDF").setInputFiles({ name: "bracket.png", mimeType: "image/png", buffer: makePng(32, 24, [200, 120, 40]) })
+    await page
+      .getByLabel("Add photos or a PDF")
+      .setInputFiles({ name: "bracket.png", mimeType: "image/png", buffer: makePng(32, 24, [200, 120, 40]) })
     const thumb = page.getByTestId("attachment").locator("img")
     await thumb.waitFor()
     await expect.poll(() => thumb.evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth)).toBe(32)
 
-    const stored = await testDb().selectFrom("checklist").select(["completed_by", "data"]).where("shop_id", "=", shop.shopId).execute()
+    const stored = await testDb()
+      .selectFrom("checklist")
+      .select(["completed_by", "data"])
+      .where("shop_id", "=", shop.shopId)
+      .execute()
     expect(stored).toHaveLength(1)
     expect(stored[0]!.completed_by).toBe(shop.tech.id)
-    const attachments = await testDb().selectFrom("attachment").select(["status", "content_type"]).where("job_id", "=", jobId).execute()
+    const attachments = await testDb()
+      .selectFrom("attachment")
+      .select(["status", "content_type"])
+      .where("job_id", "=", jobId)
+      .execute()
     expect(attachments).toEqual([{ status: "complete", content_type: "image/png" }])
 
     // Start a drive: the recorder opens with the job and task in the address.
-    const taskId = (await testDb().selectFrom("job_task").select("id").where("job_id", "=", jobId).executeTakeFirstOrThrow()).id
+    const taskId = (
+      await testDb().selectFrom("job_task").select("id").where("job_id", "=", jobId).executeTakeFirstOrThrow()
+    ).id
     const link = page.getByTestId("start-drive")
     expect(await link.getAttribute("href")).toBe(`/record?jobId=${jobId}&taskId=${taskId}`)
     await link.click()
@@ -125,7 +137,9 @@ describe("a job on a phone", () => {
     expect(url.searchParams.get("jobId")).toBe(jobId)
     expect(url.searchParams.get("taskId")).toBe(taskId)
     // The recorder lists the job among those it can drive for.
-    await expect.poll(() => page.locator(`select[aria-label=Job] option[value="${jobId}"]`).count(), { timeout: 15_000 }).toBe(1)
+    await expect
+      .poll(() => page.locator(`select[aria-label=Job] option[value="${jobId}"]`).count(), { timeout: 15_000 })
+      .toBe(1)
     await context.close()
   })
 

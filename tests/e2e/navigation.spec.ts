@@ -151,7 +151,10 @@ describe("notices for the lead", () => {
     expect(finish.body.drive.verdict).toBe("short")
     const page = await phonePage(shop.lead)
     await page.getByTestId("notification-bell").click()
-    const notice = page.getByTestId("notification-panel").getByRole("link", { name: /waits for your review/ }).filter({ hasText: job.roNumber })
+    const notice = page
+      .getByTestId("notification-panel")
+      .getByRole("link", { name: /waits for your review/ })
+      .filter({ hasText: job.roNumber })
     await notice.waitFor()
     expect(await notice.textContent()).toContain("Short")
     await notice.click()
@@ -169,12 +172,23 @@ describe("the recorder's sun mode", () => {
     await page.locator('[data-theme="sun"]').waitFor()
     await page.waitForLoadState("networkidle")
     // It is a light theme in fact: the recorder's surfaces turn white and its text black (app/(cab)/sun.css).
-    const look = await page.getByTestId("cab-root").evaluate((el) => ({ bg: getComputedStyle(el).backgroundColor, fg: getComputedStyle(el).color }))
+    const look = await page
+      .getByTestId("cab-root")
+      .evaluate((el) => ({ bg: getComputedStyle(el).backgroundColor, fg: getComputedStyle(el).color }))
     expect(look).toEqual({ bg: "rgb(255, 255, 255)", fg: "rgb(0, 0, 0)" })
-    const aa = await new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa", "wcag22a", "wcag22aa"]).analyze()
+    const aa = await new AxeBuilder({ page })
+      .withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa", "wcag22a", "wcag22aa"])
+      .analyze()
     const aaa = await new AxeBuilder({ page }).withRules(["color-contrast-enhanced"]).analyze()
-    const problems = [...aa.violations.filter((v) => v.impact === "serious" || v.impact === "critical"), ...aaa.violations].map(
-      (v) => `${v.id}: ${v.nodes.map((n) => n.target.join(" ")).slice(0, 5).join(" | ")}`,
+    const problems = [
+      ...aa.violations.filter((v) => v.impact === "serious" || v.impact === "critical"),
+      ...aaa.violations,
+    ].map(
+      (v) =>
+        `${v.id}: ${v.nodes
+          .map((n) => n.target.join(" "))
+          .slice(0, 5)
+          .join(" | ")}`,
     )
     expect(problems).toEqual([])
     // The choice stays on the phone.

@@ -19,8 +19,17 @@ afterAll(async () => {
 describe("reviewing a drive on a phone", () => {
   it("sends a short drive back with a note, sees it leave the queue, and opens the record", async () => {
     const job = await insertJob(shop)
-    const short = await insertScoredDrive(shop, { pattern: "short", seed: 601, job, finishedAt: new Date(Date.now() - 3_600_000) })
-    const other = await insertScoredDrive(shop, { pattern: "never-cleared", seed: 602, finishedAt: new Date(Date.now() - 1_800_000) })
+    const short = await insertScoredDrive(shop, {
+      pattern: "short",
+      seed: 601,
+      job,
+      finishedAt: new Date(Date.now() - 3_600_000),
+    })
+    const other = await insertScoredDrive(shop, {
+      pattern: "never-cleared",
+      seed: 602,
+      finishedAt: new Date(Date.now() - 1_800_000),
+    })
     expect(short.score.verdict).toBe("short")
 
     const context = await newPhoneContext(browser)
@@ -50,7 +59,11 @@ describe("reviewing a drive on a phone", () => {
     await page.locator(`li[data-drive-id="${other.id}"]`).waitFor()
     expect(await page.locator(`li[data-drive-id="${short.id}"]`).count()).toBe(0)
 
-    const row = await testDb().selectFrom("drive").select("review_status").where("id", "=", short.id).executeTakeFirstOrThrow()
+    const row = await testDb()
+      .selectFrom("drive")
+      .select("review_status")
+      .where("id", "=", short.id)
+      .executeTakeFirstOrThrow()
     expect(row.review_status).toBe("redo")
 
     // The decision shows on the drive, and the record opens as a PDF holding the VIN.

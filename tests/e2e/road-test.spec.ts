@@ -63,7 +63,9 @@ describe("the road test on a phone", () => {
     })
     job = { id: row.id, camera: row.tasks[0].id }
     const tech = await signedIn(shop.tech)
-    expect((await tech.request("PUT", `/api/jobs/${job.id}/tasks/${job.camera}/checklist`, checklistBody())).status).toBe(200)
+    expect(
+      (await tech.request("PUT", `/api/jobs/${job.id}/tasks/${job.camera}/checklist`, checklistBody())).status,
+    ).toBe(200)
     const setup = await tech.request("PUT", `/api/jobs/${job.id}/tasks/${job.camera}/setup`, {
       measurements: [{ key: "target_distance", value: 1502, specified: 1500, tolerance: 10, unit: "mm" }],
       scanResult: "pass",
@@ -80,7 +82,8 @@ describe("the road test on a phone", () => {
     await signInPage(page, shop.tech.email, shop.tech.password)
     await page.goto(`/record?jobId=${job.id}&taskId=${job.camera}`)
     await page.getByTestId("to-gate").click()
-    for (const key of ["codes", "tires", "load", "clean", "mount", "ready"]) await page.getByTestId(`gate-${key}`).check()
+    for (const key of ["codes", "tires", "load", "clean", "mount", "ready"])
+      await page.getByTestId(`gate-${key}`).check()
     await page.getByTestId("start-drive").click()
     await page.getByTestId("recording-screen").waitFor()
     const driveId = new URL(page.url()).searchParams.get("drive")!
@@ -90,7 +93,13 @@ describe("the road test on a phone", () => {
     const panel = page.getByTestId("road-test-checks")
     await panel.waitFor({ timeout: 30_000 })
     // the checks of both systems of the job, each with three buttons of at least 64 px (DESIGN.md: co-driver mode)
-    for (const key of ["lane-keeping-engages", "lane-departure-warning", "sign-display", "acc-engages", "acc-follows-lead"]) {
+    for (const key of [
+      "lane-keeping-engages",
+      "lane-departure-warning",
+      "sign-display",
+      "acc-engages",
+      "acc-follows-lead",
+    ]) {
       await page.getByTestId(`check-${key}`).waitFor()
       for (const result of ["pass", "fail", "not_equipped"]) {
         const box = await page.getByTestId(`check-${key}-${result}`).boundingBox()
@@ -113,7 +122,9 @@ describe("the road test on a phone", () => {
     await expect.poll(() => page.getByTestId("mark-count").getAttribute("data-value")).toBe("5")
     await page.screenshot({ path: "/tmp/roadtest-co-driver.png", fullPage: true })
 
-    await expect.poll(() => page.getByTestId("recording-screen").getAttribute("data-moving"), { timeout: 10_000 }).toBe("false")
+    await expect
+      .poll(() => page.getByTestId("recording-screen").getAttribute("data-moving"), { timeout: 10_000 })
+      .toBe("false")
     await page.getByTestId("finish-drive").click()
     await page.getByTestId("finish-confirm").click()
     await page.getByTestId("finish-screen").waitFor()
@@ -122,7 +133,9 @@ describe("the road test on a phone", () => {
     await page.screenshot({ path: "/tmp/roadtest-finish.png", fullPage: true })
     // a failed required check: the road test is not met, and the reason names it
     expect(await verdict.getAttribute("data-verdict")).toBe("not_met")
-    await expect.poll(() => page.getByTestId("verdict-reasons").textContent()).toContain('Road test: "Lane-departure warning on a lane line" failed')
+    await expect
+      .poll(() => page.getByTestId("verdict-reasons").textContent())
+      .toContain('Road test: "Lane-departure warning on a lane line" failed')
     expect(await page.getByTestId("result-lane-departure-warning").getAttribute("data-status")).toBe("failed")
     expect(await page.getByTestId("result-sign-display").getAttribute("data-status")).toBe("not_equipped")
     // the screen shows what the server scored: each check's status and its speed from the track
@@ -130,14 +143,20 @@ describe("the road test on a phone", () => {
     expect(score.roadTest.checks).toHaveLength(5)
     for (const c of score.roadTest.checks as Array<{ key: string; status: string; speedMph: number | null }>) {
       expect(await page.getByTestId(`result-${c.key}`).getAttribute("data-status")).toBe(c.status)
-      if (c.speedMph !== null) expect(await page.getByTestId(`result-${c.key}`).textContent()).toContain(`at ${c.speedMph} mph`)
+      if (c.speedMph !== null)
+        expect(await page.getByTestId(`result-${c.key}`).textContent()).toContain(`at ${c.speedMph} mph`)
     }
     // cruising at 50 to 62 mph, the adaptive-cruise passes count (25 mph or faster)
     expect(await page.getByTestId("result-acc-engages").getAttribute("data-status")).toBe("passed")
     expect(await page.getByTestId("result-acc-follows-lead").getAttribute("data-status")).toBe("passed")
 
     // what the phone logged is what the server stored: five check marks with their keys and results
-    const marks = await testDb().selectFrom("mark").select(["kind", "check_key", "result"]).where("drive_id", "=", driveId).orderBy("t").execute()
+    const marks = await testDb()
+      .selectFrom("mark")
+      .select(["kind", "check_key", "result"])
+      .where("drive_id", "=", driveId)
+      .orderBy("t")
+      .execute()
     expect(marks.map((m) => [m.kind, m.check_key, m.result])).toEqual([
       ["check", "acc-engages", "pass"],
       ["check", "acc-follows-lead", "pass"],

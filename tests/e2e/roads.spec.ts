@@ -15,7 +15,11 @@ beforeAll(async () => {
   // A history on the three invented roads at the shop's current hour (any weekday), so "now" has loops.
   const zone = "America/Chicago"
   const hour = localSlot(Date.now(), zone).hour
-  await testDb().updateTable("shop").set({ settings: JSON.stringify({ units: "imperial", timeZone: zone }) }).where("id", "=", shop.shopId).execute()
+  await testDb()
+    .updateTable("shop")
+    .set({ settings: JSON.stringify({ units: "imperial", timeZone: zone }) })
+    .where("id", "=", shop.shopId)
+    .execute()
   const made = await seedRoadHistory(testDb(), shop.shopId, { drives: 45, hours: [hour] })
   expect(made).toBeGreaterThan(20)
 }, 180_000)
@@ -33,7 +37,9 @@ async function expectRoadsPage(page: Page) {
   const loops = page.getByTestId("best-loop")
   expect(await loops.count()).toBeGreaterThanOrEqual(1)
   // lib/format formatDuration's one style: "15 min", "15 min 4 s", "48 s", "1 h 2 min"
-  expect(await loops.first().textContent()).toMatch(/Learn complete in a median \d+ (h|min|s)( \d+ (min|s))* \(fastest \d+ (h|min|s)( \d+ (min|s))*\)/)
+  expect(await loops.first().textContent()).toMatch(
+    /Learn complete in a median \d+ (h|min|s)( \d+ (min|s))* \(fastest \d+ (h|min|s)( \d+ (min|s))*\)/,
+  )
   expect(await page.getByTestId("roads-explained").textContent()).toMatch(/rest on \d+ scored drives/)
 }
 
@@ -49,7 +55,11 @@ describe("the Roads page and the start screen line", () => {
   })
 
   it("draws the cells and the best loops for a lead at desktop width", async () => {
-    const context = await browser.newContext({ baseURL: testEnv().baseUrl, viewport: { width: 1366, height: 900 }, extraHTTPHeaders: { "x-forwarded-for": "203.0.113.251" } })
+    const context = await browser.newContext({
+      baseURL: testEnv().baseUrl,
+      viewport: { width: 1366, height: 900 },
+      extraHTTPHeaders: { "x-forwarded-for": "203.0.113.251" },
+    })
     const page = await context.newPage()
     await signInPage(page, shop.lead.email, shop.lead.password)
     await expectRoadsPage(page)
@@ -64,7 +74,9 @@ describe("the Roads page and the start screen line", () => {
     await page.goto("/record")
     const line = page.getByTestId("good-roads-now")
     await line.waitFor({ timeout: 30_000 })
-    expect(await line.textContent()).toMatch(/Good roads now: .+ learn complete in a median \d+ (h|min|s)( \d+ (min|s))*, from \d+ drives? at this hour/)
+    expect(await line.textContent()).toMatch(
+      /Good roads now: .+ learn complete in a median \d+ (h|min|s)( \d+ (min|s))*, from \d+ drives? at this hour/,
+    )
     await context.close()
   })
 })

@@ -25,7 +25,9 @@ async function watchViolations(page: Page) {
     if (/Content Security Policy/i.test(m.text())) found.push(m.text())
   })
   await page.addInitScript(() => {
-    document.addEventListener("securitypolicyviolation", (e) => console.error(`Content Security Policy violation: ${e.violatedDirective} ${e.blockedURI}`))
+    document.addEventListener("securitypolicyviolation", (e) =>
+      console.error(`Content Security Policy violation: ${e.violatedDirective} ${e.blockedURI}`),
+    )
   })
   return found
 }

@@ -19,34 +19,41 @@ const ARGS = [
 ]
 
 export async function launchBrowser(): Promise<Browser> {
-  if (!fs.existsSync(CHROMIUM)) throw new Error(`Chromium not found at ${CHROMIUM}; npm test installs Debian's chromium.`)
+  if (!fs.existsSync(CHROMIUM))
+    throw new Error(`Chromium not found at ${CHROMIUM}; npm test installs Debian's chromium.`)
   return chromium.launch({ executablePath: CHROMIUM, headless: true, args: ARGS })
 }
 
 /** About a 6.1" phone: touch, geolocation allowed, its own client address for sign-in throttling. */
 function phoneOptions(geolocation: { latitude: number; longitude: number }) {
   return {
-      baseURL: testEnv().baseUrl,
-      viewport: { width: 390, height: 844 },
-      deviceScaleFactor: 2,
-      isMobile: true,
-      hasTouch: true,
-      permissions: ["geolocation"],
-      geolocation: { ...geolocation, accuracy: 5 },
-      extraHTTPHeaders: { "x-forwarded-for": `203.0.113.${Math.floor(Math.random() * 250)}` },
+    baseURL: testEnv().baseUrl,
+    viewport: { width: 390, height: 844 },
+    deviceScaleFactor: 2,
+    isMobile: true,
+    hasTouch: true,
+    permissions: ["geolocation"],
+    geolocation: { ...geolocation, accuracy: 5 },
+    extraHTTPHeaders: { "x-forwarded-for": `203.0.113.${Math.floor(Math.random() * 250)}` },
   }
 }
 
 /** A phone-sized context (about a 6.1" phone), touch, geolocation allowed. */
-export async function newPhoneContext(browser: Browser, geolocation = { latitude: 41.6, longitude: -93.6 }): Promise<BrowserContext> {
+export async function newPhoneContext(
+  browser: Browser,
+  geolocation = { latitude: 41.6, longitude: -93.6 },
+): Promise<BrowserContext> {
   return browser.newContext(phoneOptions(geolocation))
 }
 
 /**
  * A phone-sized context with an on-disk profile, like a real phone's browser, for the offline tests.
  */
-export async function newPersistentPhoneContext(geolocation = { latitude: 41.6, longitude: -93.6 }): Promise<BrowserContext> {
-  if (!fs.existsSync(CHROMIUM)) throw new Error(`Chromium not found at ${CHROMIUM}; npm test installs Debian's chromium.`)
+export async function newPersistentPhoneContext(
+  geolocation = { latitude: 41.6, longitude: -93.6 },
+): Promise<BrowserContext> {
+  if (!fs.existsSync(CHROMIUM))
+    throw new Error(`Chromium not found at ${CHROMIUM}; npm test installs Debian's chromium.`)
   const profile = fs.mkdtempSync(path.join(os.tmpdir(), "straightaway-phone-"))
   const context = await chromium.launchPersistentContext(profile, {
     executablePath: CHROMIUM,
@@ -55,7 +62,11 @@ export async function newPersistentPhoneContext(geolocation = { latitude: 41.6, 
     ...phoneOptions(geolocation),
   })
   // Chromium may still be writing as it closes: clean up in the background and never fail a test over it.
-  context.on("close", () => void fs.promises.rm(profile, { recursive: true, force: true, maxRetries: 5, retryDelay: 200 }).catch(() => {}))
+  context.on(
+    "close",
+    () =>
+      void fs.promises.rm(profile, { recursive: true, force: true, maxRetries: 5, retryDelay: 200 }).catch(() => {}),
+  )
   return context
 }
 

@@ -24,7 +24,10 @@ export async function createTestShop(label = "Test"): Promise<TestShop> {
   const tag = randomUUID().slice(0, 8)
   const { id: shopId } = await testDb()
     .insertInto("shop")
-    .values({ name: `${label} shop ${tag}`, settings: JSON.stringify({ units: "imperial", tirePressureTolerancePsi: 3 }) })
+    .values({
+      name: `${label} shop ${tag}`,
+      settings: JSON.stringify({ units: "imperial", tirePressureTolerancePsi: 3 }),
+    })
     .returning("id")
     .executeTakeFirstOrThrow()
   const make = async (role: Role, key: string): Promise<TestUser> => {

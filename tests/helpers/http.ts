@@ -13,9 +13,17 @@ export type ApiResponse<T = any> = { status: number; headers: Headers; body: T; 
 export class ApiClient {
   cookie: string | null = null
   /** `baseUrl`: another running app than the suites' own (the read-replica suite's second app). */
-  constructor(readonly address = freshClientAddress(), readonly baseUrl?: string) {}
+  constructor(
+    readonly address = freshClientAddress(),
+    readonly baseUrl?: string,
+  ) {}
 
-  async request<T = any>(method: string, path: string, body?: unknown, init: { raw?: string | Uint8Array; headers?: Record<string, string> } = {}): Promise<ApiResponse<T>> {
+  async request<T = any>(
+    method: string,
+    path: string,
+    body?: unknown,
+    init: { raw?: string | Uint8Array; headers?: Record<string, string> } = {},
+  ): Promise<ApiResponse<T>> {
     const headers: Record<string, string> = { "x-forwarded-for": this.address, ...init.headers }
     if (this.cookie) headers.cookie = this.cookie
     let payload: string | Uint8Array | undefined = init.raw
@@ -23,7 +31,12 @@ export class ApiClient {
       headers["content-type"] ??= "application/json"
       payload = JSON.stringify(body)
     }
-    const res = await fetch(`${this.baseUrl ?? testEnv().baseUrl}${path}`, { method, headers, body: payload as BodyInit | undefined, redirect: "manual" })
+    const res = await fetch(`${this.baseUrl ?? testEnv().baseUrl}${path}`, {
+      method,
+      headers,
+      body: payload as BodyInit | undefined,
+      redirect: "manual",
+    })
     const setCookie = res.headers.get("set-cookie")
     if (setCookie) {
       const pair = setCookie.split(";")[0]!

@@ -19,7 +19,13 @@ describe("the API method table", () => {
     expect(matchApiRoute("/api/drives/abc/marks/def", API_ROUTES)?.pattern).toBe("/api/drives/[driveId]/marks/[markId]")
     expect(matchApiRoute("/api/drives/abc/nothing", API_ROUTES)?.pattern).toBe("/api/[...path]")
     expect(matchApiRoute("/api", API_ROUTES)).toBeNull()
-    expect(allowedMethods(matchApiRoute("/api/session", API_ROUTES)!)).toEqual(["GET", "POST", "DELETE", "HEAD", "OPTIONS"])
+    expect(allowedMethods(matchApiRoute("/api/session", API_ROUTES)!)).toEqual([
+      "GET",
+      "POST",
+      "DELETE",
+      "HEAD",
+      "OPTIONS",
+    ])
     expect(allowedMethods(matchApiRoute("/api/drives/x/samples", API_ROUTES)!)).toEqual(["POST", "OPTIONS"])
   })
 })

@@ -10,7 +10,14 @@ function filenameStar(header: string): string {
 
 describe("contentDisposition", () => {
   it("keeps accented, emoji and script names exactly in filename*", () => {
-    for (const name of ["résumé.jpg", "🚗 front bumper.jpg", "تقرير.pdf", "車検 (2).pdf", "it's * 100%.pdf", 'quote "x".pdf']) {
+    for (const name of [
+      "résumé.jpg",
+      "🚗 front bumper.jpg",
+      "تقرير.pdf",
+      "車検 (2).pdf",
+      "it's * 100%.pdf",
+      'quote "x".pdf',
+    ]) {
       const header = contentDisposition("attachment", name)
       expect(header.startsWith("attachment; ")).toBe(true)
       expect(filenameStar(header)).toBe(name)
@@ -22,6 +29,8 @@ describe("contentDisposition", () => {
     expect(asciiFallback('a"b\\c.pdf')).toBe("a_b_c.pdf")
     expect(asciiFallback("🚗.jpg")).toBe("_.jpg")
     expect(asciiFallback("車検")).toBe("_")
-    expect(contentDisposition("inline", "résumé.jpg")).toBe(`inline; filename="resume.jpg"; filename*=UTF-8''r%C3%A9sum%C3%A9.jpg`)
+    expect(contentDisposition("inline", "résumé.jpg")).toBe(
+      `inline; filename="resume.jpg"; filename*=UTF-8''r%C3%A9sum%C3%A9.jpg`,
+    )
   })
 })

@@ -7,7 +7,12 @@ import { generateDrive } from "@/lib/tracks"
 describe("lttbIndices (largest-triangle-three-buckets, Steinarsson 2013)", () => {
   it("keeps the first and last point and the peak of a spike", () => {
     const ys = Array.from({ length: 1000 }, (_, i) => (i === 537 ? 100 : Math.sin(i / 50)))
-    const idx = lttbIndices(ys.length, (i) => i, (i) => ys[i]!, 50)
+    const idx = lttbIndices(
+      ys.length,
+      (i) => i,
+      (i) => ys[i]!,
+      50,
+    )
     expect(idx).toHaveLength(50)
     expect(idx[0]).toBe(0)
     expect(idx.at(-1)).toBe(999)
@@ -15,7 +20,14 @@ describe("lttbIndices (largest-triangle-three-buckets, Steinarsson 2013)", () =>
     expect([...idx].sort((a, b) => a - b)).toEqual(idx)
   })
   it("returns every index when the threshold is not below the count", () => {
-    expect(lttbIndices(5, (i) => i, (i) => i, 10)).toEqual([0, 1, 2, 3, 4])
+    expect(
+      lttbIndices(
+        5,
+        (i) => i,
+        (i) => i,
+        10,
+      ),
+    ).toEqual([0, 1, 2, 3, 4])
   })
 })
 
@@ -44,7 +56,13 @@ describe("downsampleTimeline", () => {
   })
 
   it("keeps the edges of the longest runs when there are more runs than half the points", () => {
-    const flicker = Array.from({ length: 10_000 }, (_, i) => ({ tS: i, lat: 0, lon: 0, speedMph: 40, state: (i % 7 === 0 ? "slow" : i < 5000 ? "qualifying" : "following") as "slow" | "qualifying" | "following" }))
+    const flicker = Array.from({ length: 10_000 }, (_, i) => ({
+      tS: i,
+      lat: 0,
+      lon: 0,
+      speedMph: 40,
+      state: (i % 7 === 0 ? "slow" : i < 5000 ? "qualifying" : "following") as "slow" | "qualifying" | "following",
+    }))
     const out = downsampleTimeline(flicker, 500)
     expect(out.length).toBeLessThanOrEqual(500)
     expect(out[0]).toBe(flicker[0])

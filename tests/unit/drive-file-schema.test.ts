@@ -51,7 +51,9 @@ describe("drive file JSON Schemas", () => {
   it("accepts every generated track (lib/tracks) as version 1", () => {
     for (const [pattern, min] of Object.entries(PATTERN_MIN_MINUTES) as [DrivePattern, number][]) {
       for (const opts of [{}, { speedMissingShare: 0.3 }, { dataGaps: 2 }]) {
-        const file = JSON.parse(JSON.stringify(generateDrive({ seed: 5, minutes: Math.max(min, 16), pattern, ...opts })))
+        const file = JSON.parse(
+          JSON.stringify(generateDrive({ seed: 5, minutes: Math.max(min, 16), pattern, ...opts })),
+        )
         expect(validate1(file), `${pattern}: ${errors(validate1)}`).toBe(true)
       }
     }
@@ -64,7 +66,12 @@ describe("drive file JSON Schemas", () => {
   })
 
   it("accepts the files the unit tests build in code", () => {
-    const v1 = drive(steady(30, 20), [mark(1, "lead-on", { gapFt: 120 }), mark(5, "gap", { gapFt: 130 }), mark(9, "note", { text: "x" }), mark(20, "cleared")])
+    const v1 = drive(steady(30, 20), [
+      mark(1, "lead-on", { gapFt: 120 }),
+      mark(5, "gap", { gapFt: 130 }),
+      mark(9, "note", { text: "x" }),
+      mark(20, "cleared"),
+    ])
     expect(validate1(JSON.parse(JSON.stringify(v1))), errors(validate1)).toBe(true)
     for (const file of [metRoadTest(), roadTest([]), roadTest([check(10, "acc-engages", "fail")])]) {
       expect(validate2(JSON.parse(JSON.stringify(file))), errors(validate2)).toBe(true)

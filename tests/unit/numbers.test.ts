@@ -1,5 +1,14 @@
 import { describe, expect, it } from "vitest"
-import { isoWeekStart, numbersToCsv, percentile, perTechnician, timeToClearByProfile, topReasons, verdictMixByWeek, type NumbersDrive } from "@/lib/numbers"
+import {
+  isoWeekStart,
+  numbersToCsv,
+  percentile,
+  perTechnician,
+  timeToClearByProfile,
+  topReasons,
+  verdictMixByWeek,
+  type NumbersDrive,
+} from "@/lib/numbers"
 
 let n = 0
 function drive(over: Partial<NumbersDrive>): NumbersDrive {
@@ -76,12 +85,15 @@ describe("time to clear by profile", () => {
 
 describe("verdict mix over time", () => {
   it("counts verdicts per ISO week, oldest week first", () => {
-    const mix = verdictMixByWeek([
-      drive({ finishedAt: "2026-03-10T09:00:00Z", verdict: "short" }),
-      drive({ finishedAt: "2026-03-03T09:00:00Z", verdict: "met" }),
-      drive({ finishedAt: "2026-03-04T09:00:00Z", verdict: "not_met" }),
-      drive({ finishedAt: "2026-03-11T09:00:00Z", verdict: "short" }),
-    ], "UTC")
+    const mix = verdictMixByWeek(
+      [
+        drive({ finishedAt: "2026-03-10T09:00:00Z", verdict: "short" }),
+        drive({ finishedAt: "2026-03-03T09:00:00Z", verdict: "met" }),
+        drive({ finishedAt: "2026-03-04T09:00:00Z", verdict: "not_met" }),
+        drive({ finishedAt: "2026-03-11T09:00:00Z", verdict: "short" }),
+      ],
+      "UTC",
+    )
     expect(mix).toEqual([
       { weekStart: "2026-03-02", total: 2, met: 1, short: 0, not_met: 1, unverified: 0 },
       { weekStart: "2026-03-09", total: 2, met: 0, short: 2, not_met: 0, unverified: 0 },
@@ -111,18 +123,37 @@ describe("per technician", () => {
   it("gives drives, met share, median seconds to learn complete, harsh events and drives sent back", () => {
     const rows = perTechnician([
       drive({ technicianId: "a", technicianName: "Ada", clearedAtSeconds: 600 }),
-      drive({ technicianId: "a", technicianName: "Ada", verdict: "short", clearedAtSeconds: 300, reviewStatus: "redo", harshEvents: 2 }),
+      drive({
+        technicianId: "a",
+        technicianName: "Ada",
+        verdict: "short",
+        clearedAtSeconds: 300,
+        reviewStatus: "redo",
+        harshEvents: 2,
+      }),
       drive({ technicianId: "a", technicianName: "Ada", verdict: "not_met", clearedAtSeconds: null }),
       drive({ technicianId: "b", technicianName: "Bo", clearedAtSeconds: 720 }),
     ])
-    expect(rows[0]).toEqual({ technicianId: "a", name: "Ada", drives: 3, met: 1, metShare: 1 / 3, medianSecondsToClear: 450, harshEvents: 2, sentBack: 1 })
+    expect(rows[0]).toEqual({
+      technicianId: "a",
+      name: "Ada",
+      drives: 3,
+      met: 1,
+      metShare: 1 / 3,
+      medianSecondsToClear: 450,
+      harshEvents: 2,
+      sentBack: 1,
+    })
     expect(rows[1]!.name).toBe("Bo")
   })
 })
 
 describe("numbers CSV", () => {
   it("writes one RFC 4180 line per drive and defuses formula-like names", () => {
-    const csv = numbersToCsv([drive({ technicianName: '=HYPERLINK("x")', clearedAtSeconds: 630.96, durationSeconds: 1199.9999999 })], "America/Chicago")
+    const csv = numbersToCsv(
+      [drive({ technicianName: '=HYPERLINK("x")', clearedAtSeconds: 630.96, durationSeconds: 1199.9999999 })],
+      "America/Chicago",
+    )
     const lines = csv.split("\r\n")
     expect(lines[0]).toBe(
       "drive_id,finished_at,technician,profile,verdict,time_to_learn_complete_seconds,qualifying_time_before_learn_complete_seconds,following_time_before_learn_complete_seconds,drive_time_seconds,harsh_events,review,unmet_conditions",

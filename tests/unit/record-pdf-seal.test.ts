@@ -44,12 +44,19 @@ function record(seal?: RecordData["seal"]): RecordData {
 }
 
 describe("the drive record's seal", () => {
-  const seal = { revision: 2, revisedAt: "2026-01-02T07:55:12.000Z", code: "04HM-ASW9-NF6Y", verifyUrl: "https://shop.example.invalid/verify" }
+  const seal = {
+    revision: 2,
+    revisedAt: "2026-01-02T07:55:12.000Z",
+    code: "04HM-ASW9-NF6Y",
+    verifyUrl: "https://shop.example.invalid/verify",
+  }
 
   it("prints the revision, the verification code and the verify address", async () => {
     const text = (await pdfText(await buildDriveRecordPdf(record(seal)))).replace(/\s+/g, " ")
     // the shop's zone (US Central by default): 07:55 UTC is 01:55 CST (UTC-6 in January)
-    expect(text).toContain("Revision 2 of this record, sealed Jan 2, 2026, 1:55 AM CST. Verification code 04HM-ASW9-NF6Y.")
+    expect(text).toContain(
+      "Revision 2 of this record, sealed Jan 2, 2026, 1:55 AM CST. Verification code 04HM-ASW9-NF6Y.",
+    )
     expect(text).toContain("Check this record")
     expect(text).toContain("Verification code: 04HM-ASW9-NF6Y")
     expect(text).toContain("https://shop.example.invalid/verify")

@@ -1,5 +1,13 @@
 import { describe, expect, it } from "vitest"
-import { canonicalDriveFile, canonicalJson, canonicalRecord, normalizeCode, recordDigest, sha256Hex, verificationCode } from "@/lib/record/seal"
+import {
+  canonicalDriveFile,
+  canonicalJson,
+  canonicalRecord,
+  normalizeCode,
+  recordDigest,
+  sha256Hex,
+  verificationCode,
+} from "@/lib/record/seal"
 import { generateDrive } from "@/lib/tracks"
 
 describe("canonical JSON (RFC 8785, JSON Canonicalization Scheme)", () => {
@@ -17,7 +25,15 @@ describe("canonical JSON (RFC 8785, JSON Canonicalization Scheme)", () => {
 
   it("sorts keys by UTF-16 code units, not by code point (RFC 8785 section 3.2.3 example)", () => {
     // RFC 8785 section 3.2.3: the sorted order of the example's property names.
-    const input = { "\u20ac": "Euro Sign", "\r": "Carriage Return", "\ufb33": "Hebrew Letter Dalet With Dagesh", "1": "One", "\ud83d\ude00": "Emoji: Grinning Face", "\u0080": "Control", "\u00f6": "Latin Small Letter O With Diaeresis" }
+    const input = {
+      "\u20ac": "Euro Sign",
+      "\r": "Carriage Return",
+      "\ufb33": "Hebrew Letter Dalet With Dagesh",
+      "1": "One",
+      "\ud83d\ude00": "Emoji: Grinning Face",
+      "\u0080": "Control",
+      "\u00f6": "Latin Small Letter O With Diaeresis",
+    }
     const keys = Object.keys(JSON.parse(canonicalJson(input)) as object)
     const order = [...canonicalJson(input).matchAll(/"([^"]*)":"([^"]*)"/g)].map((m) => m[2])
     expect(keys).toHaveLength(7)
@@ -42,7 +58,7 @@ describe("SHA-256 (FIPS 180-4)", () => {
     expect(sha256Hex("abc")).toBe("ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad")
   })
 
-  it("hashes the two-block message to the published value (NIST example \"Two-Block Message\")", () => {
+  it('hashes the two-block message to the published value (NIST example "Two-Block Message")', () => {
     expect(sha256Hex("abcdbcdecdefdefgefghfghighijhijkijkljklmklmnlmnomnopnopq")).toBe(
       "248d6a61d20638b8e5c026930c3e6039a33ce45964ff2167f6ecedd419db06c1",
     )
@@ -57,13 +73,26 @@ describe("the record digest and its verification code", () => {
   const base = {
     driveId: "6F1E8C2A-0B7D-4E55-9A3C-1D2E3F405162",
     revision: 1,
-    driveFile: { format: "straightaway.drive/1", profile: { minSpeedMph: 35 }, samples: [{ t: 1, lat: 40, lon: -75 }], marks: [] },
+    driveFile: {
+      format: "straightaway.drive/1",
+      profile: { minSpeedMph: 35 },
+      samples: [{ t: 1, lat: 40, lon: -75 }],
+      marks: [],
+    },
     score: { verdict: "met", reasons: [] },
     review: null,
   }
 
   it("is SHA-256 over the canonical record, whatever the order of the properties", () => {
-    const shuffled = { ...base, driveFile: { marks: [], samples: [{ lon: -75, lat: 40, t: 1 }], profile: { minSpeedMph: 35 }, format: "straightaway.drive/1" } }
+    const shuffled = {
+      ...base,
+      driveFile: {
+        marks: [],
+        samples: [{ lon: -75, lat: 40, t: 1 }],
+        profile: { minSpeedMph: 35 },
+        format: "straightaway.drive/1",
+      },
+    }
     expect(canonicalRecord(base)).toBe(
       '{"driveFile":{"format":"straightaway.drive/1","marks":[],"profile":{"minSpeedMph":35},"samples":[{"lat":40,"lon":-75,"t":1}]},"driveId":"6f1e8c2a-0b7d-4e55-9a3c-1d2e3f405162","format":"straightaway.record/1","review":null,"revision":1,"score":{"reasons":[],"verdict":"met"}}',
     )
@@ -72,19 +101,35 @@ describe("the record digest and its verification code", () => {
 
   it("writes a drive file exactly as the generic RFC 8785 canonicalizer does, samples with and without speed and accuracy", () => {
     const file = generateDrive({ seed: 5, minutes: 8, pattern: "short" })
-    const mixed = { ...file, samples: file.samples.map((s, i) => (i % 3 === 0 ? { t: s.t, lat: s.lat, lon: s.lon } : i % 3 === 1 ? { ...s, speed: -0, accuracy: 1e21 } : s)) }
+    const mixed = {
+      ...file,
+      samples: file.samples.map((s, i) =>
+        i % 3 === 0 ? { t: s.t, lat: s.lat, lon: s.lon } : i % 3 === 1 ? { ...s, speed: -0, accuracy: 1e21 } : s,
+      ),
+    }
     for (const f of [file, mixed, { ...file, samples: [{ t: 1, lat: 2, lon: 3, heading: 4 }] }, { format: "x" }]) {
       expect(canonicalDriveFile(f)).toBe(canonicalJson(f))
     }
-    const full = { format: "straightaway.record/1", driveId: base.driveId.toLowerCase(), revision: 3, driveFile: mixed, score: base.score, review: { decision: "redo", note: "Ä note" } }
-    expect(canonicalRecord({ ...base, revision: 3, driveFile: mixed, review: { decision: "redo", note: "Ä note" } })).toBe(canonicalJson(full))
+    const full = {
+      format: "straightaway.record/1",
+      driveId: base.driveId.toLowerCase(),
+      revision: 3,
+      driveFile: mixed,
+      score: base.score,
+      review: { decision: "redo", note: "Ä note" },
+    }
+    expect(
+      canonicalRecord({ ...base, revision: 3, driveFile: mixed, review: { decision: "redo", note: "Ä note" } }),
+    ).toBe(canonicalJson(full))
   })
 
   it("changes with the revision number, the review and any sample", () => {
     const d = recordDigest(base)
     expect(recordDigest({ ...base, revision: 2 })).not.toBe(d)
     expect(recordDigest({ ...base, review: { decision: "approve", note: "" } })).not.toBe(d)
-    expect(recordDigest({ ...base, driveFile: { ...base.driveFile, samples: [{ t: 1, lat: 40, lon: -75.0000001 }] } })).not.toBe(d)
+    expect(
+      recordDigest({ ...base, driveFile: { ...base.driveFile, samples: [{ t: 1, lat: 40, lon: -75.0000001 }] } }),
+    ).not.toBe(d)
   })
 
   it("makes a 12-character Crockford base-32 code from the first 60 bits of the digest", () => {

@@ -17,7 +17,10 @@ import { withCheckDigit } from "@/lib/vin"
 
 // A 1x1 PNG (PNG spec, ISO/IEC 15948: signature, IHDR, IDAT, IEND).
 const PNG_1X1 = Uint8Array.from(
-  Buffer.from("iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mNk+M9QDwADhgGAWjR9awAAAABJRU5ErkJggg==", "base64"),
+  Buffer.from(
+    "iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mNk+M9QDwADhgGAWjR9awAAAABJRU5ErkJggg==",
+    "base64",
+  ),
 )
 
 async function pdfText(bytes: Uint8Array) {
@@ -58,7 +61,13 @@ function recordFor(pattern: "met" | "short", vin: string): RecordData {
     photos: [{ filename: "mount.png", contentType: "image/png", bytes: PNG_1X1 }],
     score,
     timeline: computeTimeline(file.samples, file.marks, resolveProfile(file.profile)),
-    marks: file.marks.map((m) => ({ t: m.t, kind: m.kind, gapFt: m.gapFt ?? null, text: m.text ?? null, byName: "Ada Fenwick" })),
+    marks: file.marks.map((m) => ({
+      t: m.t,
+      kind: m.kind,
+      gapFt: m.gapFt ?? null,
+      text: m.text ?? null,
+      byName: "Ada Fenwick",
+    })),
     driverName: "Ada Fenwick",
     coDriverName: "Cyril Oduya",
     markLoggers: ["Ada Fenwick"],
@@ -88,7 +97,12 @@ describe("drive record PDF", () => {
 
   it("shows a met drive as Met with its function-check speed and the reviewer's decision", async () => {
     const data = recordFor("met", withCheckDigit("0ZTFB2F50DH512345"))
-    data.review = { decision: "approve", note: "Clean drive.", reviewerName: "Bo Lindqvist", at: "2026-03-02T11:00:00.000Z" }
+    data.review = {
+      decision: "approve",
+      note: "Clean drive.",
+      reviewerName: "Bo Lindqvist",
+      at: "2026-03-02T11:00:00.000Z",
+    }
     expect(data.score.verdict).toBe("met")
     const text = await pdfText(await buildDriveRecordPdf(data))
     expect(text).toContain("Met")
@@ -151,11 +165,12 @@ describe("record helpers", () => {
     const states = new Set(paths.map((p) => p.state))
     expect(states.has("qualifying") || states.has("following")).toBe(true)
     expect(states.has("following")).toBe(true)
-    for (const p of paths) for (const [x, y] of p.points) {
-      expect(x).toBeGreaterThanOrEqual(9.99)
-      expect(x).toBeLessThanOrEqual(290.01)
-      expect(y).toBeGreaterThanOrEqual(9.99)
-      expect(y).toBeLessThanOrEqual(190.01)
-    }
+    for (const p of paths)
+      for (const [x, y] of p.points) {
+        expect(x).toBeGreaterThanOrEqual(9.99)
+        expect(x).toBeLessThanOrEqual(290.01)
+        expect(y).toBeGreaterThanOrEqual(9.99)
+        expect(y).toBeLessThanOrEqual(190.01)
+      }
   })
 })

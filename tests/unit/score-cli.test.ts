@@ -25,7 +25,9 @@ function write(name: string, content: string): string {
 // Each case starts a Node process through tsx: on a loaded two-core machine that alone can pass 5 s.
 describe("npm run score", { timeout: 60_000 }, () => {
   it("prints the score as 2-space JSON and exits 0, also for not_met", () => {
-    const r = runCli(write("never.json", JSON.stringify(generateDrive({ seed: 3, minutes: 2, pattern: "never-cleared" }))))
+    const r = runCli(
+      write("never.json", JSON.stringify(generateDrive({ seed: 3, minutes: 2, pattern: "never-cleared" }))),
+    )
     expect(r.status).toBe(0)
     const score = JSON.parse(r.stdout)
     expect(score.verdict).toBe("not_met")

@@ -13,16 +13,26 @@ describe("static set-up measurements", () => {
   })
 
   it("describes a figure with its specified value and tolerance", () => {
-    expect(describeMeasurement({ key: "target_distance", value: 1530, specified: 1500, tolerance: 10, unit: "mm" })).toBe(
-      "Target distance 1530 mm (specified 1500 ± 10 mm)",
-    )
-    expect(describeMeasurement({ key: "other", label: "Radar bracket angle", value: 1.2, specified: 0, tolerance: 1, unit: "°" })).toBe(
-      "Radar bracket angle 1.2 ° (specified 0 ± 1 °)",
-    )
+    expect(
+      describeMeasurement({ key: "target_distance", value: 1530, specified: 1500, tolerance: 10, unit: "mm" }),
+    ).toBe("Target distance 1530 mm (specified 1500 ± 10 mm)")
+    expect(
+      describeMeasurement({
+        key: "other",
+        label: "Radar bracket angle",
+        value: 1.2,
+        specified: 0,
+        tolerance: 1,
+        unit: "°",
+      }),
+    ).toBe("Radar bracket angle 1.2 ° (specified 0 ± 1 °)")
   })
 
   it("refuses an other measurement without a name, a negative tolerance and an empty override note", () => {
-    const r = setupInputSchema.safeParse({ measurements: [{ key: "other", value: 1, specified: 1, tolerance: -1, unit: "mm" }], scanResult: "pass" })
+    const r = setupInputSchema.safeParse({
+      measurements: [{ key: "other", value: 1, specified: 1, tolerance: -1, unit: "mm" }],
+      scanResult: "pass",
+    })
     expect(r.success).toBe(false)
     const paths = r.success ? [] : r.error.issues.map((i) => i.path.join("."))
     expect(paths).toEqual(expect.arrayContaining(["measurements.0.tolerance", "measurements.0.label"]))

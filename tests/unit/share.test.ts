@@ -62,12 +62,17 @@ describe("share tokens", () => {
     expect(verifyShareToken(SECRET, token, expiresAt + DAY_MS)).toEqual({ ok: false, reason: "expired" })
   })
 
-  it.each(["", "abc", `${DRIVE}.123`, `not-a-uuid.123.${"a".repeat(43)}`, `${DRIVE}.12x.${"a".repeat(43)}`, `${DRIVE}.1.2.3`, "x".repeat(500)])(
-    "calls %j malformed",
-    (token) => {
-      expect(verifyShareToken(SECRET, token, NOW)).toEqual({ ok: false, reason: "malformed" })
-    },
-  )
+  it.each([
+    "",
+    "abc",
+    `${DRIVE}.123`,
+    `not-a-uuid.123.${"a".repeat(43)}`,
+    `${DRIVE}.12x.${"a".repeat(43)}`,
+    `${DRIVE}.1.2.3`,
+    "x".repeat(500),
+  ])("calls %j malformed", (token) => {
+    expect(verifyShareToken(SECRET, token, NOW)).toEqual({ ok: false, reason: "malformed" })
+  })
 
   it("will not sign a drive id that is not a UUID", () => {
     expect(() => signShareToken(SECRET, "../etc", NOW)).toThrow(RangeError)
@@ -90,4 +95,3 @@ describe("share tokens", () => {
     expect(sig).toBe(createHmac("sha256", SECRET).update(`share:${id}.${exp}.3`).digest("base64url"))
   })
 })
-

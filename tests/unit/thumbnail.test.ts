@@ -13,7 +13,8 @@ describe("thumbnailSize", () => {
   // i.e. the picture is stored turned a quarter turn; 1-4 are upright, mirrored or upside down.
   it("trades width and height for EXIF orientations 5 to 8 only", () => {
     for (const o of [5, 6, 7, 8]) expect(thumbnailSize(3000, 2000, o)).toEqual({ widthPx: 213, heightPx: 320 })
-    for (const o of [undefined, 1, 2, 3, 4]) expect(thumbnailSize(3000, 2000, o)).toEqual({ widthPx: 320, heightPx: 213 })
+    for (const o of [undefined, 1, 2, 3, 4])
+      expect(thumbnailSize(3000, 2000, o)).toEqual({ widthPx: 320, heightPx: 213 })
     expect([1, 2, 3, 4, 5, 6, 7, 8].map(isQuarterTurn)).toEqual([false, false, false, false, true, true, true, true])
   })
 
@@ -28,24 +29,34 @@ describe("thumbnailSize", () => {
   })
 
   it("refuses sizes that are not positive whole pixels", () => {
-    for (const [w, h] of [[0, 10], [10, -1], [1.5, 10], [Number.NaN, 10]] as const) {
+    for (const [w, h] of [
+      [0, 10],
+      [10, -1],
+      [1.5, 10],
+      [Number.NaN, 10],
+    ] as const) {
       expect(() => thumbnailSize(w, h)).toThrow(RangeError)
     }
   })
 
   it("keeps the long side within the limit and the aspect ratio within rounding, for any size", () => {
     fc.assert(
-      fc.property(fc.integer({ min: 1, max: 20_000 }), fc.integer({ min: 1, max: 20_000 }), fc.integer({ min: 1, max: 8 }), (w, h, o) => {
-        const t = thumbnailSize(w, h, o)
-        const [ow, oh] = o >= 5 ? [h, w] : [w, h]
-        expect(Math.max(t.widthPx, t.heightPx)).toBeLessThanOrEqual(Math.min(THUMBNAIL_MAX_PX, Math.max(ow, oh)))
-        expect(t.widthPx).toBeLessThanOrEqual(ow)
-        expect(t.heightPx).toBeLessThanOrEqual(oh)
-        // Rounding each side moves it by at most half a pixel (1 px when clamped up to 1).
-        const scale = Math.min(1, THUMBNAIL_MAX_PX / Math.max(ow, oh))
-        expect(Math.abs(t.widthPx - ow * scale)).toBeLessThanOrEqual(1)
-        expect(Math.abs(t.heightPx - oh * scale)).toBeLessThanOrEqual(1)
-      }),
+      fc.property(
+        fc.integer({ min: 1, max: 20_000 }),
+        fc.integer({ min: 1, max: 20_000 }),
+        fc.integer({ min: 1, max: 8 }),
+        (w, h, o) => {
+          const t = thumbnailSize(w, h, o)
+          const [ow, oh] = o >= 5 ? [h, w] : [w, h]
+          expect(Math.max(t.widthPx, t.heightPx)).toBeLessThanOrEqual(Math.min(THUMBNAIL_MAX_PX, Math.max(ow, oh)))
+          expect(t.widthPx).toBeLessThanOrEqual(ow)
+          expect(t.heightPx).toBeLessThanOrEqual(oh)
+          // Rounding each side moves it by at most half a pixel (1 px when clamped up to 1).
+          const scale = Math.min(1, THUMBNAIL_MAX_PX / Math.max(ow, oh))
+          expect(Math.abs(t.widthPx - ow * scale)).toBeLessThanOrEqual(1)
+          expect(Math.abs(t.heightPx - oh * scale)).toBeLessThanOrEqual(1)
+        },
+      ),
     )
   })
 })

@@ -27,7 +27,11 @@ function when(d: Date | string, timeZone: string) {
   return formatDateTime(d, timeZone)
 }
 
-export default async function DrivesPage({ searchParams }: { searchParams: Promise<Record<string, string | undefined>> }) {
+export default async function DrivesPage({
+  searchParams,
+}: {
+  searchParams: Promise<Record<string, string | undefined>>
+}) {
   const user = await requirePageRole()
   const parsed = listDrivesQuery.safeParse(await searchParams)
   const query = parsed.success ? parsed.data : {}
@@ -41,14 +45,20 @@ export default async function DrivesPage({ searchParams }: { searchParams: Promi
   const prefs = await getFormatPrefs(user.shopId)
   // The co-driver's way in: a large card for each drive being recorded that names them.
   const joinable =
-    user.role === "co_driver" ? (await listDrives(getReadDb(), user.shopId, { status: "recording", coDriverId: user.id })).rows : []
+    user.role === "co_driver"
+      ? (await listDrives(getReadDb(), user.shopId, { status: "recording", coDriverId: user.id })).rows
+      : []
   const current = query.verdict ? `verdict=${query.verdict}` : query.status ? `status=${query.status}` : ""
   const canRecord = user.role !== "co_driver"
   return (
     <div className="mx-auto max-w-3xl">
       <PageHeader
         title="Drives"
-        description={user.role === "co_driver" ? "Drives that name you as co-driver." : "Every calibration drive of the shop, newest first."}
+        description={
+          user.role === "co_driver"
+            ? "Drives that name you as co-driver."
+            : "Every calibration drive of the shop, newest first."
+        }
         actions={
           canRecord ? (
             <Link href="/record" className={buttonVariants({ variant: "signal" })}>
@@ -103,16 +113,31 @@ export default async function DrivesPage({ searchParams }: { searchParams: Promi
         ))}
       </nav>
       {rows.length === 0 ? (
-        <p className="rounded-xl border border-dashed border-graphite-300 p-6 text-center text-graphite-600 dark:border-graphite-600 dark:text-graphite-300" data-testid="drives-empty">
-          {current ? "No drives with this filter. Choose All to see every drive." : canRecord ? "No drives yet. Record a drive to see it here." : "No drives name you as co-driver yet."}
+        <p
+          className="rounded-xl border border-dashed border-graphite-300 p-6 text-center text-graphite-600 dark:border-graphite-600 dark:text-graphite-300"
+          data-testid="drives-empty"
+        >
+          {current
+            ? "No drives with this filter. Choose All to see every drive."
+            : canRecord
+              ? "No drives yet. Record a drive to see it here."
+              : "No drives name you as co-driver yet."}
         </p>
       ) : (
-        <ul className="divide-y divide-graphite-200 overflow-hidden rounded-xl border border-graphite-200 bg-white dark:divide-asphalt-700 dark:border-asphalt-700 dark:bg-asphalt-800" data-testid="drive-list">
+        <ul
+          className="divide-y divide-graphite-200 overflow-hidden rounded-xl border border-graphite-200 bg-white dark:divide-asphalt-700 dark:border-asphalt-700 dark:bg-asphalt-800"
+          data-testid="drive-list"
+        >
           {rows.map((d) => {
-            const href = d.status === "recording" && user.role === "co_driver" ? `/record/${d.id}/co-driver` : `/drives/${d.id}`
+            const href =
+              d.status === "recording" && user.role === "co_driver" ? `/record/${d.id}/co-driver` : `/drives/${d.id}`
             return (
               <li key={d.id}>
-                <Link href={href} className="flex min-h-16 items-center gap-3 px-4 py-3 hover:bg-graphite-50 dark:hover:bg-asphalt-700" data-drive-id={d.id}>
+                <Link
+                  href={href}
+                  className="flex min-h-16 items-center gap-3 px-4 py-3 hover:bg-graphite-50 dark:hover:bg-asphalt-700"
+                  data-drive-id={d.id}
+                >
                   <div className="min-w-0 flex-1">
                     <p className="line-clamp-2 font-semibold break-words">
                       {d.ro_number ? roLabel(d.ro_number) : "Unplanned drive"}

@@ -29,20 +29,31 @@ export default async function NumbersPage({ searchParams }: { searchParams: Prom
         title="Numbers"
         description={`${numbers.drives} finished ${numbers.drives === 1 ? "drive" : "drives"} in the last ${days} days.`}
         actions={
-          <a className={buttonVariants({ variant: "outline", size: "sm" })} href={`/api/numbers?format=csv&days=${days}`} data-testid="numbers-csv">
+          <a
+            className={buttonVariants({ variant: "outline", size: "sm" })}
+            href={`/api/numbers?format=csv&days=${days}`}
+            data-testid="numbers-csv"
+          >
             <Download aria-hidden className="size-4" /> CSV
           </a>
         }
       />
       <nav className="mb-4 flex gap-2" aria-label="Period">
         {RANGES.map((r) => (
-          <Link key={r} href={`/numbers?days=${r}`} aria-current={r === days ? "page" : undefined} className={cn(buttonVariants({ variant: r === days ? "primary" : "ghost", size: "sm" }))}>
+          <Link
+            key={r}
+            href={`/numbers?days=${r}`}
+            aria-current={r === days ? "page" : undefined}
+            className={cn(buttonVariants({ variant: r === days ? "primary" : "ghost", size: "sm" }))}
+          >
             {r} days
           </Link>
         ))}
       </nav>
       {numbers.drives === 0 ? (
-        <Card data-testid="numbers-empty">No finished drives in this period yet. Try a longer period, or finish a drive to see it counted.</Card>
+        <Card data-testid="numbers-empty">
+          No finished drives in this period yet. Try a longer period, or finish a drive to see it counted.
+        </Card>
       ) : (
         <div className="grid gap-4 xl:grid-cols-2">
           <TimeToClearChart data={numbers.timeToClear} />
@@ -56,7 +67,7 @@ export default async function NumbersPage({ searchParams }: { searchParams: Prom
                 {numbers.perTechnician.map((t) => (
                   <li key={t.technicianId} className="space-y-1 px-3 py-3">
                     <p className="font-semibold">{t.name}</p>
-                    <dl className="tabular grid grid-cols-2 gap-x-3 gap-y-0.5 text-sm">
+                    <dl className="grid grid-cols-2 gap-x-3 gap-y-0.5 tabular text-sm">
                       <dt className="text-graphite-600 dark:text-graphite-300">Drives</dt>
                       <dd>{t.drives}</dd>
                       <dt className="text-graphite-600 dark:text-graphite-300">Met</dt>
@@ -75,33 +86,48 @@ export default async function NumbersPage({ searchParams }: { searchParams: Prom
               </ul>
             </div>
             <div className="hidden overflow-x-auto sm:block">
-            <table className="w-full text-left text-sm" data-testid="per-technician">
-              <caption className="px-3 pt-3 text-left text-lg font-semibold">Per technician</caption>
-              <thead>
-                <tr className="border-b border-graphite-200 text-graphite-600 dark:border-asphalt-700 dark:text-graphite-300">
-                  <th scope="col" className="px-3 py-2 font-medium">Technician</th>
-                  <th scope="col" className="px-3 py-2 font-medium">Drives</th>
-                  <th scope="col" className="px-3 py-2 font-medium">Met</th>
-                  <th scope="col" className="px-3 py-2 font-medium">Median to learn complete</th>
-                  <th scope="col" className="px-3 py-2 font-medium">Harsh events</th>
-                  <th scope="col" className="px-3 py-2 font-medium">Sent back</th>
-                </tr>
-              </thead>
-              <tbody>
-                {numbers.perTechnician.map((t) => (
-                  <tr key={t.technicianId} className="border-b border-graphite-100 last:border-0 dark:border-asphalt-700">
-                    <td className="px-3 py-2">{t.name}</td>
-                    <td className="tabular px-3 py-2">{t.drives}</td>
-                    <td className="tabular px-3 py-2">
-                      {t.met} ({Math.round(t.metShare * 100)} %)
-                    </td>
-                    <td className="tabular px-3 py-2">{formatDuration(t.medianSecondsToClear)}</td>
-                    <td className="tabular px-3 py-2">{t.harshEvents}</td>
-                    <td className="tabular px-3 py-2">{t.sentBack}</td>
+              <table className="w-full text-left text-sm" data-testid="per-technician">
+                <caption className="px-3 pt-3 text-left text-lg font-semibold">Per technician</caption>
+                <thead>
+                  <tr className="border-b border-graphite-200 text-graphite-600 dark:border-asphalt-700 dark:text-graphite-300">
+                    <th scope="col" className="px-3 py-2 font-medium">
+                      Technician
+                    </th>
+                    <th scope="col" className="px-3 py-2 font-medium">
+                      Drives
+                    </th>
+                    <th scope="col" className="px-3 py-2 font-medium">
+                      Met
+                    </th>
+                    <th scope="col" className="px-3 py-2 font-medium">
+                      Median to learn complete
+                    </th>
+                    <th scope="col" className="px-3 py-2 font-medium">
+                      Harsh events
+                    </th>
+                    <th scope="col" className="px-3 py-2 font-medium">
+                      Sent back
+                    </th>
                   </tr>
-                ))}
-              </tbody>
-            </table>
+                </thead>
+                <tbody>
+                  {numbers.perTechnician.map((t) => (
+                    <tr
+                      key={t.technicianId}
+                      className="border-b border-graphite-100 last:border-0 dark:border-asphalt-700"
+                    >
+                      <td className="px-3 py-2">{t.name}</td>
+                      <td className="px-3 py-2 tabular">{t.drives}</td>
+                      <td className="px-3 py-2 tabular">
+                        {t.met} ({Math.round(t.metShare * 100)} %)
+                      </td>
+                      <td className="px-3 py-2 tabular">{formatDuration(t.medianSecondsToClear)}</td>
+                      <td className="px-3 py-2 tabular">{t.harshEvents}</td>
+                      <td className="px-3 py-2 tabular">{t.sentBack}</td>
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
             </div>
           </Card>
         </div>

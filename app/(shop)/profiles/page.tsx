@@ -37,7 +37,10 @@ export default async function ProfilesPage() {
         {profiles.map((p) => (
           <li key={p.profileId}>
             <Card className="space-y-1">
-              <Link href={`/profiles/${p.profileId}`} className="flex min-h-12 items-center text-lg font-bold underline-offset-4 hover:underline">
+              <Link
+                href={`/profiles/${p.profileId}`}
+                className="flex min-h-12 items-center text-lg font-bold underline-offset-4 hover:underline"
+              >
                 {p.name}
               </Link>
               <p className="text-sm text-graphite-600 dark:text-graphite-300">
@@ -46,8 +49,10 @@ export default async function ProfilesPage() {
               </p>
               <p className="tabular text-sm">
                 {formatShown(toDisplay("speed", p.settings.minSpeedMph, u), "speed")}
-                {p.settings.maxSpeedMph != null ? `–${formatShown(toDisplay("speed", p.settings.maxSpeedMph, u), "speed")}` : "+"} {unitLabel("speed", u)} ·{" "}
-                {formatMinutesSetting(p.settings.minQualifyingMinutes)} qualifying ·{" "}
+                {p.settings.maxSpeedMph != null
+                  ? `–${formatShown(toDisplay("speed", p.settings.maxSpeedMph, u), "speed")}`
+                  : "+"}{" "}
+                {unitLabel("speed", u)} · {formatMinutesSetting(p.settings.minQualifyingMinutes)} qualifying ·{" "}
                 {p.settings.minFollowingMinutes > 0
                   ? `${formatMinutesSetting(p.settings.minFollowingMinutes)} following at ${formatShown(toDisplay("distance", p.settings.leadGapFt.min, u), "distance")}–${formatShown(toDisplay("distance", p.settings.leadGapFt.max, u), "distance")} ${unitLabel("distance", u)}`
                   : "no lead vehicle needed"}

@@ -28,7 +28,10 @@ export default async function ReviewPage() {
   const [{ rows }, { units }] = await Promise.all([listReviewQueue(getReadDb(), me.shopId), getFormatPrefs(me.shopId)])
   return (
     <>
-      <PageHeader title="Review" description="Finished drives that need a second look: not met, or with harsh events. Oldest first." />
+      <PageHeader
+        title="Review"
+        description="Finished drives that need a second look: not met, or with harsh events. Oldest first."
+      />
       {rows.length === 0 ? (
         <Card className="flex items-center gap-3" data-testid="review-empty">
           <ClipboardCheck aria-hidden className="size-6 text-teal-600" />
@@ -49,14 +52,20 @@ export default async function ReviewPage() {
                         <VerdictBadge verdict={r.verdict} />
                         {harsh > 0 ? (
                           <span className="inline-flex items-center gap-1 rounded-full border border-signal-600 px-2 py-0.5 text-sm font-medium text-signal-700 dark:text-signal-300">
-                            <AlertTriangle aria-hidden className="size-4" /> {harsh} harsh {harsh === 1 ? "event" : "events"}
+                            <AlertTriangle aria-hidden className="size-4" /> {harsh} harsh{" "}
+                            {harsh === 1 ? "event" : "events"}
                           </span>
                         ) : null}
                       </div>
                       <p className="font-semibold break-words">
                         {r.ro_number ? roLabel(r.ro_number) : "Unplanned drive"}
                         {" · "}
-                        {describeVehicle(r.vehicle_make || r.vehicle_model ? { year: r.vehicle_year, make: r.vehicle_make, model: r.vehicle_model } : null, r.vehicle_description)}
+                        {describeVehicle(
+                          r.vehicle_make || r.vehicle_model
+                            ? { year: r.vehicle_year, make: r.vehicle_make, model: r.vehicle_model }
+                            : null,
+                          r.vehicle_description,
+                        )}
                       </p>
                       <ul className="list-disc pl-5 text-sm text-graphite-700 dark:text-graphite-200">
                         {[...words.reasons, ...words.notes].slice(0, 3).map((reason) => (

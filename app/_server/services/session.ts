@@ -26,7 +26,8 @@ export async function signIn(req: Request, email: string, password: string) {
     })
   }
   const user = await findUserByEmail(db, email)
-  const ok = user && !user.disabled ? await verifyPassword(user.password_hash, password) : await verifyAgainstDummy(password)
+  const ok =
+    user && !user.disabled ? await verifyPassword(user.password_hash, password) : await verifyAgainstDummy(password)
   if (!user || !ok || user.disabled) {
     await insertSignInFailure(db, email, address ?? "")
     throw new AppError("not_signed_in", WRONG)

@@ -16,7 +16,12 @@ import {
 } from "@/app/_server/storage"
 import { canHaveThumbnail, deleteAttachmentObjects, storeThumbnail } from "@/app/_server/thumbnails"
 import { getDb } from "@/db/client"
-import { deleteAttachment, findAttachmentInShop, insertPendingAttachment, markAttachmentComplete } from "@/db/queries/attachments"
+import {
+  deleteAttachment,
+  findAttachmentInShop,
+  insertPendingAttachment,
+  markAttachmentComplete,
+} from "@/db/queries/attachments"
 import { attachmentJson, findJobInShop, findTaskInJob, isCoDriverOnJob } from "@/db/queries/jobs"
 import { AppError, notFound, validationFailed } from "@/lib/errors"
 import { contentDisposition } from "@/lib/http/content-disposition"
@@ -37,7 +42,9 @@ type UploadRequest = z.output<typeof uploadRequestSchema>
 export async function startUpload(user: SessionUser, input: UploadRequest) {
   if (input.size > MAX_UPLOAD_BYTES) {
     const mb = (input.size / 1024 / 1024).toFixed(1)
-    throw new AppError("too_large", `${input.filename} is ${mb} MB; files up to 15 MB are taken.`, { size: "is over 15 MB" })
+    throw new AppError("too_large", `${input.filename} is ${mb} MB; files up to 15 MB are taken.`, {
+      size: "is over 15 MB",
+    })
   }
   if (!isAllowedUploadType(input.contentType)) {
     validationFailed(
@@ -76,7 +83,8 @@ export async function completeUpload(user: SessionUser, attachmentId: string) {
   const a = (await findAttachmentInShop(db, attachmentId, user.shopId)) ?? notFound("That upload")
   if (a.status === "complete") return attachmentJson(a)
   const uploadSize = await headObjectSize(a.object_key)
-  if (uploadSize === null) throw new AppError("invalid_request", "The file has not arrived yet: upload it to the upload URL first.")
+  if (uploadSize === null)
+    throw new AppError("invalid_request", "The file has not arrived yet: upload it to the upload URL first.")
   const storedKey = storedKeyFor(a.object_key)
   const stored = { ...a, object_key: storedKey }
   const refuse = async (message: string) => {
@@ -124,7 +132,11 @@ export async function completeUpload(user: SessionUser, attachmentId: string) {
  * JPEG thumbnail (a few tens of kB, cacheable at this stable address); a file without one (a PDF, a HEIC photo the
  * image library could not open, an upload from before thumbnails) falls back to the file itself.
  */
-export async function attachmentResponse(user: SessionUser, attachmentId: string, variant?: "thumbnail"): Promise<Response> {
+export async function attachmentResponse(
+  user: SessionUser,
+  attachmentId: string,
+  variant?: "thumbnail",
+): Promise<Response> {
   const db = getDb()
   const a = await findAttachmentInShop(db, attachmentId, user.shopId)
   if (!a || a.status !== "complete") notFound("That file")

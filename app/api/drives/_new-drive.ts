@@ -19,7 +19,10 @@ export async function resolveNewDrive(
   db: Db,
   actor: DriveActor,
   id: string,
-  input: Pick<CreateDriveInput, "jobId" | "taskId" | "vehicleDescription" | "profileKey" | "profile" | "coDriverId" | "kind" | "roadTestChecks">,
+  input: Pick<
+    CreateDriveInput,
+    "jobId" | "taskId" | "vehicleDescription" | "profileKey" | "profile" | "coDriverId" | "kind" | "roadTestChecks"
+  >,
   driverId = actor.id,
 ): Promise<NewDriveValues> {
   let jobId = input.jobId ?? null
@@ -53,7 +56,8 @@ export async function resolveNewDrive(
     : input.profileKey
       ? await findCurrentProfileVersionByKey(db, input.profileKey, actor.shopId, { includeArchived: false })
       : undefined
-  if (input.profileKey && !taskProfileId && !version) validationFailed({ profileKey: "is not a condition profile of this shop" })
+  if (input.profileKey && !taskProfileId && !version)
+    validationFailed({ profileKey: "is not a condition profile of this shop" })
   if (version) {
     profileVersionId = version.versionId
     profile = version.settings
@@ -68,6 +72,11 @@ export async function resolveNewDrive(
     profile: resolveProfile(profile) as unknown as Record<string, unknown>,
     driverId,
     coDriverId,
-    ...(await resolveRoadTest(db, actor.shopId, { jobId, method: taskMethod, kind: input.kind, checks: input.roadTestChecks })),
+    ...(await resolveRoadTest(db, actor.shopId, {
+      jobId,
+      method: taskMethod,
+      kind: input.kind,
+      checks: input.roadTestChecks,
+    })),
   }
 }

@@ -27,7 +27,11 @@ function driveKindFor(method: string | null | undefined, asked: DriveKind | unde
 }
 
 /** The road-test checks of one task: its profile's, else the shop's default profile for the sensor, else the built-in defaults. */
-async function checksForTask(db: Db, shopId: string, task: { sensor: string; profile_id: string | null }): Promise<RoadTestCheck[]> {
+async function checksForTask(
+  db: Db,
+  shopId: string,
+  task: { sensor: string; profile_id: string | null },
+): Promise<RoadTestCheck[]> {
   const profileId = task.profile_id ?? (await findDefaultProfileForSensor(db, task.sensor, shopId))?.id
   const version = profileId ? await findCurrentProfileVersionById(db, profileId, shopId) : undefined
   return version ? version.roadTestChecks : defaultRoadTestChecks(task.sensor)
@@ -57,7 +61,10 @@ export async function resolveRoadTest(
 
 /** 409 while any static set-up of the job has a measurement out of tolerance that no lead has overridden. */
 export async function assertRoadTestMayStart(db: Db, shopId: string, jobId: string): Promise<void> {
-  const [tasks, setups] = await Promise.all([listTasksForJob(db, jobId, shopId), listSetupRecordsForJob(db, jobId, shopId)])
+  const [tasks, setups] = await Promise.all([
+    listTasksForJob(db, jobId, shopId),
+    listSetupRecordsForJob(db, jobId, shopId),
+  ])
   const problems: string[] = []
   for (const row of setups) {
     if (!setupJson(row).blocksRoadTest) continue
@@ -80,7 +87,9 @@ export function assertCheckMarksFit(drive: Drive, marks: readonly ApiMark[]): vo
   const fields: Record<string, string> = {}
   marks.forEach((m, i) => {
     if (m.kind !== "check" || m.checkKey === undefined || keys.has(m.checkKey)) return
-    fields[`marks.${i}.checkKey`] = keys.size ? "is not one of this drive's road-test checks" : "this drive is not a road test: it has no checks"
+    fields[`marks.${i}.checkKey`] = keys.size
+      ? "is not one of this drive's road-test checks"
+      : "this drive is not a road test: it has no checks"
   })
   if (Object.keys(fields).length) validationFailed(fields)
 }

@@ -53,7 +53,12 @@ export async function loadDriveFor(db: Db, driveId: string, actor: DriveActor, n
  * the same 404/403 rules as loadDriveFor, and 409 once a lead has reviewed it. This is the transaction's
  * one read of the drive.
  */
-export async function lockDriveFor(trx: Db, driveId: string, actor: DriveActor, opts: { sampleSpan?: boolean } = {}): Promise<DriveWithSampleSpan> {
+export async function lockDriveFor(
+  trx: Db,
+  driveId: string,
+  actor: DriveActor,
+  opts: { sampleSpan?: boolean } = {},
+): Promise<DriveWithSampleSpan> {
   const drive = assertDriveAccess(await findDriveForKeyShare(trx, driveId, actor.shopId, opts), actor, "record")
   assertRecordingOpen(drive)
   return drive
@@ -130,14 +135,19 @@ export function driveJson(drive: Drive, extra: Record<string, unknown> = {}) {
  * a revision of the record when it changed. Call inside a transaction holding the drive FOR UPDATE (or on a
  * drive no one else can see yet, as import does).
  */
-export async function finishAndScore(trx: Db, drive: Drive, by: string | null = null): Promise<{ drive: Drive; score: Score; followUp?: FollowUp }> {
+export async function finishAndScore(
+  trx: Db,
+  drive: Drive,
+  by: string | null = null,
+): Promise<{ drive: Drive; score: Score; followUp?: FollowUp }> {
   const file = await loadDriveFile(trx, drive.id, drive.shop_id)
   const score = scoreDrive(file)
   await upsertScore(trx, drive.id, drive.shop_id, score)
   await updateRoadModel(trx, drive, score, file)
   const finished = await markDriveFinished(trx, drive.id, drive.shop_id, score.verdict)
   if (finished.job_id) await updateJobAfterFinish(trx, finished.job_id, finished.shop_id)
-  const cause: RevisionCause = drive.status === "finished" ? "refinish" : drive.source === "import" ? "import" : "finish"
+  const cause: RevisionCause =
+    drive.status === "finished" ? "refinish" : drive.source === "import" ? "import" : "finish"
   const sealed = await sealRevision(trx, finished, { cause, score, driveFile: file, by })
   return { drive: finished, score, followUp: await noticeVerdictChange(trx, finished, sealed) }
 }
@@ -147,7 +157,12 @@ export async function finishAndScore(trx: Db, drive: Drive, by: string | null = 
  * under the drive's record lock, so racing late writes score one after the other and the last sees them all.
  * Call inside the write's transaction, which holds the drive FOR KEY SHARE.
  */
-export async function rescoreFinishedDrive(trx: Db, drive: Drive, cause: RevisionCause, by: string | null = null): Promise<FollowUp | undefined> {
+export async function rescoreFinishedDrive(
+  trx: Db,
+  drive: Drive,
+  cause: RevisionCause,
+  by: string | null = null,
+): Promise<FollowUp | undefined> {
   if (drive.status !== "finished") return undefined
   await lockDriveRecord(trx, drive.id)
   const file = await loadDriveFile(trx, drive.id, drive.shop_id)

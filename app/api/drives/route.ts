@@ -15,7 +15,8 @@ export const GET = route(async (req) => {
   const { user } = await requireRole()
   const query = parseQuery(req, listDrivesQuery)
   const cursor = parseDriveCursor(query.cursor)
-  if (cursor === null) throw new AppError("validation_failed", "cursor: is not one this server gave out", { cursor: "is invalid" })
+  if (cursor === null)
+    throw new AppError("validation_failed", "cursor: is not one this server gave out", { cursor: "is invalid" })
   const { rows, nextCursor } = await listDrives(getReadDb(), user.shopId, {
     verdict: query.verdict,
     status: query.status,
@@ -29,7 +30,10 @@ export const GET = route(async (req) => {
         driverName: r.driver_name,
         coDriverName: r.co_driver_name,
         sensor: r.task_sensor,
-        vehicle: r.vehicle_make || r.vehicle_model ? { year: r.vehicle_year, make: r.vehicle_make, model: r.vehicle_model } : null,
+        vehicle:
+          r.vehicle_make || r.vehicle_model
+            ? { year: r.vehicle_year, make: r.vehicle_make, model: r.vehicle_model }
+            : null,
       }),
     ),
     nextCursor,

@@ -27,9 +27,15 @@ async function check(work: () => Promise<unknown>): Promise<boolean> {
 export const GET = route(async () => {
   const [database, storage] = await Promise.all([
     check(() => sql`select 1`.execute(getDb())),
-    env().S3_ENDPOINT || env().S3_ACCESS_KEY_ID ? check(() => getS3().send(new HeadBucketCommand({ Bucket: bucket() }))) : Promise.resolve(true),
+    env().S3_ENDPOINT || env().S3_ACCESS_KEY_ID
+      ? check(() => getS3().send(new HeadBucketCommand({ Bucket: bucket() })))
+      : Promise.resolve(true),
   ])
-  if (database && storage) return Response.json({ ok: true, parts: { database: "up", storage: "up" } }, { headers: { "cache-control": "no-store" } })
+  if (database && storage)
+    return Response.json(
+      { ok: true, parts: { database: "up", storage: "up" } },
+      { headers: { "cache-control": "no-store" } },
+    )
   const fields: Record<string, string> = {}
   if (!database) fields.database = "is not answering"
   if (!storage) fields.storage = "is not answering"

@@ -9,7 +9,13 @@ export const GET = route(async () => {
   const { rows, unread } = await listNotifications(getDb(), user.id, user.shopId)
   return Response.json(
     {
-      notifications: rows.map((n) => ({ id: n.id, message: n.message, link: n.link, readAt: n.read_at, createdAt: n.created_at })),
+      notifications: rows.map((n) => ({
+        id: n.id,
+        message: n.message,
+        link: n.link,
+        readAt: n.read_at,
+        createdAt: n.created_at,
+      })),
       unread,
     },
     { headers: { "cache-control": "no-store" } },

@@ -7,7 +7,12 @@ import { getReadDb } from "@/db/client"
 import { numbersToCsv } from "@/lib/numbers"
 
 const query = z.object({
-  days: z.coerce.number({ error: "must be a number of days" }).int({ error: "must be a whole number" }).min(1, { error: "must be 1 to 730" }).max(730, { error: "must be 1 to 730" }).default(NUMBERS_DEFAULT_DAYS),
+  days: z.coerce
+    .number({ error: "must be a number of days" })
+    .int({ error: "must be a whole number" })
+    .min(1, { error: "must be 1 to 730" })
+    .max(730, { error: "must be 1 to 730" })
+    .default(NUMBERS_DEFAULT_DAYS),
   format: z.enum(["json", "csv"], { error: "must be json or csv" }).default("json"),
 })
 

@@ -13,7 +13,9 @@ export const POST = route(async (req) => {
 
 export const GET = route(async () => {
   const { user } = await requireUser()
-  return Response.json({ user: { id: user.id, email: user.email, name: user.name, role: user.role, shopId: user.shopId } })
+  return Response.json({
+    user: { id: user.id, email: user.email, name: user.name, role: user.role, shopId: user.shopId },
+  })
 })
 
 export const DELETE = route(async () => {

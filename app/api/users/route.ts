@@ -31,6 +31,13 @@ export const POST = route(async (req) => {
   return Response.json({ user: toJson(created) }, { status: 201 })
 })
 
-export function toJson(u: { id: string; email: string; name: string; role: string; shop_id: string; disabled: boolean }) {
+export function toJson(u: {
+  id: string
+  email: string
+  name: string
+  role: string
+  shop_id: string
+  disabled: boolean
+}) {
   return { id: u.id, email: u.email, name: u.name, role: u.role, shopId: u.shop_id, disabled: u.disabled }
 }

@@ -6,7 +6,9 @@ import { getDb } from "@/db/client"
 import { validationFailed } from "@/lib/errors"
 import { normalizeCode } from "@/lib/record/seal"
 
-const codeSchema = z.object({ code: z.string({ error: "is required" }).max(40, { error: "must be at most 40 characters" }) })
+const codeSchema = z.object({
+  code: z.string({ error: "is required" }).max(40, { error: "must be at most 40 characters" }),
+})
 
 /**
  * Public (no sign-in): is this a record the product issued? Body: JSON `{code}`, or the PDF itself as
@@ -18,7 +20,8 @@ export const POST = route(async (req) => {
   if (type === "application/pdf" || type === "application/octet-stream") {
     const pdf = await readBodyBytes(req, MAX_VERIFY_PDF_BYTES)
     if (pdf.byteLength === 0) validationFailed({ file: "is empty" }, "The file is empty; send the record's PDF.")
-    if (Buffer.from(pdf.subarray(0, 5)).toString("latin1") !== "%PDF-") validationFailed({ file: "is not a PDF" }, "The file is not a PDF; send the record's PDF.")
+    if (Buffer.from(pdf.subarray(0, 5)).toString("latin1") !== "%PDF-")
+      validationFailed({ file: "is not a PDF" }, "The file is not a PDF; send the record's PDF.")
     return Response.json(await verifyRecord(db, clientAddress(req), { pdf }))
   }
   const { code } = await parseJson(req, codeSchema, { maxBytes: 1024 * 1024 })

@@ -13,23 +13,47 @@ import { getDb } from "@/db/client"
 import { DECISION_WORD, describeVehicle, METHOD_LABEL, REASON_LABEL, RECORD_CAUTIONS, SENSOR_LABEL } from "@/lib/record"
 
 export const dynamic = "force-dynamic"
-export const metadata: Metadata = { title: "Drive record", robots: { index: false, follow: false }, referrer: "no-referrer" }
+export const metadata: Metadata = {
+  title: "Drive record",
+  robots: { index: false, follow: false },
+  referrer: "no-referrer",
+}
 
 const PROBLEM = {
-  withdrawn: { title: "This link was withdrawn", text: "The shop has withdrawn this link. Ask the shop for a new one." },
-  expired: { title: "This link has expired", text: "Share links stop working after a while. Ask the shop for a new link." },
-  malformed: { title: "This link is not valid", text: "The link is incomplete or was changed. Check that you copied all of it, or ask the shop for a new one." },
-  bad_signature: { title: "This link is not valid", text: "The link is incomplete or was changed. Check that you copied all of it, or ask the shop for a new one." },
-  gone: { title: "This record is no longer available", text: "The shop has removed this drive. Ask the shop if you need its record." },
-  not_ready: { title: "This record is not ready yet", text: "The drive is still being recorded. Try the link again later." },
+  withdrawn: {
+    title: "This link was withdrawn",
+    text: "The shop has withdrawn this link. Ask the shop for a new one.",
+  },
+  expired: {
+    title: "This link has expired",
+    text: "Share links stop working after a while. Ask the shop for a new link.",
+  },
+  malformed: {
+    title: "This link is not valid",
+    text: "The link is incomplete or was changed. Check that you copied all of it, or ask the shop for a new one.",
+  },
+  bad_signature: {
+    title: "This link is not valid",
+    text: "The link is incomplete or was changed. Check that you copied all of it, or ask the shop for a new one.",
+  },
+  gone: {
+    title: "This record is no longer available",
+    text: "The shop has removed this drive. Ask the shop if you need its record.",
+  },
+  not_ready: {
+    title: "This record is not ready yet",
+    text: "The drive is still being recorded. Try the link again later.",
+  },
 } as const
 
 /** What each verdict means for a customer, in a sentence, before the shop's reasons. */
 const VERDICT_MEANING = {
   met: "The drive met every condition it was held to.",
-  short: "The vehicle reported the learn complete, but the driving before that was shorter than the conditions ask for.",
+  short:
+    "The vehicle reported the learn complete, but the driving before that was shorter than the conditions ask for.",
   not_met: "The vehicle did not report the learn complete during this drive.",
-  unverified: "The learn was reported complete, but the record does not show the driver-assist function confirmed working afterwards.",
+  unverified:
+    "The learn was reported complete, but the record does not show the driver-assist function confirmed working afterwards.",
 } as const
 
 export default async function SharedRecordPage({ params }: { params: Promise<{ token: string }> }) {
@@ -57,15 +81,22 @@ export default async function SharedRecordPage({ params }: { params: Promise<{ t
 function RevisionNote({ state }: { state: Awaited<ReturnType<typeof shareRevisionState>> }) {
   if (!state) return null
   return state.revisedAfterLink ? (
-    <div role="status" className="mb-4 flex items-start gap-2 rounded-xl border-2 border-signal-500 bg-signal-300/15 p-3 dark:border-signal-400 dark:bg-signal-700/20" data-testid="share-revised">
+    <div
+      role="status"
+      className="mb-4 flex items-start gap-2 rounded-xl border-2 border-signal-500 bg-signal-300/15 p-3 dark:border-signal-400 dark:bg-signal-700/20"
+      data-testid="share-revised"
+    >
       <History aria-hidden className="mt-0.5 size-5 shrink-0 text-signal-700 dark:text-signal-300" />
       <p>
-        This record was revised on <LocalTime iso={state.revisedAt} />, after this link was made. The page shows the latest revision ({state.revision}); a PDF saved
-        earlier may show an older result.
+        This record was revised on <LocalTime iso={state.revisedAt} />, after this link was made. The page shows the
+        latest revision ({state.revision}); a PDF saved earlier may show an older result.
       </p>
     </div>
   ) : (
-    <p className="mb-2 flex items-center gap-2 text-sm text-graphite-600 dark:text-graphite-300" data-testid="share-revision">
+    <p
+      className="mb-2 flex items-center gap-2 text-sm text-graphite-600 dark:text-graphite-300"
+      data-testid="share-revision"
+    >
       <History aria-hidden className="size-4 shrink-0" /> Revision {state.revision} of this record, the latest.
     </p>
   )
@@ -80,12 +111,20 @@ function LinkProblem({ reason }: { reason: keyof typeof PROBLEM }) {
         <Icon aria-hidden className="size-7 shrink-0" /> {p.title}
       </h1>
       <p>{p.text}</p>
-      <p className="text-sm text-graphite-600 dark:text-graphite-300">No part of the record is shown through a link that does not check out.</p>
+      <p className="text-sm text-graphite-600 dark:text-graphite-300">
+        No part of the record is shown through a link that does not check out.
+      </p>
     </Card>
   )
 }
 
-function SharedRecord({ token, shared }: { token: string; shared: Extract<Awaited<ReturnType<typeof loadSharedRecord>>, { ok: true }> }) {
+function SharedRecord({
+  token,
+  shared,
+}: {
+  token: string
+  shared: Extract<Awaited<ReturnType<typeof loadSharedRecord>>, { ok: true }>
+}) {
   const { data } = shared
   const verdict = data.score.verdict
   return (
@@ -97,10 +136,14 @@ function SharedRecord({ token, shared }: { token: string; shared: Extract<Awaite
           <span className="text-graphite-600 dark:text-graphite-300">· drive record</span>
         </p>
         <div>
-          <h1 className="text-2xl font-bold tracking-tight">{describeVehicle(data.vehicle, data.vehicleDescription)}</h1>
+          <h1 className="text-2xl font-bold tracking-tight">
+            {describeVehicle(data.vehicle, data.vehicleDescription)}
+          </h1>
           {data.task ? (
             <p className="text-graphite-700 dark:text-graphite-200">
-              {SENSOR_LABEL[data.task.sensor] ?? data.task.sensor} · {METHOD_LABEL[data.task.method] ?? data.task.method} · {REASON_LABEL[data.task.reason] ?? data.task.reason}
+              {SENSOR_LABEL[data.task.sensor] ?? data.task.sensor} ·{" "}
+              {METHOD_LABEL[data.task.method] ?? data.task.method} ·{" "}
+              {REASON_LABEL[data.task.reason] ?? data.task.reason}
             </p>
           ) : null}
         </div>
@@ -118,9 +161,7 @@ function SharedRecord({ token, shared }: { token: string; shared: Extract<Awaite
             </>
           ) : null}
           <dt className="text-graphite-600 dark:text-graphite-300">Driven</dt>
-          <dd>
-            {data.startedAt ? <LocalTime iso={data.startedAt} timeZone={data.timeZone} /> : "Not recorded"}
-          </dd>
+          <dd>{data.startedAt ? <LocalTime iso={data.startedAt} timeZone={data.timeZone} /> : "Not recorded"}</dd>
           <dt className="text-graphite-600 dark:text-graphite-300">Driver</dt>
           <dd>
             {data.driverName ?? "Not recorded"}
@@ -141,7 +182,8 @@ function SharedRecord({ token, shared }: { token: string; shared: Extract<Awaite
         data-testid="share-cautions"
       >
         <h2 id="please-read" className="flex items-center gap-2 text-lg font-semibold">
-          <ShieldAlert aria-hidden className="size-5 shrink-0 text-signal-700 dark:text-signal-300" /> Please read: the vehicle has the final word
+          <ShieldAlert aria-hidden className="size-5 shrink-0 text-signal-700 dark:text-signal-300" /> Please read: the
+          vehicle has the final word
         </h2>
         <ul className="list-disc space-y-1 pl-5">
           {RECORD_CAUTIONS.map((c) => (
@@ -169,7 +211,8 @@ function SharedRecord({ token, shared }: { token: string; shared: Extract<Awaite
           <FileDown aria-hidden className="size-5" /> Download the record (PDF)
         </a>
         <span className="inline-flex items-center gap-1 text-sm text-graphite-600 dark:text-graphite-300">
-          <LinkIcon aria-hidden className="size-4" /> This link works until <LocalTime iso={new Date(shared.expiresAtMs).toISOString()} style="date" timeZone={data.timeZone} />
+          <LinkIcon aria-hidden className="size-4" /> This link works until{" "}
+          <LocalTime iso={new Date(shared.expiresAtMs).toISOString()} style="date" timeZone={data.timeZone} />
         </span>
       </div>
     </div>

@@ -14,7 +14,10 @@ describe("X-Forwarded-For behind one appending proxy", () => {
     for (let i = 0; i <= MAX_FAILURES_PER_ADDRESS; i++) {
       // A different e-mail each time: only the per-address limit can stop this.
       const client = new ApiClient(`made-up-${randomUUID()}, ${proxySaw}`)
-      const res = await client.post("/api/session", { email: `nobody-${randomUUID().slice(0, 8)}@test.invalid`, password: "wrong-password-1" })
+      const res = await client.post("/api/session", {
+        email: `nobody-${randomUUID().slice(0, 8)}@test.invalid`,
+        password: "wrong-password-1",
+      })
       last = res.status
       if (i < MAX_FAILURES_PER_ADDRESS) expect(res.status).toBe(401)
     }
@@ -28,12 +31,20 @@ describe("the Origin check", () => {
     const body = JSON.stringify({ email: shop.tech.email, password: shop.tech.password })
     const spoofed = await new ApiClient().request("POST", "/api/session", undefined, {
       raw: body,
-      headers: { "content-type": "application/json", origin: "https://elsewhere.invalid", "x-forwarded-host": "elsewhere.invalid" },
+      headers: {
+        "content-type": "application/json",
+        origin: "https://elsewhere.invalid",
+        "x-forwarded-host": "elsewhere.invalid",
+      },
     })
     expect(spoofed.status).toBe(403)
     const own = await new ApiClient().request("POST", "/api/session", undefined, {
       raw: body,
-      headers: { "content-type": "application/json", origin: new URL(testEnv().baseUrl).origin, "x-forwarded-host": "elsewhere.invalid" },
+      headers: {
+        "content-type": "application/json",
+        origin: new URL(testEnv().baseUrl).origin,
+        "x-forwarded-host": "elsewhere.invalid",
+      },
     })
     expect(own.status).toBe(200)
   })

@@ -28,7 +28,12 @@ describe("admin user management", () => {
     const shop = await createTestShop()
     const admin = await signedIn(shop.admin)
     const email = `new-${shop.shopId}@test.invalid`
-    const res = await admin.post("/api/users", { email, name: "New Person", role: "co_driver", password: "a-long-first-password" })
+    const res = await admin.post("/api/users", {
+      email,
+      name: "New Person",
+      role: "co_driver",
+      password: "a-long-first-password",
+    })
     expect(res.status).toBe(201)
     expect(res.body.user).toMatchObject({ email, role: "co_driver", shopId: shop.shopId, disabled: false })
     const me = await (await signedIn({ email, password: "a-long-first-password" })).get("/api/session")
@@ -38,9 +43,19 @@ describe("admin user management", () => {
   it("refuses a duplicate e-mail with 409 and a short password with 400", async () => {
     const shop = await createTestShop()
     const admin = await signedIn(shop.admin)
-    const dup = await admin.post("/api/users", { email: shop.tech.email, name: "Dup", role: "technician", password: "a-long-first-password" })
+    const dup = await admin.post("/api/users", {
+      email: shop.tech.email,
+      name: "Dup",
+      role: "technician",
+      password: "a-long-first-password",
+    })
     expect(dup.status).toBe(409)
-    const short = await admin.post("/api/users", { email: `s-${shop.shopId}@test.invalid`, name: "S", role: "technician", password: "short" })
+    const short = await admin.post("/api/users", {
+      email: `s-${shop.shopId}@test.invalid`,
+      name: "S",
+      role: "technician",
+      password: "short",
+    })
     expect(short.status).toBe(400)
     expect(short.body.error.fields.password).toBeTruthy()
   })

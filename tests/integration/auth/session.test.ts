@@ -8,7 +8,10 @@ describe("POST /api/session", () => {
     const shop = await createTestShop()
     const client = new ApiClient()
     const wrongPassword = await client.post("/api/session", { email: shop.tech.email, password: "not-the-password" })
-    const unknownEmail = await client.post("/api/session", { email: `nobody-${shop.shopId}@test.invalid`, password: shop.tech.password })
+    const unknownEmail = await client.post("/api/session", {
+      email: `nobody-${shop.shopId}@test.invalid`,
+      password: shop.tech.password,
+    })
     expect(wrongPassword.status).toBe(401)
     expect(unknownEmail.status).toBe(401)
     expect(wrongPassword.body.error.code).toBe("not_signed_in")
@@ -19,12 +22,21 @@ describe("POST /api/session", () => {
   it("signs in, sets an HttpOnly SameSite=Lax cookie and reports the user", async () => {
     const shop = await createTestShop()
     const client = new ApiClient()
-    const res = await client.post("/api/session", { email: shop.lead.email.toUpperCase(), password: shop.lead.password })
+    const res = await client.post("/api/session", {
+      email: shop.lead.email.toUpperCase(),
+      password: shop.lead.password,
+    })
     expect(res.status).toBe(200)
     const cookie = res.headers.get("set-cookie") ?? ""
     expect(cookie).toMatch(/HttpOnly/i)
     expect(cookie).toMatch(/SameSite=Lax/i)
-    expect(res.body.user).toEqual({ id: shop.lead.id, email: shop.lead.email, name: shop.lead.name, role: "shop_lead", shopId: shop.shopId })
+    expect(res.body.user).toEqual({
+      id: shop.lead.id,
+      email: shop.lead.email,
+      name: shop.lead.name,
+      role: "shop_lead",
+      shopId: shop.shopId,
+    })
     const me = await client.get("/api/session")
     expect(me.status).toBe(200)
     expect(me.body.user.id).toBe(shop.lead.id)
@@ -42,14 +54,19 @@ describe("POST /api/session", () => {
     expect(blocked.body.error.code).toBe("too_many_attempts")
     expect(Number(blocked.headers.get("retry-after"))).toBeGreaterThan(0)
     // another account from another address is not affected
-    expect((await new ApiClient().post("/api/session", { email: shop.lead.email, password: shop.lead.password })).status).toBe(200)
+    expect(
+      (await new ApiClient().post("/api/session", { email: shop.lead.email, password: shop.lead.password })).status,
+    ).toBe(200)
   })
 
   it(`throttles a client address after ${MAX_FAILURES_PER_ADDRESS} failures across e-mails`, async () => {
     const shop = await createTestShop()
     const client = new ApiClient()
     for (let i = 0; i < MAX_FAILURES_PER_ADDRESS; i++) {
-      const res = await client.post("/api/session", { email: `guess-${i}-${shop.shopId}@test.invalid`, password: "guess" })
+      const res = await client.post("/api/session", {
+        email: `guess-${i}-${shop.shopId}@test.invalid`,
+        password: "guess",
+      })
       expect(res.status).toBe(401)
     }
     const blocked = await client.post("/api/session", { email: shop.lead.email, password: shop.lead.password })
@@ -58,7 +75,10 @@ describe("POST /api/session", () => {
   })
 
   it("answers malformed JSON with 400 and the error shape", async () => {
-    const res = await new ApiClient().request("POST", "/api/session", undefined, { raw: "{not json", headers: { "content-type": "application/json" } })
+    const res = await new ApiClient().request("POST", "/api/session", undefined, {
+      raw: "{not json",
+      headers: { "content-type": "application/json" },
+    })
     expect(res.status).toBe(400)
     expect(res.body).toEqual({ error: { code: "invalid_request", message: expect.any(String) } })
   })

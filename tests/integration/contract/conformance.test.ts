@@ -5,7 +5,18 @@ import { beforeAll, describe, expect, it } from "vitest"
 import { testDb } from "../../helpers/db"
 import { ApiClient, signedIn } from "../../helpers/http"
 import { createJob, newJobBody, putToPresignedUrl, TINY_PNG } from "../jobs/helpers"
-import { buildWorld, countShopRows, onePagePdf, driveFile, expectErrorShape, importDrive, recordedDrive, samplesOf, startDrive, type World } from "./world"
+import {
+  buildWorld,
+  countShopRows,
+  onePagePdf,
+  driveFile,
+  expectErrorShape,
+  importDrive,
+  recordedDrive,
+  samplesOf,
+  startDrive,
+  type World,
+} from "./world"
 
 let w: World
 
@@ -55,13 +66,17 @@ describe("sessions", () => {
 
   it("POST /api/session: one 401 message for an unknown e-mail and a wrong password, then 429", async () => {
     const client = new ApiClient()
-    const unknown = await client.post("/api/session", { email: `nobody-${randomUUID().slice(0, 6)}@test.invalid`, password: "whatever-it-is-1" })
+    const unknown = await client.post("/api/session", {
+      email: `nobody-${randomUUID().slice(0, 6)}@test.invalid`,
+      password: "whatever-it-is-1",
+    })
     const wrong = await client.post("/api/session", { email: w.shop.lead.email, password: "not-the-password-1" })
     expectErrorShape(unknown, 401)
     expectErrorShape(wrong, 401)
     expect(unknown.body.error.message).toBe(wrong.body.error.message)
     let last = wrong
-    for (let i = 0; i < 10 && last.status !== 429; i++) last = await client.post("/api/session", { email: w.shop.lead.email, password: "not-the-password-1" })
+    for (let i = 0; i < 10 && last.status !== 429; i++)
+      last = await client.post("/api/session", { email: w.shop.lead.email, password: "not-the-password-1" })
     expectErrorShape(last, 429)
     expect(last.body.error.code).toBe("too_many_attempts")
   })
@@ -86,7 +101,13 @@ describe("drives", () => {
     const id = randomUUID()
     const first = await w.c.technician.post("/api/drives", { id, vehicleDescription: "2018 Invented Orvel" })
     expect(first.status).toBe(201)
-    expect(first.body.drive).toMatchObject({ id, jobId: null, taskId: null, status: "recording", driverId: w.shop.tech.id })
+    expect(first.body.drive).toMatchObject({
+      id,
+      jobId: null,
+      taskId: null,
+      status: "recording",
+      driverId: w.shop.tech.id,
+    })
     const again = await w.c.technician.post("/api/drives", { id, vehicleDescription: "2018 Invented Orvel" })
     expect(again.status).toBe(200)
     expect(again.body.drive).toEqual(first.body.drive)
@@ -95,7 +116,12 @@ describe("drives", () => {
 
   it("POST /api/drives with a job and task: 201, the drive on that job", async () => {
     const job = await createJob(w.c.shop_lead)
-    const res = await w.c.technician.post("/api/drives", { id: randomUUID(), jobId: job.id, taskId: job.tasks[0].id, coDriverId: w.shop.codriver.id })
+    const res = await w.c.technician.post("/api/drives", {
+      id: randomUUID(),
+      jobId: job.id,
+      taskId: job.tasks[0].id,
+      coDriverId: w.shop.codriver.id,
+    })
     expect(res.status).toBe(201)
     expect(res.body.drive).toMatchObject({ jobId: job.id, taskId: job.tasks[0].id, coDriverId: w.shop.codriver.id })
   })
@@ -131,7 +157,9 @@ describe("drives", () => {
     const s = await w.c.technician.post(`/api/drives/${id}/samples`, { batchId: "c-1", samples })
     expect(s.status).toBe(200)
     expect(s.body).toMatchObject({ accepted: 30, duplicates: 0 })
-    const m = await w.c.technician.post(`/api/drives/${id}/marks`, { marks: [{ id: randomUUID(), t: samples[3]!.t, kind: "lead-on" }] })
+    const m = await w.c.technician.post(`/api/drives/${id}/marks`, {
+      marks: [{ id: randomUUID(), t: samples[3]!.t, kind: "lead-on" }],
+    })
     expect(m.status).toBe(200)
     expect(m.body).toMatchObject({ accepted: 1, duplicates: 0 })
   })
@@ -142,7 +170,11 @@ describe("drives", () => {
     expect(res.status).toBe(200)
     expect(res.body.drive).toMatchObject({ id, status: "finished", verdict: res.body.score.verdict })
     expectScore(res.body.score)
-    const stored = await testDb().selectFrom("score").select(["verdict", "result"]).where("drive_id", "=", id).executeTakeFirstOrThrow()
+    const stored = await testDb()
+      .selectFrom("score")
+      .select(["verdict", "result"])
+      .where("drive_id", "=", id)
+      .executeTakeFirstOrThrow()
     expect(stored.verdict).toBe(res.body.score.verdict)
     expect(stored.result).toEqual(res.body.score)
   })
@@ -151,8 +183,19 @@ describe("drives", () => {
     const id = await importDrive(w.c.technician, 21)
     expect((await w.c.shop_lead.post(`/api/drives/${id}/review`, { decision: "approve" })).status).toBe(200)
     const before = await countShopRows(w.shop.shopId)
-    expectErrorShape(await w.c.shop_lead.post(`/api/drives/${id}/samples`, { batchId: "late", samples: samplesOf(3, 4, Date.UTC(2027, 0, 1)) }), 409)
-    expectErrorShape(await w.c.shop_lead.post(`/api/drives/${id}/marks`, { marks: [{ id: randomUUID(), t: Date.UTC(2027, 0, 1), kind: "note", text: "late" }] }), 409)
+    expectErrorShape(
+      await w.c.shop_lead.post(`/api/drives/${id}/samples`, {
+        batchId: "late",
+        samples: samplesOf(3, 4, Date.UTC(2027, 0, 1)),
+      }),
+      409,
+    )
+    expectErrorShape(
+      await w.c.shop_lead.post(`/api/drives/${id}/marks`, {
+        marks: [{ id: randomUUID(), t: Date.UTC(2027, 0, 1), kind: "note", text: "late" }],
+      }),
+      409,
+    )
     expect(await countShopRows(w.shop.shopId)).toEqual(before)
   })
 
@@ -160,7 +203,11 @@ describe("drives", () => {
     const res = await w.c.co_driver.get(`/api/drives/${w.finished.id}/score`)
     expect(res.status).toBe(200)
     expectScore(res.body)
-    const stored = await testDb().selectFrom("score").select("result").where("drive_id", "=", w.finished.id).executeTakeFirstOrThrow()
+    const stored = await testDb()
+      .selectFrom("score")
+      .select("result")
+      .where("drive_id", "=", w.finished.id)
+      .executeTakeFirstOrThrow()
     expect(res.body).toEqual(stored.result)
   })
 
@@ -186,9 +233,17 @@ describe("drives", () => {
   })
 
   it("POST /api/drives/import: 201 {drive, score}, stored finished and scored; an invalid file is a 400 naming the path", async () => {
-    const res = await w.c.technician.post(`/api/drives/import?jobId=${w.bareJob.id}&taskId=${w.bareJob.taskId}`, driveFile(13))
+    const res = await w.c.technician.post(
+      `/api/drives/import?jobId=${w.bareJob.id}&taskId=${w.bareJob.taskId}`,
+      driveFile(13),
+    )
     expect(res.status).toBe(201)
-    expect(res.body.drive).toMatchObject({ status: "finished", source: "import", jobId: w.bareJob.id, taskId: w.bareJob.taskId })
+    expect(res.body.drive).toMatchObject({
+      status: "finished",
+      source: "import",
+      jobId: w.bareJob.id,
+      taskId: w.bareJob.taskId,
+    })
     expectScore(res.body.score)
     expect(res.body.drive.verdict).toBe(res.body.score.verdict)
     const before = await countShopRows(w.shop.shopId)
@@ -218,7 +273,8 @@ describe("review", () => {
     expect(res.body.drives.map((d: { id: string }) => d.id)).toContain(w.finished.id)
     const times = res.body.drives.map((d: { finishedAt: string }) => Date.parse(d.finishedAt))
     expect([...times].sort((a, b) => a - b)).toEqual(times)
-    for (const d of res.body.drives) expect(d.verdict !== "met" || d.harshEvents.accel + d.harshEvents.decel > 0).toBe(true)
+    for (const d of res.body.drives)
+      expect(d.verdict !== "met" || d.harshEvents.accel + d.harshEvents.decel > 0).toBe(true)
   })
 
   it("POST review: 200 {drive}; redo needs a note and reopens the job", async () => {
@@ -227,7 +283,10 @@ describe("review", () => {
     const noNote = await w.c.shop_lead.post(`/api/drives/${id}/review`, { decision: "redo" })
     expectErrorShape(noNote, 400)
     expect(noNote.body.error.fields).toHaveProperty("note")
-    const res = await w.c.shop_lead.post(`/api/drives/${id}/review`, { decision: "redo", note: "Hold 55 mph longer on the second stretch." })
+    const res = await w.c.shop_lead.post(`/api/drives/${id}/review`, {
+      decision: "redo",
+      note: "Hold 55 mph longer on the second stretch.",
+    })
     expect(res.status).toBe(200)
     expect(res.body.drive).toMatchObject({ id, reviewStatus: "redo" })
     const jobNow = await w.c.shop_lead.get(`/api/jobs/${job.id}`)
@@ -242,8 +301,17 @@ describe("VIN", () => {
     const vin = "1J9RP1A36A1644345"
     const res = await w.c.co_driver.get(`/api/vin/${vin}`)
     expect(res.status).toBe(200)
-    expect(Object.keys(res.body)).toEqual(expect.arrayContaining(["vin", "valid", "checkDigit", "expectedCheckDigit", "modelYear", "problems"]))
-    expect(res.body).toMatchObject({ vin, valid: true, checkDigit: "6", expectedCheckDigit: "6", modelYear: 2010, problems: [] })
+    expect(Object.keys(res.body)).toEqual(
+      expect.arrayContaining(["vin", "valid", "checkDigit", "expectedCheckDigit", "modelYear", "problems"]),
+    )
+    expect(res.body).toMatchObject({
+      vin,
+      valid: true,
+      checkDigit: "6",
+      expectedCheckDigit: "6",
+      modelYear: 2010,
+      problems: [],
+    })
     const wrong = await w.c.co_driver.get("/api/vin/1J9RP1A37A1644345")
     expect(wrong.status).toBe(200)
     expect(wrong.body).toMatchObject({ valid: false, checkDigit: "7", expectedCheckDigit: "6" })
@@ -270,7 +338,9 @@ describe("jobs", () => {
     expect(next.body.jobs[0].id).not.toBe(res.body.jobs[0].id)
     for (const sort of ["updatedAt", "roNumber", "customer", "status"]) {
       const page = await w.c.technician.get(`/api/jobs?limit=1&sort=${sort}`)
-      const more = await w.c.technician.get(`/api/jobs?limit=1&sort=${sort}&cursor=${encodeURIComponent(page.body.nextCursor)}`)
+      const more = await w.c.technician.get(
+        `/api/jobs?limit=1&sort=${sort}&cursor=${encodeURIComponent(page.body.nextCursor)}`,
+      )
       expect(more.status, `${sort}: ${more.text.slice(0, 200)}`).toBe(200)
       expect(more.body.jobs[0].id).not.toBe(page.body.jobs[0].id)
     }
@@ -294,7 +364,8 @@ describe("jobs", () => {
     const res = await w.c.technician.get(`/api/jobs/${w.job.id}`)
     expect(res.status).toBe(200)
     const { job } = res.body
-    for (const f of ["id", "roNumber", "status", "customer", "vehicle", "tasks", "attachments", "drives"]) expect(job, f).toHaveProperty(f)
+    for (const f of ["id", "roNumber", "status", "customer", "vehicle", "tasks", "attachments", "drives"])
+      expect(job, f).toHaveProperty(f)
     expect(job.tasks[0].checklist).toMatchObject({ fuelLevel: "3/4" })
     expect(job.attachments.map((a: { id: string }) => a.id)).toContain(w.attachmentId)
     expect(job.drives.map((d: { id: string }) => d.id)).toContain(w.recording.id)
@@ -303,25 +374,61 @@ describe("jobs", () => {
 
 describe("uploads", () => {
   it("POST /api/uploads: 201 {attachmentId, uploadUrl}; 413 over the limit; 400 for a type not allowed", async () => {
-    const ok = await w.c.technician.post("/api/uploads", { jobId: w.job.id, filename: "a.png", contentType: "image/png", size: TINY_PNG.length })
+    const ok = await w.c.technician.post("/api/uploads", {
+      jobId: w.job.id,
+      filename: "a.png",
+      contentType: "image/png",
+      size: TINY_PNG.length,
+    })
     expect(ok.status).toBe(201)
     expect(ok.body.attachmentId).toMatch(/^[0-9a-f-]{36}$/)
     expect(ok.body.uploadUrl).toMatch(/^https?:\/\//)
-    expectErrorShape(await w.c.technician.post("/api/uploads", { jobId: w.job.id, filename: "a.png", contentType: "image/png", size: 500 * 1024 * 1024 }), 413)
-    expectErrorShape(await w.c.technician.post("/api/uploads", { jobId: w.job.id, filename: "a.exe", contentType: "application/x-msdownload", size: 10 }), 400)
+    expectErrorShape(
+      await w.c.technician.post("/api/uploads", {
+        jobId: w.job.id,
+        filename: "a.png",
+        contentType: "image/png",
+        size: 500 * 1024 * 1024,
+      }),
+      413,
+    )
+    expectErrorShape(
+      await w.c.technician.post("/api/uploads", {
+        jobId: w.job.id,
+        filename: "a.exe",
+        contentType: "application/x-msdownload",
+        size: 10,
+      }),
+      400,
+    )
   })
 
   it("POST /api/uploads/:id/complete: 200 {attachment} when the bytes match; 400 otherwise", async () => {
     const pdf = await onePagePdf()
-    const ok = await w.c.technician.post("/api/uploads", { jobId: w.job.id, filename: "b.pdf", contentType: "application/pdf", size: pdf.length })
+    const ok = await w.c.technician.post("/api/uploads", {
+      jobId: w.job.id,
+      filename: "b.pdf",
+      contentType: "application/pdf",
+      size: pdf.length,
+    })
     await putToPresignedUrl(ok.body.uploadUrl, "application/pdf", pdf)
     const done = await w.c.technician.post(`/api/uploads/${ok.body.attachmentId}/complete`)
     expect(done.status).toBe(200)
     expect(done.body.attachment).toMatchObject({ id: ok.body.attachmentId, contentType: "application/pdf" })
-    const liar = await w.c.technician.post("/api/uploads", { jobId: w.job.id, filename: "c.pdf", contentType: "application/pdf", size: TINY_PNG.length })
+    const liar = await w.c.technician.post("/api/uploads", {
+      jobId: w.job.id,
+      filename: "c.pdf",
+      contentType: "application/pdf",
+      size: TINY_PNG.length,
+    })
     await putToPresignedUrl(liar.body.uploadUrl, "application/pdf", TINY_PNG)
     expectErrorShape(await w.c.technician.post(`/api/uploads/${liar.body.attachmentId}/complete`), 400)
-    const missing = await w.c.technician.post("/api/uploads", { jobId: w.job.id, filename: "d.png", contentType: "image/png", size: 10 })
+    const missing = await w.c.technician.post("/api/uploads", {
+      jobId: w.job.id,
+      filename: "d.png",
+      contentType: "image/png",
+      size: 10,
+    })
     expectErrorShape(await w.c.technician.post(`/api/uploads/${missing.body.attachmentId}/complete`), 400)
   })
 })
@@ -356,7 +463,19 @@ describe("record revisions and verification (DEVELOPERS.md)", () => {
     expect(res.status).toBe(200)
     expect(res.body.revisions.length).toBeGreaterThan(0)
     const [latest] = res.body.revisions
-    for (const f of ["revision", "cause", "causeText", "verdict", "reviewDecision", "createdAt", "createdBy", "digest", "code", "score"]) expect(latest).toHaveProperty(f)
+    for (const f of [
+      "revision",
+      "cause",
+      "causeText",
+      "verdict",
+      "reviewDecision",
+      "createdAt",
+      "createdBy",
+      "digest",
+      "code",
+      "score",
+    ])
+      expect(latest).toHaveProperty(f)
     expect(latest.digest).toMatch(/^[0-9a-f]{64}$/)
     expectScore(latest.score)
     const numbers = res.body.revisions.map((r: { revision: number }) => r.revision)
@@ -368,12 +487,17 @@ describe("record revisions and verification (DEVELOPERS.md)", () => {
     const { code } = (await w.c.technician.get(`/api/drives/${w.finished.id}/revisions`)).body.revisions[0]
     const ok = await new ApiClient().post("/api/verify", { code })
     expect(ok.status).toBe(200)
-    expect(ok.body).toMatchObject({ result: "matches", revision: expect.any(Number), latestRevision: expect.any(Number), message: expect.any(String) })
+    expect(ok.body).toMatchObject({
+      result: "matches",
+      revision: expect.any(Number),
+      latestRevision: expect.any(Number),
+      message: expect.any(String),
+    })
     expectErrorShape(await new ApiClient().post("/api/verify", { code: "x" }), 400)
   })
 })
 
-describe("errors (api.md \"Errors\")", () => {
+describe('errors (api.md "Errors")', () => {
   it("an /api path no route serves is a 404 in the error shape, for any method", async () => {
     for (const [method, path] of [
       ["GET", "/api/nope"],
@@ -387,7 +511,12 @@ describe("errors (api.md \"Errors\")", () => {
 
   it("a write from another site is a 403 and stores nothing", async () => {
     const before = await countShopRows(w.shop.shopId)
-    const res = await w.c.technician.request("POST", "/api/drives", { id: randomUUID() }, { headers: { origin: "http://elsewhere.invalid" } })
+    const res = await w.c.technician.request(
+      "POST",
+      "/api/drives",
+      { id: randomUUID() },
+      { headers: { origin: "http://elsewhere.invalid" } },
+    )
     expectErrorShape(res, 403)
     expect(await countShopRows(w.shop.shopId)).toEqual(before)
   })
@@ -395,7 +524,11 @@ describe("errors (api.md \"Errors\")", () => {
   it("a body over the size limit is a 413 and stores nothing", async () => {
     const id = await startDrive(w.c.technician)
     const before = await countShopRows(w.shop.shopId)
-    const res = await w.c.technician.post(`/api/drives/${id}/samples`, { batchId: "big", samples: samplesOf(5), padding: "x".repeat(9 * 1024 * 1024) })
+    const res = await w.c.technician.post(`/api/drives/${id}/samples`, {
+      batchId: "big",
+      samples: samplesOf(5),
+      padding: "x".repeat(9 * 1024 * 1024),
+    })
     expectErrorShape(res, 413)
     expect(res.body.error.code).toBe("too_large")
     expect(await countShopRows(w.shop.shopId)).toEqual(before)

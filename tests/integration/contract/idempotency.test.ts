@@ -20,7 +20,12 @@ beforeAll(async () => {
 async function stored(driveId: string) {
   const db = testDb()
   const [samples, batches, marks] = await Promise.all([
-    db.selectFrom("sample_decoded").select(["t", "lat", "lon", "speed", "accuracy"]).where("drive_id", "=", driveId).orderBy("t").execute(),
+    db
+      .selectFrom("sample_decoded")
+      .select(["t", "lat", "lon", "speed", "accuracy"])
+      .where("drive_id", "=", driveId)
+      .orderBy("t")
+      .execute(),
     db.selectFrom("sample_batch").select("batch_id").where("drive_id", "=", driveId).execute(),
     db.selectFrom("mark").select(["id", "t", "kind", "text"]).where("drive_id", "=", driveId).orderBy("t").execute(),
   ])
@@ -52,7 +57,12 @@ describe("samples", () => {
     await postSamples(c.technician, id, "b-1", run.slice(0, 40))
     const overlap = await postSamples(c.technician, id, "b-2", run.slice(30, 60))
     expect(overlap.body).toMatchObject({ accepted: 20, duplicates: 10 })
-    const sameTimes = await postSamples(c.technician, id, "b-3", run.slice(0, 10).map((x) => ({ ...x, lat: x.lat + 0.01 })))
+    const sameTimes = await postSamples(
+      c.technician,
+      id,
+      "b-3",
+      run.slice(0, 10).map((x) => ({ ...x, lat: x.lat + 0.01 })),
+    )
     expect(sameTimes.body).toMatchObject({ accepted: 0, duplicates: 10 })
     const s = await stored(id)
     expect(s.samples).toHaveLength(60)
@@ -87,7 +97,13 @@ describe("samples", () => {
   it("stores nothing of a batch whose bad sample is a wrong type or a time that is not whole", async () => {
     const id = await startDrive(c.technician)
     const batch = samplesOf(10, 9)
-    for (const bad of [{ ...batch[9]!, t: batch[9]!.t + 0.5 }, { ...batch[9]!, lon: "-88.1" }, { ...batch[9]!, speed: -1 }, null, "sample"]) {
+    for (const bad of [
+      { ...batch[9]!, t: batch[9]!.t + 0.5 },
+      { ...batch[9]!, lon: "-88.1" },
+      { ...batch[9]!, speed: -1 },
+      null,
+      "sample",
+    ]) {
       const res = await postSamples(c.technician, id, `b-${randomUUID()}`, [...batch.slice(0, 9), bad])
       expectErrorShape(res, 400)
       expect(Object.keys(res.body.error.fields)[0]).toMatch(/^samples\.9/)
@@ -107,7 +123,9 @@ describe("marks", () => {
     expect(first.body).toEqual({ accepted: 2, duplicates: 0 })
     const again = await c.technician.post(`/api/drives/${id}/marks`, { marks })
     expect(again.body).toEqual({ accepted: 0, duplicates: 2 })
-    const plusOne = await c.technician.post(`/api/drives/${id}/marks`, { marks: [...marks, { id: randomUUID(), t: Date.UTC(2026, 0, 1, 10, 3), kind: "cleared" }] })
+    const plusOne = await c.technician.post(`/api/drives/${id}/marks`, {
+      marks: [...marks, { id: randomUUID(), t: Date.UTC(2026, 0, 1, 10, 3), kind: "cleared" }],
+    })
     expect(plusOne.body).toEqual({ accepted: 1, duplicates: 2 })
     expect((await stored(id)).marks).toHaveLength(3)
   })
@@ -141,7 +159,11 @@ describe("marks", () => {
 describe("drives", () => {
   it("starts one drive for one client id, however often and however fast the start is sent", async () => {
     const id = randomUUID()
-    const answers = await Promise.all(Array.from({ length: 6 }, () => c.technician.post("/api/drives", { id, vehicleDescription: "2022 Invented Marl" })))
+    const answers = await Promise.all(
+      Array.from({ length: 6 }, () =>
+        c.technician.post("/api/drives", { id, vehicleDescription: "2022 Invented Marl" }),
+      ),
+    )
     expect(answers.map((r) => r.status).sort()).toEqual([200, 200, 200, 200, 200, 201])
     for (const r of answers) expect(r.body.drive.id).toBe(id)
     expect(await testDb().selectFrom("drive").select("id").where("id", "=", id).execute()).toHaveLength(1)

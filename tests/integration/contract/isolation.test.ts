@@ -5,7 +5,17 @@ import { randomUUID } from "node:crypto"
 import { beforeAll, describe, expect, it } from "vitest"
 import { createTestShop, testDb } from "../../helpers/db"
 import { signedIn, type ApiClient } from "../../helpers/http"
-import { buildWorld, checklistBody, driveFile, expectErrorShape, recordedDrive, samplesOf, snapshotShop, startDrive, type World } from "./world"
+import {
+  buildWorld,
+  checklistBody,
+  driveFile,
+  expectErrorShape,
+  recordedDrive,
+  samplesOf,
+  snapshotShop,
+  startDrive,
+  type World,
+} from "./world"
 
 let a: World
 let bAdmin: ApiClient
@@ -20,7 +30,12 @@ beforeAll(async () => {
   ;[bAdmin, bTech] = await Promise.all([signedIn(b.admin), signedIn(b.tech)])
   const notice = await testDb()
     .insertInto("notification")
-    .values({ shop_id: a.shop.shopId, user_id: a.shop.tech.id, message: "A drive was sent back", link: `/drives/${a.finished.id}` })
+    .values({
+      shop_id: a.shop.shopId,
+      user_id: a.shop.tech.id,
+      message: "A drive was sent back",
+      link: `/drives/${a.finished.id}`,
+    })
     .returning("id")
     .executeTakeFirstOrThrow()
   aNoticeId = notice.id
@@ -126,8 +141,29 @@ describe("another shop's rows are a 404 and stay as they were", () => {
 
   it("lists show none of shop A's rows", async () => {
     const bDrive = await startDrive(bTech)
-    const aIds = [a.finished.id, a.recording.id, a.foreign.id, a.job.id, a.bareJob.id, a.profileId, a.shop.tech.id, a.shop.codriver.id, aNoticeId]
-    for (const path of ["/api/drives", "/api/review", "/api/jobs", "/api/profiles", "/api/users", "/api/people?role=co_driver", "/api/people?role=technician", "/api/notifications", "/api/numbers", "/api/numbers?format=csv"]) {
+    const aIds = [
+      a.finished.id,
+      a.recording.id,
+      a.foreign.id,
+      a.job.id,
+      a.bareJob.id,
+      a.profileId,
+      a.shop.tech.id,
+      a.shop.codriver.id,
+      aNoticeId,
+    ]
+    for (const path of [
+      "/api/drives",
+      "/api/review",
+      "/api/jobs",
+      "/api/profiles",
+      "/api/users",
+      "/api/people?role=co_driver",
+      "/api/people?role=technician",
+      "/api/notifications",
+      "/api/numbers",
+      "/api/numbers?format=csv",
+    ]) {
       const res = await bAdmin.get(path)
       expect(res.status, path).toBe(200)
       for (const id of aIds) expect(res.text, `${path} shows ${id}`).not.toContain(id)
@@ -150,7 +186,12 @@ describe("another shop's rows are a 404 and stay as they were", () => {
     // the same post again is a replay on B's drive, as for any mark
     const again = await bTech.post(`/api/drives/${bDrive.id}/marks`, { marks: [mark] })
     expect(again.body).toEqual({ accepted: 0, duplicates: 1 })
-    const bRows = await testDb().selectFrom("mark").select(["id", "drive_id", "shop_id"]).where("id", "=", aMarkId).where("shop_id", "=", bShopId).execute()
+    const bRows = await testDb()
+      .selectFrom("mark")
+      .select(["id", "drive_id", "shop_id"])
+      .where("id", "=", aMarkId)
+      .where("shop_id", "=", bShopId)
+      .execute()
     expect(bRows).toEqual([{ id: aMarkId, drive_id: bDrive.id, shop_id: bShopId }])
     const shown = await bTech.get(`/api/drives/${bDrive.id}/file`)
     expect(shown.status).toBe(200)
@@ -158,7 +199,9 @@ describe("another shop's rows are a 404 and stay as they were", () => {
     // B's undo of that mark takes back B's mark only
     const undo = await bTech.delete(`/api/drives/${bDrive.id}/marks/${aMarkId}`)
     expect(undo.status).toBe(204)
-    expect(await testDb().selectFrom("mark").select("id").where("id", "=", aMarkId).where("shop_id", "=", bShopId).execute()).toEqual([])
+    expect(
+      await testDb().selectFrom("mark").select("id").where("id", "=", aMarkId).where("shop_id", "=", bShopId).execute(),
+    ).toEqual([])
     expect(await snapshotShop(a.shop.shopId)).toEqual(before)
   })
 })

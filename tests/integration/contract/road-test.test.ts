@@ -46,20 +46,49 @@ describe("conformance", () => {
   it("PUT setup: 200 {setup} with its named fields; GET gives the same", async () => {
     const res = await c.technician.request("PUT", setupUrl(), setupBody())
     expect(res.status).toBe(200)
-    for (const f of ["taskId", "measurements", "scanResult", "scanNotes", "outOfTolerance", "override", "blocksRoadTest", "updatedBy", "updatedAt"]) {
+    for (const f of [
+      "taskId",
+      "measurements",
+      "scanResult",
+      "scanNotes",
+      "outOfTolerance",
+      "override",
+      "blocksRoadTest",
+      "updatedBy",
+      "updatedAt",
+    ]) {
       expect(res.body.setup, f).toHaveProperty(f)
     }
-    expect(res.body.setup).toMatchObject({ taskId: job.cameraTask, scanResult: "pass", outOfTolerance: 0, blocksRoadTest: false, override: null })
-    expect(res.body.setup.measurements[0]).toMatchObject({ key: "target_distance", value: 1500, specified: 1500, tolerance: 10, unit: "mm", outOfTolerance: false })
+    expect(res.body.setup).toMatchObject({
+      taskId: job.cameraTask,
+      scanResult: "pass",
+      outOfTolerance: 0,
+      blocksRoadTest: false,
+      override: null,
+    })
+    expect(res.body.setup.measurements[0]).toMatchObject({
+      key: "target_distance",
+      value: 1500,
+      specified: 1500,
+      tolerance: 10,
+      unit: "mm",
+      outOfTolerance: false,
+    })
     expect((await c.technician.get(setupUrl())).body).toEqual(res.body)
   })
 
   it("POST setup/override: 409 when nothing is out of tolerance, 200 {setup} with the override when something is", async () => {
     expectErrorShape(await c.shop_lead.post(`${setupUrl()}/override`, { note: "Checked twice" }), 409)
     await c.technician.request("PUT", setupUrl(), setupBody(1530))
-    const res = await c.shop_lead.post(`${setupUrl()}/override`, { note: "Target board re-measured by hand; procedure allows it" })
+    const res = await c.shop_lead.post(`${setupUrl()}/override`, {
+      note: "Target board re-measured by hand; procedure allows it",
+    })
     expect(res.status).toBe(200)
-    expect(res.body.setup).toMatchObject({ blocksRoadTest: false, outOfTolerance: 1, override: { note: "Target board re-measured by hand; procedure allows it" } })
+    expect(res.body.setup).toMatchObject({
+      blocksRoadTest: false,
+      outOfTolerance: 1,
+      override: { note: "Target board re-measured by hand; procedure allows it" },
+    })
     await c.technician.request("PUT", setupUrl(), setupBody())
   })
 
@@ -79,11 +108,20 @@ describe("conformance", () => {
   })
 
   it("profiles answer with roadTestChecks; a PATCH of them is a new version", async () => {
-    const made = await c.shop_lead.post("/api/profiles", { name: `Camera ${randomUUID().slice(0, 6)}`, sensor: "forward_camera" })
+    const made = await c.shop_lead.post("/api/profiles", {
+      name: `Camera ${randomUUID().slice(0, 6)}`,
+      sensor: "forward_camera",
+    })
     expect(made.status).toBe(201)
     const checks = made.body.profile.roadTestChecks
-    expect(checks.map((x: { key: string }) => x.key)).toEqual(["lane-keeping-engages", "lane-departure-warning", "sign-display"])
-    const changed = await c.shop_lead.patch(`/api/profiles/${made.body.profile.id}`, { roadTestChecks: [{ ...checks[0], minSpeedMph: 45 }] })
+    expect(checks.map((x: { key: string }) => x.key)).toEqual([
+      "lane-keeping-engages",
+      "lane-departure-warning",
+      "sign-display",
+    ])
+    const changed = await c.shop_lead.patch(`/api/profiles/${made.body.profile.id}`, {
+      roadTestChecks: [{ ...checks[0], minSpeedMph: 45 }],
+    })
     expect(changed.status).toBe(200)
     expect(changed.body.profile.version).toBe(2)
     expect(changed.body.versions[1].roadTestChecks).toHaveLength(3)
@@ -99,13 +137,15 @@ describe("roles", () => {
   }
 
   it("GET setup: every role of the shop (a co-driver only on a job that names them), 401 signed out", async () => {
-    for (const who of ["technician", "shop_lead", "admin"] as const) await expectAs(who, (cl) => cl.get(setupUrl()), 200)
+    for (const who of ["technician", "shop_lead", "admin"] as const)
+      await expectAs(who, (cl) => cl.get(setupUrl()), 200)
     await expectAs("co_driver", (cl) => cl.get(setupUrl()), 404)
     await expectAs("anon", (cl) => cl.get(setupUrl()), 401)
   })
 
   it("PUT setup: technician, shop lead, admin; co-driver 403; signed out 401", async () => {
-    for (const who of ["technician", "shop_lead", "admin"] as const) await expectAs(who, (cl) => cl.request("PUT", setupUrl(), setupBody()), 200)
+    for (const who of ["technician", "shop_lead", "admin"] as const)
+      await expectAs(who, (cl) => cl.request("PUT", setupUrl(), setupBody()), 200)
     await expectAs("co_driver", (cl) => cl.request("PUT", setupUrl(), setupBody()), 403)
     await expectAs("anon", (cl) => cl.request("PUT", setupUrl(), setupBody()), 401)
   })
@@ -140,12 +180,35 @@ describe("isolation", () => {
 describe("bad input", () => {
   const bad: Array<[string, unknown, string]> = [
     ["no measurements", { scanResult: "pass" }, "measurements"],
-    ["unknown measurement key", { ...setupBody(), measurements: [{ key: "bumper_gap", value: 1, specified: 1, tolerance: 0, unit: "mm" }] }, "measurements.0.key"],
-    ["negative tolerance", { ...setupBody(), measurements: [{ key: "target_height", value: 1, specified: 1, tolerance: -1, unit: "mm" }] }, "measurements.0.tolerance"],
-    ["value as text", { ...setupBody(), measurements: [{ key: "target_height", value: "1200", specified: 1, tolerance: 1, unit: "mm" }] }, "measurements.0.value"],
-    ["other without a name", { ...setupBody(), measurements: [{ key: "other", value: 1, specified: 1, tolerance: 1, unit: "mm" }] }, "measurements.0.label"],
+    [
+      "unknown measurement key",
+      { ...setupBody(), measurements: [{ key: "bumper_gap", value: 1, specified: 1, tolerance: 0, unit: "mm" }] },
+      "measurements.0.key",
+    ],
+    [
+      "negative tolerance",
+      { ...setupBody(), measurements: [{ key: "target_height", value: 1, specified: 1, tolerance: -1, unit: "mm" }] },
+      "measurements.0.tolerance",
+    ],
+    [
+      "value as text",
+      {
+        ...setupBody(),
+        measurements: [{ key: "target_height", value: "1200", specified: 1, tolerance: 1, unit: "mm" }],
+      },
+      "measurements.0.value",
+    ],
+    [
+      "other without a name",
+      { ...setupBody(), measurements: [{ key: "other", value: 1, specified: 1, tolerance: 1, unit: "mm" }] },
+      "measurements.0.label",
+    ],
     ["unknown scan result", { ...setupBody(), scanResult: "maybe" }, "scanResult"],
-    ["no unit", { ...setupBody(), measurements: [{ key: "target_height", value: 1, specified: 1, tolerance: 1, unit: "" }] }, "measurements.0.unit"],
+    [
+      "no unit",
+      { ...setupBody(), measurements: [{ key: "target_height", value: 1, specified: 1, tolerance: 1, unit: "" }] },
+      "measurements.0.unit",
+    ],
   ]
   for (const [name, body, field] of bad) {
     it(`PUT setup refuses ${name} with a 400 naming ${field}, storing nothing`, async () => {
@@ -160,7 +223,13 @@ describe("bad input", () => {
   }
 
   it("PUT setup refuses a body that is not JSON, and a malformed id is a 404", async () => {
-    expectErrorShape(await c.technician.request("PUT", setupUrl(), undefined, { raw: "{ nope", headers: { "content-type": "application/json" } }), 400)
+    expectErrorShape(
+      await c.technician.request("PUT", setupUrl(), undefined, {
+        raw: "{ nope",
+        headers: { "content-type": "application/json" },
+      }),
+      400,
+    )
     expectErrorShape(await c.technician.get(`/api/jobs/${job.id}/tasks/not-a-uuid/setup`), 404)
   })
 
@@ -187,10 +256,16 @@ describe("bad input", () => {
     const id = randomUUID()
     expect((await c.technician.post("/api/drives", { id, kind: "road_test" })).status).toBe(201)
     const before = await countShopRows(shop.shopId)
-    const mark = await c.technician.post(`/api/drives/${id}/marks`, { marks: [{ id: randomUUID(), t: Date.UTC(2027, 0, 1), kind: "check", checkKey: "surround-guide-lines", result: "pass" }] })
+    const mark = await c.technician.post(`/api/drives/${id}/marks`, {
+      marks: [
+        { id: randomUUID(), t: Date.UTC(2027, 0, 1), kind: "check", checkKey: "surround-guide-lines", result: "pass" },
+      ],
+    })
     expectErrorShape(mark, 400)
     expect(mark.body.error.fields).toHaveProperty(["marks.0.checkKey"])
-    const result = await c.technician.post(`/api/drives/${id}/marks`, { marks: [{ id: randomUUID(), t: Date.UTC(2027, 0, 1), kind: "check", checkKey: "acc-engages", result: "maybe" }] })
+    const result = await c.technician.post(`/api/drives/${id}/marks`, {
+      marks: [{ id: randomUUID(), t: Date.UTC(2027, 0, 1), kind: "check", checkKey: "acc-engages", result: "maybe" }],
+    })
     expectErrorShape(result, 400)
     expect(result.body.error.fields).toHaveProperty(["marks.0.result"])
     expect(await countShopRows(shop.shopId)).toEqual(before)

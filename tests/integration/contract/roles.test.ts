@@ -6,7 +6,19 @@ import { randomUUID } from "node:crypto"
 import { beforeAll, describe, expect, it } from "vitest"
 import { signedIn, type ApiClient, type ApiResponse } from "../../helpers/http"
 import { newJobBody } from "../jobs/helpers"
-import { buildWorld, checklistBody, driveFile, expectErrorShape, importDrive, recordedDrive, ROLE_NAMES, samplesOf, userOf, type RoleName, type World } from "./world"
+import {
+  buildWorld,
+  checklistBody,
+  driveFile,
+  expectErrorShape,
+  importDrive,
+  recordedDrive,
+  ROLE_NAMES,
+  samplesOf,
+  userOf,
+  type RoleName,
+  type World,
+} from "./world"
 
 type Who = RoleName | "anon"
 const WHO: readonly Who[] = [...ROLE_NAMES, "anon"]
@@ -18,7 +30,10 @@ let tCounter = 0
 
 beforeAll(async () => {
   w = await buildWorld("Roles")
-  const [own, foreign] = await Promise.all([recordedDrive(w.c.technician, w.shop.codriver.id), recordedDrive(w.otherTech, null)])
+  const [own, foreign] = await Promise.all([
+    recordedDrive(w.c.technician, w.shop.codriver.id),
+    recordedDrive(w.otherTech, null),
+  ])
   toFinish = { own: own.id, foreign: foreign.id }
 })
 
@@ -43,44 +58,87 @@ const ROWS: Row[] = [
   {
     route: "DELETE /api/session",
     expect: allow(EVERYONE, 204),
-    call: async (c, who) => (who === "anon" ? c.delete("/api/session") : (await signedIn(userOf(w.shop, who))).delete("/api/session")),
+    call: async (c, who) =>
+      who === "anon" ? c.delete("/api/session") : (await signedIn(userOf(w.shop, who))).delete("/api/session"),
   },
   { route: "GET /api/drives", expect: allow(EVERYONE, 200), call: (c) => c.get("/api/drives") },
-  { route: "POST /api/drives", expect: allow(["technician", "shop_lead"], 201), call: (c) => c.post("/api/drives", { id: randomUUID() }) },
-  { route: "GET /api/drives/:id (names the co-driver)", expect: allow(EVERYONE, 200), call: (c) => c.get(`/api/drives/${w.finished.id}`) },
-  { route: "GET /api/drives/:id (does not name them)", expect: allow(EVERYONE, 200, { co_driver: 404 }), call: (c) => c.get(`/api/drives/${w.foreign.id}`) },
+  {
+    route: "POST /api/drives",
+    expect: allow(["technician", "shop_lead"], 201),
+    call: (c) => c.post("/api/drives", { id: randomUUID() }),
+  },
+  {
+    route: "GET /api/drives/:id (names the co-driver)",
+    expect: allow(EVERYONE, 200),
+    call: (c) => c.get(`/api/drives/${w.finished.id}`),
+  },
+  {
+    route: "GET /api/drives/:id (does not name them)",
+    expect: allow(EVERYONE, 200, { co_driver: 404 }),
+    call: (c) => c.get(`/api/drives/${w.foreign.id}`),
+  },
   {
     route: "POST /api/drives/:id/samples (their drive)",
     expect: allow(EVERYONE, 200),
-    call: (c) => c.post(`/api/drives/${w.recording.id}/samples`, { batchId: randomUUID(), samples: samplesOf(2, 3, nextT()) }),
+    call: (c) =>
+      c.post(`/api/drives/${w.recording.id}/samples`, { batchId: randomUUID(), samples: samplesOf(2, 3, nextT()) }),
   },
   {
     route: "POST /api/drives/:id/samples (another technician's drive)",
     expect: allow(EVERYONE, 200, { technician: 403, co_driver: 404 }),
-    call: (c) => c.post(`/api/drives/${w.foreign.id}/samples`, { batchId: randomUUID(), samples: samplesOf(2, 3, nextT()) }),
+    call: (c) =>
+      c.post(`/api/drives/${w.foreign.id}/samples`, { batchId: randomUUID(), samples: samplesOf(2, 3, nextT()) }),
   },
   {
     route: "POST /api/drives/:id/marks (their drive)",
     expect: allow(EVERYONE, 200),
-    call: (c) => c.post(`/api/drives/${w.recording.id}/marks`, { marks: [{ id: randomUUID(), t: nextT(), kind: "lead-on" }] }),
+    call: (c) =>
+      c.post(`/api/drives/${w.recording.id}/marks`, { marks: [{ id: randomUUID(), t: nextT(), kind: "lead-on" }] }),
   },
   {
     route: "POST /api/drives/:id/marks (another technician's drive)",
     expect: allow(EVERYONE, 200, { technician: 403, co_driver: 404 }),
     // A finished drive is sealed: the mark's time must fall inside it (DEVELOPERS.md "Record revisions and verification").
-    call: (c) => c.post(`/api/drives/${w.foreign.id}/marks`, { marks: [{ id: randomUUID(), t: driveFile(9).samples[100]!.t, kind: "lead-on" }] }),
+    call: (c) =>
+      c.post(`/api/drives/${w.foreign.id}/marks`, {
+        marks: [{ id: randomUUID(), t: driveFile(9).samples[100]!.t, kind: "lead-on" }],
+      }),
   },
-  { route: "POST /api/drives/:id/finish (their drive)", expect: allow(["technician", "shop_lead"], 200), call: (c) => c.post(`/api/drives/${toFinish.own}/finish`) },
+  {
+    route: "POST /api/drives/:id/finish (their drive)",
+    expect: allow(["technician", "shop_lead"], 200),
+    call: (c) => c.post(`/api/drives/${toFinish.own}/finish`),
+  },
   {
     route: "POST /api/drives/:id/finish (another technician's drive)",
     expect: allow(["shop_lead"], 200, { technician: 403, co_driver: 404 }),
     call: (c) => c.post(`/api/drives/${toFinish.foreign}/finish`),
   },
-  { route: "GET /api/drives/:id/score (names the co-driver)", expect: allow(EVERYONE, 200), call: (c) => c.get(`/api/drives/${w.finished.id}/score`) },
-  { route: "GET /api/drives/:id/score (does not name them)", expect: allow(EVERYONE, 200, { co_driver: 404 }), call: (c) => c.get(`/api/drives/${w.foreign.id}/score`) },
-  { route: "GET /api/drives/:id/file (names the co-driver)", expect: allow(EVERYONE, 200), call: (c) => c.get(`/api/drives/${w.finished.id}/file?format=csv`) },
-  { route: "GET /api/drives/:id/file (does not name them)", expect: allow(EVERYONE, 200, { co_driver: 404 }), call: (c) => c.get(`/api/drives/${w.foreign.id}/file`) },
-  { route: "POST /api/drives/import", expect: allow(["technician", "shop_lead"], 201), call: (c) => c.post("/api/drives/import", driveFile(31)) },
+  {
+    route: "GET /api/drives/:id/score (names the co-driver)",
+    expect: allow(EVERYONE, 200),
+    call: (c) => c.get(`/api/drives/${w.finished.id}/score`),
+  },
+  {
+    route: "GET /api/drives/:id/score (does not name them)",
+    expect: allow(EVERYONE, 200, { co_driver: 404 }),
+    call: (c) => c.get(`/api/drives/${w.foreign.id}/score`),
+  },
+  {
+    route: "GET /api/drives/:id/file (names the co-driver)",
+    expect: allow(EVERYONE, 200),
+    call: (c) => c.get(`/api/drives/${w.finished.id}/file?format=csv`),
+  },
+  {
+    route: "GET /api/drives/:id/file (does not name them)",
+    expect: allow(EVERYONE, 200, { co_driver: 404 }),
+    call: (c) => c.get(`/api/drives/${w.foreign.id}/file`),
+  },
+  {
+    route: "POST /api/drives/import",
+    expect: allow(["technician", "shop_lead"], 201),
+    call: (c) => c.post("/api/drives/import", driveFile(31)),
+  },
   { route: "POST /api/score", expect: allow(EVERYONE, 200), call: (c) => c.post("/api/score", driveFile(32)) },
   { route: "GET /api/review", expect: allow(["shop_lead"], 200), call: (c) => c.get("/api/review") },
   {
@@ -94,17 +152,42 @@ const ROWS: Row[] = [
   },
   { route: "GET /api/vin/:vin", expect: allow(EVERYONE, 200), call: (c) => c.get("/api/vin/1J9RP1A36A1644345") },
   { route: "GET /api/jobs", expect: allow(["technician", "shop_lead"], 200), call: (c) => c.get("/api/jobs") },
-  { route: "POST /api/jobs", expect: allow(["technician", "shop_lead"], 201), call: (c) => c.post("/api/jobs", newJobBody()) },
-  { route: "GET /api/jobs/:id (a drive names the co-driver)", expect: allow(EVERYONE, 200), call: (c) => c.get(`/api/jobs/${w.job.id}`) },
-  { route: "GET /api/jobs/:id (no drive names them)", expect: allow(EVERYONE, 200, { co_driver: 404 }), call: (c) => c.get(`/api/jobs/${w.bareJob.id}`) },
+  {
+    route: "POST /api/jobs",
+    expect: allow(["technician", "shop_lead"], 201),
+    call: (c) => c.post("/api/jobs", newJobBody()),
+  },
+  {
+    route: "GET /api/jobs/:id (a drive names the co-driver)",
+    expect: allow(EVERYONE, 200),
+    call: (c) => c.get(`/api/jobs/${w.job.id}`),
+  },
+  {
+    route: "GET /api/jobs/:id (no drive names them)",
+    expect: allow(EVERYONE, 200, { co_driver: 404 }),
+    call: (c) => c.get(`/api/jobs/${w.bareJob.id}`),
+  },
   {
     route: "POST /api/uploads",
     expect: allow(["technician", "shop_lead"], 201),
-    call: (c) => c.post("/api/uploads", { jobId: w.job.id, filename: "x.pdf", contentType: "application/pdf", size: 100 }),
+    call: (c) =>
+      c.post("/api/uploads", { jobId: w.job.id, filename: "x.pdf", contentType: "application/pdf", size: 100 }),
   },
-  { route: "POST /api/uploads/:id/complete", expect: allow(["technician", "shop_lead"], 200), call: (c) => c.post(`/api/uploads/${w.attachmentId}/complete`) },
-  { route: "GET /api/drives/:id/record (names the co-driver)", expect: allow(EVERYONE, 200), call: (c) => c.get(`/api/drives/${w.finished.id}/record`) },
-  { route: "GET /api/drives/:id/record (does not name them)", expect: allow(EVERYONE, 200, { co_driver: 404 }), call: (c) => c.get(`/api/drives/${w.foreign.id}/record`) },
+  {
+    route: "POST /api/uploads/:id/complete",
+    expect: allow(["technician", "shop_lead"], 200),
+    call: (c) => c.post(`/api/uploads/${w.attachmentId}/complete`),
+  },
+  {
+    route: "GET /api/drives/:id/record (names the co-driver)",
+    expect: allow(EVERYONE, 200),
+    call: (c) => c.get(`/api/drives/${w.finished.id}/record`),
+  },
+  {
+    route: "GET /api/drives/:id/record (does not name them)",
+    expect: allow(EVERYONE, 200, { co_driver: 404 }),
+    call: (c) => c.get(`/api/drives/${w.foreign.id}/record`),
+  },
   {
     route: "POST /api/drives/:id/record/email",
     expect: allow(["shop_lead"], 202),
@@ -117,8 +200,16 @@ const ROWS: Row[] = [
     expect: allow(EVERYONE, 204),
     call: (c) => c.delete(`/api/drives/${w.recording.id}/marks/${randomUUID()}`),
   },
-  { route: "POST /api/drives/:id/share", expect: allow(["shop_lead"], 201), call: (c) => c.post(`/api/drives/${w.finished.id}/share`, {}) },
-  { route: "GET /api/jobs/:id/tasks/:taskId/checklist", expect: allow(EVERYONE, 200), call: (c) => c.get(`/api/jobs/${w.job.id}/tasks/${w.job.taskId}/checklist`) },
+  {
+    route: "POST /api/drives/:id/share",
+    expect: allow(["shop_lead"], 201),
+    call: (c) => c.post(`/api/drives/${w.finished.id}/share`, {}),
+  },
+  {
+    route: "GET /api/jobs/:id/tasks/:taskId/checklist",
+    expect: allow(EVERYONE, 200),
+    call: (c) => c.get(`/api/jobs/${w.job.id}/tasks/${w.job.taskId}/checklist`),
+  },
   {
     route: "GET /api/jobs/:id/tasks/:taskId/checklist (no drive names them)",
     expect: allow(EVERYONE, 200, { co_driver: 404 }),
@@ -129,33 +220,79 @@ const ROWS: Row[] = [
     expect: allow(["technician", "shop_lead"], 200),
     call: (c) => c.request("PUT", `/api/jobs/${w.job.id}/tasks/${w.job.taskId}/checklist`, checklistBody()),
   },
-  { route: "PATCH /api/jobs/:id", expect: allow(["technician", "shop_lead"], 200), call: (c) => c.patch(`/api/jobs/${w.job.id}`, { customer: { name: "Wren Castellano" } }) },
-  { route: "GET /api/attachments/:id", expect: allow(EVERYONE, 200), call: (c) => c.get(`/api/attachments/${w.attachmentId}`) },
-  { route: "GET /api/people", expect: allow(["technician", "shop_lead"], 200), call: (c) => c.get("/api/people?role=co_driver") },
+  {
+    route: "PATCH /api/jobs/:id",
+    expect: allow(["technician", "shop_lead"], 200),
+    call: (c) => c.patch(`/api/jobs/${w.job.id}`, { customer: { name: "Wren Castellano" } }),
+  },
+  {
+    route: "GET /api/attachments/:id",
+    expect: allow(EVERYONE, 200),
+    call: (c) => c.get(`/api/attachments/${w.attachmentId}`),
+  },
+  {
+    route: "GET /api/people",
+    expect: allow(["technician", "shop_lead"], 200),
+    call: (c) => c.get("/api/people?role=co_driver"),
+  },
   { route: "GET /api/users", expect: allow([], 200), call: (c) => c.get("/api/users") },
   {
     route: "POST /api/users",
     expect: allow([], 201),
-    call: (c) => c.post("/api/users", { email: `p-${randomUUID().slice(0, 8)}@test.invalid`, name: "Odile Brand", role: "co_driver", password: "a-long-enough-password" }),
+    call: (c) =>
+      c.post("/api/users", {
+        email: `p-${randomUUID().slice(0, 8)}@test.invalid`,
+        name: "Odile Brand",
+        role: "co_driver",
+        password: "a-long-enough-password",
+      }),
   },
-  { route: "PATCH /api/users/:id", expect: allow([], 200), call: (c) => c.patch(`/api/users/${w.shop.codriver.id}`, { name: w.shop.codriver.name }) },
+  {
+    route: "PATCH /api/users/:id",
+    expect: allow([], 200),
+    call: (c) => c.patch(`/api/users/${w.shop.codriver.id}`, { name: w.shop.codriver.name }),
+  },
   { route: "GET /api/profiles", expect: allow(EVERYONE, 200), call: (c) => c.get("/api/profiles") },
   { route: "GET /api/profiles/:id", expect: allow(EVERYONE, 200), call: (c) => c.get(`/api/profiles/${w.profileId}`) },
-  { route: "POST /api/profiles", expect: allow(["shop_lead"], 201), call: (c) => c.post("/api/profiles", { name: `Roles ${randomUUID().slice(0, 8)}` }) },
-  { route: "PATCH /api/profiles/:id", expect: allow(["shop_lead"], 200), call: (c) => c.patch(`/api/profiles/${w.profileId}`, { archived: false }) },
+  {
+    route: "POST /api/profiles",
+    expect: allow(["shop_lead"], 201),
+    call: (c) => c.post("/api/profiles", { name: `Roles ${randomUUID().slice(0, 8)}` }),
+  },
+  {
+    route: "PATCH /api/profiles/:id",
+    expect: allow(["shop_lead"], 200),
+    call: (c) => c.patch(`/api/profiles/${w.profileId}`, { archived: false }),
+  },
   { route: "GET /api/shop/settings", expect: allow(EVERYONE, 200), call: (c) => c.get("/api/shop/settings") },
-  { route: "PATCH /api/shop/settings", expect: allow([], 200), call: (c) => c.patch("/api/shop/settings", { units: "imperial" }) },
+  {
+    route: "PATCH /api/shop/settings",
+    expect: allow([], 200),
+    call: (c) => c.patch("/api/shop/settings", { units: "imperial" }),
+  },
   { route: "GET /api/notifications", expect: allow(EVERYONE, 200), call: (c) => c.get("/api/notifications") },
-  { route: "PATCH /api/notifications", expect: allow(EVERYONE, 200), call: (c) => c.patch("/api/notifications", { all: true }) },
+  {
+    route: "PATCH /api/notifications",
+    expect: allow(EVERYONE, 200),
+    call: (c) => c.patch("/api/notifications", { all: true }),
+  },
   { route: "GET /api/numbers", expect: allow(["shop_lead"], 200), call: (c) => c.get("/api/numbers") },
   // DEVELOPERS.md "Record revisions and verification"
-  { route: "GET /api/drives/:id/revisions (names the co-driver)", expect: allow(EVERYONE, 200), call: (c) => c.get(`/api/drives/${w.finished.id}/revisions`) },
+  {
+    route: "GET /api/drives/:id/revisions (names the co-driver)",
+    expect: allow(EVERYONE, 200),
+    call: (c) => c.get(`/api/drives/${w.finished.id}/revisions`),
+  },
   {
     route: "GET /api/drives/:id/revisions (does not name them)",
     expect: allow(EVERYONE, 200, { co_driver: 404 }),
     call: (c) => c.get(`/api/drives/${w.foreign.id}/revisions`),
   },
-  { route: "POST /api/verify (public)", expect: allow(EVERYONE, 200, { anon: 200 }), call: (c) => c.post("/api/verify", { code: "0000-0000-0000" }) },
+  {
+    route: "POST /api/verify (public)",
+    expect: allow(EVERYONE, 200, { anon: 200 }),
+    call: (c) => c.post("/api/verify", { code: "0000-0000-0000" }),
+  },
 ]
 
 describe("the role matrix", () => {

@@ -55,13 +55,19 @@ export async function importDrive(client: ApiClient, seed = 5, query = ""): Prom
 }
 
 /** A drive recorded through the API: start (naming the co-driver), samples, marks, finish. */
-export async function recordedDrive(driver: ApiClient, coDriverId: string | null, opts: { finish?: boolean; body?: Record<string, unknown> } = {}) {
+export async function recordedDrive(
+  driver: ApiClient,
+  coDriverId: string | null,
+  opts: { finish?: boolean; body?: Record<string, unknown> } = {},
+) {
   const id = await startDrive(driver, { coDriverId, ...opts.body })
   const file = driveFile(9)
   const s = await driver.post(`/api/drives/${id}/samples`, { batchId: `b-${randomUUID()}`, samples: file.samples })
   if (s.status !== 200) throw new Error(`samples failed: ${s.status} ${s.text}`)
   const markIds = file.marks.map(() => randomUUID())
-  const m = await driver.post(`/api/drives/${id}/marks`, { marks: file.marks.map((mk, i) => ({ ...mk, id: markIds[i] })) })
+  const m = await driver.post(`/api/drives/${id}/marks`, {
+    marks: file.marks.map((mk, i) => ({ ...mk, id: markIds[i] })),
+  })
   if (m.status !== 200) throw new Error(`marks failed: ${m.status} ${m.text}`)
   if (opts.finish) {
     const f = await driver.post(`/api/drives/${id}/finish`)
@@ -93,12 +99,19 @@ export type World = {
 export async function buildWorld(label: string): Promise<World> {
   const shop = await createTestShop(label)
   const c = await clientsFor(shop)
-  const [t2, co2] = await Promise.all([addPerson(shop.shopId, "technician", shop.tech), addPerson(shop.shopId, "co_driver", shop.tech)])
+  const [t2, co2] = await Promise.all([
+    addPerson(shop.shopId, "technician", shop.tech),
+    addPerson(shop.shopId, "co_driver", shop.tech),
+  ])
   const [otherTech, unnamedCo] = await Promise.all([signedIn(t2), signedIn(co2)])
   const [jobRow, bareRow] = await Promise.all([createJob(c.shop_lead), createJob(c.shop_lead)])
   const job = { id: jobRow.id as string, taskId: jobRow.tasks[0].id as string }
   const bareJob = { id: bareRow.id as string, taskId: bareRow.tasks[0].id as string }
-  const checklist = await c.technician.request("PUT", `/api/jobs/${job.id}/tasks/${job.taskId}/checklist`, checklistBody())
+  const checklist = await c.technician.request(
+    "PUT",
+    `/api/jobs/${job.id}/tasks/${job.taskId}/checklist`,
+    checklistBody(),
+  )
   if (checklist.status !== 200) throw new Error(`checklist failed: ${checklist.status} ${checklist.text}`)
   const [recording, finished, foreign] = await Promise.all([
     recordedDrive(c.technician, shop.codriver.id, { body: { jobId: job.id, taskId: job.taskId } }),
@@ -106,12 +119,20 @@ export async function buildWorld(label: string): Promise<World> {
     recordedDrive(otherTech, null, { finish: true }),
   ])
   const pdf = await onePagePdf()
-  const up = await c.technician.post("/api/uploads", { jobId: job.id, filename: "alignment.pdf", contentType: "application/pdf", size: pdf.length })
+  const up = await c.technician.post("/api/uploads", {
+    jobId: job.id,
+    filename: "alignment.pdf",
+    contentType: "application/pdf",
+    size: pdf.length,
+  })
   if (up.status !== 201) throw new Error(`upload failed: ${up.status} ${up.text}`)
   await putToPresignedUrl(up.body.uploadUrl, "application/pdf", pdf)
   const done = await c.technician.post(`/api/uploads/${up.body.attachmentId}/complete`)
   if (done.status !== 200) throw new Error(`upload complete failed: ${done.status} ${done.text}`)
-  const profile = await c.shop_lead.post("/api/profiles", { name: `Contract profile ${randomUUID().slice(0, 6)}`, sensor: "forward_radar" })
+  const profile = await c.shop_lead.post("/api/profiles", {
+    name: `Contract profile ${randomUUID().slice(0, 6)}`,
+    sensor: "forward_radar",
+  })
   if (profile.status !== 201) throw new Error(`profile failed: ${profile.status} ${profile.text}`)
   return {
     shop,
@@ -192,13 +213,26 @@ export async function snapshotShop(shopId: string): Promise<Record<string, strin
   const out: Record<string, string> = {}
   await Promise.all(
     SHOP_TABLES.map(async (table) => {
-      const rows = await db.selectFrom(table as "drive").selectAll().where("shop_id", "=", shopId).execute()
+      const rows = await db
+        .selectFrom(table as "drive")
+        .selectAll()
+        .where("shop_id", "=", shopId)
+        .execute()
       out[table] = JSON.stringify(rows.map((r) => JSON.stringify(r)).sort())
     }),
   )
-  const users = await db.selectFrom("app_user").select(["id", "email", "name", "role", "disabled"]).where("shop_id", "=", shopId).orderBy("id").execute()
+  const users = await db
+    .selectFrom("app_user")
+    .select(["id", "email", "name", "role", "disabled"])
+    .where("shop_id", "=", shopId)
+    .orderBy("id")
+    .execute()
   out.app_user = JSON.stringify(users)
-  const shop = await db.selectFrom("shop").select(["name", "settings"]).where("id", "=", shopId).executeTakeFirstOrThrow()
+  const shop = await db
+    .selectFrom("shop")
+    .select(["name", "settings"])
+    .where("id", "=", shopId)
+    .executeTakeFirstOrThrow()
   out.shop = JSON.stringify(shop)
   return out
 }

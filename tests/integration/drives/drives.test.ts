@@ -45,7 +45,9 @@ describe("POST /api/drives and GET /api/drives", () => {
     })
     expect(job.status).toBe(201)
     const id = randomUUID()
-    expect((await tech.post("/api/drives", { id, jobId: job.body.job.id, taskId: job.body.job.tasks[0].id })).status).toBe(201)
+    expect(
+      (await tech.post("/api/drives", { id, jobId: job.body.job.id, taskId: job.body.job.tasks[0].id })).status,
+    ).toBe(201)
     const listed = (await tech.get("/api/drives")).body.drives.find((d: { id: string }) => d.id === id)
     expect(listed.vehicle).toEqual({ year: 2010, make: "Invented", model: "Larkin" })
   })
@@ -62,7 +64,14 @@ describe("POST /api/drives and GET /api/drives", () => {
     const plain = await startDrive(tech)
     expect(plain.profile).toMatchObject({ minSpeedMph: 35, leadGapFt: { min: 100, max: 165 }, maxSpeedMph: null })
     const { versionId } = await createTestProfile(shop.shopId, `slow-${randomUUID().slice(0, 6)}`, { minSpeedMph: 30 })
-    const key = (await testDb().selectFrom("condition_profile_version as v").innerJoin("condition_profile as p", "p.id", "v.profile_id").select("p.key").where("v.id", "=", versionId).executeTakeFirstOrThrow()).key
+    const key = (
+      await testDb()
+        .selectFrom("condition_profile_version as v")
+        .innerJoin("condition_profile as p", "p.id", "v.profile_id")
+        .select("p.key")
+        .where("v.id", "=", versionId)
+        .executeTakeFirstOrThrow()
+    ).key
     const keyed = await startDrive(tech, { profileKey: key })
     expect(keyed.profile).toMatchObject({ minSpeedMph: 30, minQualifyingMinutes: 10 })
     expect(keyed.profileVersionId).toBe(versionId)
@@ -160,9 +169,17 @@ describe("marks", () => {
     const first = await co.post(`/api/drives/${drive.id}/marks`, { marks })
     expect(first.status).toBe(200)
     expect(first.body).toEqual({ accepted: 3, duplicates: 0 })
-    const again = await co.post(`/api/drives/${drive.id}/marks`, { marks: [...marks, { id: randomUUID(), t: t0 + 3000, kind: "lead-off" }] })
+    const again = await co.post(`/api/drives/${drive.id}/marks`, {
+      marks: [...marks, { id: randomUUID(), t: t0 + 3000, kind: "lead-off" }],
+    })
     expect(again.body).toEqual({ accepted: 1, duplicates: 3 })
-    const rows = await testDb().selectFrom("mark").selectAll().where("drive_id", "=", drive.id).orderBy("t").orderBy("seq").execute()
+    const rows = await testDb()
+      .selectFrom("mark")
+      .selectAll()
+      .where("drive_id", "=", drive.id)
+      .orderBy("t")
+      .orderBy("seq")
+      .execute()
     expect(rows.map((r) => r.kind)).toEqual(["lead-on", "gap", "note", "lead-off"])
     expect(rows[1]!.gap_ft).toBe(140)
     const bad = await co.post(`/api/drives/${drive.id}/marks`, { marks: [{ id: randomUUID(), t: t0, kind: "gap" }] })
@@ -187,10 +204,15 @@ describe("finish, score and file", () => {
   async function recordWholeDrive() {
     const drive = await startDrive(tech)
     for (let i = 0; i < file.samples.length; i += 300) {
-      const res = await tech.post(`/api/drives/${drive.id}/samples`, { batchId: `b${i}`, samples: file.samples.slice(i, i + 300) })
+      const res = await tech.post(`/api/drives/${drive.id}/samples`, {
+        batchId: `b${i}`,
+        samples: file.samples.slice(i, i + 300),
+      })
       expect(res.status).toBe(200)
     }
-    const res = await tech.post(`/api/drives/${drive.id}/marks`, { marks: file.marks.map((m) => ({ ...m, id: randomUUID() })) })
+    const res = await tech.post(`/api/drives/${drive.id}/marks`, {
+      marks: file.marks.map((m) => ({ ...m, id: randomUUID() })),
+    })
     expect(res.body.accepted).toBe(file.marks.length)
     return drive
   }
@@ -214,7 +236,11 @@ describe("finish, score and file", () => {
     expect(score.body).toEqual(JSON.parse(JSON.stringify(scoreDrive(parsed.file))))
     expect(score.body.verdict).toBe(expected.verdict)
     expect(Math.abs(score.body.qualifyingSeconds - expected.qualifyingSeconds)).toBeLessThanOrEqual(SECONDS_TOLERANCE)
-    const stored = await testDb().selectFrom("score").selectAll().where("drive_id", "=", drive.id).executeTakeFirstOrThrow()
+    const stored = await testDb()
+      .selectFrom("score")
+      .selectAll()
+      .where("drive_id", "=", drive.id)
+      .executeTakeFirstOrThrow()
     expect(stored.verdict).toBe("met")
   })
 
@@ -234,10 +260,19 @@ describe("finish, score and file", () => {
   })
 
   it("moves the job to drive on start and to complete on a met finish", async () => {
-    const vehicle = await testDb().insertInto("vehicle").values({ shop_id: shop.shopId, vin: withCheckDigit("0ZT7B2C40TS018342") }).returning("id").executeTakeFirstOrThrow()
+    const vehicle = await testDb()
+      .insertInto("vehicle")
+      .values({ shop_id: shop.shopId, vin: withCheckDigit("0ZT7B2C40TS018342") })
+      .returning("id")
+      .executeTakeFirstOrThrow()
     const job = await testDb()
       .insertInto("job")
-      .values({ shop_id: shop.shopId, ro_number: `RO-${randomUUID().slice(0, 6)}`, customer_name: "Invented Customer", vehicle_id: vehicle.id })
+      .values({
+        shop_id: shop.shopId,
+        ro_number: `RO-${randomUUID().slice(0, 6)}`,
+        customer_name: "Invented Customer",
+        vehicle_id: vehicle.id,
+      })
       .returning("id")
       .executeTakeFirstOrThrow()
     const task = await testDb()
@@ -247,7 +282,8 @@ describe("finish, score and file", () => {
       .executeTakeFirstOrThrow()
     const drive = await startDrive(tech, { taskId: task.id })
     expect(drive.jobId).toBe(job.id)
-    const status = async () => (await testDb().selectFrom("job").select("status").where("id", "=", job.id).executeTakeFirstOrThrow()).status
+    const status = async () =>
+      (await testDb().selectFrom("job").select("status").where("id", "=", job.id).executeTakeFirstOrThrow()).status
     expect(await status()).toBe("drive")
     await tech.post(`/api/drives/${drive.id}/samples`, { batchId: "all", samples: file.samples })
     await tech.post(`/api/drives/${drive.id}/marks`, { marks: file.marks.map((m) => ({ ...m, id: randomUUID() })) })
@@ -277,14 +313,20 @@ describe("POST /api/drives/import and POST /api/score", () => {
     expect(res.body.drive).toMatchObject({ status: "finished", source: "import", verdict: "unverified" })
     expect(res.body.score).toEqual(JSON.parse(JSON.stringify(scoreDrive(file))))
     expect(res.body.drive.profile.minSpeedMph).toBe(33)
-    const count = await testDb().selectFrom("sample_decoded").select((eb) => eb.fn.countAll<string>().as("n")).where("drive_id", "=", res.body.drive.id).executeTakeFirstOrThrow()
+    const count = await testDb()
+      .selectFrom("sample_decoded")
+      .select((eb) => eb.fn.countAll<string>().as("n"))
+      .where("drive_id", "=", res.body.drive.id)
+      .executeTakeFirstOrThrow()
     expect(Number(count.n)).toBe(file.samples.length)
   })
 
   it("answers 400 naming the path and problem of an invalid file, and stores nothing", async () => {
     const shop = await createTestShop("BadImport")
     const tech = await signedIn(shop.tech)
-    const file = generateDrive({ seed: 5, minutes: 2, pattern: "never-cleared" }) as unknown as { samples: Array<Record<string, unknown>> }
+    const file = generateDrive({ seed: 5, minutes: 2, pattern: "never-cleared" }) as unknown as {
+      samples: Array<Record<string, unknown>>
+    }
     file.samples[3]!.lat = -91
     const res = await tech.post("/api/drives/import", file)
     expect(res.status).toBe(400)

@@ -17,7 +17,9 @@ import { startDrive } from "./helpers"
 
 function expectErrorShape(res: { status: number; body: any }, status: number) {
   expect(res.status).toBe(status)
-  expect(res.body).toEqual({ error: expect.objectContaining({ code: expect.any(String), message: expect.any(String) }) })
+  expect(res.body).toEqual({
+    error: expect.objectContaining({ code: expect.any(String), message: expect.any(String) }),
+  })
 }
 
 /** 20 min at 10 Hz (12,000 samples: several FETCHes), every 23rd sample beyond the 30 m accuracy limit, two data gaps. */
@@ -26,7 +28,10 @@ function bigFile(): DriveFile {
   return {
     ...file,
     samples: file.samples.map((s, i) => (i % 23 === 0 ? { ...s, accuracy: 64 } : s)),
-    marks: [...file.marks, { t: file.samples[0]!.t - 2000, kind: "note", text: 'before the start, "quoted" & <angled>' }],
+    marks: [
+      ...file.marks,
+      { t: file.samples[0]!.t - 2000, kind: "note", text: 'before the start, "quoted" & <angled>' },
+    ],
   }
 }
 
@@ -50,9 +55,19 @@ describe("GET /api/drives/:id/file streamed", () => {
     const drive = await startDrive(tech)
     recorded = drive.id
     for (let i = 0; i < small.samples.length; i += 50) {
-      expect((await tech.post(`/api/drives/${drive.id}/samples`, { batchId: `b${i}`, samples: small.samples.slice(i, i + 50) })).status).toBe(200)
+      expect(
+        (
+          await tech.post(`/api/drives/${drive.id}/samples`, {
+            batchId: `b${i}`,
+            samples: small.samples.slice(i, i + 50),
+          })
+        ).status,
+      ).toBe(200)
     }
-    const marks = [{ id: randomUUID(), t: small.samples[10]!.t + 500, kind: "lead-on", gapFt: 135 }, { id: randomUUID(), t: small.samples[90]!.t, kind: "note", text: "mid\u2011drive" }]
+    const marks = [
+      { id: randomUUID(), t: small.samples[10]!.t + 500, kind: "lead-on", gapFt: 135 },
+      { id: randomUUID(), t: small.samples[90]!.t, kind: "note", text: "mid\u2011drive" },
+    ]
     expect((await tech.post(`/api/drives/${drive.id}/marks`, { marks })).status).toBe(200)
   })
 
@@ -60,10 +75,16 @@ describe("GET /api/drives/:id/file streamed", () => {
     it(`sends the ${which} drive's GPX, CSV and drive file exactly as the whole-file functions write them`, async () => {
       const id = which === "imported" ? imported : recorded
       const file = await loadDriveFile(testDb(), id, shop.shopId)
-      const { vehicle_description } = await testDb().selectFrom("drive").select("vehicle_description").where("id", "=", id).executeTakeFirstOrThrow()
+      const { vehicle_description } = await testDb()
+        .selectFrom("drive")
+        .select("vehicle_description")
+        .where("id", "=", id)
+        .executeTakeFirstOrThrow()
       const gpx = await tech.get(`/api/drives/${id}/file?format=gpx`)
       expect(gpx.status).toBe(200)
-      expect(gpx.text).toBe(toGpx(file, { name: vehicle_description ?? `Drive ${id.slice(0, 8)}`, creator: "Straightaway" }))
+      expect(gpx.text).toBe(
+        toGpx(file, { name: vehicle_description ?? `Drive ${id.slice(0, 8)}`, creator: "Straightaway" }),
+      )
       const csv = await tech.get(`/api/drives/${id}/file?format=csv`)
       expect(csv.status).toBe(200)
       expect(csv.text).toBe(toCsv(file))
@@ -110,7 +131,9 @@ describe("GET /api/drives/:id/file streamed", () => {
     let open = -1
     while (Date.now() < until) {
       const { rows } = await sql<{ n: number }>`
-        select count(*)::int as n from pg_stat_activity where state = 'idle in transaction' and query ilike 'fetch forward%'`.execute(testDb())
+        select count(*)::int as n from pg_stat_activity where state = 'idle in transaction' and query ilike 'fetch forward%'`.execute(
+        testDb(),
+      )
       open = rows[0]!.n
       if (open === 0) break
       await new Promise((r) => setTimeout(r, 200))

@@ -17,11 +17,22 @@ export function sampleRun(count: number, seed = 7, startMs = Date.UTC(2026, 0, 1
 }
 
 /** One more person in a test shop (the shop helper makes one per role). */
-export async function addPerson(shopId: string, role: "technician" | "co_driver" | "shop_lead", copyPasswordOf: { id: string; password: string }) {
+export async function addPerson(
+  shopId: string,
+  role: "technician" | "co_driver" | "shop_lead",
+  copyPasswordOf: { id: string; password: string },
+) {
   const { testDb } = await import("../../helpers/db")
-  const { password_hash } = await testDb().selectFrom("app_user").select("password_hash").where("id", "=", copyPasswordOf.id).executeTakeFirstOrThrow()
+  const { password_hash } = await testDb()
+    .selectFrom("app_user")
+    .select("password_hash")
+    .where("id", "=", copyPasswordOf.id)
+    .executeTakeFirstOrThrow()
   const id = randomUUID()
   const email = `${role}-${id.slice(0, 8)}@test.invalid`
-  await testDb().insertInto("app_user").values({ id, shop_id: shopId, email, name: `Extra ${role}`, role, password_hash }).execute()
+  await testDb()
+    .insertInto("app_user")
+    .values({ id, shop_id: shopId, email, name: `Extra ${role}`, role, password_hash })
+    .execute()
   return { id, email, password: copyPasswordOf.password }
 }

@@ -28,7 +28,12 @@ class Stream {
   static async open(client: ApiClient, path: string, headers: Record<string, string> = {}) {
     const s = new Stream()
     const res = await fetch(`${testEnv().baseUrl}${path}`, {
-      headers: { cookie: client.cookie ?? "", "x-forwarded-for": client.address, accept: "text/event-stream", ...headers },
+      headers: {
+        cookie: client.cookie ?? "",
+        "x-forwarded-for": client.address,
+        accept: "text/event-stream",
+        ...headers,
+      },
       signal: s.abort.signal,
     })
     s.status = res.status
@@ -97,7 +102,12 @@ class Stream {
   }
 }
 
-const mark = (t: number, kind: ApiMark["kind"], extra: Partial<ApiMark> = {}): ApiMark => ({ id: randomUUID(), t, kind, ...extra })
+const mark = (t: number, kind: ApiMark["kind"], extra: Partial<ApiMark> = {}): ApiMark => ({
+  id: randomUUID(),
+  t,
+  kind,
+  ...extra,
+})
 
 describe("GET /api/drives/:id/live", () => {
   let shop: TestShop
@@ -146,7 +156,11 @@ describe("GET /api/drives/:id/live", () => {
     expect(s.contentType).toContain("text/event-stream")
     const snap = await s.next((e) => e.event === "snapshot")
     expect(snap.data.marks.map((m: ApiMark) => m.id)).toEqual([first.id])
-    expect(snap.data.drive).toMatchObject({ id: drive.id, status: "recording", vehicleDescription: "2019 Invented Corvan, white" })
+    expect(snap.data.drive).toMatchObject({
+      id: drive.id,
+      status: "recording",
+      vehicleDescription: "2019 Invented Corvan, white",
+    })
     expect(snap.data.score.samplesUsed).toBe(30)
     expect(Number(snap.id)).toBe(snap.data.lastEventId)
 
@@ -207,12 +221,17 @@ describe("GET /api/drives/:id/live", () => {
     await tech.post(`/api/drives/${drive.id}/marks`, { marks: [m] })
     const polled = await codriver.get(`/api/drives/${drive.id}/live?after=0`)
     expect(polled.body.events).toHaveLength(1)
-    expect(polled.body.events[0]).toMatchObject({ kind: "mark", body: { id: m.id, kind: "note", text: "Lead is the grey van" } })
+    expect(polled.body.events[0]).toMatchObject({
+      kind: "mark",
+      body: { id: m.id, kind: "note", text: "Lead is the grey van" },
+    })
     expect(polled.body.lastEventId).toBe(polled.body.events[0].id)
     const bad = await codriver.get(`/api/drives/${drive.id}/live?after=soon`)
     expect(bad.status).toBe(400)
     expect(bad.body.error.fields).toHaveProperty("after")
-    const badResume = await codriver.request("GET", `/api/drives/${drive.id}/live`, undefined, { headers: { "last-event-id": "x" } })
+    const badResume = await codriver.request("GET", `/api/drives/${drive.id}/live`, undefined, {
+      headers: { "last-event-id": "x" },
+    })
     expect(badResume.status).toBe(400)
   })
 })
@@ -273,7 +292,11 @@ describe("the server's live score", () => {
     const res = await tech.get(`/api/drives/${driveId}`)
     expect(res.status).toBe(200)
     expect(res.body.score).toEqual(JSON.parse(JSON.stringify(expected)))
-    const counts = await testDb().selectFrom("sample_decoded").select((eb) => eb.fn.countAll<string>().as("n")).where("drive_id", "=", driveId).executeTakeFirstOrThrow()
+    const counts = await testDb()
+      .selectFrom("sample_decoded")
+      .select((eb) => eb.fn.countAll<string>().as("n"))
+      .where("drive_id", "=", driveId)
+      .executeTakeFirstOrThrow()
     expect(res.body.drive.counts.samples).toBe(Number(counts.n))
     const scoreRoute = await tech.get(`/api/drives/${driveId}/score`)
     expect(scoreRoute.body).toEqual(res.body.score)

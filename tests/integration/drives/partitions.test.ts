@@ -25,14 +25,19 @@ describe("sample partitions", () => {
     for (let ahead = 1; ahead <= 3; ahead++) {
       const from = monthStart(now.getUTCFullYear(), now.getUTCMonth() + ahead)
       const to = monthStart(now.getUTCFullYear(), now.getUTCMonth() + ahead + 1)
-      expect(parts.find((p) => p.fromMs === from), `month +${ahead}`).toMatchObject({ toMs: to })
+      expect(
+        parts.find((p) => p.fromMs === from),
+        `month +${ahead}`,
+      ).toMatchObject({ toMs: to })
     }
     // And a row of next month goes there, not to the default partition.
     const next = monthStart(now.getUTCFullYear(), now.getUTCMonth() + 1)
     const { rows } = await sql<{ name: string }>`
       select c.relname as name from pg_inherits i join pg_class c on c.oid = i.inhrelid
       where i.inhparent = 'public.sample'::regclass
-        and pg_get_expr(c.relpartbound, c.oid) = ${`FOR VALUES FROM ('${next}') TO ('${monthStart(now.getUTCFullYear(), now.getUTCMonth() + 2)}')`}`.execute(testDb())
+        and pg_get_expr(c.relpartbound, c.oid) = ${`FOR VALUES FROM ('${next}') TO ('${monthStart(now.getUTCFullYear(), now.getUTCMonth() + 2)}')`}`.execute(
+      testDb(),
+    )
     expect(rows).toHaveLength(1)
   })
 })
@@ -51,7 +56,9 @@ describe("sample retention", () => {
       .transaction()
       .execute(async (trx) => {
         await sql`set local timezone to 'UTC'`.execute(trx)
-        await sql`select partman.create_partition_time('public.sample', array['1999-02-01 00:00:00+00', '1999-03-01 00:00:00+00']::timestamptz[], false)`.execute(trx)
+        await sql`select partman.create_partition_time('public.sample', array['1999-02-01 00:00:00+00', '1999-03-01 00:00:00+00']::timestamptz[], false)`.execute(
+          trx,
+        )
       })
     a = await createTestShop("Retention A")
     b = await createTestShop("Retention B")
@@ -80,7 +87,10 @@ describe("sample retention", () => {
     expect((await aAdmin.patch("/api/shop/settings", { sampleRetentionMonths: 3 })).status).toBe(200)
     const post = async (client: ApiClient, startMs: number, count: number) => {
       const drive = await startDrive(client)
-      const res = await client.post(`/api/drives/${drive.id}/samples`, { batchId: `r-${startMs}`, samples: sampleRun(count, 3, startMs) })
+      const res = await client.post(`/api/drives/${drive.id}/samples`, {
+        batchId: `r-${startMs}`,
+        samples: sampleRun(count, 3, startMs),
+      })
       expect(res.status).toBe(200)
       expect(res.body.accepted).toBe(count)
       return drive.id as string

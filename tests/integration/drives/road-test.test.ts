@@ -28,7 +28,13 @@ function roadSamples(): Sample[] {
   })
 }
 
-const measurement = (key: string, value: number, specified: number, tolerance: number, unit = "mm") => ({ key, value, specified, tolerance, unit })
+const measurement = (key: string, value: number, specified: number, tolerance: number, unit = "mm") => ({
+  key,
+  value,
+  specified,
+  tolerance,
+  unit,
+})
 const setupBody = (distance: number) => ({
   measurements: [
     measurement("target_distance", distance, 1500, 10),
@@ -55,7 +61,9 @@ const startRoadTest = (job: { id: string; camera: string }, id = randomUUID()) =
   tech.post("/api/drives", { id, jobId: job.id, taskId: job.camera, coDriverId: shop.codriver.id })
 
 async function pdfText(path: string, client: ApiClient) {
-  const res = await fetch(`${testEnv().baseUrl}${path}`, { headers: { cookie: client.cookie!, "x-forwarded-for": client.address } })
+  const res = await fetch(`${testEnv().baseUrl}${path}`, {
+    headers: { cookie: client.cookie!, "x-forwarded-for": client.address },
+  })
   expect(res.status).toBe(200)
   const parser = new PDFParse({ data: Buffer.from(await res.arrayBuffer()) })
   try {
@@ -94,7 +102,9 @@ describe("static set-up and the road test", () => {
   it("a lead's override needs a note, and lets the road test start", async () => {
     const job = await newJob()
     await tech.request("PUT", `/api/jobs/${job.id}/tasks/${job.camera}/setup`, setupBody(1480))
-    const byTech = await tech.post(`/api/jobs/${job.id}/tasks/${job.camera}/setup/override`, { note: "Looks fine to me" })
+    const byTech = await tech.post(`/api/jobs/${job.id}/tasks/${job.camera}/setup/override`, {
+      note: "Looks fine to me",
+    })
     expect(byTech.status).toBe(403)
     const noNote = await lead.post(`/api/jobs/${job.id}/tasks/${job.camera}/setup/override`, { note: "" })
     expect(noNote.status).toBe(400)
@@ -120,8 +130,13 @@ describe("a job with a learn drive and a road test", () => {
     const learnId = randomUUID()
     expect((await tech.post("/api/drives", { id: learnId, jobId: job.id, taskId: job.radar })).status).toBe(201)
     const learn = generateDrive({ seed: 21, minutes: 16, pattern: "met", startMs: T0 - 3_600_000 })
-    expect((await tech.post(`/api/drives/${learnId}/samples`, { batchId: "l1", samples: learn.samples })).status).toBe(200)
-    expect((await tech.post(`/api/drives/${learnId}/marks`, { marks: learn.marks.map((m) => ({ ...m, id: randomUUID() })) })).status).toBe(200)
+    expect((await tech.post(`/api/drives/${learnId}/samples`, { batchId: "l1", samples: learn.samples })).status).toBe(
+      200,
+    )
+    expect(
+      (await tech.post(`/api/drives/${learnId}/marks`, { marks: learn.marks.map((m) => ({ ...m, id: randomUUID() })) }))
+        .status,
+    ).toBe(200)
     const learnDone = await tech.post(`/api/drives/${learnId}/finish`)
     expect(learnDone.body.score.verdict).toBe("met")
 
@@ -129,8 +144,15 @@ describe("a job with a learn drive and a road test", () => {
     const roadId = randomUUID()
     const started = await startRoadTest(job, roadId)
     expect(started.status).toBe(201)
-    const checks: Array<{ key: string; label: string; system: string; minSpeedMph: number | null }> = started.body.drive.roadTestChecks
-    expect(checks.map((c) => c.key)).toEqual(["lane-keeping-engages", "lane-departure-warning", "sign-display", "acc-engages", "acc-follows-lead"])
+    const checks: Array<{ key: string; label: string; system: string; minSpeedMph: number | null }> =
+      started.body.drive.roadTestChecks
+    expect(checks.map((c) => c.key)).toEqual([
+      "lane-keeping-engages",
+      "lane-departure-warning",
+      "sign-display",
+      "acc-engages",
+      "acc-follows-lead",
+    ])
     const co = await signedIn(shop.codriver)
     expect((await co.post(`/api/drives/${roadId}/samples`, { batchId: "r1", samples: roadSamples() })).status).toBe(200)
     const at = (s: number) => T0 + s * 1000
@@ -148,7 +170,13 @@ describe("a job with a learn drive and a road test", () => {
     const score = done.body.score
     expect(score.verdict).toBe("met")
     expect(score.kind).toBe("road_test")
-    expect(score.roadTest.checks.map((c: { key: string; status: string; speedMph: number }) => [c.key, c.status, c.speedMph])).toEqual([
+    expect(
+      score.roadTest.checks.map((c: { key: string; status: string; speedMph: number }) => [
+        c.key,
+        c.status,
+        c.speedMph,
+      ]),
+    ).toEqual([
       ["lane-keeping-engages", "passed", 44.7],
       ["lane-departure-warning", "passed", 44.7],
       ["sign-display", "not_equipped", 44.7],
@@ -173,7 +201,9 @@ describe("a job with a learn drive and a road test", () => {
     expect(text).toContain(`Drive ${roadId.slice(0, 8)}: Met (this record)`)
     for (const c of checks) {
       const words = c.key === "sign-display" ? "Not equipped at 44.7 mph" : "Passed at 44.7 mph"
-      expect(text, c.label).toContain(`${c.label}: ${words} (counts at ${c.minSpeedMph === null ? "any speed" : `${c.minSpeedMph} mph or faster`}`)
+      expect(text, c.label).toContain(
+        `${c.label}: ${words} (counts at ${c.minSpeedMph === null ? "any speed" : `${c.minSpeedMph} mph or faster`}`,
+      )
     }
     expect(text).toContain("Straightaway holds no maker's values")
     // the learn drive's own record lists the same job
@@ -189,10 +219,14 @@ describe("a job with a learn drive and a road test", () => {
     const id = randomUUID()
     expect((await startRoadTest(job, id)).status).toBe(201)
     await tech.post(`/api/drives/${id}/samples`, { batchId: "f1", samples: roadSamples() })
-    await tech.post(`/api/drives/${id}/marks`, { marks: [{ id: randomUUID(), t: T0 + 50_000, kind: "check", checkKey: "lane-departure-warning", result: "fail" }] })
+    await tech.post(`/api/drives/${id}/marks`, {
+      marks: [{ id: randomUUID(), t: T0 + 50_000, kind: "check", checkKey: "lane-departure-warning", result: "fail" }],
+    })
     const done = await tech.post(`/api/drives/${id}/finish`)
     expect(done.body.score.verdict).toBe("not_met")
-    expect(done.body.score.reasons).toContain('Road test: "Lane-departure warning on a lane line" failed (at 44.7 mph).')
+    expect(done.body.score.reasons).toContain(
+      'Road test: "Lane-departure warning on a lane line" failed (at 44.7 mph).',
+    )
     const queue = await lead.get("/api/review")
     expect(queue.status).toBe(200)
     expect(queue.body.drives.map((d: { id: string }) => d.id)).toContain(id)

@@ -91,7 +91,9 @@ describe("POST /api/drives/:id/samples", () => {
     const co = await signedIn(shop.codriver)
     expect((await co.post(`/api/drives/${drive.id}/samples`, { batchId: "c", samples: sampleRun(3) })).status).toBe(200)
     const tech2 = await signedIn(await addPerson(shop.shopId, "technician", shop.tech))
-    expect((await tech2.post(`/api/drives/${drive.id}/samples`, { batchId: "d", samples: sampleRun(3) })).status).toBe(403)
+    expect((await tech2.post(`/api/drives/${drive.id}/samples`, { batchId: "d", samples: sampleRun(3) })).status).toBe(
+      403,
+    )
   })
 
   it("takes late samples after Finish and scores again, and refuses them once reviewed", async () => {
@@ -106,14 +108,20 @@ describe("POST /api/drives/:id/samples", () => {
     const score = await tech.get(`/api/drives/${drive.id}/score`)
     expect(score.body.samplesUsed).toBe(30)
     await testDb().updateTable("drive").set({ review_status: "approved" }).where("id", "=", drive.id).execute()
-    const closed = await tech.post(`/api/drives/${drive.id}/samples`, { batchId: "3", samples: sampleRun(2, 9, Date.UTC(2026, 0, 2)) })
+    const closed = await tech.post(`/api/drives/${drive.id}/samples`, {
+      batchId: "3",
+      samples: sampleRun(2, 9, Date.UTC(2026, 0, 2)),
+    })
     expect(closed.status).toBe(409)
     expect(closed.body.error.code).toBe("conflict")
   })
 
   it("answers 400 for malformed JSON and a missing batch id", async () => {
     const drive = await startDrive(tech)
-    const raw = await tech.request("POST", `/api/drives/${drive.id}/samples`, undefined, { raw: "{not json", headers: { "content-type": "application/json" } })
+    const raw = await tech.request("POST", `/api/drives/${drive.id}/samples`, undefined, {
+      raw: "{not json",
+      headers: { "content-type": "application/json" },
+    })
     expect(raw.status).toBe(400)
     const noBatch = await tech.post(`/api/drives/${drive.id}/samples`, { samples: sampleRun(2) })
     expect(noBatch.status).toBe(400)

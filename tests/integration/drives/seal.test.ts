@@ -13,7 +13,10 @@ import { startDrive } from "./helpers"
 
 /** The stored score and the score of the drive's own exported file, both as JSON travels. */
 async function storedAndExported(client: ApiClient, driveId: string) {
-  const [score, file] = await Promise.all([client.get(`/api/drives/${driveId}/score`), client.get(`/api/drives/${driveId}/file?format=drive`)])
+  const [score, file] = await Promise.all([
+    client.get(`/api/drives/${driveId}/score`),
+    client.get(`/api/drives/${driveId}/file?format=drive`),
+  ])
   expect(score.status).toBe(200)
   const parsed = parseDriveFile(JSON.parse(file.text))
   if (!parsed.ok) throw new Error("the exported drive file does not parse")
@@ -23,7 +26,15 @@ async function storedAndExported(client: ApiClient, driveId: string) {
 async function countRows(driveId: string) {
   const db = testDb()
   const n = async (table: "mark" | "sample_decoded" | "score_revision") =>
-    Number((await db.selectFrom(table).select((eb) => eb.fn.countAll<string>().as("n")).where("drive_id", "=", driveId).executeTakeFirstOrThrow()).n)
+    Number(
+      (
+        await db
+          .selectFrom(table)
+          .select((eb) => eb.fn.countAll<string>().as("n"))
+          .where("drive_id", "=", driveId)
+          .executeTakeFirstOrThrow()
+      ).n,
+    )
   return { marks: await n("mark"), samples: await n("sample_decoded"), revisions: await n("score_revision") }
 }
 
@@ -47,14 +58,27 @@ describe("Finish sent together with the last batches and marks", () => {
     const missed: string[] = []
     for (let run = 0; run < 30; run++) {
       const drive = await startDrive(tech, { coDriverId: shop.codriver.id })
-      const first = await tech.post(`/api/drives/${drive.id}/samples`, { batchId: `r${run}-first`, samples: file.samples.slice(0, 800) })
+      const first = await tech.post(`/api/drives/${drive.id}/samples`, {
+        batchId: `r${run}-first`,
+        samples: file.samples.slice(0, 800),
+      })
       expect(first.status).toBe(200)
-      const marks = await codriver.post(`/api/drives/${drive.id}/marks`, { marks: early.map((m) => ({ ...m, id: randomUUID() })) })
+      const marks = await codriver.post(`/api/drives/${drive.id}/marks`, {
+        marks: early.map((m) => ({ ...m, id: randomUUID() })),
+      })
       expect(marks.status).toBe(200)
       // The driver taps Finish while the phone's outbox still sends the last 4 batches and the co-driver logs 3 marks.
       const writes: Array<() => Promise<{ status: number; text: string }>> = [
-        ...[0, 1, 2, 3].map((b) => () => tech.post(`/api/drives/${drive.id}/samples`, { batchId: `r${run}-b${b}`, samples: file.samples.slice(800 + b * 100, 900 + b * 100) })),
-        ...lateMarks.map((m) => () => codriver.post(`/api/drives/${drive.id}/marks`, { marks: [{ ...m, id: randomUUID() }] })),
+        ...[0, 1, 2, 3].map(
+          (b) => () =>
+            tech.post(`/api/drives/${drive.id}/samples`, {
+              batchId: `r${run}-b${b}`,
+              samples: file.samples.slice(800 + b * 100, 900 + b * 100),
+            }),
+        ),
+        ...lateMarks.map(
+          (m) => () => codriver.post(`/api/drives/${drive.id}/marks`, { marks: [{ ...m, id: randomUUID() }] }),
+        ),
       ]
       const at = run % (writes.length + 1)
       writes.splice(at, 0, () => tech.post(`/api/drives/${drive.id}/finish`))
@@ -63,7 +87,10 @@ describe("Finish sent together with the last batches and marks", () => {
       const { stored, exported, file: saved } = await storedAndExported(tech, drive.id)
       expect(saved.samples).toHaveLength(1200)
       expect(saved.marks).toHaveLength(early.length + 3)
-      if (canonicalJson(stored) !== canonicalJson(exported)) missed.push(`run ${run}: stored ${stored.samplesUsed} samples ${stored.verdict}, file ${exported.samplesUsed} ${exported.verdict}`)
+      if (canonicalJson(stored) !== canonicalJson(exported))
+        missed.push(
+          `run ${run}: stored ${stored.samplesUsed} samples ${stored.verdict}, file ${exported.samplesUsed} ${exported.verdict}`,
+        )
       expect(stored).toEqual(exported)
       // The latest revision holds that same score.
       const revisions = await tech.get(`/api/drives/${drive.id}/revisions`)
@@ -88,8 +115,13 @@ describe("a sealed drive", () => {
     const startMs = Date.now() - 32 * 60_000
     const file = generateDrive({ seed: 77, startMs, minutes: 31, pattern: "never-cleared" })
     const drive = await startDrive(tech)
-    expect((await tech.post(`/api/drives/${drive.id}/samples`, { batchId: "all", samples: file.samples })).status).toBe(200)
-    expect((await tech.post(`/api/drives/${drive.id}/marks`, { marks: file.marks.map((m) => ({ ...m, id: randomUUID() })) })).status).toBe(200)
+    expect((await tech.post(`/api/drives/${drive.id}/samples`, { batchId: "all", samples: file.samples })).status).toBe(
+      200,
+    )
+    expect(
+      (await tech.post(`/api/drives/${drive.id}/marks`, { marks: file.marks.map((m) => ({ ...m, id: randomUUID() })) }))
+        .status,
+    ).toBe(200)
     const finished = await tech.post(`/api/drives/${drive.id}/finish`)
     expect(finished.status).toBe(200)
     expect(finished.body.score.verdict).toBe("not_met")
@@ -101,13 +133,17 @@ describe("a sealed drive", () => {
     const before = await countRows(drive.id)
     const scoreBefore = (await tech.get(`/api/drives/${drive.id}/score`)).body
     const inside = { id: randomUUID(), t: drive.startMs + 10 * 60_000, kind: "note", text: "inside" }
-    const res = await tech.post(`/api/drives/${drive.id}/marks`, { marks: [inside, { id: randomUUID(), t: Date.now() + 2 * 3_600_000, kind: "cleared" }] })
+    const res = await tech.post(`/api/drives/${drive.id}/marks`, {
+      marks: [inside, { id: randomUUID(), t: Date.now() + 2 * 3_600_000, kind: "cleared" }],
+    })
     expect(res.status).toBe(400)
     expect(res.body.error.code).toBe("validation_failed")
     expect(Object.keys(res.body.error.fields)).toEqual(["marks.1.t"])
     expect(res.body.error.fields["marks.1.t"]).toMatch(/min after the drive finished/)
     expect(res.body.error.message).toMatch(/outside the drive/)
-    const early = await tech.post(`/api/drives/${drive.id}/marks`, { marks: [{ id: randomUUID(), t: drive.startMs - 10 * 60_000, kind: "lead-on", gapFt: 120 }] })
+    const early = await tech.post(`/api/drives/${drive.id}/marks`, {
+      marks: [{ id: randomUUID(), t: drive.startMs - 10 * 60_000, kind: "lead-on", gapFt: 120 }],
+    })
     expect(early.status).toBe(400)
     expect(early.body.error.fields["marks.0.t"]).toMatch(/before the drive's first position/)
     expect(await countRows(drive.id)).toEqual(before)
@@ -136,7 +172,10 @@ describe("a sealed drive", () => {
     expect(revisions[0].digest).not.toBe(revisions[1].digest)
 
     // The same mark again (an outbox replay) changes nothing: no third revision.
-    expect((await tech.post(`/api/drives/${drive.id}/marks`, { marks: [cleared] })).body).toMatchObject({ accepted: 0, duplicates: 1 })
+    expect((await tech.post(`/api/drives/${drive.id}/marks`, { marks: [cleared] })).body).toMatchObject({
+      accepted: 0,
+      duplicates: 1,
+    })
     expect((await countRows(drive.id)).revisions).toBe(2)
 
     const notices = await lead.get("/api/notifications")
@@ -152,12 +191,23 @@ describe("a sealed drive", () => {
   it("answers 409 to marks, samples and undo once a lead has reviewed the drive, and the review is revision 3", async () => {
     const drive = await finishedNeverCleared()
     const markId = randomUUID()
-    expect((await tech.post(`/api/drives/${drive.id}/marks`, { marks: [{ id: markId, t: drive.startMs + 20 * 60_000, kind: "cleared" }] })).status).toBe(200)
+    expect(
+      (
+        await tech.post(`/api/drives/${drive.id}/marks`, {
+          marks: [{ id: markId, t: drive.startMs + 20 * 60_000, kind: "cleared" }],
+        })
+      ).status,
+    ).toBe(200)
     const reviewed = await lead.post(`/api/drives/${drive.id}/review`, { decision: "approve", note: "" })
     expect(reviewed.status).toBe(200)
     const before = await countRows(drive.id)
-    const mark = await tech.post(`/api/drives/${drive.id}/marks`, { marks: [{ id: randomUUID(), t: drive.startMs + 60_000, kind: "note", text: "late" }] })
-    const samples = await tech.post(`/api/drives/${drive.id}/samples`, { batchId: "after-review", samples: [{ t: drive.startMs + 31 * 60_000 + 500, lat: 40, lon: -75 }] })
+    const mark = await tech.post(`/api/drives/${drive.id}/marks`, {
+      marks: [{ id: randomUUID(), t: drive.startMs + 60_000, kind: "note", text: "late" }],
+    })
+    const samples = await tech.post(`/api/drives/${drive.id}/samples`, {
+      batchId: "after-review",
+      samples: [{ t: drive.startMs + 31 * 60_000 + 500, lat: 40, lon: -75 }],
+    })
     const undo = await tech.delete(`/api/drives/${drive.id}/marks/${markId}`)
     for (const r of [mark, samples, undo]) {
       expect(r.status).toBe(409)
@@ -174,7 +224,9 @@ describe("a sealed drive", () => {
 
   it("rescores once per late batch, and a batch sent again makes no revision", async () => {
     const drive = await finishedNeverCleared()
-    const extra = [{ t: Date.now() - 30_000, lat: drive.file.samples.at(-1)!.lat, lon: drive.file.samples.at(-1)!.lon, speed: 0 }]
+    const extra = [
+      { t: Date.now() - 30_000, lat: drive.file.samples.at(-1)!.lat, lon: drive.file.samples.at(-1)!.lon, speed: 0 },
+    ]
     expect((await tech.post(`/api/drives/${drive.id}/samples`, { batchId: "late-1", samples: extra })).status).toBe(200)
     expect((await tech.post(`/api/drives/${drive.id}/samples`, { batchId: "late-1", samples: extra })).status).toBe(200)
     const revisions = (await tech.get(`/api/drives/${drive.id}/revisions`)).body.revisions

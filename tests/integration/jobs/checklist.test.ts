@@ -28,12 +28,21 @@ describe("PUT/GET /api/jobs/:jobId/tasks/:taskId/checklist", () => {
     const put = await tech.request("PUT", url, goodChecklist)
     expect(put.status).toBe(200)
     // Tolerance 3 psi (the test shop's setting): rr at 38 is exactly 3 over and passes.
-    expect(put.body.checklist).toMatchObject({ ready: true, blockers: [], completedBy: shop.tech.name, completedById: shop.tech.id })
+    expect(put.body.checklist).toMatchObject({
+      ready: true,
+      blockers: [],
+      completedBy: shop.tech.name,
+      completedById: shop.tech.id,
+    })
     expect(put.body.checklist.faultCodes.expected).toEqual(["C1A67-54"])
     expect(Date.now() - Date.parse(put.body.checklist.completedAt)).toBeLessThan(60_000)
 
     const detail = await tech.get(`/api/jobs/${job.id}`)
-    expect(detail.body.job.tasks[0].checklist).toMatchObject({ ready: true, notes: goodChecklist.notes, completedBy: shop.tech.name })
+    expect(detail.body.job.tasks[0].checklist).toMatchObject({
+      ready: true,
+      notes: goodChecklist.notes,
+      completedBy: shop.tech.name,
+    })
   })
 
   it("flags a tire more than the tolerance off the placard, in kPa too", async () => {
@@ -41,7 +50,10 @@ describe("PUT/GET /api/jobs/:jobId/tasks/:taskId/checklist", () => {
     const job = await createJob(lead)
     const url = `/api/jobs/${job.id}/tasks/${job.tasks[0].id}/checklist`
     // 241 kPa placard; 3 psi = 20.684 kPa (1 psi = 6.894757 kPa, derived from exact lbf and inch definitions)
-    const res = await lead.request("PUT", url, { ...goodChecklist, tires: { unit: "kPa", placard: 241, fl: 241, fr: 261, rl: 262, rr: 220 } })
+    const res = await lead.request("PUT", url, {
+      ...goodChecklist,
+      tires: { unit: "kPa", placard: 241, fl: 241, fr: 261, rl: 262, rr: 220 },
+    })
     expect(res.status).toBe(200)
     expect(res.body.checklist.ready).toBe(false)
     expect(res.body.checklist.blockers.map((b: { key: string }) => b.key)).toEqual(["tires.rl", "tires.rr"])
@@ -50,7 +62,9 @@ describe("PUT/GET /api/jobs/:jobId/tasks/:taskId/checklist", () => {
 
   it("needs the alignment check when the reason is a wheel alignment", async () => {
     const tech = await signedIn(shop.tech)
-    const job = await createJob(tech, { tasks: [{ sensor: "forward_radar", method: "dynamic", reason: "wheel_alignment" }] })
+    const job = await createJob(tech, {
+      tasks: [{ sensor: "forward_radar", method: "dynamic", reason: "wheel_alignment" }],
+    })
     const url = `/api/jobs/${job.id}/tasks/${job.tasks[0].id}/checklist`
     const res = await tech.request("PUT", url, goodChecklist)
     expect(res.body.checklist.blockers.map((b: { key: string }) => b.key)).toEqual(["alignmentChecked"])
@@ -63,7 +77,11 @@ describe("PUT/GET /api/jobs/:jobId/tasks/:taskId/checklist", () => {
     const job = await createJob(tech)
     const url = `/api/jobs/${job.id}/tasks/${job.tasks[0].id}/checklist`
     await tech.request("PUT", url, goodChecklist)
-    const res = await tech.request("PUT", url, { ...goodChecklist, tires: { ...goodChecklist.tires, fl: -2 }, fuelLevel: "lots" })
+    const res = await tech.request("PUT", url, {
+      ...goodChecklist,
+      tires: { ...goodChecklist.tires, fl: -2 },
+      fuelLevel: "lots",
+    })
     expect(res.status).toBe(400)
     expect(Object.keys(res.body.error.fields)).toEqual(expect.arrayContaining(["tires.fl", "fuelLevel"]))
     expect((await tech.get(url)).body.checklist.tires.fl).toBe(35)
@@ -78,6 +96,9 @@ describe("PUT/GET /api/jobs/:jobId/tasks/:taskId/checklist", () => {
     expect((await tech.request("PUT", url, goodChecklist)).status).toBe(404)
     const ownJob = await createJob(tech)
     const codriver = await signedIn(shop.codriver)
-    expect((await codriver.request("PUT", `/api/jobs/${ownJob.id}/tasks/${ownJob.tasks[0].id}/checklist`, goodChecklist)).status).toBe(403)
+    expect(
+      (await codriver.request("PUT", `/api/jobs/${ownJob.id}/tasks/${ownJob.tasks[0].id}/checklist`, goodChecklist))
+        .status,
+    ).toBe(403)
   })
 })

@@ -33,7 +33,10 @@ export function testS3() {
     region: process.env.S3_REGION ?? "us-east-1",
     endpoint: process.env.S3_ENDPOINT,
     forcePathStyle: true,
-    credentials: { accessKeyId: process.env.S3_ACCESS_KEY_ID ?? "S3RVER", secretAccessKey: process.env.S3_SECRET_ACCESS_KEY ?? "S3RVER" },
+    credentials: {
+      accessKeyId: process.env.S3_ACCESS_KEY_ID ?? "S3RVER",
+      secretAccessKey: process.env.S3_SECRET_ACCESS_KEY ?? "S3RVER",
+    },
   })
 }
 
@@ -53,7 +56,8 @@ export async function removeObject(key: string) {
 
 /** A 1x1 PNG (a valid file: signature, IHDR, IDAT, IEND, each chunk's CRC right, so it decodes). */
 export const TINY_PNG = Buffer.from(
-  "89504e470d0a1a0a0000000d49484452000000010000000108060000001f15c489" + "0000000d4944415478da6364f8cf500f00038601805a347d6b0000000049454e44ae426082",
+  "89504e470d0a1a0a0000000d49484452000000010000000108060000001f15c489" +
+    "0000000d4944415478da6364f8cf500f00038601805a347d6b0000000049454e44ae426082",
   "hex",
 )
 

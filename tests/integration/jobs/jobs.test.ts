@@ -18,11 +18,20 @@ describe("POST /api/jobs", () => {
     const res = await tech.post("/api/jobs", body)
     expect(res.status).toBe(201)
     const job = res.body.job
-    expect(job).toMatchObject({ roNumber: body.roNumber, status: "open", customer: { name: "Wren Castellano", email: "wren@example.invalid" } })
+    expect(job).toMatchObject({
+      roNumber: body.roNumber,
+      status: "open",
+      customer: { name: "Wren Castellano", email: "wren@example.invalid" },
+    })
     // 49 CFR 565.15(b): position 7 alphabetic -> 2010-2039 cycle; position 10 "R" -> 2024 (check-values.md §2c)
     expect(job.vehicle).toMatchObject({ vin: body.vehicle.vin, year: 2024, make: "Corvane", model: "Tallis" })
     expect(job.tasks).toHaveLength(1)
-    expect(job.tasks[0]).toMatchObject({ sensor: "forward_radar", method: "dynamic", reason: "bumper_or_grille_work", checklist: null })
+    expect(job.tasks[0]).toMatchObject({
+      sensor: "forward_radar",
+      method: "dynamic",
+      reason: "bumper_or_grille_work",
+      checklist: null,
+    })
   })
 
   it("refuses a VIN whose check digit is wrong with a 400 naming vehicle.vin", async () => {
@@ -82,7 +91,8 @@ describe("GET /api/jobs", () => {
     const fresh = await createTestShop("Paging")
     const lead = await signedIn(fresh.lead)
     const made = []
-    for (let i = 0; i < 5; i++) made.push(await createJob(lead, { roNumber: `P-${i}`, customer: { name: `Customer ${"EDCBA"[i]}` } }))
+    for (let i = 0; i < 5; i++)
+      made.push(await createJob(lead, { roNumber: `P-${i}`, customer: { name: `Customer ${"EDCBA"[i]}` } }))
     await createJob(await signedIn(other.lead), { roNumber: "P-9" })
 
     const page1 = await lead.get("/api/jobs?sort=roNumber&dir=asc&limit=2")
@@ -147,8 +157,17 @@ describe("GET and PATCH /api/jobs/:id", () => {
     expect(res.status).toBe(200)
     const [radar, camera] = res.body.job.tasks
     // The shop's profile for the sensor is the default; its settings come resolved (drive-file.md defaults).
-    expect(radar.profile).toMatchObject({ id: profile.profileId, key: "forward-radar", version: 1, versionId: profile.versionId })
-    expect(radar.profile.settings).toMatchObject({ minSpeedMph: 40, maxDriveMinutes: 30, leadGapFt: { min: 100, max: 165 } })
+    expect(radar.profile).toMatchObject({
+      id: profile.profileId,
+      key: "forward-radar",
+      version: 1,
+      versionId: profile.versionId,
+    })
+    expect(radar.profile.settings).toMatchObject({
+      minSpeedMph: 40,
+      maxDriveMinutes: 30,
+      leadGapFt: { min: 100, max: 165 },
+    })
     expect(camera.profile).toBeNull()
     expect(res.body.job).toMatchObject({ attachments: [], drives: [] })
   })
@@ -171,15 +190,26 @@ describe("GET and PATCH /api/jobs/:id", () => {
     expect(res.body.job.tasks.map((t: { id: string; method: string }) => t.method)).toEqual(["both", "dynamic"])
     expect(res.body.job.tasks[0].id).toBe(job.tasks[0].id)
 
-    const bad = await lead.patch(`/api/jobs/${job.id}`, { vehicle: { vin: vin.slice(0, 8) + (vin[8] === "0" ? "1" : "0") + vin.slice(9) } })
+    const bad = await lead.patch(`/api/jobs/${job.id}`, {
+      vehicle: { vin: vin.slice(0, 8) + (vin[8] === "0" ? "1" : "0") + vin.slice(9) },
+    })
     expect(bad.status).toBe(400)
     expect(bad.body.error.fields["vehicle.vin"]).toBeDefined()
 
     await testDb()
       .insertInto("drive")
-      .values({ id: crypto.randomUUID(), shop_id: shop.shopId, job_id: job.id, task_id: job.tasks[0].id, profile: JSON.stringify({}), driver_id: shop.lead.id })
+      .values({
+        id: crypto.randomUUID(),
+        shop_id: shop.shopId,
+        job_id: job.id,
+        task_id: job.tasks[0].id,
+        profile: JSON.stringify({}),
+        driver_id: shop.lead.id,
+      })
       .execute()
-    const removing = await lead.patch(`/api/jobs/${job.id}`, { tasks: [{ sensor: "rear_radar", method: "dynamic", reason: "other" }] })
+    const removing = await lead.patch(`/api/jobs/${job.id}`, {
+      tasks: [{ sensor: "rear_radar", method: "dynamic", reason: "other" }],
+    })
     expect(removing.status).toBe(409)
     const after = await lead.get(`/api/jobs/${job.id}`)
     expect(after.body.job.tasks).toHaveLength(2)
@@ -193,7 +223,15 @@ describe("GET and PATCH /api/jobs/:id", () => {
     expect((await codriver.get(`/api/jobs/${job.id}`)).status).toBe(404)
     await testDb()
       .insertInto("drive")
-      .values({ id: crypto.randomUUID(), shop_id: shop.shopId, job_id: job.id, task_id: job.tasks[0].id, profile: "{}", driver_id: shop.tech.id, co_driver_id: shop.codriver.id })
+      .values({
+        id: crypto.randomUUID(),
+        shop_id: shop.shopId,
+        job_id: job.id,
+        task_id: job.tasks[0].id,
+        profile: "{}",
+        driver_id: shop.tech.id,
+        co_driver_id: shop.codriver.id,
+      })
       .execute()
     const res = await codriver.get(`/api/jobs/${job.id}`)
     expect(res.status).toBe(200)

@@ -11,7 +11,11 @@ beforeAll(async () => {
 describe("condition profiles", () => {
   it("lets a shop lead create one with every key resolved to drive-file.md defaults", async () => {
     const lead = await signedIn(shop.lead)
-    const res = await lead.post("/api/profiles", { name: "Highway radar", sensor: "forward_radar", settings: { minSpeedMph: 45 } })
+    const res = await lead.post("/api/profiles", {
+      name: "Highway radar",
+      sensor: "forward_radar",
+      settings: { minSpeedMph: 45 },
+    })
     expect(res.status).toBe(201)
     expect(res.body.profile).toMatchObject({ key: "highway-radar", version: 1, archived: false })
     // drive-file.md defaults: maxDriveMinutes 30, maxDecelMps2 3.4 (AASHTO), leadGapFt 100-165 (common practice)
@@ -45,7 +49,12 @@ describe("condition profiles", () => {
 
   it("makes a new version on edit, and a drive made on the old version keeps it and its settings", async () => {
     const lead = await signedIn(shop.lead)
-    const created = await lead.post("/api/profiles", { key: "corner-test", name: "Corner test", sensor: "corner_radar", settings: { minFollowingMinutes: 0 } })
+    const created = await lead.post("/api/profiles", {
+      key: "corner-test",
+      name: "Corner test",
+      sensor: "corner_radar",
+      settings: { minFollowingMinutes: 0 },
+    })
     const profileId = created.body.profile.id
     const v1 = created.body.profile.versionId
     const job = await createJob(lead, { tasks: [{ sensor: "corner_radar", method: "dynamic", reason: "replaced" }] })
@@ -55,21 +64,40 @@ describe("condition profiles", () => {
     const driveId = crypto.randomUUID()
     await testDb()
       .insertInto("drive")
-      .values({ id: driveId, shop_id: shop.shopId, job_id: job.id, task_id: job.tasks[0].id, profile_version_id: v1, profile: JSON.stringify(created.body.profile.settings), driver_id: shop.lead.id, verdict: "met" })
+      .values({
+        id: driveId,
+        shop_id: shop.shopId,
+        job_id: job.id,
+        task_id: job.tasks[0].id,
+        profile_version_id: v1,
+        profile: JSON.stringify(created.body.profile.settings),
+        driver_id: shop.lead.id,
+        verdict: "met",
+      })
       .execute()
 
-    const edit = await lead.patch(`/api/profiles/${profileId}`, { settings: { minFollowingMinutes: 0, minSpeedMph: 50 } })
+    const edit = await lead.patch(`/api/profiles/${profileId}`, {
+      settings: { minFollowingMinutes: 0, minSpeedMph: 50 },
+    })
     expect(edit.status).toBe(200)
     expect(edit.body.profile).toMatchObject({ version: 2 })
     expect(edit.body.profile.versionId).not.toBe(v1)
     expect(edit.body.versions.map((v: { version: number }) => v.version)).toEqual([2, 1])
     expect(edit.body.versions[1].settings.minSpeedMph).toBe(35)
 
-    const drive = await testDb().selectFrom("drive").select(["profile_version_id", "profile", "verdict"]).where("id", "=", driveId).executeTakeFirstOrThrow()
+    const drive = await testDb()
+      .selectFrom("drive")
+      .select(["profile_version_id", "profile", "verdict"])
+      .where("id", "=", driveId)
+      .executeTakeFirstOrThrow()
     expect(drive.profile_version_id).toBe(v1)
     expect((drive.profile as { minSpeedMph: number }).minSpeedMph).toBe(35)
     expect(drive.verdict).toBe("met")
-    const oldVersion = await testDb().selectFrom("condition_profile_version").select("settings").where("id", "=", v1).executeTakeFirstOrThrow()
+    const oldVersion = await testDb()
+      .selectFrom("condition_profile_version")
+      .select("settings")
+      .where("id", "=", v1)
+      .executeTakeFirstOrThrow()
     expect((oldVersion.settings as { minSpeedMph: number }).minSpeedMph).toBe(35)
 
     // The task now points at the current version for new drives.
@@ -77,7 +105,10 @@ describe("condition profiles", () => {
     expect(detail.body.job.tasks[0].profile).toMatchObject({ version: 2, settings: { minSpeedMph: 50 } })
 
     // Renaming alone, or saving the same settings, makes no version.
-    const rename = await lead.patch(`/api/profiles/${profileId}`, { name: "Corner, renamed", settings: { minFollowingMinutes: 0, minSpeedMph: 50 } })
+    const rename = await lead.patch(`/api/profiles/${profileId}`, {
+      name: "Corner, renamed",
+      settings: { minFollowingMinutes: 0, minSpeedMph: 50 },
+    })
     expect(rename.body.profile).toMatchObject({ name: "Corner, renamed", version: 2 })
   })
 

@@ -52,7 +52,14 @@ async function getBytes(client: ApiClient, path: string) {
   return { status: res.status, headers: res.headers, bytes: Buffer.from(await res.arrayBuffer()) }
 }
 
-async function upload(client: ApiClient, jobId: string, taskId: string | null, filename: string, contentType: string, bytes: Uint8Array) {
+async function upload(
+  client: ApiClient,
+  jobId: string,
+  taskId: string | null,
+  filename: string,
+  contentType: string,
+  bytes: Uint8Array,
+) {
   const start = await client.post("/api/uploads", { jobId, taskId, filename, contentType, size: bytes.byteLength })
   expect(start.status).toBe(201)
   await putToPresignedUrl(start.body.uploadUrl, contentType, bytes)
@@ -61,7 +68,11 @@ async function upload(client: ApiClient, jobId: string, taskId: string | null, f
 }
 
 async function rowOf(id: string) {
-  return testDb().selectFrom("attachment").select(["object_key", "thumbnail_key", "status"]).where("id", "=", id).executeTakeFirst()
+  return testDb()
+    .selectFrom("attachment")
+    .select(["object_key", "thumbnail_key", "status"])
+    .where("id", "=", id)
+    .executeTakeFirst()
 }
 
 async function pixel(image: Buffer, x: number, y: number) {
@@ -113,8 +124,16 @@ describe("thumbnails made at upload", () => {
   })
 
   it("makes a JPEG thumbnail of a PNG, its transparent part on white", async () => {
-    const png = await sharp({ create: { width: 1200, height: 800, channels: 4, background: { r: 0, g: 0, b: 0, alpha: 0 } } })
-      .composite([{ input: { create: { width: 600, height: 800, channels: 4, background: { r: 20, g: 140, b: 60, alpha: 1 } } }, left: 0, top: 0 }])
+    const png = await sharp({
+      create: { width: 1200, height: 800, channels: 4, background: { r: 0, g: 0, b: 0, alpha: 0 } },
+    })
+      .composite([
+        {
+          input: { create: { width: 600, height: 800, channels: 4, background: { r: 20, g: 140, b: 60, alpha: 1 } } },
+          left: 0,
+          top: 0,
+        },
+      ])
       .png()
       .toBuffer()
     const tech = await signedIn(shop.tech)
@@ -131,7 +150,9 @@ describe("thumbnails made at upload", () => {
   })
 
   it("keeps a small photo at its own size", async () => {
-    const small = await sharp({ create: { width: 32, height: 24, channels: 3, background: { r: 200, g: 120, b: 40 } } }).webp().toBuffer()
+    const small = await sharp({ create: { width: 32, height: 24, channels: 3, background: { r: 200, g: 120, b: 40 } } })
+      .webp()
+      .toBuffer()
     const tech = await signedIn(shop.tech)
     const { done } = await upload(tech, job.id, null, "label.webp", "image/webp", small)
     expect(done.status).toBe(200)
@@ -141,7 +162,9 @@ describe("thumbnails made at upload", () => {
 
   it("answers 404 for another shop's thumbnail and for a co-driver not on the job", async () => {
     const tech = await signedIn(shop.tech)
-    const small = await sharp({ create: { width: 400, height: 300, channels: 3, background: "#336699" } }).jpeg().toBuffer()
+    const small = await sharp({ create: { width: 400, height: 300, channels: 3, background: "#336699" } })
+      .jpeg()
+      .toBuffer()
     const { done } = await upload(tech, job.id, null, "mount.jpg", "image/jpeg", small)
     expect(done.status).toBe(200)
     const other = await createTestShop("Thumbnails other")
@@ -157,7 +180,10 @@ describe("photos that do not decode", () => {
   // Decision: a JPEG, PNG or WebP whose picture cannot be read is refused at upload (400) and removed, like a file
   // that fails the byte check, so the technician learns it while still at the vehicle.
   it("refuses a JPEG that passes the byte check but holds no picture, and removes it", async () => {
-    const fake = Buffer.concat([Buffer.from("ffd8ffe000104a46494600010100000100010000", "hex"), Buffer.alloc(4000, 0x5a)])
+    const fake = Buffer.concat([
+      Buffer.from("ffd8ffe000104a46494600010100000100010000", "hex"),
+      Buffer.alloc(4000, 0x5a),
+    ])
     const tech = await signedIn(shop.tech)
     const { id, done } = await upload(tech, job.id, null, "broken.jpg", "image/jpeg", fake)
     expect(done.status).toBe(400)
@@ -171,7 +197,12 @@ describe("photos that do not decode", () => {
   it("refuses a JPEG cut short in transfer, and removes the object", async () => {
     const cut = landscape.subarray(0, Math.floor(landscape.byteLength * 0.4))
     const tech = await signedIn(shop.tech)
-    const start = await tech.post("/api/uploads", { jobId: job.id, filename: "cut.jpg", contentType: "image/jpeg", size: cut.byteLength })
+    const start = await tech.post("/api/uploads", {
+      jobId: job.id,
+      filename: "cut.jpg",
+      contentType: "image/jpeg",
+      size: cut.byteLength,
+    })
     await putToPresignedUrl(start.body.uploadUrl, "image/jpeg", cut)
     const key = (await rowOf(start.body.attachmentId))!.object_key
     const done = await tech.post(`/api/uploads/${start.body.attachmentId}/complete`)
@@ -206,7 +237,9 @@ describe("the drive record PDF", () => {
     const drive = await insertScoredDrive(recordShop, { pattern: "short", seed: 412, job: recordJob })
     const tech = await signedIn(recordShop.tech)
     for (const name of ["front.jpg", "bracket.jpg"]) {
-      expect((await upload(tech, recordJob.jobId, recordJob.taskId, name, "image/jpeg", landscape)).done.status).toBe(200)
+      expect((await upload(tech, recordJob.jobId, recordJob.taskId, name, "image/jpeg", landscape)).done.status).toBe(
+        200,
+      )
     }
     const pdf = await getBytes(tech, `/api/drives/${drive.id}/record`)
     expect(pdf.status).toBe(200)
@@ -216,8 +249,14 @@ describe("the drive record PDF", () => {
     const images = doc.context
       .enumerateIndirectObjects()
       .map(([, obj]) => obj)
-      .filter((obj): obj is PDFRawStream => obj instanceof PDFRawStream && obj.dict.get(PDFName.of("Subtype")) === PDFName.of("Image"))
-      .map((s) => [s.dict.lookup(PDFName.of("Width"), PDFNumber).asNumber(), s.dict.lookup(PDFName.of("Height"), PDFNumber).asNumber()])
+      .filter(
+        (obj): obj is PDFRawStream =>
+          obj instanceof PDFRawStream && obj.dict.get(PDFName.of("Subtype")) === PDFName.of("Image"),
+      )
+      .map((s) => [
+        s.dict.lookup(PDFName.of("Width"), PDFNumber).asNumber(),
+        s.dict.lookup(PDFName.of("Height"), PDFNumber).asNumber(),
+      ])
     expect(images).toEqual([
       [213, 320],
       [213, 320],

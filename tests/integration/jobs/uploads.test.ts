@@ -16,7 +16,10 @@ beforeAll(async () => {
 const MB = 1024 * 1024
 
 async function download(client: ApiClient, path: string) {
-  const res = await fetch(`${testEnv().baseUrl}${path}`, { headers: { cookie: client.cookie ?? "", "x-forwarded-for": client.address }, redirect: "manual" })
+  const res = await fetch(`${testEnv().baseUrl}${path}`, {
+    headers: { cookie: client.cookie ?? "", "x-forwarded-for": client.address },
+    redirect: "manual",
+  })
   return { status: res.status, headers: res.headers, bytes: Buffer.from(await res.arrayBuffer()) }
 }
 
@@ -29,17 +32,31 @@ async function upload(client: ApiClient, filename: string, contentType: string, 
 }
 
 async function objectKeyOf(attachmentId: string) {
-  const row = await testDb().selectFrom("attachment").select("object_key").where("id", "=", attachmentId).executeTakeFirst()
+  const row = await testDb()
+    .selectFrom("attachment")
+    .select("object_key")
+    .where("id", "=", attachmentId)
+    .executeTakeFirst()
   return row?.object_key
 }
 
 describe("POST /api/uploads", () => {
   it("refuses a file over 15 MB with a 413", async () => {
     const tech = await signedIn(shop.tech)
-    const res = await tech.post("/api/uploads", { jobId: job.id, filename: "big.jpg", contentType: "image/jpeg", size: 15 * MB + 1 })
+    const res = await tech.post("/api/uploads", {
+      jobId: job.id,
+      filename: "big.jpg",
+      contentType: "image/jpeg",
+      size: 15 * MB + 1,
+    })
     expect(res.status).toBe(413)
     expect(res.body.error.code).toBe("too_large")
-    const ok = await tech.post("/api/uploads", { jobId: job.id, filename: "edge.jpg", contentType: "image/jpeg", size: 15 * MB })
+    const ok = await tech.post("/api/uploads", {
+      jobId: job.id,
+      filename: "edge.jpg",
+      contentType: "image/jpeg",
+      size: 15 * MB,
+    })
     expect(ok.status).toBe(201)
   })
 
@@ -56,21 +73,38 @@ describe("POST /api/uploads", () => {
     const other = await createTestShop("Uploads other")
     const otherJob = await createJob(await signedIn(other.lead))
     const tech = await signedIn(shop.tech)
-    expect((await tech.post("/api/uploads", { jobId: otherJob.id, filename: "a.png", contentType: "image/png", size: 10 })).status).toBe(404)
+    expect(
+      (await tech.post("/api/uploads", { jobId: otherJob.id, filename: "a.png", contentType: "image/png", size: 10 }))
+        .status,
+    ).toBe(404)
     const codriver = await signedIn(shop.codriver)
-    expect((await codriver.post("/api/uploads", { jobId: job.id, filename: "a.png", contentType: "image/png", size: 10 })).status).toBe(403)
+    expect(
+      (await codriver.post("/api/uploads", { jobId: job.id, filename: "a.png", contentType: "image/png", size: 10 }))
+        .status,
+    ).toBe(403)
   })
 })
 
 describe("POST /api/uploads/:id/complete", () => {
   it("completes a PNG whose bytes are a PNG, and lists it on the job with a link that serves the file", async () => {
     const tech = await signedIn(shop.tech)
-    const start = await tech.post("/api/uploads", { jobId: job.id, taskId: job.tasks[0]!.id, filename: "tires.png", contentType: "image/png", size: TINY_PNG.length })
+    const start = await tech.post("/api/uploads", {
+      jobId: job.id,
+      taskId: job.tasks[0]!.id,
+      filename: "tires.png",
+      contentType: "image/png",
+      size: TINY_PNG.length,
+    })
     expect(start.status).toBe(201)
     await putToPresignedUrl(start.body.uploadUrl, "image/png", TINY_PNG)
     const done = await tech.post(`/api/uploads/${start.body.attachmentId}/complete`)
     expect(done.status).toBe(200)
-    expect(done.body.attachment).toMatchObject({ id: start.body.attachmentId, taskId: job.tasks[0]!.id, contentType: "image/png", size: TINY_PNG.length })
+    expect(done.body.attachment).toMatchObject({
+      id: start.body.attachmentId,
+      taskId: job.tasks[0]!.id,
+      contentType: "image/png",
+      size: TINY_PNG.length,
+    })
     expect(done.body.attachment.thumbnailUrl).toContain(start.body.attachmentId)
 
     const detail = await tech.get(`/api/jobs/${job.id}`)
@@ -89,7 +123,12 @@ describe("POST /api/uploads/:id/complete", () => {
 
   it("completes a JPEG whose bytes start FF D8 FF", async () => {
     const tech = await signedIn(shop.tech)
-    const start = await tech.post("/api/uploads", { jobId: job.id, filename: "face.jpg", contentType: "image/jpeg", size: JPEG_START.length })
+    const start = await tech.post("/api/uploads", {
+      jobId: job.id,
+      filename: "face.jpg",
+      contentType: "image/jpeg",
+      size: JPEG_START.length,
+    })
     await putToPresignedUrl(start.body.uploadUrl, "image/jpeg", JPEG_START)
     const done = await tech.post(`/api/uploads/${start.body.attachmentId}/complete`)
     expect(done.status).toBe(200)
@@ -98,7 +137,12 @@ describe("POST /api/uploads/:id/complete", () => {
 
   it("refuses a file whose bytes are not the declared type, and removes it from the object store", async () => {
     const tech = await signedIn(shop.tech)
-    const start = await tech.post("/api/uploads", { jobId: job.id, filename: "scan.pdf", contentType: "application/pdf", size: TINY_PNG.length })
+    const start = await tech.post("/api/uploads", {
+      jobId: job.id,
+      filename: "scan.pdf",
+      contentType: "application/pdf",
+      size: TINY_PNG.length,
+    })
     expect(start.status).toBe(201)
     await putToPresignedUrl(start.body.uploadUrl, "application/pdf", TINY_PNG)
     const key = (await objectKeyOf(start.body.attachmentId))!
@@ -116,7 +160,12 @@ describe("POST /api/uploads/:id/complete", () => {
   it("refuses text dressed as a photo", async () => {
     const tech = await signedIn(shop.tech)
     const bytes = Buffer.from("<html>not a photo</html>")
-    const start = await tech.post("/api/uploads", { jobId: job.id, filename: "photo.webp", contentType: "image/webp", size: bytes.length })
+    const start = await tech.post("/api/uploads", {
+      jobId: job.id,
+      filename: "photo.webp",
+      contentType: "image/webp",
+      size: bytes.length,
+    })
     await putToPresignedUrl(start.body.uploadUrl, "image/webp", bytes)
     const key = (await objectKeyOf(start.body.attachmentId))!
     const done = await tech.post(`/api/uploads/${start.body.attachmentId}/complete`)
@@ -126,7 +175,12 @@ describe("POST /api/uploads/:id/complete", () => {
 
   it("answers 400 while nothing was uploaded yet, and keeps the upload open", async () => {
     const tech = await signedIn(shop.tech)
-    const start = await tech.post("/api/uploads", { jobId: job.id, filename: "later.png", contentType: "image/png", size: TINY_PNG.length })
+    const start = await tech.post("/api/uploads", {
+      jobId: job.id,
+      filename: "later.png",
+      contentType: "image/png",
+      size: TINY_PNG.length,
+    })
     const early = await tech.post(`/api/uploads/${start.body.attachmentId}/complete`)
     expect(early.status).toBe(400)
     await putToPresignedUrl(start.body.uploadUrl, "image/png", TINY_PNG)
@@ -155,7 +209,12 @@ describe("what is served is what was checked (issue 15)", () => {
 
   it("the upload address expires in minutes", async () => {
     const tech = await signedIn(shop.tech)
-    const start = await tech.post("/api/uploads", { jobId: job.id, filename: "x.png", contentType: "image/png", size: TINY_PNG.length })
+    const start = await tech.post("/api/uploads", {
+      jobId: job.id,
+      filename: "x.png",
+      contentType: "image/png",
+      size: TINY_PNG.length,
+    })
     const expires = Number(new URL(start.body.uploadUrl).searchParams.get("X-Amz-Expires"))
     expect(expires).toBeGreaterThan(0)
     expect(expires).toBeLessThanOrEqual(10 * 60)

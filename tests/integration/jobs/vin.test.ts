@@ -19,7 +19,14 @@ describe("GET /api/vin/:vin", () => {
     const tech = await signedIn(shop.tech)
     const res = await tech.get(`/api/vin/${vin}`)
     expect(res.status).toBe(200)
-    expect(res.body).toMatchObject({ vin, valid: true, checkDigit: digit, expectedCheckDigit: digit, modelYear: year, problems: [] })
+    expect(res.body).toMatchObject({
+      vin,
+      valid: true,
+      checkDigit: digit,
+      expectedCheckDigit: digit,
+      modelYear: year,
+      problems: [],
+    })
   })
 
   it("answers 200 with valid false and the problems for a malformed VIN", async () => {

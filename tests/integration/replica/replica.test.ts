@@ -17,7 +17,15 @@ const replicaBaseUrl = process.env.TEST_REPLICA_BASE_URL
 const standbyUrl = process.env.TEST_REPLICA_DATABASE_URL
 
 /** The list and analytics reads that go to the replica, as a shop lead asks for them. */
-const READS = ["/api/review", "/api/numbers?days=730", "/api/numbers?days=730&format=csv", "/api/drives", "/api/drives?status=finished", "/api/jobs", "/api/roads"]
+const READS = [
+  "/api/review",
+  "/api/numbers?days=730",
+  "/api/numbers?days=730&format=csv",
+  "/api/drives",
+  "/api/drives?status=finished",
+  "/api/jobs",
+  "/api/roads",
+]
 
 let standby: Db
 let shop: TestShop
@@ -29,7 +37,9 @@ async function caughtUp() {
   const { rows } = await sql<{ lsn: string }>`select pg_current_wal_lsn()::text as lsn`.execute(testDb())
   const until = Date.now() + 20_000
   while (Date.now() < until) {
-    const { rows: r } = await sql<{ ok: boolean }>`select pg_last_wal_replay_lsn() >= ${rows[0]!.lsn}::pg_lsn as ok`.execute(standby)
+    const { rows: r } = await sql<{
+      ok: boolean
+    }>`select pg_last_wal_replay_lsn() >= ${rows[0]!.lsn}::pg_lsn as ok`.execute(standby)
     if (r[0]!.ok) return
     await new Promise((res) => setTimeout(res, 100))
   }
@@ -45,7 +55,9 @@ async function importHarshDrive(client: ApiClient) {
 
 beforeAll(async () => {
   if (!replicaBaseUrl || !standbyUrl) {
-    throw new Error("TEST_REPLICA_BASE_URL and TEST_REPLICA_DATABASE_URL are not set: run this suite through `npm test` (not with TEST_REPLICA=0), which starts the standby and the app that reads from it.")
+    throw new Error(
+      "TEST_REPLICA_BASE_URL and TEST_REPLICA_DATABASE_URL are not set: run this suite through `npm test` (not with TEST_REPLICA=0), which starts the standby and the app that reads from it.",
+    )
   }
   standby = createDb(standbyUrl)
   shop = await createTestShop("Replica")
@@ -71,7 +83,9 @@ describe("reads with a replica configured", () => {
     const { rows } = await sql<{ recovery: boolean }>`select pg_is_in_recovery() as recovery`.execute(standby)
     expect(rows[0]!.recovery).toBe(true)
     const { rows: primary } = await sql<{ recovery: boolean; senders: number }>`
-      select pg_is_in_recovery() as recovery, (select count(*)::int from pg_stat_replication where state = 'streaming') as senders`.execute(testDb())
+      select pg_is_in_recovery() as recovery, (select count(*)::int from pg_stat_replication where state = 'streaming') as senders`.execute(
+      testDb(),
+    )
     expect(primary[0]).toEqual({ recovery: false, senders: 1 })
   })
 
@@ -112,7 +126,9 @@ describe("reads with a replica configured", () => {
       expect(ids(await replicaApp.get("/api/drives"))).not.toContain(id)
       expect((await primaryApp.get("/api/jobs")).body.jobs).toHaveLength(2)
       expect((await replicaApp.get("/api/jobs")).body.jobs).toHaveLength(1)
-      expect((await replicaApp.get("/api/numbers?days=730")).text).not.toBe((await primaryApp.get("/api/numbers?days=730")).text)
+      expect((await replicaApp.get("/api/numbers?days=730")).text).not.toBe(
+        (await primaryApp.get("/api/numbers?days=730")).text,
+      )
       // The pages read the same way: the review page of the app on the standby does not link the new drive yet.
       expect((await primaryApp.get("/review")).text).toContain(`/drives/${id}`)
       expect((await replicaApp.get("/review")).text).not.toContain(`/drives/${id}`)
@@ -126,7 +142,11 @@ describe("reads with a replica configured", () => {
 
   it("the app's read connections are on the standby, and none of them on the primary", async () => {
     const names = async (db: Db) =>
-      (await sql<{ name: string }>`select application_name as name from pg_stat_activity where datname = current_database()`.execute(db)).rows.map((r) => r.name)
+      (
+        await sql<{
+          name: string
+        }>`select application_name as name from pg_stat_activity where datname = current_database()`.execute(db)
+      ).rows.map((r) => r.name)
     expect(await names(standby)).toContain(READ_APPLICATION_NAME)
     expect(await names(testDb())).not.toContain(READ_APPLICATION_NAME)
   })

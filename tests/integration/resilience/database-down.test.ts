@@ -37,7 +37,10 @@ describe("the database stopped and started mid-stream", () => {
     const tech = await signedIn(shop.tech)
     const driveId = await startDrive(tech)
     const samples = samplesOf(900, 31)
-    const batches = Array.from({ length: 45 }, (_, i) => ({ batchId: `down-${i}`, samples: samples.slice(i * 20, i * 20 + 20) }))
+    const batches = Array.from({ length: 45 }, (_, i) => ({
+      batchId: `down-${i}`,
+      samples: samples.slice(i * 20, i * 20 + 20),
+    }))
 
     const seen: Array<{ status: number; retryAfter: string | null; code?: string }> = []
     let acknowledged = 0
@@ -46,7 +49,8 @@ describe("the database stopped and started mid-stream", () => {
         // The recorder's outbox: a 5xx or a network error is retried, the same batch id each time.
         for (let attempt = 0; ; attempt++) {
           const res = await tech.post(`/api/drives/${driveId}/samples`, batch).catch(() => null)
-          if (res) seen.push({ status: res.status, retryAfter: res.headers.get("retry-after"), code: res.body?.error?.code })
+          if (res)
+            seen.push({ status: res.status, retryAfter: res.headers.get("retry-after"), code: res.body?.error?.code })
           if (res?.status === 200) break
           if (attempt > 400) throw new Error("the batch was never taken")
           await sleep(100)
@@ -70,7 +74,12 @@ describe("the database stopped and started mid-stream", () => {
     expect(whileDown.status).toBe(503)
     expect(whileDown.headers.get("retry-after")).toBeTruthy()
     // Pages too: the calm page with a 503 and Retry-After (proxy.ts), signed in or not, never a 500.
-    for (const [who, path] of [[tech, `/drives/${driveId}`], [tech, "/drives"], [tech, "/record"], [new ApiClient(), "/sign-in"]] as const) {
+    for (const [who, path] of [
+      [tech, `/drives/${driveId}`],
+      [tech, "/drives"],
+      [tech, "/record"],
+      [new ApiClient(), "/sign-in"],
+    ] as const) {
       const pageDown = await who.get(path)
       expect(pageDown.status, path).toBe(503)
       expect(Number(pageDown.headers.get("retry-after")), path).toBeGreaterThan(0)
@@ -85,17 +94,27 @@ describe("the database stopped and started mid-stream", () => {
     const up = await health()
     expect(up.status).toBe(200)
     expect(up.body.parts).toEqual({ database: "up", storage: "up" })
-    for (const [who, path] of [[tech, "/record"], [new ApiClient(), "/sign-in"]] as const) {
+    for (const [who, path] of [
+      [tech, "/record"],
+      [new ApiClient(), "/sign-in"],
+    ] as const) {
       const pageUp = await who.get(path)
       expect(pageUp.status, path).toBe(200)
       expect(pageUp.text, path).not.toContain('data-testid="service-unavailable"')
     }
 
-    const failures = seen.filter((s) => s.status !== 200 && !(s.status === 503 && Number(s.retryAfter) > 0 && s.code === "service_unavailable"))
+    const failures = seen.filter(
+      (s) => s.status !== 200 && !(s.status === 503 && Number(s.retryAfter) > 0 && s.code === "service_unavailable"),
+    )
     expect(failures).toEqual([])
     expect(seen.filter((s) => s.status === 503).length).toBeGreaterThan(0)
 
-    const stored = await testDb().selectFrom("sample_decoded").select(["t"]).where("drive_id", "=", driveId).orderBy("t").execute()
+    const stored = await testDb()
+      .selectFrom("sample_decoded")
+      .select(["t"])
+      .where("drive_id", "=", driveId)
+      .orderBy("t")
+      .execute()
     expect(stored.map((r) => Number(r.t))).toEqual(samples.map((s) => s.t))
   }, 180_000)
 })

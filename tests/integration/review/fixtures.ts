@@ -13,7 +13,9 @@ let vinCounter = 0
 /** A VIN with a valid 49 CFR 565 check digit, different on every call. */
 export function freshVin() {
   vinCounter += 1
-  const serial = String((Date.now() % 1_000_000) * 10 + (vinCounter % 10)).padStart(6, "0").slice(-6)
+  const serial = String((Date.now() % 1_000_000) * 10 + (vinCounter % 10))
+    .padStart(6, "0")
+    .slice(-6)
   return withCheckDigit(`0ZT4R8AB0RW${serial}`)
 }
 
@@ -88,7 +90,11 @@ export type InsertDriveOptions = {
 export async function insertScoredDrive(shop: TestShop, opts: InsertDriveOptions) {
   const db = testDb()
   const minutes = opts.minutes ?? Math.max(PATTERN_MIN_MINUTES[opts.pattern], 6)
-  const generated = generateDrive({ seed: opts.seed ?? Math.floor(Math.random() * 1e6), pattern: opts.pattern, minutes })
+  const generated = generateDrive({
+    seed: opts.seed ?? Math.floor(Math.random() * 1e6),
+    pattern: opts.pattern,
+    minutes,
+  })
   const file = { ...generated, samples: generated.samples.map(storedSample) } // scored as stored
   const score = scoreDrive(file)
   const id = randomUUID()
@@ -128,7 +134,10 @@ export async function insertScoredDrive(shop: TestShop, opts: InsertDriveOptions
     )
     .execute()
   if (status === "finished") {
-    await db.insertInto("score").values({ drive_id: id, shop_id: shop.shopId, verdict: score.verdict, result: JSON.stringify(score) }).execute()
+    await db
+      .insertInto("score")
+      .values({ drive_id: id, shop_id: shop.shopId, verdict: score.verdict, result: JSON.stringify(score) })
+      .execute()
   }
   return { id, score }
 }
@@ -137,7 +146,11 @@ export async function insertScoredDrive(shop: TestShop, opts: InsertDriveOptions
 export async function capturedMail(admin: { get: (p: string) => Promise<{ status: number; body: any }> }) {
   const res = await admin.get("/api/dev/mail")
   if (res.status !== 200) throw new Error(`GET /api/dev/mail answered ${res.status}`)
-  return res.body.messages as Array<{ to: string[]; subject: string; attachments: Array<{ filename: string; contentType: string; size: number }> }>
+  return res.body.messages as Array<{
+    to: string[]
+    subject: string
+    attachments: Array<{ filename: string; contentType: string; size: number }>
+  }>
 }
 
 export async function waitForMail(

@@ -21,7 +21,9 @@ describe("GET /api/numbers", () => {
     expect(week.met + week.short + week.not_met + week.unverified).toBe(3)
     expect(res.body.perTechnician).toHaveLength(1)
     expect(res.body.perTechnician[0].drives).toBe(3)
-    const reasons = Object.fromEntries(res.body.topReasons.map((r: { key: string; drives: number }) => [r.key, r.drives]))
+    const reasons = Object.fromEntries(
+      res.body.topReasons.map((r: { key: string; drives: number }) => [r.key, r.drives]),
+    )
     expect(reasons.cleared).toBe(1)
     const ttc = res.body.timeToClear[0]
     expect(ttc.drives).toBe(3)
@@ -53,7 +55,11 @@ describe("GET /api/numbers", () => {
     const weekBefore = new Date(monday - 7 * 86_400_000).toISOString().slice(0, 10)
     const sunday = new Date(monday - 86_400_000).toISOString().slice(0, 10)
     // Sunday 23:30 shop time = Monday 05:30 UTC (UTC would put it in the Monday's week); Monday 00:30 = 06:30 UTC.
-    const lateSunday = await insertScoredDrive(shop, { pattern: "met", seed: 511, finishedAt: new Date(monday + 5.5 * 3_600_000) })
+    const lateSunday = await insertScoredDrive(shop, {
+      pattern: "met",
+      seed: 511,
+      finishedAt: new Date(monday + 5.5 * 3_600_000),
+    })
     await insertScoredDrive(shop, { pattern: "short", seed: 512, finishedAt: new Date(monday + 6.5 * 3_600_000) })
 
     const lead = await signedIn(shop.lead)

@@ -21,7 +21,12 @@ describe("GET /api/review", () => {
     const unverified = await insertScoredDrive(shop, { pattern: "unverified", seed: 105, finishedAt: minutesAgo(20) })
     await insertScoredDrive(shop, { pattern: "short", seed: 106, status: "recording" })
     await insertScoredDrive(shop, { pattern: "short", seed: 107, finishedAt: minutesAgo(60), reviewStatus: "redo" })
-    await insertScoredDrive(shop, { pattern: "never-cleared", seed: 108, finishedAt: minutesAgo(65), reviewStatus: "approved" })
+    await insertScoredDrive(shop, {
+      pattern: "never-cleared",
+      seed: 108,
+      finishedAt: minutesAgo(65),
+      reviewStatus: "approved",
+    })
     await insertScoredDrive(other, { pattern: "short", seed: 109, finishedAt: minutesAgo(70) })
 
     // The generated patterns score as intended (drive-file.md verdict rules).
@@ -44,9 +49,16 @@ describe("GET /api/review", () => {
 
   it("pages with the cursor without repeating or skipping a drive, with finish times finer than a millisecond", async () => {
     const shop = await createTestShop("QueuePages")
-    const { score } = await insertScoredDrive(shop, { pattern: "short", seed: 201, finishedAt: new Date(Date.UTC(2026, 0, 5, 9, 0, 0)) })
+    const { score } = await insertScoredDrive(shop, {
+      pattern: "short",
+      seed: 201,
+      finishedAt: new Date(Date.UTC(2026, 0, 5, 9, 0, 0)),
+    })
     // PostgreSQL keeps microseconds; a cursor cut to milliseconds would bring a page's last drive back.
-    const rows = Array.from({ length: REVIEW_PAGE_SIZE + 5 }, (_, i) => ({ id: randomUUID(), finishedAt: `2026-01-05T10:00:${String(i).padStart(2, "0")}.123456Z` }))
+    const rows = Array.from({ length: REVIEW_PAGE_SIZE + 5 }, (_, i) => ({
+      id: randomUUID(),
+      finishedAt: `2026-01-05T10:00:${String(i).padStart(2, "0")}.123456Z`,
+    }))
     const db = testDb()
     await db
       .insertInto("drive")
@@ -65,7 +77,14 @@ describe("GET /api/review", () => {
       .execute()
     await db
       .insertInto("score")
-      .values(rows.map((r) => ({ drive_id: r.id, shop_id: shop.shopId, verdict: score.verdict, result: JSON.stringify(score) })))
+      .values(
+        rows.map((r) => ({
+          drive_id: r.id,
+          shop_id: shop.shopId,
+          verdict: score.verdict,
+          result: JSON.stringify(score),
+        })),
+      )
       .execute()
 
     const lead = await signedIn(shop.lead)

@@ -33,8 +33,12 @@ async function oldNumbers(shopId: string, since: Date) {
   return testDb()
     .selectFrom("drive")
     .innerJoin("score", (j) => j.onRef("score.drive_id", "=", "drive.id").on("score.shop_id", "=", shopId))
-    .leftJoin("app_user as driver", (j) => j.onRef("driver.id", "=", "drive.driver_id").on("driver.shop_id", "=", shopId))
-    .leftJoin("condition_profile_version as pv", (j) => j.onRef("pv.id", "=", "drive.profile_version_id").on("pv.shop_id", "=", shopId))
+    .leftJoin("app_user as driver", (j) =>
+      j.onRef("driver.id", "=", "drive.driver_id").on("driver.shop_id", "=", shopId),
+    )
+    .leftJoin("condition_profile_version as pv", (j) =>
+      j.onRef("pv.id", "=", "drive.profile_version_id").on("pv.shop_id", "=", shopId),
+    )
     .leftJoin("condition_profile as p", (j) => j.onRef("p.id", "=", "pv.profile_id").on("p.shop_id", "=", shopId))
     .select([
       "drive.id",
@@ -49,7 +53,9 @@ async function oldNumbers(shopId: string, since: Date) {
       sql<number>`coalesce((score.result->>'qualifyingSecondsBeforeClear')::float8, 0)`.as("qualifying_seconds"),
       sql<number>`coalesce((score.result->>'followingSecondsBeforeClear')::float8, 0)`.as("following_seconds"),
       harshSql.as("harsh_events"),
-      sql<string[]>`coalesce((select array_agg(c->>'key') from jsonb_array_elements(score.result->'conditions') c where (c->>'met')::boolean is false), '{}')`.as(
+      sql<
+        string[]
+      >`coalesce((select array_agg(c->>'key') from jsonb_array_elements(score.result->'conditions') c where (c->>'met')::boolean is false), '{}')`.as(
         "unmet_conditions",
       ),
     ])
@@ -88,11 +94,14 @@ async function generatedShop() {
   const other = await createTestShop("ReadColumnsOther")
   const { versionId } = await createTestProfile(shop.shopId)
   const scores = new Map<DrivePattern, Score>(
-    PATTERNS.map((p, i) => [p, scoreDrive(generateDrive({ seed: 900 + i, pattern: p, minutes: Math.max(PATTERN_MIN_MINUTES[p], 6) }))]),
+    PATTERNS.map((p, i) => [
+      p,
+      scoreDrive(generateDrive({ seed: 900 + i, pattern: p, minutes: Math.max(PATTERN_MIN_MINUTES[p], 6) })),
+    ]),
   )
   const db = testDb()
   let state = 12345
-  const rand = () => ((state = (state * 1103515245 + 12345) % 2 ** 31) / 2 ** 31)
+  const rand = () => (state = (state * 1103515245 + 12345) % 2 ** 31) / 2 ** 31
   const drives = []
   const scored = []
   for (let i = 0; i < 150; i++) {
@@ -111,10 +120,16 @@ async function generatedShop() {
       driver_id: i % 2 === 0 ? owner.tech.id : owner.lead.id,
       status,
       verdict: status === "finished" ? score.verdict : null,
-      review_status: status === "finished" && review < 0.2 ? ("approved" as const) : status === "finished" && review < 0.3 ? ("redo" as const) : null,
+      review_status:
+        status === "finished" && review < 0.2
+          ? ("approved" as const)
+          : status === "finished" && review < 0.3
+            ? ("redo" as const)
+            : null,
       finished_at: status === "finished" ? new Date(Date.now() - Math.floor(rand() * 60 * 86_400_000)) : null,
     })
-    if (status === "finished" && rand() > 0.05) scored.push({ drive_id: id, shop_id: owner.shopId, verdict: score.verdict, result: JSON.stringify(score) })
+    if (status === "finished" && rand() > 0.05)
+      scored.push({ drive_id: id, shop_id: owner.shopId, verdict: score.verdict, result: JSON.stringify(score) })
   }
   await db.insertInto("drive").values(drives).execute()
   await db.insertInto("score").values(scored).execute()
@@ -165,15 +180,34 @@ describe("reads from the drive's own columns", () => {
     const db = testDb()
     await db
       .insertInto("drive")
-      .values({ id, shop_id: shop.shopId, profile: JSON.stringify(met.profile), driver_id: shop.tech.id, status: "finished", verdict: "met", finished_at: new Date() })
+      .values({
+        id,
+        shop_id: shop.shopId,
+        profile: JSON.stringify(met.profile),
+        driver_id: shop.tech.id,
+        status: "finished",
+        verdict: "met",
+        finished_at: new Date(),
+      })
       .execute()
-    await db.insertInto("score").values({ drive_id: id, shop_id: shop.shopId, verdict: "met", result: JSON.stringify(met) }).execute()
+    await db
+      .insertInto("score")
+      .values({ drive_id: id, shop_id: shop.shopId, verdict: "met", result: JSON.stringify(met) })
+      .execute()
     expect((await listReviewQueue(db, shop.shopId)).rows.map((r) => r.id)).toEqual(await oldQueue(shop.shopId))
     expect((await listReviewQueue(db, shop.shopId)).rows).toHaveLength(0)
-    await db.updateTable("score").set({ result: JSON.stringify(harsh) }).where("drive_id", "=", id).execute()
+    await db
+      .updateTable("score")
+      .set({ result: JSON.stringify(harsh) })
+      .where("drive_id", "=", id)
+      .execute()
     expect((await listReviewQueue(db, shop.shopId)).rows.map((r) => r.id)).toEqual([id])
     expect(await oldQueue(shop.shopId)).toEqual([id])
-    const row = await db.selectFrom("drive").select(["harsh_events", "needs_review"]).where("id", "=", id).executeTakeFirstOrThrow()
+    const row = await db
+      .selectFrom("drive")
+      .select(["harsh_events", "needs_review"])
+      .where("id", "=", id)
+      .executeTakeFirstOrThrow()
     expect(row.harsh_events).toBe(harsh.harshEvents.accel + harsh.harshEvents.decel)
     expect(row.needs_review).toBe(true)
   })

@@ -17,7 +17,9 @@ async function pdfText(bytes: Uint8Array) {
 }
 
 async function getPdf(client: ApiClient, path: string) {
-  const res = await fetch(`${testEnv().baseUrl}${path}`, { headers: client.cookie ? { cookie: client.cookie, "x-forwarded-for": client.address } : {} })
+  const res = await fetch(`${testEnv().baseUrl}${path}`, {
+    headers: client.cookie ? { cookie: client.cookie, "x-forwarded-for": client.address } : {},
+  })
   return { status: res.status, type: res.headers.get("content-type"), bytes: new Uint8Array(await res.arrayBuffer()) }
 }
 
@@ -48,7 +50,9 @@ describe("GET /api/drives/:id/record", () => {
     const text = await pdfText((await getPdf(await signedIn(shop.tech), `/api/drives/${drive.id}/record`)).bytes)
     // IANA tz database: Pacific/Auckland is UTC+13 (NZDT) in the southern summer, UTC+12 (NZST) in winter.
     const started = new Date(drive.score.startedAtMs ?? Date.now())
-    const zoneShort = new Intl.DateTimeFormat("en-US", { timeZone: "Pacific/Auckland", timeZoneName: "short" }).formatToParts(started).find((p) => p.type === "timeZoneName")!.value
+    const zoneShort = new Intl.DateTimeFormat("en-US", { timeZone: "Pacific/Auckland", timeZoneName: "short" })
+      .formatToParts(started)
+      .find((p) => p.type === "timeZoneName")!.value
     expect(text).toContain(`Pacific/Auckland (${zoneShort})`)
     expect(text).not.toMatch(/\d UTC/)
     expect(text).toContain("km/h")

@@ -13,7 +13,11 @@ describe("POST /api/drives/:id/review", () => {
       expect(res.status).toBe(403)
     }
     expect((await new ApiClient().post(`/api/drives/${drive.id}/review`, { decision: "approve" })).status).toBe(401)
-    const row = await testDb().selectFrom("drive").select("review_status").where("id", "=", drive.id).executeTakeFirstOrThrow()
+    const row = await testDb()
+      .selectFrom("drive")
+      .select("review_status")
+      .where("id", "=", drive.id)
+      .executeTakeFirstOrThrow()
     expect(row.review_status).toBeNull()
   })
 
@@ -45,7 +49,11 @@ describe("POST /api/drives/:id/review", () => {
     expect(res.status).toBe(200)
     expect(res.body.drive.id).toBe(drive.id)
     expect(res.body.drive.reviewStatus).toBe("redo")
-    const jobRow = await testDb().selectFrom("job").select("status").where("id", "=", job.jobId).executeTakeFirstOrThrow()
+    const jobRow = await testDb()
+      .selectFrom("job")
+      .select("status")
+      .where("id", "=", job.jobId)
+      .executeTakeFirstOrThrow()
     expect(jobRow.status).toBe("redo")
 
     const queue = await lead.get("/api/review")
@@ -74,10 +82,17 @@ describe("POST /api/drives/:id/review", () => {
     const job = await insertJob(shop)
     const drive = await insertScoredDrive(shop, { pattern: "harsh", seed: 204, job })
     const lead = await signedIn(shop.admin)
-    const res = await lead.post(`/api/drives/${drive.id}/review`, { decision: "approve", note: "Braking was for a deer; fine." })
+    const res = await lead.post(`/api/drives/${drive.id}/review`, {
+      decision: "approve",
+      note: "Braking was for a deer; fine.",
+    })
     expect(res.status).toBe(200)
     expect(res.body.drive.reviewStatus).toBe("approved")
-    const jobRow = await testDb().selectFrom("job").select("status").where("id", "=", job.jobId).executeTakeFirstOrThrow()
+    const jobRow = await testDb()
+      .selectFrom("job")
+      .select("status")
+      .where("id", "=", job.jobId)
+      .executeTakeFirstOrThrow()
     expect(jobRow.status).toBe("complete")
 
     const again = await lead.post(`/api/drives/${drive.id}/review`, { decision: "redo", note: "changed my mind" })
@@ -100,7 +115,11 @@ describe("POST /api/drives/:id/review", () => {
     const lead = await signedIn(shop.lead)
     expect((await lead.post(`/api/drives/${theirs.id}/review`, { decision: "approve" })).status).toBe(404)
     expect((await lead.post(`/api/drives/not-a-uuid/review`, { decision: "approve" })).status).toBe(404)
-    const row = await testDb().selectFrom("drive").select("review_status").where("id", "=", theirs.id).executeTakeFirstOrThrow()
+    const row = await testDb()
+      .selectFrom("drive")
+      .select("review_status")
+      .where("id", "=", theirs.id)
+      .executeTakeFirstOrThrow()
     expect(row.review_status).toBeNull()
   })
 })

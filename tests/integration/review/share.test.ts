@@ -64,7 +64,9 @@ describe("share links", () => {
     const theirs = await insertScoredDrive(other, { pattern: "short", seed: 405 })
     expect((await (await signedIn(shop.tech)).post(`/api/drives/${drive.id}/share`, {})).status).toBe(403)
     expect((await (await signedIn(shop.lead)).post(`/api/drives/${theirs.id}/share`, {})).status).toBe(404)
-    expect((await (await signedIn(shop.lead)).post(`/api/drives/${drive.id}/share`, { expiresInDays: 0 })).status).toBe(400)
+    expect((await (await signedIn(shop.lead)).post(`/api/drives/${drive.id}/share`, { expiresInDays: 0 })).status).toBe(
+      400,
+    )
   })
 
   it("withdraws every link made so far: they show a clear page and no data, and a new link works", async () => {

@@ -18,13 +18,18 @@ async function pdfText(bytes: Uint8Array) {
 }
 
 async function download(client: ApiClient, driveId: string) {
-  const res = await fetch(`${testEnv().baseUrl}/api/drives/${driveId}/record`, { headers: { cookie: client.cookie!, "x-forwarded-for": client.address } })
+  const res = await fetch(`${testEnv().baseUrl}/api/drives/${driveId}/record`, {
+    headers: { cookie: client.cookie!, "x-forwarded-for": client.address },
+  })
   expect(res.status).toBe(200)
   return new Uint8Array(await res.arrayBuffer())
 }
 
 function postPdf(client: ApiClient, bytes: Uint8Array) {
-  return client.request("POST", "/api/verify", undefined, { raw: bytes, headers: { "content-type": "application/pdf" } })
+  return client.request("POST", "/api/verify", undefined, {
+    raw: bytes,
+    headers: { "content-type": "application/pdf" },
+  })
 }
 
 describe("verifying a drive record", () => {
@@ -71,7 +76,9 @@ describe("verifying a drive record", () => {
   it("says a newer revision exists for a revision-1 PDF and code once a late mark made revision 2", async () => {
     const old = await download(lead, driveId)
     const [rev1] = (await lead.get(`/api/drives/${driveId}/revisions`)).body.revisions
-    const late = await lead.post(`/api/drives/${driveId}/marks`, { marks: [{ id: randomUUID(), t: file.samples[900]!.t, kind: "cleared" }] })
+    const late = await lead.post(`/api/drives/${driveId}/marks`, {
+      marks: [{ id: randomUUID(), t: file.samples[900]!.t, kind: "cleared" }],
+    })
     expect(late.status).toBe(200)
     const revisions = (await lead.get(`/api/drives/${driveId}/revisions`)).body.revisions
     expect(revisions[0].revision).toBe(2)
@@ -105,8 +112,18 @@ describe("verifying a drive record", () => {
     const bad = await anon.post("/api/verify", { code: "not-a-code" })
     expect(bad.status).toBe(400)
     expect(bad.body.error.fields.code).toMatch(/12 letters and digits/)
-    expect((await anon.request("POST", "/api/verify", undefined, { raw: "{", headers: { "content-type": "application/json" } })).status).toBe(400)
-    const html = await anon.request("POST", "/api/verify", undefined, { raw: "<html></html>", headers: { "content-type": "application/pdf" } })
+    expect(
+      (
+        await anon.request("POST", "/api/verify", undefined, {
+          raw: "{",
+          headers: { "content-type": "application/json" },
+        })
+      ).status,
+    ).toBe(400)
+    const html = await anon.request("POST", "/api/verify", undefined, {
+      raw: "<html></html>",
+      headers: { "content-type": "application/pdf" },
+    })
     expect(html.status).toBe(400)
     expect(html.body.error.fields.file).toBe("is not a PDF")
   })
@@ -114,7 +131,8 @@ describe("verifying a drive record", () => {
   it("throttles one address after 20 codes that match nothing (429 with Retry-After), like sign-in", async () => {
     const anon = new ApiClient()
     let last = await anon.post("/api/verify", { code: "0000-0000-0000" })
-    for (let i = 0; i < 25 && last.status === 200; i++) last = await anon.post("/api/verify", { code: `0000-0000-${String(i).padStart(4, "0")}` })
+    for (let i = 0; i < 25 && last.status === 200; i++)
+      last = await anon.post("/api/verify", { code: `0000-0000-${String(i).padStart(4, "0")}` })
     expect(last.status).toBe(429)
     expect(last.body.error.code).toBe("too_many_attempts")
     expect(Number(last.headers.get("retry-after"))).toBeGreaterThan(0)

@@ -9,7 +9,13 @@ import { generateRoadDrive, type RoadLayout } from "@/lib/tracks/roads"
 
 const HOME = { lat: 43.8731, lon: -91.9187 }
 const STEADY: RoadLayout = { key: "steady", name: "Test Parkway", kind: "steady", headingDeg: 35, lengthM: 6500 }
-const ARTERIAL: RoadLayout = { key: "arterial", name: "Test Avenue", kind: "stop-and-go", headingDeg: 255, lengthM: 5500 }
+const ARTERIAL: RoadLayout = {
+  key: "arterial",
+  name: "Test Avenue",
+  kind: "stop-and-go",
+  headingDeg: 255,
+  lengthM: 5500,
+}
 const WINDING: RoadLayout = { key: "winding", name: "Test Bend Road", kind: "winding", headingDeg: 160, lengthM: 6000 }
 
 // Weekdays of 2-6 November 2026; America/Chicago is UTC-6 then (IANA tz database), so 10:00 local = 16:00 UTC.
@@ -86,8 +92,13 @@ describe("road knowledge", () => {
     const res = await lead.get("/api/roads?hour=10&day=all")
     const cells: { cell: string; qualifyingShare: number; minutes: number; medianSpeedMph: number }[] = res.body.cells
     expect(cells.length).toBeGreaterThan(20)
-    const routes = await testDb().selectFrom("road_drive").select(["drive_id", "route"]).where("shop_id", "=", shop.shopId).execute()
-    const cellsOf = (key: string) => new Set(routes.filter((r) => layoutOfDrive.get(r.drive_id) === key).flatMap((r) => r.route))
+    const routes = await testDb()
+      .selectFrom("road_drive")
+      .select(["drive_id", "route"])
+      .where("shop_id", "=", shop.shopId)
+      .execute()
+    const cellsOf = (key: string) =>
+      new Set(routes.filter((r) => layoutOfDrive.get(r.drive_id) === key).flatMap((r) => r.route))
     const steadyCells = cellsOf("steady")
     const arterialCells = cellsOf("arterial")
     const meanShare = (set: Set<string>) => {
@@ -102,7 +113,12 @@ describe("road knowledge", () => {
     expect(res.status).toBe(200)
     expect(res.body.enabled).toBe(true)
     // "now" is whatever hour the test runs; the line is a loop or null, never an error
-    if (res.body.line) expect(res.body.line).toMatchObject({ drives: expect.any(Number), medianClearMinutes: expect.any(Number), medianClearSeconds: expect.any(Number) })
+    if (res.body.line)
+      expect(res.body.line).toMatchObject({
+        drives: expect.any(Number),
+        medianClearMinutes: expect.any(Number),
+        medianClearSeconds: expect.any(Number),
+      })
   })
 
   it("shows another shop nothing of this shop's model", async () => {
@@ -133,11 +149,18 @@ describe("road knowledge", () => {
     const ownTech = await signedIn(own.tech)
     const file = generateRoadDrive({ layout: STEADY, seed: 77, startMs: at(0, 10, 0), home: HOME, hz: 0.5 })
     expect((await ownTech.post("/api/drives/import", file)).status).toBe(201)
-    const count = () => testDb().selectFrom("road_cell_stat").select((e) => e.fn.countAll<number>().as("n")).where("shop_id", "=", own.shopId).executeTakeFirstOrThrow()
+    const count = () =>
+      testDb()
+        .selectFrom("road_cell_stat")
+        .select((e) => e.fn.countAll<number>().as("n"))
+        .where("shop_id", "=", own.shopId)
+        .executeTakeFirstOrThrow()
     expect(Number((await count()).n)).toBeGreaterThan(0)
     expect((await admin.patch("/api/shop/settings", { roadKnowledge: false })).body.settings.roadKnowledge).toBe(false)
     expect(Number((await count()).n)).toBe(0)
-    expect(await testDb().selectFrom("road_drive").select("drive_id").where("shop_id", "=", own.shopId).execute()).toEqual([])
+    expect(
+      await testDb().selectFrom("road_drive").select("drive_id").where("shop_id", "=", own.shopId).execute(),
+    ).toEqual([])
     expect((await ownTech.post("/api/drives/import", file)).status).toBe(201)
     expect(Number((await count()).n)).toBe(0)
     expect((await ownTech.get("/api/roads")).body).toMatchObject({ enabled: false, loops: [], cells: [] })
@@ -147,8 +170,16 @@ describe("road knowledge", () => {
 
   it("never shows road knowledge on a drive's share page or its PDF", async () => {
     const [driveId] = [...layoutOfDrive.entries()].find(([, key]) => key === "steady")!
-    const road = await testDb().selectFrom("road_drive").select(["loop_id", "route"]).where("drive_id", "=", driveId).executeTakeFirstOrThrow()
-    await testDb().updateTable("road_loop").set({ name: "Quillfeather Causeway" }).where("id", "=", road.loop_id!).execute()
+    const road = await testDb()
+      .selectFrom("road_drive")
+      .select(["loop_id", "route"])
+      .where("drive_id", "=", driveId)
+      .executeTakeFirstOrThrow()
+    await testDb()
+      .updateTable("road_loop")
+      .set({ name: "Quillfeather Causeway" })
+      .where("id", "=", road.loop_id!)
+      .execute()
     const made = await lead.post(`/api/drives/${driveId}/share`, { expiresInDays: 1 })
     expect(made.status).toBe(201)
     const page = await new ApiClient().get(`/share/${made.body.token}`)
@@ -198,7 +229,14 @@ describe("road knowledge", () => {
     const admin = await signedIn(own.admin)
     const ownLead = await signedIn(own.lead)
     const ownTech = await signedIn(own.tech)
-    expect((await ownTech.post("/api/drives/import", generateRoadDrive({ layout: STEADY, seed: 88, startMs: at(0, 10, 0), home: HOME, hz: 0.5 }))).status).toBe(201)
+    expect(
+      (
+        await ownTech.post(
+          "/api/drives/import",
+          generateRoadDrive({ layout: STEADY, seed: 88, startMs: at(0, 10, 0), home: HOME, hz: 0.5 }),
+        )
+      ).status,
+    ).toBe(201)
     const before = await ownLead.get("/api/roads?hour=all&day=all")
     expect(before.body.location.source).toBe("drive starts")
     const place = { lat: 43.9, lon: -91.95 }
@@ -211,12 +249,20 @@ describe("road knowledge", () => {
     expect(page.text).toContain('data-testid="shop-location-form"')
     expect(page.text).toContain('value="43.9"')
     // out of range, not a zone, not a number: 400 with the field named, nothing stored
-    for (const body of [{ location: { lat: 95, lon: 0 } }, { location: { lat: 43, lon: -200 } }, { location: { lat: "43.9", lon: 0 } }, { timeZone: "Mars/Olympus" }]) {
+    for (const body of [
+      { location: { lat: 95, lon: 0 } },
+      { location: { lat: 43, lon: -200 } },
+      { location: { lat: "43.9", lon: 0 } },
+      { timeZone: "Mars/Olympus" },
+    ]) {
       const bad = await admin.patch("/api/shop/settings", body)
       expect(bad.status).toBe(400)
       expect(bad.body.error.code).toBeTruthy()
     }
-    expect((await admin.get("/api/shop/settings")).body.settings).toMatchObject({ location: place, timeZone: "America/Denver" })
+    expect((await admin.get("/api/shop/settings")).body.settings).toMatchObject({
+      location: place,
+      timeZone: "America/Denver",
+    })
     // a lead reads it but may not change it (the spec: the admin manages the shop's settings)
     expect((await ownLead.patch("/api/shop/settings", { location: HOME })).status).toBe(403)
     // cleared: the page takes the drive starts again

@@ -10,7 +10,21 @@ const base = generateDrive({ seed: 5, hz: 1, minutes: 8, pattern: "short" })
 const value = fc.oneof(
   fc.double({ noNaN: false }),
   fc.integer({ min: -200, max: 2_000_000_000_000 }),
-  fc.constantFrom(0, -0, 90, -90, 180, -180, 90.0000001, -180.5, 1.5, Number.MAX_SAFE_INTEGER + 2, Infinity, -Infinity, NaN),
+  fc.constantFrom(
+    0,
+    -0,
+    90,
+    -90,
+    180,
+    -180,
+    90.0000001,
+    -180.5,
+    1.5,
+    Number.MAX_SAFE_INTEGER + 2,
+    Infinity,
+    -Infinity,
+    NaN,
+  ),
   fc.constantFrom(null, undefined, "1", true, [], {}),
 )
 const fieldName = fc.constantFrom("t", "lat", "lon", "speed", "accuracy", "extra")
@@ -41,7 +55,11 @@ describe("fastParseDriveFile", () => {
 
   it("leaves the wording to the schema: samples[3].lat: must be between -90 and 90", () => {
     const samples = base.samples.map((s, i) => (i === 3 ? { ...s, lat: 91 } : s))
-    expect(parseDriveFile({ ...base, samples })).toEqual({ ok: false, path: "samples[3].lat", message: "must be between -90 and 90" })
+    expect(parseDriveFile({ ...base, samples })).toEqual({
+      ok: false,
+      path: "samples[3].lat",
+      message: "must be between -90 and 90",
+    })
     const marks = [...base.marks, { t: 5, kind: "gap" }]
     const r = parseDriveFile({ ...base, marks })
     expect(r.ok).toBe(false)

@@ -14,15 +14,13 @@ function parseCsv(text: string): string[][] {
       if (c === '"' && text[i + 1] === '"') {
         field += '"'
         i++
-      }
-      else if (c === '"') quoted = false
+      } else if (c === '"') quoted = false
       else field += c
     } else if (c === '"') quoted = true
     else if (c === ",") {
       row.push(field)
       field = ""
-    }
-    else if (c === "\r" && text[i + 1] === "\n") {
+    } else if (c === "\r" && text[i + 1] === "\n") {
       row.push(field)
       rows.push(row)
       row = []
@@ -74,7 +72,9 @@ describe("toMarksCsv and RFC 4180 quoting", () => {
     expect(csvField('say "hi", then go')).toBe('"say ""hi"", then go"')
     expect(csvField("two\r\nlines")).toBe('"two\r\nlines"')
     expect(csvField("=HYPERLINK(1)")).toBe("'=HYPERLINK(1)")
-    const csv = toMarksCsv(drive([], [mark(5, "note", { text: 'Lead "grey van", 140 ft' }), mark(1, "gap", { gapFt: 140 })]))
+    const csv = toMarksCsv(
+      drive([], [mark(5, "note", { text: 'Lead "grey van", 140 ft' }), mark(1, "gap", { gapFt: 140 })]),
+    )
     const rows = parseCsv(csv)
     expect(rows).toEqual([
       ["time_utc", "t_ms", "kind", "gap_ft", "text"],

@@ -76,7 +76,14 @@ describe("toGpx", () => {
   })
 
   it("writes a track across longitude 180 that validates, with 180 written as -180", () => {
-    const file = generateDrive({ seed: 4, minutes: 3, pattern: "never-cleared", startLat: -16.8, startLon: 179.99, headingDeg: 90 })
+    const file = generateDrive({
+      seed: 4,
+      minutes: 3,
+      pattern: "never-cleared",
+      startLat: -16.8,
+      startLon: 179.99,
+      headingDeg: 90,
+    })
     const lons = file.samples.map((s) => s.lon)
     expect(lons.some((l) => l > 179.9) && lons.some((l) => l < -179.9)).toBe(true)
     file.samples.push({ t: file.samples.at(-1)!.t + 1000, lat: -16.8, lon: 180, speed: 0 })
@@ -88,7 +95,14 @@ describe("toGpx", () => {
   })
 
   it("reads back the same points and times with @tmcw/togeojson", () => {
-    const file = generateDrive({ seed: 5, minutes: 4, pattern: "never-cleared", startLat: 10, startLon: 179.995, headingDeg: 80 })
+    const file = generateDrive({
+      seed: 5,
+      minutes: 4,
+      pattern: "never-cleared",
+      startLat: 10,
+      startLon: 179.995,
+      headingDeg: 80,
+    })
     const back = readBack(toGpx(file))
     const coords = trackCoordinates(back)
     expect(coords).toHaveLength(file.samples.filter((s) => (s.accuracy ?? 0) <= 30).length)
@@ -98,7 +112,8 @@ describe("toGpx", () => {
       expect(lon).toBeCloseTo(kept[i]!.lon >= 180 ? kept[i]!.lon - 360 : kept[i]!.lon, 9)
     })
     const track = back.features.find((f) => f.geometry?.type !== "Point")!
-    const times = (track.properties as { coordinateProperties?: { times?: string[] | string[][] } }).coordinateProperties?.times
+    const times = (track.properties as { coordinateProperties?: { times?: string[] | string[][] } })
+      .coordinateProperties?.times
     expect(times?.flat()[0]).toBe(new Date(kept[0]!.t).toISOString())
     const points = back.features.filter((f) => f.geometry?.type === "Point")
     expect(points).toHaveLength(file.marks.length)
@@ -110,13 +125,20 @@ describe("toGpx", () => {
       { t: T0 + 1000, lat: 44.0002, lon: -92, speed: 21.5, accuracy: 4 },
       { t: T0 + 2000, lat: 44.0004, lon: -92 },
     ]
-    const file: DriveFile = drive(samples, [mark(1, "lead-on", { gapFt: 130 }), mark(1.5, "note", { text: "Lead turned off" })])
+    const file: DriveFile = drive(samples, [
+      mark(1, "lead-on", { gapFt: 130 }),
+      mark(1.5, "note", { text: "Lead turned off" }),
+    ])
     const xml = toGpx(file)
     expect(validate(xml).ok).toBe(true)
     expect(xml).toContain('xmlns:sa="https://straightaway.invalid/gpx/1"')
-    expect(xml).toContain("<trkpt lat=\"44.0002\" lon=\"-92\"><time>2026-01-01T10:00:01.000Z</time><extensions><sa:speedMps>21.5</sa:speedMps><sa:accuracyM>4</sa:accuracyM><sa:leadOn>true</sa:leadOn><sa:gapFt>130</sa:gapFt></extensions></trkpt>")
+    expect(xml).toContain(
+      '<trkpt lat="44.0002" lon="-92"><time>2026-01-01T10:00:01.000Z</time><extensions><sa:speedMps>21.5</sa:speedMps><sa:accuracyM>4</sa:accuracyM><sa:leadOn>true</sa:leadOn><sa:gapFt>130</sa:gapFt></extensions></trkpt>',
+    )
     // the note sits halfway between samples 1 and 2
-    const note = xml.match(/<wpt lat="([^"]+)" lon="([^"]+)">\n<time>2026-01-01T10:00:01\.500Z<\/time>\n<name>Note<\/name>\n<desc>Lead turned off<\/desc>/)
+    const note = xml.match(
+      /<wpt lat="([^"]+)" lon="([^"]+)">\n<time>2026-01-01T10:00:01\.500Z<\/time>\n<name>Note<\/name>\n<desc>Lead turned off<\/desc>/,
+    )
     expect(note).not.toBeNull()
     expect(Number(note![1])).toBeCloseTo(44.0003, 9)
     expect(Number(note![2])).toBe(-92)

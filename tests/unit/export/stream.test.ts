@@ -39,12 +39,17 @@ function asStored(file: AnyDriveFile): AnyDriveFile {
   return { ...file, samples }
 }
 
-const META = { name: "Invented drive <A&B> \"quoted\"", creator: "Straightaway" }
+const META = { name: 'Invented drive <A&B> "quoted"', creator: "Straightaway" }
 
 function cases(): [string, AnyDriveFile][] {
   const gaps = generateDrive({ seed: 7, minutes: 18, pattern: "met", dataGaps: 2, speedMissingShare: 0.1 })
   // Some samples beyond the accuracy limit (30 m by default), two of them where marks fall.
-  const noisy = { ...gaps, samples: gaps.samples.map((s, i) => (i % 37 === 0 || i === 0 || i === gaps.samples.length - 1 ? { ...s, accuracy: 55 } : s)) }
+  const noisy = {
+    ...gaps,
+    samples: gaps.samples.map((s, i) =>
+      i % 37 === 0 || i === 0 || i === gaps.samples.length - 1 ? { ...s, accuracy: 55 } : s,
+    ),
+  }
   const edges = drive(steady(40, 20), [
     mark(-5, "lead-on", { gapFt: 140 }), // before the first sample
     mark(0, "gap", { gapFt: 120 }), // at the first sample
@@ -73,7 +78,9 @@ describe("streamed exports write what the whole-file functions write", () => {
     for (const size of [1, 7, 5000]) {
       it(`${name}, chunks of ${size}`, async () => {
         const head = { ...file, samples: [] }
-        expect(await collect(gpxChunks(head, lookaheadOf(file), chunked(file.samples, size), META))).toBe(toGpx(file, META))
+        expect(await collect(gpxChunks(head, lookaheadOf(file), chunked(file.samples, size), META))).toBe(
+          toGpx(file, META),
+        )
         expect(await collect(csvChunks(head, chunked(file.samples, size)))).toBe(toCsv(file))
         expect(await collect(driveFileChunks(head, chunked(file.samples, size)))).toBe(JSON.stringify(file))
       })

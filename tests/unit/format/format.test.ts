@@ -62,7 +62,9 @@ describe("dates: one style, in the shop's time zone", () => {
   it("writes a moment in the shop's zone, with the zone named when asked", () => {
     expect(formatDateTime(noonish, "America/Chicago")).toBe("Dec 2, 2026, 9:42 AM")
     expect(formatDateTime(noonish, "America/Chicago", { zoneName: true })).toBe("Dec 2, 2026, 9:42 AM CST")
-    expect(formatDateTime("2026-07-04T17:00:00Z", "America/Chicago", { zoneName: true })).toBe("Jul 4, 2026, 12:00 PM CDT")
+    expect(formatDateTime("2026-07-04T17:00:00Z", "America/Chicago", { zoneName: true })).toBe(
+      "Jul 4, 2026, 12:00 PM CDT",
+    )
     expect(formatDateTime(noonish, "Europe/Berlin")).toBe("Dec 2, 2026, 4:42 PM")
     expect(formatDateTime(noonish, "UTC", { zoneName: true })).toBe("Dec 2, 2026, 3:42 PM UTC")
   })
@@ -154,7 +156,13 @@ describe("conditions as people read them", async () => {
   it("calls advisory conditions advisory and counts events in the singular when there is one", () => {
     const score = scoreDrive(generateDrive({ seed: 12, pattern: "short", minutes: 9 }))
     const harsh = score.conditions.find((c) => c.key === "harsh-events")!
-    const lines = describeConditions({ ...score, conditions: score.conditions.map((c) => (c.key === "harsh-events" ? { ...harsh, value: 1, met: false } : c)) }, "imperial")
+    const lines = describeConditions(
+      {
+        ...score,
+        conditions: score.conditions.map((c) => (c.key === "harsh-events" ? { ...harsh, value: 1, met: false } : c)),
+      },
+      "imperial",
+    )
     const line = lines.find((l) => l.key === "harsh-events")!
     expect(line.value).toBe("1 event")
     expect(line.requirement).toBe("advisory")

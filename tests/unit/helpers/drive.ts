@@ -28,5 +28,8 @@ export function drive(samples: Sample[], marks: Mark[] = [], profile?: Profile):
 
 /** n+1 samples at 1 s spacing, all at one device speed. */
 export function steady(n: number, speedMps: number, startS = 0): Sample[] {
-  return samplesWithSpeeds(Array.from({ length: n + 1 }, () => speedMps), { startS })
+  return samplesWithSpeeds(
+    Array.from({ length: n + 1 }, () => speedMps),
+    { startS },
+  )
 }

@@ -9,7 +9,13 @@ export const ROAD_SPEEDS = [...Array.from({ length: 21 }, () => 8), ...Array.fro
 
 export const CHECKS: RoadTestCheck[] = [
   { key: "acc-engages", system: "forward_radar", label: "Adaptive cruise engages", minSpeedMph: 25, need: "required" },
-  { key: "lane-keeping-engages", system: "forward_camera", label: "Lane keeping engages", minSpeedMph: 40, need: "required" },
+  {
+    key: "lane-keeping-engages",
+    system: "forward_camera",
+    label: "Lane keeping engages",
+    minSpeedMph: 40,
+    need: "required",
+  },
   { key: "sign-display", system: "forward_camera", label: "Sign display", minSpeedMph: null, need: "where_equipped" },
 ]
 
@@ -18,10 +24,20 @@ export function check(s: number, checkKey: string, result: "pass" | "fail" | "no
 }
 
 export function roadTest(marks: Mark2[], checks: RoadTestCheck[] = CHECKS): DriveFile2 {
-  return { format: "straightaway.drive/2", kind: "road_test", roadTest: { checks }, samples: samplesWithSpeeds(ROAD_SPEEDS), marks }
+  return {
+    format: "straightaway.drive/2",
+    kind: "road_test",
+    roadTest: { checks },
+    samples: samplesWithSpeeds(ROAD_SPEEDS),
+    marks,
+  }
 }
 
 /** Every required check passed at speed and the where-equipped one marked not equipped. */
 export function metRoadTest(): DriveFile2 {
-  return roadTest([check(30, "acc-engages", "pass"), check(50, "lane-keeping-engages", "pass"), check(60, "sign-display", "not_equipped")])
+  return roadTest([
+    check(30, "acc-engages", "pass"),
+    check(50, "lane-keeping-engages", "pass"),
+    check(60, "sign-display", "not_equipped"),
+  ])
 }

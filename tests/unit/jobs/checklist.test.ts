@@ -45,12 +45,27 @@ describe("assessChecklist", () => {
 
   it("names each blocking check", () => {
     const a = assessChecklist(
-      { ...base, faultCodes: { none: false, expected: [] }, loadNormal: false, fuelLevel: "reserve", sensorClean: false, mountUndamaged: false, tires: { ...base.tires, fl: 30 } },
+      {
+        ...base,
+        faultCodes: { none: false, expected: [] },
+        loadNormal: false,
+        fuelLevel: "reserve",
+        sensorClean: false,
+        mountUndamaged: false,
+        tires: { ...base.tires, fl: 30 },
+      },
       driveTask,
       3,
     )
     expect(a.ready).toBe(false)
-    expect(a.blockers.map((b) => b.key)).toEqual(["faultCodes", "tires.fl", "loadNormal", "fuelLevel", "sensorClean", "mountUndamaged"])
+    expect(a.blockers.map((b) => b.key)).toEqual([
+      "faultCodes",
+      "tires.fl",
+      "loadNormal",
+      "fuelLevel",
+      "sensorClean",
+      "mountUndamaged",
+    ])
     expect(a.blockers[1]!.message).toMatch(/Front left tire is 5 psi under the placard/)
   })
 
@@ -72,9 +87,15 @@ describe("assessChecklist", () => {
 
 describe("checklistSchema", () => {
   it("takes form strings for pressures and refuses empty or negative ones", () => {
-    const ok = checklistSchema.safeParse({ ...base, tires: { unit: "psi", placard: "35", fl: "35.5", fr: 35, rl: 35, rr: 35 } })
+    const ok = checklistSchema.safeParse({
+      ...base,
+      tires: { unit: "psi", placard: "35", fl: "35.5", fr: 35, rl: 35, rr: 35 },
+    })
     expect(ok.success && ok.data.tires.fl).toBe(35.5)
-    const bad = checklistSchema.safeParse({ ...base, tires: { unit: "psi", placard: "", fl: -1, fr: 35, rl: 35, rr: 35 } })
+    const bad = checklistSchema.safeParse({
+      ...base,
+      tires: { unit: "psi", placard: "", fl: -1, fr: 35, rl: 35, rr: 35 },
+    })
     expect(bad.success).toBe(false)
     expect(bad.error?.issues.map((i) => i.path.join("."))).toEqual(["tires.placard", "tires.fl"])
   })

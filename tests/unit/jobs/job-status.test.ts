@@ -16,11 +16,16 @@ describe("jobStatusFromDrives", () => {
   })
 
   it("reads a harsh-event count that the driver returns as text (pg does for bigint) as a number", () => {
-    expect(jobStatusFromDrives({ tasks: [{ id: "t1", method: "dynamic" }], drives: [{ ...met, harsh_events: "2" }] })).toBe("review")
+    expect(
+      jobStatusFromDrives({ tasks: [{ id: "t1", method: "dynamic" }], drives: [{ ...met, harsh_events: "2" }] }),
+    ).toBe("review")
   })
 
   it("keeps the job driving while another task that needs a drive has none; a static task needs none", () => {
-    const tasks = [{ id: "t1", method: "dynamic" }, { id: "t2", method: "both" }]
+    const tasks = [
+      { id: "t1", method: "dynamic" },
+      { id: "t2", method: "both" },
+    ]
     expect(jobStatusFromDrives({ tasks, drives: [met] })).toBe("drive")
     expect(jobStatusFromDrives({ tasks: [tasks[0]!, { id: "t2", method: "static" }], drives: [met] })).toBe("complete")
   })

@@ -29,7 +29,11 @@ describe("sniffUploadType", () => {
 
 describe("isAllowedUploadType", () => {
   it("takes photos and PDFs only", () => {
-    expect(["image/jpeg", "image/png", "image/webp", "image/heic", "application/pdf"].every(isAllowedUploadType)).toBe(true)
-    expect(["image/gif", "image/svg+xml", "text/plain", "application/octet-stream"].some(isAllowedUploadType)).toBe(false)
+    expect(["image/jpeg", "image/png", "image/webp", "image/heic", "application/pdf"].every(isAllowedUploadType)).toBe(
+      true,
+    )
+    expect(["image/gif", "image/svg+xml", "text/plain", "application/octet-stream"].some(isAllowedUploadType)).toBe(
+      false,
+    )
   })
 })

@@ -12,10 +12,14 @@ describe("backoff", () => {
     expect(backoffDelayMs(3, () => 0)).toBe(250)
     expect(backoffDelayMs(3, () => 0.999999)).toBe(4000)
     fc.assert(
-      fc.property(fc.integer({ min: 1, max: 40 }), fc.double({ min: 0, max: 1, maxExcluded: true, noNaN: true }), (n, r) => {
-        const d = backoffDelayMs(n, () => r)
-        return d >= 250 && d <= backoffCeilingMs(n)
-      }),
+      fc.property(
+        fc.integer({ min: 1, max: 40 }),
+        fc.double({ min: 0, max: 1, maxExcluded: true, noNaN: true }),
+        (n, r) => {
+          const d = backoffDelayMs(n, () => r)
+          return d >= 250 && d <= backoffCeilingMs(n)
+        },
+      ),
     )
   })
 

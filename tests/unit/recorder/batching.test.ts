@@ -49,22 +49,38 @@ describe("groupForSending", () => {
   const item = (key: string | null, size: number, id: string) => ({ key, size, id })
   it("joins neighbours of one kind up to the limit and keeps order", () => {
     const items = [item("s", 5, "a"), item("s", 5, "b"), item("s", 5, "c"), item("m", 1, "d"), item("s", 2, "e")]
-    const groups = groupForSending(items, (i) => i.key, (i) => i.size, 10)
+    const groups = groupForSending(
+      items,
+      (i) => i.key,
+      (i) => i.size,
+      10,
+    )
     expect(groups.map((g) => g.items.map((i) => i.id))).toEqual([["a", "b"], ["c"], ["d"], ["e"]])
   })
 
   it("never splits, never drops and never reorders an item", () => {
     fc.assert(
       fc.property(
-        fc.array(fc.record({ key: fc.constantFrom("s", "m", null), size: fc.integer({ min: 1, max: 30 }) }), { maxLength: 60 }),
+        fc.array(fc.record({ key: fc.constantFrom("s", "m", null), size: fc.integer({ min: 1, max: 30 }) }), {
+          maxLength: 60,
+        }),
         fc.integer({ min: 1, max: 50 }),
         (raw, max) => {
           const items = raw.map((r, i) => ({ ...r, id: String(i) }))
-          const groups = groupForSending(items, (i) => i.key, (i) => i.size, max)
+          const groups = groupForSending(
+            items,
+            (i) => i.key,
+            (i) => i.size,
+            max,
+          )
           const flat = groups.flatMap((g) => g.items.map((i) => i.id))
           return (
             flat.join() === items.map((i) => i.id).join() &&
-            groups.every((g) => g.items.length === 1 || (g.size <= max && new Set(g.items.map((i) => i.key)).size === 1 && g.items[0]!.key !== null))
+            groups.every(
+              (g) =>
+                g.items.length === 1 ||
+                (g.size <= max && new Set(g.items.map((i) => i.key)).size === 1 && g.items[0]!.key !== null),
+            )
           )
         },
       ),

@@ -15,7 +15,8 @@ const server = setupServer()
 // The transport sends same-origin relative paths, as in the browser; msw resolves them against location.
 const hadLocation = "location" in globalThis
 beforeAll(() => {
-  if (!hadLocation) Object.defineProperty(globalThis, "location", { value: new URL(`${ORIGIN}/record`), configurable: true })
+  if (!hadLocation)
+    Object.defineProperty(globalThis, "location", { value: new URL(`${ORIGIN}/record`), configurable: true })
   server.listen({ onUnhandledRequest: "error" })
 })
 afterEach(() => server.resetHandlers())
@@ -42,7 +43,12 @@ describe("fetchTransport with flushOutbox", () => {
   })
 
   it("keeps the batch and retries later when a proxy answers 502 with an HTML page", async () => {
-    server.use(http.post(`${ORIGIN}/api/drives/:driveId/samples`, () => new HttpResponse("<html>Bad gateway</html>", { status: 502, headers: { "content-type": "text/html" } })))
+    server.use(
+      http.post(
+        `${ORIGIN}/api/drives/:driveId/samples`,
+        () => new HttpResponse("<html>Bad gateway</html>", { status: 502, headers: { "content-type": "text/html" } }),
+      ),
+    )
     const store = memoryOutboxStore([makeItem(DRIVE, { type: "samples", batchId: "b2", samples: samples(0, 5) }, 1)])
     const out = await flushOutbox(store, fetchTransport, { nowMs: () => 5_000, random: () => 0.5 })
     expect(out.kind).toBe("offline")
@@ -59,7 +65,11 @@ describe("fetchTransport with flushOutbox", () => {
   })
 
   it("stops on 401 and keeps everything for after sign-in", async () => {
-    server.use(http.post(`${ORIGIN}/api/drives/:driveId/samples`, () => HttpResponse.json({ error: { code: "unauthenticated", message: "Sign in" } }, { status: 401 })))
+    server.use(
+      http.post(`${ORIGIN}/api/drives/:driveId/samples`, () =>
+        HttpResponse.json({ error: { code: "unauthenticated", message: "Sign in" } }, { status: 401 }),
+      ),
+    )
     const store = memoryOutboxStore([makeItem(DRIVE, { type: "samples", batchId: "b4", samples: samples(0, 5) }, 1)])
     expect(await flushOutbox(store, fetchTransport)).toEqual({ kind: "signed-out", sent: 0 })
     expect([...store.items.values()][0]?.failed).toBeUndefined()
@@ -69,7 +79,11 @@ describe("fetchTransport with flushOutbox", () => {
     server.use(
       http.post(`${ORIGIN}/api/drives/:driveId/samples`, async ({ request }) => {
         const body = (await request.json()) as { batchId: string }
-        if (body.batchId === "bad") return HttpResponse.json({ error: { code: "invalid_body", message: "samples.0.lat: too big" } }, { status: 422 })
+        if (body.batchId === "bad")
+          return HttpResponse.json(
+            { error: { code: "invalid_body", message: "samples.0.lat: too big" } },
+            { status: 422 },
+          )
         return HttpResponse.json({ accepted: 1 })
       }),
     )

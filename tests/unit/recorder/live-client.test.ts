@@ -72,10 +72,19 @@ describe("the live client", () => {
     const fetchImpl = vi
       .fn()
       .mockRejectedValueOnce(new TypeError("network"))
-      .mockImplementation(async () =>
-        new Response(JSON.stringify({ lastEventId: 9, events: [{ id: 9, kind: "unmark", body: { id: "x" } }], status: { status: "finished" }, score: {} }), {
-          headers: { "content-type": "application/json" },
-        }),
+      .mockImplementation(
+        async () =>
+          new Response(
+            JSON.stringify({
+              lastEventId: 9,
+              events: [{ id: 9, kind: "unmark", body: { id: "x" } }],
+              status: { status: "finished" },
+              score: {},
+            }),
+            {
+              headers: { "content-type": "application/json" },
+            },
+          ),
       )
     const link = connectLive("d2", h, { EventSourceImpl: null, fetchImpl, pollMs: 1000 })
     await vi.waitFor(() => expect(seen).toContain("connection:offline"))

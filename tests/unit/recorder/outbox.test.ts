@@ -6,7 +6,13 @@ import { flushOutbox, makeItem, memoryOutboxStore, type OutboxItem, type Transpo
 const DRIVE = "6f1c1a52-3d1e-4c55-9d4e-1a2b3c4d5e6f"
 
 function samples(from: number, count: number): Sample[] {
-  return Array.from({ length: count }, (_, i) => ({ t: from + i * 100, lat: 41.6, lon: -93.6 + i * 1e-5, speed: 20, accuracy: 5 }))
+  return Array.from({ length: count }, (_, i) => ({
+    t: from + i * 100,
+    lat: 41.6,
+    lon: -93.6 + i * 1e-5,
+    speed: 20,
+    accuracy: 5,
+  }))
 }
 
 /** A server that stores sample times once per batch id and per time, like the real one. */
@@ -19,7 +25,8 @@ function fakeServer(script: Array<number | "offline"> = []) {
       calls.push({ method, path, body })
       const next = script.shift()
       if (next === "offline") throw new TypeError("Failed to fetch")
-      if (typeof next === "number" && next !== 200) return { status: next, body: { error: { code: "x", message: `status ${next}` } } }
+      if (typeof next === "number" && next !== 200)
+        return { status: next, body: { error: { code: "x", message: `status ${next}` } } }
       if (path.endsWith("/samples") && !batches.has(body.batchId)) {
         batches.add(body.batchId)
         for (const s of body.samples) times.add(s.t)
@@ -34,7 +41,8 @@ describe("flushOutbox", () => {
   it("sends pieces oldest first, joined into bodies of at most SEND_MAX_SAMPLES, and empties the outbox", async () => {
     let now = 1000
     const items: OutboxItem[] = []
-    for (let i = 0; i < 30; i++) items.push(makeItem(DRIVE, { type: "samples", batchId: `b${i}`, samples: samples(i * 10_000, 100) }, now++))
+    for (let i = 0; i < 30; i++)
+      items.push(makeItem(DRIVE, { type: "samples", batchId: `b${i}`, samples: samples(i * 10_000, 100) }, now++))
     const store = memoryOutboxStore(items)
     const server = fakeServer()
     const out = await flushOutbox(store, server.transport)
@@ -62,7 +70,11 @@ describe("flushOutbox", () => {
 
   it("retries a 5xx and keeps a 4xx for the crew to see, without holding up the rest", async () => {
     const store = memoryOutboxStore([
-      makeItem(DRIVE, { type: "marks", marks: [{ id: "4b0f1e1c-3f5e-4e7a-9a1b-2c3d4e5f6a7b", t: 1, kind: "cleared" }] }, 1),
+      makeItem(
+        DRIVE,
+        { type: "marks", marks: [{ id: "4b0f1e1c-3f5e-4e7a-9a1b-2c3d4e5f6a7b", t: 1, kind: "cleared" }] },
+        1,
+      ),
       makeItem(DRIVE, { type: "samples", batchId: "s", samples: samples(0, 3) }, 2),
     ])
     const server = fakeServer([503])
@@ -84,7 +96,9 @@ describe("flushOutbox", () => {
   })
 
   it("stores every sample exactly once when answers are lost and the flush runs again", async () => {
-    const items = Array.from({ length: 12 }, (_, i) => makeItem(DRIVE, { type: "samples", batchId: `p${i}`, samples: samples(i * 1000, 10) }, i))
+    const items = Array.from({ length: 12 }, (_, i) =>
+      makeItem(DRIVE, { type: "samples", batchId: `p${i}`, samples: samples(i * 1000, 10) }, i),
+    )
     const store = memoryOutboxStore(items)
     const server = fakeServer()
     // The server stores the first body but the answer never arrives.

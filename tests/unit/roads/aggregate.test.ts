@@ -2,7 +2,16 @@ import { latLngToCell } from "h3-js"
 import { describe, expect, it } from "vitest"
 import type { DriveFile } from "@/lib/drive-file"
 import { resolveProfile } from "@/lib/drive-file/profile"
-import { ALL, ROAD_RESOLUTION, cellFigures, computeDriveContribution, medianFromHistogram, mergeStat, statsFromStored, type CellStat } from "@/lib/roads"
+import {
+  ALL,
+  ROAD_RESOLUTION,
+  cellFigures,
+  computeDriveContribution,
+  medianFromHistogram,
+  mergeStat,
+  statsFromStored,
+  type CellStat,
+} from "@/lib/roads"
 import { DEMO_ROAD_LAYOUTS, generateRoadDrive } from "@/lib/tracks/roads"
 
 const HOME = { lat: 43.8731, lon: -91.9187 }
@@ -14,7 +23,14 @@ function history(): DriveFile[] {
   for (let k = 0; k < 9; k++) {
     const layout = DEMO_ROAD_LAYOUTS[k % 3]!
     const startMs = Date.UTC(2026, 2, 2 + k, 12 + ((k * 5) % 10), 7 * k)
-    const file = generateRoadDrive({ layout, seed: 500 + k, startMs, home: HOME, traffic: (k % 4) / 4, hz: k % 2 ? 1 : 0.5 })
+    const file = generateRoadDrive({
+      layout,
+      seed: 500 + k,
+      startMs,
+      home: HOME,
+      traffic: (k % 4) / 4,
+      hz: k % 2 ? 1 : 0.5,
+    })
     // a few samples too inaccurate to use, and some without a device speed
     file.samples[40] = { ...file.samples[40]!, accuracy: 45 }
     delete file.samples[50]!.speed
@@ -66,8 +82,7 @@ function direct(files: DriveFile[]) {
         } else if (m.kind === "lead-off") {
           leadOn = false
           gap = null
-        }
-        else if (m.kind === "gap" && leadOn) gap = m.gapFt ?? gap
+        } else if (m.kind === "gap" && leadOn) gap = m.gapFt ?? gap
       }
       const v = speedOf(i)
       const cell = latLngToCell(a.lat, a.lon, ROAD_RESOLUTION)
@@ -143,7 +158,9 @@ describe("road model aggregation", () => {
       expect(row.qualifyingSeconds).toBeCloseTo(w.q, 6)
     }
     const dayTotal = [...model.values()].filter((r) => r.weekday !== ALL).reduce((s, r) => s + r.seconds, 0)
-    const allTotal = [...model.values()].filter((r) => r.hour === ALL && r.weekday === ALL).reduce((s, r) => s + r.seconds, 0)
+    const allTotal = [...model.values()]
+      .filter((r) => r.hour === ALL && r.weekday === ALL)
+      .reduce((s, r) => s + r.seconds, 0)
     expect(dayTotal).toBeCloseTo(allTotal, 6)
   })
 

@@ -37,7 +37,15 @@ describe("cell indexing against the h3-js test suite", () => {
 
   it("finds each cell of the published res-9 disc around 8928308280fffff from its centre", () => {
     // uber/h3-js test/h3core.spec.js, test "gridDisk": the cell and its six neighbours
-    const disc = ["8928308280fffff", "8928308280bffff", "89283082807ffff", "89283082877ffff", "89283082803ffff", "89283082873ffff", "8928308283bffff"]
+    const disc = [
+      "8928308280fffff",
+      "8928308280bffff",
+      "89283082807ffff",
+      "89283082877ffff",
+      "89283082803ffff",
+      "89283082873ffff",
+      "8928308283bffff",
+    ]
     expect(new Set(gridDisk("8928308280fffff", 1))).toEqual(new Set(disc))
     const locate = createCellLocator(ROAD_RESOLUTION)
     for (const cell of disc) {
@@ -49,7 +57,14 @@ describe("cell indexing against the h3-js test suite", () => {
   it("answers exactly as latLngToCell for every sample of generated tracks, near cell edges too", () => {
     const files = [
       generateDrive({ seed: 11, minutes: 20, hz: 5 }),
-      ...DEMO_ROAD_LAYOUTS.map((layout, i) => generateRoadDrive({ layout, seed: 30 + i, startMs: Date.UTC(2026, 5, 1, 15), home: { lat: 43.87, lon: -91.92 } })),
+      ...DEMO_ROAD_LAYOUTS.map((layout, i) =>
+        generateRoadDrive({
+          layout,
+          seed: 30 + i,
+          startMs: Date.UTC(2026, 5, 1, 15),
+          home: { lat: 43.87, lon: -91.92 },
+        }),
+      ),
     ]
     let checked = 0
     for (const file of files) {

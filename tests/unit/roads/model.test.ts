@@ -1,5 +1,16 @@
 import { describe, expect, it } from "vitest"
-import { compassWord, createLocalClock, hoursApart, jaccard, matchLoop, niceScale, rankLoops, rankLoopsOnBasis, shareClass, type LoopDrive } from "@/lib/roads"
+import {
+  compassWord,
+  createLocalClock,
+  hoursApart,
+  jaccard,
+  matchLoop,
+  niceScale,
+  rankLoops,
+  rankLoopsOnBasis,
+  shareClass,
+  type LoopDrive,
+} from "@/lib/roads"
 
 describe("local clock", () => {
   it("reads the shop's hour and weekday across a daylight-saving change", () => {
@@ -22,7 +33,19 @@ describe("local clock", () => {
 
 const home = { lat: 43.8731, lon: -91.9187 }
 function drive(loopId: string, hour: number, cleared: number | null, over: Partial<LoopDrive> = {}): LoopDrive {
-  return { driveId: `${loopId}-${hour}-${cleared}-${Math.random()}`, loopId, profileId: null, hour, weekday: 3, startLat: home.lat, startLon: home.lon, drivenSeconds: 1000, qualifyingSeconds: 800, clearedSeconds: cleared, ...over }
+  return {
+    driveId: `${loopId}-${hour}-${cleared}-${Math.random()}`,
+    loopId,
+    profileId: null,
+    hour,
+    weekday: 3,
+    startLat: home.lat,
+    startLon: home.lon,
+    drivenSeconds: 1000,
+    qualifyingSeconds: 800,
+    clearedSeconds: cleared,
+    ...over,
+  }
 }
 
 describe("ranking loops", () => {
@@ -39,7 +62,10 @@ describe("ranking loops", () => {
     const ten = rankLoops(drives, { hour: 10, dayKind: "weekday", home })
     expect(ten.map((l) => l.loopId)).toEqual(["steady", "arterial"])
     expect(ten[0]).toMatchObject({ drives: 5, trusted: true, medianClearSeconds: 620 })
-    expect(rankLoops(drives, { hour: 17, dayKind: "weekday", home }).map((l) => l.loopId)).toEqual(["arterial", "steady"])
+    expect(rankLoops(drives, { hour: 17, dayKind: "weekday", home }).map((l) => l.loopId)).toEqual([
+      "arterial",
+      "steady",
+    ])
   })
 
   it("leaves out drives that never completed, started far from the shop, or fall on another kind of day", () => {
@@ -95,7 +121,10 @@ describe("ranking loops by hour and weekday", () => {
 describe("helpers", () => {
   it("matches a route to the loop it overlaps at least half", () => {
     expect(jaccard(["a", "b", "c"], ["b", "c", "d"])).toBe(0.5)
-    const loops = [{ id: "1", cells: ["a", "b", "c", "d"] }, { id: "2", cells: ["x", "y"] }]
+    const loops = [
+      { id: "1", cells: ["a", "b", "c", "d"] },
+      { id: "2", cells: ["x", "y"] },
+    ]
     expect(matchLoop(["a", "b", "c"], loops)?.id).toBe("1")
     expect(matchLoop(["a", "x", "q", "r"], loops)).toBeNull()
   })

@@ -16,7 +16,9 @@ const geolibM = (a: { lat: number; lon: number }, b: { lat: number; lon: number 
 
 describe("geodesic distance (Vincenty, WGS-84)", () => {
   it("matches the Geoscience Australia example Flinders Peak -> Buninyong, 54 972.271 m, to 1 mm", () => {
-    expect(Math.abs(geodesicDistanceM(FLINDERS_PEAK.lat, FLINDERS_PEAK.lon, BUNINYONG.lat, BUNINYONG.lon) - GA_DISTANCE_M)).toBeLessThan(0.001)
+    expect(
+      Math.abs(geodesicDistanceM(FLINDERS_PEAK.lat, FLINDERS_PEAK.lon, BUNINYONG.lat, BUNINYONG.lon) - GA_DISTANCE_M),
+    ).toBeLessThan(0.001)
     expect(Math.abs(geolibM(FLINDERS_PEAK, BUNINYONG) - GA_DISTANCE_M)).toBeLessThan(0.001)
   })
 

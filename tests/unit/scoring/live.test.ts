@@ -66,13 +66,21 @@ describe("predictMinutesLeft", () => {
     // 5 min qualifying in 10 min elapsed: rate 0.5, 5 min more needed -> 10 min
     // 1 min following in 10 min: rate 0.1, 1 min more needed -> 10 min
     const score = { qualifyingSecondsBeforeClear: 300, followingSecondsBeforeClear: 60, durationSeconds: 600 }
-    expect(predictMinutesLeft(score, profile)).toEqual({ qualifyingMinutesLeft: 10, followingMinutesLeft: 10, minutesLeft: 10 })
+    expect(predictMinutesLeft(score, profile)).toEqual({
+      qualifyingMinutesLeft: 10,
+      followingMinutesLeft: 10,
+      minutesLeft: 10,
+    })
     expect(predictMinutesLeft(score, profile, { elapsedSeconds: 1200 }).qualifyingMinutesLeft).toBe(20)
   })
 
   it("says 0 once met and null when nothing has counted yet", () => {
     const score = { qualifyingSecondsBeforeClear: 600, followingSecondsBeforeClear: 0, durationSeconds: 700 }
-    expect(predictMinutesLeft(score, profile)).toEqual({ qualifyingMinutesLeft: 0, followingMinutesLeft: null, minutesLeft: null })
+    expect(predictMinutesLeft(score, profile)).toEqual({
+      qualifyingMinutesLeft: 0,
+      followingMinutesLeft: null,
+      minutesLeft: null,
+    })
   })
 
   it("works from a live score", () => {

@@ -1,13 +1,21 @@
 import { readFileSync } from "node:fs"
 import path from "node:path"
 import { describe, expect, it } from "vitest"
-import { DEFAULT_ROAD_TEST_CHECKS, ROAD_TEST_SYSTEMS, mergeRoadTestChecks, parseAnyDriveFile, parseDriveFile, type DriveFile2 } from "@/lib/drive-file"
+import {
+  DEFAULT_ROAD_TEST_CHECKS,
+  ROAD_TEST_SYSTEMS,
+  mergeRoadTestChecks,
+  parseAnyDriveFile,
+  parseDriveFile,
+  type DriveFile2,
+} from "@/lib/drive-file"
 import { scoreDrive, worseVerdict } from "@/lib/scoring"
 import { generateDrive } from "@/lib/tracks"
 import { T0 } from "../helpers/drive"
 import { CHECKS, check, metRoadTest, roadTest } from "../helpers/road-test"
 
-const fixture = (name: string) => JSON.parse(readFileSync(path.join(__dirname, "../../fixtures/drive-files", name), "utf8"))
+const fixture = (name: string) =>
+  JSON.parse(readFileSync(path.join(__dirname, "../../fixtures/drive-files", name), "utf8"))
 const outcome = (file: DriveFile2, key: string) => scoreDrive(file).roadTest!.checks.find((c) => c.key === key)!
 
 // NIST SP 811: 1 mph = 0.44704 m/s exactly, so 20 m/s = 44.7 mph and 8 m/s = 17.9 mph.
@@ -22,7 +30,12 @@ describe("road-test verdict (lib/drive-file/FORMAT-2.md)", () => {
       ["lane-keeping-engages", "passed", 44.7],
       ["sign-display", "not_equipped", 44.7],
     ])
-    expect(score.conditions.find((c) => c.key === "road-test")).toMatchObject({ met: true, value: 2, required: 2, unit: "checks" })
+    expect(score.conditions.find((c) => c.key === "road-test")).toMatchObject({
+      met: true,
+      value: 2,
+      required: 2,
+      unit: "checks",
+    })
     // the learn's conditions say nothing about a road test
     expect(score.conditions.map((c) => c.key)).not.toContain("cleared")
   })
@@ -32,7 +45,9 @@ describe("road-test verdict (lib/drive-file/FORMAT-2.md)", () => {
     const score = scoreDrive(file)
     expect(score.verdict).toBe("unverified")
     expect(outcome(file, "lane-keeping-engages")).toMatchObject({ status: "below_speed", speedMph: 17.9, blocks: true })
-    expect(score.reasons).toEqual(['Road test: "Lane keeping engages" passed only at 17.9 mph; it counts at 40 mph or faster.'])
+    expect(score.reasons).toEqual([
+      'Road test: "Lane keeping engages" passed only at 17.9 mph; it counts at 40 mph or faster.',
+    ])
     // the same check passed again at speed counts
     const again = roadTest([...file.marks, check(55, "lane-keeping-engages", "pass")])
     expect(scoreDrive(again).verdict).toBe("met")
@@ -49,7 +64,10 @@ describe("road-test verdict (lib/drive-file/FORMAT-2.md)", () => {
 
   it("a where-equipped check marked not equipped does not count against it; a required one does", () => {
     expect(scoreDrive(metRoadTest()).verdict).toBe("met")
-    const requiredMissing = roadTest([check(30, "acc-engages", "pass"), check(50, "lane-keeping-engages", "not_equipped")])
+    const requiredMissing = roadTest([
+      check(30, "acc-engages", "pass"),
+      check(50, "lane-keeping-engages", "not_equipped"),
+    ])
     const score = scoreDrive(requiredMissing)
     expect(score.verdict).toBe("unverified")
     expect(score.reasons).toEqual(['Road test: "Lane keeping engages" is required but was marked not equipped.'])
@@ -73,7 +91,11 @@ describe("road-test verdict (lib/drive-file/FORMAT-2.md)", () => {
   })
 
   it("takes the speed at the mark from the track (rule 6); a pass where no position data shows the speed does not count", () => {
-    const file = roadTest([check(30, "acc-engages", "pass"), check(50, "lane-keeping-engages", "pass"), check(500, "acc-engages", "fail")])
+    const file = roadTest([
+      check(30, "acc-engages", "pass"),
+      check(50, "lane-keeping-engages", "pass"),
+      check(500, "acc-engages", "fail"),
+    ])
     // the fail after the track ends still counts: a failure needs no speed
     expect(scoreDrive(file).verdict).toBe("not_met")
     const late = roadTest([check(30, "acc-engages", "pass"), check(500, "lane-keeping-engages", "pass")])
@@ -81,7 +103,11 @@ describe("road-test verdict (lib/drive-file/FORMAT-2.md)", () => {
   })
 
   it("the latest counted result decides, in time order whatever the order in the file", () => {
-    const file = roadTest([check(90, "acc-engages", "pass"), check(50, "lane-keeping-engages", "pass"), check(40, "acc-engages", "fail")])
+    const file = roadTest([
+      check(90, "acc-engages", "pass"),
+      check(50, "lane-keeping-engages", "pass"),
+      check(40, "acc-engages", "fail"),
+    ])
     expect(scoreDrive(file).verdict).toBe("met")
   })
 
@@ -100,9 +126,17 @@ describe("road-test verdict (lib/drive-file/FORMAT-2.md)", () => {
     expect(scoreDrive(both("pass")).verdict).toBe("met")
     const failed = scoreDrive(both("fail"))
     expect(failed.verdict).toBe("not_met")
-    expect(failed.conditions.map((c) => c.key)).toEqual(expect.arrayContaining(["cleared", "qualifying-time", "road-test"]))
+    expect(failed.conditions.map((c) => c.key)).toEqual(
+      expect.arrayContaining(["cleared", "qualifying-time", "road-test"]),
+    )
     const short = generateDrive({ seed: 7, minutes: 16, pattern: "short" })
-    const shortBoth: DriveFile2 = { ...short, format: "straightaway.drive/2", kind: "learn_and_road_test", roadTest: { checks }, marks: [...short.marks, { t: short.samples[600]!.t, kind: "check", checkKey: "acc-engages", result: "pass" }] }
+    const shortBoth: DriveFile2 = {
+      ...short,
+      format: "straightaway.drive/2",
+      kind: "learn_and_road_test",
+      roadTest: { checks },
+      marks: [...short.marks, { t: short.samples[600]!.t, kind: "check", checkKey: "acc-engages", result: "pass" }],
+    }
     const s = scoreDrive(shortBoth)
     expect(s.verdict).toBe(scoreDrive(short).verdict)
     expect(s.reasons).toEqual(scoreDrive(short).reasons)
@@ -146,12 +180,20 @@ describe("version 1 beside version 2", () => {
   })
 
   it("refuses a check mark in a version 1 file and names both versions for an unknown format", () => {
-    const file = { format: "straightaway.drive/1", samples: [], marks: [{ t: T0, kind: "check", checkKey: "acc-engages", result: "pass" }] }
+    const file = {
+      format: "straightaway.drive/1",
+      samples: [],
+      marks: [{ t: T0, kind: "check", checkKey: "acc-engages", result: "pass" }],
+    }
     const r = parseAnyDriveFile(file)
     expect(r.ok).toBe(false)
     expect(r.ok ? "" : r.path).toBe("marks[0].kind")
     const u = parseAnyDriveFile({ format: "straightaway.drive/3", samples: [], marks: [] })
-    expect(u).toEqual({ ok: false, path: "format", message: 'must be "straightaway.drive/1" or "straightaway.drive/2"' })
+    expect(u).toEqual({
+      ok: false,
+      path: "format",
+      message: 'must be "straightaway.drive/1" or "straightaway.drive/2"',
+    })
   })
 
   it("refuses a check mark naming a check the file does not hold", () => {
@@ -170,9 +212,14 @@ describe("default road-test checks (common practice, no published source)", () =
       ["lane-departure-warning", "required"],
       ["sign-display", "where_equipped"],
     ])
-    expect(DEFAULT_ROAD_TEST_CHECKS.corner_radar.map((c) => c.key)).toEqual(["blind-spot-left", "blind-spot-right", "rear-cross-traffic"])
+    expect(DEFAULT_ROAD_TEST_CHECKS.corner_radar.map((c) => c.key)).toEqual([
+      "blind-spot-left",
+      "blind-spot-right",
+      "rear-cross-traffic",
+    ])
     expect(DEFAULT_ROAD_TEST_CHECKS.surround_camera.map((c) => c.minSpeedMph)).toEqual([null, null])
-    for (const system of ROAD_TEST_SYSTEMS) for (const c of DEFAULT_ROAD_TEST_CHECKS[system]) expect(c.system).toBe(system)
+    for (const system of ROAD_TEST_SYSTEMS)
+      for (const c of DEFAULT_ROAD_TEST_CHECKS[system]) expect(c.system).toBe(system)
   })
 
   it("merging the systems of one job keeps a shared key once", () => {

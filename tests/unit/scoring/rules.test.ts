@@ -319,7 +319,9 @@ describe("rule 8: verdicts", () => {
   })
 
   it("is short when qualifying time before the clear is too little, with minutes in the reason", () => {
-    const s = scoreDrive(drive(steady(60, FAST), [mark(0, "lead-on"), mark(27, "cleared"), mark(40, "verified")], profile))
+    const s = scoreDrive(
+      drive(steady(60, FAST), [mark(0, "lead-on"), mark(27, "cleared"), mark(40, "verified")], profile),
+    )
     expect(s.verdict).toBe("short")
     expect(s.reasons).toEqual(["Qualifying time (35 mph or faster) before the clear was 0.4 min; 0.5 min needed."])
   })
@@ -345,7 +347,9 @@ describe("rule 8: verdicts", () => {
   })
 
   it("reports every field of the Score", () => {
-    const s = scoreDrive(drive(steady(60, FAST), [mark(0, "lead-on"), mark(40, "cleared"), mark(50, "verified")], profile))
+    const s = scoreDrive(
+      drive(steady(60, FAST), [mark(0, "lead-on"), mark(40, "cleared"), mark(50, "verified")], profile),
+    )
     for (const key of [
       "verdict",
       "reasons",

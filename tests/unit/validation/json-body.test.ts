@@ -5,15 +5,18 @@ import { findUnstorableText } from "@/lib/validation/storable"
 function streamOf(chunks: string[]) {
   let pulled = 0
   let cancelled = false
-  const stream = new ReadableStream<Uint8Array>({
-    pull(controller) {
-      if (pulled < chunks.length) controller.enqueue(new TextEncoder().encode(chunks[pulled++]))
-      else controller.close()
+  const stream = new ReadableStream<Uint8Array>(
+    {
+      pull(controller) {
+        if (pulled < chunks.length) controller.enqueue(new TextEncoder().encode(chunks[pulled++]))
+        else controller.close()
+      },
+      cancel() {
+        cancelled = true
+      },
     },
-    cancel() {
-      cancelled = true
-    },
-  }, { highWaterMark: 0 })
+    { highWaterMark: 0 },
+  )
   return { stream, pulled: () => pulled, cancelled: () => cancelled }
 }
 
@@ -67,7 +70,10 @@ describe("jsonNestsDeeperThan", () => {
 
 describe("findUnstorableText", () => {
   it("names the path of the string refused", () => {
-    expect(findUnstorableText({ marks: [{ text: "ok" }, { text: "bad\u0000" }] })).toEqual({ path: "marks.1.text", problem: "must not contain the NUL character" })
+    expect(findUnstorableText({ marks: [{ text: "ok" }, { text: "bad\u0000" }] })).toEqual({
+      path: "marks.1.text",
+      problem: "must not contain the NUL character",
+    })
     expect(findUnstorableText({ a: { ["k\ud800"]: 1 } })?.path).toBe("a.(key)")
     expect(findUnstorableText("\ud800")?.path).toBe("(body)")
     expect(findUnstorableText({ a: [1, "fine", { b: null }] })).toBeNull()

@@ -66,7 +66,10 @@ export default async function MailPage() {
                       <li key={a.filename} className="flex items-start gap-1.5">
                         <Paperclip aria-hidden className="mt-0.5 size-4 shrink-0" />
                         <span className="min-w-0 break-all">
-                          {a.filename} <span className="text-graphite-600 dark:text-graphite-300">· {Math.max(1, Math.round(a.size / 1024))} KB</span>
+                          {a.filename}{" "}
+                          <span className="text-graphite-600 dark:text-graphite-300">
+                            · {Math.max(1, Math.round(a.size / 1024))} KB
+                          </span>
                         </span>
                       </li>
                     ))}

@@ -15,7 +15,13 @@ export default async function UsersPage() {
       <PageHeader title="People" description="Who can sign in to your shop, and what each of them may do." />
       <UserAdmin
         meId={me.id}
-        initialUsers={users.map((u) => ({ id: u.id, email: u.email, name: u.name, role: u.role, disabled: u.disabled }))}
+        initialUsers={users.map((u) => ({
+          id: u.id,
+          email: u.email,
+          name: u.name,
+          role: u.role,
+          disabled: u.disabled,
+        }))}
       />
     </>
   )

@@ -22,13 +22,20 @@ import { listRevisions } from "@/db/queries/revisions"
 import { CAUSE_TEXT } from "@/app/_server/revisions"
 import { canSeeDrive } from "@/lib/access/drive"
 import { hasRole } from "@/lib/auth/roles"
-import { DECISION_WORD, describeVehicle, roLabel, MARK_LABEL, METHOD_LABEL, REASON_LABEL, SENSOR_LABEL } from "@/lib/record"
+import {
+  DECISION_WORD,
+  describeVehicle,
+  roLabel,
+  MARK_LABEL,
+  METHOD_LABEL,
+  REASON_LABEL,
+  SENSOR_LABEL,
+} from "@/lib/record"
 import { downsampleTimeline } from "@/lib/record/downsample"
 import { isUuid } from "@/lib/validation/uuid"
 
 export const metadata: Metadata = { title: "Drive" }
 export const dynamic = "force-dynamic"
-
 
 export default async function DrivePage({ params }: { params: Promise<{ driveId: string }> }) {
   const me = await requirePageRole()
@@ -38,11 +45,20 @@ export default async function DrivePage({ params }: { params: Promise<{ driveId:
   const loaded = await loadRecordData(db, driveId, me.shopId, { photos: false })
   if (!loaded) notFound()
   const { head, data } = loaded
-  const facts = { shopId: head.shop_id, driverId: head.driver_id, coDriverId: head.co_driver_id, status: head.status, reviewStatus: head.review_status }
+  const facts = {
+    shopId: head.shop_id,
+    driverId: head.driver_id,
+    coDriverId: head.co_driver_id,
+    status: head.status,
+    reviewStatus: head.review_status,
+  }
   if (!canSeeDrive(me, facts)) notFound()
   const isLead = hasRole(me.role, ["shop_lead"])
   const title = head.ro_number ? roLabel(head.ro_number) : "Unplanned drive"
-  const vehicle = describeVehicle(head.vin ? { year: head.vehicle_year, make: head.vehicle_make, model: head.vehicle_model } : null, head.vehicle_description)
+  const vehicle = describeVehicle(
+    head.vin ? { year: head.vehicle_year, make: head.vehicle_make, model: head.vehicle_model } : null,
+    head.vehicle_description,
+  )
 
   if (!data) {
     return (
@@ -77,7 +93,11 @@ export default async function DrivePage({ params }: { params: Promise<{ driveId:
   }
   const chartMarks: ChartMark[] = data.marks
     .filter((m) => m.kind !== "gap" && m.kind !== "note")
-    .map((m) => ({ min: Math.round(((m.t - t0) / 60_000) * 100) / 100, label: MARK_LABEL[m.kind] ?? m.kind, kind: m.kind }))
+    .map((m) => ({
+      min: Math.round(((m.t - t0) / 60_000) * 100) / 100,
+      label: MARK_LABEL[m.kind] ?? m.kind,
+      kind: m.kind,
+    }))
   const profile = data.score.profile
 
   return (
@@ -87,7 +107,12 @@ export default async function DrivePage({ params }: { params: Promise<{ driveId:
         description={
           <>
             {vehicle}
-            {head.vin ? <> · VIN <span className="font-mono">{head.vin}</span></> : null}
+            {head.vin ? (
+              <>
+                {" "}
+                · VIN <span className="font-mono">{head.vin}</span>
+              </>
+            ) : null}
           </>
         }
       />
@@ -96,15 +121,22 @@ export default async function DrivePage({ params }: { params: Promise<{ driveId:
       <div className="flex flex-col gap-4 lg:grid lg:grid-cols-[3fr_2fr]">
         <div className="contents min-w-0 lg:block lg:space-y-4">
           <RecordSummary score={data.score} className="order-first" units={data.units} />
-          <p className="order-first flex items-start gap-2 text-sm text-graphite-700 dark:text-graphite-200" data-testid="score-caution">
+          <p
+            className="order-first flex items-start gap-2 text-sm text-graphite-700 dark:text-graphite-200"
+            data-testid="score-caution"
+          >
             <ShieldAlert aria-hidden className="mt-0.5 size-4 shrink-0 text-signal-700 dark:text-signal-300" />
-            The score describes how the drive went. Whether the calibration is done is what the vehicle itself reports, following the maker&apos;s procedure; the score never replaces that.
+            The score describes how the drive went. Whether the calibration is done is what the vehicle itself reports,
+            following the maker&apos;s procedure; the score never replaces that.
           </p>
           <CalibrationsSection calibrations={data.calibrations} />
           <Card>
             <h2 className="mb-2 text-lg font-semibold">Speed over time</h2>
             <SpeedChart
-              points={points.map((p) => ({ min: Math.round((p.tS / 60) * 1000) / 1000, mph: p.speedMph == null ? null : Math.round(p.speedMph * 10) / 10 }))}
+              points={points.map((p) => ({
+                min: Math.round((p.tS / 60) * 1000) / 1000,
+                mph: p.speedMph == null ? null : Math.round(p.speedMph * 10) / 10,
+              }))}
               minSpeedMph={profile?.minSpeedMph ?? 35}
               maxSpeedMph={profile?.maxSpeedMph ?? null}
               following={following}
@@ -124,13 +156,22 @@ export default async function DrivePage({ params }: { params: Promise<{ driveId:
           {head.job_id ? (
             <Card className="order-first flex flex-wrap items-center gap-2" data-testid="drive-job">
               {data.review?.decision === "redo" && head.task_id && me.role !== "co_driver" ? (
-                <Link className={buttonVariants({ variant: "primary" })} href={`/record?jobId=${head.job_id}&taskId=${head.task_id}`} data-testid="drive-again">
+                <Link
+                  className={buttonVariants({ variant: "primary" })}
+                  href={`/record?jobId=${head.job_id}&taskId=${head.task_id}`}
+                  data-testid="drive-again"
+                >
                   <RotateCcw aria-hidden className="size-5" /> Drive again
                 </Link>
               ) : null}
               {me.role !== "co_driver" ? (
-                <Link className={buttonVariants({ variant: "outline" })} href={`/jobs/${head.job_id}`} data-testid="drive-job-link">
-                  <Wrench aria-hidden className="size-5" /> Open the job{head.ro_number ? ` (${roLabel(head.ro_number)})` : ""}
+                <Link
+                  className={buttonVariants({ variant: "outline" })}
+                  href={`/jobs/${head.job_id}`}
+                  data-testid="drive-job-link"
+                >
+                  <Wrench aria-hidden className="size-5" /> Open the job
+                  {head.ro_number ? ` (${roLabel(head.ro_number)})` : ""}
                 </Link>
               ) : null}
             </Card>
@@ -163,7 +204,14 @@ export default async function DrivePage({ params }: { params: Promise<{ driveId:
           <Card>
             <h2 className="mb-2 text-lg font-semibold">Revisions of the record</h2>
             <RevisionHistory
-              revisions={revisions.map((r) => ({ revision: r.revision, causeText: CAUSE_TEXT[r.cause], verdict: r.verdict, createdAt: new Date(r.created_at).toISOString(), byName: r.by_name, code: r.code }))}
+              revisions={revisions.map((r) => ({
+                revision: r.revision,
+                causeText: CAUSE_TEXT[r.cause],
+                verdict: r.verdict,
+                createdAt: new Date(r.created_at).toISOString(),
+                byName: r.by_name,
+                code: r.code,
+              }))}
               finished={head.status === "finished"}
             />
           </Card>
@@ -204,7 +252,12 @@ export default async function DrivePage({ params }: { params: Promise<{ driveId:
                 {photos.map((p) => (
                   <a key={p.id} href={`/api/attachments/${p.id}`} target="_blank" rel="noopener" className="block">
                     {/* eslint-disable-next-line @next/next/no-img-element -- presigned object URLs, not optimisable */}
-                    <img src={`/api/attachments/${p.id}?variant=thumbnail`} alt={p.filename} loading="lazy" className="aspect-square w-full rounded-lg object-cover" />
+                    <img
+                      src={`/api/attachments/${p.id}?variant=thumbnail`}
+                      alt={p.filename}
+                      loading="lazy"
+                      className="aspect-square w-full rounded-lg object-cover"
+                    />
                   </a>
                 ))}
               </div>
@@ -214,7 +267,11 @@ export default async function DrivePage({ params }: { params: Promise<{ driveId:
             <h2 className="mb-2 text-lg font-semibold">Download the drive</h2>
             <div className="flex flex-wrap gap-2">
               {(["drive", "gpx", "csv"] as const).map((f) => (
-                <a key={f} className={buttonVariants({ variant: "outline", size: "sm" })} href={`/api/drives/${head.id}/file?format=${f}`}>
+                <a
+                  key={f}
+                  className={buttonVariants({ variant: "outline", size: "sm" })}
+                  href={`/api/drives/${head.id}/file?format=${f}`}
+                >
                   <Download aria-hidden className="size-4" /> {f === "drive" ? "Drive file" : f.toUpperCase()}
                 </a>
               ))}

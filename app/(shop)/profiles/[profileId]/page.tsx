@@ -19,7 +19,10 @@ export default async function ProfilePage({ params }: { params: Promise<{ profil
   const { profileId } = await params
   if (!isUuid(profileId)) notFound()
   const db = getDb()
-  const [detail, { units }] = await Promise.all([loadProfileDetail(db, profileId, user.shopId), findShopSettings(db, user.shopId)])
+  const [detail, { units }] = await Promise.all([
+    loadProfileDetail(db, profileId, user.shopId),
+    findShopSettings(db, user.shopId),
+  ])
   if (!detail) notFound()
   const { profile, versions } = detail
   return (
@@ -56,7 +59,10 @@ export default async function ProfilePage({ params }: { params: Promise<{ profil
                   {changed.length ? (
                     <ul className="text-sm">
                       {changed.map((f) => {
-                        const show = (n: number | null) => (n === null ? "none" : `${formatShown(toDisplay(f.kind, n, units), f.kind)} ${unitLabel(f.kind, units)}`)
+                        const show = (n: number | null) =>
+                          n === null
+                            ? "none"
+                            : `${formatShown(toDisplay(f.kind, n, units), f.kind)} ${unitLabel(f.kind, units)}`
                         return (
                           <li key={f.name}>
                             {f.label}: {show(f.get(older!.settings))} → {show(f.get(v.settings))}

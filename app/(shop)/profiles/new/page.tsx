@@ -14,7 +14,11 @@ export default async function NewProfilePage() {
   return (
     <div className="mx-auto max-w-3xl">
       <PageHeader title="New condition profile" description="Starts from the defaults; change what this learn needs." />
-      <ProfileEditor settings={{ ...DEFAULT_PROFILE, leadGapFt: { ...DEFAULT_PROFILE.leadGapFt } }} units={units} canEdit />
+      <ProfileEditor
+        settings={{ ...DEFAULT_PROFILE, leadGapFt: { ...DEFAULT_PROFILE.leadGapFt } }}
+        units={units}
+        canEdit
+      />
     </div>
   )
 }

@@ -28,7 +28,13 @@ export const POST = route(async (req) => {
   const result = await db.transaction().execute(async (trx) => {
     await insertDrive(trx, { ...values, source: "import" })
     await insertSamples(trx, id, user.shopId, file.samples)
-    await insertMarks(trx, id, user.shopId, file.marks.map((m) => ({ ...m, id: randomUUID() })), user.id)
+    await insertMarks(
+      trx,
+      id,
+      user.shopId,
+      file.marks.map((m) => ({ ...m, id: randomUUID() })),
+      user.id,
+    )
     const drive = (await findDriveInShop(trx, id, user.shopId))!
     const finished = await finishAndScore(trx, drive)
     return { ...finished, mails: await noticeDriveWaiting(trx, finished.drive, finished.score) }

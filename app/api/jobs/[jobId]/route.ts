@@ -48,9 +48,16 @@ export const PATCH = route<{ jobId: string }>(async (req, { params }) => {
   try {
     await db.transaction().execute(async (trx) => {
       const vehicle = changes.vehicle
-        ? await upsertVehicleByVin(trx, user.shopId, { ...changes.vehicle, year: changes.vehicle.year ?? decodeModelYear(changes.vehicle.vin) })
+        ? await upsertVehicleByVin(trx, user.shopId, {
+            ...changes.vehicle,
+            year: changes.vehicle.year ?? decodeModelYear(changes.vehicle.vin),
+          })
         : undefined
-      await updateJobFields(trx, jobId, user.shopId, { roNumber: changes.roNumber, customer: changes.customer, vehicleId: vehicle?.id })
+      await updateJobFields(trx, jobId, user.shopId, {
+        roNumber: changes.roNumber,
+        customer: changes.customer,
+        vehicleId: vehicle?.id,
+      })
       if (changes.tasks) await replaceTasks(trx, jobId, user.shopId, changes.tasks)
     })
   } catch (error) {
@@ -63,7 +70,12 @@ export const PATCH = route<{ jobId: string }>(async (req, { params }) => {
 type TaskInput = NonNullable<z.output<typeof jobChangeSchema>["tasks"]>
 
 /** Tasks keep their id; a missing one is removed unless a drive was made for it; a task without an id is new. */
-async function replaceTasks(trx: Parameters<typeof listTasksForJob>[0], jobId: string, shopId: string, tasks: TaskInput) {
+async function replaceTasks(
+  trx: Parameters<typeof listTasksForJob>[0],
+  jobId: string,
+  shopId: string,
+  tasks: TaskInput,
+) {
   const existing = await listTasksForJob(trx, jobId, shopId)
   const fields: Record<string, string> = {}
   tasks.forEach((t, i) => {
@@ -75,9 +87,16 @@ async function replaceTasks(trx: Parameters<typeof listTasksForJob>[0], jobId: s
     throw new AppError("conflict", "A calibration that has a drive cannot be removed from the job.")
   }
   // An existing task keeps its profile unless one is named; a new task gets the default like at intake.
-  const keep = tasks.map((t) => (t.id && t.profileId === undefined ? { ...t, profileId: existing.find((e) => e.id === t.id)!.profile_id } : t))
+  const keep = tasks.map((t) =>
+    t.id && t.profileId === undefined ? { ...t, profileId: existing.find((e) => e.id === t.id)!.profile_id } : t,
+  )
   const rows = await resolveTaskRows(trx, shopId, keep)
   await deleteTasks(trx, removed, jobId, shopId)
   await Promise.all(tasks.map((t, i) => (t.id ? updateTask(trx, t.id, jobId, shopId, rows[i]!) : null)))
-  await insertTasks(trx, shopId, jobId, rows.filter((_, i) => !tasks[i]!.id))
+  await insertTasks(
+    trx,
+    shopId,
+    jobId,
+    rows.filter((_, i) => !tasks[i]!.id),
+  )
 }

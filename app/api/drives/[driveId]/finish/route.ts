@@ -18,7 +18,10 @@ export const POST = route<{ driveId: string }>(async (_req, ctx) => {
     const finished = await finishAndScore(trx, drive, user.id)
     await publishDriveEvent(trx, finished.drive, "status", statusBody(finished.drive)) // every screen on the drive hears of it
     // The first finish may put the drive in the review queue: tell the leads (finishing again only scores again).
-    return { ...finished, mails: drive.status === "recording" ? await noticeDriveWaiting(trx, finished.drive, finished.score) : [] }
+    return {
+      ...finished,
+      mails: drive.status === "recording" ? await noticeDriveWaiting(trx, finished.drive, finished.score) : [],
+    }
   })
   sendFollowUp(result.followUp)
   await sendReviewMails(result.mails)

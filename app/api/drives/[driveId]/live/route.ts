@@ -6,7 +6,10 @@ import { driveForRoute } from "../../_service"
 
 export const dynamic = "force-dynamic"
 
-const eventId = z.string().regex(/^\d{1,15}$/, { error: "must be an event id (a whole number, 0 for all)" }).transform(Number)
+const eventId = z
+  .string()
+  .regex(/^\d{1,15}$/, { error: "must be an event id (a whole number, 0 for all)" })
+  .transform(Number)
 const query = z.object({ after: eventId.optional() })
 
 /**
@@ -20,11 +23,15 @@ export const GET = route<{ driveId: string }>(async (req, ctx) => {
   const resumeRaw = req.headers.get("last-event-id") ?? url.searchParams.get("lastEventId")
   url.searchParams.delete("lastEventId")
   const { after } = parseQuery(new Request(url), query)
-  if (after !== undefined) return Response.json(await livePoll(db, drive, after), { headers: { "cache-control": "no-store" } })
+  if (after !== undefined)
+    return Response.json(await livePoll(db, drive, after), { headers: { "cache-control": "no-store" } })
   let lastEventId: number | null = null
   if (resumeRaw !== null && resumeRaw !== "") {
     const parsed = eventId.safeParse(resumeRaw)
-    if (!parsed.success) throw new AppError("validation_failed", "Last-Event-ID: must be an event id (a whole number)", { "Last-Event-ID": "must be an event id (a whole number)" })
+    if (!parsed.success)
+      throw new AppError("validation_failed", "Last-Event-ID: must be an event id (a whole number)", {
+        "Last-Event-ID": "must be an event id (a whole number)",
+      })
     lastEventId = parsed.data
   }
   return liveStream(req, drive, lastEventId)

@@ -17,6 +17,12 @@ export const POST = route<{ driveId: string }>(async (req, ctx) => {
   const { drive: reviewed, review } = await decideReview(db, drive, user, input)
   return Response.json({
     drive: driveJson(reviewed),
-    review: { id: review.id, decision: review.decision, note: review.note, reviewerId: review.reviewer_id, createdAt: review.created_at },
+    review: {
+      id: review.id,
+      decision: review.decision,
+      note: review.note,
+      reviewerId: review.reviewer_id,
+      createdAt: review.created_at,
+    },
   })
 })

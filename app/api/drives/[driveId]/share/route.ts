@@ -24,9 +24,17 @@ export const POST = route<{ driveId: string }>(async (req, ctx) => {
   const token = signShareToken(env().APP_SECRET, drive.id, expiresAtMs, drive.share_epoch)
   // The revision the link was made at, so the page can say when the record was revised after it.
   const latest = await sealCurrentRecord(getDb(), drive.id, user.shopId)
-  await insertShareLink(getDb(), { tokenSha256: sha256Hex(token), shopId: user.shopId, driveId: drive.id, revision: latest?.revision ?? 0 })
+  await insertShareLink(getDb(), {
+    tokenSha256: sha256Hex(token),
+    shopId: user.shopId,
+    driveId: drive.id,
+    revision: latest?.revision ?? 0,
+  })
   const url = `${env().APP_URL.replace(/\/$/, "")}/share/${token}`
-  return Response.json({ url, token, expiresAt: new Date(Math.floor(expiresAtMs / 1000) * 1000).toISOString() }, { status: 201 })
+  return Response.json(
+    { url, token, expiresAt: new Date(Math.floor(expiresAtMs / 1000) * 1000).toISOString() },
+    { status: 201 },
+  )
 })
 
 /** Withdraws every link made so far for the drive (a link sent to the wrong person, say); new links work again. */

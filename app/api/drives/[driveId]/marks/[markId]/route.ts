@@ -13,7 +13,8 @@ export const DELETE = route<{ driveId: string; markId: string }>(async (_req, ct
   const { driveId, markId } = await parseParams(ctx.params, params)
   const followUp = await db.transaction().execute(async (trx) => {
     const drive = await lockDriveFor(trx, driveId, user)
-    if (await deleteMarkNotifying(trx, drive.id, user.shopId, markId)) return rescoreFinishedDrive(trx, drive, "mark_removed", user.id)
+    if (await deleteMarkNotifying(trx, drive.id, user.shopId, markId))
+      return rescoreFinishedDrive(trx, drive, "mark_removed", user.id)
   })
   noteMarkRemoved(driveId)
   sendFollowUp(followUp)
