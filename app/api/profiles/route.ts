@@ -36,19 +36,17 @@ export const POST = route(async (req) => {
     })
   if (await findProfileByKey(db, key, user.shopId)) throw taken()
   try {
-    const id = await db
-      .transaction()
-      .execute((trx) =>
-        insertProfile(trx, {
-          shopId: user.shopId,
-          key,
-          name: input.name,
-          sensor: input.sensor ?? null,
-          settings: resolveProfile(input.settings),
-          userId: user.id,
-          roadTestChecks: input.roadTestChecks,
-        }),
-      )
+    const id = await db.transaction().execute((trx) =>
+      insertProfile(trx, {
+        shopId: user.shopId,
+        key,
+        name: input.name,
+        sensor: input.sensor ?? null,
+        settings: resolveProfile(input.settings),
+        userId: user.id,
+        roadTestChecks: input.roadTestChecks,
+      }),
+    )
     return Response.json(await loadProfileDetail(db, id, user.shopId), { status: 201 })
   } catch (error) {
     if (isDuplicateProfileKey(error)) throw taken()
