@@ -11,6 +11,11 @@ import { DEFAULT_TIME_ZONE, formatDateTime } from "@/lib/format"
 export const metadata: Metadata = { title: "Settings" }
 export const dynamic = "force-dynamic"
 
+/** The time of this request in the shop's zone: a server component renders once per request. */
+function requestTimeIn(timeZone: string): string {
+  return formatDateTime(Date.now(), timeZone, { zoneName: true })
+}
+
 export default async function SettingsPage() {
   const me = await requirePageRole("shop_lead")
   const db = getDb()
@@ -38,13 +43,11 @@ export default async function SettingsPage() {
           Every page, drive record and e-mail writes numbers and times this way. Without a choice the shop reads US
           customary units in {DEFAULT_TIME_ZONE.replace("_", " ")} time.
         </p>
-        {/* A server component renders once per request: reading the clock here is the request's time. */}
-        {/* eslint-disable-next-line react-hooks/purity */}
         <ShopFormatForm
           initial={{ units: settings.units, timeZone: settings.timeZone }}
           zones={zones}
           canEdit={me.role === "admin"}
-          serverNow={formatDateTime(Date.now(), settings.timeZone, { zoneName: true })}
+          serverNow={requestTimeIn(settings.timeZone)}
         />
       </Card>
       <Card className="space-y-2">
