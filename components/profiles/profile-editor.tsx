@@ -40,7 +40,7 @@ export function ProfileEditor({
   const router = useRouter()
   const [problem, setProblem] = useState<string | null>(null)
   const [done, setDone] = useState<string | null>(null)
-  const [checkDrafts, setCheckDrafts] = useState(() => toDrafts(roadTestChecks ?? []))
+  const [checkDrafts, setCheckDrafts] = useState(() => toDrafts(roadTestChecks ?? [], units))
   const [checkErrors, setCheckErrors] = useState<Record<string, string>>({})
   const shown = Object.fromEntries(
     PROFILE_FIELDS.map((f) => {
@@ -85,7 +85,7 @@ export function ProfileEditor({
     }
     let checks: RoadTestCheck[] | undefined
     if (roadTestChecks) {
-      const c = roadTestChecksSchema.safeParse(fromDrafts(checkDrafts))
+      const c = roadTestChecksSchema.safeParse(fromDrafts(checkDrafts, units))
       setCheckErrors(
         c.success
           ? {}
@@ -165,6 +165,7 @@ export function ProfileEditor({
           sensor={profile?.sensor ?? null}
           canEdit={canEdit}
           errors={checkErrors}
+          units={units}
         />
       ) : (
         <p className="text-sm text-graphite-600 dark:text-graphite-300">

@@ -1,7 +1,7 @@
 // Profile keys as the shop reads them: mph/ft or km/h/m. Stored values are always the drive file's own units
 // (mph, ft, minutes, m/s², s, m); conversions are exact (lib/units.ts, NIST SP 811).
 import type { ResolvedProfile } from "@/lib/drive-file"
-import { ftToM, mphToMps, mpsToKmh, mpsToMph, kmhToMps, mToFt } from "@/lib/units"
+import { ftToM, mphToMps, mpsToKmh, mpsToMph, kmhToMps, mToFt, STANDARD_GRAVITY_MPS2 } from "@/lib/units"
 
 export type Units = "imperial" | "metric"
 export type FieldKind = "speed" | "distance" | "minutes" | "accel" | "seconds" | "accuracy"
@@ -71,7 +71,7 @@ export const PROFILE_FIELDS: ProfileField[] = [
     label: "Harsh acceleration above",
     kind: "accel",
     get: (p) => p.maxAccelMps2,
-    hint: "Speeding up harder is reported (0.1 g is 0.98 m/s²).",
+    hint: "Speeding up harder is reported. In g: 0.1 g is 0.98 m/s² (standard gravity 9.80665 m/s²).",
   },
   {
     name: "maxDecelMps2",
@@ -113,7 +113,7 @@ export function unitLabel(kind: FieldKind, units: Units) {
     case "minutes":
       return "min"
     case "accel":
-      return "m/s²"
+      return "g"
     case "seconds":
       return "s"
   }
@@ -124,6 +124,7 @@ export function toDisplay(kind: FieldKind, stored: number, units: Units): number
   if (kind === "speed" && units === "metric") return mpsToKmh(mphToMps(stored))
   if (kind === "distance" && units === "metric") return ftToM(stored)
   if (kind === "accuracy" && units === "imperial") return mToFt(stored)
+  if (kind === "accel") return stored / STANDARD_GRAVITY_MPS2
   return stored
 }
 
@@ -132,15 +133,16 @@ export function fromDisplay(kind: FieldKind, shown: number, units: Units): numbe
   if (kind === "speed" && units === "metric") return mpsToMph(kmhToMps(shown))
   if (kind === "distance" && units === "metric") return mToFt(shown)
   if (kind === "accuracy" && units === "imperial") return ftToM(shown)
+  if (kind === "accel") return shown * STANDARD_GRAVITY_MPS2
   return shown
 }
 
 /**
  * The number as people read it: converted speeds and lengths to whole units (30 m reads 98 ft, not 98.43),
- * times and accelerations as kept. An unchanged field saves the stored value, so rounding here never drifts it.
+ * times as kept, accelerations in g to two decimals. An unchanged field saves the stored value, so rounding here never drifts it.
  */
 export function formatShown(n: number, kind?: FieldKind) {
-  const digits = kind === "speed" || kind === "distance" || kind === "accuracy" ? 0 : kind === "accel" ? 1 : 2
+  const digits = kind === "speed" || kind === "distance" || kind === "accuracy" ? 0 : 2
   const f = 10 ** digits
   return String(Math.round(n * f) / f)
 }

@@ -6,18 +6,34 @@ import { Card } from "@/components/ui/card"
 import { Field, Input, Select, Textarea } from "@/components/ui/field"
 import type { RoadTestCheck } from "@/lib/drive-file"
 import { SENSOR_LABEL } from "@/lib/labels"
+import { formatShown, fromDisplay, toDisplay, unitLabel, type Units } from "./profile-fields"
 
-/** A check as typed: the minimum speed as text so a half-typed number stays in the box. */
-export type CheckDraft = Omit<RoadTestCheck, "minSpeedMph"> & { minSpeedText: string }
+/**
+ * A check as typed: the minimum speed as text in the shop's units (mph or km/h) so a half-typed number stays in the
+ * box; an unchanged box saves the stored mph, so converting for display never drifts it.
+ */
+export type CheckDraft = Omit<RoadTestCheck, "minSpeedMph"> & {
+  minSpeedText: string
+  shownSpeedText: string
+  storedMph: number | null
+}
 
-export const toDrafts = (checks: readonly RoadTestCheck[]): CheckDraft[] =>
-  checks.map(({ minSpeedMph, ...c }) => ({ ...c, minSpeedText: minSpeedMph === null ? "" : String(minSpeedMph) }))
+export const toDrafts = (checks: readonly RoadTestCheck[], units: Units): CheckDraft[] =>
+  checks.map(({ minSpeedMph, ...c }) => {
+    const text = minSpeedMph === null ? "" : formatShown(toDisplay("speed", minSpeedMph, units), "speed")
+    return { ...c, minSpeedText: text, shownSpeedText: text, storedMph: minSpeedMph }
+  })
 
-export const fromDrafts = (drafts: readonly CheckDraft[]): RoadTestCheck[] =>
-  drafts.map(({ minSpeedText, ...c }) => ({
+export const fromDrafts = (drafts: readonly CheckDraft[], units: Units): RoadTestCheck[] =>
+  drafts.map(({ minSpeedText, shownSpeedText, storedMph, ...c }) => ({
     ...c,
     label: c.label.trim(),
-    minSpeedMph: minSpeedText.trim() === "" ? null : Number(minSpeedText),
+    minSpeedMph:
+      minSpeedText === shownSpeedText
+        ? storedMph
+        : minSpeedText.trim() === ""
+          ? null
+          : fromDisplay("speed", Number(minSpeedText), units),
   }))
 
 function keyFromLabel(label: string, taken: Set<string>): string {
@@ -42,12 +58,14 @@ export function RoadTestChecksEditor({
   sensor,
   canEdit,
   errors,
+  units,
 }: {
   drafts: CheckDraft[]
   onChange: (next: CheckDraft[]) => void
   sensor: string | null
   canEdit: boolean
   errors: Record<string, string>
+  units: Units
 }) {
   const update = (i: number, patch: Partial<CheckDraft>) =>
     onChange(drafts.map((d, j) => (j === i ? { ...d, ...patch } : d)))
@@ -60,6 +78,8 @@ export function RoadTestChecksEditor({
         system: (sensor as RoadTestCheck["system"]) ?? "other",
         label,
         minSpeedText: "",
+        shownSpeedText: "",
+        storedMph: null,
         need: "required",
       },
     ])
@@ -103,7 +123,7 @@ export function RoadTestChecksEditor({
               </Field>
             </div>
             <Field
-              label="Minimum speed (mph)"
+              label={`Minimum speed (${unitLabel("speed", units)})`}
               htmlFor={`rtc-speed-${i}`}
               error={errors[`roadTestChecks.${i}.minSpeedMph`]}
             >
