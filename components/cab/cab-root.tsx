@@ -49,7 +49,9 @@ export function CabRoot({ children }: { children: ReactNode }) {
   const toggle = () => chooseSun(!sun)
   return (
     <div
-      className={`dark min-h-dvh bg-asphalt-900 text-graphite-50${sun ? "sun" : ""}`}
+      className={
+        sun ? "dark sun min-h-dvh bg-asphalt-900 text-graphite-50" : "dark min-h-dvh bg-asphalt-900 text-graphite-50"
+      }
       data-theme={sun ? "sun" : "cab"}
       data-testid="cab-root"
     >

@@ -8,6 +8,9 @@ import { getActiveDrive } from "@/lib/recorder/idb-outbox"
 /** Pages the recorder needs with no network, fetched into the worker's cache once signed in. */
 const WARM_URLS = ["/record", "/drives"]
 
+/** How long the worker may take to answer one request to save the pages (it fetches them first). */
+const WARM_ANSWER_MS = 10_000
+
 /** Pages where nobody is signed in yet: warming there would only save the sign-in redirect. */
 const SIGNED_OUT_PATHS = /^\/(sign-in|share)(\/|$)/
 
@@ -31,8 +34,10 @@ export function ServiceWorkerRegistration() {
         if (gone) return
         const workbox = new Workbox("/sw.js", { scope: "/" })
         workbox.addEventListener("waiting", () => setWaiting(true))
-        void workbox.register()
-        setWb(workbox)
+        // Messages go out only once the registration exists (an earlier one could reach no worker at all).
+        void workbox.register().then(() => {
+          if (!gone) setWb(workbox)
+        })
       })
     const whenIdle = () =>
       "requestIdleCallback" in window ? requestIdleCallback(register, { timeout: 2000 }) : setTimeout(register, 200)
@@ -46,23 +51,32 @@ export function ServiceWorkerRegistration() {
 
   // Once signed in (any page but sign-in and share, including after a client-side move from sign-in), the worker
   // saves the recorder pages, this very /record… page among them; "ready for offline" (data-offline-ready on <html>)
-  // only when it answers that /record is saved. Asked again on each move until it is.
+  // only when it answers that /record is saved. An answer that is lost, late or without /record (a worker still
+  // installing, a failed fetch) is asked again with a growing pause, and again on each move, until it is saved.
   useEffect(() => {
     if (!wb || !pathname || SIGNED_OUT_PATHS.test(pathname)) return
     const ownRecorderPage = pathname.startsWith("/record/")
     if (offlineReady && !ownRecorderPage) return
     const urls = ownRecorderPage ? [...WARM_URLS, pathname] : WARM_URLS
     let cancelled = false
-    void wb
-      .messageSW({ type: "WARM", urls })
-      .then((answer: { saved?: string[] } | undefined) => {
-        if (cancelled || !answer?.saved?.includes("/record")) return
+    let timer: ReturnType<typeof setTimeout> | undefined
+    const ask = async (attempt: number) => {
+      const answer = await Promise.race([
+        wb.messageSW({ type: "WARM", urls }) as Promise<{ saved?: string[] } | undefined>,
+        new Promise<undefined>((resolve) => setTimeout(resolve, WARM_ANSWER_MS)),
+      ]).catch(() => undefined)
+      if (cancelled) return
+      if (answer?.saved?.includes("/record")) {
         document.documentElement.dataset.offlineReady = "1"
         setOfflineReady(true)
-      })
-      .catch(() => {})
+        return
+      }
+      timer = setTimeout(() => void ask(attempt + 1), Math.min(1000 * 2 ** attempt, 15_000))
+    }
+    void ask(0)
     return () => {
       cancelled = true
+      if (timer) clearTimeout(timer)
     }
   }, [wb, pathname, offlineReady])
 
