@@ -1,18 +1,49 @@
 import "server-only"
-import type { Db } from "@/db/client"
+// The review workflows: the lead's queue of drives that need a look, and the decision on one of them.
+import { getReadDb, type Db } from "@/db/client"
 import { findJobTaskDrives, setJobStatus } from "@/db/queries/drives"
 import { findDriveForUpdate } from "@/db/queries/drive-locks"
 import { findScore } from "@/db/queries/scores"
 import { insertNotification } from "@/db/queries/notifications"
-import { findDriveRecordHead, findShopPerson, insertReviewDecision } from "@/db/queries/reviews"
+import { findDriveRecordHead, findShopPerson, insertReviewDecision, listReviewQueue } from "@/db/queries/reviews"
 import type { Drive } from "@/db/types"
 import { jobStatusFromDrives } from "@/lib/access/drive"
+import type { SessionUser } from "@/lib/auth/lucia"
 import { AppError } from "@/lib/errors"
 import { describeVehicle, roLabel } from "@/lib/record"
+import { parseDriveCursor } from "@/lib/validation/drive"
 import type { ReviewInput } from "@/lib/validation/review"
 import { env } from "@/lib/env"
-import { sendMailQuietly } from "./mail"
-import { sealRevision } from "./revisions"
+import { sendMailQuietly } from "@/app/_server/mail"
+import { sealRevision } from "@/app/_server/revisions"
+
+/** One page of the drives that wait for the lead's decision, oldest finish first. */
+export async function reviewQueuePage(user: SessionUser, cursor: string | undefined) {
+  const after = parseDriveCursor(cursor)
+  if (after === null)
+    throw new AppError("validation_failed", "cursor: is not one this server gave out", { cursor: "is invalid" })
+  const { rows, nextCursor } = await listReviewQueue(getReadDb(), user.shopId, after)
+  const drives = rows.map((r) => {
+    const score = r.result as { reasons?: string[]; harshEvents?: { accel: number; decel: number } }
+    return {
+      id: r.id,
+      jobId: r.job_id,
+      taskId: r.task_id,
+      roNumber: r.ro_number,
+      vehicleDescription: r.vehicle_description,
+      vehicle:
+        r.vehicle_make || r.vehicle_model
+          ? { year: r.vehicle_year, make: r.vehicle_make, model: r.vehicle_model }
+          : null,
+      verdict: r.verdict,
+      reasons: score.reasons ?? [],
+      harshEvents: score.harshEvents ?? { accel: 0, decel: 0 },
+      driverName: r.driver_name,
+      finishedAt: r.finished_at,
+    }
+  })
+  return { drives, nextCursor }
+}
 
 /**
  * The lead's decision: close the review, move the job (redo reopens it; approve completes it once every

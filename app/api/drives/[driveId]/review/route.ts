@@ -1,6 +1,6 @@
 import { z } from "zod"
 import { requireRole } from "@/app/_server/auth"
-import { decideReview } from "@/app/_server/review"
+import { decideReview } from "@/app/_server/services/review"
 import { parseJson, parseParams, route, uuidParam } from "@/app/_server/route"
 import { getDb } from "@/db/client"
 import { reviewSchema } from "@/lib/validation/review"
