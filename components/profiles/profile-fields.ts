@@ -7,6 +7,7 @@ export type Units = "imperial" | "metric"
 export type FieldKind = "speed" | "distance" | "minutes" | "accel" | "seconds" | "accuracy"
 
 export type ProfileField = {
+  /** The key's path in the profile, dotted for nested keys. */
   name: string
   label: string
   kind: FieldKind
@@ -15,93 +16,48 @@ export type ProfileField = {
   hint: string
 }
 
-export const PROFILE_FIELDS: ProfileField[] = [
-  {
-    name: "minSpeedMph",
-    label: "Slowest qualifying speed",
-    kind: "speed",
-    get: (p) => p.minSpeedMph,
-    hint: "Slower driving does not count.",
-  },
-  {
-    name: "maxSpeedMph",
-    label: "Fastest qualifying speed",
-    kind: "speed",
-    nullable: true,
-    get: (p) => p.maxSpeedMph,
-    hint: "Blank: no upper limit.",
-  },
-  {
-    name: "leadGapFt.min",
-    label: "Closest following gap",
-    kind: "distance",
-    get: (p) => p.leadGapFt.min,
-    hint: "Behind a lead vehicle.",
-  },
-  {
-    name: "leadGapFt.max",
-    label: "Farthest following gap",
-    kind: "distance",
-    get: (p) => p.leadGapFt.max,
-    hint: "Behind a lead vehicle.",
-  },
-  {
-    name: "minQualifyingMinutes",
-    label: "Qualifying time needed",
-    kind: "minutes",
-    get: (p) => p.minQualifyingMinutes,
-    hint: "Before the vehicle reports the learn complete.",
-  },
-  {
-    name: "minFollowingMinutes",
-    label: "Following time needed",
-    kind: "minutes",
-    get: (p) => p.minFollowingMinutes,
-    hint: "0 when the learn needs no lead vehicle.",
-  },
-  {
-    name: "maxDriveMinutes",
-    label: "Drive times out after",
-    kind: "minutes",
-    get: (p) => p.maxDriveMinutes,
-    hint: "Without a learn-complete mark.",
-  },
-  {
-    name: "maxAccelMps2",
-    label: "Harsh acceleration above",
-    kind: "accel",
-    get: (p) => p.maxAccelMps2,
-    hint: "Speeding up harder is reported. In g: 0.1 g is 0.98 m/s² (standard gravity 9.80665 m/s²).",
-  },
-  {
-    name: "maxDecelMps2",
-    label: "Harsh braking above",
-    kind: "accel",
-    get: (p) => p.maxDecelMps2,
-    hint: "Braking harder is reported.",
-  },
-  {
-    name: "maxGapSeconds",
-    label: "Longest pause between samples",
-    kind: "seconds",
-    get: (p) => p.maxGapSeconds,
-    hint: "Longer counts as a data gap.",
-  },
-  {
-    name: "maxAccuracyM",
-    label: "Loosest position fix kept",
-    kind: "accuracy",
-    get: (p) => p.maxAccuracyM,
-    hint: "The phone's stated accuracy; looser fixes are dropped.",
-  },
-  {
-    name: "verifySpeedMph",
-    label: "Slowest speed for a verified mark",
-    kind: "speed",
-    get: (p) => p.verifySpeedMph,
-    hint: "The function seen working at this speed or faster.",
-  },
+type FieldRow = [name: string, label: string, kind: FieldKind, hint: string, nullable?: true]
+
+const FIELD_ROWS: FieldRow[] = [
+  ["minSpeedMph", "Slowest qualifying speed", "speed", "Slower driving does not count."],
+  ["maxSpeedMph", "Fastest qualifying speed", "speed", "Blank: no upper limit.", true],
+  ["leadGapFt.min", "Closest following gap", "distance", "Behind a lead vehicle."],
+  ["leadGapFt.max", "Farthest following gap", "distance", "Behind a lead vehicle."],
+  ["minQualifyingMinutes", "Qualifying time needed", "minutes", "Before the vehicle reports the learn complete."],
+  ["minFollowingMinutes", "Following time needed", "minutes", "0 when the learn needs no lead vehicle."],
+  ["maxDriveMinutes", "Drive times out after", "minutes", "Without a learn-complete mark."],
+  [
+    "maxAccelMps2",
+    "Harsh acceleration above",
+    "accel",
+    "Speeding up harder is reported. In g: 0.1 g is 0.98 m/s² (standard gravity 9.80665 m/s²).",
+  ],
+  ["maxDecelMps2", "Harsh braking above", "accel", "Braking harder is reported."],
+  ["maxGapSeconds", "Longest pause between samples", "seconds", "Longer counts as a data gap."],
+  ["maxAccuracyM", "Loosest position fix kept", "accuracy", "The phone's stated accuracy; looser fixes are dropped."],
+  [
+    "verifySpeedMph",
+    "Slowest speed for a verified mark",
+    "speed",
+    "The function seen working at this speed or faster.",
+  ],
 ]
+
+/** The value at a dotted path of the profile (`leadGapFt.min`). */
+function valueAt(profile: ResolvedProfile, path: string): number | null {
+  let value: unknown = profile
+  for (const key of path.split(".")) value = (value as Record<string, unknown>)[key]
+  return value as number | null
+}
+
+export const PROFILE_FIELDS: ProfileField[] = FIELD_ROWS.map(([name, label, kind, hint, nullable]) => ({
+  name,
+  label,
+  kind,
+  hint,
+  ...(nullable ? { nullable } : {}),
+  get: (p) => valueAt(p, name),
+}))
 
 export function unitLabel(kind: FieldKind, units: Units) {
   switch (kind) {

@@ -2,29 +2,24 @@ import { sql } from "kysely"
 import { isOutOfTolerance, type SetupInput, type SetupMeasurement } from "@/lib/setup"
 import type { Db } from "../client"
 
-export function findSetupRecord(db: Db, taskId: string, shopId: string) {
+/** The shop's set-up records with the names of who last changed and who overrode them. */
+function setupRecords(db: Db, shopId: string) {
   return db
     .selectFrom("setup_record as s")
     .leftJoin("app_user as o", (j) => j.onRef("o.id", "=", "s.override_by").on("o.shop_id", "=", shopId))
     .leftJoin("app_user as u", (j) => j.onRef("u.id", "=", "s.updated_by").on("u.shop_id", "=", shopId))
     .selectAll("s")
     .select(["o.name as override_by_name", "u.name as updated_by_name"])
-    .where("s.task_id", "=", taskId)
     .where("s.shop_id", "=", shopId)
-    .executeTakeFirst()
+}
+
+export function findSetupRecord(db: Db, taskId: string, shopId: string) {
+  return setupRecords(db, shopId).where("s.task_id", "=", taskId).executeTakeFirst()
 }
 export type SetupRow = NonNullable<Awaited<ReturnType<typeof findSetupRecord>>>
 
 export function listSetupRecordsForJob(db: Db, jobId: string, shopId: string) {
-  return db
-    .selectFrom("setup_record as s")
-    .leftJoin("app_user as o", (j) => j.onRef("o.id", "=", "s.override_by").on("o.shop_id", "=", shopId))
-    .leftJoin("app_user as u", (j) => j.onRef("u.id", "=", "s.updated_by").on("u.shop_id", "=", shopId))
-    .selectAll("s")
-    .select(["o.name as override_by_name", "u.name as updated_by_name"])
-    .where("s.job_id", "=", jobId)
-    .where("s.shop_id", "=", shopId)
-    .execute()
+  return setupRecords(db, shopId).where("s.job_id", "=", jobId).execute()
 }
 
 /** New figures replace the old ones and withdraw any override: a lead looks again at what is now recorded. */

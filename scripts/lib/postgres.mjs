@@ -108,22 +108,7 @@ export function startPostgres({ dataDir, port, database, fresh = false }) {
   allowReplication(dataDir)
   if (!isRunning(bin, dataDir)) {
     log(`Starting PostgreSQL on 127.0.0.1:${port}`)
-    asPostgres(
-      path.join(bin, "pg_ctl"),
-      [
-        "-D",
-        dataDir,
-        "-l",
-        path.join(dataDir, "server.log"),
-        "-w",
-        "-t",
-        "60",
-        "-o",
-        `-p ${port} -c listen_addresses=127.0.0.1 -c unix_socket_directories=${dataDir} -c fsync=${fresh ? "off" : "on"} ${REPLICATION_SETTINGS}`,
-        "start",
-      ],
-      { quiet: true },
-    )
+    pgCtlStart(bin, dataDir, `-p ${port} -c fsync=${fresh ? "off" : "on"} ${REPLICATION_SETTINGS}`)
   }
   const exists = spawnSync(
     path.join(bin, "psql"),
@@ -190,22 +175,7 @@ export function startStandby({ primaryPort, dataDir, port, database }) {
     { quiet: true },
   )
   log(`Starting the standby on 127.0.0.1:${port}`)
-  asPostgres(
-    path.join(bin, "pg_ctl"),
-    [
-      "-D",
-      dataDir,
-      "-l",
-      path.join(dataDir, "server.log"),
-      "-w",
-      "-t",
-      "60",
-      "-o",
-      `-p ${port} -c listen_addresses=127.0.0.1 -c unix_socket_directories=${dataDir} -c fsync=off -c hot_standby=on`,
-      "start",
-    ],
-    { quiet: true },
-  )
+  pgCtlStart(bin, dataDir, `-p ${port} -c fsync=off -c hot_standby=on`)
   return `postgres://postgres@127.0.0.1:${port}/${database}`
 }
 
@@ -214,4 +184,11 @@ export function stopPostgres({ dataDir }) {
   if (!bin || !isRunning(bin, dataDir)) return
   log("Stopping PostgreSQL")
   asPostgres(path.join(bin, "pg_ctl"), ["-D", dataDir, "-m", "fast", "-w", "stop"], { quiet: true, check: false })
+}
+
+/** `pg_ctl start` on 127.0.0.1 with the socket in the data folder, the log in server.log, waiting up to 60 s. */
+function pgCtlStart(bin, dataDir, options) {
+  const listen = `-c listen_addresses=127.0.0.1 -c unix_socket_directories=${dataDir}`
+  const args = ["-D", dataDir, "-l", path.join(dataDir, "server.log"), "-w", "-t", "60", "-o", `${options} ${listen}`]
+  asPostgres(path.join(bin, "pg_ctl"), [...args, "start"], { quiet: true })
 }

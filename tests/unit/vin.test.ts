@@ -13,42 +13,17 @@ import {
   withCheckDigit,
 } from "@/lib/vin"
 
-// 49 CFR 565 "Assigned Values" table, copied here independently of lib/vin.ts (check-values.md §2a).
-const CFR_VALUES: Record<string, number> = {
-  "0": 0,
-  "1": 1,
-  "2": 2,
-  "3": 3,
-  "4": 4,
-  "5": 5,
-  "6": 6,
-  "7": 7,
-  "8": 8,
-  "9": 9,
-  A: 1,
-  B: 2,
-  C: 3,
-  D: 4,
-  E: 5,
-  F: 6,
-  G: 7,
-  H: 8,
-  J: 1,
-  K: 2,
-  L: 3,
-  M: 4,
-  N: 5,
-  P: 7,
-  R: 9,
-  S: 2,
-  T: 3,
-  U: 4,
-  V: 5,
-  W: 6,
-  X: 7,
-  Y: 8,
-  Z: 9,
-}
+// 49 CFR 565 "Assigned Values" table, written here independently of lib/vin.ts (check-values.md §2a), in the
+// table's own runs: digits keep their value, A–H are 1–8, J–N are 1–5, P is 7, R is 9, S–Z are 2–9 (no I, O, Q).
+const run = (letters: string, first: number) => [...letters].map((c, i) => [c, first + i] as const)
+const CFR_VALUES: Record<string, number> = Object.fromEntries([
+  ...run("0123456789", 0),
+  ...run("ABCDEFGH", 1),
+  ...run("JKLMN", 1),
+  ["P", 7],
+  ["R", 9],
+  ...run("STUVWXYZ", 2),
+])
 const LEGAL = Object.keys(CFR_VALUES)
 
 function replaceAt(vin: string, position: number, char: string): string {
