@@ -6,7 +6,10 @@ type Json<T> = ColumnType<T, string | T, string | T>
 
 import type { Role } from "@/lib/auth/roles"
 import type { JobStatus, ReviewDecision, ReviewStatus } from "@/lib/labels"
-import type { Verdict } from "@/lib/scoring/types"
+import type { RoadTestCheck } from "@/lib/drive-file/road-test"
+import type { Profile } from "@/lib/drive-file/schema"
+import type { Score, Verdict } from "@/lib/scoring/types"
+import type { SetupMeasurement } from "@/lib/setup"
 
 // The vocabulary is declared once in lib/ (roles, labels, scoring) and only re-exported here for the queries.
 export type { JobStatus, ReviewDecision, Role, Verdict }
@@ -74,10 +77,10 @@ export interface ConditionProfileVersionTable {
   shop_id: string
   profile_id: string
   version: number
-  /** A drive-file profile object (every key of shared/specs/drive-file.md resolved). */
-  settings: Json<Record<string, unknown>>
+  /** A drive-file profile object as saved; read through resolveProfile (a key added since reads as its default). */
+  settings: Json<Profile>
   /** Road-test checks (lib/drive-file/road-test.ts); null = the defaults of the profile's sensor. */
-  road_test_checks: Json<unknown[]> | null
+  road_test_checks: Json<RoadTestCheck[]> | null
   created_by: string | null
   created_at: GeneratedTimestamp
 }
@@ -150,7 +153,7 @@ export interface DriveTable {
   vehicle_description: string | null
   profile_version_id: string | null
   /** The resolved condition profile the drive is held to, frozen when the drive starts. */
-  profile: Json<Record<string, unknown>>
+  profile: Json<Profile>
   driver_id: string
   co_driver_id: string | null
   status: Generated<DriveStatus>
@@ -162,7 +165,7 @@ export interface DriveTable {
   /** learn, road_test or learn_and_road_test (lib/drive-file/road-test.ts). */
   kind: Generated<"learn" | "road_test" | "learn_and_road_test">
   /** The road-test checks the drive is held to, frozen at its start; null for a learn drive. */
-  road_test: Json<unknown[]> | null
+  road_test: Json<RoadTestCheck[]> | null
   created_at: GeneratedTimestamp
   finished_at: Timestamp | null
   /** Copied from the drive's score when it is stored (trigger score_to_drive); for the queue and numbers. */
@@ -238,7 +241,7 @@ export interface ScoreTable {
   drive_id: string
   shop_id: string
   verdict: Verdict
-  result: Json<Record<string, unknown>>
+  result: Json<Score>
   scored_at: GeneratedTimestamp
 }
 
@@ -277,8 +280,7 @@ export interface SetupRecordTable {
   task_id: string
   shop_id: string
   job_id: string
-  /** SetupMeasurement[] (lib/setup.ts). */
-  measurements: Json<unknown[]>
+  measurements: Json<SetupMeasurement[]>
   scan_result: "not_run" | "pass" | "fail"
   scan_notes: Generated<string>
   override_note: string | null
@@ -350,7 +352,7 @@ export interface ScoreRevisionTable {
   revision: number
   cause: RevisionCause
   verdict: Verdict
-  result: Json<Record<string, unknown>>
+  result: Json<Score>
   review_decision: ReviewDecision | null
   /** SHA-256 (hex) of the canonical record (lib/record/seal.ts). */
   digest: string

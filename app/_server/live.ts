@@ -27,7 +27,7 @@ import { listSamples } from "@/db/queries/samples"
 import { storedSample } from "@/lib/drive-file/stored"
 import { findScore } from "@/db/queries/scores"
 import type { Drive } from "@/db/types"
-import type { Mark, Profile, Sample } from "@/lib/drive-file/schema"
+import type { Mark, Sample } from "@/lib/drive-file/schema"
 import { createLiveScorer, scoreDrive, type LiveScorer } from "@/lib/scoring/score"
 import type { Score } from "@/lib/scoring/types"
 
@@ -227,7 +227,7 @@ function entryFor(db: Db, drive: Drive): Entry {
     loaded: false,
     dead: false,
     pending: [],
-    scorer: createLiveScorer(drive.profile as Profile),
+    scorer: createLiveScorer(drive.profile),
     ts: new Set(),
     marks: new Map(),
     score: null,

@@ -4,7 +4,6 @@ import { listTasksForJob } from "@/db/queries/jobs"
 import { listSetupRecordsForJob, setupJson } from "@/db/queries/setup"
 import { measurementLabel } from "@/lib/setup"
 import { calibrationCautions, type CalibrationRecord } from "@/lib/record"
-import type { Score } from "@/lib/scoring/types"
 
 /**
  * The record's per-system section (issue 13): for each task of the drive's job, its static set-up, the
@@ -30,7 +29,7 @@ export async function loadCalibrations(
   ])
   const roadTests = drives.filter((d) => d.kind !== "learn")
   const latestRoadTest = roadTests.filter((d) => d.status === "finished").at(-1) ?? roadTests.at(-1)
-  const roadScore = (latestRoadTest?.result ?? null) as Score | null
+  const roadScore = latestRoadTest?.result ?? null
   return tasks.map((t): CalibrationRecord => {
     const setupRow = setups.find((s) => s.task_id === t.id)
     const setup = setupRow ? setupJson(setupRow) : null

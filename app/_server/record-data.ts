@@ -15,7 +15,7 @@ import { listSamples } from "@/db/queries/samples"
 import { findScore } from "@/db/queries/scores"
 import type { ShopSettings } from "@/db/types"
 import { resolveProfile } from "@/lib/drive-file/profile"
-import type { Mark, Profile } from "@/lib/drive-file/schema"
+import type { Mark } from "@/lib/drive-file/schema"
 import { checklistRows, computeTimeline, type RecordData, type RecordPhoto } from "@/lib/record"
 import { loadCalibrations } from "./record-calibrations"
 import { recordPhotoBytes } from "./thumbnails"
@@ -45,7 +45,7 @@ export async function loadRecordData(
       ? listRecordPhotos(db, head.job_id, head.task_id, shopId)
       : Promise.resolve([]),
   ])
-  const profile = resolveProfile(head.profile as Profile)
+  const profile = resolveProfile(head.profile)
   // Thumbnails rather than the full photos, so a record with a dozen phone photos stays a small PDF.
   const photos = (
     await Promise.all(

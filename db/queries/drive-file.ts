@@ -1,11 +1,9 @@
-import type { RoadTestCheck } from "@/lib/drive-file/road-test"
 import {
   DRIVE_FORMAT,
   DRIVE_FORMAT_2,
   type AnyDriveFile,
   type DriveFile,
   type Mark,
-  type Profile,
   type Sample,
 } from "@/lib/drive-file/schema"
 import { notFound } from "@/lib/errors"
@@ -38,7 +36,7 @@ export function driveFileOf(
   if (drive.kind === "learn" && !fileMarks.some((m) => m.kind === "check")) {
     const v1: DriveFile = {
       format: DRIVE_FORMAT,
-      profile: drive.profile as Profile,
+      profile: drive.profile,
       samples,
       marks: fileMarks as Mark[],
     }
@@ -47,8 +45,8 @@ export function driveFileOf(
   return {
     format: DRIVE_FORMAT_2,
     kind: drive.kind,
-    profile: drive.profile as Profile,
-    ...(drive.road_test ? { roadTest: { checks: drive.road_test as RoadTestCheck[] } } : {}),
+    profile: drive.profile,
+    ...(drive.road_test ? { roadTest: { checks: drive.road_test } } : {}),
     samples,
     marks: fileMarks,
   }

@@ -48,20 +48,20 @@ type VersionRow = {
   sensor: string | null
   version: number
   versionId: string
-  settings: Record<string, unknown>
-  road_test_checks: unknown[] | null
+  settings: Profile
+  road_test_checks: RoadTestCheck[] | null
 }
 
 function toInfo({ road_test_checks, ...row }: VersionRow): ProfileVersionInfo {
   return {
     ...row,
-    settings: resolveProfile(row.settings as Profile),
+    settings: resolveProfile(row.settings),
     roadTestChecks: resolveRoadTestChecks(road_test_checks, row.sensor),
   }
 }
 
-function resolveRoadTestChecks(stored: unknown[] | null, sensor: string | null): RoadTestCheck[] {
-  return stored ? (stored as RoadTestCheck[]) : defaultRoadTestChecks(sensor)
+function resolveRoadTestChecks(stored: RoadTestCheck[] | null, sensor: string | null): RoadTestCheck[] {
+  return stored ?? defaultRoadTestChecks(sensor)
 }
 
 /** The current version of the shop's profile with this key (archived ones too, unless told: old links keep working). */
@@ -262,7 +262,7 @@ export async function loadProfileDetail(db: Db, profileId: string, shopId: strin
     versions: versions.map((v) => ({
       id: v.id,
       version: v.version,
-      settings: resolveProfile(v.settings as Profile),
+      settings: resolveProfile(v.settings),
       roadTestChecks: resolveRoadTestChecks(v.road_test_checks, profile.sensor),
       createdAt: v.createdAt,
       createdBy: v.createdByName,

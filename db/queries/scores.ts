@@ -12,7 +12,7 @@ export async function findScore(db: Db, driveId: string, shopId: string): Promis
     .where("drive_id", "=", driveId)
     .where("shop_id", "=", shopId)
     .executeTakeFirst()
-  return row?.result as Score | undefined
+  return row?.result
 }
 
 export async function upsertScore(db: Db, driveId: string, shopId: string, score: Score) {

@@ -1,5 +1,5 @@
 import { sql } from "kysely"
-import { isOutOfTolerance, type SetupInput, type SetupMeasurement } from "@/lib/setup"
+import { isOutOfTolerance, type SetupInput } from "@/lib/setup"
 import type { Db } from "../client"
 
 /** The shop's set-up records with the names of who last changed and who overrode them. */
@@ -54,7 +54,7 @@ export async function setSetupOverride(db: Db, taskId: string, shopId: string, n
 }
 
 export function setupJson(row: SetupRow) {
-  const measurements = row.measurements as SetupMeasurement[]
+  const measurements = row.measurements
   const outOfTolerance = measurements.filter(isOutOfTolerance).length
   return {
     taskId: row.task_id,

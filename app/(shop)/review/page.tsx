@@ -10,7 +10,6 @@ import { listReviewQueue } from "@/db/queries/reviews"
 import { getFormatPrefs } from "@/app/_server/format-prefs"
 import { describeReasons } from "@/lib/format/conditions"
 import { describeVehicle, roLabel } from "@/lib/record"
-import type { Score } from "@/lib/scoring"
 
 export const metadata: Metadata = { title: "Review" }
 export const dynamic = "force-dynamic"
@@ -40,7 +39,7 @@ export default async function ReviewPage() {
       ) : (
         <ul className="space-y-3" data-testid="review-queue">
           {rows.map((r) => {
-            const score = r.result as unknown as Score
+            const score = r.result
             const words = describeReasons(score, units)
             const harsh = (score.harshEvents?.accel ?? 0) + (score.harshEvents?.decel ?? 0)
             return (

@@ -11,6 +11,7 @@ import { jobStatusFromDrives } from "@/lib/access/drive"
 import type { SessionUser } from "@/lib/auth/lucia"
 import { AppError } from "@/lib/errors"
 import { describeVehicle, roLabel } from "@/lib/record"
+import type { Score } from "@/lib/scoring/types"
 import { parseDriveCursor } from "@/lib/validation/drive"
 import type { ReviewInput } from "@/lib/validation/review"
 import { env } from "@/lib/env"
@@ -24,7 +25,7 @@ export async function reviewQueuePage(user: SessionUser, cursor: string | undefi
     throw new AppError("validation_failed", "cursor: is not one this server gave out", { cursor: "is invalid" })
   const { rows, nextCursor } = await listReviewQueue(getReadDb(), user.shopId, after)
   const drives = rows.map((r) => {
-    const score = r.result as { reasons?: string[]; harshEvents?: { accel: number; decel: number } }
+    const score: Partial<Score> = r.result
     return {
       id: r.id,
       jobId: r.job_id,

@@ -16,7 +16,7 @@ import {
 } from "@/lib/drive-file"
 import { AppError, validationFailed } from "@/lib/errors"
 import { SENSOR_LABEL } from "@/lib/labels"
-import { describeMeasurement, isOutOfTolerance, type SetupMeasurement } from "@/lib/setup"
+import { describeMeasurement, isOutOfTolerance } from "@/lib/setup"
 
 /** A task's method says what its drive is for unless the caller says: static -> road test, both -> learn and road test. */
 function driveKindFor(method: string | null | undefined, asked: DriveKind | undefined): DriveKind {
@@ -70,7 +70,7 @@ export async function assertRoadTestMayStart(db: Db, shopId: string, jobId: stri
     if (!setupJson(row).blocksRoadTest) continue
     const task = tasks.find((t) => t.id === row.task_id)
     const system = task ? (SENSOR_LABEL[task.sensor] ?? task.sensor) : "A system"
-    const out = (row.measurements as SetupMeasurement[]).filter(isOutOfTolerance).map(describeMeasurement)
+    const out = row.measurements.filter(isOutOfTolerance).map(describeMeasurement)
     problems.push(`${system}: ${out.join("; ")}`)
   }
   if (problems.length) {
@@ -83,7 +83,7 @@ export async function assertRoadTestMayStart(db: Db, shopId: string, jobId: stri
 
 /** Check marks must name one of the drive's road-test checks (400 naming the mark). */
 export function assertCheckMarksFit(drive: Drive, marks: readonly ApiMark[]): void {
-  const keys = new Set(((drive.road_test ?? []) as RoadTestCheck[]).map((c) => c.key))
+  const keys = new Set((drive.road_test ?? []).map((c) => c.key))
   const fields: Record<string, string> = {}
   marks.forEach((m, i) => {
     if (m.kind !== "check" || m.checkKey === undefined || keys.has(m.checkKey)) return
