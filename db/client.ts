@@ -1,5 +1,6 @@
 import { Kysely, PostgresDialect } from "kysely"
 import pg from "pg"
+import { isDatabaseUnavailable } from "@/lib/db-errors"
 import type { Database } from "./types"
 
 // bigint columns (sample and mark times in ms) fit a JS number exactly: parse them as numbers, not strings.
@@ -17,14 +18,18 @@ const globalForDb = globalThis as unknown as {
 const APPLICATION_NAME = "straightaway"
 export const READ_APPLICATION_NAME = "straightaway-replica-reads"
 
-function createPool(connectionString = process.env.DATABASE_URL, applicationName = APPLICATION_NAME) {
+function createPool(
+  connectionString = process.env.DATABASE_URL,
+  applicationName = APPLICATION_NAME,
+  connectTimeoutMs = Number(process.env.DATABASE_CONNECT_TIMEOUT_MS ?? 5000),
+) {
   if (!connectionString) throw new Error("DATABASE_URL is not set")
   const pool = new pg.Pool({
     connectionString,
     application_name: applicationName,
     max: Number(process.env.DATABASE_POOL_MAX ?? 10),
     // A database that does not answer fails the request (a 503) instead of queueing it for ever.
-    connectionTimeoutMillis: Number(process.env.DATABASE_CONNECT_TIMEOUT_MS ?? 5000),
+    connectionTimeoutMillis: connectTimeoutMs,
   })
   // An idle connection the server dropped (restart, failover) emits "error" on the pool: without a listener that
   // is an uncaught exception. pg removes the broken client itself; later queries open fresh connections.
@@ -55,9 +60,41 @@ export function getReadDb(): Db {
   const replicaUrl = process.env.DATABASE_REPLICA_URL
   if (!replicaUrl) return getDb()
   globalForDb.straightawayReadDb ??= new Kysely<Database>({
-    dialect: new PostgresDialect({ pool: createPool(replicaUrl, READ_APPLICATION_NAME) }),
+    dialect: new PostgresDialect({ pool: readPool(replicaUrl, getPool) }),
   })
   return globalForDb.straightawayReadDb
+}
+
+/** How long reads stay on the primary after the replica could not be reached, before it is tried again. */
+const REPLICA_RETRY_MS = Number(process.env.DATABASE_REPLICA_RETRY_MS ?? 30_000)
+
+/**
+ * A pool for reads that may lag: a connection from the replica while it can be reached; when it cannot (stopped,
+ * promoted away, network), from the primary for REPLICA_RETRY_MS, then the replica is tried again. A lost replica
+ * costs one short connect timeout, never a 503 while the primary is up.
+ */
+export function readPool(replicaUrl: string, primary: () => pg.Pool) {
+  const replica = createPool(
+    replicaUrl,
+    READ_APPLICATION_NAME,
+    Number(process.env.DATABASE_REPLICA_CONNECT_TIMEOUT_MS ?? 1000),
+  )
+  let replicaDownUntil = 0
+  return {
+    async connect(): Promise<pg.PoolClient> {
+      if (Date.now() >= replicaDownUntil) {
+        try {
+          return await replica.connect()
+        } catch (error) {
+          if (!isDatabaseUnavailable(error)) throw error
+          replicaDownUntil = Date.now() + REPLICA_RETRY_MS
+          console.error("[straightaway] the read replica cannot be reached; reads go to the primary:", String(error))
+        }
+      }
+      return primary().connect()
+    },
+    end: () => replica.end(),
+  }
 }
 
 export function createDb(connectionString?: string): Db {
