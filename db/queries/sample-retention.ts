@@ -21,14 +21,44 @@ export function retentionCutoffMs(now: Date, months: number): number {
   return Date.UTC(now.getUTCFullYear(), now.getUTCMonth() - months, 1)
 }
 
-/** pg_partman makes the months ahead (and the next ones as time goes on). Month boundaries are UTC. */
+/**
+ * pg_partman makes the months ahead (and the next ones as time goes on). Month boundaries are UTC.
+ *
+ * A phone whose clock runs months ahead leaves samples in `sample_default` for a month that has no partition yet.
+ * When partman comes to make that month, PostgreSQL refuses a partition whose rows sit in the default one, and
+ * without this every later month would go unmade. So first, in the same transaction, such rows of the months partman
+ * is about to make are taken out of the default, their month is made, and they go back in (into it).
+ */
 export async function runPartitionMaintenance(db: Db): Promise<void> {
   await db.transaction().execute(async (trx) => {
     await sql`set local timezone to 'UTC'`.execute(trx)
+    const { rows: months } = await sql<{ month: string }>`
+      select distinct to_char(date_trunc('month', to_timestamp(d.t / 1000.0)), 'YYYY-MM-DD') || ' 00:00:00+00' as month
+      from sample_default d, partman.part_config c
+      where c.parent_table = ${SAMPLE_PARENT}
+        and d.t >= extract(epoch from date_trunc('month', now())) * 1000
+        and d.t < extract(epoch from date_trunc('month', now()) + make_interval(months => c.premake + 1)) * 1000
+      order by 1`.execute(trx)
+    for (const { month } of months) await makeMonthHoldingDefaultRows(trx, month)
     await sql`select partman.run_maintenance(p_parent_table => ${SAMPLE_PARENT}, p_analyze => false, p_jobmon => false)`.execute(
       trx,
     )
   })
+}
+
+async function makeMonthHoldingDefaultRows(trx: Db, month: string): Promise<void> {
+  const columns = sql.raw("drive_key, t, lat, lon, speed, accuracy")
+  await sql`create temp table if not exists sample_moving (like sample) on commit drop`.execute(trx)
+  await sql`
+    with moved as (
+      delete from sample_default
+      where t >= extract(epoch from ${month}::timestamptz) * 1000
+        and t < extract(epoch from ${month}::timestamptz + interval '1 month') * 1000
+      returning ${columns})
+    insert into sample_moving (${columns}) select ${columns} from moved`.execute(trx)
+  await sql`select partman.create_partition_time(${SAMPLE_PARENT}, array[${month}::timestamptz], false)`.execute(trx)
+  await sql`insert into sample (${columns}) select ${columns} from sample_moving`.execute(trx)
+  await sql`truncate sample_moving`.execute(trx)
 }
 
 export interface SamplePartition {

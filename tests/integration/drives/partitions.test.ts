@@ -1,6 +1,11 @@
 import { sql } from "kysely"
 import { beforeAll, describe, expect, it } from "vitest"
-import { applySampleRetention, listSamplePartitions, retentionCutoffMs } from "@/db/queries/sample-retention"
+import {
+  applySampleRetention,
+  listSamplePartitions,
+  retentionCutoffMs,
+  runPartitionMaintenance,
+} from "@/db/queries/sample-retention"
 import { createTestShop, testDb, type TestShop } from "../../helpers/db"
 import { signedIn, type ApiClient } from "../../helpers/http"
 import { sampleRun, startDrive } from "./helpers"
@@ -130,5 +135,44 @@ describe("sample retention", () => {
     expect(again.deletedSamples).toBe(0)
     expect(await sampleCount(bOld)).toBe(40)
     expect(await sampleCount(aRecent)).toBe(25)
+  })
+})
+
+describe("partition upkeep with samples from a clock months ahead", () => {
+  it("makes the month those samples sit in, moves them into it, and keeps making the months after", async () => {
+    const db = testDb()
+    const shop = await createTestShop("Clock ahead")
+    await startDrive(await signedIn(shop.tech))
+    const { sample_key: driveKey } = await db
+      .selectFrom("drive")
+      .select("sample_key")
+      .where("shop_id", "=", shop.shopId)
+      .executeTakeFirstOrThrow()
+    const now = new Date()
+    // Eight months ahead: past partman's four months made ahead, so these rows land in the default partition.
+    const ahead = monthStart(now.getUTCFullYear(), now.getUTCMonth() + 8)
+    const values = [0, 1000, 2000].map((dt) => ({ drive_key: driveKey, t: ahead + dt, lat: 1, lon: 1 }))
+    await db.insertInto("sample").values(values).execute()
+    const whereRows = async () =>
+      (
+        await sql<{
+          part: string
+        }>`select tableoid::regclass::text as part from sample where drive_key = ${driveKey}`.execute(db)
+      ).rows.map((r) => r.part)
+    expect(await whereRows()).toEqual(["sample_default", "sample_default", "sample_default"])
+
+    // Partman comes to make that month (here: made to look nine months ahead instead of four).
+    await sql`update partman.part_config set premake = 9 where parent_table = 'public.sample'`.execute(db)
+    try {
+      await runPartitionMaintenance(db)
+    } finally {
+      await sql`update partman.part_config set premake = 4 where parent_table = 'public.sample'`.execute(db)
+    }
+    const parts = await listSamplePartitions(db)
+    const month = parts.find((p) => p.fromMs === ahead)
+    expect(month).toBeDefined()
+    expect(new Set(await whereRows())).toEqual(new Set([month!.name]))
+    const after = monthStart(now.getUTCFullYear(), now.getUTCMonth() + 9)
+    expect(parts.find((p) => p.fromMs === after)).toBeDefined()
   })
 })
