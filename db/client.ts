@@ -12,22 +12,25 @@ const globalForDb = globalThis as unknown as {
   straightawayPool?: pg.Pool
   straightawayDb?: Db
   straightawayReadDb?: Db
+  straightawayExportDb?: Db
 }
 
 /** How the app's connections name themselves (pg_stat_activity.application_name). */
 const APPLICATION_NAME = "straightaway"
 export const READ_APPLICATION_NAME = "straightaway-replica-reads"
+export const EXPORT_APPLICATION_NAME = "straightaway-downloads"
 
 function createPool(
   connectionString = process.env.DATABASE_URL,
   applicationName = APPLICATION_NAME,
   connectTimeoutMs = Number(process.env.DATABASE_CONNECT_TIMEOUT_MS ?? 5000),
+  { max = Number(process.env.DATABASE_POOL_MAX ?? 10) } = {},
 ) {
   if (!connectionString) throw new Error("DATABASE_URL is not set")
   const pool = new pg.Pool({
     connectionString,
     application_name: applicationName,
-    max: Number(process.env.DATABASE_POOL_MAX ?? 10),
+    max,
     // A database that does not answer fails the request (a 503) instead of queueing it for ever.
     connectionTimeoutMillis: connectTimeoutMs,
   })
@@ -35,6 +38,14 @@ function createPool(
   // is an uncaught exception. pg removes the broken client itself; later queries open fresh connections.
   pool.on("error", (error) => {
     console.error("[straightaway] an idle database connection was lost:", error.message)
+  })
+  // The same for a connection in use between two queries (a transaction waiting on its caller): the server ending
+  // it is an "error" event on the client with no query to reject. Logged here; the next query on it fails, and
+  // the pool drops the broken client when it comes back.
+  pool.on("connect", (client) => {
+    client.on("error", (error) => {
+      console.error("[straightaway] a database connection in use was lost:", error.message)
+    })
   })
   return pool
 }
@@ -95,6 +106,23 @@ export function readPool(replicaUrl: string, primary: () => pg.Pool) {
     },
     end: () => replica.end(),
   }
+}
+
+/**
+ * Where streamed downloads (drive file, GPX, CSV) hold their snapshot: a pool of their own
+ * (`DATABASE_EXPORT_POOL_MAX`, default 3), so however many people download, and however slowly their phones read,
+ * the app's own pool stays free for everything else. Downloads past the limit wait for a connection up to the
+ * connect timeout, then get the 503 with Retry-After any lost connection gets.
+ */
+export function getExportDb(): Db {
+  globalForDb.straightawayExportDb ??= new Kysely<Database>({
+    dialect: new PostgresDialect({
+      pool: createPool(process.env.DATABASE_URL, EXPORT_APPLICATION_NAME, undefined, {
+        max: Number(process.env.DATABASE_EXPORT_POOL_MAX ?? 3),
+      }),
+    }),
+  })
+  return globalForDb.straightawayExportDb
 }
 
 export function createDb(connectionString?: string): Db {

@@ -140,4 +140,14 @@ describe("GET /api/drives/:id/file streamed", () => {
     }
     expect(open).toBe(0)
   })
+
+  it("holds its snapshot on a pool of its own, not on the app's", async () => {
+    expect((await tech.get(`/api/drives/${imported}/file?format=csv`)).status).toBe(200)
+    // The download's connection stays idle in its pool for a while (pg's idleTimeoutMillis, 10 s).
+    const { rows } = await sql<{ n: number }>`
+      select count(*)::int as n from pg_stat_activity where application_name = 'straightaway-downloads'`.execute(
+      testDb(),
+    )
+    expect(rows[0]!.n).toBeGreaterThan(0)
+  })
 })

@@ -2,7 +2,7 @@ import { z } from "zod"
 import { requireRole } from "@/app/_server/auth"
 import { parseParams, parseQuery, route, uuidParam } from "@/app/_server/route"
 import { textStream } from "@/app/_server/text-stream"
-import { getDb } from "@/db/client"
+import { getDb, getExportDb } from "@/db/client"
 import { openDriveExport } from "@/db/queries/drive-export"
 import { csvChunks, driveFileChunks, gpxChunks } from "@/lib/export/stream"
 import { driveFileFormatQuery } from "@/lib/validation/drive"
@@ -27,7 +27,7 @@ export const GET = route<{ driveId: string }>(async (req, ctx) => {
   const { format } = parseQuery(req, driveFileFormatQuery)
   const db = getDb()
   const drive = await loadDriveFor(db, driveId, user, "see")
-  const source = await openDriveExport(db, drive.id, user.shopId, { gpx: format === "gpx" })
+  const source = await openDriveExport(getExportDb(), drive.id, user.shopId, { gpx: format === "gpx" })
   const chunks =
     format === "gpx"
       ? gpxChunks(source.head, source.lookahead!, source.samples, {
