@@ -60,6 +60,26 @@ const config = [
     },
   },
   {
+    // The shared zod schemas are imported by the browser's forms too: nothing that pulls node:* (HMAC, hashes).
+    files: ["lib/validation/**/*.ts"],
+    rules: {
+      "no-restricted-imports": [
+        "error",
+        {
+          patterns: [
+            restricted(["next", "next/*"], "lib/ is pure: no Next imports."),
+            restricted(["react", "react-dom", "react/*", "react-dom/*"], "lib/ is pure: no React."),
+            restricted(["@/db", "@/db/*", "@/app/*", "@/components/*"], "lib/ imports no db/, app/ or components/."),
+            restricted(
+              ["node:*", "@/lib/share", "@/lib/auth/lucia", "@/lib/record/seal", "@/lib/record"],
+              "schemas run in the browser's forms too: no node:* (nor lib modules that use it).",
+            ),
+          ],
+        },
+      ],
+    },
+  },
+  {
     files: ["components/**/*.{ts,tsx}"],
     rules: {
       "no-restricted-imports": [

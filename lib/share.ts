@@ -6,9 +6,6 @@ import { isUuid } from "@/lib/validation/uuid"
 // once a drive's links have been withdrawn (its share epoch n > 0), over "share:<driveId>.<expiresAtSeconds>.<n>".
 // The token holds no data beyond the drive id and expiry; the drive is read fresh on every visit.
 
-export const SHARE_DEFAULT_DAYS = 14
-export const SHARE_MAX_DAYS = 90
-
 export type ShareCheck =
   | { ok: true; driveId: string; expiresAtMs: number }
   | { ok: false; reason: "malformed" | "bad_signature" | "expired" | "withdrawn" }

@@ -1,5 +1,4 @@
 import { z } from "zod"
-import { SHARE_MAX_DAYS } from "@/lib/share"
 import { REVIEW_DECISIONS } from "@/lib/labels"
 
 const REVIEW_NOTE_MAX_CHARS = 2000
@@ -32,6 +31,10 @@ export const recordEmailSchema = z.object({
     .max(254)
     .pipe(z.email({ error: "must be an e-mail address" })),
 })
+
+/** How long a share link lasts unless the lead says otherwise, and the longest it may. */
+export const SHARE_DEFAULT_DAYS = 14
+export const SHARE_MAX_DAYS = 90
 
 export const shareSchema = z.object({
   expiresInDays: z

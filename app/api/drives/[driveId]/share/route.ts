@@ -8,8 +8,8 @@ import { sealCurrentRecord } from "@/app/_server/record-seal"
 import { env } from "@/lib/env"
 import { AppError } from "@/lib/errors"
 import { sha256Hex } from "@/lib/record/seal"
-import { SHARE_DEFAULT_DAYS, signShareToken } from "@/lib/share"
-import { shareSchema } from "@/lib/validation/review"
+import { signShareToken } from "@/lib/share"
+import { SHARE_DEFAULT_DAYS, shareSchema } from "@/lib/validation/review"
 import { loadDriveFor } from "../../_service"
 
 const params = z.object({ driveId: uuidParam })
