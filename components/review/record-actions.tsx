@@ -1,11 +1,54 @@
 "use client"
 
+import { zodResolver } from "@hookform/resolvers/zod"
 import { Copy, FileText, Link2, Link2Off, Mail } from "lucide-react"
 import { useState } from "react"
+import { useForm } from "react-hook-form"
+import type { z } from "zod"
 import { ApiError, apiFetch } from "@/components/ui/api-fetch"
 import { Button, buttonVariants } from "@/components/ui/button"
 import { Field, Input } from "@/components/ui/field"
 import { FormDone, FormProblem } from "@/components/ui/form"
+import { recordEmailSchema } from "@/lib/validation/review"
+
+type RecordEmail = z.input<typeof recordEmailSchema>
+
+/** E-mails the record (the API seals a PDF issue of it); the address is checked with the API's own schema first. */
+function RecordEmailForm({ driveId, customerEmail }: { driveId: string; customerEmail: string | null }) {
+  const [sent, setSent] = useState<string | null>(null)
+  const form = useForm<RecordEmail>({
+    resolver: zodResolver(recordEmailSchema),
+    defaultValues: { to: customerEmail ?? "" },
+  })
+  const { errors, isSubmitting } = form.formState
+
+  async function email({ to }: RecordEmail) {
+    setSent(null)
+    try {
+      await apiFetch(`/api/drives/${driveId}/record/email`, { method: "POST", body: { to } })
+      setSent(`Sent to ${to.trim()}.`)
+    } catch (error) {
+      if (error instanceof ApiError && error.fields?.to) form.setError("to", { message: error.fields.to })
+      else form.setError("root", { message: error instanceof Error ? error.message : "Not sent." })
+    }
+  }
+
+  return (
+    <form onSubmit={form.handleSubmit(email)} className="space-y-2" noValidate>
+      <Field
+        label="E-mail the record to"
+        htmlFor="record-to"
+        error={errors.to?.message && `Address ${errors.to.message}.`}
+      >
+        <Input id="record-to" type="email" autoComplete="email" {...form.register("to")} />
+      </Field>
+      <Button type="submit" variant="outline" disabled={isSubmitting}>
+        <Mail aria-hidden className="size-5" /> {isSubmitting ? "Sending…" : "E-mail the record"}
+      </Button>
+      {sent ? <FormDone>{sent}</FormDone> : <FormProblem>{errors.root?.message}</FormProblem>}
+    </form>
+  )
+}
 
 /** Open the record PDF; for leads, e-mail it and make a share link for the customer. */
 export function RecordActions({
@@ -17,33 +60,11 @@ export function RecordActions({
   canShare: boolean
   customerEmail: string | null
 }) {
-  const [to, setTo] = useState(customerEmail ?? "")
-  const [mailState, setMailState] = useState<{ ok: boolean; text: string } | null>(null)
   const [share, setShare] = useState<{ url: string; expiresAt: string } | null>(null)
   const [shareProblem, setShareProblem] = useState<string | null>(null)
   const [copied, setCopied] = useState(false)
-  const [busy, setBusy] = useState<"mail" | "link" | "withdraw" | null>(null)
+  const [busy, setBusy] = useState<"link" | "withdraw" | null>(null)
   const [withdrawn, setWithdrawn] = useState(false)
-
-  async function email(e: React.FormEvent) {
-    e.preventDefault()
-    setBusy("mail")
-    setMailState(null)
-    try {
-      await apiFetch(`/api/drives/${driveId}/record/email`, { method: "POST", body: { to } })
-      setMailState({ ok: true, text: `Sent to ${to}.` })
-    } catch (error) {
-      const text =
-        error instanceof ApiError && error.fields?.to
-          ? `Address ${error.fields.to}.`
-          : error instanceof Error
-            ? error.message
-            : "Not sent."
-      setMailState({ ok: false, text })
-    } finally {
-      setBusy(null)
-    }
-  }
 
   async function makeLink() {
     setShareProblem(null)
@@ -104,22 +125,7 @@ export function RecordActions({
       </a>
       {canShare ? (
         <>
-          <form onSubmit={email} className="space-y-2">
-            <Field label="E-mail the record to" htmlFor="record-to">
-              <Input
-                id="record-to"
-                type="email"
-                required
-                value={to}
-                onChange={(e) => setTo(e.target.value)}
-                autoComplete="email"
-              />
-            </Field>
-            <Button type="submit" variant="outline" disabled={busy !== null || !to}>
-              <Mail aria-hidden className="size-5" /> {busy === "mail" ? "Sending…" : "E-mail the record"}
-            </Button>
-            {mailState?.ok ? <FormDone>{mailState.text}</FormDone> : <FormProblem>{mailState?.text}</FormProblem>}
-          </form>
+          <RecordEmailForm driveId={driveId} customerEmail={customerEmail} />
           <div className="space-y-2">
             <Button variant="outline" onClick={makeLink} disabled={busy !== null}>
               <Link2 aria-hidden className="size-5" />{" "}
