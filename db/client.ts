@@ -18,7 +18,7 @@ const globalForDb = globalThis as unknown as {
 /** How the app's connections name themselves (pg_stat_activity.application_name). */
 const APPLICATION_NAME = "straightaway"
 export const READ_APPLICATION_NAME = "straightaway-replica-reads"
-export const EXPORT_APPLICATION_NAME = "straightaway-downloads"
+const EXPORT_APPLICATION_NAME = "straightaway-downloads"
 
 function createPool(
   connectionString = process.env.DATABASE_URL,

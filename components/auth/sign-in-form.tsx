@@ -5,7 +5,8 @@ import { useState } from "react"
 import { useForm } from "react-hook-form"
 import { Button } from "@/components/ui/button"
 import { Field, Input } from "@/components/ui/field"
-import { ROLE_HOME, type Role } from "@/lib/auth/roles"
+import { ApiError, api } from "@/lib/api/client"
+import { ROLE_HOME } from "@/lib/auth/roles"
 import { signInSchema, type SignInInput } from "@/lib/validation/session"
 
 export function SignInForm() {
@@ -14,15 +15,12 @@ export function SignInForm() {
 
   async function onSubmit(values: SignInInput) {
     setProblem(null)
-    const res = await fetch("/api/session", {
-      method: "POST",
-      headers: { "content-type": "application/json" },
-      body: JSON.stringify(values),
-    }).catch(() => null)
-    if (!res) return setProblem("No connection. Check the network and try again.")
-    const body = await res.json().catch(() => null)
-    if (!res.ok) return setProblem(body?.error?.message ?? "Could not sign in.")
-    window.location.assign(ROLE_HOME[body.user.role as Role] ?? "/")
+    try {
+      const { user } = await api.signIn(values)
+      window.location.assign(ROLE_HOME[user.role] ?? "/")
+    } catch (error) {
+      setProblem(error instanceof ApiError && error.message ? error.message : "Could not sign in.")
+    }
   }
 
   const { errors, isSubmitting } = form.formState

@@ -8,7 +8,7 @@ import { useState } from "react"
 import { useFieldArray, useForm, useWatch, type FieldPath } from "react-hook-form"
 import { Button } from "@/components/ui/button"
 import { Card } from "@/components/ui/card"
-import { ApiError, apiFetch } from "@/components/ui/api-fetch"
+import { ApiError, apiFetch } from "@/lib/api/client"
 import { Field, Input, Select } from "@/components/ui/field"
 import { errorAt, FormProblem, Options } from "@/components/ui/form"
 import {

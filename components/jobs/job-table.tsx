@@ -18,19 +18,11 @@ import { Button } from "@/components/ui/button"
 import { Input, Select } from "@/components/ui/field"
 import { FormProblem, Options } from "@/components/ui/form"
 import { JOB_STATUS_LABEL, JOB_STATUSES, SENSOR_LABEL, type JobSort, type Sensor } from "@/lib/validation/job"
-import { apiFetch } from "@/components/ui/api-fetch"
+import { api } from "@/lib/api/client"
+import type { JobListPage, Wire } from "@/lib/api/types"
 import { JobStatusBadge } from "./job-status"
 
-type JobRow = {
-  id: string
-  roNumber: string
-  status: string
-  customer: { name: string }
-  vehicle: { vin: string; year: number | null; make: string | null; model: string | null; plate: string | null }
-  sensors: string[]
-  createdAt: string
-}
-type JobPage = { jobs: JobRow[]; nextCursor: string | null; total: number }
+type JobRow = Wire<JobListPage>["jobs"][number]
 
 // Sorting and paging happen on the server; the table only keeps their state.
 const features = tableFeatures({ rowSortingFeature, rowPaginationFeature })
@@ -144,7 +136,7 @@ export function JobTable() {
 
   const result = useQuery({
     queryKey: ["jobs", { status, q, sort, dir, pageSize: pagination.pageSize, cursor }],
-    queryFn: () => apiFetch<JobPage>(`/api/jobs?${params}`),
+    queryFn: () => api.jobs(params),
     placeholderData: keepPreviousData,
   })
 

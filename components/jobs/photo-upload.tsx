@@ -4,7 +4,7 @@ import { useQueryClient } from "@tanstack/react-query"
 import { Camera, FileText, ImageOff } from "lucide-react"
 import { useId, useState } from "react"
 import { ALLOWED_UPLOAD_TYPES, MAX_UPLOAD_BYTES } from "@/lib/validation/upload"
-import { apiFetch } from "@/components/ui/api-fetch"
+import { apiFetch } from "@/lib/api/client"
 
 export type AttachmentView = {
   id: string

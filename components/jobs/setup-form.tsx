@@ -3,7 +3,7 @@
 import { useQuery, useQueryClient } from "@tanstack/react-query"
 import { Plus, ShieldAlert, Trash2, TriangleAlert } from "lucide-react"
 import { useState } from "react"
-import { apiFetch, ApiError } from "@/components/ui/api-fetch"
+import { apiFetch, ApiError } from "@/lib/api/client"
 import { Button } from "@/components/ui/button"
 import { Field, Input, Select, Textarea } from "@/components/ui/field"
 import { FormDone, FormProblem, Options } from "@/components/ui/form"

@@ -5,19 +5,16 @@ import Link from "next/link"
 import { useEffect, useRef, useState } from "react"
 import { cn } from "@/components/ui/cn"
 import { LocalTime } from "@/components/ui/local-time"
+import { api } from "@/lib/api/client"
+import type { NoticeList, Wire } from "@/lib/api/types"
 
-type Notice = { id: string; message: string; link: string | null; readAt: string | null; createdAt: string }
+type Notice = Wire<NoticeList>["notifications"][number]
 
 const POLL_MS = 60_000
 
 /** The latest notices and the unread count; null when offline or refused (keep what is shown; the next poll tries again). */
-async function fetchNotices(): Promise<{ notifications: Notice[]; unread: number } | null> {
-  try {
-    const res = await fetch("/api/notifications", { cache: "no-store" })
-    return res.ok ? ((await res.json()) as { notifications: Notice[]; unread: number }) : null
-  } catch {
-    return null
-  }
+function fetchNotices(): Promise<Wire<NoticeList> | null> {
+  return api.notices().catch(() => null)
 }
 
 /** The header's bell: unread count as a number badge, the latest notices in a panel, read on open. */
@@ -61,11 +58,7 @@ export function NotificationBell({ className }: { className?: string }) {
     setOpen(next)
     if (next && unread > 0) {
       setUnread(0)
-      await fetch("/api/notifications", {
-        method: "PATCH",
-        headers: { "content-type": "application/json" },
-        body: JSON.stringify({ all: true }),
-      }).catch(() => null)
+      await api.markAllNoticesRead().catch(() => null)
     }
   }
 

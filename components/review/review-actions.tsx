@@ -4,7 +4,7 @@ import { Check, Undo2 } from "lucide-react"
 import { useRouter } from "next/navigation"
 import { useState } from "react"
 import { Button } from "@/components/ui/button"
-import { ApiError, apiFetch } from "@/components/ui/api-fetch"
+import { ApiError, apiFetch } from "@/lib/api/client"
 import { Field, Textarea } from "@/components/ui/field"
 import { FormProblem } from "@/components/ui/form"
 

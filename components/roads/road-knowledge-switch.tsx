@@ -1,7 +1,7 @@
 "use client"
 import { useRouter } from "next/navigation"
 import { useState } from "react"
-import { apiFetch } from "@/components/ui/api-fetch"
+import { apiFetch } from "@/lib/api/client"
 import { Button } from "@/components/ui/button"
 
 /** Admin only: turn road knowledge off (the model is removed) or on again. */

@@ -2,7 +2,7 @@
 
 import { useRouter } from "next/navigation"
 import { useState, useSyncExternalStore } from "react"
-import { apiFetch } from "@/components/ui/api-fetch"
+import { apiFetch } from "@/lib/api/client"
 import { Button } from "@/components/ui/button"
 import { Field, Input, Select } from "@/components/ui/field"
 import { formatDateTime, type UnitSystem } from "@/lib/format"

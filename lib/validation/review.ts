@@ -34,7 +34,7 @@ export const recordEmailSchema = z.object({
 
 /** How long a share link lasts unless the lead says otherwise, and the longest it may. */
 export const SHARE_DEFAULT_DAYS = 14
-export const SHARE_MAX_DAYS = 90
+const SHARE_MAX_DAYS = 90
 
 export const shareSchema = z.object({
   expiresInDays: z

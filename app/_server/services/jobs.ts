@@ -21,6 +21,7 @@ import {
   updateTask,
 } from "@/db/queries/jobs"
 import { upsertVehicleByVin } from "@/db/queries/vehicles"
+import type { JobListPage } from "@/lib/api/types"
 import type { SessionUser } from "@/lib/auth/lucia"
 import { AppError, notFound, validationFailed } from "@/lib/errors"
 import { planTaskReplacement } from "@/lib/jobs/tasks"
@@ -38,7 +39,7 @@ type JobChange = z.output<typeof jobChangeSchema>
 type VehicleInput = NewJob["vehicle"]
 
 /** One page of the shop's jobs as the API lists them. */
-export async function listJobsPage(user: SessionUser, query: JobListQuery) {
+export async function listJobsPage(user: SessionUser, query: JobListQuery): Promise<JobListPage> {
   const cursor = query.cursor ? decodeCursor(query.cursor, query.sort) : undefined
   if (cursor === null)
     throw new AppError("validation_failed", "cursor: is not one this server gave out", { cursor: "is invalid" })

@@ -2,24 +2,23 @@ import { requireRole } from "@/app/_server/auth"
 import { parseJson, route } from "@/app/_server/route"
 import { getDb } from "@/db/client"
 import { listNotifications, markNotificationsRead } from "@/db/queries/notifications"
+import type { NoticeList } from "@/lib/api/types"
 import { markReadSchema } from "@/lib/validation/review"
 
 export const GET = route(async () => {
   const { user } = await requireRole()
   const { rows, unread } = await listNotifications(getDb(), user.id, user.shopId)
-  return Response.json(
-    {
-      notifications: rows.map((n) => ({
-        id: n.id,
-        message: n.message,
-        link: n.link,
-        readAt: n.read_at,
-        createdAt: n.created_at,
-      })),
-      unread,
-    },
-    { headers: { "cache-control": "no-store" } },
-  )
+  const body: NoticeList = {
+    notifications: rows.map((n) => ({
+      id: n.id,
+      message: n.message,
+      link: n.link,
+      readAt: n.read_at,
+      createdAt: n.created_at,
+    })),
+    unread,
+  }
+  return Response.json(body, { headers: { "cache-control": "no-store" } })
 })
 
 /** `{ids: [...]}` or `{all: true}`: marks the signed-in person's own notices read. */
