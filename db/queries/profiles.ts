@@ -6,6 +6,7 @@ import {
   type ResolvedProfile,
   type RoadTestCheck,
 } from "@/lib/drive-file"
+import { storedRoadTestChecks } from "@/lib/drive-file/road-test"
 import type { Db } from "../client"
 import type { Database } from "../types"
 
@@ -56,12 +57,8 @@ function toInfo({ road_test_checks, ...row }: VersionRow): ProfileVersionInfo {
   return {
     ...row,
     settings: resolveProfile(row.settings),
-    roadTestChecks: resolveRoadTestChecks(road_test_checks, row.sensor),
+    roadTestChecks: storedRoadTestChecks(road_test_checks, row.sensor),
   }
-}
-
-function resolveRoadTestChecks(stored: RoadTestCheck[] | null, sensor: string | null): RoadTestCheck[] {
-  return stored ?? defaultRoadTestChecks(sensor)
 }
 
 /** The current version of the shop's profile with this key (archived ones too, unless told: old links keep working). */
@@ -102,7 +99,7 @@ export async function listProfiles(db: Db, shopId: string, { includeArchived = t
   }))
 }
 
-function listProfileVersions(db: Db, profileId: string, shopId: string) {
+export function listProfileVersions(db: Db, profileId: string, shopId: string) {
   return db
     .selectFrom("condition_profile_version as v")
     .leftJoin("app_user as u", (j) => j.onRef("u.id", "=", "v.created_by").on("u.shop_id", "=", shopId))
@@ -120,7 +117,7 @@ function listProfileVersions(db: Db, profileId: string, shopId: string) {
     .execute()
 }
 
-function findProfileInShop(db: Db, profileId: string, shopId: string) {
+export function findProfileInShop(db: Db, profileId: string, shopId: string) {
   return db
     .selectFrom("condition_profile")
     .selectAll()
@@ -234,40 +231,6 @@ export function updateProfileFields(
     .where("id", "=", profileId)
     .where("shop_id", "=", shopId)
     .execute()
-}
-
-export function profileVersionJson(p: ProfileVersionInfo) {
-  return {
-    id: p.profileId,
-    key: p.key,
-    name: p.name,
-    sensor: p.sensor,
-    version: p.version,
-    versionId: p.versionId,
-    settings: p.settings,
-    roadTestChecks: p.roadTestChecks,
-  }
-}
-
-/** GET /api/profiles/:id's body: the profile at its current version, and every version newest first. */
-export async function loadProfileDetail(db: Db, profileId: string, shopId: string) {
-  const [profile, current, versions] = await Promise.all([
-    findProfileInShop(db, profileId, shopId),
-    findCurrentProfileVersionById(db, profileId, shopId),
-    listProfileVersions(db, profileId, shopId),
-  ])
-  if (!profile || !current) return undefined
-  return {
-    profile: { ...profileVersionJson(current), archived: profile.archived, createdAt: profile.created_at },
-    versions: versions.map((v) => ({
-      id: v.id,
-      version: v.version,
-      settings: resolveProfile(v.settings),
-      roadTestChecks: resolveRoadTestChecks(v.road_test_checks, profile.sensor),
-      createdAt: v.createdAt,
-      createdBy: v.createdByName,
-    })),
-  }
 }
 
 export function isDuplicateProfileKey(error: unknown) {

@@ -138,6 +138,11 @@ export function defaultRoadTestChecks(system: string | null | undefined): RoadTe
   return list.map((c) => ({ ...c }))
 }
 
+/** A profile version's checks as stored; a version saved before road tests existed (null) has its sensor's defaults. */
+export function storedRoadTestChecks(stored: RoadTestCheck[] | null, sensor: string | null): RoadTestCheck[] {
+  return stored ?? defaultRoadTestChecks(sensor)
+}
+
 /** The checks of several systems in order; a key met twice (corner and rear radar share some) is kept once. */
 export function mergeRoadTestChecks(lists: ReadonlyArray<readonly RoadTestCheck[]>): RoadTestCheck[] {
   const out: RoadTestCheck[] = []

@@ -1,20 +1,22 @@
 import "server-only"
 // The profile workflows: listing, creating under a unique key, and changes where new settings make a new version.
 import type { z } from "zod"
-import { getDb } from "@/db/client"
+import { getDb, type Db } from "@/db/client"
 import {
   findCurrentProfileVersionById,
   findProfileByKey,
+  findProfileInShop,
   insertProfile,
   insertProfileVersion,
   isDuplicateProfileKey,
   listProfiles,
-  loadProfileDetail,
-  profileVersionJson,
+  listProfileVersions,
   updateProfileFields,
+  type ProfileVersionInfo,
 } from "@/db/queries/profiles"
 import type { SessionUser } from "@/lib/auth/lucia"
 import { resolveProfile } from "@/lib/drive-file"
+import { storedRoadTestChecks } from "@/lib/drive-file/road-test"
 import { AppError, notFound } from "@/lib/errors"
 import { nextProfileVersion } from "@/lib/profiles/versioning"
 import { keyFromName, type newProfileSchema, type profileChangeSchema } from "@/lib/validation/profile"
@@ -23,6 +25,40 @@ import { keyFromName, type newProfileSchema, type profileChangeSchema } from "@/
 export async function listProfilesJson(user: SessionUser) {
   const rows = await listProfiles(getDb(), user.shopId)
   return rows.map((r) => ({ ...profileVersionJson(r), archived: r.archived, versionCreatedAt: r.versionCreatedAt }))
+}
+
+function profileVersionJson(p: ProfileVersionInfo) {
+  return {
+    id: p.profileId,
+    key: p.key,
+    name: p.name,
+    sensor: p.sensor,
+    version: p.version,
+    versionId: p.versionId,
+    settings: p.settings,
+    roadTestChecks: p.roadTestChecks,
+  }
+}
+
+/** GET /api/profiles/:id's body: the profile at its current version, and every version newest first. */
+export async function loadProfileDetail(db: Db, profileId: string, shopId: string) {
+  const [profile, current, versions] = await Promise.all([
+    findProfileInShop(db, profileId, shopId),
+    findCurrentProfileVersionById(db, profileId, shopId),
+    listProfileVersions(db, profileId, shopId),
+  ])
+  if (!profile || !current) return undefined
+  return {
+    profile: { ...profileVersionJson(current), archived: profile.archived, createdAt: profile.created_at },
+    versions: versions.map((v) => ({
+      id: v.id,
+      version: v.version,
+      settings: resolveProfile(v.settings),
+      roadTestChecks: storedRoadTestChecks(v.road_test_checks, profile.sensor),
+      createdAt: v.createdAt,
+      createdBy: v.createdByName,
+    })),
+  }
 }
 
 export async function profileDetail(user: SessionUser, profileId: string) {
