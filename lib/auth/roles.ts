@@ -20,3 +20,18 @@ export const ROLE_HOME: Record<Role, string> = {
   shop_lead: "/review",
   admin: "/admin/users",
 }
+
+/**
+ * Why an admin may not make this change to a person, or null when they may. An admin never disables themself nor
+ * takes away their own admin role: the shop would be left with no one who can undo it.
+ */
+export function refusedPersonChange(
+  actorId: string,
+  targetId: string,
+  change: { role?: Role | undefined; disabled?: boolean | undefined },
+): string | null {
+  if (actorId !== targetId) return null
+  if (change.disabled || (change.role && change.role !== "admin"))
+    return "You cannot disable yourself or take away your own admin role."
+  return null
+}
