@@ -1,12 +1,16 @@
 "use client"
 
+import { zodResolver } from "@hookform/resolvers/zod"
 import { useRouter } from "next/navigation"
 import { useState, useSyncExternalStore } from "react"
+import { useForm, useWatch } from "react-hook-form"
+import type { z } from "zod"
 import { apiFetch } from "@/lib/api/client"
 import { Button } from "@/components/ui/button"
 import { Field, Input, Select } from "@/components/ui/field"
 import { formatDateTime, type UnitSystem } from "@/lib/format"
-import { parseLocationInput } from "@/lib/validation/shop-location"
+import { shopFormatSchema } from "@/lib/validation/profile"
+import { shopLocationFormSchema } from "@/lib/validation/shop-location"
 
 function Saved({ message }: { message: string | null }) {
   return (
@@ -80,26 +84,25 @@ export function ShopFormatForm({
 }) {
   const router = useRouter()
   const now = useClock()
-  const [units, setUnits] = useState(initial.units)
-  const [timeZone, setTimeZone] = useState(initial.timeZone)
   const [message, setMessage] = useState<string | null>(null)
-  const [busy, setBusy] = useState(false)
-  async function save(e: React.FormEvent) {
-    e.preventDefault()
-    setBusy(true)
+  const form = useForm<z.input<typeof shopFormatSchema>>({
+    resolver: zodResolver(shopFormatSchema),
+    defaultValues: initial,
+  })
+  const timeZone = useWatch({ control: form.control, name: "timeZone" })
+  const { errors, isSubmitting } = form.formState
+  async function save(values: z.output<typeof shopFormatSchema>) {
     setMessage(null)
     try {
-      await apiFetch("/api/shop/settings", { method: "PATCH", body: { units, timeZone } })
+      await apiFetch("/api/shop/settings", { method: "PATCH", body: values })
       setMessage("Saved. Pages, records and e-mails use these from now on.")
       router.refresh()
     } catch (error) {
       setMessage((error as Error).message)
-    } finally {
-      setBusy(false)
     }
   }
   return (
-    <form onSubmit={save} className="space-y-4">
+    <form onSubmit={form.handleSubmit(save)} className="space-y-4" noValidate>
       <fieldset className="space-y-2" disabled={!canEdit}>
         <legend className="text-sm font-semibold">Units</legend>
         {(
@@ -109,14 +112,7 @@ export function ShopFormatForm({
           ] as const
         ).map(([value, label]) => (
           <label key={value} className="flex min-h-12 items-center gap-3">
-            <input
-              type="radio"
-              name="units"
-              value={value}
-              className="size-5"
-              checked={units === value}
-              onChange={() => setUnits(value)}
-            />
+            <input type="radio" value={value} className="size-5" {...form.register("units")} />
             {label}
           </label>
         ))}
@@ -128,8 +124,9 @@ export function ShopFormatForm({
         label="Time zone"
         htmlFor="time-zone"
         hint={`Now: ${now == null ? serverNow : formatDateTime(now, timeZone, { zoneName: true })}`}
+        error={errors.timeZone?.message && `Time zone ${errors.timeZone.message}.`}
       >
-        <Select id="time-zone" value={timeZone} onChange={(e) => setTimeZone(e.target.value)} disabled={!canEdit}>
+        <Select id="time-zone" disabled={!canEdit} {...form.register("timeZone")}>
           {zones.map((z) => (
             <option key={z} value={z}>
               {z.replaceAll("_", " ")}
@@ -138,7 +135,7 @@ export function ShopFormatForm({
         </Select>
       </Field>
       {canEdit ? (
-        <Button type="submit" disabled={busy} data-testid="save-shop-format">
+        <Button type="submit" disabled={isSubmitting} data-testid="save-shop-format">
           Save units and time zone
         </Button>
       ) : (
@@ -158,86 +155,66 @@ export function ShopLocationForm({
   canEdit: boolean
 }) {
   const router = useRouter()
-  const [lat, setLat] = useState(initial ? String(initial.lat) : "")
-  const [lon, setLon] = useState(initial ? String(initial.lon) : "")
-  const [error, setError] = useState<{ field: "lat" | "lon"; message: string } | null>(null)
   const [message, setMessage] = useState<string | null>(null)
-  const [busy, setBusy] = useState(false)
-  async function save(e: React.FormEvent) {
-    e.preventDefault()
+  const form = useForm<z.input<typeof shopLocationFormSchema>, unknown, z.output<typeof shopLocationFormSchema>>({
+    resolver: zodResolver(shopLocationFormSchema),
+    defaultValues: { lat: initial ? String(initial.lat) : "", lon: initial ? String(initial.lon) : "" },
+  })
+  const { errors, isSubmitting } = form.formState
+  async function save(location: z.output<typeof shopLocationFormSchema>) {
     setMessage(null)
-    const parsed = parseLocationInput(lat, lon)
-    if (!parsed.ok) {
-      setError(parsed)
-      return
-    }
-    setError(null)
-    setBusy(true)
     try {
-      await apiFetch("/api/shop/settings", { method: "PATCH", body: { location: parsed.location } })
+      await apiFetch("/api/shop/settings", { method: "PATCH", body: { location } })
       setMessage(
-        parsed.location
+        location
           ? "Saved. The Roads page draws its map around this place."
           : "Saved: no location. The Roads page takes the middle of where drives start.",
       )
       router.refresh()
     } catch (err) {
       setMessage((err as Error).message)
-    } finally {
-      setBusy(false)
     }
   }
   return (
-    <form onSubmit={save} className="space-y-4" data-testid="shop-location-form" noValidate>
+    <form onSubmit={form.handleSubmit(save)} className="space-y-4" data-testid="shop-location-form" noValidate>
       <div className="grid gap-3 sm:grid-cols-2">
-        <Field
-          label="Latitude"
-          htmlFor="shop-lat"
-          hint="Decimal degrees, north positive"
-          error={error?.field === "lat" ? error.message : undefined}
-        >
+        <Field label="Latitude" htmlFor="shop-lat" hint="Decimal degrees, north positive" error={errors.lat?.message}>
           <Input
             id="shop-lat"
             inputMode="decimal"
             autoComplete="off"
             placeholder="43.8731"
-            value={lat}
-            onChange={(e) => setLat(e.target.value)}
             disabled={!canEdit}
+            {...form.register("lat")}
           />
         </Field>
         <Field
           label="Longitude"
           htmlFor="shop-lon"
           hint="Decimal degrees, east positive (west is minus)"
-          error={error?.field === "lon" ? error.message : undefined}
+          error={errors.lon?.message}
         >
           <Input
             id="shop-lon"
             inputMode="decimal"
             autoComplete="off"
             placeholder="-91.9187"
-            value={lon}
-            onChange={(e) => setLon(e.target.value)}
             disabled={!canEdit}
+            {...form.register("lon")}
           />
         </Field>
       </div>
       {canEdit ? (
         <div className="flex flex-wrap gap-2">
-          <Button type="submit" disabled={busy} data-testid="save-shop-location">
+          <Button type="submit" disabled={isSubmitting} data-testid="save-shop-location">
             Save location
           </Button>
           {initial ? (
             <Button
               type="button"
               variant="outline"
-              disabled={busy}
-              onClick={() => {
-                setLat("")
-                setLon("")
-                setError(null)
-              }}
+              disabled={isSubmitting}
+              onClick={() => form.reset({ lat: "", lon: "" })}
             >
               Clear
             </Button>

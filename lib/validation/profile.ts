@@ -44,15 +44,21 @@ export function keyFromName(name: string): string {
   return key.length >= 2 ? key : `profile-${key || "x"}`
 }
 
+const unitsField = z.enum(["imperial", "metric"])
+const timeZoneField = z.string().max(64).refine(isTimeZone, "must be a time zone name such as America/Chicago")
+
+/** The settings page's units and time zone form. */
+export const shopFormatSchema = z.object({ units: unitsField, timeZone: timeZoneField })
+
 export const shopSettingsSchema = z
   .object({
-    units: z.enum(["imperial", "metric"]).optional(),
+    units: unitsField.optional(),
     tirePressureTolerancePsi: z
       .number()
       .min(0.5, "must be at least 0.5 psi")
       .max(15, "must be at most 15 psi")
       .optional(),
-    timeZone: z.string().max(64).refine(isTimeZone, "must be a time zone name such as America/Chicago").optional(),
+    timeZone: timeZoneField.optional(),
     location: z
       .object({ lat: z.number().min(-90).max(90), lon: z.number().min(-180).max(180) })
       .nullable()

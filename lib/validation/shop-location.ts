@@ -1,3 +1,5 @@
+import { z } from "zod"
+
 // The shop's place as typed on the settings page: two fields of decimal degrees, both empty for "none"
 // (the Roads page then takes the middle of where the shop's drives start).
 
@@ -32,3 +34,11 @@ export function parseLocationInput(latText: string, lonText: string): LocationIn
   if (!lon.ok) return lon
   return { ok: true, location: { lat: lat.value, lon: lon.value } }
 }
+
+/** The settings page's location form: the two texts in, the location (or null for none) out. */
+export const shopLocationFormSchema = z.object({ lat: z.string(), lon: z.string() }).transform((v, ctx) => {
+  const parsed = parseLocationInput(v.lat, v.lon)
+  if (parsed.ok) return parsed.location
+  ctx.addIssue({ code: "custom", path: [parsed.field], message: parsed.message })
+  return z.NEVER
+})

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest"
 import { shopSettingsSchema } from "@/lib/validation/profile"
-import { parseLocationInput } from "@/lib/validation/shop-location"
+import { parseLocationInput, shopLocationFormSchema } from "@/lib/validation/shop-location"
 
 describe("the shop's location as typed on the settings page", () => {
   it("reads decimal degrees, with a decimal comma too, and both empty as no location", () => {
@@ -37,5 +37,20 @@ describe("the shop settings a PATCH may carry", () => {
     expect(shopSettingsSchema.safeParse({ location: { lat: 0, lon: 181 } }).success).toBe(false)
     expect(shopSettingsSchema.safeParse({ location: { lat: "43.8", lon: 0 } }).success).toBe(false)
     expect(shopSettingsSchema.safeParse({ location: { lat: 43.8 } }).success).toBe(false)
+  })
+})
+
+describe("the settings page's location form schema", () => {
+  it("gives the location, or null for two empty fields", () => {
+    expect(shopLocationFormSchema.parse({ lat: "43,8731", lon: "-91.9187" })).toEqual({ lat: 43.8731, lon: -91.9187 })
+    expect(shopLocationFormSchema.parse({ lat: " ", lon: "" })).toBeNull()
+  })
+
+  it("puts the problem on the field it belongs to", () => {
+    const result = shopLocationFormSchema.safeParse({ lat: "45", lon: "-180.5" })
+    expect(result.success).toBe(false)
+    expect(result.error?.issues).toEqual([
+      expect.objectContaining({ path: ["lon"], message: "must be between -180 and 180" }),
+    ])
   })
 })
