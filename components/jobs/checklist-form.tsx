@@ -6,9 +6,9 @@ import { CircleAlert, CircleCheck, TriangleAlert } from "lucide-react"
 import { useState } from "react"
 import { useForm, useWatch, type FieldPath } from "react-hook-form"
 import { Button } from "@/components/ui/button"
-import { ApiError, apiFetch } from "@/lib/api/client"
+import { apiFetch } from "@/lib/api/client"
 import { Field, Input, Select, Textarea } from "@/components/ui/field"
-import { errorAt as errorIn, FormDone, FormProblem, Options } from "@/components/ui/form"
+import { errorAt as errorIn, FormDone, FormProblem, Options, showApiProblem } from "@/components/ui/form"
 import { alignmentRequired, checkTires, kpaToPsi, psiToKpa } from "@/lib/checklist"
 import {
   checklistSchema,
@@ -120,11 +120,7 @@ export function ChecklistForm({
       await queryClient.invalidateQueries({ queryKey: ["job", jobId] })
       setSavedNow(true)
     } catch (error) {
-      if (error instanceof ApiError && error.fields) {
-        for (const [path, message] of Object.entries(error.fields))
-          form.setError(path as FieldPath<ChecklistInput>, { message })
-      }
-      setProblem(error instanceof Error ? error.message : "That did not save.")
+      setProblem(showApiProblem(form, error, "That did not save."))
     }
   }
 

@@ -5,12 +5,12 @@ import { useQuery, useQueryClient } from "@tanstack/react-query"
 import { Plus, Trash2 } from "lucide-react"
 import { useRouter } from "next/navigation"
 import { useState } from "react"
-import { useFieldArray, useForm, useWatch, type FieldPath } from "react-hook-form"
+import { useFieldArray, useForm, useWatch } from "react-hook-form"
 import { Button } from "@/components/ui/button"
 import { Card } from "@/components/ui/card"
-import { ApiError, apiFetch } from "@/lib/api/client"
+import { apiFetch } from "@/lib/api/client"
 import { Field, Input, Select } from "@/components/ui/field"
-import { errorAt, FormProblem, Options } from "@/components/ui/form"
+import { errorAt, FormProblem, Options, showApiProblem } from "@/components/ui/form"
 import {
   METHOD_LABEL,
   METHODS,
@@ -68,11 +68,7 @@ export function JobForm({ jobId, initial }: { jobId?: string; initial?: JobFormV
       router.push(`/jobs/${job.id}`)
       router.refresh()
     } catch (error) {
-      if (error instanceof ApiError && error.fields) {
-        for (const [path, message] of Object.entries(error.fields))
-          form.setError(path as FieldPath<NewJobInput>, { message })
-      }
-      setProblem(error instanceof Error ? error.message : "That did not work.")
+      setProblem(showApiProblem(form, error, "That did not work."))
     }
   }
 

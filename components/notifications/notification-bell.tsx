@@ -5,6 +5,7 @@ import Link from "next/link"
 import { useEffect, useRef, useState } from "react"
 import { cn } from "@/components/ui/cn"
 import { LocalTime } from "@/components/ui/local-time"
+import { useDismiss } from "@/components/ui/use-dismiss"
 import { api } from "@/lib/api/client"
 import type { NoticeList, Wire } from "@/lib/api/types"
 
@@ -40,18 +41,7 @@ export function NotificationBell({ className }: { className?: string }) {
     }
   }, [])
 
-  useEffect(() => {
-    if (!open) return
-    const close = (e: MouseEvent | KeyboardEvent) => {
-      if (e instanceof KeyboardEvent ? e.key === "Escape" : !panel.current?.contains(e.target as Node)) setOpen(false)
-    }
-    document.addEventListener("mousedown", close)
-    document.addEventListener("keydown", close)
-    return () => {
-      document.removeEventListener("mousedown", close)
-      document.removeEventListener("keydown", close)
-    }
-  }, [open])
+  useDismiss(open, [panel], () => setOpen(false))
 
   async function toggle() {
     const next = !open

@@ -18,6 +18,7 @@ import Link from "next/link"
 import { usePathname } from "next/navigation"
 import { useEffect, useRef, useState } from "react"
 import { cn } from "@/components/ui/cn"
+import { useDismiss } from "@/components/ui/use-dismiss"
 import { BOTTOM_BAR_SLOTS, type NavItem } from "./nav-items"
 
 const ICONS: Record<string, LucideIcon> = {
@@ -121,24 +122,12 @@ function MoreSheet({
   const sheet = useRef<HTMLDivElement>(null)
   const button = useRef<HTMLButtonElement>(null)
   useEffect(() => {
-    if (!open) return
-    sheet.current?.querySelector("a")?.focus()
-    const close = (e: MouseEvent | KeyboardEvent) => {
-      if (e instanceof KeyboardEvent) {
-        if (e.key === "Escape") {
-          setOpen(false)
-          button.current?.focus()
-        }
-      } else if (!sheet.current?.contains(e.target as Node) && !button.current?.contains(e.target as Node))
-        setOpen(false)
-    }
-    document.addEventListener("mousedown", close)
-    document.addEventListener("keydown", close)
-    return () => {
-      document.removeEventListener("mousedown", close)
-      document.removeEventListener("keydown", close)
-    }
+    if (open) sheet.current?.querySelector("a")?.focus()
   }, [open])
+  useDismiss(open, [sheet, button], (how) => {
+    setOpen(false)
+    if (how === "escape") button.current?.focus()
+  })
   return (
     <>
       <button

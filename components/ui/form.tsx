@@ -1,6 +1,22 @@
 import { CircleAlert, CircleCheck } from "lucide-react"
 import type { ReactNode } from "react"
+import type { FieldPath, FieldValues, UseFormReturn } from "react-hook-form"
+import { ApiError } from "@/lib/api/client"
 import { cn } from "./cn"
+
+/**
+ * After a refused save: the API's field problems (`error.fields`, dotted paths such as `tasks.0.sensor`) go on the
+ * form's fields, and the sentence for the whole form is returned (the API's message, else `fallback`).
+ */
+export function showApiProblem<T extends FieldValues>(
+  form: Pick<UseFormReturn<T>, "setError">,
+  error: unknown,
+  fallback: string,
+): string {
+  if (error instanceof ApiError && error.fields)
+    for (const [path, message] of Object.entries(error.fields)) form.setError(path as FieldPath<T>, { message })
+  return error instanceof Error ? error.message : fallback
+}
 
 /** A form's problem after a save: word, icon and colour, announced to screen readers. */
 export function FormProblem({ children, className }: { children: ReactNode; className?: string }) {
