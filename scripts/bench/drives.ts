@@ -107,7 +107,8 @@ async function rawInsert(databaseUrl: string, driveId: string, shopId: string, s
   const client = new pg.Client({ connectionString: databaseUrl })
   await client.connect()
   try {
-    const { rows: keys } = await client.query("select sample_key from drive where id = $1 and shop_id = $2", [
+    // driveId is the public id the API was given; the row is found by it and the shop
+    const { rows: keys } = await client.query("select sample_key from drive where public_id = $1 and shop_id = $2", [
       driveId,
       shopId,
     ])

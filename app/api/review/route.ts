@@ -17,7 +17,7 @@ export const GET = route(async (req) => {
     drives: rows.map((r) => {
       const score = r.result as { reasons?: string[]; harshEvents?: { accel: number; decel: number } }
       return {
-        id: r.id,
+        id: r.public_id,
         jobId: r.job_id,
         taskId: r.task_id,
         roNumber: r.ro_number,
