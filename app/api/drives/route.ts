@@ -70,7 +70,7 @@ export const POST = route(async (req) => {
   return made ? Response.json({ drive: driveJson(drive) }, { status: 201 }) : replay(drive)
 })
 
-/** A drive of this shop with this id that the user may not see (another technician's): start with a new id. */
+/** A drive of this shop with this id that the user may not see: start with a new id. */
 function taken() {
   return new AppError("conflict", "That drive id is taken; start with a new one.")
 }

@@ -53,12 +53,20 @@ describe("POST /api/drives and GET /api/drives", () => {
     expect(listed.vehicle).toEqual({ year: 2010, make: "Invented", model: "Larkin" })
   })
 
-  it("refuses another shop's drive id without showing that drive", async () => {
+  // Drive ids are per shop (DEVELOPERS.md "Drive ids: public per shop, internal across the server").
+  it("makes another shop's drive with an id this shop uses its own new drive, showing nothing of this one", async () => {
     const drive = await startDrive(tech, { vehicleDescription: "Secret description 4471" })
     const other = await createTestShop("Other")
     const res = await (await signedIn(other.tech)).post("/api/drives", { id: drive.id })
-    expect(res.status).toBe(409)
+    expect(res.status).toBe(201)
+    expect(res.body.drive).toMatchObject({ id: drive.id, driverId: other.tech.id, vehicleDescription: null })
     expect(res.text).not.toContain("Secret description 4471")
+    expect(res.text).not.toContain(shop.tech.id)
+    // this shop's drive is as it was
+    expect((await tech.get(`/api/drives/${drive.id}`)).body.drive).toMatchObject({
+      vehicleDescription: "Secret description 4471",
+      driverId: shop.tech.id,
+    })
   })
 
   it("freezes the default profile when none is named, and a shop profile by key", async () => {
