@@ -8,6 +8,7 @@ import pg from "pg"
 import { createDb, type Db } from "@/db/client"
 import { hashPassword } from "@/lib/auth/password"
 import { driveKey } from "@/db/queries/samples"
+import { internalDriveId } from "@/lib/drive-id"
 import type { Sample } from "@/lib/drive-file"
 import { encodeDegrees, encodeMillis } from "@/lib/drive-file/stored"
 import { flushOutbox, makeItem, memoryOutboxStore, type Transport } from "@/lib/recorder/outbox"
@@ -192,7 +193,7 @@ export const syncSecondsFor36k: BenchFigure = {
     const { n } = await r.db
       .selectFrom("sample")
       .select((eb) => eb.fn.countAll<string>().as("n"))
-      .where("drive_key", "=", driveKey(driveId, r.shopId))
+      .where("drive_key", "=", driveKey(internalDriveId(r.shopId, driveId), r.shopId))
       .executeTakeFirstOrThrow()
     if (Number(n) !== file.samples.length) throw new Error(`sync stored ${n} of ${file.samples.length} samples`)
     await r.cleanup()
