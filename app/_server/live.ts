@@ -361,7 +361,6 @@ async function snapshot(db: Db, drive: Drive) {
     lastEventId,
     drive: {
       id: drive.public_id, // the recorder compares it with its own id
-
       roNumber: ro,
       vehicleDescription: drive.vehicle_description,
       createdAt: drive.created_at,

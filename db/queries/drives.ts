@@ -52,7 +52,8 @@ export async function insertDrive(db: Db, v: NewDriveValues): Promise<boolean> {
       kind: v.kind ?? "learn",
       road_test: v.roadTest ? JSON.stringify(v.roadTest) : null,
     })
-    .onConflict((oc) => oc.column("id").doNothing())
+    // Every unique key is an arbiter: the same drive races in on `id` and on (shop_id, public_id) alike.
+    .onConflict((oc) => oc.doNothing())
     .returning("id")
     .execute()
   return rows.length === 1
