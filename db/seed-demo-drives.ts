@@ -2,6 +2,7 @@
 // models, VINs (valid check digits from lib/vin), and tracks made by lib/tracks. Idempotent: a job whose
 // RO number exists is left alone, so re-running changes nothing.
 import { randomUUID } from "node:crypto"
+import { internalDriveId } from "@/lib/drive-id"
 import { resolveProfile } from "@/lib/drive-file/profile"
 import { describeVehicle, VERDICT_WORD } from "@/lib/record/format"
 import { storedSample } from "@/lib/drive-file/stored"
@@ -278,13 +279,15 @@ export async function seedDemoJobsAndDrives(db: Db, shopId: string) {
         })
         const file = { ...generated, samples: generated.samples.map(storedSample) } // scored as stored
         const score = scoreDrive(file)
-        const driveId = randomUUID()
+        const publicId = randomUUID()
+        const driveId = internalDriveId(shopId, publicId)
         const needsReview = score.verdict !== "met" || score.harshEvents.accel + score.harshEvents.decel > 0
         const reviewStatus = d.review === "approved" ? "approved" : d.review === "redo" ? "redo" : null
         await trx
           .insertInto("drive")
           .values({
             id: driveId,
+            public_id: publicId,
             shop_id: shopId,
             job_id: job.id,
             task_id: task.id,
@@ -357,7 +360,7 @@ export async function seedDemoJobsAndDrives(db: Db, shopId: string) {
                 shop_id: shopId,
                 user_id: l.id,
                 message: `A drive waits for your review (${demo.ro}, ${vehicleWords}): ${VERDICT_WORD[score.verdict]}, driven by ${tech.name}.`,
-                link: `/drives/${driveId}`,
+                link: `/drives/${publicId}`,
                 created_at: new Date(score.endedAtMs ?? startMs),
               })
               .execute()

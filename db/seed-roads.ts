@@ -2,6 +2,7 @@
 // (lib/tracks/roads), at different hours, scored and added to the road model the same way a finished
 // drive is. Idempotent: once the history exists, re-running changes nothing.
 import { createHash } from "node:crypto"
+import { internalDriveId } from "@/lib/drive-id"
 import { resolveProfile } from "@/lib/drive-file/profile"
 import { storedSample } from "@/lib/drive-file/stored"
 import { computeDriveContribution } from "@/lib/roads/aggregate"
@@ -98,8 +99,9 @@ export async function seedRoadHistory(
     })
     const file = { ...generated, samples: generated.samples.map(storedSample) } // scored as stored
     const score = scoreDrive(file)
-    const id = uuidFrom(`${shopId}:road-history:${k}`)
-    const drive = { id, shop_id: shopId, profile_version_id: profile?.version_id ?? null }
+    const publicId = uuidFrom(`${shopId}:road-history:${k}`)
+    const id = internalDriveId(shopId, publicId)
+    const drive = { id, public_id: publicId, shop_id: shopId, profile_version_id: profile?.version_id ?? null }
     await db.transaction().execute(async (trx) => {
       await trx
         .insertInto("drive")

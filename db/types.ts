@@ -146,7 +146,13 @@ export interface AttachmentTable {
 }
 
 export interface DriveTable {
+  /**
+   * The internal id: drive_internal_id(shop_id, public_id) (lib/drive-id.ts), unique across the server, the key
+   * every child table, lock, notice and cache uses. Never shown: people, the API and files see `public_id`.
+   */
   id: string
+  /** The drive's id as people, the API, the recorder and files know it; unique within its shop only. */
+  public_id: string
   shop_id: string
   job_id: string | null
   task_id: string | null
@@ -202,6 +208,7 @@ export interface SampleTable {
 
 /** View `sample_decoded`: samples in the drive file's units with their drive id and shop (for reading by hand and tests). */
 export interface SampleDecodedView {
+  /** The drive's public id (unique within its shop only: filter by shop_id too). */
   drive_id: string
   shop_id: string
   t: number

@@ -360,7 +360,7 @@ async function snapshot(db: Db, drive: Drive) {
   return {
     lastEventId,
     drive: {
-      id: drive.id,
+      id: drive.public_id, // the recorder compares it with its own id
       roNumber: ro,
       vehicleDescription: drive.vehicle_description,
       createdAt: drive.created_at,

@@ -11,7 +11,7 @@ export async function loadNumbersDrives(db: Db, shopId: string, days: number): P
   const since = new Date(Date.now() - days * 86_400_000)
   const rows = await listDrivesForNumbers(db, shopId, since)
   return rows.map((r) => ({
-    driveId: r.id,
+    driveId: r.public_id,
     finishedAt: new Date(r.finished_at ?? 0).toISOString(),
     verdict: (r.verdict ?? "not_met") as Verdict,
     profileName: r.profile_name ?? "Profile set on the drive",

@@ -21,7 +21,7 @@ export async function loadCalibrations(
     db
       .selectFrom("drive as d")
       .leftJoin("score as s", (j) => j.onRef("s.drive_id", "=", "d.id").on("s.shop_id", "=", shopId))
-      .select(["d.id", "d.task_id", "d.kind", "d.verdict", "d.status", "d.created_at", "s.result"])
+      .select(["d.id", "d.public_id", "d.task_id", "d.kind", "d.verdict", "d.status", "d.created_at", "s.result"])
       .where("d.job_id", "=", jobId)
       .where("d.shop_id", "=", shopId)
       .orderBy("d.created_at")
@@ -64,14 +64,14 @@ export async function loadCalibrations(
       learnDrives: drives
         .filter((d) => d.kind !== "road_test" && d.task_id === t.id)
         .map((d) => ({
-          driveId: d.id,
+          driveId: d.public_id,
           verdict: d.verdict,
           startedAt: new Date(d.created_at).toISOString(),
           thisDrive: d.id === thisDriveId,
         })),
       roadTest: latestRoadTest
         ? {
-            driveId: latestRoadTest.id,
+            driveId: latestRoadTest.public_id,
             verdict: latestRoadTest.verdict,
             thisDrive: latestRoadTest.id === thisDriveId,
             checks: checks.map((c) => ({

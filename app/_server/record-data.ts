@@ -4,11 +4,13 @@ import { findChecklistForTask } from "@/db/queries/checklists"
 import {
   findDriveRecordHead,
   findLatestReview,
+  findSharedDriveByToken,
   findSharedDriveShop,
   listMarksWithLoggers,
   listRecordPhotos,
 } from "@/db/queries/reviews"
 import { env } from "@/lib/env"
+import { sha256Hex } from "@/lib/record/seal"
 import { DEFAULT_TIME_ZONE, isTimeZone } from "@/lib/format"
 import { shareTokenDriveId, verifyShareToken } from "@/lib/share"
 import { listSamples } from "@/db/queries/samples"
@@ -62,7 +64,7 @@ export async function loadRecordData(
   const settings = (head.shop_settings ?? {}) as ShopSettings
   const markLoggers = [...new Set(marks.map((m) => m.by_name).filter((n): n is string => Boolean(n)))]
   const data: RecordData = {
-    driveId: head.id,
+    driveId: head.public_id,
     shopName: head.shop_name,
     job: head.ro_number ? { roNumber: head.ro_number, customerName: head.customer_name ?? "" } : null,
     vehicle: head.vin
@@ -118,9 +120,9 @@ export async function loadRecordData(
   return { head, data }
 }
 
-export function recordFilename(head: Pick<RecordHead, "id" | "ro_number">) {
+export function recordFilename(head: Pick<RecordHead, "public_id" | "ro_number">) {
   const ro = head.ro_number?.replace(/[^A-Za-z0-9_-]+/g, "-").slice(0, 40)
-  return `drive-record-${ro || head.id.slice(0, 8)}.pdf`
+  return `drive-record-${ro || head.public_id.slice(0, 8)}.pdf`
 }
 
 export type SharedRecord =
@@ -133,7 +135,11 @@ export type SharedRecord =
  */
 export async function loadSharedRecord(db: Db, token: string, opts: { photos?: boolean } = {}): Promise<SharedRecord> {
   const namedId = shareTokenDriveId(token)
-  const named = namedId ? await findSharedDriveShop(db, namedId) : undefined
+  // A token names the drive's internal id; one made before drive ids were per shop names its public id and is
+  // found through its share_link row instead.
+  const named = namedId
+    ? ((await findSharedDriveShop(db, namedId)) ?? (await findSharedDriveByToken(db, sha256Hex(token))))
+    : undefined
   const check = verifyShareToken(env().APP_SECRET, token, Date.now(), named?.share_epoch ?? 0)
   if (!check.ok) return { ok: false, reason: check.reason }
   const drive = named

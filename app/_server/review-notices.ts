@@ -34,7 +34,7 @@ export async function noticeDriveWaiting(trx: Db, drive: Drive, score: Score): P
   const what = `${head?.ro_number ? `${roLabel(head.ro_number)}, ` : ""}${vehicle}`
   const verdict = drive.verdict ? (VERDICT_WORD[drive.verdict] ?? drive.verdict) : "not scored"
   const message = `A drive waits for your review (${what}): ${verdict}, driven by ${head?.driver_name ?? "someone"}.`
-  const link = `/drives/${drive.id}`
+  const link = `/drives/${drive.public_id}`
   const mails: Outgoing[] = []
   for (const lead of leads) {
     if (lead.id === drive.driver_id) continue

@@ -40,7 +40,7 @@ export interface SealResult {
  */
 export async function sealRevision(
   trx: Db,
-  drive: { id: string; shop_id: string },
+  drive: { id: string; public_id: string; shop_id: string },
   opts: { cause: RevisionCause; score: Score; driveFile?: AnyDriveFile; by?: string | null },
 ): Promise<SealResult> {
   const [driveFile, review, latest] = await Promise.all([
@@ -49,7 +49,7 @@ export async function sealRevision(
     findLatestRevision(trx, drive.id, drive.shop_id),
   ])
   const sealed = {
-    driveId: drive.id,
+    driveId: drive.public_id, // the id the record prints (for drives from before public ids, the same id)
     driveFile,
     score: opts.score,
     review: review ? { decision: review.decision, note: review.note } : null,
@@ -82,7 +82,7 @@ export type FollowUp = { mail: OutgoingMail[] }
  */
 export async function noticeVerdictChange(
   trx: Db,
-  drive: { id: string; shop_id: string },
+  drive: { id: string; public_id: string; shop_id: string },
   sealed: SealResult,
 ): Promise<FollowUp | undefined> {
   const before = sealed.previous?.verdict
@@ -98,7 +98,7 @@ export async function noticeVerdictChange(
   )}`
   const why = CAUSE_TEXT[sealed.revision.cause].toLowerCase()
   const message = `The verdict of ${what} changed after the finish, from ${VERDICT_WORD[before]} to ${VERDICT_WORD[now]} (${why}; revision ${sealed.revision.revision}). Records sent before show the old verdict.`
-  const link = `/drives/${drive.id}`
+  const link = `/drives/${drive.public_id}`
   for (const lead of leads) await insertNotification(trx, { shopId: drive.shop_id, userId: lead.id, message, link })
   const url = `${env().APP_URL.replace(/\/$/, "")}${link}`
   return {

@@ -174,10 +174,12 @@ async function loadModelPart(
   const loopById = new Map(loops.map((l) => [l.id, l]))
   const loopViews = ranked.map((l, i): RoadLoopView => {
     const loop = loopById.get(l.loopId)
-    const track = tracks.get(l.fastestDriveId) ?? []
+    const found = tracks.get(l.fastestDriveId)
+    const track = found?.track ?? []
     const far = farthest(track, home)
     return {
       ...l,
+      fastestDriveId: found?.publicId ?? l.fastestDriveId,
       rank: i + 1,
       number: loop?.number ?? 0,
       name: loop?.name ?? `Loop ${loop?.number ?? "?"}`,

@@ -14,7 +14,9 @@ export async function findDriveInShop(db: Db, driveId: string, shopId: string): 
 }
 
 export interface NewDriveValues {
+  /** The internal id, internalDriveId(shopId, publicId) (lib/drive-id.ts; the table's CHECK holds it to that). */
   id: string
+  publicId: string
   shopId: string
   jobId: string | null
   taskId: string | null
@@ -36,6 +38,7 @@ export async function insertDrive(db: Db, v: NewDriveValues): Promise<boolean> {
     .insertInto("drive")
     .values({
       id: v.id,
+      public_id: v.publicId,
       shop_id: v.shopId,
       job_id: v.jobId,
       task_id: v.taskId,
@@ -49,7 +52,8 @@ export async function insertDrive(db: Db, v: NewDriveValues): Promise<boolean> {
       kind: v.kind ?? "learn",
       road_test: v.roadTest ? JSON.stringify(v.roadTest) : null,
     })
-    .onConflict((oc) => oc.column("id").doNothing())
+    // Every unique key is an arbiter: the same drive races in on `id` and on (shop_id, public_id) alike.
+    .onConflict((oc) => oc.doNothing())
     .returning("id")
     .execute()
   return rows.length === 1

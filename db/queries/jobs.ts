@@ -191,7 +191,7 @@ export function findTaskInJob(db: Db, taskId: string, jobId: string, shopId: str
 function listDrivesForJob(db: Db, jobId: string, shopId: string, onlyCoDriverId?: string) {
   let q = db
     .selectFrom("drive")
-    .select(["id", "task_id", "status", "verdict", "review_status", "created_at", "finished_at"])
+    .select(["public_id as id", "task_id", "status", "verdict", "review_status", "created_at", "finished_at"])
     .where("job_id", "=", jobId)
     .where("shop_id", "=", shopId)
   if (onlyCoDriverId) q = q.where("co_driver_id", "=", onlyCoDriverId)

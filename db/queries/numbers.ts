@@ -20,6 +20,7 @@ export async function listDrivesForNumbers(db: Db, shopId: string, since: Date) 
     .leftJoin("condition_profile as p", (j) => j.onRef("p.id", "=", "pv.profile_id").on("p.shop_id", "=", shopId))
     .select([
       "drive.id",
+      "drive.public_id",
       "drive.finished_at",
       "drive.verdict",
       "drive.review_status",

@@ -21,6 +21,7 @@ export async function listReviewQueue(db: Db, shopId: string, cursor?: TimeCurso
       "vehicle.make as vehicle_make",
       "vehicle.model as vehicle_model",
       "drive.id",
+      "drive.public_id",
       "drive.job_id",
       "drive.task_id",
       "drive.vehicle_description",
@@ -184,13 +185,29 @@ export async function listRecordPhotos(db: Db, jobId: string, taskId: string | n
 
 /**
  * The shop a drive belongs to, for a share link only: the link's signature (made with the app secret)
- * is what grants access, so this is the one lookup by drive id alone. Every read after it filters by shop.
+ * is what grants access, so this is the one lookup by drive id alone (the internal id, unique across the
+ * server, which share tokens name). Every read after it filters by shop.
  */
 export async function findSharedDriveShop(db: Db, driveId: string) {
   return db
     .selectFrom("drive")
     .select(["id", "shop_id", "status", "share_epoch"])
     .where("id", "=", driveId)
+    .executeTakeFirst()
+}
+
+/**
+ * The drive a share link was made for, by the SHA-256 of its token: for links made before drive ids were
+ * per shop (migration 2026_12_03_0100_drive_public_id), whose token names the drive's public id.
+ */
+export async function findSharedDriveByToken(db: Db, tokenSha256: string) {
+  return db
+    .selectFrom("share_link")
+    .innerJoin("drive", (j) =>
+      j.onRef("drive.id", "=", "share_link.drive_id").onRef("drive.shop_id", "=", "share_link.shop_id"),
+    )
+    .select(["drive.id", "drive.shop_id", "drive.status", "drive.share_epoch"])
+    .where("share_link.token_sha256", "=", tokenSha256)
     .executeTakeFirst()
 }
 

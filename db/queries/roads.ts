@@ -251,19 +251,21 @@ export async function listLoops(db: Db, shopId: string) {
     .execute()
 }
 
+/** The road tracks of these drives (internal ids), each with the drive's public id, the one the API shows. */
 export async function findRoadTracks(
   db: Db,
   shopId: string,
   driveIds: string[],
-): Promise<Map<string, [number, number][]>> {
+): Promise<Map<string, { publicId: string; track: [number, number][] }>> {
   if (!driveIds.length) return new Map()
   const rows = await db
     .selectFrom("road_drive")
-    .select(["drive_id", "track"])
-    .where("shop_id", "=", shopId)
-    .where("drive_id", "in", driveIds)
+    .innerJoin("drive", (j) => j.onRef("drive.id", "=", "road_drive.drive_id").on("drive.shop_id", "=", shopId))
+    .select(["road_drive.drive_id", "drive.public_id", "road_drive.track"])
+    .where("road_drive.shop_id", "=", shopId)
+    .where("road_drive.drive_id", "in", driveIds)
     .execute()
-  return new Map(rows.map((r) => [r.drive_id, r.track]))
+  return new Map(rows.map((r) => [r.drive_id, { publicId: r.public_id, track: r.track }]))
 }
 
 /** The shop's place from where its drives start (median of up to the last 500 starts). */
@@ -290,10 +292,19 @@ export async function findLoopInShop(db: Db, loopId: string, shopId: string) {
 export async function listDrivesOfLoop(db: Db, loopId: string, shopId: string) {
   return db
     .selectFrom("road_drive")
-    .select(["drive_id", "started_at", "hour", "weekday", "driven_seconds", "qualifying_seconds", "cleared_seconds"])
-    .where("loop_id", "=", loopId)
-    .where("shop_id", "=", shopId)
-    .orderBy("started_at", "desc")
+    .innerJoin("drive", (j) => j.onRef("drive.id", "=", "road_drive.drive_id").on("drive.shop_id", "=", shopId))
+    .select([
+      "drive.public_id as drive_id", // the id the shop knows the drive by
+      "road_drive.started_at",
+      "road_drive.hour",
+      "road_drive.weekday",
+      "road_drive.driven_seconds",
+      "road_drive.qualifying_seconds",
+      "road_drive.cleared_seconds",
+    ])
+    .where("road_drive.loop_id", "=", loopId)
+    .where("road_drive.shop_id", "=", shopId)
+    .orderBy("road_drive.started_at", "desc")
     .execute()
 }
 

@@ -8,6 +8,7 @@ import pg from "pg"
 import { createDb, type Db } from "@/db/client"
 import { hashPassword } from "@/lib/auth/password"
 import { driveKey } from "@/db/queries/samples"
+import { internalDriveId } from "@/lib/drive-id"
 import type { Sample } from "@/lib/drive-file"
 import { encodeDegrees, encodeMillis } from "@/lib/drive-file/stored"
 import { flushOutbox, makeItem, memoryOutboxStore, type Transport } from "@/lib/recorder/outbox"
@@ -107,7 +108,8 @@ async function rawInsert(databaseUrl: string, driveId: string, shopId: string, s
   const client = new pg.Client({ connectionString: databaseUrl })
   await client.connect()
   try {
-    const { rows: keys } = await client.query("select sample_key from drive where id = $1 and shop_id = $2", [
+    // driveId is the public id the API was given; the row is found by it and the shop
+    const { rows: keys } = await client.query("select sample_key from drive where public_id = $1 and shop_id = $2", [
       driveId,
       shopId,
     ])
@@ -191,7 +193,7 @@ export const syncSecondsFor36k: BenchFigure = {
     const { n } = await r.db
       .selectFrom("sample")
       .select((eb) => eb.fn.countAll<string>().as("n"))
-      .where("drive_key", "=", driveKey(driveId, r.shopId))
+      .where("drive_key", "=", driveKey(internalDriveId(r.shopId, driveId), r.shopId))
       .executeTakeFirstOrThrow()
     if (Number(n) !== file.samples.length) throw new Error(`sync stored ${n} of ${file.samples.length} samples`)
     await r.cleanup()

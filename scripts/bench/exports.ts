@@ -1,6 +1,7 @@
 // exportPeakRssMb360k: the app server's peak resident memory (MB of 1,000,000 bytes) while one signed-in user
 // downloads a finished 360,000-sample drive (10 h at 10 Hz) as GPX, CSV and the drive file, one after the other.
 // The drive is stored straight into the database (an import would itself raise the server's memory first); the
+import { internalDriveId } from "@/lib/drive-id"
 // server's peak is reset just before the downloads (writing 5 to /proc/PID/clear_refs resets VmHWM) and read
 // after them, with VmRSS polled every 25 ms as a floor. Needs the running app (BASE_URL), its database
 // (DATABASE_URL) and the server's process id (BENCH_SERVER_PID, which `npm run bench` sets for its own stack).
@@ -66,12 +67,14 @@ export const exportPeakRssMb360k: BenchFigure = {
         .execute()
       const file = generateDrive({ seed: 360, minutes: SAMPLES / 600, hz: 10, pattern: "met" })
       if (file.samples.length !== SAMPLES) throw new Error(`generated ${file.samples.length} samples, not ${SAMPLES}`)
-      const driveId = randomUUID()
+      const publicId = randomUUID()
+      const driveId = internalDriveId(shopId, publicId)
       const at = new Date(file.samples[0]!.t)
       await db
         .insertInto("drive")
         .values({
           id: driveId,
+          public_id: publicId,
           shop_id: shopId,
           profile: JSON.stringify(resolveProfile(file.profile)),
           driver_id: userId,
@@ -122,7 +125,7 @@ export const exportPeakRssMb360k: BenchFigure = {
       const sizes: string[] = []
       try {
         for (const format of ["gpx", "csv", "drive"]) {
-          const res = await fetch(`${baseUrl}/api/drives/${driveId}/file?format=${format}`, { headers: { cookie } })
+          const res = await fetch(`${baseUrl}/api/drives/${publicId}/file?format=${format}`, { headers: { cookie } })
           if (!res.ok) throw new Error(`${format} export failed: ${res.status}`)
           let bytes = 0
           let newlines = 0

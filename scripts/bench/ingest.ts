@@ -6,6 +6,7 @@
 //                          statement)
 //   ingestAtCadenceP95Ms   100 simulated recorders sending every 5 s or 50 samples for 2 minutes, p95, 0 errors
 import { randomUUID } from "node:crypto"
+import { internalDriveId } from "@/lib/drive-id"
 import pg from "pg"
 import { createDb, type Db } from "@/db/client"
 import { findDriveAndBatch, ingestSampleBatch } from "@/db/queries/samples"
@@ -165,7 +166,10 @@ export const ingestCeilingRatio: BenchFigure = {
       if (res.status !== 200) throw new Error(`ingest failed: ${res.status}`)
     })
     // The same statements the route runs, through a pool of the app's size, without HTTP, Next.js or validation.
-    const sqlDrives = await Promise.all(Array.from({ length: CEILING_CLIENTS }, () => r.newDrive()))
+    // the queries take the drive's internal id, as the route has it after mapping the public id (lib/drive-id.ts)
+    const sqlDrives = (await Promise.all(Array.from({ length: CEILING_CLIENTS }, () => r.newDrive()))).map((id) =>
+      internalDriveId(r.shopId, id),
+    )
     const pool = new pg.Pool({ connectionString: ctx.env.DATABASE_URL, max: Number(ctx.env.DATABASE_POOL_MAX ?? 10) })
     const db = createDb(ctx.env.DATABASE_URL)
     // The app's session adapter, looked up by what the app looks up: the SHA-256 of the cookie's token

@@ -38,8 +38,8 @@ function bigShop(ctx: BenchContext): Promise<BigShop> {
     )
     // Two years of drives, about 137 a day; 98% finished, 70% met; older drives mostly reviewed.
     await sql`
-      insert into drive (id, shop_id, vehicle_description, profile_version_id, profile, driver_id, status, verdict, review_status, created_at, finished_at)
-      select gen_random_uuid(), ${shopId}::uuid, 'Bench drive',
+      insert into drive (id, public_id, shop_id, vehicle_description, profile_version_id, profile, driver_id, status, verdict, review_status, created_at, finished_at)
+      select drive_internal_id(${shopId}::uuid, g.pid), g.pid, ${shopId}::uuid, 'Bench drive',
              (select id from condition_profile_version where shop_id = ${shopId}::uuid order by id offset (i % 3) limit 1),
              '{}'::jsonb, 'bench-' || ${shopId}::text || '-' || (1 + i % 12),
              case when i % 50 = 0 then 'recording' else 'finished' end,
@@ -47,7 +47,7 @@ function bigShop(ctx: BenchContext): Promise<BigShop> {
              case when i % 50 = 0 then null when (i * 7919) % 100 < 40 then null when i % 13 = 0 then 'redo' else 'approved' end,
              now() - make_interval(secs => (${DRIVES} - i) * (730 * 86400.0 / ${DRIVES})) - interval '40 minutes',
              case when i % 50 = 0 then null else now() - make_interval(secs => (${DRIVES} - i) * (730 * 86400.0 / ${DRIVES})) end
-      from generate_series(1, ${DRIVES}) i`.execute(db)
+      from (select i, gen_random_uuid() as pid from generate_series(1, ${DRIVES}) i) g`.execute(db)
     // A score for every finished drive; the trigger copies its figures onto the drive.
     await sql`
       insert into score (drive_id, shop_id, verdict, result)

@@ -4,6 +4,7 @@
 // roadsPageP95Ms: the Roads page (server-rendered, 10:00, any day) for a lead, with 2,000 drives in the shop's history:
 // the 95th percentile of 30 requests. Both need DATABASE_URL; the page also BASE_URL.
 import { randomUUID } from "node:crypto"
+import { internalDriveId } from "@/lib/drive-id"
 import { createDb, type Db } from "@/db/client"
 import { loadDriveFile } from "@/db/queries/drive-file"
 import { applyDriveContribution, updateRoadModel } from "@/db/queries/roads"
@@ -38,11 +39,13 @@ async function benchShop(db: Db, role: "technician" | "shop_lead") {
 }
 
 async function insertDriveRow(db: Db, shopId: string, userId: string, startMs: number) {
-  const id = randomUUID()
+  const publicId = randomUUID()
+  const id = internalDriveId(shopId, publicId)
   await db
     .insertInto("drive")
     .values({
       id,
+      public_id: publicId,
       shop_id: shopId,
       profile: JSON.stringify(resolveProfile({})),
       driver_id: userId,
@@ -51,7 +54,7 @@ async function insertDriveRow(db: Db, shopId: string, userId: string, startMs: n
       finished_at: new Date(startMs),
     })
     .execute()
-  return { id, shop_id: shopId, profile_version_id: null }
+  return { id, public_id: publicId, shop_id: shopId, profile_version_id: null }
 }
 
 export const roadModelUpdateMs: BenchFigure = {

@@ -6,6 +6,7 @@
 // are counted too), the month's pg_total_relation_size (table, indexes, TOAST, all forks) / 1,000,000.
 // The drives, their samples and the month are removed afterwards. Needs DATABASE_URL.
 import { randomUUID } from "node:crypto"
+import { internalDriveId } from "@/lib/drive-id"
 import { sql } from "kysely"
 import { createDb } from "@/db/client"
 import { insertSamples } from "@/db/queries/samples"
@@ -76,7 +77,8 @@ export const sampleBytes: BenchFigure = {
         .insertInto("drive")
         .values(
           drives.map((d) => ({
-            id: d.id,
+            id: internalDriveId(shopId, d.id),
+            public_id: d.id,
             shop_id: shopId,
             profile: JSON.stringify(resolveProfile({})),
             driver_id: userId,
@@ -90,7 +92,7 @@ export const sampleBytes: BenchFigure = {
       for (let k = 0; k < PER_DRIVE; k += SEND_MAX_SAMPLES) {
         for (const d of drives)
           jobs.push({
-            driveId: d.id,
+            driveId: internalDriveId(shopId, d.id),
             samples: track.slice(k, k + SEND_MAX_SAMPLES).map((s) => ({ ...s, t: s.t - t0 + d.startMs })),
           })
       }

@@ -1,5 +1,6 @@
 import type { BrowserContext, Page } from "playwright-core"
 import { afterAll, beforeAll, describe, expect, it } from "vitest"
+import { internalDriveId } from "@/lib/drive-id"
 import { generateDrive } from "@/lib/tracks"
 import { createTestShop, testDb, type TestShop } from "../helpers/db"
 import { launchBrowser, newPhoneContext, signInPage } from "../helpers/browser"
@@ -189,7 +190,7 @@ describe("one live picture of the drive on two phones", () => {
       const stored = await testDb()
         .selectFrom("mark")
         .select(["id", "kind"])
-        .where("drive_id", "=", driveId)
+        .where("drive_id", "=", internalDriveId(shop.shopId, driveId))
         .orderBy("t")
         .orderBy("seq")
         .execute()

@@ -1,5 +1,6 @@
 import type { BrowserContext, Page } from "playwright-core"
 import { beforeAll, describe, expect, it } from "vitest"
+import { internalDriveId } from "@/lib/drive-id"
 import { generateDrive } from "@/lib/tracks"
 import { createTestShop, testDb, type TestShop } from "../helpers/db"
 import { newPersistentPhoneContext, signInPage } from "../helpers/browser"
@@ -152,7 +153,7 @@ describe("the recorder on a phone", () => {
       const marks = await testDb()
         .selectFrom("mark")
         .select(["id", "t", "kind", "gap_ft", "text"])
-        .where("drive_id", "=", driveId)
+        .where("drive_id", "=", internalDriveId(shop.shopId, driveId))
         .orderBy("t")
         .orderBy("seq")
         .execute()

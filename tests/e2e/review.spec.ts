@@ -62,7 +62,7 @@ describe("reviewing a drive on a phone", () => {
     const row = await testDb()
       .selectFrom("drive")
       .select("review_status")
-      .where("id", "=", short.id)
+      .where("id", "=", short.internalId)
       .executeTakeFirstOrThrow()
     expect(row.review_status).toBe("redo")
 

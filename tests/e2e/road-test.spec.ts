@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest"
 import type { Browser, BrowserContext } from "playwright-core"
+import { internalDriveId } from "@/lib/drive-id"
 import { generateDrive } from "@/lib/tracks"
 import { createTestShop, testDb, type TestShop } from "../helpers/db"
 import { launchBrowser, newPhoneContext, signInPage } from "../helpers/browser"
@@ -154,7 +155,7 @@ describe("the road test on a phone", () => {
     const marks = await testDb()
       .selectFrom("mark")
       .select(["kind", "check_key", "result"])
-      .where("drive_id", "=", driveId)
+      .where("drive_id", "=", internalDriveId(shop.shopId, driveId))
       .orderBy("t")
       .execute()
     expect(marks.map((m) => [m.kind, m.check_key, m.result])).toEqual([

@@ -1,6 +1,7 @@
 import { randomUUID } from "node:crypto"
 import { createDb, type Db } from "@/db/client"
 import { hashPassword } from "@/lib/auth/password"
+import { internalDriveId } from "@/lib/drive-id"
 import type { Role } from "@/lib/auth/roles"
 import { testEnv } from "./env"
 
@@ -45,6 +46,11 @@ export async function createTestShop(label = "Test"): Promise<TestShop> {
     tech: await make("technician", "tech"),
     codriver: await make("co_driver", "codriver"),
   }
+}
+
+/** A drive row's ids for a direct insert: its public id (a new one unless given) and the internal id it makes. */
+export function testDriveIds(shopId: string, publicId: string = randomUUID()) {
+  return { id: internalDriveId(shopId, publicId), public_id: publicId }
 }
 
 /** Condition profiles like the demo seed's, for a test shop. */

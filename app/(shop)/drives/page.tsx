@@ -72,10 +72,10 @@ export default async function DrivesPage({
           {joinable.map((d) => (
             <Link
               key={d.id}
-              href={`/record/${d.id}/co-driver`}
+              href={`/record/${d.public_id}/co-driver`}
               className="block rounded-2xl border-2 border-signal-500 bg-signal-300/20 p-4 hover:bg-signal-300/30 dark:border-signal-400 dark:bg-signal-700/20"
               data-testid="join-card"
-              data-drive-id={d.id}
+              data-drive-id={d.public_id}
             >
               <span className="flex min-h-16 items-center gap-3 text-xl font-bold">
                 <Radio aria-hidden className="size-7 shrink-0" /> Join as co-driver
@@ -130,13 +130,15 @@ export default async function DrivesPage({
         >
           {rows.map((d) => {
             const href =
-              d.status === "recording" && user.role === "co_driver" ? `/record/${d.id}/co-driver` : `/drives/${d.id}`
+              d.status === "recording" && user.role === "co_driver"
+                ? `/record/${d.public_id}/co-driver`
+                : `/drives/${d.public_id}`
             return (
               <li key={d.id}>
                 <Link
                   href={href}
                   className="flex min-h-16 items-center gap-3 px-4 py-3 hover:bg-graphite-50 dark:hover:bg-asphalt-700"
-                  data-drive-id={d.id}
+                  data-drive-id={d.public_id}
                 >
                   <div className="min-w-0 flex-1">
                     <p className="line-clamp-2 font-semibold break-words">

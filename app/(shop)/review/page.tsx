@@ -43,8 +43,8 @@ export default async function ReviewPage() {
             const words = describeReasons(score, units)
             const harsh = (score.harshEvents?.accel ?? 0) + (score.harshEvents?.decel ?? 0)
             return (
-              <li key={r.id} data-drive-id={r.id}>
-                <Link href={`/drives/${r.id}`} className="block rounded-xl focus-visible:outline-3">
+              <li key={r.id} data-drive-id={r.public_id}>
+                <Link href={`/drives/${r.public_id}`} className="block rounded-xl focus-visible:outline-3">
                   <Card className="flex items-start gap-3 transition-colors hover:border-graphite-400">
                     <div className="min-w-0 flex-1 space-y-1.5">
                       <div className="flex flex-wrap items-center gap-2">

@@ -27,7 +27,7 @@ export async function reviewQueuePage(user: SessionUser, cursor: string | undefi
   const drives = rows.map((r) => {
     const score: Partial<Score> = r.result
     return {
-      id: r.id,
+      id: r.public_id,
       jobId: r.job_id,
       taskId: r.task_id,
       roNumber: r.ro_number,
@@ -89,7 +89,7 @@ export async function decideReview(
         userId: decided.drive.driver_id,
         message: `${reviewer.name} sent back your drive (${what}): ${input.note}`,
         // The job, where "Drive again" is the main action; a drive without a job opens the drive.
-        link: decided.drive.job_id ? `/jobs/${decided.drive.job_id}` : `/drives/${drive.id}`,
+        link: decided.drive.job_id ? `/jobs/${decided.drive.job_id}` : `/drives/${drive.public_id}`,
       })
     }
     // The decision is part of the sealed record: a new revision (DEVELOPERS.md "Record revisions and verification").
@@ -112,7 +112,7 @@ export async function decideReview(
           `Note: ${input.note}`,
           "",
           drive.job_id ? "The job is open again for another drive. Drive again from the job:" : "See the drive here:",
-          `${env().APP_URL.replace(/\/$/, "")}${drive.job_id ? `/jobs/${drive.job_id}` : `/drives/${drive.id}`}`,
+          `${env().APP_URL.replace(/\/$/, "")}${drive.job_id ? `/jobs/${drive.job_id}` : `/drives/${drive.public_id}`}`,
         ].join("\n"),
       })
     }

@@ -5,6 +5,7 @@ import { findJobInShop } from "@/db/queries/jobs"
 import { findCurrentProfileVersionById, findCurrentProfileVersionByKey } from "@/db/queries/profiles"
 import { findUserInShop } from "@/db/queries/users"
 import type { DriveActor } from "@/lib/access/drive"
+import { internalDriveId } from "@/lib/drive-id"
 import { resolveProfile, type Profile } from "@/lib/drive-file"
 import { validationFailed } from "@/lib/errors"
 import type { CreateDriveInput } from "@/lib/validation/drive"
@@ -14,11 +15,12 @@ import { resolveRoadTest } from "./_road-test"
  * Checks what a new drive refers to (job, task, co-driver, profile: all in the actor's shop; anything
  * else is a 400 naming the field, never a hint about other shops) and freezes the profile it is held to:
  * the task's condition profile (current version), else `profileKey`, else `profile`, else the defaults.
+ * `publicId` is the drive's id within the shop; its internal id follows from it (lib/drive-id.ts).
  */
 export async function resolveNewDrive(
   db: Db,
   actor: DriveActor,
-  id: string,
+  publicId: string,
   input: Pick<
     CreateDriveInput,
     "jobId" | "taskId" | "vehicleDescription" | "profileKey" | "profile" | "coDriverId" | "kind" | "roadTestChecks"
@@ -63,7 +65,8 @@ export async function resolveNewDrive(
     profile = version.settings
   }
   return {
-    id,
+    id: internalDriveId(actor.shopId, publicId),
+    publicId,
     shopId: actor.shopId,
     jobId,
     taskId: input.taskId ?? null,

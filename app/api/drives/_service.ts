@@ -28,6 +28,7 @@ import {
   type DriveActor,
 } from "@/lib/access/drive"
 import type { Role } from "@/lib/auth/roles"
+import { internalDriveId } from "@/lib/drive-id"
 import { AppError, notFound } from "@/lib/errors"
 import { scoreDrive, type Score } from "@/lib/scoring"
 
@@ -78,16 +79,28 @@ export function assertDriveAccess<D extends Drive>(drive: D | undefined, actor: 
 
 const driveIdParams = z.object({ driveId: uuidParam })
 
-/** Signed in (with one of `roles`) and the drive id from the path, for handlers that read the drive in a transaction. */
+/**
+ * The internal id (`drive.id`) of the actor's shop's drive with this public id: every drive id that comes in
+ * (path, body, query) goes through here, so a shop can only ever name its own drives (lib/drive-id.ts).
+ */
+export function shopDriveId(actor: Pick<DriveActor, "shopId">, publicId: string): string {
+  return internalDriveId(actor.shopId, publicId)
+}
+
+/**
+ * Signed in (with one of `roles`) and the drive's internal id from the path's public id, for handlers that
+ * read the drive in a transaction.
+ */
 export async function driveRouteIds(params: Promise<unknown>, roles: Role[] = []) {
   const { user } = await requireRole(...roles)
   const { driveId } = await parseParams(params, driveIdParams)
-  return { user, db: getDb(), driveId }
+  return { user, db: getDb(), driveId: shopDriveId(user, driveId) }
 }
 
 /**
  * The first steps of a /api/drives/:driveId handler, in this order: signed in (with one of `roles`
  * when named), the ids from the path (a malformed one is a 404), and the drive if the user may `need` it.
+ * The returned `params.driveId` is the drive's internal id.
  */
 export async function driveForRoute<P extends { driveId: string } = { driveId: string }>(
   params: Promise<unknown>,
@@ -95,7 +108,8 @@ export async function driveForRoute<P extends { driveId: string } = { driveId: s
   { roles = [], schema }: { roles?: Role[]; schema?: z.ZodType<P> } = {},
 ) {
   const { user } = await requireRole(...roles)
-  const ids = (await parseParams(params, schema ?? driveIdParams)) as P
+  const parsed = (await parseParams(params, schema ?? driveIdParams)) as P
+  const ids = { ...parsed, driveId: shopDriveId(user, parsed.driveId) }
   const db = getDb()
   const drive = await loadDriveFor(db, ids.driveId, user, need)
   return { user, db, drive, params: ids }
@@ -108,9 +122,10 @@ export function assertRecordingOpen(drive: Drive): void {
   }
 }
 
+/** The drive as the API shows it: its public id, never the internal one. */
 export function driveJson(drive: Drive, extra: Record<string, unknown> = {}) {
   return {
-    id: drive.id,
+    id: drive.public_id,
     jobId: drive.job_id,
     taskId: drive.task_id,
     vehicleDescription: drive.vehicle_description,

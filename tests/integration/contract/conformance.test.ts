@@ -2,6 +2,7 @@
 // answers with the status codes it names and the JSON fields it names; every 4xx is in the error shape.
 import { randomUUID } from "node:crypto"
 import { beforeAll, describe, expect, it } from "vitest"
+import { internalDriveId } from "@/lib/drive-id"
 import { testDb } from "../../helpers/db"
 import { ApiClient, signedIn } from "../../helpers/http"
 import { createJob, newJobBody, putToPresignedUrl, TINY_PNG } from "../jobs/helpers"
@@ -111,7 +112,7 @@ describe("drives", () => {
     const again = await w.c.technician.post("/api/drives", { id, vehicleDescription: "2018 Invented Orvel" })
     expect(again.status).toBe(200)
     expect(again.body.drive).toEqual(first.body.drive)
-    expect(await testDb().selectFrom("drive").select("id").where("id", "=", id).execute()).toHaveLength(1)
+    expect(await testDb().selectFrom("drive").select("id").where("public_id", "=", id).execute()).toHaveLength(1)
   })
 
   it("POST /api/drives with a job and task: 201, the drive on that job", async () => {
@@ -173,7 +174,7 @@ describe("drives", () => {
     const stored = await testDb()
       .selectFrom("score")
       .select(["verdict", "result"])
-      .where("drive_id", "=", id)
+      .where("drive_id", "=", internalDriveId(w.shop.shopId, id))
       .executeTakeFirstOrThrow()
     expect(stored.verdict).toBe(res.body.score.verdict)
     expect(stored.result).toEqual(res.body.score)
@@ -206,7 +207,7 @@ describe("drives", () => {
     const stored = await testDb()
       .selectFrom("score")
       .select("result")
-      .where("drive_id", "=", w.finished.id)
+      .where("drive_id", "=", internalDriveId(w.shop.shopId, w.finished.id))
       .executeTakeFirstOrThrow()
     expect(res.body).toEqual(stored.result)
   })

@@ -3,6 +3,7 @@
 // recorder's outbox replays these after a lost answer, so every replay must store nothing twice.
 import { randomUUID } from "node:crypto"
 import { beforeAll, describe, expect, it } from "vitest"
+import { internalDriveId } from "@/lib/drive-id"
 import { storedSample } from "@/lib/drive-file/stored"
 import { createTestShop, testDb } from "../../helpers/db"
 import { type ApiClient } from "../../helpers/http"
@@ -17,13 +18,15 @@ beforeAll(async () => {
   c = await clientsFor(shop)
 })
 
-async function stored(driveId: string) {
+async function stored(publicId: string) {
   const db = testDb()
+  const driveId = internalDriveId(shopId, publicId)
   const [samples, batches, marks] = await Promise.all([
     db
       .selectFrom("sample_decoded")
       .select(["t", "lat", "lon", "speed", "accuracy"])
-      .where("drive_id", "=", driveId)
+      .where("drive_id", "=", publicId) // the view names drives by public id
+      .where("shop_id", "=", shopId)
       .orderBy("t")
       .execute(),
     db.selectFrom("sample_batch").select("batch_id").where("drive_id", "=", driveId).execute(),
@@ -166,7 +169,7 @@ describe("drives", () => {
     )
     expect(answers.map((r) => r.status).sort()).toEqual([200, 200, 200, 200, 200, 201])
     for (const r of answers) expect(r.body.drive.id).toBe(id)
-    expect(await testDb().selectFrom("drive").select("id").where("id", "=", id).execute()).toHaveLength(1)
+    expect(await testDb().selectFrom("drive").select("id").where("public_id", "=", id).execute()).toHaveLength(1)
     // A lead retrying the technician's start gets that drive back, still the technician's.
     const byLead = await c.shop_lead.post("/api/drives", { id })
     expect(byLead.status).toBe(200)
@@ -181,7 +184,13 @@ describe("drives", () => {
     const two = await c.technician.post(`/api/drives/${id}/finish`)
     expect([one.status, two.status]).toEqual([200, 200])
     expect(two.body.score).toEqual(one.body.score)
-    expect(await testDb().selectFrom("score").select("drive_id").where("drive_id", "=", id).execute()).toHaveLength(1)
+    expect(
+      await testDb()
+        .selectFrom("score")
+        .select("drive_id")
+        .where("drive_id", "=", internalDriveId(shopId, id))
+        .execute(),
+    ).toHaveLength(1)
   })
 
   it("imports nothing from a file that fails at any point", async () => {

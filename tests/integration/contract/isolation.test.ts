@@ -3,6 +3,7 @@
 // shop A's rows: each answer is a 404 in the error shape, and every row of shop A is as it was.
 import { randomUUID } from "node:crypto"
 import { beforeAll, describe, expect, it } from "vitest"
+import { internalDriveId } from "@/lib/drive-id"
 import { createTestShop, testDb } from "../../helpers/db"
 import { signedIn, type ApiClient } from "../../helpers/http"
 import {
@@ -128,10 +129,6 @@ describe("another shop's rows are a 404 and stay as they were", () => {
       expect([400, 404], res.text.slice(0, 200)).toContain(res.status)
       expectErrorShape(res)
     }
-    // A client-made id that shop A already uses is not a replay for shop B: 409, never A's drive.
-    const taken = await bAdmin.post("/api/drives", { id: a.finished.id })
-    expectErrorShape(taken, 409)
-    expect(taken.text).not.toContain(a.shop.tech.id)
     const marked = await bAdmin.patch("/api/notifications", { ids: [aNoticeId] })
     expect(marked.status).toBe(200)
     expect(marked.body.updated).toBe(0)
@@ -173,6 +170,31 @@ describe("another shop's rows are a 404 and stay as they were", () => {
     expect(drives.body.drives.map((d: { id: string }) => d.id)).toEqual([bDrive])
   })
 
+  // Drive ids are the recorder's client-made UUIDs and name a drive within its shop only (DEVELOPERS.md "Drive
+  // ids: public per shop, internal across the server"): shop B starting a drive with an id shop A uses gets a
+  // new drive of its own (201, as for any new id), and learns nothing about A's.
+  it("a drive id shop A uses is, for shop B, just a new drive of B's", async () => {
+    const before = await snapshotShop(a.shop.shopId)
+    const started = await bAdmin.post("/api/drives", { id: a.finished.id, vehicleDescription: "B's loaner" })
+    expect(started.status, started.text).toBe(201)
+    expect(started.body.drive).toMatchObject({
+      id: a.finished.id,
+      status: "recording",
+      verdict: null,
+      vehicleDescription: "B's loaner",
+      jobId: null,
+    })
+    expect(started.text).not.toContain(a.shop.tech.id)
+    const again = await bAdmin.post("/api/drives", { id: a.finished.id })
+    expect(again.status).toBe(200)
+    expect(again.body.drive).toEqual(started.body.drive)
+    const seen = await bAdmin.get(`/api/drives/${a.finished.id}`)
+    expect(seen.status).toBe(200)
+    expect(seen.body.drive).toMatchObject({ status: "recording", counts: { samples: 0, marks: 0 } })
+    expect(seen.text).not.toContain(a.shop.tech.id)
+    expect(await snapshotShop(a.shop.shopId)).toEqual(before)
+  })
+
   // Mark ids are the recorder's client-made UUIDs and name a mark within its drive only (primary key
   // (drive_id, id)): shop B sending an id shop A used stores B's own mark, like any new id, and learns nothing.
   it("a mark id shop A uses is, on shop B's own drive, just a new mark of B's", async () => {
@@ -192,7 +214,7 @@ describe("another shop's rows are a 404 and stay as they were", () => {
       .where("id", "=", aMarkId)
       .where("shop_id", "=", bShopId)
       .execute()
-    expect(bRows).toEqual([{ id: aMarkId, drive_id: bDrive.id, shop_id: bShopId }])
+    expect(bRows).toEqual([{ id: aMarkId, drive_id: internalDriveId(bShopId, bDrive.id), shop_id: bShopId }])
     const shown = await bTech.get(`/api/drives/${bDrive.id}/file`)
     expect(shown.status).toBe(200)
     expect(shown.body.marks).toHaveLength(driveFile(9).marks.length + 1)

@@ -1,5 +1,6 @@
 import { randomUUID } from "node:crypto"
 import { beforeAll, describe, expect, it } from "vitest"
+import { internalDriveId } from "@/lib/drive-id"
 import { parseDriveFile, type DriveFile } from "@/lib/drive-file"
 import { scoreDrive } from "@/lib/scoring"
 import { generateDrive } from "@/lib/tracks"
@@ -26,7 +27,7 @@ describe("POST /api/drives and GET /api/drives", () => {
     const again = await tech.post("/api/drives", { id, vehicleDescription: "something else" })
     expect(again.status).toBe(200)
     expect(again.body.drive.vehicleDescription).toBe("Invented Tarrow hatchback")
-    const rows = await testDb().selectFrom("drive").select("id").where("id", "=", id).execute()
+    const rows = await testDb().selectFrom("drive").select("id").where("public_id", "=", id).execute()
     expect(rows).toHaveLength(1)
   })
 
@@ -52,12 +53,20 @@ describe("POST /api/drives and GET /api/drives", () => {
     expect(listed.vehicle).toEqual({ year: 2010, make: "Invented", model: "Larkin" })
   })
 
-  it("refuses another shop's drive id without showing that drive", async () => {
+  // Drive ids are per shop (DEVELOPERS.md "Drive ids: public per shop, internal across the server").
+  it("makes another shop's drive with an id this shop uses its own new drive, showing nothing of this one", async () => {
     const drive = await startDrive(tech, { vehicleDescription: "Secret description 4471" })
     const other = await createTestShop("Other")
     const res = await (await signedIn(other.tech)).post("/api/drives", { id: drive.id })
-    expect(res.status).toBe(409)
+    expect(res.status).toBe(201)
+    expect(res.body.drive).toMatchObject({ id: drive.id, driverId: other.tech.id, vehicleDescription: null })
     expect(res.text).not.toContain("Secret description 4471")
+    expect(res.text).not.toContain(shop.tech.id)
+    // this shop's drive is as it was
+    expect((await tech.get(`/api/drives/${drive.id}`)).body.drive).toMatchObject({
+      vehicleDescription: "Secret description 4471",
+      driverId: shop.tech.id,
+    })
   })
 
   it("freezes the default profile when none is named, and a shop profile by key", async () => {
@@ -115,7 +124,15 @@ describe("POST /api/drives and GET /api/drives", () => {
     const ids = Array.from({ length: 55 }, () => randomUUID())
     await testDb()
       .insertInto("drive")
-      .values(ids.map((id) => ({ id, shop_id: s.shopId, profile: JSON.stringify({}), driver_id: s.tech.id })))
+      .values(
+        ids.map((id) => ({
+          id: internalDriveId(s.shopId, id),
+          public_id: id,
+          shop_id: s.shopId,
+          profile: JSON.stringify({}),
+          driver_id: s.tech.id,
+        })),
+      )
       .execute()
     const t = await signedIn(s.tech)
     const page1 = await t.get("/api/drives")
@@ -176,7 +193,7 @@ describe("marks", () => {
     const rows = await testDb()
       .selectFrom("mark")
       .selectAll()
-      .where("drive_id", "=", drive.id)
+      .where("drive_id", "=", internalDriveId(shop.shopId, drive.id))
       .orderBy("t")
       .orderBy("seq")
       .execute()
@@ -187,7 +204,13 @@ describe("marks", () => {
     expect(bad.body.error.fields).toHaveProperty(["marks.0.gapFt"])
     const undo = await co.delete(`/api/drives/${drive.id}/marks/${marks[2]!.id}`)
     expect(undo.status).toBe(204)
-    expect(await testDb().selectFrom("mark").select("id").where("drive_id", "=", drive.id).execute()).toHaveLength(3)
+    expect(
+      await testDb()
+        .selectFrom("mark")
+        .select("id")
+        .where("drive_id", "=", internalDriveId(shop.shopId, drive.id))
+        .execute(),
+    ).toHaveLength(3)
   })
 })
 
@@ -239,7 +262,7 @@ describe("finish, score and file", () => {
     const stored = await testDb()
       .selectFrom("score")
       .selectAll()
-      .where("drive_id", "=", drive.id)
+      .where("drive_id", "=", internalDriveId(shop.shopId, drive.id))
       .executeTakeFirstOrThrow()
     expect(stored.verdict).toBe("met")
   })

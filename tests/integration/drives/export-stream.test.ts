@@ -3,6 +3,7 @@
 // refusals must still come before the first byte in the error shape, and every download must give its
 // connection back, finished or not.
 import { randomUUID } from "node:crypto"
+import { internalDriveId } from "@/lib/drive-id"
 import { sql } from "kysely"
 import { beforeAll, describe, expect, it } from "vitest"
 import { loadDriveFile } from "@/db/queries/drive-file"
@@ -74,11 +75,11 @@ describe("GET /api/drives/:id/file streamed", () => {
   for (const which of ["imported", "recorded"] as const) {
     it(`sends the ${which} drive's GPX, CSV and drive file exactly as the whole-file functions write them`, async () => {
       const id = which === "imported" ? imported : recorded
-      const file = await loadDriveFile(testDb(), id, shop.shopId)
+      const file = await loadDriveFile(testDb(), internalDriveId(shop.shopId, id), shop.shopId)
       const { vehicle_description } = await testDb()
         .selectFrom("drive")
         .select("vehicle_description")
-        .where("id", "=", id)
+        .where("public_id", "=", id)
         .executeTakeFirstOrThrow()
       const gpx = await tech.get(`/api/drives/${id}/file?format=gpx`)
       expect(gpx.status).toBe(200)

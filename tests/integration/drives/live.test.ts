@@ -1,6 +1,7 @@
 import { randomUUID } from "node:crypto"
 import { afterEach, beforeAll, describe, expect, it } from "vitest"
 import { loadDriveFile } from "@/db/queries/drive-file"
+import { internalDriveId } from "@/lib/drive-id"
 import type { ApiMark, Sample } from "@/lib/drive-file"
 import { createRng, generateDrive } from "@/lib/tracks"
 import { scoreDrive } from "@/lib/scoring"
@@ -288,7 +289,7 @@ describe("the server's live score", () => {
   })
 
   async function expectEqual(driveId: string) {
-    const expected = scoreDrive(await loadDriveFile(testDb(), driveId, shop.shopId))
+    const expected = scoreDrive(await loadDriveFile(testDb(), internalDriveId(shop.shopId, driveId), shop.shopId))
     const res = await tech.get(`/api/drives/${driveId}`)
     expect(res.status).toBe(200)
     expect(res.body.score).toEqual(JSON.parse(JSON.stringify(expected)))

@@ -90,7 +90,7 @@ describe("static set-up and the road test", () => {
     expect(blocked.body.error.code).toBe("conflict")
     expect(blocked.body.error.message).toContain("Forward camera: Target distance 1530 mm (specified 1500 ± 10 mm)")
     expect(blocked.body.error.message).toMatch(/Correct the set-up .* or ask a shop lead to override with a note/)
-    expect(await testDb().selectFrom("drive").select("id").where("id", "=", id).execute()).toHaveLength(0)
+    expect(await testDb().selectFrom("drive").select("id").where("public_id", "=", id).execute()).toHaveLength(0)
     // the learn drive of the radar task is not a road test and is not held
     expect((await tech.post("/api/drives", { id: randomUUID(), jobId: job.id, taskId: job.radar })).status).toBe(201)
     await tech.request("PUT", `/api/jobs/${job.id}/tasks/${job.camera}/setup`, setupBody(1504))

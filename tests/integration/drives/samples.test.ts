@@ -107,7 +107,7 @@ describe("POST /api/drives/:id/samples", () => {
     expect(late.status).toBe(200)
     const score = await tech.get(`/api/drives/${drive.id}/score`)
     expect(score.body.samplesUsed).toBe(30)
-    await testDb().updateTable("drive").set({ review_status: "approved" }).where("id", "=", drive.id).execute()
+    await testDb().updateTable("drive").set({ review_status: "approved" }).where("public_id", "=", drive.id).execute()
     const closed = await tech.post(`/api/drives/${drive.id}/samples`, {
       batchId: "3",
       samples: sampleRun(2, 9, Date.UTC(2026, 0, 2)),

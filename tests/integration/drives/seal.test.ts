@@ -2,6 +2,7 @@
 // the drive, late data makes a new revision of the record, and the shop's leads hear when a verdict changes.
 import { randomUUID } from "node:crypto"
 import { beforeAll, describe, expect, it } from "vitest"
+import { internalDriveId } from "@/lib/drive-id"
 import { parseDriveFile, type DriveFile } from "@/lib/drive-file"
 import { canonicalJson } from "@/lib/record/seal"
 import { scoreDrive } from "@/lib/scoring"
@@ -23,15 +24,18 @@ async function storedAndExported(client: ApiClient, driveId: string) {
   return { stored: score.body, exported: JSON.parse(JSON.stringify(scoreDrive(parsed.file))), file: parsed.file }
 }
 
-async function countRows(driveId: string) {
+async function countRows(publicId: string, shopId: string) {
   const db = testDb()
+  // sample_decoded names drives by public id; the tables by internal id. Every drive here is the shop's.
+  const driveId = internalDriveId(shopId, publicId)
   const n = async (table: "mark" | "sample_decoded" | "score_revision") =>
     Number(
       (
         await db
           .selectFrom(table)
           .select((eb) => eb.fn.countAll<string>().as("n"))
-          .where("drive_id", "=", driveId)
+          .where("drive_id", "=", table === "sample_decoded" ? publicId : driveId)
+          .where("shop_id", "=", shopId)
           .executeTakeFirstOrThrow()
       ).n,
     )
@@ -130,7 +134,7 @@ describe("a sealed drive", () => {
 
   it("refuses a mark 2 h after the finish with a 400 naming marks.<i>.t, and changes nothing", async () => {
     const drive = await finishedNeverCleared()
-    const before = await countRows(drive.id)
+    const before = await countRows(drive.id, shop.shopId)
     const scoreBefore = (await tech.get(`/api/drives/${drive.id}/score`)).body
     const inside = { id: randomUUID(), t: drive.startMs + 10 * 60_000, kind: "note", text: "inside" }
     const res = await tech.post(`/api/drives/${drive.id}/marks`, {
@@ -146,7 +150,7 @@ describe("a sealed drive", () => {
     })
     expect(early.status).toBe(400)
     expect(early.body.error.fields["marks.0.t"]).toMatch(/before the drive's first position/)
-    expect(await countRows(drive.id)).toEqual(before)
+    expect(await countRows(drive.id, shop.shopId)).toEqual(before)
     expect((await tech.get(`/api/drives/${drive.id}/score`)).body).toEqual(scoreBefore)
   })
 
@@ -176,7 +180,7 @@ describe("a sealed drive", () => {
       accepted: 0,
       duplicates: 1,
     })
-    expect((await countRows(drive.id)).revisions).toBe(2)
+    expect((await countRows(drive.id, shop.shopId)).revisions).toBe(2)
 
     const notices = await lead.get("/api/notifications")
     const notice = notices.body.notifications.find((n: { link: string }) => n.link === `/drives/${drive.id}`)
@@ -200,7 +204,7 @@ describe("a sealed drive", () => {
     ).toBe(200)
     const reviewed = await lead.post(`/api/drives/${drive.id}/review`, { decision: "approve", note: "" })
     expect(reviewed.status).toBe(200)
-    const before = await countRows(drive.id)
+    const before = await countRows(drive.id, shop.shopId)
     const mark = await tech.post(`/api/drives/${drive.id}/marks`, {
       marks: [{ id: randomUUID(), t: drive.startMs + 60_000, kind: "note", text: "late" }],
     })
@@ -213,7 +217,7 @@ describe("a sealed drive", () => {
       expect(r.status).toBe(409)
       expect(r.body.error.code).toBe("conflict")
     }
-    expect(await countRows(drive.id)).toEqual(before)
+    expect(await countRows(drive.id, shop.shopId)).toEqual(before)
     const revisions = (await lead.get(`/api/drives/${drive.id}/revisions`)).body.revisions
     expect(revisions.map((r: { cause: string }) => r.cause)).toEqual(["review", "late_marks", "finish"])
     expect(revisions[0].reviewDecision).toBe("approve")

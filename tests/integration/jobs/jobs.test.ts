@@ -1,5 +1,5 @@
 import { beforeAll, describe, expect, it } from "vitest"
-import { createTestShop, testDb, type TestShop } from "../../helpers/db"
+import { createTestShop, testDb, testDriveIds, type TestShop } from "../../helpers/db"
 import { ApiClient, signedIn } from "../../helpers/http"
 import { createJob, inventedVin, newJobBody } from "./helpers"
 
@@ -199,7 +199,7 @@ describe("GET and PATCH /api/jobs/:id", () => {
     await testDb()
       .insertInto("drive")
       .values({
-        id: crypto.randomUUID(),
+        ...testDriveIds(shop.shopId),
         shop_id: shop.shopId,
         job_id: job.id,
         task_id: job.tasks[0].id,
@@ -224,7 +224,7 @@ describe("GET and PATCH /api/jobs/:id", () => {
     await testDb()
       .insertInto("drive")
       .values({
-        id: crypto.randomUUID(),
+        ...testDriveIds(shop.shopId),
         shop_id: shop.shopId,
         job_id: job.id,
         task_id: job.tasks[0].id,

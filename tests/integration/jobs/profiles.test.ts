@@ -1,5 +1,5 @@
 import { beforeAll, describe, expect, it } from "vitest"
-import { createTestShop, testDb, type TestShop } from "../../helpers/db"
+import { createTestShop, testDb, testDriveIds, type TestShop } from "../../helpers/db"
 import { signedIn } from "../../helpers/http"
 import { createJob } from "./helpers"
 
@@ -65,7 +65,7 @@ describe("condition profiles", () => {
     await testDb()
       .insertInto("drive")
       .values({
-        id: driveId,
+        ...testDriveIds(shop.shopId, driveId),
         shop_id: shop.shopId,
         job_id: job.id,
         task_id: job.tasks[0].id,
@@ -88,7 +88,7 @@ describe("condition profiles", () => {
     const drive = await testDb()
       .selectFrom("drive")
       .select(["profile_version_id", "profile", "verdict"])
-      .where("id", "=", driveId)
+      .where("public_id", "=", driveId)
       .executeTakeFirstOrThrow()
     expect(drive.profile_version_id).toBe(v1)
     expect((drive.profile as { minSpeedMph: number }).minSpeedMph).toBe(35)

@@ -7,7 +7,7 @@ import { insertSamples } from "@/db/queries/samples"
 import { storedSample } from "@/lib/drive-file/stored"
 import { scoreDrive } from "@/lib/scoring"
 import { withCheckDigit } from "@/lib/vin"
-import { testDb, type TestShop } from "../../helpers/db"
+import { testDb, testDriveIds, type TestShop } from "../../helpers/db"
 
 let vinCounter = 0
 /** A VIN with a valid 49 CFR 565 check digit, different on every call. */
@@ -97,13 +97,14 @@ export async function insertScoredDrive(shop: TestShop, opts: InsertDriveOptions
   })
   const file = { ...generated, samples: generated.samples.map(storedSample) } // scored as stored
   const score = scoreDrive(file)
-  const id = randomUUID()
+  const { id, public_id: publicId } = testDriveIds(shop.shopId)
   const status = opts.status ?? "finished"
   const driverId = opts.driverId ?? shop.tech.id
   await db
     .insertInto("drive")
     .values({
       id,
+      public_id: publicId,
       shop_id: shop.shopId,
       job_id: opts.job?.jobId ?? null,
       task_id: opts.job?.taskId ?? null,
@@ -139,7 +140,8 @@ export async function insertScoredDrive(shop: TestShop, opts: InsertDriveOptions
       .values({ drive_id: id, shop_id: shop.shopId, verdict: score.verdict, result: JSON.stringify(score) })
       .execute()
   }
-  return { id, score }
+  // `id` is the id the API and pages know; `internalId` keys the drive's rows in the database.
+  return { id: publicId, internalId: id, score }
 }
 
 /** Every message the local mail fake caught, as an admin sees them through the API. */

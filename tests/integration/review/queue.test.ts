@@ -2,7 +2,8 @@ import { randomUUID } from "node:crypto"
 import { sql } from "kysely"
 import { describe, expect, it } from "vitest"
 import { REVIEW_PAGE_SIZE } from "@/db/queries/reviews"
-import { createTestShop, testDb } from "../../helpers/db"
+import { internalDriveId } from "@/lib/drive-id"
+import { createTestShop, testDb, testDriveIds } from "../../helpers/db"
 import { signedIn } from "../../helpers/http"
 import { insertJob, insertScoredDrive } from "./fixtures"
 
@@ -64,7 +65,7 @@ describe("GET /api/review", () => {
       .insertInto("drive")
       .values(
         rows.map((r) => ({
-          id: r.id,
+          ...testDriveIds(shop.shopId, r.id),
           shop_id: shop.shopId,
           vehicle_description: "Loaner, unplanned drive",
           profile: JSON.stringify(score.profile),
@@ -79,7 +80,7 @@ describe("GET /api/review", () => {
       .insertInto("score")
       .values(
         rows.map((r) => ({
-          drive_id: r.id,
+          drive_id: internalDriveId(shop.shopId, r.id),
           shop_id: shop.shopId,
           verdict: score.verdict,
           result: JSON.stringify(score),

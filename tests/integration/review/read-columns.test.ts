@@ -5,6 +5,7 @@ import { randomUUID } from "node:crypto"
 import { sql } from "kysely"
 import { describe, expect, it } from "vitest"
 import { listDrivesForNumbers, loadNumbersSummary } from "@/db/queries/numbers"
+import { internalDriveId } from "@/lib/drive-id"
 import { computeNumbers, type NumbersDrive } from "@/lib/numbers"
 import type { Verdict } from "@/lib/scoring/types"
 import { listReviewQueue } from "@/db/queries/reviews"
@@ -42,6 +43,7 @@ async function oldNumbers(shopId: string, since: Date) {
     .leftJoin("condition_profile as p", (j) => j.onRef("p.id", "=", "pv.profile_id").on("p.shop_id", "=", shopId))
     .select([
       "drive.id",
+      "drive.public_id", // the id the numbers show (drive ids per shop, migration 2026_12_03_0100)
       "drive.finished_at",
       "drive.verdict",
       "drive.review_status",
@@ -70,7 +72,7 @@ async function oldNumbers(shopId: string, since: Date) {
 /** As app/_server/numbers.ts loadNumbersDrives shapes a row. */
 function asNumbersDrive(r: Awaited<ReturnType<typeof oldNumbers>>[number]): NumbersDrive {
   return {
-    driveId: r.id,
+    driveId: r.public_id,
     finishedAt: new Date(r.finished_at ?? 0).toISOString(),
     verdict: (r.verdict ?? "not_met") as Verdict,
     profileName: r.profile_name ?? "Profile set on the drive",
@@ -109,10 +111,12 @@ async function generatedShop() {
     const score = scores.get(pattern)!
     const status = rand() < 0.1 ? ("recording" as const) : ("finished" as const)
     const review = rand()
-    const id = randomUUID()
     const owner = i % 25 === 0 ? other : shop
+    const publicId = randomUUID()
+    const id = internalDriveId(owner.shopId, publicId)
     drives.push({
       id,
+      public_id: publicId,
       shop_id: owner.shopId,
       vehicle_description: "Generated drive",
       profile: JSON.stringify(score.profile),
@@ -176,12 +180,14 @@ describe("reads from the drive's own columns", () => {
     const harsh = scoreDrive(generateDrive({ seed: 78, pattern: "harsh", minutes: PATTERN_MIN_MINUTES.harsh }))
     expect(met.verdict).toBe("met")
     expect(harsh.harshEvents.accel + harsh.harshEvents.decel).toBeGreaterThan(0)
-    const id = randomUUID()
+    const publicId = randomUUID()
+    const id = internalDriveId(shop.shopId, publicId)
     const db = testDb()
     await db
       .insertInto("drive")
       .values({
         id,
+        public_id: publicId,
         shop_id: shop.shopId,
         profile: JSON.stringify(met.profile),
         driver_id: shop.tech.id,

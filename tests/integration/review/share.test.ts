@@ -47,7 +47,7 @@ describe("share links", () => {
     const drive = await insertScoredDrive(shop, { pattern: "short", seed: 403, job })
     const secret = process.env.APP_SECRET
     expect(secret, "APP_SECRET reaches the tests as it reaches the app").toBeTruthy()
-    const expired = signShareToken(secret!, drive.id, Date.now() - 60_000)
+    const expired = signShareToken(secret!, drive.internalId, Date.now() - 60_000) // tokens name the internal id
     const anonymous = new ApiClient()
     const page = await anonymous.get(`/share/${expired}`)
     expect(page.text).toContain("This link has expired")

@@ -2,6 +2,7 @@
 // added to the road model; the ranking of loops follows the history, hour by hour; other shops see nothing.
 import { PDFParse } from "pdf-parse"
 import { beforeAll, describe, expect, it } from "vitest"
+import { internalDriveId } from "@/lib/drive-id"
 import { createTestShop, testDb, type TestShop } from "../../helpers/db"
 import { testEnv } from "../../helpers/env"
 import { ApiClient, signedIn } from "../../helpers/http"
@@ -94,8 +95,9 @@ describe("road knowledge", () => {
     expect(cells.length).toBeGreaterThan(20)
     const routes = await testDb()
       .selectFrom("road_drive")
-      .select(["drive_id", "route"])
-      .where("shop_id", "=", shop.shopId)
+      .innerJoin("drive", "drive.id", "road_drive.drive_id")
+      .select(["drive.public_id as drive_id", "road_drive.route"])
+      .where("road_drive.shop_id", "=", shop.shopId)
       .execute()
     const cellsOf = (key: string) =>
       new Set(routes.filter((r) => layoutOfDrive.get(r.drive_id) === key).flatMap((r) => r.route))
@@ -173,7 +175,7 @@ describe("road knowledge", () => {
     const road = await testDb()
       .selectFrom("road_drive")
       .select(["loop_id", "route"])
-      .where("drive_id", "=", driveId)
+      .where("drive_id", "=", internalDriveId(shop.shopId, driveId))
       .executeTakeFirstOrThrow()
     await testDb()
       .updateTable("road_loop")

@@ -21,6 +21,7 @@ import { listRecordPhotos } from "@/db/queries/reviews"
 import { listRevisions } from "@/db/queries/revisions"
 import { CAUSE_TEXT } from "@/app/_server/revisions"
 import { canSeeDrive } from "@/lib/access/drive"
+import { internalDriveId } from "@/lib/drive-id"
 import { hasRole } from "@/lib/auth/roles"
 import {
   DECISION_WORD,
@@ -42,7 +43,8 @@ export default async function DrivePage({ params }: { params: Promise<{ driveId:
   const { driveId } = await params
   if (!isUuid(driveId)) notFound()
   const db = getDb()
-  const loaded = await loadRecordData(db, driveId, me.shopId, { photos: false })
+  // The address holds the public id; the shop's drive with it has this internal id (lib/drive-id.ts).
+  const loaded = await loadRecordData(db, internalDriveId(me.shopId, driveId), me.shopId, { photos: false })
   if (!loaded) notFound()
   const { head, data } = loaded
   const facts = {
@@ -185,7 +187,7 @@ export default async function DrivePage({ params }: { params: Promise<{ driveId:
                   {data.review.note ? `: ${data.review.note}` : ""}
                 </p>
               ) : head.status === "finished" ? (
-                <ReviewActions driveId={head.id} />
+                <ReviewActions driveId={head.public_id} />
               ) : null}
             </Card>
           ) : data.review ? (
@@ -199,7 +201,7 @@ export default async function DrivePage({ params }: { params: Promise<{ driveId:
           ) : null}
           <Card className="order-first">
             <h2 className="mb-2 text-lg font-semibold">Drive record</h2>
-            <RecordActions driveId={head.id} canShare={isLead} customerEmail={head.customer_email} />
+            <RecordActions driveId={head.public_id} canShare={isLead} customerEmail={head.customer_email} />
           </Card>
           <Card>
             <h2 className="mb-2 text-lg font-semibold">Revisions of the record</h2>
@@ -270,7 +272,7 @@ export default async function DrivePage({ params }: { params: Promise<{ driveId:
                 <a
                   key={f}
                   className={buttonVariants({ variant: "outline", size: "sm" })}
-                  href={`/api/drives/${head.id}/file?format=${f}`}
+                  href={`/api/drives/${head.public_id}/file?format=${f}`}
                 >
                   <Download aria-hidden className="size-4" /> {f === "drive" ? "Drive file" : f.toUpperCase()}
                 </a>

@@ -18,8 +18,8 @@ export const POST = route(async (req) => {
   const { jobId, taskId } = parseQuery(req, importQuery)
   const file = parseDriveFileOrThrow(await readJson(req, MAX_DRIVE_FILE_BYTES))
   const db = getDb()
-  const id = randomUUID()
-  const values = await resolveNewDrive(db, user, id, { jobId, taskId })
+  const values = await resolveNewDrive(db, user, randomUUID(), { jobId, taskId })
+  const id = values.id
   // The file's own profile (defaults for missing keys) is the one it was held to, whatever the task says.
   values.profile = resolveProfile(file.profile) as unknown as Record<string, unknown>
   values.profileVersionId = null

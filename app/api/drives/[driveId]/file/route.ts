@@ -6,7 +6,7 @@ import { getDb, getExportDb } from "@/db/client"
 import { openDriveExport } from "@/db/queries/drive-export"
 import { csvChunks, driveFileChunks, gpxChunks } from "@/lib/export/stream"
 import { driveFileFormatQuery } from "@/lib/validation/drive"
-import { loadDriveFor } from "../../_service"
+import { loadDriveFor, shopDriveId } from "../../_service"
 
 const params = z.object({ driveId: uuidParam })
 
@@ -26,12 +26,12 @@ export const GET = route<{ driveId: string }>(async (req, ctx) => {
   const { driveId } = await parseParams(ctx.params, params)
   const { format } = parseQuery(req, driveFileFormatQuery)
   const db = getDb()
-  const drive = await loadDriveFor(db, driveId, user, "see")
+  const drive = await loadDriveFor(db, shopDriveId(user, driveId), user, "see")
   const source = await openDriveExport(getExportDb(), drive.id, user.shopId, { gpx: format === "gpx" })
   const chunks =
     format === "gpx"
       ? gpxChunks(source.head, source.lookahead!, source.samples, {
-          name: drive.vehicle_description ?? `Drive ${drive.id.slice(0, 8)}`,
+          name: drive.vehicle_description ?? `Drive ${drive.public_id.slice(0, 8)}`,
           creator: "Straightaway",
         })
       : format === "csv"
@@ -42,7 +42,7 @@ export const GET = route<{ driveId: string }>(async (req, ctx) => {
   return new Response(textStream(chunks, { close: source.close }), {
     headers: {
       "Content-Type": contentType,
-      "Content-Disposition": `attachment; filename="straightaway-${day}-${drive.id.slice(0, 8)}.${ext}"`,
+      "Content-Disposition": `attachment; filename="straightaway-${day}-${drive.public_id.slice(0, 8)}.${ext}"`,
       "Cache-Control": "private, no-store",
     },
   })

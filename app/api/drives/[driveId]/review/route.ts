@@ -4,7 +4,7 @@ import { decideReview } from "@/app/_server/services/review"
 import { parseJson, parseParams, route, uuidParam } from "@/app/_server/route"
 import { getDb } from "@/db/client"
 import { reviewSchema } from "@/lib/validation/review"
-import { driveJson, loadDriveFor } from "../../_service"
+import { driveJson, loadDriveFor, shopDriveId } from "../../_service"
 
 const params = z.object({ driveId: uuidParam })
 
@@ -13,7 +13,7 @@ export const POST = route<{ driveId: string }>(async (req, ctx) => {
   const { driveId } = await parseParams(ctx.params, params)
   const input = await parseJson(req, reviewSchema)
   const db = getDb()
-  const drive = await loadDriveFor(db, driveId, user, "see")
+  const drive = await loadDriveFor(db, shopDriveId(user, driveId), user, "see")
   const { drive: reviewed, review } = await decideReview(db, drive, user, input)
   return Response.json({
     drive: driveJson(reviewed),

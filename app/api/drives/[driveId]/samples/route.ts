@@ -7,7 +7,7 @@ import { getDb } from "@/db/client"
 import { findDriveAndBatch, ingestSampleBatch, insertSampleBatch, type BatchResult } from "@/db/queries/samples"
 import { sampleBatchSchema } from "@/lib/validation/drive"
 import { unstorableTextProblem } from "@/lib/validation/storable"
-import { assertDriveAccess, assertRecordingOpen, lockDriveFor, rescoreFinishedDrive } from "../../_service"
+import { assertDriveAccess, assertRecordingOpen, lockDriveFor, rescoreFinishedDrive, shopDriveId } from "../../_service"
 
 const params = z.object({ driveId: uuidParam })
 
@@ -25,7 +25,7 @@ export const POST = route<{ driveId: string }>(async (req, ctx) => {
   const { driveId } = await parseParams(ctx.params, params)
   const text = await readRequestText(req)
   const db = getDb()
-  const found = await findDriveAndBatch(db, driveId, user.shopId, peekBatchId(text))
+  const found = await findDriveAndBatch(db, shopDriveId(user, driveId), user.shopId, peekBatchId(text))
   const drive = assertDriveAccess(found?.drive, user, "record")
   assertRecordingOpen(drive)
   if (found!.claim) return Response.json(found!.claim)

@@ -10,7 +10,7 @@ import { AppError } from "@/lib/errors"
 import { sha256Hex } from "@/lib/record/seal"
 import { signShareToken } from "@/lib/share"
 import { SHARE_DEFAULT_DAYS, shareSchema } from "@/lib/validation/review"
-import { loadDriveFor } from "../../_service"
+import { loadDriveFor, shopDriveId } from "../../_service"
 
 const params = z.object({ driveId: uuidParam })
 
@@ -18,9 +18,10 @@ export const POST = route<{ driveId: string }>(async (req, ctx) => {
   const { user } = await requireRole("shop_lead")
   const { driveId } = await parseParams(ctx.params, params)
   const { expiresInDays = SHARE_DEFAULT_DAYS } = await parseJson(req, shareSchema)
-  const drive = await loadDriveFor(getDb(), driveId, user, "see")
+  const drive = await loadDriveFor(getDb(), shopDriveId(user, driveId), user, "see")
   if (drive.status !== "finished") throw new AppError("conflict", "Share the record once the drive is finished.")
   const expiresAtMs = Date.now() + expiresInDays * 86_400_000
+  // The token names the internal id: unique across the server, so the page finds the drive with no shop.
   const token = signShareToken(env().APP_SECRET, drive.id, expiresAtMs, drive.share_epoch)
   // The revision the link was made at, so the page can say when the record was revised after it.
   const latest = await sealCurrentRecord(getDb(), drive.id, user.shopId)
@@ -42,7 +43,7 @@ export const DELETE = route<{ driveId: string }>(async (_req, ctx) => {
   const { user } = await requireRole("shop_lead")
   const { driveId } = await parseParams(ctx.params, params)
   const db = getDb()
-  const drive = await loadDriveFor(db, driveId, user, "see")
+  const drive = await loadDriveFor(db, shopDriveId(user, driveId), user, "see")
   await withdrawShareLinks(db, drive.id, user.shopId)
   return new Response(null, { status: 204 })
 })

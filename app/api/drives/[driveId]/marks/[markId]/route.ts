@@ -9,8 +9,8 @@ const params = z.object({ driveId: uuidParam, markId: uuidParam })
 
 /** The recorder's undo of a mark already sent. Idempotent: a mark that is gone already is a 204 too. */
 export const DELETE = route<{ driveId: string; markId: string }>(async (_req, ctx) => {
-  const { user, db } = await driveRouteIds(ctx.params)
-  const { driveId, markId } = await parseParams(ctx.params, params)
+  const { user, db, driveId } = await driveRouteIds(ctx.params)
+  const { markId } = await parseParams(ctx.params, params)
   const followUp = await db.transaction().execute(async (trx) => {
     const drive = await lockDriveFor(trx, driveId, user)
     if (await deleteMarkNotifying(trx, drive.id, user.shopId, markId))

@@ -4,7 +4,7 @@ import { parseJson, parseParams, route, uuidParam } from "@/app/_server/route"
 import { emailRecord } from "@/app/_server/services/records"
 import { getDb } from "@/db/client"
 import { recordEmailSchema } from "@/lib/validation/review"
-import { loadDriveFor } from "../../../_service"
+import { loadDriveFor, shopDriveId } from "../../../_service"
 
 const params = z.object({ driveId: uuidParam })
 
@@ -13,7 +13,7 @@ export const POST = route<{ driveId: string }>(async (req, ctx) => {
   const { driveId } = await parseParams(ctx.params, params)
   const { to } = await parseJson(req, recordEmailSchema)
   const db = getDb()
-  await loadDriveFor(db, driveId, user, "see")
-  await emailRecord(db, driveId, user.shopId, to)
+  const drive = await loadDriveFor(db, shopDriveId(user, driveId), user, "see")
+  await emailRecord(db, drive.id, user.shopId, to)
   return Response.json({ sent: true, to }, { status: 202 })
 })
