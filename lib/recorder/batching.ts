@@ -62,3 +62,6 @@ export function groupBatchId(batchIds: readonly string[]): string {
   if (batchIds.length === 1) return batchIds[0]!
   return `${batchIds[0]}~${batchIds.at(-1)!.slice(0, 8)}~${batchIds.length}`
 }
+
+/** The header a sample batch's id travels in besides its body, so that a replay is answered before the body is read. */
+export const BATCH_ID_HEADER = "x-batch-id"

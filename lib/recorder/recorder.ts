@@ -8,7 +8,7 @@ import { createLiveScorer, type LiveScorer } from "@/lib/scoring/score"
 import { geodesicDistanceM } from "@/lib/scoring/geodesy"
 import { predictMinutesLeft, type MinutesLeft } from "@/lib/scoring/predict"
 import type { Score } from "@/lib/scoring/types"
-import { PERSIST_EVERY_MS, shouldPersist, shouldSend } from "./batching"
+import { BATCH_ID_HEADER, PERSIST_EVERY_MS, shouldPersist, shouldSend } from "./batching"
 import {
   getLastSynced,
   idbOutbox,
@@ -74,9 +74,14 @@ const NO_FIX_AFTER_MS = 15_000
 
 export const fetchTransport: Transport = {
   async request(method, path, body) {
+    // A sample batch names itself in a header too, so a batch the server holds already is answered before its body
+    // is read (app/api/drives/[driveId]/samples/route.ts).
+    const batchId = (body as { batchId?: unknown } | undefined)?.batchId
+    const headers: Record<string, string> = body === undefined ? {} : { "content-type": "application/json" }
+    if (typeof batchId === "string") headers[BATCH_ID_HEADER] = batchId
     const res = await fetch(path, {
       method,
-      headers: body === undefined ? {} : { "content-type": "application/json" },
+      headers,
       body: body === undefined ? undefined : JSON.stringify(body),
       credentials: "same-origin",
       cache: "no-store",

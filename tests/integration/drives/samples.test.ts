@@ -127,4 +127,35 @@ describe("POST /api/drives/:id/samples", () => {
     expect(noBatch.status).toBe(400)
     expect(noBatch.body.error.fields).toHaveProperty(["batchId"])
   })
+
+  it("answers a batch named in the x-batch-id header from its claim before reading the body", async () => {
+    const drive = await startDrive(tech)
+    const samples = sampleRun(30)
+    const batchId = randomUUID()
+    const path = `/api/drives/${drive.id}/samples`
+    const first = await tech.request("POST", path, { batchId, samples }, { headers: { "x-batch-id": batchId } })
+    expect(first.status).toBe(200)
+    expect(first.body).toMatchObject({ accepted: 30, duplicates: 0 })
+    // The same batch again: answered from the claim; what the body holds is not looked at.
+    const again = await tech.request("POST", path, undefined, {
+      raw: "not even JSON",
+      headers: { "x-batch-id": batchId, "content-type": "application/json" },
+    })
+    expect(again.status).toBe(200)
+    expect(again.body).toMatchObject({ accepted: 30, duplicates: 0, replayed: true })
+    expect(await storedSamples(drive.id)).toHaveLength(30)
+  })
+
+  it("refuses a new batch whose body names another batch than its header, and stores none of it", async () => {
+    const drive = await startDrive(tech)
+    const res = await tech.request(
+      "POST",
+      `/api/drives/${drive.id}/samples`,
+      { batchId: randomUUID(), samples: sampleRun(5) },
+      { headers: { "x-batch-id": randomUUID() } },
+    )
+    expect(res.status).toBe(400)
+    expect(res.body.error.fields).toHaveProperty(["batchId"])
+    expect(await storedSamples(drive.id)).toHaveLength(0)
+  })
 })

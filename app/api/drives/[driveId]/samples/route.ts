@@ -5,6 +5,8 @@ import { sendFollowUp, type FollowUp } from "@/app/_server/revisions"
 import { jsonFromText, parseParams, parseWith, readRequestText, route, uuidParam } from "@/app/_server/route"
 import { getDb } from "@/db/client"
 import { findDriveAndBatch, ingestSampleBatch, insertSampleBatch, type BatchResult } from "@/db/queries/samples"
+import { AppError } from "@/lib/errors"
+import { BATCH_ID_HEADER } from "@/lib/recorder/batching"
 import { sampleBatchSchema } from "@/lib/validation/drive"
 import { unstorableTextProblem } from "@/lib/validation/storable"
 import { assertDriveAccess, assertRecordingOpen, lockDriveFor, rescoreFinishedDrive, shopDriveId } from "../../_service"
@@ -23,14 +25,21 @@ const params = z.object({ driveId: uuidParam })
 export const POST = route<{ driveId: string }>(async (req, ctx) => {
   const { user } = await requireRole()
   const { driveId } = await parseParams(ctx.params, params)
-  const text = await readRequestText(req)
   const db = getDb()
-  const found = await findDriveAndBatch(db, shopDriveId(user, driveId), user.shopId, peekBatchId(text))
+  // The recorder names the batch in a header: a batch already stored is answered before its body is read.
+  const named = batchIdFromHeader(req.headers.get(BATCH_ID_HEADER))
+  const text = named === null ? await readRequestText(req) : null
+  const found = await findDriveAndBatch(db, shopDriveId(user, driveId), user.shopId, named ?? peekBatchId(text!))
   const drive = assertDriveAccess(found?.drive, user, "record")
   assertRecordingOpen(drive)
   if (found!.claim) return Response.json(found!.claim)
 
-  const { batchId, samples } = parseWith(sampleBatchSchema, jsonFromText(text))
+  const { batchId, samples } = parseWith(sampleBatchSchema, jsonFromText(text ?? (await readRequestText(req))))
+  if (named !== null && batchId !== named) {
+    throw new AppError("validation_failed", `batchId: is not the ${BATCH_ID_HEADER} header's batch id`, {
+      batchId: `is not the ${BATCH_ID_HEADER} header's batch id`,
+    })
+  }
   let result: BatchResult | null = null
   let followUp: FollowUp | undefined
   if (drive.status === "recording") result = await ingestSampleBatch(db, drive.id, user.shopId, batchId, samples)
@@ -52,6 +61,11 @@ export const POST = route<{ driveId: string }>(async (req, ctx) => {
 // with no escapes or control characters are read this way (what JSON.parse would give for them is the
 // same text); any other body is parsed whole, with the same depth and text checks as every body.
 const LEADING_BATCH_ID = /^\s*\{\s*"batchId"\s*:\s*"([^"\\\u0000-\u001f]{1,100})"\s*[,}]/
+
+/** The header's batch id when it is one the database can store (else the body decides, with its full checks). */
+function batchIdFromHeader(value: string | null): string | null {
+  return value !== null && value.length >= 1 && value.length <= 100 && !unstorableTextProblem(value) ? value : null
+}
 
 function peekBatchId(text: string): string | null {
   const m = LEADING_BATCH_ID.exec(text.slice(0, 160))
