@@ -13,7 +13,7 @@ import { findDriveAndBatch, ingestSampleBatch } from "@/db/queries/samples"
 import { SessionAdapter, sessionIdFromToken } from "@/lib/auth/lucia"
 import { hashPassword } from "@/lib/auth/password"
 import type { Sample } from "@/lib/drive-file"
-import { SEND_AT_SAMPLES, SEND_EVERY_MS, SEND_MAX_SAMPLES } from "@/lib/recorder/batching"
+import { BATCH_ID_HEADER, SEND_AT_SAMPLES, SEND_EVERY_MS, SEND_MAX_SAMPLES } from "@/lib/recorder/batching"
 import { hourAt10Hz } from "./scoring"
 import type { BenchContext, BenchFigure } from "./types"
 
@@ -66,9 +66,16 @@ function rig(ctx: BenchContext): Promise<Rig> {
     const sessionToken = cookie.slice(cookie.indexOf("=") + 1)
     const post = async (path: string, body: unknown) => {
       const t0 = performance.now()
+      // As the recorder sends a batch (lib/recorder/recorder.ts fetchTransport): its id in a header too.
+      const batchId = (body as { batchId?: unknown }).batchId
       const res = await fetch(`${baseUrl}${path}`, {
         method: "POST",
-        headers: { cookie, "x-forwarded-for": address, "content-type": "application/json" },
+        headers: {
+          cookie,
+          "x-forwarded-for": address,
+          "content-type": "application/json",
+          ...(typeof batchId === "string" ? { [BATCH_ID_HEADER]: batchId } : {}),
+        },
         body: JSON.stringify(body),
       })
       await res.arrayBuffer()
