@@ -2,8 +2,8 @@
 import { Ban, CircleCheck, CircleHelp, CircleX, ClipboardCheck } from "lucide-react"
 import { VerdictBadge } from "@/components/drives/verdict-badge"
 import { SENSOR_LABEL } from "@/lib/labels"
-import { formatSpeedMph, type UnitSystem } from "@/lib/format"
-import { CHECK_STATUS_LABEL, checkSpeedWords } from "@/lib/road-test/words"
+import type { UnitSystem } from "@/lib/format"
+import { CHECK_STATUS_LABEL, checkSpeed, checkSpeedWords } from "@/lib/road-test/words"
 import type { Score } from "@/lib/scoring/types"
 
 const STATUS_ICON = {
@@ -52,7 +52,7 @@ export function RoadTestResult({ score, units }: { score: Score; units: UnitSyst
               <div>
                 <p className="font-semibold">
                   {c.label}: {CHECK_STATUS_LABEL[c.status] ?? c.status}
-                  {c.speedMph !== null ? ` at ${formatSpeedMph(c.speedMph, units)}` : ""}
+                  {c.speedMph !== null ? ` at ${checkSpeed(c.speedMph, units)}` : ""}
                 </p>
                 <p className="text-sm text-graphite-300">
                   {SENSOR_LABEL[c.system] ?? c.system} · counts at {checkSpeedWords(c.minSpeedMph, units)} ·{" "}

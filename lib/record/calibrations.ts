@@ -1,6 +1,6 @@
 import { SCAN_RESULT_LABEL, type ScanResult } from "@/lib/setup"
-import { formatSpeedMph, type UnitSystem } from "@/lib/format"
-import { CHECK_STATUS_LABEL, checkSpeedWords } from "@/lib/road-test/words"
+import type { UnitSystem } from "@/lib/format"
+import { CHECK_STATUS_LABEL, checkSpeed, checkSpeedWords } from "@/lib/road-test/words"
 import type { RecordCheck, RecordMeasurement } from "./types"
 
 // Words of the record's per-system section, shared by the PDF and the share page.
@@ -22,7 +22,7 @@ export function checkWords(c: RecordCheck, units: UnitSystem): string {
       ? c.status === "not_logged"
         ? ""
         : " at an unknown speed"
-      : ` at ${formatSpeedMph(c.speedMph, units)}`
+      : ` at ${checkSpeed(c.speedMph, units)}`
   return `${status}${at} (counts at ${checkSpeedWords(c.minSpeedMph, units)}; ${c.need === "required" ? "required" : "where equipped"})`
 }
 

@@ -17,12 +17,20 @@ export const CHECK_STATUS_LABEL: Readonly<Record<string, string>> = {
   not_logged: "Not logged",
 }
 
-/** A check's speed (kept in mph, drive-file format) in the shop's units: "30 mph or faster", "48 km/h or faster". */
+/**
+ * A road-test speed (kept in mph, drive-file format) in the shop's units, to a tenth: a check passed at 44.9 mph
+ * must not read as the 45 it fell short of ("30 mph", "48.3 km/h", "44.7 mph").
+ */
+export function checkSpeed(mph: number, units: UnitSystem): string {
+  return formatSpeedMph(mph, units, 1)
+}
+
+/** The speed a check counts at: "30 mph or faster", "48.3 km/h or faster", "any speed". */
 export function checkSpeedWords(minSpeedMph: number | null, units: UnitSystem): string {
-  return minSpeedMph === null ? "any speed" : `${formatSpeedMph(minSpeedMph, units)} or faster`
+  return minSpeedMph === null ? "any speed" : `${checkSpeed(minSpeedMph, units)} or faster`
 }
 
 /** Said under a check while the vehicle is slower than the check's speed. */
 export function checkTooSlowWords(minSpeedMph: number, units: UnitSystem): string {
-  return `Under ${formatSpeedMph(minSpeedMph, units)} now: a pass here would not count.`
+  return `Under ${checkSpeed(minSpeedMph, units)} now: a pass here would not count.`
 }

@@ -20,11 +20,11 @@ describe("road-test check speeds", () => {
   })
 
   it("says it in km/h for a metric shop", () => {
-    // NIST SP 811: 30 mph × 1.609344 = 48.28032 km/h -> 48
-    expect(checkSpeedWords(30, "metric")).toBe("48 km/h or faster")
+    // NIST SP 811: 30 mph × 1.609344 = 48.28032 km/h -> 48.3 (check speeds to a tenth)
+    expect(checkSpeedWords(30, "metric")).toBe("48.3 km/h or faster")
     expect(checkSpeedWords(null, "metric")).toBe("any speed")
-    // NIST SP 811: 45 mph × 1.609344 = 72.42048 km/h -> 72
-    expect(checkTooSlowWords(45, "metric")).toBe("Under 72 km/h now: a pass here would not count.")
+    // NIST SP 811: 45 mph × 1.609344 = 72.42048 km/h -> 72.4
+    expect(checkTooSlowWords(45, "metric")).toBe("Under 72.4 km/h now: a pass here would not count.")
   })
 })
 
@@ -33,15 +33,26 @@ describe("the record's check words (page, PDF, e-mail)", () => {
 
   it("writes the speed it passed at and the speed it counts at in the shop's units", () => {
     expect(checkWords(passed, "imperial")).toBe("Passed at 52 mph (counts at 45 mph or faster; required)")
-    // NIST SP 811: 52 × 1.609344 = 83.685888 -> 84 km/h; 45 × 1.609344 = 72.42048 -> 72 km/h
-    expect(checkWords(passed, "metric")).toBe("Passed at 84 km/h (counts at 72 km/h or faster; required)")
+    // NIST SP 811: 52 × 1.609344 = 83.685888 -> 83.7 km/h; 45 × 1.609344 = 72.42048 -> 72.4 km/h
+    expect(checkWords(passed, "metric")).toBe("Passed at 83.7 km/h (counts at 72.4 km/h or faster; required)")
+  })
+
+  it("never rounds a speed short of the check's up to it", () => {
+    const below = { ...passed, status: "below_speed", speedMph: 44.9 }
+    expect(checkWords(below, "imperial")).toBe(
+      "Passed below its speed (not counted) at 44.9 mph (counts at 45 mph or faster; required)",
+    )
+    // NIST SP 811: 44.9 × 1.609344 = 72.2595 -> 72.3 km/h, under 72.4
+    expect(checkWords(below, "metric")).toBe(
+      "Passed below its speed (not counted) at 72.3 km/h (counts at 72.4 km/h or faster; required)",
+    )
   })
 
   it("keeps the words for an unknown speed and a check not logged", () => {
     const unknown = { ...passed, status: "failed", speedMph: null, need: "where_equipped", minSpeedMph: null }
     expect(checkWords(unknown, "metric")).toBe("Failed at an unknown speed (counts at any speed; where equipped)")
     const notLogged = { ...passed, status: "not_logged", speedMph: null }
-    expect(checkWords(notLogged, "metric")).toBe("Not logged (counts at 72 km/h or faster; required)")
+    expect(checkWords(notLogged, "metric")).toBe("Not logged (counts at 72.4 km/h or faster; required)")
   })
 })
 
