@@ -1,11 +1,14 @@
 import { describe, expect, it } from "vitest"
 import { DEFAULT_PROFILE, resolveProfile } from "@/lib/drive-file/profile"
 import { formatLengthRangeFt, formatSpeedBandMph } from "@/lib/format"
+import { describeReasons } from "@/lib/format/conditions"
 import { checkWords } from "@/lib/record/calibrations"
 import { gpsMessage } from "@/lib/recorder/position"
 import { profileInWords, speedMeterWords } from "@/lib/recorder/profile-words"
 import { typedGapFt } from "@/lib/recorder/time-gap"
 import { checkSpeedWords, checkTooSlowWords } from "@/lib/road-test/words"
+import { scoreDrive } from "@/lib/scoring"
+import { check, roadTest } from "../helpers/road-test"
 
 // The words the crew and the record's readers see, in both unit systems. Profiles and marks keep mph and feet
 // (drive-file format); the expected metric values are worked by hand with NIST's exact factors
@@ -131,5 +134,19 @@ describe("GPS accuracy and typed gaps", () => {
     expect(typedGapFt(120, "imperial")).toBe(120)
     // NIST SP 811: 40 m / 0.3048 = 131.23 ft -> 131 (which reads back as 131 × 0.3048 = 39.93 -> 40 m)
     expect(typedGapFt(40, "metric")).toBe(131)
+  })
+})
+
+describe("the road test's reasons on the finish screen and the record", () => {
+  it("carries the scorer's speeds into the shop's unit", () => {
+    // 8 m/s = 17.9 mph (NIST SP 811: 1 mph = 0.44704 m/s); "Lane keeping engages" counts at 40 mph
+    const score = scoreDrive(roadTest([check(30, "acc-engages", "pass"), check(10, "lane-keeping-engages", "pass")]))
+    expect(describeReasons(score, "imperial").reasons).toEqual([
+      'Road test: "Lane keeping engages" passed only at 17.9 mph; it counts at 40 mph or faster.',
+    ])
+    // 17.9 × 1.609344 = 28.807 -> 28.8 km/h; 40 × 1.609344 = 64.37376 -> 64.4 km/h
+    expect(describeReasons(score, "metric").reasons).toEqual([
+      'Road test: "Lane keeping engages" passed only at 28.8 km/h; it counts at 64.4 km/h or faster.',
+    ])
   })
 })
