@@ -8,6 +8,11 @@ import { useRecorder, useRecorderUnits } from "./use-recorder"
 
 const cx = (...parts: Array<string | false | null | undefined>) => parts.filter(Boolean).join(" ")
 
+/** A no-break space before each unit, so a narrow meter never puts "56+" and "km/h" on two lines. */
+function keepUnitsWithNumbers(text: string) {
+  return text.replace(/ (mph|km\/h|ft|m)\b/g, "\u00a0$1")
+}
+
 function minutes(seconds: number) {
   return (seconds / 60).toFixed(1)
 }
@@ -85,7 +90,7 @@ export function Meters() {
         icon={<Gauge aria-hidden className="size-4" />}
         value={speedMps === null ? "—" : formatSpeed(speedMps, units).split(" ")[0]!}
         unit={speedUnit(units)}
-        detail={speedMeterWords(p, mph, units)}
+        detail={keepUnitsWithNumbers(speedMeterWords(p, mph, units))}
         tone={inBand ? "signal" : "plain"}
       />
       <Meter
@@ -105,7 +110,9 @@ export function Meters() {
         icon={<Link2 aria-hidden className="size-4" />}
         value={minutes(f)}
         unit="min"
-        detail={`of ${p.minFollowingMinutes} min, gap ${formatLengthRangeFt(p.leadGapFt.min, p.leadGapFt.max, units)}`}
+        detail={keepUnitsWithNumbers(
+          `of ${p.minFollowingMinutes} min, gap ${formatLengthRangeFt(p.leadGapFt.min, p.leadGapFt.max, units)}`,
+        )}
         tone={f >= p.minFollowingMinutes * 60 ? "teal" : "plain"}
       />
       <Meter

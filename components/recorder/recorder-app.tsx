@@ -1,6 +1,7 @@
 "use client"
 import { lazy, Suspense, useEffect, useState } from "react"
 import { useFormatPrefs } from "@/components/shell/format-prefs"
+import { formatTime } from "@/lib/format"
 import { getActiveDrive } from "@/lib/recorder/idb-outbox"
 import type { DriveMeta } from "@/lib/recorder/idb-outbox"
 import { StartFlow, type StartChoice } from "./start-flow"
@@ -34,7 +35,7 @@ function driveIdFromLocation(): string | null {
 export function RecorderApp({ coDriver = false }: { coDriver?: boolean }) {
   const [meta, setMeta] = useState<DriveMeta | null>(null)
   const [phase, setPhase] = useState<"loading" | "start" | "drive" | "missing">("loading")
-  const { units } = useFormatPrefs()
+  const { units, timeZone } = useFormatPrefs()
 
   useEffect(() => {
     let unsubscribe = () => {}
@@ -146,9 +147,8 @@ export function RecorderApp({ coDriver = false }: { coDriver?: boolean }) {
           className="mb-3 rounded-xl border-2 border-teal-400 bg-asphalt-800 p-3 font-semibold"
           data-testid="driver-finished"
         >
-          The driver finished this drive at{" "}
-          {new Date(driverFinished).toLocaleTimeString([], { hour: "2-digit", minute: "2-digit" })}. The drive takes no
-          new marks; marks this phone logged during the drive still go to the server.
+          The driver finished this drive at {formatTime(driverFinished, timeZone)}. The drive takes no new marks; marks
+          this phone logged during the drive still go to the server.
         </p>
       ) : null}
       <Suspense fallback={opening}>

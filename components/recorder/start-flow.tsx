@@ -7,6 +7,7 @@ import type { Profile } from "@/lib/drive-file/schema"
 import { profileInWords } from "@/lib/recorder/profile-words"
 import { GoodRoadsNow } from "@/components/roads/good-roads-now"
 import { useFormatPrefs } from "@/components/shell/format-prefs"
+import { formatDateTime } from "@/lib/format"
 
 type JobSummary = { id: string; roNumber: string; label: string }
 type Blocker = { key: string; message: string }
@@ -74,7 +75,7 @@ function jobLabel(j: ListedJob): string {
 
 /** Pick the job and task (or an unplanned drive), read the profile, pass the pre-drive gate, start. */
 export function StartFlow({ onStart }: { onStart: (choice: StartChoice) => void }) {
-  const { units } = useFormatPrefs()
+  const { units, timeZone } = useFormatPrefs()
   const [jobs, setJobs] = useState<JobSummary[] | null>(null)
   const [jobId, setJobId] = useState<string>("")
   const [tasks, setTasks] = useState<TaskSummary[]>([])
@@ -285,7 +286,7 @@ export function StartFlow({ onStart }: { onStart: (choice: StartChoice) => void 
           </h2>
           <p className="text-sm text-graphite-300">
             {checklist.completedBy ? `Filled in by ${checklist.completedBy}` : "Filled in"}
-            {checklist.completedAt ? `, ${new Date(checklist.completedAt).toLocaleString()}` : ""}
+            {checklist.completedAt ? `, ${formatDateTime(checklist.completedAt, timeZone)}` : ""}
           </p>
           {checklist.blockers.length ? (
             <ul className="list-disc space-y-1 pl-5">
