@@ -53,7 +53,7 @@ export async function findDatabaseTimeZone(db: Db, zone: string): Promise<string
 // The database's zone data does not change while the server runs: one look-up per zone and process.
 const knownZones = new Map<string, string | null>()
 
-export const DATABASE_FALLBACK_TIME_ZONE = "UTC"
+const DATABASE_FALLBACK_TIME_ZONE = "UTC"
 
 /**
  * The zone to hand to `at time zone`: the shop's if the database knows it, else UTC. `fellBack` says so, for the
