@@ -2,6 +2,8 @@
 import { CircleCheck, CloudOff, Hourglass, Radio } from "lucide-react"
 import { useRouter } from "next/navigation"
 import { useEffect, useState } from "react"
+import { useFormatPrefs } from "@/components/shell/format-prefs"
+import { formatLengthFt } from "@/lib/format"
 import { MARK_LABEL } from "@/lib/labels"
 import { connectLive, type LiveConnection, type LiveMark } from "@/lib/recorder/live-client"
 import type { Score } from "@/lib/scoring/types"
@@ -10,6 +12,7 @@ const minutes = (s: number) => (s / 60).toFixed(1)
 
 /** A lead watching a drive being recorded: the crew's marks and the live score, as the phones see them. */
 export function LiveDrive({ driveId }: { driveId: string }) {
+  const { units } = useFormatPrefs()
   const router = useRouter()
   const [marks, setMarks] = useState<LiveMark[]>([])
   const [score, setScore] = useState<Score | null>(null)
@@ -91,7 +94,7 @@ export function LiveDrive({ driveId }: { driveId: string }) {
               {minutes((m.t - t0) / 1000)} min
             </span>
             <span className="font-semibold">{MARK_LABEL[m.kind] ?? m.kind}</span>
-            {m.gapFt != null ? <span>{m.gapFt} ft</span> : null}
+            {m.gapFt != null ? <span>{formatLengthFt(m.gapFt, units)}</span> : null}
             {m.text ? <span className="truncate">{m.text}</span> : null}
           </li>
         ))}

@@ -41,7 +41,16 @@ export function TimeToClearChart({ data }: { data: Numbers["timeToClear"] }) {
         <ResponsiveContainer width="100%" height="100%">
           <BarChart data={rows} margin={{ top: 8, right: 8, bottom: 4, left: -16 }}>
             <CartesianGrid strokeDasharray="3 3" stroke="currentColor" strokeOpacity={0.2} />
-            <XAxis dataKey="bin" tick={{ fontSize: 12, fill: "currentColor" }} stroke="currentColor" />
+            {/* Ticks without the unit ("0-5" ... "30+"), said once under the axis: all seven fit a phone. */}
+            <XAxis
+              dataKey="bin"
+              interval={0}
+              tick={{ fontSize: 12, fill: "currentColor" }}
+              tickFormatter={(v: string) => v.replace(/ min$/, "")}
+              stroke="currentColor"
+              height={40}
+              label={{ value: "Minutes", position: "insideBottom", offset: 0, fontSize: 12, fill: "currentColor" }}
+            />
             <YAxis allowDecimals={false} tick={{ fontSize: 12, fill: "currentColor" }} stroke="currentColor" />
             <Tooltip contentStyle={TOOLTIP_STYLE} />
             <Legend formatter={legendText} />
@@ -66,8 +75,14 @@ export function VerdictMixChart({ data }: { data: Numbers["verdictMix"] }) {
         <ResponsiveContainer width="100%" height="100%">
           <BarChart data={data} margin={{ top: 8, right: 8, bottom: 4, left: -16 }}>
             <CartesianGrid strokeDasharray="3 3" stroke="currentColor" strokeOpacity={0.2} />
+            {/* Angled week labels, every nth one evenly (recharts works out n from the width) so they never overlap. */}
             <XAxis
               dataKey="weekStart"
+              interval="equidistantPreserveStart"
+              minTickGap={2}
+              angle={-45}
+              textAnchor="end"
+              height={48}
               tick={{ fontSize: 12, fill: "currentColor" }}
               stroke="currentColor"
               tickFormatter={(v: string) => formatDay(`${v}T12:00:00Z`, "UTC")}

@@ -1,4 +1,5 @@
 import { Card } from "@/components/ui/card"
+import type { UnitSystem } from "@/lib/format"
 import {
   checkWords,
   measurementWords,
@@ -12,7 +13,13 @@ import {
 const verdictWord = (v: string | null) => (v ? ((VERDICT_WORD as Record<string, string>)[v] ?? v) : "not finished")
 
 /** The record's per-system part (share page and drive page): set-up, learn drive, road-test checks, cautions. */
-export function CalibrationsSection({ calibrations }: { calibrations: CalibrationRecord[] | undefined }) {
+export function CalibrationsSection({
+  calibrations,
+  units = "imperial",
+}: {
+  calibrations: CalibrationRecord[] | undefined
+  units?: UnitSystem
+}) {
   if (!calibrations?.length) return null
   return (
     <section aria-labelledby="each-system" className="space-y-3" data-testid="record-calibrations">
@@ -61,7 +68,7 @@ export function CalibrationsSection({ calibrations }: { calibrations: Calibratio
               <ul className="list-disc pl-5 text-sm">
                 {sys.roadTest.checks.map((c) => (
                   <li key={c.label}>
-                    {c.label}: {checkWords(c)}
+                    {c.label}: {checkWords(c, units)}
                   </li>
                 ))}
               </ul>

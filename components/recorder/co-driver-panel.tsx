@@ -15,9 +15,10 @@ import {
 import { useState, type ReactNode } from "react"
 import type { MarkKind } from "@/lib/drive-file/schema"
 import { MARK_LABEL as MARK_WORD } from "@/lib/labels"
-import { roundGapFt, timeGap, type TimeGap } from "@/lib/recorder/time-gap"
+import { formatLengthFt } from "@/lib/format"
+import { roundGapFt, timeGap, typedGapFt, type TimeGap } from "@/lib/recorder/time-gap"
 import { RoadTestChecks } from "./road-test-checks"
-import { getRecorder, useRecorder } from "./use-recorder"
+import { getRecorder, useRecorder, useRecorderUnits } from "./use-recorder"
 
 const cx = (...parts: Array<string | false | null | undefined>) => parts.filter(Boolean).join(" ")
 
@@ -65,6 +66,8 @@ function Big({
 /** Time-gap counter: tap as the lead passes a roadside object, tap again as we pass it. */
 function GapCounter({ onUse }: { onUse: (gapFt: number) => void }) {
   const speedMps = useRecorder((s) => s.speedMps)
+  const units = useRecorderUnits()
+  const unitWord = units === "metric" ? "metres" : "feet"
   const [leadAt, setLeadAt] = useState<number | null>(null)
   const [gap, setGap] = useState<TimeGap | null>(null)
   const [typed, setTyped] = useState("")
@@ -100,15 +103,15 @@ function GapCounter({ onUse }: { onUse: (gapFt: number) => void }) {
       {gap ? (
         <p className="text-center tabular text-xl" data-testid="gap-result">
           {gap.seconds.toFixed(1)} s
-          {gap.gapFt === null ? " (speed unknown: no feet)" : ` ≈ ${roundGapFt(gap.gapFt)} ft`}
+          {gap.gapFt === null ? ` (speed unknown: no ${unitWord})` : ` ≈ ${formatLengthFt(gap.gapFt, units)}`}
         </p>
       ) : null}
       <div className="flex gap-2">
         <label className="flex flex-1 items-center gap-2">
           <input
             inputMode="numeric"
-            placeholder="or type feet"
-            aria-label="Gap in feet"
+            placeholder={`or type ${unitWord}`}
+            aria-label={`Gap in ${unitWord}`}
             value={typed}
             onChange={(e) => setTyped(e.target.value.replace(/[^0-9]/g, ""))}
             className="min-h-16 w-full rounded-xl bg-asphalt-800 px-3 text-xl text-white"
@@ -120,7 +123,7 @@ function GapCounter({ onUse }: { onUse: (gapFt: number) => void }) {
           testId="gap-use"
           disabled={!(typed || gap?.gapFt != null)}
           onClick={() => {
-            const ft = typed ? Number(typed) : gap?.gapFt != null ? roundGapFt(gap.gapFt) : null
+            const ft = typed ? typedGapFt(Number(typed), units) : gap?.gapFt != null ? roundGapFt(gap.gapFt) : null
             if (ft === null) return
             onUse(ft)
             setTyped("")
@@ -153,10 +156,11 @@ export function CoDriverPanel() {
     }
     return on
   })()
+  const units = useRecorderUnits()
   const log = async (kind: MarkKind, extra: { gapFt?: number; text?: string } = {}) => {
     await getRecorder().addMark(kind, extra)
     buzz(kind === "cleared" || kind === "verified" ? [60, 60, 60] : 50)
-    setFlash(`${MARK_WORD[kind]} logged${extra.gapFt !== undefined ? ` (${extra.gapFt} ft)` : ""}`)
+    setFlash(`${MARK_WORD[kind]} logged${extra.gapFt !== undefined ? ` (${formatLengthFt(extra.gapFt, units)})` : ""}`)
     setAsking(null)
   }
   const last = marks.at(-1)

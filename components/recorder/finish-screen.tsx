@@ -1,9 +1,10 @@
 "use client"
 import { ShieldAlert } from "lucide-react"
 import { VerdictBadge } from "@/components/drives/verdict-badge"
+import { describeReasons } from "@/lib/format/conditions"
 import { RoadTestResult } from "./road-test-result"
 import { SyncStatus } from "./sync-status"
-import { useRecorder } from "./use-recorder"
+import { useRecorder, useRecorderUnits } from "./use-recorder"
 
 /** The verdict with its reasons, from the server once it has the whole drive. */
 export function FinishScreen({ onNewDrive }: { onNewDrive: () => void }) {
@@ -11,7 +12,10 @@ export function FinishScreen({ onNewDrive }: { onNewDrive: () => void }) {
   const serverScore = useRecorder((s) => s.serverScore)
   const localScore = useRecorder((s) => s.score)
   const score = serverScore ?? localScore
+  const units = useRecorderUnits()
   if (!meta || !score) return null
+  // The scorer's own reasons are in mph and feet: people read them in the shop's units.
+  const { reasons, notes } = describeReasons(score, units)
   return (
     <div className="space-y-4" data-testid="finish-screen">
       <div>
@@ -38,19 +42,19 @@ export function FinishScreen({ onNewDrive }: { onNewDrive: () => void }) {
           </span>
         </div>
         <ul className="list-disc space-y-1 pl-5" data-testid="verdict-reasons">
-          {score.reasons.length ? (
-            score.reasons.map((r) => <li key={r}>{r}</li>)
+          {reasons.length ? (
+            reasons.map((r) => <li key={r}>{r}</li>)
           ) : (
             <li>Every condition the drive was held to was met.</li>
           )}
-          {score.notes.map((n) => (
+          {notes.map((n) => (
             <li key={n} className="text-graphite-300">
               {n}
             </li>
           ))}
         </ul>
       </section>
-      <RoadTestResult score={score} />
+      <RoadTestResult score={score} units={units} />
       <section
         className="space-y-1 rounded-xl border-2 border-signal-400 p-3"
         aria-labelledby="final-word"

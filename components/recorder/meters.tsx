@@ -1,10 +1,17 @@
 "use client"
 import { CircleCheck, CloudOff, Gauge, Hourglass, Link2, Radio, Timer, TriangleAlert } from "lucide-react"
 import type { ReactNode } from "react"
+import { formatDistance, formatLengthRangeFt, formatSpeed, speedUnit } from "@/lib/format"
+import { speedMeterWords } from "@/lib/recorder/profile-words"
 import { mpsToMph } from "@/lib/units"
-import { useRecorder } from "./use-recorder"
+import { useRecorder, useRecorderUnits } from "./use-recorder"
 
 const cx = (...parts: Array<string | false | null | undefined>) => parts.filter(Boolean).join(" ")
+
+/** A no-break space before each unit, so a narrow meter never puts "56+" and "km/h" on two lines. */
+function keepUnitsWithNumbers(text: string) {
+  return text.replace(/ (mph|km\/h|ft|m)\b/g, "\u00a0$1")
+}
 
 function minutes(seconds: number) {
   return (seconds / 60).toFixed(1)
@@ -63,12 +70,13 @@ export function Meters() {
   const nowMs = useRecorder((s) => s.nowMs)
   const live = useRecorder((s) => s.live.state)
   const markCount = useRecorder((s) => s.knownMarks.length)
+  const units = useRecorderUnits()
   if (!meta) return null
   const cleared = score?.clearedAtSeconds ?? null
   const p = meta.profile
   const mph = speedMps === null ? null : mpsToMph(speedMps)
+  // The band decision stays in mph against the profile's stored mph; only the words are in the shop's units.
   const inBand = mph !== null && mph >= p.minSpeedMph && (p.maxSpeedMph === null || mph <= p.maxSpeedMph)
-  const band = p.maxSpeedMph === null ? `${p.minSpeedMph}+ mph` : `${p.minSpeedMph}–${p.maxSpeedMph} mph`
   const elapsedS = Math.max(0, (nowMs - meta.startedAtMs) / 1000)
   const harsh = (score?.harshEvents.accel ?? 0) + (score?.harshEvents.decel ?? 0)
   const q = score?.qualifyingSecondsBeforeClear ?? 0
@@ -80,17 +88,9 @@ export function Meters() {
         raw={speedMps}
         label={inBand ? "Speed: qualifying" : "Speed: paused"}
         icon={<Gauge aria-hidden className="size-4" />}
-        value={mph === null ? "—" : Math.round(mph).toString()}
-        unit="mph"
-        detail={
-          mph === null
-            ? `No speed from GPS yet · band ${band}`
-            : inBand
-              ? `Inside the band ${band}`
-              : mph < p.minSpeedMph
-                ? `Under ${p.minSpeedMph} mph: qualifying time paused`
-                : `Over ${p.maxSpeedMph} mph: qualifying time paused`
-        }
+        value={speedMps === null ? "—" : formatSpeed(speedMps, units).split(" ")[0]!}
+        unit={speedUnit(units)}
+        detail={keepUnitsWithNumbers(speedMeterWords(p, mph, units))}
         tone={inBand ? "signal" : "plain"}
       />
       <Meter
@@ -110,7 +110,9 @@ export function Meters() {
         icon={<Link2 aria-hidden className="size-4" />}
         value={minutes(f)}
         unit="min"
-        detail={`of ${p.minFollowingMinutes} min, gap ${p.leadGapFt.min}–${p.leadGapFt.max} ft`}
+        detail={keepUnitsWithNumbers(
+          `of ${p.minFollowingMinutes} min, gap ${formatLengthRangeFt(p.leadGapFt.min, p.leadGapFt.max, units)}`,
+        )}
         tone={f >= p.minFollowingMinutes * 60 ? "teal" : "plain"}
       />
       <Meter
@@ -181,7 +183,7 @@ export function Meters() {
         data-verdict={score?.verdict ?? ""}
         data-marks={markCount}
       >
-        {score?.samplesUsed ?? 0} samples used · {Math.round(score?.distanceMeters ?? 0)} m
+        {score?.samplesUsed ?? 0} samples used · {formatDistance(score?.distanceMeters ?? 0, units)}
       </div>
     </div>
   )

@@ -1,5 +1,7 @@
 "use client"
 import { lazy, Suspense, useEffect, useState } from "react"
+import { useFormatPrefs } from "@/components/shell/format-prefs"
+import { formatTime } from "@/lib/format"
 import { getActiveDrive } from "@/lib/recorder/idb-outbox"
 import type { DriveMeta } from "@/lib/recorder/idb-outbox"
 import { StartFlow, type StartChoice } from "./start-flow"
@@ -33,6 +35,7 @@ function driveIdFromLocation(): string | null {
 export function RecorderApp({ coDriver = false }: { coDriver?: boolean }) {
   const [meta, setMeta] = useState<DriveMeta | null>(null)
   const [phase, setPhase] = useState<"loading" | "start" | "drive" | "missing">("loading")
+  const { units, timeZone } = useFormatPrefs()
 
   useEffect(() => {
     let unsubscribe = () => {}
@@ -71,7 +74,7 @@ export function RecorderApp({ coDriver = false }: { coDriver?: boolean }) {
           .then((r) => (r.ok ? r.json() : null))
           .catch(() => null)
         if (body?.drive) {
-          await recorder.joinAsCoDriver(id, body.drive.profile, body.drive.vehicleDescription ?? "Drive")
+          await recorder.joinAsCoDriver(id, body.drive.profile, body.drive.vehicleDescription ?? "Drive", units)
           setPhase("drive")
           return
         }
@@ -88,7 +91,7 @@ export function RecorderApp({ coDriver = false }: { coDriver?: boolean }) {
       window.removeEventListener("offline", onOffline)
       window.removeEventListener("pagehide", onHide)
     }
-  }, [coDriver])
+  }, [coDriver, units])
 
   // A co-driver's own phone hears from the live channel when the driver has finished the drive.
   const [driverFinished, setDriverFinished] = useState<string | null>(null)
@@ -109,7 +112,7 @@ export function RecorderApp({ coDriver = false }: { coDriver?: boolean }) {
   async function start(choice: StartChoice) {
     const id = crypto.randomUUID()
     window.history.replaceState(null, "", `/record?drive=${id}`)
-    await (await loadRecorder()).start({ id, ...choice })
+    await (await loadRecorder()).start({ id, ...choice, units })
     setPhase("drive")
   }
 
@@ -144,9 +147,8 @@ export function RecorderApp({ coDriver = false }: { coDriver?: boolean }) {
           className="mb-3 rounded-xl border-2 border-teal-400 bg-asphalt-800 p-3 font-semibold"
           data-testid="driver-finished"
         >
-          The driver finished this drive at{" "}
-          {new Date(driverFinished).toLocaleTimeString([], { hour: "2-digit", minute: "2-digit" })}. The drive takes no
-          new marks; marks this phone logged during the drive still go to the server.
+          The driver finished this drive at {formatTime(driverFinished, timeZone)}. The drive takes no new marks; marks
+          this phone logged during the drive still go to the server.
         </p>
       ) : null}
       <Suspense fallback={opening}>

@@ -7,7 +7,7 @@ import { CoDriverPanel } from "./co-driver-panel"
 import { CrewSummary } from "./crew-summary"
 import { Meters } from "./meters"
 import { SyncStatus } from "./sync-status"
-import { getRecorder, useRecorder } from "./use-recorder"
+import { getRecorder, useRecorder, useRecorderUnits } from "./use-recorder"
 
 /** Above this the driver's view shows only the meters (common practice, no source: walking pace is ~3 mph). */
 const MOVING_MPH = 5
@@ -16,12 +16,13 @@ export function RecordingScreen() {
   const meta = useRecorder((s) => s.meta)
   const gps = useRecorder((s) => s.gps)
   const accuracyM = useRecorder((s) => s.accuracyM)
+  const units = useRecorderUnits()
   const speedMps = useRecorder((s) => s.speedMps)
   const [mode, setMode] = useState<"driver" | "co-driver">(meta?.role === "co-driver" ? "co-driver" : "driver")
   const [confirmFinish, setConfirmFinish] = useState(false)
   if (!meta) return null
   const moving = speedMps !== null && mpsToMph(speedMps) > MOVING_MPH
-  const message = gpsMessage(gps, accuracyM, meta.profile.maxAccuracyM)
+  const message = gpsMessage(gps, accuracyM, meta.profile.maxAccuracyM, units)
   const secondPhone = meta.role === "co-driver"
 
   return (

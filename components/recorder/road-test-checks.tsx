@@ -3,9 +3,9 @@ import { Ban, CircleCheck, CircleX, ClipboardCheck } from "lucide-react"
 import { useEffect, useState } from "react"
 import type { CheckResult, RoadTestCheck } from "@/lib/drive-file/road-test"
 import { SENSOR_LABEL } from "@/lib/labels"
-import { CHECK_RESULT_LABEL, checkSpeedWords } from "@/lib/road-test/words"
+import { CHECK_RESULT_LABEL, checkSpeedWords, checkTooSlowWords } from "@/lib/road-test/words"
 import { mpsToMph } from "@/lib/units"
-import { getRecorder, useRecorder } from "./use-recorder"
+import { getRecorder, useRecorder, useRecorderUnits } from "./use-recorder"
 
 const cx = (...parts: Array<string | false | null | undefined>) => parts.filter(Boolean).join(" ")
 const cacheKey = (driveId: string) => `straightaway.road-test.${driveId}`
@@ -71,10 +71,12 @@ export function RoadTestChecks() {
   const marks = useRecorder((s) => s.marks)
   const speedMps = useRecorder((s) => s.speedMps)
   const checks = useRoadTestChecks(meta?.id)
+  const units = useRecorderUnits()
   const [busy, setBusy] = useState<string | null>(null)
   if (!checks || checks.length === 0) return null
   const latest = new Map<string, CheckResult>()
   for (const m of marks) if (m.kind === "check" && m.checkKey && m.result) latest.set(m.checkKey, m.result)
+  // Compared in whole mph with the check's stored mph (as the scorer does); said in the shop's units.
   const mph = speedMps === null ? null : Math.round(mpsToMph(speedMps))
   const log = async (c: RoadTestCheck, result: CheckResult) => {
     setBusy(c.key)
@@ -104,7 +106,7 @@ export function RoadTestChecks() {
       <ul className="space-y-3">
         {checks.map((c) => {
           const done = latest.get(c.key)
-          const slow = c.minSpeedMph !== null && (mph === null || mph < c.minSpeedMph)
+          const slow = c.minSpeedMph !== null && (mph === null || mph < c.minSpeedMph) ? c.minSpeedMph : null
           return (
             <li
               key={c.key}
@@ -115,15 +117,13 @@ export function RoadTestChecks() {
               <div>
                 <p className="font-semibold">{c.label}</p>
                 <p className="text-sm text-graphite-300">
-                  {SENSOR_LABEL[c.system] ?? c.system} · {checkSpeedWords(c.minSpeedMph)} ·{" "}
+                  {SENSOR_LABEL[c.system] ?? c.system} · {checkSpeedWords(c.minSpeedMph, units)} ·{" "}
                   {c.need === "required" ? "required" : "where equipped"}
                   {done ? (
                     <span className="font-semibold text-white"> · logged: {CHECK_RESULT_LABEL[done]}</span>
                   ) : null}
                 </p>
-                {slow ? (
-                  <p className="text-sm text-signal-300">Under {c.minSpeedMph} mph now: a pass here would not count.</p>
-                ) : null}
+                {slow !== null ? <p className="text-sm text-signal-300">{checkTooSlowWords(slow, units)}</p> : null}
               </div>
               <div className="grid grid-cols-3 gap-2">
                 {(["pass", "fail", "not_equipped"] as const).map((r) => {

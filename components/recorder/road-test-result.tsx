@@ -2,7 +2,8 @@
 import { Ban, CircleCheck, CircleHelp, CircleX, ClipboardCheck } from "lucide-react"
 import { VerdictBadge } from "@/components/drives/verdict-badge"
 import { SENSOR_LABEL } from "@/lib/labels"
-import { CHECK_STATUS_LABEL, checkSpeedWords } from "@/lib/road-test/words"
+import type { UnitSystem } from "@/lib/format"
+import { CHECK_STATUS_LABEL, checkSpeed, checkSpeedWords } from "@/lib/road-test/words"
 import type { Score } from "@/lib/scoring/types"
 
 const STATUS_ICON = {
@@ -14,7 +15,7 @@ const STATUS_ICON = {
 } as const
 
 /** The finish screen's road-test part: its own verdict and every check with its result and speed. */
-export function RoadTestResult({ score }: { score: Score }) {
+export function RoadTestResult({ score, units }: { score: Score; units: UnitSystem }) {
   const road = score.roadTest
   if (!road) return null
   return (
@@ -51,10 +52,10 @@ export function RoadTestResult({ score }: { score: Score }) {
               <div>
                 <p className="font-semibold">
                   {c.label}: {CHECK_STATUS_LABEL[c.status] ?? c.status}
-                  {c.speedMph !== null ? ` at ${c.speedMph} mph` : ""}
+                  {c.speedMph !== null ? ` at ${checkSpeed(c.speedMph, units)}` : ""}
                 </p>
                 <p className="text-sm text-graphite-300">
-                  {SENSOR_LABEL[c.system] ?? c.system} · counts at {checkSpeedWords(c.minSpeedMph)} ·{" "}
+                  {SENSOR_LABEL[c.system] ?? c.system} · counts at {checkSpeedWords(c.minSpeedMph, units)} ·{" "}
                   {c.need === "required" ? "required" : "where equipped"}
                 </p>
               </div>

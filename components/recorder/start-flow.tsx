@@ -6,6 +6,8 @@ import { DEFAULT_PROFILE, resolveProfile, type ResolvedProfile } from "@/lib/dri
 import type { Profile } from "@/lib/drive-file/schema"
 import { profileInWords } from "@/lib/recorder/profile-words"
 import { GoodRoadsNow } from "@/components/roads/good-roads-now"
+import { useFormatPrefs } from "@/components/shell/format-prefs"
+import { formatDateTime } from "@/lib/format"
 
 type JobSummary = { id: string; roNumber: string; label: string }
 type Blocker = { key: string; message: string }
@@ -73,6 +75,7 @@ function jobLabel(j: ListedJob): string {
 
 /** Pick the job and task (or an unplanned drive), read the profile, pass the pre-drive gate, start. */
 export function StartFlow({ onStart }: { onStart: (choice: StartChoice) => void }) {
+  const { units, timeZone } = useFormatPrefs()
   const [jobs, setJobs] = useState<JobSummary[] | null>(null)
   const [jobId, setJobId] = useState<string>("")
   const [tasks, setTasks] = useState<TaskSummary[]>([])
@@ -240,7 +243,7 @@ export function StartFlow({ onStart }: { onStart: (choice: StartChoice) => void 
             Condition profile{task?.profile ? `: ${task.profile.name}` : ": shop default"}
           </h2>
           <ul className="mt-2 list-disc space-y-1 pl-5 text-graphite-200">
-            {profileInWords(profile).map((line) => (
+            {profileInWords(profile, units).map((line) => (
               <li key={line}>{line}</li>
             ))}
           </ul>
@@ -283,7 +286,7 @@ export function StartFlow({ onStart }: { onStart: (choice: StartChoice) => void 
           </h2>
           <p className="text-sm text-graphite-300">
             {checklist.completedBy ? `Filled in by ${checklist.completedBy}` : "Filled in"}
-            {checklist.completedAt ? `, ${new Date(checklist.completedAt).toLocaleString()}` : ""}
+            {checklist.completedAt ? `, ${formatDateTime(checklist.completedAt, timeZone)}` : ""}
           </p>
           {checklist.blockers.length ? (
             <ul className="list-disc space-y-1 pl-5">

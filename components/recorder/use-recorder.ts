@@ -1,5 +1,7 @@
 "use client"
 import { useStore } from "zustand"
+import { useFormatPrefs } from "@/components/shell/format-prefs"
+import type { UnitSystem } from "@/lib/format"
 import { createRecorder, type Recorder, type RecorderState } from "@/lib/recorder/recorder"
 
 let recorder: Recorder | undefined
@@ -11,4 +13,11 @@ export function getRecorder(): Recorder {
 
 export function useRecorder<T>(select: (s: RecorderState) => T): T {
   return useStore(getRecorder().store, select)
+}
+
+/** The units the crew reads: the ones the drive started with (kept in IndexedDB), else the shop's from the page. */
+export function useRecorderUnits(): UnitSystem {
+  const page = useFormatPrefs().units
+  const kept = useRecorder((s) => s.meta?.units)
+  return kept ?? page
 }

@@ -3,13 +3,16 @@
 import { Check, Undo2 } from "lucide-react"
 import { useRouter } from "next/navigation"
 import { useState } from "react"
+import { useFormatPrefs } from "@/components/shell/format-prefs"
 import { Button } from "@/components/ui/button"
 import { ApiError, apiFetch } from "@/lib/api/client"
 import { Field, Textarea } from "@/components/ui/field"
 import { FormProblem } from "@/components/ui/form"
+import { formatLengthRangeFt } from "@/lib/format"
 
 /** Approve or Send back; sending back needs a note saying what to do differently. */
 export function ReviewActions({ driveId }: { driveId: string }) {
+  const { units } = useFormatPrefs()
   const router = useRouter()
   const [note, setNote] = useState("")
   const [problem, setProblem] = useState<string | null>(null)
@@ -49,7 +52,7 @@ export function ReviewActions({ driveId }: { driveId: string }) {
           value={note}
           maxLength={2000}
           onChange={(e) => setNote(e.target.value)}
-          placeholder="e.g. Too little time behind a lead vehicle; follow at 120-150 ft on the highway loop."
+          placeholder={`e.g. Too little time behind a lead vehicle; follow at ${formatLengthRangeFt(120, 150, units)} on the highway loop.`}
         />
       </Field>
       <FormProblem>{problem}</FormProblem>

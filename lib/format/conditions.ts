@@ -103,8 +103,17 @@ function reason(c: Condition, score: Score, p: ResolvedProfile, units: UnitSyste
         .replace(/(\d+(?:\.\d+)?) mph/g, (_, mph: string) => formatSpeedMph(Number(mph), units))
         .replace(/after the clear/g, "after the learn completed")
     default:
-      return c.reason
+      return speedsInUnits(c.reason, units)
   }
+}
+
+/**
+ * The scorer's other words (the road test's "passed only at 17.9 mph; it counts at 40 mph or faster") with
+ * each "N mph" in the shop's unit, to a tenth as the scorer writes it (NIST SP 811: 1 mi = 1609.344 m).
+ */
+function speedsInUnits(text: string, units: UnitSystem): string {
+  if (units === "imperial") return text
+  return text.replace(/(\d+(?:\.\d+)?) mph\b/g, (_, mph: string) => formatSpeedMph(Number(mph), units, 1))
 }
 
 export function describeConditions(score: Score, units: UnitSystem): ConditionLine[] {
@@ -128,8 +137,8 @@ export function describeReasons(score: Score, units: UnitSystem): { reasons: str
     if (c.reason) byReason.set(c.reason, lines[i]?.reason ?? c.reason)
   })
   return {
-    reasons: (score.reasons ?? []).map((r) => byReason.get(r) ?? r),
-    notes: (score.notes ?? []).map((r) => byReason.get(r) ?? r),
+    reasons: (score.reasons ?? []).map((r) => byReason.get(r) ?? speedsInUnits(r, units)),
+    notes: (score.notes ?? []).map((r) => byReason.get(r) ?? speedsInUnits(r, units)),
   }
 }
 

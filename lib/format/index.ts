@@ -206,6 +206,13 @@ export function formatSpeedMph(mph: number | null | undefined, units: UnitSystem
   return units === "metric" ? formatSpeed(mphToMps(mph), units, digits) : `${round(mph, digits)} mph`
 }
 
+/** A speed band from a profile's mph fields: "35+ mph" or "35–65 mph"; metric "56+ km/h", "56–105 km/h". */
+export function formatSpeedBandMph(minMph: number, maxMph: number | null, units: UnitSystem): string {
+  const lo = formatSpeedMph(minMph, units)
+  if (maxMph === null) return lo.replace(" ", "+ ")
+  return `${lo.slice(0, lo.indexOf(" "))}–${formatSpeedMph(maxMph, units)}`
+}
+
 /** A road distance: miles or kilometres with one decimal ("14.4 mi", "23.2 km"). */
 export function formatDistance(meters: number | null | undefined, units: UnitSystem): string {
   if (meters == null || !Number.isFinite(meters)) return "—"
@@ -223,6 +230,12 @@ export function formatLength(meters: number | null | undefined, units: UnitSyste
 export function formatLengthFt(feet: number | null | undefined, units: UnitSystem): string {
   if (feet == null || !Number.isFinite(feet)) return "—"
   return units === "metric" ? formatLength(ftToM(feet), units) : `${round(feet, 0)} ft`
+}
+
+/** A gap window from a profile's feet: "100–300 ft"; metric "30–91 m". */
+export function formatLengthRangeFt(minFt: number, maxFt: number, units: UnitSystem): string {
+  const lo = formatLengthFt(minFt, units)
+  return `${lo.slice(0, lo.indexOf(" "))}–${formatLengthFt(maxFt, units)}`
 }
 
 /** Accelerations read in g (two decimals) with the m/s² the profile is kept in beside it: "0.35 g (3.4 m/s²)". */

@@ -1,5 +1,6 @@
 import { SCAN_RESULT_LABEL, type ScanResult } from "@/lib/setup"
-import { CHECK_STATUS_LABEL, checkSpeedWords } from "@/lib/road-test/words"
+import type { UnitSystem } from "@/lib/format"
+import { CHECK_STATUS_LABEL, checkSpeed, checkSpeedWords } from "@/lib/road-test/words"
 import type { RecordCheck, RecordMeasurement } from "./types"
 
 // Words of the record's per-system section, shared by the PDF and the share page.
@@ -13,10 +14,16 @@ export function measurementWords(m: RecordMeasurement): string {
   return `${f(m.value)} ${m.unit} (specified ${f(m.specified)} +/- ${f(m.tolerance)} ${m.unit})${m.outOfTolerance ? " - OUT OF TOLERANCE" : ""}`
 }
 
-export function checkWords(c: RecordCheck): string {
+/** A road-test check's result on the record (page, PDF, e-mail), speeds in the shop's units. */
+export function checkWords(c: RecordCheck, units: UnitSystem): string {
   const status = CHECK_STATUS_LABEL[c.status] ?? c.status
-  const at = c.speedMph === null ? (c.status === "not_logged" ? "" : " at an unknown speed") : ` at ${c.speedMph} mph`
-  return `${status}${at} (counts at ${checkSpeedWords(c.minSpeedMph)}; ${c.need === "required" ? "required" : "where equipped"})`
+  const at =
+    c.speedMph === null
+      ? c.status === "not_logged"
+        ? ""
+        : " at an unknown speed"
+      : ` at ${checkSpeed(c.speedMph, units)}`
+  return `${status}${at} (counts at ${checkSpeedWords(c.minSpeedMph, units)}; ${c.need === "required" ? "required" : "where equipped"})`
 }
 
 /** Cautions per system: the maker's service information and the vehicle's own confirmation come first. */

@@ -492,7 +492,7 @@ function drawCalibrations(w: Writer, data: RecordData) {
       // One line of text per check (not a row): a long check name must not interleave with its result.
       for (const c of sys.roadTest.checks) {
         const mark = c.status === "passed" ? "OK" : c.status === "not_equipped" && c.need !== "required" ? "N/A" : "NO"
-        w.text(`${mark} - ${c.label}: ${checkWords(c)}`, { size: 10, x: MARGIN + 10 })
+        w.text(`${mark} - ${c.label}: ${checkWords(c, data.units ?? "imperial")}`, { size: 10, x: MARGIN + 10 })
       }
     } else w.row("Road test", "None recorded")
     for (const caution of sys.cautions) w.text(`- ${caution}`, { size: 9, color: MUTED })

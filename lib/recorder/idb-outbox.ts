@@ -2,6 +2,7 @@
 import { createStore, del, delMany, get, getMany, keys, set, setMany, type UseStore } from "idb-keyval"
 import type { ApiMark, Sample } from "@/lib/drive-file/schema"
 import type { Score } from "@/lib/scoring/types"
+import type { UnitSystem } from "@/lib/format"
 import type { ResolvedProfile } from "@/lib/drive-file/profile"
 import type { OutboxItem, OutboxStore } from "./outbox"
 
@@ -18,6 +19,8 @@ export interface DriveMeta {
   finishedLocally?: boolean
   /** A second phone logging marks only: it watches position for speed but records no samples. */
   role?: "driver" | "co-driver"
+  /** The shop's units when the drive started: the meters read in them offline too (older drives: the page's). */
+  units?: UnitSystem
 }
 
 let store: UseStore | undefined

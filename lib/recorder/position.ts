@@ -1,4 +1,5 @@
 import type { Sample } from "@/lib/drive-file/schema"
+import { formatLength, type UnitSystem } from "@/lib/format"
 import { DEGREE_SCALE, encodeDegrees, encodeMillis, MILLI_SCALE } from "@/lib/drive-file/stored"
 
 /** The parts of a GeolocationPosition a sample needs (so this stays testable without a browser). */
@@ -31,7 +32,12 @@ export function positionToSample(p: PositionLike): Sample {
 export type GpsState = "waiting" | "ok" | "poor" | "no-fix" | "denied" | "unavailable"
 
 /** Plain words for the crew. */
-export function gpsMessage(state: GpsState, accuracyM: number | null, maxAccuracyM: number): string | null {
+export function gpsMessage(
+  state: GpsState,
+  accuracyM: number | null,
+  maxAccuracyM: number,
+  units: UnitSystem,
+): string | null {
   switch (state) {
     case "waiting":
       return "Finding your position…"
@@ -42,7 +48,7 @@ export function gpsMessage(state: GpsState, accuracyM: number | null, maxAccurac
     case "no-fix":
       return "No position for a while. Keep the phone where it can see the sky (on the dash, not in a pocket)."
     case "poor":
-      return `Position is rough (±${Math.round(accuracyM ?? 0)} m). Samples rougher than ±${maxAccuracyM} m do not count.`
+      return `Position is rough (±${formatLength(accuracyM ?? 0, units)}). Samples rougher than ±${formatLength(maxAccuracyM, units)} do not count.`
     default:
       return null
   }

@@ -8,6 +8,7 @@ import { createLiveScorer, type LiveScorer } from "@/lib/scoring/score"
 import { geodesicDistanceM } from "@/lib/scoring/geodesy"
 import { predictMinutesLeft, type MinutesLeft } from "@/lib/scoring/predict"
 import type { Score } from "@/lib/scoring/types"
+import type { UnitSystem } from "@/lib/format"
 import { BATCH_ID_HEADER, PERSIST_EVERY_MS, shouldPersist, shouldSend } from "./batching"
 import {
   getLastSynced,
@@ -475,7 +476,7 @@ export function createRecorder(transport: Transport = fetchTransport) {
   }
 
   /** A second phone attached as co-driver: marks only, speed from its own position for the gap counter. */
-  async function joinAsCoDriver(driveId: string, profile: ResolvedProfile, label: string) {
+  async function joinAsCoDriver(driveId: string, profile: ResolvedProfile, label: string, units?: UnitSystem) {
     const existing = await loadMeta(driveId)
     if (!existing) {
       await saveMeta({
@@ -488,6 +489,7 @@ export function createRecorder(transport: Transport = fetchTransport) {
         label,
         status: "recording",
         role: "co-driver",
+        ...(units ? { units } : {}),
       })
       await saveMarks(driveId, [])
     }
@@ -502,6 +504,7 @@ export function createRecorder(transport: Transport = fetchTransport) {
     jobId: string | null
     taskId: string | null
     coDriverId: string | null
+    units?: UnitSystem
   }) {
     const meta: DriveMeta = {
       id: input.id,
@@ -512,6 +515,7 @@ export function createRecorder(transport: Transport = fetchTransport) {
       taskId: input.taskId,
       label: input.label,
       status: "recording",
+      ...(input.units ? { units: input.units } : {}),
     }
     const create = makeItem(
       input.id,

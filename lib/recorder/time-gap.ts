@@ -20,3 +20,8 @@ export function timeGap(leadPassedMs: number, wePassedMs: number, speedMps: numb
 export function roundGapFt(gapFt: number): number {
   return Math.round(gapFt)
 }
+
+/** A gap the co-driver typed in the shop's unit, as the mark's whole feet (drive-file format; 1 ft = 0.3048 m). */
+export function typedGapFt(typed: number, units: "imperial" | "metric"): number {
+  return roundGapFt(units === "metric" ? mToFt(typed) : typed)
+}

@@ -50,6 +50,11 @@ export default async function NumbersPage({ searchParams }: { searchParams: Prom
           </Link>
         ))}
       </nav>
+      {numbers.timeZoneNote ? (
+        <p className="mb-4 text-sm text-graphite-700 dark:text-graphite-200" data-testid="numbers-zone-note">
+          {numbers.timeZoneNote}
+        </p>
+      ) : null}
       {numbers.drives === 0 ? (
         <Card data-testid="numbers-empty">
           No finished drives in this period yet. Try a longer period, or finish a drive to see it counted.

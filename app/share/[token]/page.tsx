@@ -175,7 +175,7 @@ function SharedRecord({
         </h2>
         <RecordSummary score={data.score} meaning={VERDICT_MEANING[verdict]} units={data.units} />
       </section>
-      <CalibrationsSection calibrations={data.calibrations} />
+      <CalibrationsSection calibrations={data.calibrations} units={data.units} />
       <section
         aria-labelledby="please-read"
         className="space-y-2 rounded-xl border-2 border-signal-500 bg-signal-300/15 p-4 dark:border-signal-400 dark:bg-signal-700/20"

@@ -131,7 +131,7 @@ export default async function DrivePage({ params }: { params: Promise<{ driveId:
             The score describes how the drive went. Whether the calibration is done is what the vehicle itself reports,
             following the maker&apos;s procedure; the score never replaces that.
           </p>
-          <CalibrationsSection calibrations={data.calibrations} />
+          <CalibrationsSection calibrations={data.calibrations} units={data.units} />
           <Card>
             <h2 className="mb-2 text-lg font-semibold">Speed over time</h2>
             <SpeedChart
@@ -151,7 +151,7 @@ export default async function DrivePage({ params }: { params: Promise<{ driveId:
           </Card>
           <Card>
             <h2 className="mb-2 text-lg font-semibold">Marks</h2>
-            <MarkTimeline marks={data.marks} startMs={t0} />
+            <MarkTimeline marks={data.marks} startMs={t0} units={data.units} />
           </Card>
         </div>
         <div className="contents min-w-0 lg:block lg:space-y-4">
