@@ -358,8 +358,6 @@ function photoBlocks(data: RecordData, images: Record<string, string>): Content[
           group.map((p) => ({ text: p.filename, fontSize: 7, color: MUTED })),
         ],
         dontBreakRows: true,
-        keepWithHeaderRows: 1,
-        headerRows: 0,
       },
       layout: {
         hLineWidth: () => 0,
