@@ -9,7 +9,7 @@ const nextConfig = {
   // proxy.ts makes Next buffer request bodies up to this size; over it the body is cut short. It must stay above
   // the largest body a route reads (a drive file, 20 MB) so that the route's own limit answers the 413.
   experimental: { proxyClientMaxBodySize: "24mb" },
-  serverExternalPackages: ["@node-rs/argon2", "pg", "nodemailer", "pdf-lib", "sharp"],
+  serverExternalPackages: ["@node-rs/argon2", "pg", "nodemailer", "pdf-lib", "pdfmake", "pdfkit", "sharp"],
   async headers() {
     return [
       {

@@ -1,4 +1,3 @@
-export { buildDriveRecordPdf, toWinAnsi } from "./pdf"
 export { checklistRows } from "./checklist"
 export { computeTimeline, projectTrack, STATE_LABEL } from "./timeline"
 export type { StretchState, TimelinePoint } from "./timeline"

@@ -1,13 +1,11 @@
 // The drive record PDF's revision line and its "Check this record" block: verification code, verify address
 // and a QR code drawn as vector squares (qrcode's matrix, no image). Kept apart from pdf.ts so the record's
 // layout and its seal can change independently.
-import { type PDFFont, type PDFPage, rgb } from "pdf-lib"
+import type { CanvasElement, Content } from "pdfmake/interfaces"
 import QRCode from "qrcode"
 import { formatDateTime } from "@/lib/format"
+import { heading, INK, MUTED } from "./pdf-kit"
 import type { RecordSeal } from "./types"
-
-const INK = rgb(0.1, 0.12, 0.14)
-const MUTED = rgb(0.36, 0.4, 0.45)
 
 /** The address a QR code on the record opens: the verify page with the code filled in. */
 export function verifyLink(seal: RecordSeal): string {
@@ -23,30 +21,30 @@ export function revisionLine(seal: RecordSeal, timeZone?: string | null): string
   return `Revision ${seal.revision} of this record, sealed ${sealedAtWords(seal, timeZone)}. Verification code ${seal.code}.`
 }
 
-/** Draws the QR code with its top-left corner at (x, top); returns its side in points. */
-export function drawQrCode(page: PDFPage, text: string, x: number, top: number, side: number): number {
+/**
+ * The QR code as vector squares, `side` points wide with the standard's quiet zone of 4 modules (ISO/IEC 18004).
+ * Dark modules side by side in a row are one rectangle, so no hairline seams show between them.
+ */
+function qrCanvas(text: string, side: number): CanvasElement[] {
   const qr = QRCode.create(text, { errorCorrectionLevel: "M" })
   const n = qr.modules.size
-  const quiet = 4 // the standard's quiet zone, in modules (ISO/IEC 18004)
+  const quiet = 4
   const cell = side / (n + 2 * quiet)
-  page.drawRectangle({ x, y: top - side, width: side, height: side, color: rgb(1, 1, 1) })
+  const out: CanvasElement[] = [{ type: "rect", x: 0, y: 0, w: side, h: side, color: "#ffffff" }]
   for (let r = 0; r < n; r++) {
     for (let c = 0; c < n; c++) {
       if (!qr.modules.get(r, c)) continue
-      page.drawRectangle({
-        x: x + (quiet + c) * cell,
-        y: top - (quiet + r + 1) * cell,
-        width: cell,
-        height: cell,
-        color: INK,
-      })
+      let run = 1
+      while (c + run < n && qr.modules.get(r, c + run)) run++
+      out.push({ type: "rect", x: (quiet + c) * cell, y: (quiet + r) * cell, w: run * cell, h: cell, color: INK })
+      c += run - 1
     }
   }
-  return side
+  return out
 }
 
 /** The text lines beside the QR code. */
-export function verificationLines(
+function verificationLines(
   seal: RecordSeal,
   timeZone?: string | null,
 ): Array<{ text: string; bold?: boolean; muted?: boolean }> {
@@ -62,27 +60,29 @@ export function verificationLines(
   ]
 }
 
-export function drawVerificationText(
-  page: PDFPage,
-  fonts: { font: PDFFont; bold: PDFFont },
-  lines: string[][],
-  x: number,
-  top: number,
-  styles: Array<{ bold?: boolean; muted?: boolean }>,
-) {
-  let y = top
-  lines.forEach((wrapped, i) => {
-    for (const line of wrapped) {
-      page.drawText(line, {
-        x,
-        y: y - 10,
-        size: 10,
-        font: styles[i]?.bold ? fonts.bold : fonts.font,
-        color: styles[i]?.muted ? MUTED : INK,
-      })
-      y -= 13.5
-    }
-    y -= 2
-  })
-  return top - y
+/** "Check this record": the verification code, the verify address and a QR code that opens it; kept on one page. */
+export function verificationBlock(seal: RecordSeal, timeZone?: string | null): Content {
+  const side = 96
+  return {
+    unbreakable: true,
+    stack: [
+      heading("Check this record", true),
+      {
+        columns: [
+          { width: side, canvas: qrCanvas(verifyLink(seal), side) },
+          {
+            width: "*",
+            stack: verificationLines(seal, timeZone).map((l) => ({
+              text: l.text,
+              bold: l.bold,
+              color: l.muted ? MUTED : INK,
+              margin: [0, 0, 0, 2] as [number, number, number, number],
+            })),
+          },
+        ],
+        columnGap: 16,
+        margin: [0, 0, 0, 6],
+      },
+    ],
+  }
 }

@@ -1,16 +1,8 @@
 import { PDFParse } from "pdf-parse"
 import { describe, expect, it } from "vitest"
 import { resolveProfile } from "@/lib/drive-file/profile"
-import {
-  buildDriveRecordPdf,
-  checklistRows,
-  computeTimeline,
-  formatDuration,
-  projectTrack,
-  roLabel,
-  toWinAnsi,
-  type RecordData,
-} from "@/lib/record"
+import { checklistRows, computeTimeline, formatDuration, projectTrack, roLabel, type RecordData } from "@/lib/record"
+import { buildDriveRecordPdf } from "@/lib/record/pdf"
 import { scoreDrive } from "@/lib/scoring"
 import { generateDrive } from "@/lib/tracks"
 import { withCheckDigit } from "@/lib/vin"
@@ -131,6 +123,35 @@ describe("drive record PDF", () => {
     expect(text).toContain("the qualifying band")
   })
 
+  it("writes names and notes outside plain ASCII as typed, accents, ß and Polish or Greek letters included", async () => {
+    const data = recordFor("short", withCheckDigit("0ZTRJFBG0FC625797"))
+    data.shopName = "Carrosserie Lefèvre"
+    data.job = { roNumber: "RO-7731", customerName: "Zoë Brontë, Hauptstraße 5" }
+    data.driverName = "Łukasz Żółć"
+    data.coDriverName = "Δήμητρα Παππά"
+    data.checklist!.notes = "Kept the résumé of the bumper work; 1500 ± 10 mm."
+    const text = await pdfText(await buildDriveRecordPdf(data))
+    for (const typed of [
+      "Carrosserie Lefèvre",
+      "Zoë Brontë, Hauptstraße 5",
+      "Łukasz Żółć",
+      "Δήμητρα Παππά",
+      "résumé of the bumper work",
+      "1500 ± 10 mm",
+    ])
+      expect(text.normalize("NFC")).toContain(typed)
+    expect(text).not.toContain("?")
+  })
+
+  it("gives the same bytes for the same record (the PDF's dates come from the record, not the clock)", async () => {
+    const data = recordFor("met", withCheckDigit("0ZTFB2F50DH512345"))
+    const first = await buildDriveRecordPdf(data)
+    const second = await buildDriveRecordPdf(data)
+    expect(Buffer.from(first).equals(Buffer.from(second))).toBe(true)
+    const later = await buildDriveRecordPdf({ ...data, generatedAt: "2026-03-02T10:00:01.000Z" })
+    expect(Buffer.from(later).equals(Buffer.from(first))).toBe(false)
+  })
+
   it("still builds when a photo's bytes are not an image", async () => {
     const data = recordFor("short", withCheckDigit("0ZTRJFBG0FC625797"))
     data.photos = [{ filename: "broken.jpg", contentType: "image/jpeg", bytes: new Uint8Array([1, 2, 3]) }]
@@ -143,11 +164,6 @@ describe("record helpers", () => {
   it("adds RO to a repair order number only when it lacks it", () => {
     expect(roLabel("RO-24102")).toBe("RO-24102")
     expect(roLabel("24102")).toBe("RO 24102")
-  })
-
-  it("turns characters the standard PDF fonts lack into plain look-alikes", () => {
-    expect(toWinAnsi("speed ≥ 35 mph → ok, 3.4 m/s²")).toBe("speed >= 35 mph -> ok, 3.4 m/s²")
-    expect(toWinAnsi("漢")).toBe("?")
   })
 
   it("fails a tire more than the tolerance off its placard pressure", () => {
