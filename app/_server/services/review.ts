@@ -1,5 +1,6 @@
 import "server-only"
 // The review workflows: the lead's queue of drives that need a look, and the decision on one of them.
+import { vehicleJson } from "@/app/_server/services/drive-intake"
 import { getReadDb, type Db } from "@/db/client"
 import { findJobTaskDrives, setJobStatus } from "@/db/queries/drives"
 import { findDriveForUpdate } from "@/db/queries/drive-locks"
@@ -32,10 +33,7 @@ export async function reviewQueuePage(user: SessionUser, cursor: string | undefi
       taskId: r.task_id,
       roNumber: r.ro_number,
       vehicleDescription: r.vehicle_description,
-      vehicle:
-        r.vehicle_make || r.vehicle_model
-          ? { year: r.vehicle_year, make: r.vehicle_make, model: r.vehicle_model }
-          : null,
+      vehicle: vehicleJson(r),
       verdict: r.verdict,
       reasons: score.reasons ?? [],
       harshEvents: score.harshEvents ?? { accel: 0, decel: 0 },

@@ -2,7 +2,7 @@ import { requireRole } from "@/app/_server/auth"
 import { readJson, route } from "@/app/_server/route"
 import { scoreDrive } from "@/lib/scoring"
 import { MAX_DRIVE_FILE_BYTES } from "@/lib/validation/drive"
-import { parseDriveFileOrThrow } from "./_parse"
+import { parseDriveFileOrThrow } from "@/app/_server/services/drive-file-input"
 
 /** Scores a drive file sent in the body; nothing is stored. */
 export const POST = route(async (req) => {

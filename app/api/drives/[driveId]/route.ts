@@ -2,7 +2,7 @@ import { liveCounts, liveScore } from "@/app/_server/live"
 import { route } from "@/app/_server/route"
 import { countDriveData } from "@/db/queries/drives"
 import { findScore } from "@/db/queries/scores"
-import { driveForRoute, driveJson } from "../_service"
+import { driveForRoute, driveJson } from "@/app/_server/services/drives"
 
 export const GET = route<{ driveId: string }>(async (_req, ctx) => {
   const { user, db, drive } = await driveForRoute(ctx.params, "see")

@@ -6,7 +6,7 @@ import { getDb, getExportDb } from "@/db/client"
 import { openDriveExport } from "@/db/queries/drive-export"
 import { csvChunks, driveFileChunks, gpxChunks } from "@/lib/export/stream"
 import { driveFileFormatQuery } from "@/lib/validation/drive"
-import { loadDriveFor, shopDriveId } from "../../_service"
+import { loadDriveFor, shopDriveId } from "@/app/_server/services/drives"
 
 const params = z.object({ driveId: uuidParam })
 

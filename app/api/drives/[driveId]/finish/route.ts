@@ -4,7 +4,7 @@ import { sendFollowUp } from "@/app/_server/revisions"
 import { route } from "@/app/_server/route"
 import { findDriveForUpdate } from "@/db/queries/drive-locks"
 import { AppError, notFound } from "@/lib/errors"
-import { driveForRoute, driveJson, finishAndScore } from "../../_service"
+import { driveForRoute, driveJson, finishAndScore } from "@/app/_server/services/drives"
 
 /**
  * Scores the stored samples and marks against the frozen profile. Finishing again scores again (idempotent).

@@ -2,7 +2,7 @@ import { z } from "zod"
 import { livePoll, liveStream } from "@/app/_server/live"
 import { parseQuery, route } from "@/app/_server/route"
 import { AppError } from "@/lib/errors"
-import { driveForRoute } from "../../_service"
+import { driveForRoute } from "@/app/_server/services/drives"
 
 export const dynamic = "force-dynamic"
 

@@ -2,7 +2,7 @@ import { recordFilename } from "@/app/_server/record-data"
 import { issueRecordPdf } from "@/app/_server/record-seal"
 import { route } from "@/app/_server/route"
 import { AppError } from "@/lib/errors"
-import { driveForRoute } from "../../_service"
+import { driveForRoute } from "@/app/_server/services/drives"
 
 export const GET = route<{ driveId: string }>(async (_req, ctx) => {
   const { user, db, drive } = await driveForRoute(ctx.params, "see")

@@ -4,7 +4,7 @@ import { decideReview } from "@/app/_server/services/review"
 import { parseJson, parseParams, route, uuidParam } from "@/app/_server/route"
 import { getDb } from "@/db/client"
 import { reviewSchema } from "@/lib/validation/review"
-import { driveJson, loadDriveFor, shopDriveId } from "../../_service"
+import { driveJson, loadDriveFor, shopDriveId } from "@/app/_server/services/drives"
 
 const params = z.object({ driveId: uuidParam })
 

@@ -1,7 +1,7 @@
 import { route } from "@/app/_server/route"
 import { CAUSE_TEXT } from "@/app/_server/revisions"
 import { listRevisions } from "@/db/queries/revisions"
-import { driveForRoute } from "../../_service"
+import { driveForRoute } from "@/app/_server/services/drives"
 
 /** The record's revisions, newest first: each with its cause, time, score, review decision, digest and code. */
 export const GET = route<{ driveId: string }>(async (_req, ctx) => {

@@ -10,7 +10,7 @@ import { AppError } from "@/lib/errors"
 import { sha256Hex } from "@/lib/record/seal"
 import { signShareToken } from "@/lib/share"
 import { SHARE_DEFAULT_DAYS, shareSchema } from "@/lib/validation/review"
-import { loadDriveFor, shopDriveId } from "../../_service"
+import { loadDriveFor, shopDriveId } from "@/app/_server/services/drives"
 
 const params = z.object({ driveId: uuidParam })
 

@@ -3,7 +3,7 @@ import { noteMarkRemoved } from "@/app/_server/live"
 import { sendFollowUp } from "@/app/_server/revisions"
 import { parseParams, route, uuidParam } from "@/app/_server/route"
 import { deleteMarkNotifying } from "@/db/queries/drive-events"
-import { driveRouteIds, lockDriveFor, rescoreFinishedDrive } from "../../../_service"
+import { driveRouteIds, lockDriveFor, rescoreFinishedDrive } from "@/app/_server/services/drives"
 
 const params = z.object({ driveId: uuidParam, markId: uuidParam })
 

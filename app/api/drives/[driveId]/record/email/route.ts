@@ -4,7 +4,7 @@ import { parseJson, parseParams, route, uuidParam } from "@/app/_server/route"
 import { emailRecord } from "@/app/_server/services/records"
 import { getDb } from "@/db/client"
 import { recordEmailSchema } from "@/lib/validation/review"
-import { loadDriveFor, shopDriveId } from "../../../_service"
+import { loadDriveFor, shopDriveId } from "@/app/_server/services/drives"
 
 const params = z.object({ driveId: uuidParam })
 

@@ -9,7 +9,7 @@ import { internalDriveId } from "@/lib/drive-id"
 import { resolveProfile, type Profile } from "@/lib/drive-file"
 import { validationFailed } from "@/lib/errors"
 import type { CreateDriveInput } from "@/lib/validation/drive"
-import { resolveRoadTest } from "./_road-test"
+import { resolveRoadTest } from "@/app/_server/services/road-test"
 
 /**
  * Checks what a new drive refers to (job, task, co-driver, profile: all in the actor's shop; anything
