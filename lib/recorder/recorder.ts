@@ -72,11 +72,21 @@ export interface RecorderState {
 
 const NO_FIX_AFTER_MS = 15_000
 
+/**
+ * A sample batch's id also goes in the `x-batch-id` header, so that the server answers a batch it already holds
+ * from its claim without reading the body (app/api/drives/[driveId]/samples/route.ts); the body keeps its
+ * `batchId`, and the two must match.
+ */
+function batchIdHeader(body: unknown): Record<string, string> {
+  const id = (body as { batchId?: unknown } | null)?.batchId
+  return typeof id === "string" && /^[\x21-\x7e]{1,100}$/.test(id) ? { "x-batch-id": id } : {}
+}
+
 export const fetchTransport: Transport = {
   async request(method, path, body) {
     const res = await fetch(path, {
       method,
-      headers: body === undefined ? {} : { "content-type": "application/json" },
+      headers: body === undefined ? {} : { "content-type": "application/json", ...batchIdHeader(body) },
       body: body === undefined ? undefined : JSON.stringify(body),
       credentials: "same-origin",
       cache: "no-store",

@@ -67,7 +67,13 @@ function rig(ctx: BenchContext): Promise<Rig> {
       const t0 = performance.now()
       const res = await fetch(`${baseUrl}${path}`, {
         method: "POST",
-        headers: { cookie, "x-forwarded-for": address, "content-type": "application/json" },
+        // The batch id in its header too, as the recorder sends it (lib/recorder/recorder.ts).
+        headers: {
+          cookie,
+          "x-forwarded-for": address,
+          "content-type": "application/json",
+          ...((body as { batchId?: string }).batchId ? { "x-batch-id": (body as { batchId: string }).batchId } : {}),
+        },
         body: JSON.stringify(body),
       })
       await res.arrayBuffer()

@@ -4,6 +4,7 @@ import { noteSamplesStored } from "@/app/_server/live"
 import { sendFollowUp, type FollowUp } from "@/app/_server/revisions"
 import { jsonFromText, parseParams, parseWith, readRequestText, route, uuidParam } from "@/app/_server/route"
 import { getDb } from "@/db/client"
+import { AppError } from "@/lib/errors"
 import { findDriveAndBatch, ingestSampleBatch, insertSampleBatch, type BatchResult } from "@/db/queries/samples"
 import { sampleBatchSchema } from "@/lib/validation/drive"
 import { unstorableTextProblem } from "@/lib/validation/storable"
@@ -15,7 +16,9 @@ const params = z.object({ driveId: uuidParam })
 // Statements for a new batch: the session with its user (one, lib/auth/lucia.ts), the drive with the batch's claim (one),
 // then claim + insert + record + the live channel's notice in one statement (db/queries/samples.ts
 // ingestSampleBatch), which holds the drive FOR SHARE so that Finish (FOR UPDATE) waits for it or it for
-// Finish. A replayed batch is answered from its claim before its body is validated. A batch that arrives
+// Finish. A replayed batch is answered from its claim before its body is validated; when the batch id comes in the
+// `x-batch-id` header (as the recorder sends it, lib/recorder/recorder.ts) before its body is even read, and a new
+// batch's body must then name the same id. A batch that arrives
 // after Finish goes through one transaction that stores it and scores the drive again (a new revision),
 // until a lead has reviewed the drive (see lib/access/drive.ts recordingIsOpen). The whole body is
 // validated before anything is written: one bad sample is a 400 naming it (`samples.3.lat`) and the batch
@@ -23,14 +26,19 @@ const params = z.object({ driveId: uuidParam })
 export const POST = route<{ driveId: string }>(async (req, ctx) => {
   const { user } = await requireRole()
   const { driveId } = await parseParams(ctx.params, params)
-  const text = await readRequestText(req)
+  const claimed = batchIdHeader(req)
+  const text = claimed === null ? await readRequestText(req) : null
   const db = getDb()
-  const found = await findDriveAndBatch(db, driveId, user.shopId, peekBatchId(text))
+  const found = await findDriveAndBatch(db, driveId, user.shopId, claimed ?? peekBatchId(text!))
   const drive = assertDriveAccess(found?.drive, user, "record")
   assertRecordingOpen(drive)
   if (found!.claim) return Response.json(found!.claim)
 
-  const { batchId, samples } = parseWith(sampleBatchSchema, jsonFromText(text))
+  const { batchId, samples } = parseWith(sampleBatchSchema, jsonFromText(text ?? (await readRequestText(req))))
+  if (claimed !== null && batchId !== claimed) {
+    const problem = `is not the id in the ${BATCH_ID_HEADER} header`
+    throw new AppError("validation_failed", `batchId: ${problem}`, { batchId: problem })
+  }
   let result: BatchResult | null = null
   let followUp: FollowUp | undefined
   if (drive.status === "recording") result = await ingestSampleBatch(db, drive.id, user.shopId, batchId, samples)
@@ -48,7 +56,20 @@ export const POST = route<{ driveId: string }>(async (req, ctx) => {
   return Response.json(body)
 })
 
-// `{"batchId":"...",` at the start, as the recorder sends it: the id without parsing the samples. Only ids
+const BATCH_ID_HEADER = "x-batch-id"
+
+/** The batch id from the header (null without one): printable ASCII, 1 to 100 characters, as the body's. */
+function batchIdHeader(req: Request): string | null {
+  const id = req.headers.get(BATCH_ID_HEADER)
+  if (id === null) return null
+  if (!/^[\x21-\x7e]{1,100}$/.test(id))
+    throw new AppError("validation_failed", `${BATCH_ID_HEADER}: must be 1 to 100 printable characters`, {
+      [BATCH_ID_HEADER]: "must be 1 to 100 printable characters",
+    })
+  return id
+}
+
+// Without the header: `{"batchId":"...",` at the start, as the recorder sends it: the id without parsing the samples. Only ids
 // with no escapes or control characters are read this way (what JSON.parse would give for them is the
 // same text); any other body is parsed whole, with the same depth and text checks as every body.
 const LEADING_BATCH_ID = /^\s*\{\s*"batchId"\s*:\s*"([^"\\\u0000-\u001f]{1,100})"\s*[,}]/
