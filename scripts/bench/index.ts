@@ -7,7 +7,7 @@ import { exportPeakRssMb360k } from "./exports"
 import { ingestAtCadenceP95Ms, ingestCeilingRatio, replayRefusalP50Ms } from "./ingest"
 import { liveFanoutP95Seconds, recordingDriveGetMs36k } from "./live"
 import { detailHtmlKb36k, recorderFirstLoadKb } from "./pages"
-import { numbersP95Ms100k, reviewQueueP95Ms100k } from "./reads"
+import { numbersCsvRowsP95Ms100k, numbersP95Ms100k, reviewQueueP95Ms100k } from "./reads"
 import { roadModelUpdateMs, roadsPageP95Ms } from "./roads"
 import { sampleBytes } from "./samples"
 import { samplesScoredPerSecond, scoreToParseRatio, validateScoreToParseRatio } from "./scoring"
@@ -26,6 +26,7 @@ export const figures: BenchFigure[] = [
   detailHtmlKb36k,
   reviewQueueP95Ms100k,
   numbersP95Ms100k,
+  numbersCsvRowsP95Ms100k,
   replayRefusalP50Ms,
   ingestCeilingRatio,
   ingestAtCadenceP95Ms,

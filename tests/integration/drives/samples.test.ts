@@ -36,6 +36,43 @@ describe("POST /api/drives/:id/samples", () => {
     expect(Math.abs(rows[7]!.lat - samples[7]!.lat)).toBeLessThanOrEqual(5e-8)
   })
 
+  it("answers a replay named in the x-batch-id header from its claim without reading the body", async () => {
+    const drive = await startDrive(tech)
+    const samples = sampleRun(30)
+    const batchId = randomUUID()
+    const path = `/api/drives/${drive.id}/samples`
+    const headers = { "x-batch-id": batchId, "content-type": "application/json" }
+    const first = await tech.request("POST", path, undefined, { raw: JSON.stringify({ batchId, samples }), headers })
+    expect(first.status).toBe(200)
+    expect(first.body).toMatchObject({ accepted: 30, duplicates: 0 })
+    // A body that is not even JSON: the claim answers before the body is read.
+    const again = await tech.request("POST", path, undefined, { raw: "not json", headers })
+    expect(again.status).toBe(200)
+    expect(again.body).toMatchObject({ accepted: 30, duplicates: 0, replayed: true })
+    expect(await storedSamples(drive.id)).toHaveLength(30)
+  })
+
+  it("refuses a new batch whose body names another id than its x-batch-id header, storing nothing", async () => {
+    const drive = await startDrive(tech)
+    const path = `/api/drives/${drive.id}/samples`
+    const raw = JSON.stringify({ batchId: "body-id", samples: sampleRun(5) })
+    const res = await tech.request("POST", path, undefined, {
+      raw,
+      headers: { "x-batch-id": "header-id", "content-type": "application/json" },
+    })
+    expect(res.status).toBe(400)
+    expect(res.body.error.code).toBe("validation_failed")
+    expect(res.body.error.fields).toHaveProperty(["batchId"])
+    expect(await storedSamples(drive.id)).toHaveLength(0)
+    // Neither id was used up: the batch goes in under the body's id.
+    const ok = await tech.request("POST", path, undefined, {
+      raw,
+      headers: { "x-batch-id": "body-id", "content-type": "application/json" },
+    })
+    expect(ok.status).toBe(200)
+    expect(await storedSamples(drive.id)).toHaveLength(5)
+  })
+
   it("stores the union of overlapping batches, each time once", async () => {
     const drive = await startDrive(tech)
     const samples = sampleRun(60)
@@ -126,36 +163,5 @@ describe("POST /api/drives/:id/samples", () => {
     const noBatch = await tech.post(`/api/drives/${drive.id}/samples`, { samples: sampleRun(2) })
     expect(noBatch.status).toBe(400)
     expect(noBatch.body.error.fields).toHaveProperty(["batchId"])
-  })
-
-  it("answers a batch named in the x-batch-id header from its claim before reading the body", async () => {
-    const drive = await startDrive(tech)
-    const samples = sampleRun(30)
-    const batchId = randomUUID()
-    const path = `/api/drives/${drive.id}/samples`
-    const first = await tech.request("POST", path, { batchId, samples }, { headers: { "x-batch-id": batchId } })
-    expect(first.status).toBe(200)
-    expect(first.body).toMatchObject({ accepted: 30, duplicates: 0 })
-    // The same batch again: answered from the claim; what the body holds is not looked at.
-    const again = await tech.request("POST", path, undefined, {
-      raw: "not even JSON",
-      headers: { "x-batch-id": batchId, "content-type": "application/json" },
-    })
-    expect(again.status).toBe(200)
-    expect(again.body).toMatchObject({ accepted: 30, duplicates: 0, replayed: true })
-    expect(await storedSamples(drive.id)).toHaveLength(30)
-  })
-
-  it("refuses a new batch whose body names another batch than its header, and stores none of it", async () => {
-    const drive = await startDrive(tech)
-    const res = await tech.request(
-      "POST",
-      `/api/drives/${drive.id}/samples`,
-      { batchId: randomUUID(), samples: sampleRun(5) },
-      { headers: { "x-batch-id": randomUUID() } },
-    )
-    expect(res.status).toBe(400)
-    expect(res.body.error.fields).toHaveProperty(["batchId"])
-    expect(await storedSamples(drive.id)).toHaveLength(0)
   })
 })

@@ -26,19 +26,25 @@ afterAll(() => {
 })
 
 describe("fetchTransport with flushOutbox", () => {
-  it("posts JSON to the drive's samples path and clears the outbox on 200", async () => {
-    const seen: Array<{ type: string | null; batchId: string; count: number }> = []
+  it("posts JSON (its batch id also in x-batch-id) to the drive's samples path and clears the outbox on 200", async () => {
+    const seen: Array<{ type: string | null; header: string | null; batchId: string; count: number }> = []
     server.use(
       http.post(`${ORIGIN}/api/drives/:driveId/samples`, async ({ request, params }) => {
         expect(params.driveId).toBe(DRIVE)
         const body = (await request.json()) as { batchId: string; samples: unknown[] }
-        seen.push({ type: request.headers.get("content-type"), batchId: body.batchId, count: body.samples.length })
+        seen.push({
+          type: request.headers.get("content-type"),
+          header: request.headers.get("x-batch-id"),
+          batchId: body.batchId,
+          count: body.samples.length,
+        })
         return HttpResponse.json({ accepted: body.samples.length })
       }),
     )
     const store = memoryOutboxStore([makeItem(DRIVE, { type: "samples", batchId: "b1", samples: samples(0, 10) }, 1)])
     expect(await flushOutbox(store, fetchTransport)).toEqual({ kind: "done", sent: 1 })
-    expect(seen).toEqual([{ type: "application/json", batchId: "b1", count: 10 }])
+    // The id in the header too, so that the server can answer a replay before reading the body.
+    expect(seen).toEqual([{ type: "application/json", header: "b1", batchId: "b1", count: 10 }])
     expect(store.items.size).toBe(0)
   })
 
