@@ -40,7 +40,13 @@ function RecordEmailForm({ driveId, customerEmail }: { driveId: string; customer
         htmlFor="record-to"
         error={errors.to?.message && `Address ${errors.to.message}.`}
       >
-        <Input id="record-to" type="email" autoComplete="email" {...form.register("to")} />
+        <Input
+          id="record-to"
+          type="email"
+          autoComplete="email"
+          defaultValue={customerEmail ?? ""}
+          {...form.register("to")}
+        />
       </Field>
       <Button type="submit" variant="outline" disabled={isSubmitting}>
         <Mail aria-hidden className="size-5" /> {isSubmitting ? "Sending…" : "E-mail the record"}

@@ -112,7 +112,13 @@ export function ShopFormatForm({
           ] as const
         ).map(([value, label]) => (
           <label key={value} className="flex min-h-12 items-center gap-3">
-            <input type="radio" value={value} className="size-5" {...form.register("units")} />
+            <input
+              type="radio"
+              value={value}
+              className="size-5"
+              defaultChecked={initial.units === value}
+              {...form.register("units")}
+            />
             {label}
           </label>
         ))}
@@ -126,7 +132,7 @@ export function ShopFormatForm({
         hint={`Now: ${now == null ? serverNow : formatDateTime(now, timeZone, { zoneName: true })}`}
         error={errors.timeZone?.message && `Time zone ${errors.timeZone.message}.`}
       >
-        <Select id="time-zone" disabled={!canEdit} {...form.register("timeZone")}>
+        <Select id="time-zone" disabled={!canEdit} defaultValue={initial.timeZone} {...form.register("timeZone")}>
           {zones.map((z) => (
             <option key={z} value={z}>
               {z.replaceAll("_", " ")}
@@ -156,6 +162,7 @@ export function ShopLocationForm({
 }) {
   const router = useRouter()
   const [message, setMessage] = useState<string | null>(null)
+  // The inputs carry their values in the server's HTML too (defaultValue), so the form reads right before it hydrates.
   const form = useForm<z.input<typeof shopLocationFormSchema>, unknown, z.output<typeof shopLocationFormSchema>>({
     resolver: zodResolver(shopLocationFormSchema),
     defaultValues: { lat: initial ? String(initial.lat) : "", lon: initial ? String(initial.lon) : "" },
@@ -185,6 +192,7 @@ export function ShopLocationForm({
             autoComplete="off"
             placeholder="43.8731"
             disabled={!canEdit}
+            defaultValue={initial ? String(initial.lat) : ""}
             {...form.register("lat")}
           />
         </Field>
@@ -200,6 +208,7 @@ export function ShopLocationForm({
             autoComplete="off"
             placeholder="-91.9187"
             disabled={!canEdit}
+            defaultValue={initial ? String(initial.lon) : ""}
             {...form.register("lon")}
           />
         </Field>
