@@ -70,7 +70,7 @@ export function RecorderApp({ coDriver = false }: { coDriver?: boolean }) {
         return
       }
       if (coDriver && id) {
-        const body = await fetch(`/api/drives/${id}`, { credentials: "same-origin" })
+        const body = await fetch(`/api/drives/${id}`)
           .then((r) => (r.ok ? r.json() : null))
           .catch(() => null)
         if (body?.drive) {

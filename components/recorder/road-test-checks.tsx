@@ -36,7 +36,7 @@ function useRoadTestChecks(driveId: string | undefined): RoadTestCheck[] | null 
     let timer: ReturnType<typeof setTimeout> | undefined
     const ask = async (attempt: number) => {
       try {
-        const res = await fetch(`/api/drives/${driveId}`, { credentials: "same-origin", cache: "no-store" })
+        const res = await fetch(`/api/drives/${driveId}`, { cache: "no-store" })
         if (res.ok) {
           const body = (await res.json()) as { drive?: { roadTestChecks?: RoadTestCheck[] | null } }
           const list = body.drive?.roadTestChecks ?? []

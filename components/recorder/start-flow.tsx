@@ -50,7 +50,7 @@ const CAUTIONS = [
 
 async function getJson<T>(path: string): Promise<T | null> {
   try {
-    const res = await fetch(path, { credentials: "same-origin" })
+    const res = await fetch(path)
     if (!res.ok) return null
     return (await res.json()) as T
   } catch {

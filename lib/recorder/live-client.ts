@@ -125,7 +125,7 @@ export function connectLive(driveId: string, h: LiveHandlers, options: LiveOptio
     if (pollTimer) clearTimeout(pollTimer)
     pollTimer = null
     try {
-      const res = await doFetch(`${base}?after=${lastEventId ?? 0}`, { credentials: "same-origin", cache: "no-store" })
+      const res = await doFetch(`${base}?after=${lastEventId ?? 0}`, { cache: "no-store" })
       if (res.ok) {
         const body = (await res.json()) as {
           lastEventId: number

@@ -80,11 +80,11 @@ export const fetchTransport: Transport = {
     const batchId = (body as { batchId?: unknown } | undefined)?.batchId
     const headers: Record<string, string> = body === undefined ? {} : { "content-type": "application/json" }
     if (typeof batchId === "string") headers[BATCH_ID_HEADER] = batchId
+    // fetch sends the session cookie to its own origin by default (credentials "same-origin").
     const res = await fetch(path, {
       method,
       headers,
       body: body === undefined ? undefined : JSON.stringify(body),
-      credentials: "same-origin",
       cache: "no-store",
     })
     const text = await res.text()
