@@ -77,9 +77,9 @@ export const fetchTransport: Transport = {
   async request(method, path, body) {
     // A sample batch names itself in a header too, so a batch the server holds already is answered before its body
     // is read (app/api/drives/[driveId]/samples/route.ts).
-    const batchId = (body as { batchId?: unknown } | undefined)?.batchId
+    const batchId = (body as { batchId?: string } | undefined)?.batchId
     const headers: Record<string, string> = body === undefined ? {} : { "content-type": "application/json" }
-    if (typeof batchId === "string") headers[BATCH_ID_HEADER] = batchId
+    if (batchId) headers[BATCH_ID_HEADER] = batchId
     // fetch sends the session cookie to its own origin by default (credentials "same-origin").
     const res = await fetch(path, {
       method,
