@@ -5,6 +5,13 @@ import nextTypescript from "eslint-config-next/typescript"
 
 const restricted = (patterns, message) => ({ group: patterns, message })
 
+/** lib/ is pure: what every file under it may not import (a later block for the same files replaces, not adds). */
+const LIB_PATTERNS = [
+  restricted(["next", "next/*"], "lib/ is pure: no Next imports."),
+  restricted(["react", "react-dom", "react/*", "react-dom/*"], "lib/ is pure: no React."),
+  restricted(["@/db", "@/db/*", "@/app/*", "@/components/*"], "lib/ imports no db/, app/ or components/."),
+]
+
 const config = [
   {
     ignores: [
@@ -50,11 +57,7 @@ const config = [
       "no-restricted-imports": [
         "error",
         {
-          patterns: [
-            restricted(["next", "next/*"], "lib/ is pure: no Next imports."),
-            restricted(["react", "react-dom", "react/*", "react-dom/*"], "lib/ is pure: no React."),
-            restricted(["@/db", "@/db/*", "@/app/*", "@/components/*"], "lib/ imports no db/, app/ or components/."),
-          ],
+          patterns: LIB_PATTERNS,
         },
       ],
     },
@@ -67,9 +70,7 @@ const config = [
         "error",
         {
           patterns: [
-            restricted(["next", "next/*"], "lib/ is pure: no Next imports."),
-            restricted(["react", "react-dom", "react/*", "react-dom/*"], "lib/ is pure: no React."),
-            restricted(["@/db", "@/db/*", "@/app/*", "@/components/*"], "lib/ imports no db/, app/ or components/."),
+            ...LIB_PATTERNS,
             restricted(
               ["node:*", "@/lib/share", "@/lib/auth/lucia", "@/lib/record/seal", "@/lib/record"],
               "schemas run in the browser's forms too: no node:* (nor lib modules that use it).",

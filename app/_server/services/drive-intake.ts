@@ -77,12 +77,9 @@ export async function startDrive(user: SessionUser, input: CreateDriveInput) {
     return inserted
   })
   // Not inserted: a concurrent start with this id in this shop won (a replay).
-  const drive = (await findDriveInShop(db, id, user.shopId)) ?? notTaken()
+  const drive = await findDriveInShop(db, id, user.shopId)
+  if (!drive) throw taken()
   return made ? { drive: driveJson(drive), created: true } : replay(drive)
-}
-
-function notTaken(): never {
-  throw taken()
 }
 
 /** A drive file from elsewhere, stored as a finished, scored drive. The score is of what was stored. */
