@@ -1,7 +1,6 @@
 "use client"
-import { RefreshCw } from "lucide-react"
 import { usePathname } from "next/navigation"
-import { useEffect, useState } from "react"
+import { lazy, Suspense, useEffect, useState } from "react"
 import type { Workbox } from "workbox-window"
 import { getActiveDrive } from "@/lib/recorder/idb-outbox"
 
@@ -12,6 +11,9 @@ const WARM_URLS = ["/record", "/drives"]
 const WARM_ANSWER_MS = 10_000
 
 /** Pages where nobody is signed in yet: warming there would only save the sign-in redirect. */
+/** The offer to reload into a new version: loaded only when there is one. */
+const UpdateOffer = lazy(() => import("./update-offer").then((m) => ({ default: m.UpdateOffer })))
+
 const SIGNED_OUT_PATHS = /^\/(sign-in|share)(\/|$)/
 
 /**
@@ -90,21 +92,8 @@ export function ServiceWorkerRegistration() {
 
   if (!waiting || driving || !wb) return null
   return (
-    <div
-      role="status"
-      className="fixed inset-x-3 bottom-3 z-50 flex items-center gap-3 rounded-xl bg-asphalt-700 p-3 text-white shadow-lg"
-    >
-      <span className="flex-1">A new version of Straightaway is ready.</span>
-      <button
-        type="button"
-        className="flex min-h-12 items-center gap-2 rounded-lg bg-signal-400 px-4 font-bold text-graphite-950"
-        onClick={() => {
-          wb.addEventListener("controlling", () => window.location.reload())
-          wb.messageSkipWaiting()
-        }}
-      >
-        <RefreshCw aria-hidden className="size-5" /> Reload
-      </button>
-    </div>
+    <Suspense fallback={null}>
+      <UpdateOffer workbox={wb} />
+    </Suspense>
   )
 }

@@ -1,6 +1,7 @@
 "use client"
 import { lazy, Suspense, useEffect, useState } from "react"
 import { useFormatPrefs } from "@/components/shell/format-prefs"
+import { afterIdle } from "@/components/ui/after-idle"
 import { formatTime } from "@/lib/format"
 import { getActiveDrive } from "@/lib/recorder/idb-outbox"
 import type { DriveMeta } from "@/lib/recorder/idb-outbox"
@@ -15,13 +16,6 @@ const loadRecorder = () => import("./use-recorder").then((m) => m.getRecorder())
 const RecordingScreen = lazy(() => import("./recording-screen").then((m) => ({ default: m.RecordingScreen })))
 const FinishScreen = lazy(() => import("./finish-screen").then((m) => ({ default: m.FinishScreen })))
 const opening = <p className="text-graphite-300">Opening the recorder…</p>
-
-function afterIdle() {
-  return new Promise<void>((done) => {
-    if ("requestIdleCallback" in window) requestIdleCallback(() => done(), { timeout: 1000 })
-    else setTimeout(done, 200)
-  })
-}
 
 /** The drive id lives in the address (`/record?drive=...`) so that a reload, online or not, finds the drive. */
 function driveIdFromLocation(): string | null {

@@ -1,17 +1,16 @@
 "use client"
-import { ArrowLeft, CarFront, ClipboardCheck, ClipboardList, ClipboardX, Play, ShieldAlert, Users } from "lucide-react"
-import { useEffect, useState } from "react"
+import { ArrowLeft, CarFront, ClipboardList, Users } from "lucide-react"
+import { lazy, Suspense, useEffect, useState } from "react"
 import { SENSOR_LABEL as SENSOR_WORD } from "@/lib/labels"
 import { DEFAULT_PROFILE, resolveProfile, type ResolvedProfile } from "@/lib/drive-file/profile"
 import type { Profile } from "@/lib/drive-file/schema"
 import { profileInWords } from "@/lib/recorder/profile-words"
-import { GoodRoadsNow } from "@/components/roads/good-roads-now"
 import { useFormatPrefs } from "@/components/shell/format-prefs"
-import { formatDateTime } from "@/lib/format"
+import { AfterIdle, afterIdle } from "@/components/ui/after-idle"
+import { GATE_CHECKS } from "@/lib/recorder/gate-checks"
+import type { ChecklistSummary } from "./start-gate"
 
 type JobSummary = { id: string; roNumber: string; label: string }
-type Blocker = { key: string; message: string }
-type ChecklistSummary = { ready: boolean; blockers: Blocker[]; completedBy: string | null; completedAt: string }
 type TaskSummary = {
   id: string
   sensor: string
@@ -30,23 +29,13 @@ export interface StartChoice {
   coDriverId: string | null
 }
 
-// `blocker` is the prefix of the job checklist's blocker keys that the same check answers.
-const GATE_CHECKS = [
-  { key: "codes", blocker: "faultCodes", text: "No stored fault codes other than the ones expected for this repair." },
-  { key: "tires", blocker: "tires", text: "Tire pressures set to the placard." },
-  { key: "load", blocker: "loadNormal", text: "No unusual load in the vehicle." },
-  { key: "clean", blocker: "sensorClean", text: "Sensor face and the area in front of it clean." },
-  { key: "mount", blocker: "mountUndamaged", text: "Sensor mount and bracket undamaged." },
-] as const
-
 const OPEN_JOB_STATUSES = new Set(["open", "drive", "redo"])
 
-const CAUTIONS = [
-  "The driver never operates the phone while the vehicle moves: the co-driver logs.",
-  "Obey traffic law and drive for the road and traffic; no learn is worth a risk.",
-  "The vehicle maker's service information and local regulations come first.",
-  "The vehicle's own confirmation that the learn is done governs. The score never replaces it.",
-]
+// Off the first screen's path: the road hint shows once the page is idle, and the gate (the second step) loads
+// then too, so that the first screen works with less code (the worker has both cached for offline use).
+const GoodRoadsNow = lazy(() => import("@/components/roads/good-roads-now").then((m) => ({ default: m.GoodRoadsNow })))
+const loadGate = () => import("./start-gate").then((m) => ({ default: m.StartGate }))
+const StartGate = lazy(loadGate)
 
 async function getJson<T>(path: string): Promise<T | null> {
   try {
@@ -75,7 +64,7 @@ function jobLabel(j: ListedJob): string {
 
 /** Pick the job and task (or an unplanned drive), read the profile, pass the pre-drive gate, start. */
 export function StartFlow({ onStart }: { onStart: (choice: StartChoice) => void }) {
-  const { units, timeZone } = useFormatPrefs()
+  const { units } = useFormatPrefs()
   const [jobs, setJobs] = useState<JobSummary[] | null>(null)
   const [jobId, setJobId] = useState<string>("")
   const [tasks, setTasks] = useState<TaskSummary[]>([])
@@ -91,6 +80,10 @@ export function StartFlow({ onStart }: { onStart: (choice: StartChoice) => void 
     const q = new URLSearchParams(typeof window === "undefined" ? "" : window.location.search)
     return { jobId: q.get("jobId") ?? "", taskId: q.get("taskId") ?? "" }
   })
+
+  useEffect(() => {
+    void afterIdle().then(loadGate)
+  }, [])
 
   useEffect(() => {
     void getJson<{ jobs?: ListedJob[] }>("/api/jobs?limit=100&sort=updatedAt&dir=desc").then((body) => {
@@ -162,7 +155,9 @@ export function StartFlow({ onStart }: { onStart: (choice: StartChoice) => void 
             <ArrowLeft aria-hidden className="size-5" /> Drives
           </a>
         </div>
-        <GoodRoadsNow />
+        <AfterIdle>
+          <GoodRoadsNow />
+        </AfterIdle>
         <section className="space-y-2 rounded-xl bg-asphalt-800 p-3">
           <h2 className="flex items-center gap-2 font-semibold">
             <ClipboardList aria-hidden className="size-5" /> Job
@@ -269,100 +264,27 @@ export function StartFlow({ onStart }: { onStart: (choice: StartChoice) => void 
   }
 
   return (
-    <div className="space-y-4">
-      <h1 className="text-2xl font-bold">Before you drive</h1>
-      {checklist ? (
-        <section
-          className={`space-y-1 rounded-xl border-2 p-3 ${checklist.ready ? "border-teal-400" : "border-stop-500"}`}
-          data-testid="checklist-status"
-        >
-          <h2 className="flex items-center gap-2 font-semibold">
-            {checklist.ready ? (
-              <ClipboardCheck aria-hidden className="size-5 text-teal-300" />
-            ) : (
-              <ClipboardX aria-hidden className="size-5 text-stop-400" />
-            )}
-            {checklist.ready ? "Job checklist: ready" : "Job checklist: not ready"}
-          </h2>
-          <p className="text-sm text-graphite-300">
-            {checklist.completedBy ? `Filled in by ${checklist.completedBy}` : "Filled in"}
-            {checklist.completedAt ? `, ${formatDateTime(checklist.completedAt, timeZone)}` : ""}
-          </p>
-          {checklist.blockers.length ? (
-            <ul className="list-disc space-y-1 pl-5">
-              {checklist.blockers.map((b) => (
-                <li key={b.key}>{b.message}</li>
-              ))}
-            </ul>
-          ) : null}
-        </section>
-      ) : jobId ? (
-        <p className="rounded-xl bg-asphalt-800 p-3 text-graphite-200" data-testid="checklist-status">
-          No checklist on the job for this calibration yet. Confirm each check here.
-        </p>
-      ) : null}
-      <section className="space-y-1 rounded-xl bg-asphalt-800 p-3">
-        {GATE_CHECKS.map((c) => (
-          <label key={c.key} className="flex min-h-12 items-center gap-3">
-            <input
-              type="checkbox"
-              className="size-6 shrink-0 accent-signal-400"
-              checked={Boolean(checks[c.key])}
-              onChange={(e) => setChecks({ ...checks, [c.key]: e.target.checked })}
-              data-testid={`gate-${c.key}`}
-            />
-            <span>{c.text}</span>
-          </label>
-        ))}
-      </section>
-      <section className="space-y-1 rounded-xl border-2 border-signal-400 p-3" data-testid="cautions">
-        <h2 className="flex items-center gap-2 font-semibold text-signal-300">
-          <ShieldAlert aria-hidden className="size-5" /> Safety
-        </h2>
-        <ul className="list-disc space-y-1 pl-5">
-          {CAUTIONS.map((c) => (
-            <li key={c}>{c}</li>
-          ))}
-        </ul>
-      </section>
-      <label className="flex min-h-12 items-center gap-3 rounded-xl bg-asphalt-800 p-3 font-semibold">
-        <input
-          type="checkbox"
-          className="size-6 shrink-0 accent-signal-400"
-          checked={ready}
-          onChange={(e) => setReady(e.target.checked)}
-          data-testid="gate-ready"
-        />
-        The vehicle is out of the bay, running and ready to drive.
-      </label>
-      <div className="grid grid-cols-3 gap-2">
-        <button
-          type="button"
-          onClick={() => setStep("pick")}
-          className="min-h-16 rounded-xl bg-asphalt-700 font-semibold"
-        >
-          Back
-        </button>
-        <button
-          type="button"
-          disabled={!allChecked}
-          data-testid="start-drive"
-          onClick={() =>
-            onStart({
-              profile,
-              label: job ? job.label : unplanned.trim(),
-              vehicleDescription: job ? null : unplanned.trim(),
-              jobId: jobId || null,
-              taskId: taskId || null,
-              coDriverId: coDriverId || null,
-            })
-          }
-          className="col-span-2 flex min-h-16 items-center justify-center gap-2 rounded-xl bg-signal-400 text-xl font-bold text-graphite-950 disabled:opacity-40"
-        >
-          <Play aria-hidden /> Start
-        </button>
-      </div>
-      {!allChecked ? <p className="text-center text-sm text-graphite-300">Tick every check above to start.</p> : null}
-    </div>
+    <Suspense fallback={<p className="text-graphite-300">Opening the checks…</p>}>
+      <StartGate
+        checklist={checklist}
+        jobChosen={Boolean(jobId)}
+        checks={checks}
+        onCheck={(key, on) => setChecks({ ...checks, [key]: on })}
+        ready={ready}
+        onReady={setReady}
+        canStart={allChecked}
+        onBack={() => setStep("pick")}
+        onStart={() =>
+          onStart({
+            profile,
+            label: job ? job.label : unplanned.trim(),
+            vehicleDescription: job ? null : unplanned.trim(),
+            jobId: jobId || null,
+            taskId: taskId || null,
+            coDriverId: coDriverId || null,
+          })
+        }
+      />
+    </Suspense>
   )
 }
