@@ -4,6 +4,7 @@ import { z } from "zod"
 import { isDatabaseUnavailable, isUniqueViolation, uniqueViolationAnswer } from "@/lib/db-errors"
 import { env } from "@/lib/env"
 import { AppError } from "@/lib/errors"
+import { methodNotAllowed } from "@/lib/http/method-not-allowed"
 import { BodyTooLargeError, jsonNestsDeeperThan, MAX_JSON_DEPTH, readBodyText } from "@/lib/validation/json-body"
 import { findUnstorableText, unstorableTextProblem } from "@/lib/validation/storable"
 import { issuesToFields } from "@/lib/validation/zod-fields"
@@ -54,6 +55,19 @@ export function route<P = Record<string, string>>(handler: Handler<P>): Handler<
       )
     }
   }
+}
+
+/**
+ * Answers for the methods a route does not take, for a route that some requests reach without the proxy (proxy.ts,
+ * which answers them for every other route): 405 in the error shape with `Allow`, and OPTIONS as Next answers it.
+ * A route file exports them by destructuring, `export const { GET, ... } = otherMethodsRefused(["POST"])`, which the
+ * route table (scripts/lib/api-routes.mjs) does not count among the methods the route takes.
+ */
+export function otherMethodsRefused(takes: readonly string[]) {
+  const allowed = [...takes, "OPTIONS"]
+  const refuse = async (req: Request) => methodNotAllowed(req.method, allowed)
+  const options = async () => new Response(null, { status: 204, headers: { allow: [...allowed].sort().join(", ") } })
+  return { GET: refuse, HEAD: refuse, PUT: refuse, PATCH: refuse, DELETE: refuse, OPTIONS: options }
 }
 
 function isNextControlFlow(error: unknown) {

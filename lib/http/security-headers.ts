@@ -31,6 +31,17 @@ export function contentSecurityPolicy(
 /** HSTS for a year, only on answers that went out over HTTPS (RFC 6797 section 7.2: never over plain HTTP). */
 export const STRICT_TRANSPORT_SECURITY = "max-age=31536000; includeSubDomains"
 
+/**
+ * Whether a request came over HTTPS: the request itself, a proxy that says so (only when proxies are trusted,
+ * TRUST_PROXY), or an https APP_URL.
+ */
+export function servedOverHttps(url: string, headers: Headers, env: Record<string, string | undefined>): boolean {
+  if (url.startsWith("https:")) return true
+  if (env.TRUST_PROXY && env.TRUST_PROXY !== "0" && headers.get("x-forwarded-proto")?.split(",")[0]?.trim() === "https")
+    return true
+  return (env.APP_URL ?? "").startsWith("https:")
+}
+
 /** The origin of a configured object store address, or null when none is set or it is not a URL. */
 export function originOf(url: string | undefined): string | null {
   if (!url) return null

@@ -1,5 +1,7 @@
 // The method table of the API, read from the route files: which HTTP methods each app/api/**/route.ts exports.
-// The proxy (proxy.ts) answers 405 with `Allow` from it, so no route file needs a line of its own for that.
+// The proxy (proxy.ts) answers 405 with `Allow` from it, so no route file needs a line of its own for that. Handlers
+// exported by destructuring (`export const { GET } = otherMethodsRefused(...)`, app/_server/route.ts) refuse a method
+// where a request skips the proxy, and are not methods the route takes: the pattern below does not list them.
 import fs from "node:fs"
 import path from "node:path"
 

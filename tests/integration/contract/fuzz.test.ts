@@ -450,6 +450,39 @@ describe("fuzz: malformed and hostile requests over every route", () => {
     expect(res.status).toBe(405)
     expect(res.headers.get("allow")).toBe("POST, OPTIONS")
     expect((await res.json()).error.code).toBe("method_not_allowed")
+    // A request naming a batch in x-batch-id skips the proxy (proxy.ts); the route file answers the same way.
+    for (const method of ["GET", "HEAD", "PUT", "PATCH", "DELETE"]) {
+      const named = await fetch(`${testEnv().baseUrl}/api/drives/${w.recording.id}/samples`, {
+        method,
+        headers: { cookie: w.c.technician.cookie!, "x-batch-id": "b-405" },
+      })
+      expect(named.status, method).toBe(405)
+      expect(named.headers.get("allow"), method).toBe("POST, OPTIONS")
+      if (method !== "HEAD") expect((await named.json()).error.code, method).toBe("method_not_allowed")
+    }
+    for (const headers of [{}, { "x-batch-id": "b-405" }] as Record<string, string>[]) {
+      const options = await fetch(`${testEnv().baseUrl}/api/drives/${w.recording.id}/samples`, {
+        method: "OPTIONS",
+        headers,
+      })
+      expect(options.status).toBe(204)
+      expect(options.headers.get("allow")).toBe("OPTIONS, POST")
+    }
+    // ...and what it skips the proxy for keeps the proxy's answers: a trailing slash, a %-escape that is not text.
+    const slash = await fetch(`${testEnv().baseUrl}/api/drives/${w.recording.id}/samples/`, {
+      method: "POST",
+      headers: { cookie: w.c.technician.cookie!, "x-batch-id": "b-405", "content-type": "application/json" },
+      body: JSON.stringify({ batchId: "b-405", samples: [] }),
+    })
+    expect(slash.status).toBe(404)
+    expect((await slash.json()).error.code).toBe("not_found")
+    const escape = await fetch(`${testEnv().baseUrl}/api/drives/%C0${w.recording.id}/samples`, {
+      method: "POST",
+      headers: { cookie: w.c.technician.cookie!, "x-batch-id": "b-405", "content-type": "application/json" },
+      body: JSON.stringify({ batchId: "b-405", samples: [] }),
+    })
+    expect(escape.status).toBe(400)
+    expect((await escape.json()).error.code).toBe("invalid_request")
     const put = await fetch(`${testEnv().baseUrl}/api/session`, { method: "PUT" })
     expect(put.status).toBe(405)
     expect(put.headers.get("allow")).toBe("GET, POST, DELETE, HEAD, OPTIONS")

@@ -1,6 +1,6 @@
 import { z } from "zod"
 import { requireRole } from "@/app/_server/auth"
-import { parseParams, readRequestText, route, uuidParam } from "@/app/_server/route"
+import { otherMethodsRefused, parseParams, readRequestText, route, uuidParam } from "@/app/_server/route"
 import { addSampleBatch } from "@/app/_server/services/recording"
 import { BATCH_ID_HEADER } from "@/lib/recorder/batching"
 
@@ -13,3 +13,7 @@ export const POST = route<{ driveId: string }>(async (req, ctx) => {
   const result = await addSampleBatch(user, driveId, req.headers.get(BATCH_ID_HEADER), () => readRequestText(req))
   return Response.json(result)
 })
+
+// A batch that names itself in the x-batch-id header reaches this file without the proxy (proxy.ts), so the file
+// refuses the other methods itself, as the proxy does.
+export const { GET, HEAD, PUT, PATCH, DELETE, OPTIONS } = otherMethodsRefused(["POST"])
