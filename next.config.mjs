@@ -20,6 +20,12 @@ const nextConfig = {
           { key: "Referrer-Policy", value: "strict-origin-when-cross-origin" },
         ],
       },
+      // The recorder's writes answer a few dozen bytes ten times a minute per phone: gzip would cost the server more
+      // than it saves (Next compresses every streamed answer whatever its size), so these go as they are.
+      ...["/api/drives/:driveId/samples", "/api/drives/:driveId/marks"].map((source) => ({
+        source,
+        headers: [{ key: "Cache-Control", value: "no-store, no-transform" }],
+      })),
       {
         source: "/sw.js",
         headers: [
