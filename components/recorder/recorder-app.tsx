@@ -2,6 +2,8 @@
 import { lazy, Suspense, useEffect, useState } from "react"
 import { useFormatPrefs } from "@/components/shell/format-prefs"
 import { afterIdle } from "@/components/ui/after-idle"
+import { apiFetch } from "@/lib/api/client"
+import type { ResolvedProfile } from "@/lib/drive-file/profile"
 import { formatTime } from "@/lib/format"
 import { getActiveDrive } from "@/lib/recorder/idb-outbox"
 import type { DriveMeta } from "@/lib/recorder/idb-outbox"
@@ -64,9 +66,9 @@ export function RecorderApp({ coDriver = false }: { coDriver?: boolean }) {
         return
       }
       if (coDriver && id) {
-        const body = await fetch(`/api/drives/${id}`)
-          .then((r) => (r.ok ? r.json() : null))
-          .catch(() => null)
+        const body = await apiFetch<{ drive?: { profile: ResolvedProfile; vehicleDescription: string | null } }>(
+          `/api/drives/${id}`,
+        ).catch(() => null)
         if (body?.drive) {
           await recorder.joinAsCoDriver(id, body.drive.profile, body.drive.vehicleDescription ?? "Drive", units)
           setPhase("drive")

@@ -7,6 +7,7 @@ import type { Profile } from "@/lib/drive-file/schema"
 import { profileInWords } from "@/lib/recorder/profile-words"
 import { useFormatPrefs } from "@/components/shell/format-prefs"
 import { AfterIdle, afterIdle } from "@/components/ui/after-idle"
+import { apiFetch } from "@/lib/api/client"
 import { GATE_CHECKS } from "@/lib/recorder/gate-checks"
 import type { ChecklistSummary } from "./start-gate"
 
@@ -37,14 +38,9 @@ const GoodRoadsNow = lazy(() => import("@/components/roads/good-roads-now").then
 const loadGate = () => import("./start-gate").then((m) => ({ default: m.StartGate }))
 const StartGate = lazy(loadGate)
 
-async function getJson<T>(path: string): Promise<T | null> {
-  try {
-    const res = await fetch(path)
-    if (!res.ok) return null
-    return (await res.json()) as T
-  } catch {
-    return null
-  }
+/** What the start screen reads, or null offline or refused (it then offers an unplanned drive). */
+function getJson<T>(path: string): Promise<T | null> {
+  return apiFetch<T>(path).catch(() => null)
 }
 
 /** A job as GET /api/jobs lists it (the fields the start screen reads). */

@@ -1,6 +1,7 @@
-// The browser's one way to the API (the office pages, TanStack Query's query functions): JSON in, JSON out, the
-// API's `{error:{code,message,fields}}` turned into an ApiError. The recorder's sync (lib/recorder/recorder.ts) keeps
-// its own transport because it must tell "offline, keep it" from "refused, drop it" per batch.
+// The browser's one way to the API (the office pages, TanStack Query's query functions, the recorder's start and
+// co-driver screens): JSON in, JSON out, the API's `{error:{code,message,fields}}` turned into an ApiError. The
+// recorder's sync (lib/recorder/recorder.ts) keeps its own transport: it must tell "offline, keep it" from "refused,
+// drop it" per batch.
 import type { JobListPage, NoticeList, SessionBody, Wire } from "./types"
 
 export class ApiError extends Error {
