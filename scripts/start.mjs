@@ -73,7 +73,10 @@ try {
   await shutdown(1)
 }
 
-server = startChild(npx("next"), ["start", "-H", host, "-p", String(port)], { env, name: "next" })
+server = startChild(process.execPath, ["scripts/server.mjs"], {
+  env: { ...env, HOSTNAME: host, PORT: String(port) },
+  name: "server",
+})
 server.on("exit", (code) => {
   if (!stopping) shutdown(code ?? 1)
 })

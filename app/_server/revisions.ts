@@ -121,7 +121,14 @@ export async function noticeVerdictChange(
 /** Sends the follow-up e-mail after the response has gone (failures are logged, never thrown). */
 export function sendFollowUp(followUp: FollowUp | undefined) {
   if (!followUp?.mail.length) return
-  after(async () => {
+  const send = async () => {
     for (const mail of followUp.mail) await sendMailQuietly(mail)
-  })
+  }
+  try {
+    after(send)
+  } catch {
+    // after() needs Next's request scope; a sample batch answered by the app's own server (early-routes.ts) has
+    // none, and there the mail goes once the answer is on its way.
+    setImmediate(() => void send())
+  }
 }

@@ -87,6 +87,7 @@ const BUILD_INPUTS = [
   "proxy.ts",
   "instrumentation.ts",
   "scripts/build-sw.mjs",
+  "scripts/build-early.mjs",
   "scripts/gen-api-routes.mjs",
   "next.config.mjs",
   "tailwind.config.ts",

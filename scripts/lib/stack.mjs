@@ -43,7 +43,10 @@ export async function startStack({ name, port, pgPort, s3Port, smtpPort, extraEn
     fakes = await startFakes({ s3Port, smtpPort, dir: path.join(dataRoot, "fakes") })
     run(npx("tsx"), ["db/migrate.ts"], { env })
     ensureBuild()
-    server = startChild(npx("next"), ["start", "-H", "127.0.0.1", "-p", String(port)], { env, name: "next" })
+    server = startChild(process.execPath, ["scripts/server.mjs"], {
+      env: { ...env, HOSTNAME: "127.0.0.1", PORT: String(port) },
+      name: "server",
+    })
     if (replica) {
       const standbyUrl = startStandby({
         primaryPort: pgPort,
@@ -51,9 +54,15 @@ export async function startStack({ name, port, pgPort, s3Port, smtpPort, extraEn
         port: replica.pgPort,
         database: `straightaway_${name}`,
       })
-      replicaServer = startChild(npx("next"), ["start", "-H", "127.0.0.1", "-p", String(replica.port)], {
-        env: { ...env, DATABASE_REPLICA_URL: standbyUrl, APP_URL: `http://127.0.0.1:${replica.port}` },
-        name: "next (reads from the standby)",
+      replicaServer = startChild(process.execPath, ["scripts/server.mjs"], {
+        env: {
+          ...env,
+          DATABASE_REPLICA_URL: standbyUrl,
+          APP_URL: `http://127.0.0.1:${replica.port}`,
+          HOSTNAME: "127.0.0.1",
+          PORT: String(replica.port),
+        },
+        name: "server (reads from the standby)",
       })
       replicaInfo = { baseUrl: `http://127.0.0.1:${replica.port}`, databaseUrl: standbyUrl }
     }

@@ -1,7 +1,9 @@
 import { randomUUID } from "node:crypto"
+import http from "node:http"
 import { beforeAll, describe, expect, it } from "vitest"
 import { storedSample } from "@/lib/drive-file/stored"
 import { createTestShop, testDb, type TestShop } from "../../helpers/db"
+import { testEnv } from "../../helpers/env"
 import { signedIn, type ApiClient } from "../../helpers/http"
 import { addPerson, sampleRun, startDrive } from "./helpers"
 
@@ -163,5 +165,121 @@ describe("POST /api/drives/:id/samples", () => {
     const noBatch = await tech.post(`/api/drives/${drive.id}/samples`, { samples: sampleRun(2) })
     expect(noBatch.status).toBe(400)
     expect(noBatch.body.error.fields).toHaveProperty(["batchId"])
+  })
+})
+
+// Batches that name themselves in x-batch-id (the recorder's) are answered by the app's own server before Next.js
+// (app/_server/early-routes.ts); the others by Next and the route file. Both must answer alike.
+describe("POST /api/drives/:id/samples named in x-batch-id (the app's server answers it)", () => {
+  let shop: TestShop
+  let tech: ApiClient
+  beforeAll(async () => {
+    shop = await createTestShop("SamplesEarly")
+    tech = await signedIn(shop.tech)
+  })
+
+  const named = (batchId: string) => ({ "x-batch-id": batchId, "content-type": "application/json" })
+
+  it("stores a batch and answers with the same headers as Next does", async () => {
+    const drive = await startDrive(tech)
+    const path = `/api/drives/${drive.id}/samples`
+    const early = await tech.request("POST", path, undefined, {
+      raw: JSON.stringify({ batchId: "early", samples: sampleRun(20) }),
+      headers: named("early"),
+    })
+    const viaNext = await tech.post(path, { batchId: "next", samples: sampleRun(20, 8, Date.UTC(2026, 0, 1, 11)) })
+    expect(early.status).toBe(200)
+    expect(early.body).toEqual({ accepted: 20, duplicates: 0, replayed: false })
+    expect(viaNext.body).toEqual({ accepted: 20, duplicates: 0, replayed: false })
+    for (const name of [
+      "x-content-type-options",
+      "x-frame-options",
+      "referrer-policy",
+      "cache-control",
+      "content-type",
+    ])
+      expect([name, early.headers.get(name)]).toEqual([name, viaNext.headers.get(name)])
+    expect(await storedSamples(drive.id)).toHaveLength(40)
+  })
+
+  it("keeps the connection for the next request after a replay whose body it did not read", async () => {
+    const drive = await startDrive(tech)
+    const path = `/api/drives/${drive.id}/samples`
+    const agent = new http.Agent({ keepAlive: true, maxSockets: 1 })
+    const send = (batchId: string, samples: unknown[]) =>
+      new Promise<{ status: number; body: any; reused: boolean }>((resolve, reject) => {
+        const text = JSON.stringify({ batchId, samples })
+        const req = http.request(
+          `${testEnv().baseUrl}${path}`,
+          {
+            method: "POST",
+            agent,
+            headers: { ...named(batchId), cookie: tech.cookie!, "x-forwarded-for": tech.address },
+          },
+          (res) => {
+            let data = ""
+            res.on("data", (chunk) => (data += chunk))
+            res.on("end", () => resolve({ status: res.statusCode!, body: JSON.parse(data), reused: req.reusedSocket }))
+          },
+        )
+        req.on("error", reject)
+        req.end(text)
+      })
+    try {
+      // A catch-up batch of 2,000 samples (lib/recorder/batching.ts), about 150 kB, then the same again.
+      const big = sampleRun(2000)
+      expect((await send("catch-up", big)).body).toEqual({ accepted: 2000, duplicates: 0, replayed: false })
+      const replay = await send("catch-up", big)
+      expect(replay).toMatchObject({ status: 200, body: { accepted: 2000, duplicates: 0, replayed: true } })
+      const next = await send("after", sampleRun(5, 9, Date.UTC(2026, 0, 1, 12)))
+      expect(next).toMatchObject({ status: 200, body: { accepted: 5, duplicates: 0 }, reused: true })
+      expect(await storedSamples(drive.id)).toHaveLength(2005)
+    } finally {
+      agent.destroy()
+    }
+  })
+
+  it("answers a signed-out cookie 401 in the error shape and clears it, as Next does", async () => {
+    const client = await signedIn(shop.tech)
+    const drive = await startDrive(client)
+    const cookie = client.cookie!
+    expect((await client.delete("/api/session")).status).toBe(204)
+    for (const headers of [named("gone"), { "content-type": "application/json" }]) {
+      const res = await fetch(`${testEnv().baseUrl}/api/drives/${drive.id}/samples`, {
+        method: "POST",
+        headers: { ...headers, cookie, "x-forwarded-for": client.address },
+        body: JSON.stringify({ batchId: "gone", samples: sampleRun(3) }),
+      })
+      expect(res.status).toBe(401)
+      expect((await res.json()).error.code).toBe("not_signed_in")
+      expect(res.headers.get("set-cookie")).toMatch(new RegExp(`^${cookie.split("=")[0]}=;`))
+    }
+    expect(await storedSamples(drive.id)).toHaveLength(0)
+  })
+
+  it("refuses a write from another site (403) and a path that is no drive id (404), storing nothing", async () => {
+    const drive = await startDrive(tech)
+    const raw = JSON.stringify({ batchId: "x", samples: sampleRun(3) })
+    const elsewhere = await tech.request("POST", `/api/drives/${drive.id}/samples`, undefined, {
+      raw,
+      headers: { ...named("x"), origin: "http://elsewhere.invalid" },
+    })
+    expect(elsewhere.status).toBe(403)
+    expect(elsewhere.body.error.code).toBe("forbidden")
+    const noId = await tech.request("POST", `/api/drives/not-a-drive/samples`, undefined, { raw, headers: named("x") })
+    expect(noId.status).toBe(404)
+    expect(noId.body.error.code).toBe("not_found")
+    expect(await storedSamples(drive.id)).toHaveLength(0)
+  })
+
+  it("keeps another shop's drive a 404", async () => {
+    const drive = await startDrive(tech)
+    const other = await signedIn((await createTestShop("SamplesEarlyOther")).tech)
+    const res = await other.request("POST", `/api/drives/${drive.id}/samples`, undefined, {
+      raw: JSON.stringify({ batchId: "y", samples: sampleRun(3) }),
+      headers: named("y"),
+    })
+    expect(res.status).toBe(404)
+    expect(await storedSamples(drive.id)).toHaveLength(0)
   })
 })

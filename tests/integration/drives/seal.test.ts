@@ -239,6 +239,26 @@ describe("a sealed drive", () => {
     expect(stored).toEqual(exported)
   })
 
+  it("rescores a late batch named in x-batch-id, which the app's own server answers, the same way", async () => {
+    const drive = await finishedNeverCleared()
+    const raw = JSON.stringify({
+      batchId: "late-named",
+      samples: [{ t: Date.now() - 30_000, lat: drive.file.samples.at(-1)!.lat, lon: drive.file.samples.at(-1)!.lon }],
+    })
+    const headers = { "x-batch-id": "late-named", "content-type": "application/json" }
+    const path = `/api/drives/${drive.id}/samples`
+    expect((await tech.request("POST", path, undefined, { raw, headers })).body).toEqual({
+      accepted: 1,
+      duplicates: 0,
+      replayed: false,
+    })
+    expect((await tech.request("POST", path, undefined, { raw, headers })).body).toMatchObject({ replayed: true })
+    const revisions = (await tech.get(`/api/drives/${drive.id}/revisions`)).body.revisions
+    expect(revisions.map((r: { cause: string }) => r.cause)).toEqual(["late_samples", "finish"])
+    const { stored, exported } = await storedAndExported(tech, drive.id)
+    expect(stored).toEqual(exported)
+  })
+
   it("keeps another shop's revisions to that shop (404)", async () => {
     const drive = await finishedNeverCleared()
     const other = await createTestShop("SealedOther")
