@@ -1,7 +1,7 @@
 import "server-only"
 import { z } from "zod"
 import { parseParams, readRequestText, route, uuidParam } from "@/app/_server/route"
-import { addSampleBatch } from "@/app/_server/services/recording"
+import { addSampleBatch, lookAheadForBatch } from "@/app/_server/services/recording"
 import { sessionForToken, tokenFromCookieHeader } from "@/app/_server/session-token"
 import { AppError } from "@/lib/errors"
 import { BATCH_ID_HEADER } from "@/lib/recorder/batching"
@@ -15,12 +15,13 @@ const params = z.object({ driveId: uuidParam })
  * before Next does.
  */
 export const postSampleBatch = route<{ driveId: string }>(async (req, ctx) => {
-  const { current, cookie } = await sessionForToken(tokenFromCookieHeader(req.headers.get("cookie")))
+  const token = tokenFromCookieHeader(req.headers.get("cookie"))
+  const batchId = req.headers.get(BATCH_ID_HEADER)
+  const lookedAhead = lookAheadForBatch(token, ctx.params, batchId)
+  const { current, cookie } = await sessionForToken(token)
   const setCookie = cookie ? { "set-cookie": cookie.serialize() } : undefined
   if (!current.user) throw new AppError("not_signed_in", "Sign in first.", undefined, setCookie)
   const { driveId } = await parseParams(ctx.params, params)
-  const result = await addSampleBatch(current.user, driveId, req.headers.get(BATCH_ID_HEADER), () =>
-    readRequestText(req),
-  )
+  const result = await addSampleBatch(current.user, driveId, batchId, () => readRequestText(req), lookedAhead)
   return Response.json(result, { headers: setCookie })
 })

@@ -2,6 +2,7 @@ import { sql } from "kysely"
 import type { Sample } from "@/lib/drive-file/schema"
 import { decodeSample, encodeSampleColumns } from "@/lib/drive-file/stored"
 import type { Db } from "../client"
+import type { Drive } from "../types"
 import { insertSamplesNotifying, NOTIFY_MAX_SAMPLES, samplesNotice } from "./drive-events"
 
 export interface BatchResult {
@@ -116,12 +117,22 @@ export function sampleOfRow(r: SampleRow): Sample {
   return decodeSample(r.t, r.lat, r.lon, r.speed, r.accuracy)
 }
 
+export type DriveAndBatch = { drive: Drive; claim: BatchResult | null }
+
+/** Where a drive is looked up: by its internal id and shop, or by its public id in the shop of a session's user. */
+export type DriveLocator = { driveId: string; shopId: string } | { sessionId: string; publicId: string }
+
 /**
  * The drive and, when `batchId` was stored before, that batch's claim: one statement, so a replayed batch is
- * answered before its body is validated (app/api/drives/[driveId]/samples/route.ts).
+ * answered before its body is validated (app/_server/services/recording.ts). Located by session, it can run while
+ * the session itself is being checked; only a caller that then holds the session valid may use what it found.
  */
-export async function findDriveAndBatch(db: Db, driveId: string, shopId: string, batchId: string | null) {
-  const row = await db
+export async function findDriveAndBatch(
+  db: Db,
+  at: DriveLocator,
+  batchId: string | null,
+): Promise<DriveAndBatch | undefined> {
+  let query = db
     .selectFrom("drive")
     .leftJoin("sample_batch as b", (j) =>
       j
@@ -131,9 +142,15 @@ export async function findDriveAndBatch(db: Db, driveId: string, shopId: string,
     )
     .selectAll("drive")
     .select(["b.accepted as batch_accepted", "b.duplicates as batch_duplicates"])
-    .where("drive.id", "=", driveId)
-    .where("drive.shop_id", "=", shopId)
-    .executeTakeFirst()
+  query =
+    "sessionId" in at
+      ? query
+          .innerJoin("app_user as u", "u.shop_id", "drive.shop_id")
+          .innerJoin("user_session as s", "s.user_id", "u.id")
+          .where("s.id", "=", at.sessionId)
+          .where("drive.public_id", "=", at.publicId)
+      : query.where("drive.id", "=", at.driveId).where("drive.shop_id", "=", at.shopId)
+  const row = await query.executeTakeFirst()
   if (!row) return undefined
   const { batch_accepted, batch_duplicates, ...drive } = row
   const claim: BatchResult | null =

@@ -8,8 +8,10 @@
 import { randomUUID } from "node:crypto"
 import http from "node:http"
 import { internalDriveId } from "@/lib/drive-id"
+import { Kysely, PostgresDialect } from "kysely"
 import pg from "pg"
 import { createDb, type Db } from "@/db/client"
+import type { Database } from "@/db/types"
 import { findDriveAndBatch, ingestSampleBatch } from "@/db/queries/samples"
 import { SessionAdapter, sessionIdFromToken } from "@/lib/auth/lucia"
 import { hashPassword } from "@/lib/auth/password"
@@ -203,32 +205,36 @@ export const ingestCeilingRatio: BenchFigure = {
       if (res.status !== 200) throw new Error(`ingest failed: ${res.status}`)
     })
     // The same statements the route runs, through a pool of the app's size, without HTTP, Next.js or validation.
-    // the queries take the drive's internal id, as the route has it after mapping the public id (lib/drive-id.ts)
-    const sqlDrives = (await Promise.all(Array.from({ length: CEILING_CLIENTS }, () => r.newDrive()))).map((id) =>
-      internalDriveId(r.shopId, id),
-    )
+    // The ingest takes the drive's internal id, as the route has it after mapping the public id (lib/drive-id.ts).
+    const sqlDrives = (await Promise.all(Array.from({ length: CEILING_CLIENTS }, () => r.newDrive()))).map((id) => ({
+      publicId: id,
+      id: internalDriveId(r.shopId, id),
+    }))
+    // One pool for both, of the app's size, as the app has (db/client.ts getPool and getDb).
     const pool = new pg.Pool({ connectionString: ctx.env.DATABASE_URL, max: Number(ctx.env.DATABASE_POOL_MAX ?? 10) })
-    const db = createDb(ctx.env.DATABASE_URL)
+    const db = new Kysely<Database>({ dialect: new PostgresDialect({ pool }) })
     // The app's session adapter, looked up by what the app looks up: the SHA-256 of the cookie's token
     // (lib/auth/lucia.ts). The raw token would find no session and skip the user's row.
     const sessions = new SessionAdapter(pool)
     const sessionId = sessionIdFromToken(r.sessionToken)
     const sqlRate = await closedLoop(CEILING_CLIENTS, CEILING_MS, async (c, k) => {
       const batchId = `sql-${k}`
-      const [session, user] = await sessions.getSessionAndUser(sessionId)
+      // As the route runs them: the session, and the drive with the batch's claim found by that session, at once.
+      const [[session, user]] = await Promise.all([
+        sessions.getSessionAndUser(sessionId),
+        findDriveAndBatch(db, { sessionId, publicId: sqlDrives[c]!.publicId }, batchId),
+      ])
       if (!session || !user) throw new Error("the straight ingest found no session")
-      await findDriveAndBatch(db, sqlDrives[c]!, r.shopId, batchId)
       const res = await ingestSampleBatch(
         db,
-        sqlDrives[c]!,
+        sqlDrives[c]!.id,
         r.shopId,
         batchId,
         batchSamples(file.samples, k, SEND_AT_SAMPLES),
       )
       if (!res || res.replayed) throw new Error("the straight ingest did not store")
     })
-    await pool.end()
-    await db.destroy()
+    await db.destroy() // and the pool with it
     await done(r)
     console.error(
       `[bench] ingest ceiling: ${apiRate.toFixed(0)} POSTs/s through the API, ${sqlRate.toFixed(0)}/s straight through pg`,

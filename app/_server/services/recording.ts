@@ -14,13 +14,20 @@ import {
 } from "@/app/_server/services/drives"
 import { getDb } from "@/db/client"
 import { insertMarksNotifying } from "@/db/queries/drive-events"
-import { findDriveAndBatch, ingestSampleBatch, insertSampleBatch, type BatchResult } from "@/db/queries/samples"
+import {
+  findDriveAndBatch,
+  ingestSampleBatch,
+  insertSampleBatch,
+  type BatchResult,
+  type DriveAndBatch,
+} from "@/db/queries/samples"
 import { marksOutsideDrive } from "@/lib/access/mark-window"
-import type { SessionUser } from "@/lib/auth/lucia"
+import { sessionIdFromToken, type SessionUser } from "@/lib/auth/lucia"
 import type { ApiMark } from "@/lib/drive-file/schema"
 import { AppError, validationFailed } from "@/lib/errors"
 import { BATCH_ID_HEADER } from "@/lib/recorder/batching"
 import { sampleBatchSchema } from "@/lib/validation/drive"
+import { uuidSchema } from "@/lib/validation/uuid"
 import { unstorableTextProblem } from "@/lib/validation/storable"
 
 // POST /api/drives/:id/samples. The recorder sends a batch every 5 s or 50 samples (lib/recorder/batching.ts), so
@@ -34,18 +41,22 @@ import { unstorableTextProblem } from "@/lib/validation/storable"
 // validated before anything is written: one bad sample is a 400 naming it (`samples.3.lat`) and the batch
 // is stored not at all.
 //
-// `headerBatchId`: the x-batch-id header; `readText`: reads the body (only when it is needed).
+// `headerBatchId`: the x-batch-id header; `readText`: reads the body (only when it is needed); `lookedAhead`: the
+// drive and claim lookAheadForBatch started while the session was checked.
 export async function addSampleBatch(
   user: SessionUser,
   publicDriveId: string,
   headerBatchId: string | null,
   readText: () => Promise<string>,
+  lookedAhead?: Promise<DriveAndBatch | undefined>,
 ): Promise<Omit<BatchResult, "storedTs">> {
   const db = getDb()
   // The recorder names the batch in a header: a batch already stored is answered before its body is read.
   const named = batchIdFromHeader(headerBatchId)
   const text = named === null ? await readText() : null
-  const found = await findDriveAndBatch(db, shopDriveId(user, publicDriveId), user.shopId, named ?? peekBatchId(text!))
+  const at = { driveId: shopDriveId(user, publicDriveId), shopId: user.shopId }
+  const ahead = named !== null ? await lookedAhead : undefined
+  const found = ahead?.drive.id === at.driveId ? ahead : await findDriveAndBatch(db, at, named ?? peekBatchId(text!))
   const drive = assertDriveAccess(found?.drive, user, "record")
   assertRecordingOpen(drive)
   if (found!.claim) return withoutStoredTs(found!.claim)
@@ -70,6 +81,28 @@ export async function addSampleBatch(
   noteSamplesStored(drive.id, samples, result.storedTs)
   sendFollowUp(followUp)
   return withoutStoredTs(result)
+}
+
+/**
+ * The drive and claim of a batch named in the x-batch-id header, looked up by the session's token while the session
+ * is being checked (two queries at once rather than one after the other). addSampleBatch uses it only for the user
+ * that check gives; anything that goes wrong here is left to addSampleBatch's own lookup.
+ */
+export function lookAheadForBatch(
+  sessionToken: string | null,
+  params: Promise<{ driveId: string }>,
+  headerBatchId: string | null,
+): Promise<DriveAndBatch | undefined> | undefined {
+  const named = batchIdFromHeader(headerBatchId)
+  if (!sessionToken || named === null) return undefined
+  const sessionId = sessionIdFromToken(sessionToken)
+  return params
+    .then(({ driveId }) =>
+      uuidSchema.safeParse(driveId).success
+        ? findDriveAndBatch(getDb(), { sessionId, publicId: driveId }, named)
+        : undefined,
+    )
+    .catch(() => undefined)
 }
 
 function withoutStoredTs({ storedTs: _storedTs, ...body }: BatchResult) {
