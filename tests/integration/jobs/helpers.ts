@@ -1,4 +1,5 @@
 import { DeleteObjectCommand, HeadObjectCommand, S3Client } from "@aws-sdk/client-s3"
+import { expect } from "vitest"
 import { withCheckDigit } from "@/lib/vin"
 import type { ApiClient } from "../../helpers/http"
 
@@ -73,4 +74,33 @@ export const JPEG_START = Buffer.from(
 export async function putToPresignedUrl(url: string, contentType: string, bytes: Uint8Array) {
   const res = await fetch(url, { method: "PUT", headers: { "content-type": contentType }, body: bytes as BodyInit })
   if (!res.ok) throw new Error(`PUT to object store failed: ${res.status} ${await res.text()}`)
+}
+
+/** A file to attach to a job (and to one of its tasks when `taskId` is given). */
+export type JobFile = {
+  jobId: string
+  taskId?: string | null
+  filename: string
+  contentType: string
+  bytes: Uint8Array
+}
+
+/** Asks for an upload address for `file` (POST /api/uploads, a 201) and answers the attachment id and the address. */
+export async function startUpload(client: ApiClient, file: JobFile) {
+  const { bytes, ...fields } = file
+  const start = await client.post("/api/uploads", { ...fields, size: bytes.byteLength })
+  expect(start.status).toBe(201)
+  return { id: start.body.attachmentId as string, uploadUrl: start.body.uploadUrl as string }
+}
+
+/** POST /api/uploads/:id/complete: the server checks the stored bytes and keeps or removes the file. */
+export function completeUpload(client: ApiClient, attachmentId: string) {
+  return client.post(`/api/uploads/${attachmentId}/complete`)
+}
+
+/** A whole upload as the app makes it: ask for an address, PUT the bytes to the object store, complete. */
+export async function uploadFile(client: ApiClient, file: JobFile) {
+  const start = await startUpload(client, file)
+  await putToPresignedUrl(start.uploadUrl, file.contentType, file.bytes)
+  return { ...start, done: await completeUpload(client, start.id) }
 }

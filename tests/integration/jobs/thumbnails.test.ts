@@ -2,10 +2,9 @@ import { PDFDocument, PDFName, PDFNumber, PDFRawStream } from "pdf-lib"
 import sharp from "sharp"
 import { beforeAll, describe, expect, it } from "vitest"
 import { createTestShop, testDb, type TestShop } from "../../helpers/db"
-import { testEnv } from "../../helpers/env"
 import { type ApiClient, signedIn } from "../../helpers/http"
 import { insertJob, insertScoredDrive } from "../review/fixtures"
-import { createJob, objectExists, putToPresignedUrl } from "./helpers"
+import { completeUpload, createJob, objectExists, putToPresignedUrl, startUpload, uploadFile } from "./helpers"
 
 let shop: TestShop
 let job: { id: string; tasks: { id: string }[] }
@@ -43,28 +42,9 @@ async function phonePhoto() {
     .toBuffer()
 }
 
-/** A binary GET with the client's session (ApiClient reads bodies as text). */
-async function getBytes(client: ApiClient, path: string) {
-  const res = await fetch(`${testEnv().baseUrl}${path}`, {
-    headers: { cookie: client.cookie ?? "", "x-forwarded-for": client.address },
-    redirect: "manual",
-  })
-  return { status: res.status, headers: res.headers, bytes: Buffer.from(await res.arrayBuffer()) }
-}
-
-async function upload(
-  client: ApiClient,
-  jobId: string,
-  taskId: string | null,
-  filename: string,
-  contentType: string,
-  bytes: Uint8Array,
-) {
-  const start = await client.post("/api/uploads", { jobId, taskId, filename, contentType, size: bytes.byteLength })
-  expect(start.status).toBe(201)
-  await putToPresignedUrl(start.body.uploadUrl, contentType, bytes)
-  const done = await client.post(`/api/uploads/${start.body.attachmentId}/complete`)
-  return { id: start.body.attachmentId as string, done }
+/** A whole upload of `bytes` to the suite's job, on no task. */
+function upload(client: ApiClient, filename: string, contentType: string, bytes: Uint8Array) {
+  return uploadFile(client, { jobId: job.id, taskId: null, filename, contentType, bytes })
 }
 
 async function rowOf(id: string) {
@@ -91,14 +71,20 @@ describe("thumbnails made at upload", () => {
   it("stores a 320 px JPEG of a phone photo, turned upright by its EXIF orientation, without its metadata", async () => {
     expect((await sharp(landscape).metadata()).orientation).toBe(6)
     const tech = await signedIn(shop.tech)
-    const { id, done } = await upload(tech, job.id, job.tasks[0]!.id, "bumper.jpg", "image/jpeg", landscape)
+    const { id, done } = await uploadFile(tech, {
+      jobId: job.id,
+      taskId: job.tasks[0]!.id,
+      filename: "bumper.jpg",
+      contentType: "image/jpeg",
+      bytes: landscape,
+    })
     expect(done.status).toBe(200)
     expect(done.body.attachment.thumbnailUrl).toBe(`/api/attachments/${id}?variant=thumbnail`)
     const row = (await rowOf(id))!
     expect(row.thumbnail_key).toBe(`${row.object_key}.thumb.jpg`)
     expect(await objectExists(row.thumbnail_key!)).toBe(true)
 
-    const thumb = await getBytes(tech, done.body.attachment.thumbnailUrl)
+    const thumb = await tech.getBytes(done.body.attachment.thumbnailUrl)
     expect(thumb.status).toBe(200)
     expect(thumb.headers.get("content-type")).toBe("image/jpeg")
     expect(thumb.headers.get("cache-control")).toMatch(/^private/)
@@ -118,7 +104,7 @@ describe("thumbnails made at upload", () => {
     expect(thumb.bytes.byteLength).toBeLessThan(landscape.byteLength * 0.03)
 
     // The link without a variant is still the photo itself.
-    const full = await getBytes(tech, done.body.attachment.url)
+    const full = await tech.getBytes(done.body.attachment.url)
     expect(full.status).toBe(200)
     expect(full.bytes.equals(landscape)).toBe(true)
   })
@@ -137,9 +123,9 @@ describe("thumbnails made at upload", () => {
       .png()
       .toBuffer()
     const tech = await signedIn(shop.tech)
-    const { done } = await upload(tech, job.id, null, "placard.png", "image/png", png)
+    const { done } = await upload(tech, "placard.png", "image/png", png)
     expect(done.status).toBe(200)
-    const thumb = await getBytes(tech, done.body.attachment.thumbnailUrl)
+    const thumb = await tech.getBytes(done.body.attachment.thumbnailUrl)
     expect(thumb.headers.get("content-type")).toBe("image/jpeg")
     const meta = await sharp(thumb.bytes).metadata()
     expect([meta.format, meta.width, meta.height]).toEqual(["jpeg", 320, 213])
@@ -154,9 +140,9 @@ describe("thumbnails made at upload", () => {
       .webp()
       .toBuffer()
     const tech = await signedIn(shop.tech)
-    const { done } = await upload(tech, job.id, null, "label.webp", "image/webp", small)
+    const { done } = await upload(tech, "label.webp", "image/webp", small)
     expect(done.status).toBe(200)
-    const meta = await sharp((await getBytes(tech, done.body.attachment.thumbnailUrl)).bytes).metadata()
+    const meta = await sharp((await tech.getBytes(done.body.attachment.thumbnailUrl)).bytes).metadata()
     expect([meta.format, meta.width, meta.height]).toEqual(["jpeg", 32, 24])
   })
 
@@ -165,14 +151,14 @@ describe("thumbnails made at upload", () => {
     const small = await sharp({ create: { width: 400, height: 300, channels: 3, background: "#336699" } })
       .jpeg()
       .toBuffer()
-    const { done } = await upload(tech, job.id, null, "mount.jpg", "image/jpeg", small)
+    const { done } = await upload(tech, "mount.jpg", "image/jpeg", small)
     expect(done.status).toBe(200)
     const other = await createTestShop("Thumbnails other")
-    const theirs = await getBytes(await signedIn(other.lead), done.body.attachment.thumbnailUrl)
+    const theirs = await (await signedIn(other.lead)).getBytes(done.body.attachment.thumbnailUrl)
     expect(theirs.status).toBe(404)
     expect(theirs.bytes.byteLength).toBeLessThan(500) // the error body, no picture
-    expect((await getBytes(await signedIn(shop.codriver), done.body.attachment.thumbnailUrl)).status).toBe(404)
-    expect((await getBytes(tech, `/api/attachments/${done.body.attachment.id}?variant=poster`)).status).toBe(400)
+    expect((await (await signedIn(shop.codriver)).getBytes(done.body.attachment.thumbnailUrl)).status).toBe(404)
+    expect((await tech.getBytes(`/api/attachments/${done.body.attachment.id}?variant=poster`)).status).toBe(400)
   })
 })
 
@@ -185,7 +171,7 @@ describe("photos that do not decode", () => {
       Buffer.alloc(4000, 0x5a),
     ])
     const tech = await signedIn(shop.tech)
-    const { id, done } = await upload(tech, job.id, null, "broken.jpg", "image/jpeg", fake)
+    const { id, done } = await upload(tech, "broken.jpg", "image/jpeg", fake)
     expect(done.status).toBe(400)
     expect(done.body.error.code).toBe("invalid_request")
     expect(done.body.error.message).toMatch(/cannot be read.*removed/)
@@ -197,19 +183,14 @@ describe("photos that do not decode", () => {
   it("refuses a JPEG cut short in transfer, and removes the object", async () => {
     const cut = landscape.subarray(0, Math.floor(landscape.byteLength * 0.4))
     const tech = await signedIn(shop.tech)
-    const start = await tech.post("/api/uploads", {
-      jobId: job.id,
-      filename: "cut.jpg",
-      contentType: "image/jpeg",
-      size: cut.byteLength,
-    })
-    await putToPresignedUrl(start.body.uploadUrl, "image/jpeg", cut)
-    const key = (await rowOf(start.body.attachmentId))!.object_key
-    const done = await tech.post(`/api/uploads/${start.body.attachmentId}/complete`)
+    const start = await startUpload(tech, { jobId: job.id, filename: "cut.jpg", contentType: "image/jpeg", bytes: cut })
+    await putToPresignedUrl(start.uploadUrl, "image/jpeg", cut)
+    const key = (await rowOf(start.id))!.object_key
+    const done = await completeUpload(tech, start.id)
     expect(done.status).toBe(400)
     expect(await objectExists(key)).toBe(false)
     expect(await objectExists(`${key}.thumb.jpg`)).toBe(false)
-    expect(await rowOf(start.body.attachmentId)).toBeUndefined()
+    expect(await rowOf(start.id)).toBeUndefined()
   })
 
   it("keeps a HEIC photo without a thumbnail (no HEVC decoder in the image library) and sends the photo itself", async () => {
@@ -220,10 +201,10 @@ describe("photos that do not decode", () => {
     )
     expect(heic.byteLength).toBe(488)
     const tech = await signedIn(shop.tech)
-    const { id, done } = await upload(tech, job.id, null, "IMG_0042.HEIC", "image/heic", heic)
+    const { id, done } = await upload(tech, "IMG_0042.HEIC", "image/heic", heic)
     expect(done.status).toBe(200)
     expect((await rowOf(id))!.thumbnail_key).toBeNull()
-    const thumb = await getBytes(tech, `/api/attachments/${id}?variant=thumbnail`)
+    const thumb = await tech.getBytes(`/api/attachments/${id}?variant=thumbnail`)
     expect(thumb.status).toBe(200)
     expect(thumb.bytes.equals(heic)).toBe(true)
     expect(thumb.headers.get("content-disposition")).toMatch(/^attachment; /)
@@ -237,11 +218,10 @@ describe("the drive record PDF", () => {
     const drive = await insertScoredDrive(recordShop, { pattern: "short", seed: 412, job: recordJob })
     const tech = await signedIn(recordShop.tech)
     for (const name of ["front.jpg", "bracket.jpg"]) {
-      expect((await upload(tech, recordJob.jobId, recordJob.taskId, name, "image/jpeg", landscape)).done.status).toBe(
-        200,
-      )
+      const file = { jobId: recordJob.jobId, taskId: recordJob.taskId, filename: name, contentType: "image/jpeg" }
+      expect((await uploadFile(tech, { ...file, bytes: landscape })).done.status).toBe(200)
     }
-    const pdf = await getBytes(tech, `/api/drives/${drive.id}/record`)
+    const pdf = await tech.getBytes(`/api/drives/${drive.id}/record`)
     expect(pdf.status).toBe(200)
     // Two full photos alone would be about 5.9 MB; the whole record stays under a tenth of one photo.
     expect(pdf.bytes.byteLength).toBeLessThan(landscape.byteLength / 10)

@@ -1,9 +1,17 @@
 import { PDFDocument } from "pdf-lib"
 import { beforeAll, describe, expect, it } from "vitest"
 import { createTestShop, testDb, type TestShop } from "../../helpers/db"
-import { testEnv } from "../../helpers/env"
 import { type ApiClient, signedIn } from "../../helpers/http"
-import { createJob, JPEG_START, objectExists, putToPresignedUrl, TINY_PNG } from "./helpers"
+import {
+  completeUpload,
+  createJob,
+  JPEG_START,
+  objectExists,
+  putToPresignedUrl,
+  startUpload,
+  TINY_PNG,
+  uploadFile,
+} from "./helpers"
 
 let shop: TestShop
 let job: { id: string; tasks: { id: string }[] }
@@ -15,20 +23,9 @@ beforeAll(async () => {
 
 const MB = 1024 * 1024
 
-async function download(client: ApiClient, path: string) {
-  const res = await fetch(`${testEnv().baseUrl}${path}`, {
-    headers: { cookie: client.cookie ?? "", "x-forwarded-for": client.address },
-    redirect: "manual",
-  })
-  return { status: res.status, headers: res.headers, bytes: Buffer.from(await res.arrayBuffer()) }
-}
-
-async function upload(client: ApiClient, filename: string, contentType: string, bytes: Uint8Array) {
-  const start = await client.post("/api/uploads", { jobId: job.id, filename, contentType, size: bytes.byteLength })
-  expect(start.status).toBe(201)
-  await putToPresignedUrl(start.body.uploadUrl, contentType, bytes)
-  const done = await client.post(`/api/uploads/${start.body.attachmentId}/complete`)
-  return { start, done }
+/** A whole upload of `bytes` to the suite's job. */
+function upload(client: ApiClient, filename: string, contentType: string, bytes: Uint8Array) {
+  return uploadFile(client, { jobId: job.id, filename, contentType, bytes })
 }
 
 async function objectKeyOf(attachmentId: string) {
@@ -88,29 +85,22 @@ describe("POST /api/uploads", () => {
 describe("POST /api/uploads/:id/complete", () => {
   it("completes a PNG whose bytes are a PNG, and lists it on the job with a link that serves the file", async () => {
     const tech = await signedIn(shop.tech)
-    const start = await tech.post("/api/uploads", {
+    const taskId = job.tasks[0]!.id
+    const { id, done } = await uploadFile(tech, {
       jobId: job.id,
-      taskId: job.tasks[0]!.id,
+      taskId,
       filename: "tires.png",
       contentType: "image/png",
-      size: TINY_PNG.length,
+      bytes: TINY_PNG,
     })
-    expect(start.status).toBe(201)
-    await putToPresignedUrl(start.body.uploadUrl, "image/png", TINY_PNG)
-    const done = await tech.post(`/api/uploads/${start.body.attachmentId}/complete`)
     expect(done.status).toBe(200)
-    expect(done.body.attachment).toMatchObject({
-      id: start.body.attachmentId,
-      taskId: job.tasks[0]!.id,
-      contentType: "image/png",
-      size: TINY_PNG.length,
-    })
-    expect(done.body.attachment.thumbnailUrl).toContain(start.body.attachmentId)
+    expect(done.body.attachment).toMatchObject({ id, taskId, contentType: "image/png", size: TINY_PNG.length })
+    expect(done.body.attachment.thumbnailUrl).toContain(id)
 
     const detail = await tech.get(`/api/jobs/${job.id}`)
-    expect(detail.body.job.attachments.map((a: { id: string }) => a.id)).toContain(start.body.attachmentId)
+    expect(detail.body.job.attachments.map((a: { id: string }) => a.id)).toContain(id)
 
-    const file = await download(tech, done.body.attachment.url)
+    const file = await tech.getBytes(done.body.attachment.url)
     expect(file.status).toBe(200)
     expect(file.bytes.equals(TINY_PNG)).toBe(true)
     expect(file.headers.get("content-type")).toBe("image/png")
@@ -123,99 +113,87 @@ describe("POST /api/uploads/:id/complete", () => {
 
   it("completes a JPEG whose bytes start FF D8 FF", async () => {
     const tech = await signedIn(shop.tech)
-    const start = await tech.post("/api/uploads", {
-      jobId: job.id,
-      filename: "face.jpg",
-      contentType: "image/jpeg",
-      size: JPEG_START.length,
-    })
-    await putToPresignedUrl(start.body.uploadUrl, "image/jpeg", JPEG_START)
-    const done = await tech.post(`/api/uploads/${start.body.attachmentId}/complete`)
+    const { done } = await upload(tech, "face.jpg", "image/jpeg", JPEG_START)
     expect(done.status).toBe(200)
     expect(done.body.attachment.contentType).toBe("image/jpeg")
   })
 
   it("refuses a file whose bytes are not the declared type, and removes it from the object store", async () => {
     const tech = await signedIn(shop.tech)
-    const start = await tech.post("/api/uploads", {
-      jobId: job.id,
-      filename: "scan.pdf",
-      contentType: "application/pdf",
-      size: TINY_PNG.length,
-    })
-    expect(start.status).toBe(201)
-    await putToPresignedUrl(start.body.uploadUrl, "application/pdf", TINY_PNG)
-    const key = (await objectKeyOf(start.body.attachmentId))!
+    const file = { jobId: job.id, filename: "scan.pdf", contentType: "application/pdf", bytes: TINY_PNG }
+    const start = await startUpload(tech, file)
+    await putToPresignedUrl(start.uploadUrl, file.contentType, file.bytes)
+    const key = (await objectKeyOf(start.id))!
     expect(await objectExists(key)).toBe(true)
 
-    const done = await tech.post(`/api/uploads/${start.body.attachmentId}/complete`)
+    const done = await completeUpload(tech, start.id)
     expect(done.status).toBe(400)
     expect(done.body.error.message).toMatch(/image\/png, not application\/pdf/)
     expect(await objectExists(key)).toBe(false) // HeadObject through the S3 SDK: gone
-    expect(await objectKeyOf(start.body.attachmentId)).toBeUndefined()
+    expect(await objectKeyOf(start.id)).toBeUndefined()
     const detail = await tech.get(`/api/jobs/${job.id}`)
-    expect(detail.body.job.attachments.map((a: { id: string }) => a.id)).not.toContain(start.body.attachmentId)
+    expect(detail.body.job.attachments.map((a: { id: string }) => a.id)).not.toContain(start.id)
   })
 
   it("refuses text dressed as a photo", async () => {
     const tech = await signedIn(shop.tech)
-    const bytes = Buffer.from("<html>not a photo</html>")
-    const start = await tech.post("/api/uploads", {
+    const file = {
       jobId: job.id,
       filename: "photo.webp",
       contentType: "image/webp",
-      size: bytes.length,
-    })
-    await putToPresignedUrl(start.body.uploadUrl, "image/webp", bytes)
-    const key = (await objectKeyOf(start.body.attachmentId))!
-    const done = await tech.post(`/api/uploads/${start.body.attachmentId}/complete`)
+      bytes: Buffer.from("<html>not a photo</html>"),
+    }
+    const start = await startUpload(tech, file)
+    await putToPresignedUrl(start.uploadUrl, file.contentType, file.bytes)
+    const key = (await objectKeyOf(start.id))!
+    const done = await completeUpload(tech, start.id)
     expect(done.status).toBe(400)
     expect(await objectExists(key)).toBe(false)
   })
 
   it("answers 400 while nothing was uploaded yet, and keeps the upload open", async () => {
     const tech = await signedIn(shop.tech)
-    const start = await tech.post("/api/uploads", {
+    const start = await startUpload(tech, {
       jobId: job.id,
       filename: "later.png",
       contentType: "image/png",
-      size: TINY_PNG.length,
+      bytes: TINY_PNG,
     })
-    const early = await tech.post(`/api/uploads/${start.body.attachmentId}/complete`)
+    const early = await completeUpload(tech, start.id)
     expect(early.status).toBe(400)
-    await putToPresignedUrl(start.body.uploadUrl, "image/png", TINY_PNG)
-    expect((await tech.post(`/api/uploads/${start.body.attachmentId}/complete`)).status).toBe(200)
+    await putToPresignedUrl(start.uploadUrl, "image/png", TINY_PNG)
+    expect((await completeUpload(tech, start.id)).status).toBe(200)
   })
 })
 
 describe("what is served is what was checked (issue 15)", () => {
   it("a second PUT to a used upload address changes nothing served", async () => {
     const tech = await signedIn(shop.tech)
-    const { start, done } = await upload(tech, "bumper.png", "image/png", TINY_PNG)
+    const { id, uploadUrl, done } = await upload(tech, "bumper.png", "image/png", TINY_PNG)
     expect(done.status).toBe(200)
     const html = Buffer.from("<html><script>alert(document.cookie)</script></html>")
     // The address may still be inside its few minutes; whatever the store does with the PUT, nothing served changes.
-    await putToPresignedUrl(start.body.uploadUrl, "image/png", html).catch(() => null)
-    const file = await download(tech, done.body.attachment.url)
+    await putToPresignedUrl(uploadUrl, "image/png", html).catch(() => null)
+    const file = await tech.getBytes(done.body.attachment.url)
     expect(file.status).toBe(200)
     expect(file.bytes.equals(TINY_PNG)).toBe(true)
     expect(file.headers.get("content-type")).toBe("image/png")
-    const again = await tech.post(`/api/uploads/${start.body.attachmentId}/complete`)
+    const again = await completeUpload(tech, id)
     expect(again.status).toBe(200)
-    expect((await download(tech, done.body.attachment.url)).bytes.equals(TINY_PNG)).toBe(true)
+    expect((await tech.getBytes(done.body.attachment.url)).bytes.equals(TINY_PNG)).toBe(true)
     // The accepted copy lives under a key no upload address is made for.
-    expect(await objectKeyOf(start.body.attachmentId)).toMatch(/^stored\//)
+    expect(await objectKeyOf(id)).toMatch(/^stored\//)
   })
 
   it("the upload address expires in minutes", async () => {
     const tech = await signedIn(shop.tech)
-    const start = await tech.post("/api/uploads", {
+    const start = await startUpload(tech, {
       jobId: job.id,
       filename: "x.png",
       contentType: "image/png",
-      size: TINY_PNG.length,
+      bytes: TINY_PNG,
     })
-    const expires = Number(new URL(start.body.uploadUrl).searchParams.get("X-Amz-Expires"))
+    const expires = Number(new URL(start.uploadUrl).searchParams.get("X-Amz-Expires"))
     expect(expires).toBeGreaterThan(0)
     expect(expires).toBeLessThanOrEqual(10 * 60)
   })
@@ -233,7 +211,7 @@ describe("what is served is what was checked (issue 15)", () => {
     const real = Buffer.from(await doc.save())
     const good = await upload(tech, "alignment printout.pdf", "application/pdf", real)
     expect(good.done.status).toBe(200)
-    const file = await download(tech, good.done.body.attachment.url)
+    const file = await tech.getBytes(good.done.body.attachment.url)
     expect(file.bytes.equals(real)).toBe(true)
     expect(file.headers.get("content-type")).toBe("application/pdf")
     expect(file.headers.get("x-content-type-options")).toBe("nosniff")
@@ -245,7 +223,7 @@ describe("what is served is what was checked (issue 15)", () => {
     for (const name of ["résumé.png", "🚗 front.png", "車検.png"]) {
       const { done } = await upload(tech, name, "image/png", TINY_PNG)
       expect(done.status).toBe(200)
-      const header = (await download(tech, done.body.attachment.url)).headers.get("content-disposition")!
+      const header = (await tech.getBytes(done.body.attachment.url)).headers.get("content-disposition")!
       const star = /filename\*=UTF-8''([^;]+)$/.exec(header)?.[1]
       expect(decodeURIComponent(star!)).toBe(name)
     }
