@@ -5,7 +5,7 @@ import { parseDriveFile, type DriveFile } from "@/lib/drive-file"
 import { scoreDrive } from "@/lib/scoring"
 import { generateDrive } from "@/lib/tracks"
 import { withCheckDigit } from "@/lib/vin"
-import { createTestProfile, createTestShop, testDb, type TestShop } from "../../helpers/db"
+import { createTestProfile, createTestShop, insertDrives, testDb, type TestShop } from "../../helpers/db"
 import { ApiClient, signedIn } from "../../helpers/http"
 import { sampleRun, startDrive } from "./helpers"
 
@@ -122,18 +122,10 @@ describe("POST /api/drives and GET /api/drives", () => {
   it("pages with the cursor without skipping or repeating a drive", async () => {
     const s = await createTestShop("Paging")
     const ids = Array.from({ length: 55 }, () => randomUUID())
-    await testDb()
-      .insertInto("drive")
-      .values(
-        ids.map((id) => ({
-          id: internalDriveId(s.shopId, id),
-          public_id: id,
-          shop_id: s.shopId,
-          profile: JSON.stringify({}),
-          driver_id: s.tech.id,
-        })),
-      )
-      .execute()
+    await insertDrives(
+      s,
+      ids.map((id) => ({ public_id: id })),
+    )
     const t = await signedIn(s.tech)
     const page1 = await t.get("/api/drives")
     expect(page1.body.drives).toHaveLength(50)
