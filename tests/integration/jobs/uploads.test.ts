@@ -23,6 +23,11 @@ beforeAll(async () => {
 
 const MB = 1024 * 1024
 
+/** An upload address for `bytes` on the suite's job; nothing is put there yet. */
+function start(client: ApiClient, filename: string, contentType: string, bytes: Uint8Array) {
+  return startUpload(client, { jobId: job.id, filename, contentType, bytes })
+}
+
 /** A whole upload of `bytes` to the suite's job. */
 function upload(client: ApiClient, filename: string, contentType: string, bytes: Uint8Array) {
   return uploadFile(client, { jobId: job.id, filename, contentType, bytes })
@@ -120,49 +125,38 @@ describe("POST /api/uploads/:id/complete", () => {
 
   it("refuses a file whose bytes are not the declared type, and removes it from the object store", async () => {
     const tech = await signedIn(shop.tech)
-    const file = { jobId: job.id, filename: "scan.pdf", contentType: "application/pdf", bytes: TINY_PNG }
-    const start = await startUpload(tech, file)
-    await putToPresignedUrl(start.uploadUrl, file.contentType, file.bytes)
-    const key = (await objectKeyOf(start.id))!
+    const pending = await start(tech, "scan.pdf", "application/pdf", TINY_PNG)
+    await putToPresignedUrl(pending.uploadUrl, "application/pdf", TINY_PNG)
+    const key = (await objectKeyOf(pending.id))!
     expect(await objectExists(key)).toBe(true)
 
-    const done = await completeUpload(tech, start.id)
+    const done = await completeUpload(tech, pending.id)
     expect(done.status).toBe(400)
     expect(done.body.error.message).toMatch(/image\/png, not application\/pdf/)
     expect(await objectExists(key)).toBe(false) // HeadObject through the S3 SDK: gone
-    expect(await objectKeyOf(start.id)).toBeUndefined()
+    expect(await objectKeyOf(pending.id)).toBeUndefined()
     const detail = await tech.get(`/api/jobs/${job.id}`)
-    expect(detail.body.job.attachments.map((a: { id: string }) => a.id)).not.toContain(start.id)
+    expect(detail.body.job.attachments.map((a: { id: string }) => a.id)).not.toContain(pending.id)
   })
 
   it("refuses text dressed as a photo", async () => {
     const tech = await signedIn(shop.tech)
-    const file = {
-      jobId: job.id,
-      filename: "photo.webp",
-      contentType: "image/webp",
-      bytes: Buffer.from("<html>not a photo</html>"),
-    }
-    const start = await startUpload(tech, file)
-    await putToPresignedUrl(start.uploadUrl, file.contentType, file.bytes)
-    const key = (await objectKeyOf(start.id))!
-    const done = await completeUpload(tech, start.id)
+    const bytes = Buffer.from("<html>not a photo</html>")
+    const pending = await start(tech, "photo.webp", "image/webp", bytes)
+    await putToPresignedUrl(pending.uploadUrl, "image/webp", bytes)
+    const key = (await objectKeyOf(pending.id))!
+    const done = await completeUpload(tech, pending.id)
     expect(done.status).toBe(400)
     expect(await objectExists(key)).toBe(false)
   })
 
   it("answers 400 while nothing was uploaded yet, and keeps the upload open", async () => {
     const tech = await signedIn(shop.tech)
-    const start = await startUpload(tech, {
-      jobId: job.id,
-      filename: "later.png",
-      contentType: "image/png",
-      bytes: TINY_PNG,
-    })
-    const early = await completeUpload(tech, start.id)
+    const pending = await start(tech, "later.png", "image/png", TINY_PNG)
+    const early = await completeUpload(tech, pending.id)
     expect(early.status).toBe(400)
-    await putToPresignedUrl(start.uploadUrl, "image/png", TINY_PNG)
-    expect((await completeUpload(tech, start.id)).status).toBe(200)
+    await putToPresignedUrl(pending.uploadUrl, "image/png", TINY_PNG)
+    expect((await completeUpload(tech, pending.id)).status).toBe(200)
   })
 })
 
@@ -187,13 +181,8 @@ describe("what is served is what was checked (issue 15)", () => {
 
   it("the upload address expires in minutes", async () => {
     const tech = await signedIn(shop.tech)
-    const start = await startUpload(tech, {
-      jobId: job.id,
-      filename: "x.png",
-      contentType: "image/png",
-      bytes: TINY_PNG,
-    })
-    const expires = Number(new URL(start.uploadUrl).searchParams.get("X-Amz-Expires"))
+    const pending = await start(tech, "x.png", "image/png", TINY_PNG)
+    const expires = Number(new URL(pending.uploadUrl).searchParams.get("X-Amz-Expires"))
     expect(expires).toBeGreaterThan(0)
     expect(expires).toBeLessThanOrEqual(10 * 60)
   })
