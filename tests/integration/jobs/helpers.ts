@@ -1,6 +1,7 @@
 import { DeleteObjectCommand, HeadObjectCommand, S3Client } from "@aws-sdk/client-s3"
 import { expect } from "vitest"
 import { withCheckDigit } from "@/lib/vin"
+import { testDb } from "../../helpers/db"
 import type { ApiClient } from "../../helpers/http"
 
 let counter = 0
@@ -39,6 +40,15 @@ export function testS3() {
       secretAccessKey: process.env.S3_SECRET_ACCESS_KEY ?? "S3RVER",
     },
   })
+}
+
+/** An attachment's row as stored: where its file and thumbnail are kept; undefined once it is removed. */
+export function storedAttachment(id: string) {
+  return testDb()
+    .selectFrom("attachment")
+    .select(["object_key", "thumbnail_key", "status"])
+    .where("id", "=", id)
+    .executeTakeFirst()
 }
 
 export async function objectExists(key: string) {

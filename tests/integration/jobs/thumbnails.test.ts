@@ -1,10 +1,18 @@
 import { PDFDocument, PDFName, PDFNumber, PDFRawStream } from "pdf-lib"
 import sharp from "sharp"
 import { beforeAll, describe, expect, it } from "vitest"
-import { createTestShop, testDb, type TestShop } from "../../helpers/db"
+import { createTestShop, type TestShop } from "../../helpers/db"
 import { type ApiClient, signedIn } from "../../helpers/http"
 import { insertJob, insertScoredDrive } from "../review/fixtures"
-import { completeUpload, createJob, objectExists, putToPresignedUrl, startUpload, uploadFile } from "./helpers"
+import {
+  completeUpload,
+  createJob,
+  objectExists,
+  putToPresignedUrl,
+  startUpload,
+  storedAttachment,
+  uploadFile,
+} from "./helpers"
 
 let shop: TestShop
 let job: { id: string; tasks: { id: string }[] }
@@ -47,14 +55,6 @@ function upload(client: ApiClient, filename: string, contentType: string, bytes:
   return uploadFile(client, { jobId: job.id, taskId: null, filename, contentType, bytes })
 }
 
-async function rowOf(id: string) {
-  return testDb()
-    .selectFrom("attachment")
-    .select(["object_key", "thumbnail_key", "status"])
-    .where("id", "=", id)
-    .executeTakeFirst()
-}
-
 async function pixel(image: Buffer, x: number, y: number) {
   const { data, info } = await sharp(image).raw().toBuffer({ resolveWithObject: true })
   const i = (y * info.width + x) * info.channels
@@ -80,7 +80,7 @@ describe("thumbnails made at upload", () => {
     })
     expect(done.status).toBe(200)
     expect(done.body.attachment.thumbnailUrl).toBe(`/api/attachments/${id}?variant=thumbnail`)
-    const row = (await rowOf(id))!
+    const row = (await storedAttachment(id))!
     expect(row.thumbnail_key).toBe(`${row.object_key}.thumb.jpg`)
     expect(await objectExists(row.thumbnail_key!)).toBe(true)
 
@@ -175,7 +175,7 @@ describe("photos that do not decode", () => {
     expect(done.status).toBe(400)
     expect(done.body.error.code).toBe("invalid_request")
     expect(done.body.error.message).toMatch(/cannot be read.*removed/)
-    expect(await rowOf(id)).toBeUndefined()
+    expect(await storedAttachment(id)).toBeUndefined()
     const detail = await tech.get(`/api/jobs/${job.id}`)
     expect(detail.body.job.attachments.map((a: { id: string }) => a.id)).not.toContain(id)
   })
@@ -185,12 +185,12 @@ describe("photos that do not decode", () => {
     const tech = await signedIn(shop.tech)
     const start = await startUpload(tech, { jobId: job.id, filename: "cut.jpg", contentType: "image/jpeg", bytes: cut })
     await putToPresignedUrl(start.uploadUrl, "image/jpeg", cut)
-    const key = (await rowOf(start.id))!.object_key
+    const key = (await storedAttachment(start.id))!.object_key
     const done = await completeUpload(tech, start.id)
     expect(done.status).toBe(400)
     expect(await objectExists(key)).toBe(false)
     expect(await objectExists(`${key}.thumb.jpg`)).toBe(false)
-    expect(await rowOf(start.id)).toBeUndefined()
+    expect(await storedAttachment(start.id)).toBeUndefined()
   })
 
   it("keeps a HEIC photo without a thumbnail (no HEVC decoder in the image library) and sends the photo itself", async () => {
@@ -203,7 +203,7 @@ describe("photos that do not decode", () => {
     const tech = await signedIn(shop.tech)
     const { id, done } = await upload(tech, "IMG_0042.HEIC", "image/heic", heic)
     expect(done.status).toBe(200)
-    expect((await rowOf(id))!.thumbnail_key).toBeNull()
+    expect((await storedAttachment(id))!.thumbnail_key).toBeNull()
     const thumb = await tech.getBytes(`/api/attachments/${id}?variant=thumbnail`)
     expect(thumb.status).toBe(200)
     expect(thumb.bytes.equals(heic)).toBe(true)

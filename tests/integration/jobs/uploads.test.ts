@@ -1,6 +1,6 @@
 import { PDFDocument } from "pdf-lib"
 import { beforeAll, describe, expect, it } from "vitest"
-import { createTestShop, testDb, type TestShop } from "../../helpers/db"
+import { createTestShop, type TestShop } from "../../helpers/db"
 import { type ApiClient, signedIn } from "../../helpers/http"
 import {
   completeUpload,
@@ -9,6 +9,7 @@ import {
   objectExists,
   putToPresignedUrl,
   startUpload,
+  storedAttachment,
   TINY_PNG,
   uploadFile,
 } from "./helpers"
@@ -34,12 +35,7 @@ function upload(client: ApiClient, filename: string, contentType: string, bytes:
 }
 
 async function objectKeyOf(attachmentId: string) {
-  const row = await testDb()
-    .selectFrom("attachment")
-    .select("object_key")
-    .where("id", "=", attachmentId)
-    .executeTakeFirst()
-  return row?.object_key
+  return (await storedAttachment(attachmentId))?.object_key
 }
 
 describe("POST /api/uploads", () => {
