@@ -9,7 +9,7 @@ export type ShopTeam = { shop: TestShop; admin: ApiClient; lead: ApiClient; tech
  * A fresh shop for the enclosing describe block, made in a beforeAll, with its people signed in. The fields are
  * there once the block's tests run (not while the block is being declared).
  */
-export function useShopTeam(label: string): ShopTeam {
+export function setUpShopTeam(label: string): ShopTeam {
   const team = {} as ShopTeam
   beforeAll(async () => {
     const shop = await createTestShop(label)

@@ -7,13 +7,13 @@ import { generateDrive } from "@/lib/tracks"
 import { withCheckDigit } from "@/lib/vin"
 import { createTestProfile, createTestShop, insertDrives, testDb } from "../../helpers/db"
 import { ApiClient, signedIn } from "../../helpers/http"
-import { useShopTeam } from "../../helpers/team"
+import { setUpShopTeam } from "../../helpers/team"
 import { sampleRun, startDrive } from "./helpers"
 
 const SECONDS_TOLERANCE = 2 // drive-file.md: checks allow +-2 s
 
 describe("POST /api/drives and GET /api/drives", () => {
-  const team = useShopTeam("Drives")
+  const team = setUpShopTeam("Drives")
 
   it("makes a drive once per client id: the same id again is a 200 with the same drive", async () => {
     const id = randomUUID()
@@ -210,7 +210,7 @@ describe("marks", () => {
 })
 
 describe("finish, score and file", () => {
-  const team = useShopTeam("Finish")
+  const team = setUpShopTeam("Finish")
   const file: DriveFile = generateDrive({ seed: 4242, minutes: 18, pattern: "met" })
 
   async function recordWholeDrive() {

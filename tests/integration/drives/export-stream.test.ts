@@ -14,7 +14,7 @@ import { generateDrive } from "@/lib/tracks"
 import { testEnv } from "../../helpers/env"
 import { createTestShop, testDb, type TestShop } from "../../helpers/db"
 import { ApiClient, signedIn } from "../../helpers/http"
-import { useShopTeam } from "../../helpers/team"
+import { setUpShopTeam } from "../../helpers/team"
 import { startDrive } from "./helpers"
 
 function expectErrorShape(res: { status: number; body: any }, status: number) {
@@ -38,7 +38,7 @@ function bigFile(): DriveFile {
 }
 
 describe("GET /api/drives/:id/file streamed", () => {
-  const team = useShopTeam("Export stream")
+  const team = setUpShopTeam("Export stream")
   let other: TestShop
   let imported: string
   let recorded: string

@@ -8,7 +8,7 @@ import { scoreDrive } from "@/lib/scoring"
 import { createTestShop, testDb, type TestShop } from "../../helpers/db"
 import { testEnv } from "../../helpers/env"
 import { ApiClient, signedIn } from "../../helpers/http"
-import { useShopTeam } from "../../helpers/team"
+import { setUpShopTeam } from "../../helpers/team"
 import { sampleRun, startDrive } from "./helpers"
 
 interface SseEvent {
@@ -112,7 +112,7 @@ const mark = (t: number, kind: ApiMark["kind"], extra: Partial<ApiMark> = {}): A
 })
 
 describe("GET /api/drives/:id/live", () => {
-  const team = useShopTeam("Live")
+  const team = setUpShopTeam("Live")
   let other: TestShop
   const open: Stream[] = []
   beforeAll(async () => {
@@ -234,7 +234,7 @@ describe("GET /api/drives/:id/live", () => {
 })
 
 describe("the server's live score", () => {
-  const team = useShopTeam("Live score")
+  const team = setUpShopTeam("Live score")
 
   it("equals scoreDrive of the stored data after random batches and marks, late and repeated ones too", async () => {
     const file = generateDrive({ seed: 31, startMs: Date.UTC(2026, 2, 3, 9), hz: 2, minutes: 16, pattern: "met" })

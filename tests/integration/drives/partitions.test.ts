@@ -8,7 +8,7 @@ import {
 } from "@/db/queries/sample-retention"
 import { createTestShop, testDb } from "../../helpers/db"
 import { signedIn, type ApiClient } from "../../helpers/http"
-import { useShopTeam } from "../../helpers/team"
+import { setUpShopTeam } from "../../helpers/team"
 import { sampleRun, startDrive } from "./helpers"
 
 // Samples are partitioned by month on `t` (migration 2026_12_02_1540_partitioned_samples, pg_partman).
@@ -52,8 +52,8 @@ describe("sample retention", () => {
   // Two months long past (1999) that no other test writes in, made as partman would have made them then.
   const OLD = monthStart(1999, 1) // Feb 1999: shop A and shop B have samples here
   const OLDER_ONLY_A = monthStart(1999, 2) // Mar 1999: only shop A has samples here
-  const shopA = useShopTeam("Retention A")
-  const shopB = useShopTeam("Retention B")
+  const shopA = setUpShopTeam("Retention A")
+  const shopB = setUpShopTeam("Retention B")
   beforeAll(async () => {
     await testDb()
       .transaction()

@@ -5,7 +5,7 @@ import { storedSample } from "@/lib/drive-file/stored"
 import { createTestShop, testDb } from "../../helpers/db"
 import { testEnv } from "../../helpers/env"
 import { signedIn } from "../../helpers/http"
-import { useShopTeam } from "../../helpers/team"
+import { setUpShopTeam } from "../../helpers/team"
 import { addPerson, namedBatchHeaders, postNamedBatch, sampleRun, startDrive } from "./helpers"
 
 async function storedSamples(driveId: string) {
@@ -13,7 +13,7 @@ async function storedSamples(driveId: string) {
 }
 
 describe("POST /api/drives/:id/samples", () => {
-  const team = useShopTeam("Samples")
+  const team = setUpShopTeam("Samples")
 
   it("counts a batch sent twice once", async () => {
     const drive = await startDrive(team.tech)
@@ -170,7 +170,7 @@ describe("POST /api/drives/:id/samples", () => {
 // Batches that name themselves in x-batch-id (the recorder's) are answered by the app's own server before Next.js
 // (app/_server/early-routes.ts); the others by Next and the route file. Both must answer alike.
 describe("POST /api/drives/:id/samples named in x-batch-id (the app's server answers it)", () => {
-  const team = useShopTeam("SamplesEarly")
+  const team = setUpShopTeam("SamplesEarly")
 
   it("stores a batch and answers with the same headers as Next does", async () => {
     const drive = await startDrive(team.tech)

@@ -9,7 +9,7 @@ import { scoreDrive } from "@/lib/scoring"
 import { generateDrive } from "@/lib/tracks"
 import { createTestShop, testDb } from "../../helpers/db"
 import { signedIn, type ApiClient } from "../../helpers/http"
-import { useShopTeam } from "../../helpers/team"
+import { setUpShopTeam } from "../../helpers/team"
 import { waitForMail } from "../review/fixtures"
 import { postNamedBatch, startDrive } from "./helpers"
 
@@ -44,7 +44,7 @@ async function countRows(publicId: string, shopId: string) {
 }
 
 describe("Finish sent together with the last batches and marks", () => {
-  const team = useShopTeam("SealRace")
+  const team = setUpShopTeam("SealRace")
 
   it("stores, 30 times in 30, the score of everything accepted: equal to scoreDrive of the exported file", async () => {
     const file: DriveFile = generateDrive({ seed: 31, minutes: 20, pattern: "met" })
@@ -100,7 +100,7 @@ describe("Finish sent together with the last batches and marks", () => {
 })
 
 describe("a sealed drive", () => {
-  const team = useShopTeam("Sealed")
+  const team = setUpShopTeam("Sealed")
 
   /** A 31-min drive that ended just now and never reported the learn complete: Not met. */
   async function finishedNeverCleared() {
