@@ -1,8 +1,9 @@
 import { DeleteObjectCommand, HeadObjectCommand, S3Client } from "@aws-sdk/client-s3"
-import { expect } from "vitest"
+import { beforeAll, expect } from "vitest"
 import { withCheckDigit } from "@/lib/vin"
 import { testDb } from "../../helpers/db"
 import type { ApiClient } from "../../helpers/http"
+import { type ShopTeam, setUpShopTeam } from "../../helpers/team"
 
 let counter = 0
 
@@ -28,6 +29,15 @@ export async function createJob(client: ApiClient, overrides: Record<string, unk
   const res = await client.post("/api/jobs", newJobBody(overrides))
   if (res.status !== 201) throw new Error(`job create failed: ${res.status} ${res.text}`)
   return res.body.job
+}
+
+/** A fresh shop with its people signed in (setUpShopTeam) and one job its lead made, for the enclosing block. */
+export function setUpShopWithJob(label: string) {
+  const team = setUpShopTeam(label) as ShopTeam & { job: { id: string; tasks: { id: string }[] } }
+  beforeAll(async () => {
+    team.job = await createJob(team.lead)
+  })
+  return team
 }
 
 export function testS3() {

@@ -1,21 +1,20 @@
 import { PDFDocument, PDFName, PDFNumber, PDFRawStream } from "pdf-lib"
 import sharp from "sharp"
 import { beforeAll, describe, expect, it } from "vitest"
-import { createTestShop, type TestShop } from "../../helpers/db"
+import { createTestShop } from "../../helpers/db"
 import { type ApiClient, signedIn } from "../../helpers/http"
 import { insertJob, insertScoredDrive } from "../review/fixtures"
 import {
   completeUpload,
-  createJob,
   objectExists,
   putToPresignedUrl,
   startUpload,
   storedAttachment,
   uploadFile,
+  setUpShopWithJob,
 } from "./helpers"
 
-let shop: TestShop
-let job: { id: string; tasks: { id: string }[] }
+const team = setUpShopWithJob("Thumbnails")
 let landscape: Buffer
 
 const W = 3000
@@ -52,7 +51,7 @@ async function phonePhoto() {
 
 /** A whole upload of `bytes` to the suite's job, on no task. */
 function upload(client: ApiClient, filename: string, contentType: string, bytes: Uint8Array) {
-  return uploadFile(client, { jobId: job.id, taskId: null, filename, contentType, bytes })
+  return uploadFile(client, { jobId: team.job.id, taskId: null, filename, contentType, bytes })
 }
 
 async function pixel(image: Buffer, x: number, y: number) {
@@ -62,18 +61,16 @@ async function pixel(image: Buffer, x: number, y: number) {
 }
 
 beforeAll(async () => {
-  shop = await createTestShop("Thumbnails")
-  job = await createJob(await signedIn(shop.lead))
   landscape = await phonePhoto()
 })
 
 describe("thumbnails made at upload", () => {
   it("stores a 320 px JPEG of a phone photo, turned upright by its EXIF orientation, without its metadata", async () => {
     expect((await sharp(landscape).metadata()).orientation).toBe(6)
-    const tech = await signedIn(shop.tech)
+    const tech = await signedIn(team.shop.tech)
     const { id, done } = await uploadFile(tech, {
-      jobId: job.id,
-      taskId: job.tasks[0]!.id,
+      jobId: team.job.id,
+      taskId: team.job.tasks[0]!.id,
       filename: "bumper.jpg",
       contentType: "image/jpeg",
       bytes: landscape,
@@ -122,7 +119,7 @@ describe("thumbnails made at upload", () => {
       ])
       .png()
       .toBuffer()
-    const tech = await signedIn(shop.tech)
+    const tech = await signedIn(team.shop.tech)
     const { done } = await upload(tech, "placard.png", "image/png", png)
     expect(done.status).toBe(200)
     const thumb = await tech.getBytes(done.body.attachment.thumbnailUrl)
@@ -139,7 +136,7 @@ describe("thumbnails made at upload", () => {
     const small = await sharp({ create: { width: 32, height: 24, channels: 3, background: { r: 200, g: 120, b: 40 } } })
       .webp()
       .toBuffer()
-    const tech = await signedIn(shop.tech)
+    const tech = await signedIn(team.shop.tech)
     const { done } = await upload(tech, "label.webp", "image/webp", small)
     expect(done.status).toBe(200)
     const meta = await sharp((await tech.getBytes(done.body.attachment.thumbnailUrl)).bytes).metadata()
@@ -147,7 +144,7 @@ describe("thumbnails made at upload", () => {
   })
 
   it("answers 404 for another shop's thumbnail and for a co-driver not on the job", async () => {
-    const tech = await signedIn(shop.tech)
+    const tech = await signedIn(team.shop.tech)
     const small = await sharp({ create: { width: 400, height: 300, channels: 3, background: "#336699" } })
       .jpeg()
       .toBuffer()
@@ -157,7 +154,7 @@ describe("thumbnails made at upload", () => {
     const theirs = await (await signedIn(other.lead)).getBytes(done.body.attachment.thumbnailUrl)
     expect(theirs.status).toBe(404)
     expect(theirs.bytes.byteLength).toBeLessThan(500) // the error body, no picture
-    expect((await (await signedIn(shop.codriver)).getBytes(done.body.attachment.thumbnailUrl)).status).toBe(404)
+    expect((await (await signedIn(team.shop.codriver)).getBytes(done.body.attachment.thumbnailUrl)).status).toBe(404)
     expect((await tech.getBytes(`/api/attachments/${done.body.attachment.id}?variant=poster`)).status).toBe(400)
   })
 })
@@ -170,20 +167,25 @@ describe("photos that do not decode", () => {
       Buffer.from("ffd8ffe000104a46494600010100000100010000", "hex"),
       Buffer.alloc(4000, 0x5a),
     ])
-    const tech = await signedIn(shop.tech)
+    const tech = await signedIn(team.shop.tech)
     const { id, done } = await upload(tech, "broken.jpg", "image/jpeg", fake)
     expect(done.status).toBe(400)
     expect(done.body.error.code).toBe("invalid_request")
     expect(done.body.error.message).toMatch(/cannot be read.*removed/)
     expect(await storedAttachment(id)).toBeUndefined()
-    const detail = await tech.get(`/api/jobs/${job.id}`)
+    const detail = await tech.get(`/api/jobs/${team.job.id}`)
     expect(detail.body.job.attachments.map((a: { id: string }) => a.id)).not.toContain(id)
   })
 
   it("refuses a JPEG cut short in transfer, and removes the object", async () => {
     const cut = landscape.subarray(0, Math.floor(landscape.byteLength * 0.4))
-    const tech = await signedIn(shop.tech)
-    const start = await startUpload(tech, { jobId: job.id, filename: "cut.jpg", contentType: "image/jpeg", bytes: cut })
+    const tech = await signedIn(team.shop.tech)
+    const start = await startUpload(tech, {
+      jobId: team.job.id,
+      filename: "cut.jpg",
+      contentType: "image/jpeg",
+      bytes: cut,
+    })
     await putToPresignedUrl(start.uploadUrl, "image/jpeg", cut)
     const key = (await storedAttachment(start.id))!.object_key
     const done = await completeUpload(tech, start.id)
@@ -200,7 +202,7 @@ describe("photos that do not decode", () => {
       "base64",
     )
     expect(heic.byteLength).toBe(488)
-    const tech = await signedIn(shop.tech)
+    const tech = await signedIn(team.shop.tech)
     const { id, done } = await upload(tech, "IMG_0042.HEIC", "image/heic", heic)
     expect(done.status).toBe(200)
     expect((await storedAttachment(id))!.thumbnail_key).toBeNull()
