@@ -1,5 +1,6 @@
 import { randomUUID } from "node:crypto"
 import { createDb, type Db } from "@/db/client"
+import type { NewDrive } from "@/db/types"
 import { hashPassword } from "@/lib/auth/password"
 import { internalDriveId } from "@/lib/drive-id"
 import type { Role } from "@/lib/auth/roles"
@@ -51,6 +52,31 @@ export async function createTestShop(label = "Test"): Promise<TestShop> {
 /** A drive row's ids for a direct insert: its public id (a new one unless given) and the internal id it makes. */
 export function testDriveIds(shopId: string, publicId: string = randomUUID()) {
   return { id: internalDriveId(shopId, publicId), public_id: publicId }
+}
+
+/** A drive row's columns for `insertDrives`: its id follows from `public_id` (a new one unless given), its shop is the shop's. */
+type DriveRow = Partial<Omit<NewDrive, "id" | "shop_id">>
+
+/**
+ * Drive rows written straight into the database for `shop`, with an empty profile and the shop's technician as
+ * driver unless a row says otherwise. Answers each drive's public id (`id`, the one the API knows) and internal id.
+ */
+export async function insertDrives(shop: TestShop, rows: DriveRow[]) {
+  const values = rows.map((row) => ({
+    ...testDriveIds(shop.shopId, row.public_id),
+    shop_id: shop.shopId,
+    profile: "{}",
+    driver_id: shop.tech.id,
+    ...row,
+  }))
+  await testDb().insertInto("drive").values(values).execute()
+  return values.map((v) => ({ id: v.public_id, internalId: v.id }))
+}
+
+/** One drive row written straight into the database for `shop` (see `insertDrives`). */
+export async function insertDrive(shop: TestShop, row: DriveRow = {}) {
+  const [drive] = await insertDrives(shop, [row])
+  return drive!
 }
 
 /** Condition profiles like the demo seed's, for a test shop. */

@@ -24,14 +24,13 @@ export class ApiClient {
     body?: unknown,
     init: { raw?: string | Uint8Array; headers?: Record<string, string> } = {},
   ): Promise<ApiResponse<T>> {
-    const headers: Record<string, string> = { "x-forwarded-for": this.address, ...init.headers }
-    if (this.cookie) headers.cookie = this.cookie
+    const headers = this.headers(init.headers)
     let payload: string | Uint8Array | undefined = init.raw
     if (body !== undefined) {
       headers["content-type"] ??= "application/json"
       payload = JSON.stringify(body)
     }
-    const res = await fetch(`${this.baseUrl ?? testEnv().baseUrl}${path}`, {
+    const res = await fetch(this.url(path), {
       method,
       headers,
       body: payload as BodyInit | undefined,
@@ -46,6 +45,22 @@ export class ApiClient {
     let parsed: unknown = text
     if ((res.headers.get("content-type") ?? "").includes("json") && text) parsed = JSON.parse(text)
     return { status: res.status, headers: res.headers, body: parsed as T, text }
+  }
+
+  /** A GET whose body is kept as bytes (an attachment, a thumbnail, a PDF): ApiClient.get reads bodies as text. */
+  async getBytes(path: string) {
+    const res = await fetch(this.url(path), { headers: this.headers(), redirect: "manual" })
+    return { status: res.status, headers: res.headers, bytes: Buffer.from(await res.arrayBuffer()) }
+  }
+
+  private url(path: string) {
+    return `${this.baseUrl ?? testEnv().baseUrl}${path}`
+  }
+
+  private headers(extra: Record<string, string> = {}) {
+    const headers: Record<string, string> = { "x-forwarded-for": this.address, ...extra }
+    if (this.cookie) headers.cookie = this.cookie
+    return headers
   }
 
   get<T = any>(path: string) {

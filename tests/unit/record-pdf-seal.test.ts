@@ -1,4 +1,3 @@
-import { PDFParse } from "pdf-parse"
 import QRCode from "qrcode"
 import { describe, expect, it } from "vitest"
 import { computeTimeline, type RecordData } from "@/lib/record"
@@ -7,15 +6,7 @@ import { verifyLink } from "@/lib/record/pdf-seal"
 import { resolveProfile } from "@/lib/drive-file/profile"
 import { scoreDrive } from "@/lib/scoring"
 import { generateDrive } from "@/lib/tracks"
-
-async function pdfText(bytes: Uint8Array) {
-  const parser = new PDFParse({ data: Buffer.from(bytes) })
-  try {
-    return (await parser.getText()).text
-  } finally {
-    await parser.destroy()
-  }
-}
+import { pdfText } from "../helpers/pdf"
 
 function record(seal?: RecordData["seal"]): RecordData {
   const file = generateDrive({ seed: 3, pattern: "short", minutes: 9 })

@@ -1,4 +1,3 @@
-import { PDFParse } from "pdf-parse"
 import { describe, expect, it } from "vitest"
 import { resolveProfile } from "@/lib/drive-file/profile"
 import { checklistRows, computeTimeline, formatDuration, projectTrack, roLabel, type RecordData } from "@/lib/record"
@@ -6,6 +5,8 @@ import { buildDriveRecordPdf } from "@/lib/record/pdf"
 import { scoreDrive } from "@/lib/scoring"
 import { generateDrive } from "@/lib/tracks"
 import { withCheckDigit } from "@/lib/vin"
+import { checklistBody } from "../helpers/checklist"
+import { pdfText } from "../helpers/pdf"
 
 // A 1x1 PNG (PNG spec, ISO/IEC 15948: signature, IHDR, IDAT, IEND).
 const PNG_1X1 = Uint8Array.from(
@@ -14,15 +15,6 @@ const PNG_1X1 = Uint8Array.from(
     "base64",
   ),
 )
-
-async function pdfText(bytes: Uint8Array) {
-  const parser = new PDFParse({ data: Buffer.from(bytes) })
-  try {
-    return (await parser.getText()).text
-  } finally {
-    await parser.destroy()
-  }
-}
 
 function recordFor(pattern: "met" | "short", vin: string): RecordData {
   const file = generateDrive({ seed: pattern === "met" ? 11 : 12, pattern, minutes: pattern === "met" ? 18 : 9 })
@@ -36,16 +28,7 @@ function recordFor(pattern: "met" | "short", vin: string): RecordData {
     task: { sensor: "forward_radar", method: "dynamic", reason: "bumper_or_grille_work" },
     profileName: "Forward radar, drive learn",
     checklist: {
-      rows: checklistRows({
-        faultCodes: { none: true, expected: [] },
-        tires: { unit: "psi", placard: 35, fl: 35, fr: 34, rl: 35, rr: 36 },
-        loadNormal: true,
-        fuelLevel: "3/4",
-        sensorClean: true,
-        mountUndamaged: true,
-        alignmentChecked: true,
-        notes: "",
-      }),
+      rows: checklistRows(checklistBody({ tires: { unit: "psi", placard: 35, fl: 35, fr: 34, rl: 35, rr: 36 } })),
       notes: "Cover wiped before the drive.",
       completedBy: "Ada Fenwick",
       completedAt: "2026-03-02T09:00:00.000Z",

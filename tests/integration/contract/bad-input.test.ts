@@ -3,9 +3,10 @@
 import { randomUUID } from "node:crypto"
 import { beforeAll, describe, expect, it } from "vitest"
 import { withCheckDigit } from "@/lib/vin"
+import { checklistBody } from "../../helpers/checklist"
 import type { ApiClient, ApiResponse } from "../../helpers/http"
 import { inventedVin } from "../jobs/helpers"
-import { buildWorld, checklistBody, driveFile, expectErrorShape, snapshotShop, type World } from "./world"
+import { buildWorld, driveFile, expectErrorShape, snapshotShop, type World } from "./world"
 
 let w: World
 

@@ -5,7 +5,8 @@ import { beforeAll, describe, expect, it } from "vitest"
 import { internalDriveId } from "@/lib/drive-id"
 import { testDb } from "../../helpers/db"
 import { ApiClient, signedIn } from "../../helpers/http"
-import { createJob, newJobBody, putToPresignedUrl, TINY_PNG } from "../jobs/helpers"
+import { ALWAYS_CONDITIONS, SCORE_FIELDS } from "../../helpers/score"
+import { completeUpload, createJob, newJobBody, startUpload, TINY_PNG, uploadFile } from "../jobs/helpers"
 import {
   buildWorld,
   countShopRows,
@@ -26,29 +27,12 @@ beforeAll(async () => {
 })
 
 // shared/specs/drive-file.md "Score": the fields a score always has.
-const SCORE_FIELDS = [
-  "verdict",
-  "reasons",
-  "durationSeconds",
-  "distanceMeters",
-  "gapSeconds",
-  "qualifyingSeconds",
-  "followingSeconds",
-  "qualifyingSecondsBeforeClear",
-  "followingSecondsBeforeClear",
-  "clearedAtSeconds",
-  "harshEvents",
-  "samplesUsed",
-  "samplesDropped",
-  "conditions",
-]
-
 function expectScore(score: any) {
   for (const f of SCORE_FIELDS) expect(score, `score.${f}`).toHaveProperty(f)
   expect(["met", "short", "not_met", "unverified"]).toContain(score.verdict)
   expect(Object.keys(score.harshEvents).sort()).toEqual(["accel", "decel"])
   const keys = score.conditions.map((c: { key: string }) => c.key)
-  for (const k of ["qualifying-time", "following-time", "cleared", "verified"]) expect(keys).toContain(k)
+  for (const k of ALWAYS_CONDITIONS) expect(keys).toContain(k)
 }
 
 const USER_FIELDS = ["id", "email", "name", "role", "shopId"]
@@ -406,31 +390,30 @@ describe("uploads", () => {
 
   it("POST /api/uploads/:id/complete: 200 {attachment} when the bytes match; 400 otherwise", async () => {
     const pdf = await onePagePdf()
-    const ok = await w.c.technician.post("/api/uploads", {
+    const tech = w.c.technician
+    const ok = await uploadFile(tech, {
       jobId: w.job.id,
       filename: "b.pdf",
       contentType: "application/pdf",
-      size: pdf.length,
+      bytes: pdf,
     })
-    await putToPresignedUrl(ok.body.uploadUrl, "application/pdf", pdf)
-    const done = await w.c.technician.post(`/api/uploads/${ok.body.attachmentId}/complete`)
-    expect(done.status).toBe(200)
-    expect(done.body.attachment).toMatchObject({ id: ok.body.attachmentId, contentType: "application/pdf" })
-    const liar = await w.c.technician.post("/api/uploads", {
+    expect(ok.done.status).toBe(200)
+    expect(ok.done.body.attachment).toMatchObject({ id: ok.id, contentType: "application/pdf" })
+    const liar = await uploadFile(tech, {
       jobId: w.job.id,
       filename: "c.pdf",
       contentType: "application/pdf",
-      size: TINY_PNG.length,
+      bytes: TINY_PNG,
     })
-    await putToPresignedUrl(liar.body.uploadUrl, "application/pdf", TINY_PNG)
-    expectErrorShape(await w.c.technician.post(`/api/uploads/${liar.body.attachmentId}/complete`), 400)
-    const missing = await w.c.technician.post("/api/uploads", {
+    expectErrorShape(liar.done, 400)
+    // Nothing was put at the address yet.
+    const missing = await startUpload(tech, {
       jobId: w.job.id,
       filename: "d.png",
       contentType: "image/png",
-      size: 10,
+      bytes: new Uint8Array(10),
     })
-    expectErrorShape(await w.c.technician.post(`/api/uploads/${missing.body.attachmentId}/complete`), 400)
+    expectErrorShape(await completeUpload(tech, missing.id), 400)
   })
 })
 

@@ -4,11 +4,11 @@
 import { randomUUID } from "node:crypto"
 import { beforeAll, describe, expect, it } from "vitest"
 import { internalDriveId } from "@/lib/drive-id"
+import { checklistBody } from "../../helpers/checklist"
 import { createTestShop, testDb } from "../../helpers/db"
 import { signedIn, type ApiClient } from "../../helpers/http"
 import {
   buildWorld,
-  checklistBody,
   driveFile,
   expectErrorShape,
   recordedDrive,

@@ -4,11 +4,11 @@
 // Routes not in api.md's table follow DEVELOPERS.md's route table (users: admin; profiles: shop lead; ...).
 import { randomUUID } from "node:crypto"
 import { beforeAll, describe, expect, it } from "vitest"
+import { checklistBody } from "../../helpers/checklist"
 import { signedIn, type ApiClient, type ApiResponse } from "../../helpers/http"
 import { newJobBody } from "../jobs/helpers"
 import {
   buildWorld,
-  checklistBody,
   driveFile,
   expectErrorShape,
   importDrive,

@@ -4,6 +4,7 @@ import { randomUUID } from "node:crypto"
 import { expect } from "vitest"
 import type { Sample } from "@/lib/drive-file"
 import { generateDrive } from "@/lib/tracks"
+import { checklistBody } from "../../helpers/checklist"
 import { createTestShop, testDb, type TestShop, type TestUser } from "../../helpers/db"
 import { ApiClient, signedIn, type ApiResponse } from "../../helpers/http"
 import { addPerson } from "../drives/helpers"
@@ -150,25 +151,14 @@ export async function buildWorld(label: string): Promise<World> {
   }
 }
 
+// The e2e suites take the checklist from here.
+export { checklistBody }
+
 /** A real one-page PDF (pdf-lib): attachments whose bytes match their declared type. */
 export async function onePagePdf(): Promise<Uint8Array> {
   const doc = await PDFDocument.create()
   doc.addPage([200, 200])
   return doc.save()
-}
-
-export function checklistBody(overrides: Record<string, unknown> = {}) {
-  return {
-    faultCodes: { none: true, expected: [] },
-    tires: { unit: "psi", placard: 35, fl: 35, fr: 35, rl: 35, rr: 35 },
-    loadNormal: true,
-    fuelLevel: "3/4",
-    sensorClean: true,
-    mountUndamaged: true,
-    alignmentChecked: true,
-    notes: "",
-    ...overrides,
-  }
 }
 
 /** The API's error shape (api.md "Errors"): `{error:{code,message,fields?}}` with nothing else beside it. */

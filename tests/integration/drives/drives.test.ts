@@ -1,30 +1,26 @@
 import { randomUUID } from "node:crypto"
-import { beforeAll, describe, expect, it } from "vitest"
+import { describe, expect, it } from "vitest"
 import { internalDriveId } from "@/lib/drive-id"
 import { parseDriveFile, type DriveFile } from "@/lib/drive-file"
 import { scoreDrive } from "@/lib/scoring"
 import { generateDrive } from "@/lib/tracks"
 import { withCheckDigit } from "@/lib/vin"
-import { createTestProfile, createTestShop, testDb, type TestShop } from "../../helpers/db"
+import { createTestProfile, createTestShop, insertDrives, testDb } from "../../helpers/db"
 import { ApiClient, signedIn } from "../../helpers/http"
+import { setUpShopTeam } from "../../helpers/team"
 import { sampleRun, startDrive } from "./helpers"
 
 const SECONDS_TOLERANCE = 2 // drive-file.md: checks allow +-2 s
 
 describe("POST /api/drives and GET /api/drives", () => {
-  let shop: TestShop
-  let tech: ApiClient
-  beforeAll(async () => {
-    shop = await createTestShop("Drives")
-    tech = await signedIn(shop.tech)
-  })
+  const team = setUpShopTeam("Drives")
 
   it("makes a drive once per client id: the same id again is a 200 with the same drive", async () => {
     const id = randomUUID()
-    const first = await tech.post("/api/drives", { id, vehicleDescription: "Invented Tarrow hatchback" })
+    const first = await team.tech.post("/api/drives", { id, vehicleDescription: "Invented Tarrow hatchback" })
     expect(first.status).toBe(201)
-    expect(first.body.drive).toMatchObject({ id, status: "recording", driverId: shop.tech.id, verdict: null })
-    const again = await tech.post("/api/drives", { id, vehicleDescription: "something else" })
+    expect(first.body.drive).toMatchObject({ id, status: "recording", driverId: team.shop.tech.id, verdict: null })
+    const again = await team.tech.post("/api/drives", { id, vehicleDescription: "something else" })
     expect(again.status).toBe(200)
     expect(again.body.drive.vehicleDescription).toBe("Invented Tarrow hatchback")
     const rows = await testDb().selectFrom("drive").select("id").where("public_id", "=", id).execute()
@@ -32,13 +28,18 @@ describe("POST /api/drives and GET /api/drives", () => {
   })
 
   it("starts an unplanned drive from a call with no body at all (every field is optional)", async () => {
-    const res = await tech.request("POST", "/api/drives")
+    const res = await team.tech.request("POST", "/api/drives")
     expect(res.status).toBe(201)
-    expect(res.body.drive).toMatchObject({ status: "recording", jobId: null, taskId: null, driverId: shop.tech.id })
+    expect(res.body.drive).toMatchObject({
+      status: "recording",
+      jobId: null,
+      taskId: null,
+      driverId: team.shop.tech.id,
+    })
   })
 
   it("lists a job's vehicle with its drives", async () => {
-    const job = await tech.post("/api/jobs", {
+    const job = await team.tech.post("/api/jobs", {
       roNumber: `RO-${randomUUID().slice(0, 6)}`,
       customer: { name: "Invented Customer" },
       vehicle: { vin: "1J9RP1A36A1644345", year: 2010, make: "Invented", model: "Larkin" },
@@ -47,32 +48,34 @@ describe("POST /api/drives and GET /api/drives", () => {
     expect(job.status).toBe(201)
     const id = randomUUID()
     expect(
-      (await tech.post("/api/drives", { id, jobId: job.body.job.id, taskId: job.body.job.tasks[0].id })).status,
+      (await team.tech.post("/api/drives", { id, jobId: job.body.job.id, taskId: job.body.job.tasks[0].id })).status,
     ).toBe(201)
-    const listed = (await tech.get("/api/drives")).body.drives.find((d: { id: string }) => d.id === id)
+    const listed = (await team.tech.get("/api/drives")).body.drives.find((d: { id: string }) => d.id === id)
     expect(listed.vehicle).toEqual({ year: 2010, make: "Invented", model: "Larkin" })
   })
 
   // Drive ids are per shop (DEVELOPERS.md "Drive ids: public per shop, internal across the server").
   it("makes another shop's drive with an id this shop uses its own new drive, showing nothing of this one", async () => {
-    const drive = await startDrive(tech, { vehicleDescription: "Secret description 4471" })
+    const drive = await startDrive(team.tech, { vehicleDescription: "Secret description 4471" })
     const other = await createTestShop("Other")
     const res = await (await signedIn(other.tech)).post("/api/drives", { id: drive.id })
     expect(res.status).toBe(201)
     expect(res.body.drive).toMatchObject({ id: drive.id, driverId: other.tech.id, vehicleDescription: null })
     expect(res.text).not.toContain("Secret description 4471")
-    expect(res.text).not.toContain(shop.tech.id)
+    expect(res.text).not.toContain(team.shop.tech.id)
     // this shop's drive is as it was
-    expect((await tech.get(`/api/drives/${drive.id}`)).body.drive).toMatchObject({
+    expect((await team.tech.get(`/api/drives/${drive.id}`)).body.drive).toMatchObject({
       vehicleDescription: "Secret description 4471",
-      driverId: shop.tech.id,
+      driverId: team.shop.tech.id,
     })
   })
 
   it("freezes the default profile when none is named, and a shop profile by key", async () => {
-    const plain = await startDrive(tech)
+    const plain = await startDrive(team.tech)
     expect(plain.profile).toMatchObject({ minSpeedMph: 35, leadGapFt: { min: 100, max: 165 }, maxSpeedMph: null })
-    const { versionId } = await createTestProfile(shop.shopId, `slow-${randomUUID().slice(0, 6)}`, { minSpeedMph: 30 })
+    const { versionId } = await createTestProfile(team.shop.shopId, `slow-${randomUUID().slice(0, 6)}`, {
+      minSpeedMph: 30,
+    })
     const key = (
       await testDb()
         .selectFrom("condition_profile_version as v")
@@ -81,19 +84,19 @@ describe("POST /api/drives and GET /api/drives", () => {
         .where("v.id", "=", versionId)
         .executeTakeFirstOrThrow()
     ).key
-    const keyed = await startDrive(tech, { profileKey: key })
+    const keyed = await startDrive(team.tech, { profileKey: key })
     expect(keyed.profile).toMatchObject({ minSpeedMph: 30, minQualifyingMinutes: 10 })
     expect(keyed.profileVersionId).toBe(versionId)
-    const bad = await tech.post("/api/drives", { id: randomUUID(), profileKey: "no-such-profile" })
+    const bad = await team.tech.post("/api/drives", { id: randomUUID(), profileKey: "no-such-profile" })
     expect(bad.status).toBe(400)
     expect(bad.body.error.fields).toHaveProperty(["profileKey"])
   })
 
   it("answers 400 naming a job of another shop, and 403 to a co-driver starting a drive", async () => {
-    const res = await tech.post("/api/drives", { id: randomUUID(), jobId: randomUUID() })
+    const res = await team.tech.post("/api/drives", { id: randomUUID(), jobId: randomUUID() })
     expect(res.status).toBe(400)
     expect(res.body.error.fields).toHaveProperty(["jobId"])
-    const co = await signedIn(shop.codriver)
+    const co = await signedIn(team.shop.codriver)
     expect((await co.post("/api/drives", { id: randomUUID() })).status).toBe(403)
   })
 
@@ -122,18 +125,10 @@ describe("POST /api/drives and GET /api/drives", () => {
   it("pages with the cursor without skipping or repeating a drive", async () => {
     const s = await createTestShop("Paging")
     const ids = Array.from({ length: 55 }, () => randomUUID())
-    await testDb()
-      .insertInto("drive")
-      .values(
-        ids.map((id) => ({
-          id: internalDriveId(s.shopId, id),
-          public_id: id,
-          shop_id: s.shopId,
-          profile: JSON.stringify({}),
-          driver_id: s.tech.id,
-        })),
-      )
-      .execute()
+    await insertDrives(
+      s,
+      ids.map((id) => ({ public_id: id })),
+    )
     const t = await signedIn(s.tech)
     const page1 = await t.get("/api/drives")
     expect(page1.body.drives).toHaveLength(50)
@@ -215,25 +210,19 @@ describe("marks", () => {
 })
 
 describe("finish, score and file", () => {
-  let shop: TestShop
-  let tech: ApiClient
-  let file: DriveFile
-  beforeAll(async () => {
-    shop = await createTestShop("Finish")
-    tech = await signedIn(shop.tech)
-    file = generateDrive({ seed: 4242, minutes: 18, pattern: "met" })
-  })
+  const team = setUpShopTeam("Finish")
+  const file: DriveFile = generateDrive({ seed: 4242, minutes: 18, pattern: "met" })
 
   async function recordWholeDrive() {
-    const drive = await startDrive(tech)
+    const drive = await startDrive(team.tech)
     for (let i = 0; i < file.samples.length; i += 300) {
-      const res = await tech.post(`/api/drives/${drive.id}/samples`, {
+      const res = await team.tech.post(`/api/drives/${drive.id}/samples`, {
         batchId: `b${i}`,
         samples: file.samples.slice(i, i + 300),
       })
       expect(res.status).toBe(200)
     }
-    const res = await tech.post(`/api/drives/${drive.id}/marks`, {
+    const res = await team.tech.post(`/api/drives/${drive.id}/marks`, {
       marks: file.marks.map((m) => ({ ...m, id: randomUUID() })),
     })
     expect(res.body.accepted).toBe(file.marks.length)
@@ -244,12 +233,12 @@ describe("finish, score and file", () => {
     const drive = await recordWholeDrive()
     const expected = scoreDrive(file)
     expect(expected.verdict).toBe("met") // the generator's "met" pattern
-    const finished = await tech.post(`/api/drives/${drive.id}/finish`)
+    const finished = await team.tech.post(`/api/drives/${drive.id}/finish`)
     expect(finished.status).toBe(200)
     expect(finished.body.drive).toMatchObject({ status: "finished", verdict: "met" })
     expect(finished.body.drive.finishedAt).toEqual(expect.any(String))
-    const score = await tech.get(`/api/drives/${drive.id}/score`)
-    const exported = await tech.get(`/api/drives/${drive.id}/file?format=drive`)
+    const score = await team.tech.get(`/api/drives/${drive.id}/score`)
+    const exported = await team.tech.get(`/api/drives/${drive.id}/file?format=drive`)
     expect(exported.headers.get("content-disposition")).toMatch(/^attachment; filename="straightaway-.*\.drive\.json"$/)
     const parsed = parseDriveFile(JSON.parse(exported.text))
     expect(parsed.ok).toBe(true)
@@ -262,36 +251,36 @@ describe("finish, score and file", () => {
     const stored = await testDb()
       .selectFrom("score")
       .selectAll()
-      .where("drive_id", "=", internalDriveId(shop.shopId, drive.id))
+      .where("drive_id", "=", internalDriveId(team.shop.shopId, drive.id))
       .executeTakeFirstOrThrow()
     expect(stored.verdict).toBe("met")
   })
 
   it("exports GPX 1.1 and CSV as downloads", async () => {
     const drive = await recordWholeDrive()
-    const gpx = await tech.get(`/api/drives/${drive.id}/file?format=gpx`)
+    const gpx = await team.tech.get(`/api/drives/${drive.id}/file?format=gpx`)
     expect(gpx.status).toBe(200)
     expect(gpx.headers.get("content-type")).toMatch(/application\/gpx\+xml/)
     expect(gpx.headers.get("content-disposition")).toMatch(/\.gpx"$/)
     expect(gpx.text).toContain('xmlns="http://www.topografix.com/GPX/1/1"') // GPX 1.1 schema namespace
     // GPX carries the kept samples (those within the accuracy limit)
     expect(gpx.text.match(/<trkpt /g)?.length).toBe(scoreDrive(file).samplesUsed)
-    const csv = await tech.get(`/api/drives/${drive.id}/file?format=csv`)
+    const csv = await team.tech.get(`/api/drives/${drive.id}/file?format=csv`)
     expect(csv.headers.get("content-type")).toMatch(/text\/csv/)
     expect(csv.text.trim().split(/\r?\n/)).toHaveLength(file.samples.length + 1)
-    expect((await tech.get(`/api/drives/${drive.id}/file?format=kml`)).status).toBe(400)
+    expect((await team.tech.get(`/api/drives/${drive.id}/file?format=kml`)).status).toBe(400)
   })
 
   it("moves the job to drive on start and to complete on a met finish", async () => {
     const vehicle = await testDb()
       .insertInto("vehicle")
-      .values({ shop_id: shop.shopId, vin: withCheckDigit("0ZT7B2C40TS018342") })
+      .values({ shop_id: team.shop.shopId, vin: withCheckDigit("0ZT7B2C40TS018342") })
       .returning("id")
       .executeTakeFirstOrThrow()
     const job = await testDb()
       .insertInto("job")
       .values({
-        shop_id: shop.shopId,
+        shop_id: team.shop.shopId,
         ro_number: `RO-${randomUUID().slice(0, 6)}`,
         customer_name: "Invented Customer",
         vehicle_id: vehicle.id,
@@ -300,29 +289,37 @@ describe("finish, score and file", () => {
       .executeTakeFirstOrThrow()
     const task = await testDb()
       .insertInto("job_task")
-      .values({ shop_id: shop.shopId, job_id: job.id, sensor: "forward_radar", method: "dynamic", reason: "replaced" })
+      .values({
+        shop_id: team.shop.shopId,
+        job_id: job.id,
+        sensor: "forward_radar",
+        method: "dynamic",
+        reason: "replaced",
+      })
       .returning("id")
       .executeTakeFirstOrThrow()
-    const drive = await startDrive(tech, { taskId: task.id })
+    const drive = await startDrive(team.tech, { taskId: task.id })
     expect(drive.jobId).toBe(job.id)
     const status = async () =>
       (await testDb().selectFrom("job").select("status").where("id", "=", job.id).executeTakeFirstOrThrow()).status
     expect(await status()).toBe("drive")
-    await tech.post(`/api/drives/${drive.id}/samples`, { batchId: "all", samples: file.samples })
-    await tech.post(`/api/drives/${drive.id}/marks`, { marks: file.marks.map((m) => ({ ...m, id: randomUUID() })) })
-    await tech.post(`/api/drives/${drive.id}/finish`)
+    await team.tech.post(`/api/drives/${drive.id}/samples`, { batchId: "all", samples: file.samples })
+    await team.tech.post(`/api/drives/${drive.id}/marks`, {
+      marks: file.marks.map((m) => ({ ...m, id: randomUUID() })),
+    })
+    await team.tech.post(`/api/drives/${drive.id}/finish`)
     expect(await status()).toBe("complete")
-    const short = await startDrive(tech, { taskId: task.id })
+    const short = await startDrive(team.tech, { taskId: task.id })
     expect(await status()).toBe("drive")
-    await tech.post(`/api/drives/${short.id}/samples`, { batchId: "few", samples: sampleRun(20) })
-    await tech.post(`/api/drives/${short.id}/finish`)
+    await team.tech.post(`/api/drives/${short.id}/samples`, { batchId: "few", samples: sampleRun(20) })
+    await team.tech.post(`/api/drives/${short.id}/finish`)
     expect(await status()).toBe("review")
   })
 
   it("lets only the driver or a lead finish", async () => {
-    const drive = await startDrive(tech, { coDriverId: shop.codriver.id })
-    expect((await (await signedIn(shop.codriver)).post(`/api/drives/${drive.id}/finish`)).status).toBe(403)
-    expect((await (await signedIn(shop.lead)).post(`/api/drives/${drive.id}/finish`)).status).toBe(200)
+    const drive = await startDrive(team.tech, { coDriverId: team.shop.codriver.id })
+    expect((await (await signedIn(team.shop.codriver)).post(`/api/drives/${drive.id}/finish`)).status).toBe(403)
+    expect((await (await signedIn(team.shop.lead)).post(`/api/drives/${drive.id}/finish`)).status).toBe(200)
   })
 })
 

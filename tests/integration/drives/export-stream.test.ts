@@ -14,6 +14,7 @@ import { generateDrive } from "@/lib/tracks"
 import { testEnv } from "../../helpers/env"
 import { createTestShop, testDb, type TestShop } from "../../helpers/db"
 import { ApiClient, signedIn } from "../../helpers/http"
+import { setUpShopTeam } from "../../helpers/team"
 import { startDrive } from "./helpers"
 
 function expectErrorShape(res: { status: number; body: any }, status: number) {
@@ -37,28 +38,25 @@ function bigFile(): DriveFile {
 }
 
 describe("GET /api/drives/:id/file streamed", () => {
-  let shop: TestShop
+  const team = setUpShopTeam("Export stream")
   let other: TestShop
-  let tech: ApiClient
   let imported: string
   let recorded: string
   beforeAll(async () => {
-    shop = await createTestShop("Export stream")
     other = await createTestShop("Export stream other")
-    tech = await signedIn(shop.tech)
     const file = bigFile()
     expect(file.samples.length).toBeGreaterThan(2 * EXPORT_FETCH_ROWS)
-    const res = await tech.post("/api/drives/import", file)
+    const res = await team.tech.post("/api/drives/import", file)
     expect(res.status).toBe(201)
     imported = res.body.drive.id
     // A drive recorded through the API, still recording (its file is read while nothing is finished).
     const small = generateDrive({ seed: 77, minutes: 3, pattern: "never-cleared" })
-    const drive = await startDrive(tech)
+    const drive = await startDrive(team.tech)
     recorded = drive.id
     for (let i = 0; i < small.samples.length; i += 50) {
       expect(
         (
-          await tech.post(`/api/drives/${drive.id}/samples`, {
+          await team.tech.post(`/api/drives/${drive.id}/samples`, {
             batchId: `b${i}`,
             samples: small.samples.slice(i, i + 50),
           })
@@ -69,27 +67,27 @@ describe("GET /api/drives/:id/file streamed", () => {
       { id: randomUUID(), t: small.samples[10]!.t + 500, kind: "lead-on", gapFt: 135 },
       { id: randomUUID(), t: small.samples[90]!.t, kind: "note", text: "mid\u2011drive" },
     ]
-    expect((await tech.post(`/api/drives/${drive.id}/marks`, { marks })).status).toBe(200)
+    expect((await team.tech.post(`/api/drives/${drive.id}/marks`, { marks })).status).toBe(200)
   })
 
   for (const which of ["imported", "recorded"] as const) {
     it(`sends the ${which} drive's GPX, CSV and drive file exactly as the whole-file functions write them`, async () => {
       const id = which === "imported" ? imported : recorded
-      const file = await loadDriveFile(testDb(), internalDriveId(shop.shopId, id), shop.shopId)
+      const file = await loadDriveFile(testDb(), internalDriveId(team.shop.shopId, id), team.shop.shopId)
       const { vehicle_description } = await testDb()
         .selectFrom("drive")
         .select("vehicle_description")
         .where("public_id", "=", id)
         .executeTakeFirstOrThrow()
-      const gpx = await tech.get(`/api/drives/${id}/file?format=gpx`)
+      const gpx = await team.tech.get(`/api/drives/${id}/file?format=gpx`)
       expect(gpx.status).toBe(200)
       expect(gpx.text).toBe(
         toGpx(file, { name: vehicle_description ?? `Drive ${id.slice(0, 8)}`, creator: "Straightaway" }),
       )
-      const csv = await tech.get(`/api/drives/${id}/file?format=csv`)
+      const csv = await team.tech.get(`/api/drives/${id}/file?format=csv`)
       expect(csv.status).toBe(200)
       expect(csv.text).toBe(toCsv(file))
-      const whole = await tech.get(`/api/drives/${id}/file`)
+      const whole = await team.tech.get(`/api/drives/${id}/file`)
       expect(whole.status).toBe(200)
       expect(whole.text).toBe(JSON.stringify(file))
       if (which === "imported") {
@@ -103,10 +101,10 @@ describe("GET /api/drives/:id/file streamed", () => {
     const stranger = await signedIn(other.tech)
     for (const format of ["gpx", "csv", "drive"]) {
       expectErrorShape(await stranger.get(`/api/drives/${imported}/file?format=${format}`), 404)
-      expectErrorShape(await tech.get(`/api/drives/${randomUUID()}/file?format=${format}`), 404)
+      expectErrorShape(await team.tech.get(`/api/drives/${randomUUID()}/file?format=${format}`), 404)
       expectErrorShape(await new ApiClient().get(`/api/drives/${imported}/file?format=${format}`), 401)
     }
-    expectErrorShape(await tech.get(`/api/drives/${imported}/file?format=kml`), 400)
+    expectErrorShape(await team.tech.get(`/api/drives/${imported}/file?format=kml`), 400)
   })
 
   it("gives the connection back when the reader goes away part-way, and when it reads to the end", async () => {
@@ -115,7 +113,7 @@ describe("GET /api/drives/:id/file streamed", () => {
     for (let i = 0; i < 12; i++) {
       const abort = new AbortController()
       const res = await fetch(`${testEnv().baseUrl}/api/drives/${imported}/file?format=gpx`, {
-        headers: { cookie: tech.cookie!, "x-forwarded-for": tech.address },
+        headers: { cookie: team.tech.cookie!, "x-forwarded-for": team.tech.address },
         signal: abort.signal,
       })
       expect(res.status).toBe(200)
@@ -125,7 +123,7 @@ describe("GET /api/drives/:id/file streamed", () => {
       abort.abort()
       await reader.cancel().catch(() => {})
     }
-    const after = await tech.get(`/api/drives/${imported}/file?format=csv`)
+    const after = await team.tech.get(`/api/drives/${imported}/file?format=csv`)
     expect(after.status).toBe(200)
     // No export transaction is left open on the server.
     const until = Date.now() + 10_000
@@ -143,7 +141,7 @@ describe("GET /api/drives/:id/file streamed", () => {
   })
 
   it("holds its snapshot on a pool of its own, not on the app's", async () => {
-    expect((await tech.get(`/api/drives/${imported}/file?format=csv`)).status).toBe(200)
+    expect((await team.tech.get(`/api/drives/${imported}/file?format=csv`)).status).toBe(200)
     // The download's connection stays idle in its pool for a while (pg's idleTimeoutMillis, 10 s).
     const { rows } = await sql<{ n: number }>`
       select count(*)::int as n from pg_stat_activity where application_name = 'straightaway-downloads'`.execute(

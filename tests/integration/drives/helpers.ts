@@ -11,6 +11,19 @@ export async function startDrive(client: ApiClient, body: Record<string, unknown
   return res.body.drive as { id: string; [k: string]: unknown }
 }
 
+/** The headers of a sample batch that names itself, as the recorder sends it: the app's own server answers it. */
+export function namedBatchHeaders(batchId: string) {
+  return { "x-batch-id": batchId, "content-type": "application/json" }
+}
+
+/** A sample batch posted as the recorder posts it, named in x-batch-id (app/_server/early-routes.ts answers it). */
+export function postNamedBatch(client: ApiClient, driveId: string, batchId: string, samples: unknown[]) {
+  return client.request("POST", `/api/drives/${driveId}/samples`, undefined, {
+    raw: JSON.stringify({ batchId, samples }),
+    headers: namedBatchHeaders(batchId),
+  })
+}
+
 export function sampleRun(count: number, seed = 7, startMs = Date.UTC(2026, 0, 1, 10)): Sample[] {
   const minutes = Math.max(1, Math.ceil(count / 60) + 1)
   return generateDrive({ seed, startMs, minutes, pattern: "never-cleared" }).samples.slice(0, count)

@@ -8,6 +8,7 @@ import { scoreDrive } from "@/lib/scoring"
 import { createTestShop, testDb, type TestShop } from "../../helpers/db"
 import { testEnv } from "../../helpers/env"
 import { ApiClient, signedIn } from "../../helpers/http"
+import { setUpShopTeam } from "../../helpers/team"
 import { sampleRun, startDrive } from "./helpers"
 
 interface SseEvent {
@@ -111,16 +112,11 @@ const mark = (t: number, kind: ApiMark["kind"], extra: Partial<ApiMark> = {}): A
 })
 
 describe("GET /api/drives/:id/live", () => {
-  let shop: TestShop
+  const team = setUpShopTeam("Live")
   let other: TestShop
-  let tech: ApiClient
-  let codriver: ApiClient
   const open: Stream[] = []
   beforeAll(async () => {
-    shop = await createTestShop("Live")
     other = await createTestShop("Live other")
-    tech = await signedIn(shop.tech)
-    codriver = await signedIn(shop.codriver)
   })
   afterEach(() => {
     for (const s of open.splice(0)) s.close()
@@ -132,7 +128,7 @@ describe("GET /api/drives/:id/live", () => {
   }
 
   it("refuses a visitor with 401 and another shop's user with 404, in the error shape", async () => {
-    const drive = await startDrive(tech)
+    const drive = await startDrive(team.tech)
     const anon = await new ApiClient().get(`/api/drives/${drive.id}/live?after=0`)
     expect(anon.status).toBe(401)
     expect(anon.body.error.code).toBe("not_signed_in")
@@ -146,13 +142,13 @@ describe("GET /api/drives/:id/live", () => {
   })
 
   it("opens with a snapshot, then sends a mark stored from another phone with its event id", async () => {
-    const drive = await startDrive(tech, { coDriverId: shop.codriver.id })
+    const drive = await startDrive(team.tech, { coDriverId: team.shop.codriver.id })
     const samples = sampleRun(30)
-    await tech.post(`/api/drives/${drive.id}/samples`, { batchId: "b1", samples })
+    await team.tech.post(`/api/drives/${drive.id}/samples`, { batchId: "b1", samples })
     const first = mark(samples[5]!.t, "lead-on", { gapFt: 150 })
-    await codriver.post(`/api/drives/${drive.id}/marks`, { marks: [first] })
+    await team.codriver.post(`/api/drives/${drive.id}/marks`, { marks: [first] })
 
-    const s = await stream(tech, `/api/drives/${drive.id}/live`)
+    const s = await stream(team.tech, `/api/drives/${drive.id}/live`)
     expect(s.status).toBe(200)
     expect(s.contentType).toContain("text/event-stream")
     const snap = await s.next((e) => e.event === "snapshot")
@@ -166,7 +162,7 @@ describe("GET /api/drives/:id/live", () => {
     expect(Number(snap.id)).toBe(snap.data.lastEventId)
 
     const second = mark(samples[20]!.t, "cleared")
-    expect((await codriver.post(`/api/drives/${drive.id}/marks`, { marks: [second] })).status).toBe(200)
+    expect((await team.codriver.post(`/api/drives/${drive.id}/marks`, { marks: [second] })).status).toBe(200)
     const got = await s.next((e) => e.event === "mark")
     expect(got.data).toMatchObject({ id: second.id, t: second.t, kind: "cleared" })
     expect(Number(got.id)).toBeGreaterThan(snap.data.lastEventId)
@@ -174,24 +170,24 @@ describe("GET /api/drives/:id/live", () => {
     expect(score.data.clearedAtSeconds).toBeCloseTo((second.t - samples[0]!.t) / 1000, 6)
 
     // A replayed mark (same id) is stored once and announced once.
-    await codriver.post(`/api/drives/${drive.id}/marks`, { marks: [second] })
-    const undo = await tech.delete(`/api/drives/${drive.id}/marks/${first.id}`)
+    await team.codriver.post(`/api/drives/${drive.id}/marks`, { marks: [second] })
+    const undo = await team.tech.delete(`/api/drives/${drive.id}/marks/${first.id}`)
     expect(undo.status).toBe(204)
     const gone = await s.next((e) => e.event === "mark" || e.event === "unmark")
     expect(gone).toMatchObject({ event: "unmark", data: { id: first.id } })
   })
 
   it("resumes after Last-Event-ID with what the screen missed, then the status and score now", async () => {
-    const drive = await startDrive(tech, { coDriverId: shop.codriver.id })
+    const drive = await startDrive(team.tech, { coDriverId: team.shop.codriver.id })
     const samples = sampleRun(20)
-    await tech.post(`/api/drives/${drive.id}/samples`, { batchId: "b1", samples })
-    const s1 = await stream(codriver, `/api/drives/${drive.id}/live`)
+    await team.tech.post(`/api/drives/${drive.id}/samples`, { batchId: "b1", samples })
+    const s1 = await stream(team.codriver, `/api/drives/${drive.id}/live`)
     const snap = await s1.next((e) => e.event === "snapshot")
     s1.close()
     const missed = [mark(samples[3]!.t, "lead-on"), mark(samples[9]!.t, "gap", { gapFt: 120 })]
-    await tech.post(`/api/drives/${drive.id}/marks`, { marks: missed })
+    await team.tech.post(`/api/drives/${drive.id}/marks`, { marks: missed })
 
-    const s2 = await stream(codriver, `/api/drives/${drive.id}/live`, { "last-event-id": String(snap.id) })
+    const s2 = await stream(team.codriver, `/api/drives/${drive.id}/live`, { "last-event-id": String(snap.id) })
     const a = await s2.next((e) => e.event === "mark")
     const b = await s2.next((e) => e.event === "mark")
     expect([a.data.id, b.data.id]).toEqual(missed.map((m) => m.id))
@@ -202,7 +198,7 @@ describe("GET /api/drives/:id/live", () => {
     expect(score.data.samplesUsed).toBe(20)
 
     // Finish: every open screen hears the status change.
-    const finish = await tech.post(`/api/drives/${drive.id}/finish`)
+    const finish = await team.tech.post(`/api/drives/${drive.id}/finish`)
     expect(finish.status).toBe(200)
     const finished = await s2.next((e) => e.event === "status" && e.data.status === "finished" && e.id !== undefined)
     expect(finished.data.verdict).toBe(finish.body.score.verdict)
@@ -211,26 +207,26 @@ describe("GET /api/drives/:id/live", () => {
   })
 
   it("answers the polling fallback in JSON: events after an id, the status and the score", async () => {
-    const drive = await startDrive(tech, { coDriverId: shop.codriver.id })
+    const drive = await startDrive(team.tech, { coDriverId: team.shop.codriver.id })
     const samples = sampleRun(10)
-    await tech.post(`/api/drives/${drive.id}/samples`, { batchId: "b1", samples })
-    const start = await codriver.get(`/api/drives/${drive.id}/live?after=0`)
+    await team.tech.post(`/api/drives/${drive.id}/samples`, { batchId: "b1", samples })
+    const start = await team.codriver.get(`/api/drives/${drive.id}/live?after=0`)
     expect(start.status).toBe(200)
     expect(start.body).toMatchObject({ lastEventId: 0, events: [], status: { status: "recording" } })
     expect(start.body.score.samplesUsed).toBe(10)
     const m = mark(samples[2]!.t, "note", { text: "Lead is the grey van" })
-    await tech.post(`/api/drives/${drive.id}/marks`, { marks: [m] })
-    const polled = await codriver.get(`/api/drives/${drive.id}/live?after=0`)
+    await team.tech.post(`/api/drives/${drive.id}/marks`, { marks: [m] })
+    const polled = await team.codriver.get(`/api/drives/${drive.id}/live?after=0`)
     expect(polled.body.events).toHaveLength(1)
     expect(polled.body.events[0]).toMatchObject({
       kind: "mark",
       body: { id: m.id, kind: "note", text: "Lead is the grey van" },
     })
     expect(polled.body.lastEventId).toBe(polled.body.events[0].id)
-    const bad = await codriver.get(`/api/drives/${drive.id}/live?after=soon`)
+    const bad = await team.codriver.get(`/api/drives/${drive.id}/live?after=soon`)
     expect(bad.status).toBe(400)
     expect(bad.body.error.fields).toHaveProperty("after")
-    const badResume = await codriver.request("GET", `/api/drives/${drive.id}/live`, undefined, {
+    const badResume = await team.codriver.request("GET", `/api/drives/${drive.id}/live`, undefined, {
       headers: { "last-event-id": "x" },
     })
     expect(badResume.status).toBe(400)
@@ -238,19 +234,14 @@ describe("GET /api/drives/:id/live", () => {
 })
 
 describe("the server's live score", () => {
-  let shop: TestShop
-  let tech: ApiClient
-  beforeAll(async () => {
-    shop = await createTestShop("Live score")
-    tech = await signedIn(shop.tech)
-  })
+  const team = setUpShopTeam("Live score")
 
   it("equals scoreDrive of the stored data after random batches and marks, late and repeated ones too", async () => {
     const file = generateDrive({ seed: 31, startMs: Date.UTC(2026, 2, 3, 9), hz: 2, minutes: 16, pattern: "met" })
     const rng = createRng(99)
-    const drive = await startDrive(tech)
+    const drive = await startDrive(team.tech)
     // Read once while empty, so the server holds a live scorer from the start and appends to it.
-    expect((await tech.get(`/api/drives/${drive.id}`)).status).toBe(200)
+    expect((await team.tech.get(`/api/drives/${drive.id}`)).status).toBe(200)
     const samples: Sample[] = file.samples.map((s, i) => (i % 97 === 5 ? { ...s, accuracy: 500 } : s))
     const marks: ApiMark[] = file.marks.map((m) => ({ ...m, id: randomUUID() }))
     // Same-millisecond marks: rule 1 keeps their arrival order.
@@ -267,30 +258,32 @@ describe("the server's live score", () => {
         const from = Math.floor(rng() * (i - 300))
         piece = [...samples.slice(from, from + 40), ...piece].reverse()
       }
-      const res = await tech.post(`/api/drives/${drive.id}/samples`, { batchId: `b${batch++}`, samples: piece })
+      const res = await team.tech.post(`/api/drives/${drive.id}/samples`, { batchId: `b${batch++}`, samples: piece })
       expect(res.status).toBe(200)
       const due = marks.filter((m) => !sentMarks.includes(m) && (m.t <= piece.at(-1)!.t || rng() < 0.05))
       if (due.length) {
         const withRepeat = rng() < 0.5 && sentMarks.length ? [...due, sentMarks[0]!] : due
-        expect((await tech.post(`/api/drives/${drive.id}/marks`, { marks: withRepeat })).status).toBe(200)
+        expect((await team.tech.post(`/api/drives/${drive.id}/marks`, { marks: withRepeat })).status).toBe(200)
         sentMarks.push(...due)
       }
       if (batch % 5 === 0) await expectEqual(drive.id)
     }
     const rest = marks.filter((m) => !sentMarks.includes(m))
-    if (rest.length) await tech.post(`/api/drives/${drive.id}/marks`, { marks: rest })
+    if (rest.length) await team.tech.post(`/api/drives/${drive.id}/marks`, { marks: rest })
     await expectEqual(drive.id)
     // A mark taken back, then one more mark.
-    await tech.delete(`/api/drives/${drive.id}/marks/${marks[0]!.id}`)
+    await team.tech.delete(`/api/drives/${drive.id}/marks/${marks[0]!.id}`)
     await expectEqual(drive.id)
-    await tech.post(`/api/drives/${drive.id}/marks`, { marks: [mark(file.samples[300]!.t, "verified")] })
+    await team.tech.post(`/api/drives/${drive.id}/marks`, { marks: [mark(file.samples[300]!.t, "verified")] })
     const last = await expectEqual(drive.id)
     expect(last.samplesDroppedForAccuracy).toBeGreaterThan(0)
   })
 
   async function expectEqual(driveId: string) {
-    const expected = scoreDrive(await loadDriveFile(testDb(), internalDriveId(shop.shopId, driveId), shop.shopId))
-    const res = await tech.get(`/api/drives/${driveId}`)
+    const expected = scoreDrive(
+      await loadDriveFile(testDb(), internalDriveId(team.shop.shopId, driveId), team.shop.shopId),
+    )
+    const res = await team.tech.get(`/api/drives/${driveId}`)
     expect(res.status).toBe(200)
     expect(res.body.score).toEqual(JSON.parse(JSON.stringify(expected)))
     const counts = await testDb()
@@ -299,7 +292,7 @@ describe("the server's live score", () => {
       .where("drive_id", "=", driveId)
       .executeTakeFirstOrThrow()
     expect(res.body.drive.counts.samples).toBe(Number(counts.n))
-    const scoreRoute = await tech.get(`/api/drives/${driveId}/score`)
+    const scoreRoute = await team.tech.get(`/api/drives/${driveId}/score`)
     expect(scoreRoute.body).toEqual(res.body.score)
     return expected
   }

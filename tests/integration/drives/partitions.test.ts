@@ -6,8 +6,9 @@ import {
   retentionCutoffMs,
   runPartitionMaintenance,
 } from "@/db/queries/sample-retention"
-import { createTestShop, testDb, type TestShop } from "../../helpers/db"
+import { createTestShop, testDb } from "../../helpers/db"
 import { signedIn, type ApiClient } from "../../helpers/http"
+import { setUpShopTeam } from "../../helpers/team"
 import { sampleRun, startDrive } from "./helpers"
 
 // Samples are partitioned by month on `t` (migration 2026_12_02_1540_partitioned_samples, pg_partman).
@@ -51,11 +52,8 @@ describe("sample retention", () => {
   // Two months long past (1999) that no other test writes in, made as partman would have made them then.
   const OLD = monthStart(1999, 1) // Feb 1999: shop A and shop B have samples here
   const OLDER_ONLY_A = monthStart(1999, 2) // Mar 1999: only shop A has samples here
-  let a: TestShop
-  let b: TestShop
-  let aAdmin: ApiClient
-  let aTech: ApiClient
-  let bTech: ApiClient
+  const shopA = setUpShopTeam("Retention A")
+  const shopB = setUpShopTeam("Retention B")
   beforeAll(async () => {
     await testDb()
       .transaction()
@@ -65,31 +63,25 @@ describe("sample retention", () => {
           trx,
         )
       })
-    a = await createTestShop("Retention A")
-    b = await createTestShop("Retention B")
-    aAdmin = await signedIn(a.admin)
-    aTech = await signedIn(a.tech)
-    bTech = await signedIn(b.tech)
   })
 
   it("is a shop setting: null (keep everything) by default, whole months from 1 to 120", async () => {
-    const before = await aAdmin.get("/api/shop/settings")
+    const before = await shopA.admin.get("/api/shop/settings")
     expect(before.body.settings.sampleRetentionMonths).toBeNull()
     for (const bad of [0, 1.5, 121, "6"]) {
-      const res = await aAdmin.patch("/api/shop/settings", { sampleRetentionMonths: bad })
+      const res = await shopA.admin.patch("/api/shop/settings", { sampleRetentionMonths: bad })
       expect(res.status, JSON.stringify(bad)).toBe(400)
       expect(res.body.error.fields).toHaveProperty("sampleRetentionMonths")
     }
-    const lead = await signedIn(a.lead)
-    expect((await lead.patch("/api/shop/settings", { sampleRetentionMonths: 3 })).status).toBe(403)
-    const set = await aAdmin.patch("/api/shop/settings", { sampleRetentionMonths: 3 })
+    expect((await shopA.lead.patch("/api/shop/settings", { sampleRetentionMonths: 3 })).status).toBe(403)
+    const set = await shopA.admin.patch("/api/shop/settings", { sampleRetentionMonths: 3 })
     expect(set.status).toBe(200)
     expect(set.body.settings.sampleRetentionMonths).toBe(3)
   })
 
   it("drops an old month's samples of the shop that keeps less, and nothing else", async () => {
     const now = new Date()
-    expect((await aAdmin.patch("/api/shop/settings", { sampleRetentionMonths: 3 })).status).toBe(200)
+    expect((await shopA.admin.patch("/api/shop/settings", { sampleRetentionMonths: 3 })).status).toBe(200)
     const post = async (client: ApiClient, startMs: number, count: number) => {
       const drive = await startDrive(client)
       const res = await client.post(`/api/drives/${drive.id}/samples`, {
@@ -100,11 +92,11 @@ describe("sample retention", () => {
       expect(res.body.accepted).toBe(count)
       return drive.id as string
     }
-    const aOld = await post(aTech, OLD + 3_600_000, 30)
-    const aOlder = await post(aTech, OLDER_ONLY_A + 3_600_000, 20)
-    const aRecent = await post(aTech, Date.now() - 60_000, 25)
-    const bOld = await post(bTech, OLD + 7_200_000, 40)
-    const bRecent = await post(bTech, Date.now() - 120_000, 15)
+    const aOld = await post(shopA.tech, OLD + 3_600_000, 30)
+    const aOlder = await post(shopA.tech, OLDER_ONLY_A + 3_600_000, 20)
+    const aRecent = await post(shopA.tech, Date.now() - 60_000, 25)
+    const bOld = await post(shopB.tech, OLD + 7_200_000, 40)
+    const bRecent = await post(shopB.tech, Date.now() - 120_000, 15)
     const partsBefore = (await listSamplePartitions(testDb())).map((p) => p.name)
     expect(partsBefore).toEqual(expect.arrayContaining(["sample_p1999_02", "sample_p1999_03"]))
     expect(retentionCutoffMs(now, 3)).toBeGreaterThan(OLDER_ONLY_A)
@@ -124,7 +116,7 @@ describe("sample retention", () => {
     // Recent months of both shops are untouched, and A's drives are still there (their samples went).
     expect(await sampleCount(aRecent)).toBe(25)
     expect(await sampleCount(bRecent)).toBe(15)
-    expect((await aTech.get(`/api/drives/${aOld}`)).status).toBe(200)
+    expect((await shopA.tech.get(`/api/drives/${aOld}`)).status).toBe(200)
     // This month and the months ahead are never dropped.
     const thisMonth = monthStart(now.getUTCFullYear(), now.getUTCMonth())
     const left = await listSamplePartitions(testDb())

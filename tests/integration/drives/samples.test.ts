@@ -1,32 +1,28 @@
 import { randomUUID } from "node:crypto"
 import http from "node:http"
-import { beforeAll, describe, expect, it } from "vitest"
+import { describe, expect, it } from "vitest"
 import { storedSample } from "@/lib/drive-file/stored"
-import { createTestShop, testDb, type TestShop } from "../../helpers/db"
+import { createTestShop, testDb } from "../../helpers/db"
 import { testEnv } from "../../helpers/env"
-import { signedIn, type ApiClient } from "../../helpers/http"
-import { addPerson, sampleRun, startDrive } from "./helpers"
+import { signedIn } from "../../helpers/http"
+import { setUpShopTeam } from "../../helpers/team"
+import { addPerson, namedBatchHeaders, postNamedBatch, sampleRun, startDrive } from "./helpers"
 
 async function storedSamples(driveId: string) {
   return testDb().selectFrom("sample_decoded").selectAll().where("drive_id", "=", driveId).orderBy("t").execute()
 }
 
 describe("POST /api/drives/:id/samples", () => {
-  let shop: TestShop
-  let tech: ApiClient
-  beforeAll(async () => {
-    shop = await createTestShop("Samples")
-    tech = await signedIn(shop.tech)
-  })
+  const team = setUpShopTeam("Samples")
 
   it("counts a batch sent twice once", async () => {
-    const drive = await startDrive(tech)
+    const drive = await startDrive(team.tech)
     const samples = sampleRun(40)
     const batchId = randomUUID()
-    const first = await tech.post(`/api/drives/${drive.id}/samples`, { batchId, samples })
+    const first = await team.tech.post(`/api/drives/${drive.id}/samples`, { batchId, samples })
     expect(first.status).toBe(200)
     expect(first.body).toMatchObject({ accepted: 40, duplicates: 0 })
-    const again = await tech.post(`/api/drives/${drive.id}/samples`, { batchId, samples })
+    const again = await team.tech.post(`/api/drives/${drive.id}/samples`, { batchId, samples })
     expect(again.status).toBe(200)
     expect(again.body.replayed).toBe(true)
     const rows = await storedSamples(drive.id)
@@ -39,26 +35,29 @@ describe("POST /api/drives/:id/samples", () => {
   })
 
   it("answers a replay named in the x-batch-id header from its claim without reading the body", async () => {
-    const drive = await startDrive(tech)
+    const drive = await startDrive(team.tech)
     const samples = sampleRun(30)
     const batchId = randomUUID()
     const path = `/api/drives/${drive.id}/samples`
     const headers = { "x-batch-id": batchId, "content-type": "application/json" }
-    const first = await tech.request("POST", path, undefined, { raw: JSON.stringify({ batchId, samples }), headers })
+    const first = await team.tech.request("POST", path, undefined, {
+      raw: JSON.stringify({ batchId, samples }),
+      headers,
+    })
     expect(first.status).toBe(200)
     expect(first.body).toMatchObject({ accepted: 30, duplicates: 0 })
     // A body that is not even JSON: the claim answers before the body is read.
-    const again = await tech.request("POST", path, undefined, { raw: "not json", headers })
+    const again = await team.tech.request("POST", path, undefined, { raw: "not json", headers })
     expect(again.status).toBe(200)
     expect(again.body).toMatchObject({ accepted: 30, duplicates: 0, replayed: true })
     expect(await storedSamples(drive.id)).toHaveLength(30)
   })
 
   it("refuses a new batch whose body names another id than its x-batch-id header, storing nothing", async () => {
-    const drive = await startDrive(tech)
+    const drive = await startDrive(team.tech)
     const path = `/api/drives/${drive.id}/samples`
     const raw = JSON.stringify({ batchId: "body-id", samples: sampleRun(5) })
-    const res = await tech.request("POST", path, undefined, {
+    const res = await team.tech.request("POST", path, undefined, {
       raw,
       headers: { "x-batch-id": "header-id", "content-type": "application/json" },
     })
@@ -67,7 +66,7 @@ describe("POST /api/drives/:id/samples", () => {
     expect(res.body.error.fields).toHaveProperty(["batchId"])
     expect(await storedSamples(drive.id)).toHaveLength(0)
     // Neither id was used up: the batch goes in under the body's id.
-    const ok = await tech.request("POST", path, undefined, {
+    const ok = await team.tech.request("POST", path, undefined, {
       raw,
       headers: { "x-batch-id": "body-id", "content-type": "application/json" },
     })
@@ -76,10 +75,10 @@ describe("POST /api/drives/:id/samples", () => {
   })
 
   it("stores the union of overlapping batches, each time once", async () => {
-    const drive = await startDrive(tech)
+    const drive = await startDrive(team.tech)
     const samples = sampleRun(60)
-    const a = await tech.post(`/api/drives/${drive.id}/samples`, { batchId: "a", samples: samples.slice(0, 40) })
-    const b = await tech.post(`/api/drives/${drive.id}/samples`, { batchId: "b", samples: samples.slice(25, 60) })
+    const a = await team.tech.post(`/api/drives/${drive.id}/samples`, { batchId: "a", samples: samples.slice(0, 40) })
+    const b = await team.tech.post(`/api/drives/${drive.id}/samples`, { batchId: "b", samples: samples.slice(25, 60) })
     expect(a.body).toMatchObject({ accepted: 40, duplicates: 0 })
     expect(b.body).toMatchObject({ accepted: 20, duplicates: 15 })
     const rows = await storedSamples(drive.id)
@@ -87,24 +86,24 @@ describe("POST /api/drives/:id/samples", () => {
   })
 
   it("stores nothing of a batch with one bad sample and names it", async () => {
-    const drive = await startDrive(tech)
+    const drive = await startDrive(team.tech)
     const samples: unknown[] = sampleRun(10)
     samples[3] = { ...(samples[3] as object), lat: 91 }
-    const res = await tech.post(`/api/drives/${drive.id}/samples`, { batchId: "bad", samples })
+    const res = await team.tech.post(`/api/drives/${drive.id}/samples`, { batchId: "bad", samples })
     expect(res.status).toBe(400)
     expect(res.body.error.code).toBe("validation_failed")
     expect(res.body.error.fields).toHaveProperty(["samples.3.lat"])
     expect(res.body.error.fields["samples.3.lat"]).toMatch(/between -90 and 90/)
     expect(await storedSamples(drive.id)).toHaveLength(0)
     // The batch id was not used up by the failure: the corrected batch goes in whole.
-    const fixed = await tech.post(`/api/drives/${drive.id}/samples`, { batchId: "bad", samples: sampleRun(10) })
+    const fixed = await team.tech.post(`/api/drives/${drive.id}/samples`, { batchId: "bad", samples: sampleRun(10) })
     expect(fixed.body).toMatchObject({ accepted: 10, duplicates: 0 })
   })
 
   it("keeps the first copy of a time sent twice in one batch", async () => {
-    const drive = await startDrive(tech)
+    const drive = await startDrive(team.tech)
     const [s0, s1] = sampleRun(2)
-    const res = await tech.post(`/api/drives/${drive.id}/samples`, {
+    const res = await team.tech.post(`/api/drives/${drive.id}/samples`, {
       batchId: "dup",
       samples: [s0, s1, { ...s1!, lat: s1!.lat + 0.001 }],
     })
@@ -114,40 +113,40 @@ describe("POST /api/drives/:id/samples", () => {
   })
 
   it("answers 404 to another shop and to a co-driver the drive does not name", async () => {
-    const drive = await startDrive(tech)
+    const drive = await startDrive(team.tech)
     const other = await createTestShop("Other")
     const outsider = await signedIn(other.lead)
     const res = await outsider.post(`/api/drives/${drive.id}/samples`, { batchId: "x", samples: sampleRun(3) })
     expect(res.status).toBe(404)
     expect(res.text).not.toContain(drive.id)
-    const co = await signedIn(shop.codriver)
+    const co = await signedIn(team.shop.codriver)
     expect((await co.post(`/api/drives/${drive.id}/samples`, { batchId: "x", samples: sampleRun(3) })).status).toBe(404)
     expect(await storedSamples(drive.id)).toHaveLength(0)
   })
 
   it("lets the named co-driver record, and refuses a technician who is neither driver nor co-driver", async () => {
-    const drive = await startDrive(tech, { coDriverId: shop.codriver.id })
-    const co = await signedIn(shop.codriver)
+    const drive = await startDrive(team.tech, { coDriverId: team.shop.codriver.id })
+    const co = await signedIn(team.shop.codriver)
     expect((await co.post(`/api/drives/${drive.id}/samples`, { batchId: "c", samples: sampleRun(3) })).status).toBe(200)
-    const tech2 = await signedIn(await addPerson(shop.shopId, "technician", shop.tech))
+    const tech2 = await signedIn(await addPerson(team.shop.shopId, "technician", team.shop.tech))
     expect((await tech2.post(`/api/drives/${drive.id}/samples`, { batchId: "d", samples: sampleRun(3) })).status).toBe(
       403,
     )
   })
 
   it("takes late samples after Finish and scores again, and refuses them once reviewed", async () => {
-    const drive = await startDrive(tech)
+    const drive = await startDrive(team.tech)
     const samples = sampleRun(30)
-    await tech.post(`/api/drives/${drive.id}/samples`, { batchId: "1", samples: samples.slice(0, 10) })
-    const finished = await tech.post(`/api/drives/${drive.id}/finish`)
+    await team.tech.post(`/api/drives/${drive.id}/samples`, { batchId: "1", samples: samples.slice(0, 10) })
+    const finished = await team.tech.post(`/api/drives/${drive.id}/finish`)
     expect(finished.status).toBe(200)
     expect(finished.body.score.samplesUsed).toBe(10)
-    const late = await tech.post(`/api/drives/${drive.id}/samples`, { batchId: "2", samples: samples.slice(10) })
+    const late = await team.tech.post(`/api/drives/${drive.id}/samples`, { batchId: "2", samples: samples.slice(10) })
     expect(late.status).toBe(200)
-    const score = await tech.get(`/api/drives/${drive.id}/score`)
+    const score = await team.tech.get(`/api/drives/${drive.id}/score`)
     expect(score.body.samplesUsed).toBe(30)
     await testDb().updateTable("drive").set({ review_status: "approved" }).where("public_id", "=", drive.id).execute()
-    const closed = await tech.post(`/api/drives/${drive.id}/samples`, {
+    const closed = await team.tech.post(`/api/drives/${drive.id}/samples`, {
       batchId: "3",
       samples: sampleRun(2, 9, Date.UTC(2026, 0, 2)),
     })
@@ -156,13 +155,13 @@ describe("POST /api/drives/:id/samples", () => {
   })
 
   it("answers 400 for malformed JSON and a missing batch id", async () => {
-    const drive = await startDrive(tech)
-    const raw = await tech.request("POST", `/api/drives/${drive.id}/samples`, undefined, {
+    const drive = await startDrive(team.tech)
+    const raw = await team.tech.request("POST", `/api/drives/${drive.id}/samples`, undefined, {
       raw: "{not json",
       headers: { "content-type": "application/json" },
     })
     expect(raw.status).toBe(400)
-    const noBatch = await tech.post(`/api/drives/${drive.id}/samples`, { samples: sampleRun(2) })
+    const noBatch = await team.tech.post(`/api/drives/${drive.id}/samples`, { samples: sampleRun(2) })
     expect(noBatch.status).toBe(400)
     expect(noBatch.body.error.fields).toHaveProperty(["batchId"])
   })
@@ -171,23 +170,15 @@ describe("POST /api/drives/:id/samples", () => {
 // Batches that name themselves in x-batch-id (the recorder's) are answered by the app's own server before Next.js
 // (app/_server/early-routes.ts); the others by Next and the route file. Both must answer alike.
 describe("POST /api/drives/:id/samples named in x-batch-id (the app's server answers it)", () => {
-  let shop: TestShop
-  let tech: ApiClient
-  beforeAll(async () => {
-    shop = await createTestShop("SamplesEarly")
-    tech = await signedIn(shop.tech)
-  })
-
-  const named = (batchId: string) => ({ "x-batch-id": batchId, "content-type": "application/json" })
+  const team = setUpShopTeam("SamplesEarly")
 
   it("stores a batch and answers with the same headers as Next does", async () => {
-    const drive = await startDrive(tech)
-    const path = `/api/drives/${drive.id}/samples`
-    const early = await tech.request("POST", path, undefined, {
-      raw: JSON.stringify({ batchId: "early", samples: sampleRun(20) }),
-      headers: named("early"),
+    const drive = await startDrive(team.tech)
+    const early = await postNamedBatch(team.tech, drive.id, "early", sampleRun(20))
+    const viaNext = await team.tech.post(`/api/drives/${drive.id}/samples`, {
+      batchId: "next",
+      samples: sampleRun(20, 8, Date.UTC(2026, 0, 1, 11)),
     })
-    const viaNext = await tech.post(path, { batchId: "next", samples: sampleRun(20, 8, Date.UTC(2026, 0, 1, 11)) })
     expect(early.status).toBe(200)
     expect(early.body).toEqual({ accepted: 20, duplicates: 0, replayed: false })
     expect(viaNext.body).toEqual({ accepted: 20, duplicates: 0, replayed: false })
@@ -203,7 +194,7 @@ describe("POST /api/drives/:id/samples named in x-batch-id (the app's server ans
   })
 
   it("keeps the connection for the next request after a replay whose body it did not read", async () => {
-    const drive = await startDrive(tech)
+    const drive = await startDrive(team.tech)
     const path = `/api/drives/${drive.id}/samples`
     const agent = new http.Agent({ keepAlive: true, maxSockets: 1 })
     const send = (batchId: string, samples: unknown[]) =>
@@ -214,7 +205,7 @@ describe("POST /api/drives/:id/samples named in x-batch-id (the app's server ans
           {
             method: "POST",
             agent,
-            headers: { ...named(batchId), cookie: tech.cookie!, "x-forwarded-for": tech.address },
+            headers: { ...namedBatchHeaders(batchId), cookie: team.tech.cookie!, "x-forwarded-for": team.tech.address },
           },
           (res) => {
             let data = ""
@@ -240,11 +231,11 @@ describe("POST /api/drives/:id/samples named in x-batch-id (the app's server ans
   })
 
   it("answers a signed-out cookie 401 in the error shape and clears it, as Next does", async () => {
-    const client = await signedIn(shop.tech)
+    const client = await signedIn(team.shop.tech)
     const drive = await startDrive(client)
     const cookie = client.cookie!
     expect((await client.delete("/api/session")).status).toBe(204)
-    for (const headers of [named("gone"), { "content-type": "application/json" }]) {
+    for (const headers of [namedBatchHeaders("gone"), { "content-type": "application/json" }]) {
       const res = await fetch(`${testEnv().baseUrl}/api/drives/${drive.id}/samples`, {
         method: "POST",
         headers: { ...headers, cookie, "x-forwarded-for": client.address },
@@ -258,15 +249,18 @@ describe("POST /api/drives/:id/samples named in x-batch-id (the app's server ans
   })
 
   it("refuses a write from another site (403) and a path that is no drive id (404), storing nothing", async () => {
-    const drive = await startDrive(tech)
+    const drive = await startDrive(team.tech)
     const raw = JSON.stringify({ batchId: "x", samples: sampleRun(3) })
-    const elsewhere = await tech.request("POST", `/api/drives/${drive.id}/samples`, undefined, {
+    const elsewhere = await team.tech.request("POST", `/api/drives/${drive.id}/samples`, undefined, {
       raw,
-      headers: { ...named("x"), origin: "http://elsewhere.invalid" },
+      headers: { ...namedBatchHeaders("x"), origin: "http://elsewhere.invalid" },
     })
     expect(elsewhere.status).toBe(403)
     expect(elsewhere.body.error.code).toBe("forbidden")
-    const noId = await tech.request("POST", `/api/drives/not-a-drive/samples`, undefined, { raw, headers: named("x") })
+    const noId = await team.tech.request("POST", `/api/drives/not-a-drive/samples`, undefined, {
+      raw,
+      headers: namedBatchHeaders("x"),
+    })
     expect(noId.status).toBe(404)
     expect(noId.body.error.code).toBe("not_found")
     expect(await storedSamples(drive.id)).toHaveLength(0)
@@ -296,12 +290,9 @@ describe("POST /api/drives/:id/samples named in x-batch-id (the app's server ans
   })
 
   it("keeps another shop's drive a 404", async () => {
-    const drive = await startDrive(tech)
+    const drive = await startDrive(team.tech)
     const other = await signedIn((await createTestShop("SamplesEarlyOther")).tech)
-    const res = await other.request("POST", `/api/drives/${drive.id}/samples`, undefined, {
-      raw: JSON.stringify({ batchId: "y", samples: sampleRun(3) }),
-      headers: named("y"),
-    })
+    const res = await postNamedBatch(other, drive.id, "y", sampleRun(3))
     expect(res.status).toBe(404)
     expect(await storedSamples(drive.id)).toHaveLength(0)
   })

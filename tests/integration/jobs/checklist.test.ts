@@ -1,4 +1,5 @@
 import { beforeAll, describe, expect, it } from "vitest"
+import { checklistBody } from "../../helpers/checklist"
 import { createTestShop, type TestShop } from "../../helpers/db"
 import { signedIn } from "../../helpers/http"
 import { createJob } from "./helpers"
@@ -8,16 +9,12 @@ beforeAll(async () => {
   shop = await createTestShop("Checklist")
 })
 
-const goodChecklist = {
+const goodChecklist = checklistBody({
   faultCodes: { none: false, expected: ["c1a67-54"] },
   tires: { unit: "psi", placard: 35, fl: 35, fr: 34, rl: 36, rr: 38 },
-  loadNormal: true,
-  fuelLevel: "3/4",
-  sensorClean: true,
-  mountUndamaged: true,
   alignmentChecked: null,
   notes: "Bracket checked with a straight edge.",
-}
+})
 
 describe("PUT/GET /api/jobs/:jobId/tasks/:taskId/checklist", () => {
   it("stores the checklist with who and when, and says it is ready", async () => {

@@ -1,6 +1,9 @@
 import { DeleteObjectCommand, HeadObjectCommand, S3Client } from "@aws-sdk/client-s3"
+import { beforeAll, expect } from "vitest"
 import { withCheckDigit } from "@/lib/vin"
+import { testDb } from "../../helpers/db"
 import type { ApiClient } from "../../helpers/http"
+import { type ShopTeam, setUpShopTeam } from "../../helpers/team"
 
 let counter = 0
 
@@ -28,6 +31,15 @@ export async function createJob(client: ApiClient, overrides: Record<string, unk
   return res.body.job
 }
 
+/** A fresh shop with its people signed in (setUpShopTeam) and one job its lead made, for the enclosing block. */
+export function setUpShopWithJob(label: string) {
+  const team = setUpShopTeam(label) as ShopTeam & { job: { id: string; tasks: { id: string }[] } }
+  beforeAll(async () => {
+    team.job = await createJob(team.lead)
+  })
+  return team
+}
+
 export function testS3() {
   return new S3Client({
     region: process.env.S3_REGION ?? "us-east-1",
@@ -38,6 +50,15 @@ export function testS3() {
       secretAccessKey: process.env.S3_SECRET_ACCESS_KEY ?? "S3RVER",
     },
   })
+}
+
+/** An attachment's row as stored: where its file and thumbnail are kept; undefined once it is removed. */
+export function storedAttachment(id: string) {
+  return testDb()
+    .selectFrom("attachment")
+    .select(["object_key", "thumbnail_key", "status"])
+    .where("id", "=", id)
+    .executeTakeFirst()
 }
 
 export async function objectExists(key: string) {
@@ -73,4 +94,33 @@ export const JPEG_START = Buffer.from(
 export async function putToPresignedUrl(url: string, contentType: string, bytes: Uint8Array) {
   const res = await fetch(url, { method: "PUT", headers: { "content-type": contentType }, body: bytes as BodyInit })
   if (!res.ok) throw new Error(`PUT to object store failed: ${res.status} ${await res.text()}`)
+}
+
+/** A file to attach to a job (and to one of its tasks when `taskId` is given). */
+export type JobFile = {
+  jobId: string
+  taskId?: string | null
+  filename: string
+  contentType: string
+  bytes: Uint8Array
+}
+
+/** Asks for an upload address for `file` (POST /api/uploads, a 201) and answers the attachment id and the address. */
+export async function startUpload(client: ApiClient, file: JobFile) {
+  const { bytes, ...fields } = file
+  const start = await client.post("/api/uploads", { ...fields, size: bytes.byteLength })
+  expect(start.status).toBe(201)
+  return { id: start.body.attachmentId as string, uploadUrl: start.body.uploadUrl as string }
+}
+
+/** POST /api/uploads/:id/complete: the server checks the stored bytes and keeps or removes the file. */
+export function completeUpload(client: ApiClient, attachmentId: string) {
+  return client.post(`/api/uploads/${attachmentId}/complete`)
+}
+
+/** A whole upload as the app makes it: ask for an address, PUT the bytes to the object store, complete. */
+export async function uploadFile(client: ApiClient, file: JobFile) {
+  const start = await startUpload(client, file)
+  await putToPresignedUrl(start.uploadUrl, file.contentType, file.bytes)
+  return { ...start, done: await completeUpload(client, start.id) }
 }

@@ -1,5 +1,5 @@
 import { beforeAll, describe, expect, it } from "vitest"
-import { createTestShop, testDb, testDriveIds, type TestShop } from "../../helpers/db"
+import { createTestShop, insertDrive, testDb, type TestShop } from "../../helpers/db"
 import { ApiClient, signedIn } from "../../helpers/http"
 import { createJob, inventedVin, newJobBody } from "./helpers"
 
@@ -196,17 +196,7 @@ describe("GET and PATCH /api/jobs/:id", () => {
     expect(bad.status).toBe(400)
     expect(bad.body.error.fields["vehicle.vin"]).toBeDefined()
 
-    await testDb()
-      .insertInto("drive")
-      .values({
-        ...testDriveIds(shop.shopId),
-        shop_id: shop.shopId,
-        job_id: job.id,
-        task_id: job.tasks[0].id,
-        profile: JSON.stringify({}),
-        driver_id: shop.lead.id,
-      })
-      .execute()
+    await insertDrive(shop, { job_id: job.id, task_id: job.tasks[0].id, driver_id: shop.lead.id })
     const removing = await lead.patch(`/api/jobs/${job.id}`, {
       tasks: [{ sensor: "rear_radar", method: "dynamic", reason: "other" }],
     })
@@ -221,18 +211,7 @@ describe("GET and PATCH /api/jobs/:id", () => {
     const job = await createJob(lead)
     const codriver = await signedIn(shop.codriver)
     expect((await codriver.get(`/api/jobs/${job.id}`)).status).toBe(404)
-    await testDb()
-      .insertInto("drive")
-      .values({
-        ...testDriveIds(shop.shopId),
-        shop_id: shop.shopId,
-        job_id: job.id,
-        task_id: job.tasks[0].id,
-        profile: "{}",
-        driver_id: shop.tech.id,
-        co_driver_id: shop.codriver.id,
-      })
-      .execute()
+    await insertDrive(shop, { job_id: job.id, task_id: job.tasks[0].id, co_driver_id: shop.codriver.id })
     const res = await codriver.get(`/api/jobs/${job.id}`)
     expect(res.status).toBe(200)
     expect(res.body.job.drives).toHaveLength(1)

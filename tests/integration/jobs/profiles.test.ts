@@ -1,5 +1,5 @@
 import { beforeAll, describe, expect, it } from "vitest"
-import { createTestShop, testDb, testDriveIds, type TestShop } from "../../helpers/db"
+import { createTestShop, insertDrive, testDb, type TestShop } from "../../helpers/db"
 import { signedIn } from "../../helpers/http"
 import { createJob } from "./helpers"
 
@@ -61,20 +61,14 @@ describe("condition profiles", () => {
     expect(job.tasks[0].profile).toMatchObject({ id: profileId, version: 1, versionId: v1 })
 
     // A drive frozen on version 1, as the drive API stores it.
-    const driveId = crypto.randomUUID()
-    await testDb()
-      .insertInto("drive")
-      .values({
-        ...testDriveIds(shop.shopId, driveId),
-        shop_id: shop.shopId,
-        job_id: job.id,
-        task_id: job.tasks[0].id,
-        profile_version_id: v1,
-        profile: JSON.stringify(created.body.profile.settings),
-        driver_id: shop.lead.id,
-        verdict: "met",
-      })
-      .execute()
+    const { id: driveId } = await insertDrive(shop, {
+      job_id: job.id,
+      task_id: job.tasks[0].id,
+      profile_version_id: v1,
+      profile: JSON.stringify(created.body.profile.settings),
+      driver_id: shop.lead.id,
+      verdict: "met",
+    })
 
     const edit = await lead.patch(`/api/profiles/${profileId}`, {
       settings: { minFollowingMinutes: 0, minSpeedMph: 50 },

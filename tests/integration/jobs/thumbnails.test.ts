@@ -1,14 +1,20 @@
 import { PDFDocument, PDFName, PDFNumber, PDFRawStream } from "pdf-lib"
 import sharp from "sharp"
 import { beforeAll, describe, expect, it } from "vitest"
-import { createTestShop, testDb, type TestShop } from "../../helpers/db"
-import { testEnv } from "../../helpers/env"
+import { createTestShop } from "../../helpers/db"
 import { type ApiClient, signedIn } from "../../helpers/http"
 import { insertJob, insertScoredDrive } from "../review/fixtures"
-import { createJob, objectExists, putToPresignedUrl } from "./helpers"
+import {
+  completeUpload,
+  objectExists,
+  putToPresignedUrl,
+  startUpload,
+  storedAttachment,
+  uploadFile,
+  setUpShopWithJob,
+} from "./helpers"
 
-let shop: TestShop
-let job: { id: string; tasks: { id: string }[] }
+const team = setUpShopWithJob("Thumbnails")
 let landscape: Buffer
 
 const W = 3000
@@ -43,36 +49,9 @@ async function phonePhoto() {
     .toBuffer()
 }
 
-/** A binary GET with the client's session (ApiClient reads bodies as text). */
-async function getBytes(client: ApiClient, path: string) {
-  const res = await fetch(`${testEnv().baseUrl}${path}`, {
-    headers: { cookie: client.cookie ?? "", "x-forwarded-for": client.address },
-    redirect: "manual",
-  })
-  return { status: res.status, headers: res.headers, bytes: Buffer.from(await res.arrayBuffer()) }
-}
-
-async function upload(
-  client: ApiClient,
-  jobId: string,
-  taskId: string | null,
-  filename: string,
-  contentType: string,
-  bytes: Uint8Array,
-) {
-  const start = await client.post("/api/uploads", { jobId, taskId, filename, contentType, size: bytes.byteLength })
-  expect(start.status).toBe(201)
-  await putToPresignedUrl(start.body.uploadUrl, contentType, bytes)
-  const done = await client.post(`/api/uploads/${start.body.attachmentId}/complete`)
-  return { id: start.body.attachmentId as string, done }
-}
-
-async function rowOf(id: string) {
-  return testDb()
-    .selectFrom("attachment")
-    .select(["object_key", "thumbnail_key", "status"])
-    .where("id", "=", id)
-    .executeTakeFirst()
+/** A whole upload of `bytes` to the suite's job, on no task. */
+function upload(client: ApiClient, filename: string, contentType: string, bytes: Uint8Array) {
+  return uploadFile(client, { jobId: team.job.id, taskId: null, filename, contentType, bytes })
 }
 
 async function pixel(image: Buffer, x: number, y: number) {
@@ -82,23 +61,27 @@ async function pixel(image: Buffer, x: number, y: number) {
 }
 
 beforeAll(async () => {
-  shop = await createTestShop("Thumbnails")
-  job = await createJob(await signedIn(shop.lead))
   landscape = await phonePhoto()
 })
 
 describe("thumbnails made at upload", () => {
   it("stores a 320 px JPEG of a phone photo, turned upright by its EXIF orientation, without its metadata", async () => {
     expect((await sharp(landscape).metadata()).orientation).toBe(6)
-    const tech = await signedIn(shop.tech)
-    const { id, done } = await upload(tech, job.id, job.tasks[0]!.id, "bumper.jpg", "image/jpeg", landscape)
+    const tech = await signedIn(team.shop.tech)
+    const { id, done } = await uploadFile(tech, {
+      jobId: team.job.id,
+      taskId: team.job.tasks[0]!.id,
+      filename: "bumper.jpg",
+      contentType: "image/jpeg",
+      bytes: landscape,
+    })
     expect(done.status).toBe(200)
     expect(done.body.attachment.thumbnailUrl).toBe(`/api/attachments/${id}?variant=thumbnail`)
-    const row = (await rowOf(id))!
+    const row = (await storedAttachment(id))!
     expect(row.thumbnail_key).toBe(`${row.object_key}.thumb.jpg`)
     expect(await objectExists(row.thumbnail_key!)).toBe(true)
 
-    const thumb = await getBytes(tech, done.body.attachment.thumbnailUrl)
+    const thumb = await tech.getBytes(done.body.attachment.thumbnailUrl)
     expect(thumb.status).toBe(200)
     expect(thumb.headers.get("content-type")).toBe("image/jpeg")
     expect(thumb.headers.get("cache-control")).toMatch(/^private/)
@@ -118,7 +101,7 @@ describe("thumbnails made at upload", () => {
     expect(thumb.bytes.byteLength).toBeLessThan(landscape.byteLength * 0.03)
 
     // The link without a variant is still the photo itself.
-    const full = await getBytes(tech, done.body.attachment.url)
+    const full = await tech.getBytes(done.body.attachment.url)
     expect(full.status).toBe(200)
     expect(full.bytes.equals(landscape)).toBe(true)
   })
@@ -136,10 +119,10 @@ describe("thumbnails made at upload", () => {
       ])
       .png()
       .toBuffer()
-    const tech = await signedIn(shop.tech)
-    const { done } = await upload(tech, job.id, null, "placard.png", "image/png", png)
+    const tech = await signedIn(team.shop.tech)
+    const { done } = await upload(tech, "placard.png", "image/png", png)
     expect(done.status).toBe(200)
-    const thumb = await getBytes(tech, done.body.attachment.thumbnailUrl)
+    const thumb = await tech.getBytes(done.body.attachment.thumbnailUrl)
     expect(thumb.headers.get("content-type")).toBe("image/jpeg")
     const meta = await sharp(thumb.bytes).metadata()
     expect([meta.format, meta.width, meta.height]).toEqual(["jpeg", 320, 213])
@@ -153,26 +136,26 @@ describe("thumbnails made at upload", () => {
     const small = await sharp({ create: { width: 32, height: 24, channels: 3, background: { r: 200, g: 120, b: 40 } } })
       .webp()
       .toBuffer()
-    const tech = await signedIn(shop.tech)
-    const { done } = await upload(tech, job.id, null, "label.webp", "image/webp", small)
+    const tech = await signedIn(team.shop.tech)
+    const { done } = await upload(tech, "label.webp", "image/webp", small)
     expect(done.status).toBe(200)
-    const meta = await sharp((await getBytes(tech, done.body.attachment.thumbnailUrl)).bytes).metadata()
+    const meta = await sharp((await tech.getBytes(done.body.attachment.thumbnailUrl)).bytes).metadata()
     expect([meta.format, meta.width, meta.height]).toEqual(["jpeg", 32, 24])
   })
 
   it("answers 404 for another shop's thumbnail and for a co-driver not on the job", async () => {
-    const tech = await signedIn(shop.tech)
+    const tech = await signedIn(team.shop.tech)
     const small = await sharp({ create: { width: 400, height: 300, channels: 3, background: "#336699" } })
       .jpeg()
       .toBuffer()
-    const { done } = await upload(tech, job.id, null, "mount.jpg", "image/jpeg", small)
+    const { done } = await upload(tech, "mount.jpg", "image/jpeg", small)
     expect(done.status).toBe(200)
     const other = await createTestShop("Thumbnails other")
-    const theirs = await getBytes(await signedIn(other.lead), done.body.attachment.thumbnailUrl)
+    const theirs = await (await signedIn(other.lead)).getBytes(done.body.attachment.thumbnailUrl)
     expect(theirs.status).toBe(404)
     expect(theirs.bytes.byteLength).toBeLessThan(500) // the error body, no picture
-    expect((await getBytes(await signedIn(shop.codriver), done.body.attachment.thumbnailUrl)).status).toBe(404)
-    expect((await getBytes(tech, `/api/attachments/${done.body.attachment.id}?variant=poster`)).status).toBe(400)
+    expect((await (await signedIn(team.shop.codriver)).getBytes(done.body.attachment.thumbnailUrl)).status).toBe(404)
+    expect((await tech.getBytes(`/api/attachments/${done.body.attachment.id}?variant=poster`)).status).toBe(400)
   })
 })
 
@@ -184,32 +167,32 @@ describe("photos that do not decode", () => {
       Buffer.from("ffd8ffe000104a46494600010100000100010000", "hex"),
       Buffer.alloc(4000, 0x5a),
     ])
-    const tech = await signedIn(shop.tech)
-    const { id, done } = await upload(tech, job.id, null, "broken.jpg", "image/jpeg", fake)
+    const tech = await signedIn(team.shop.tech)
+    const { id, done } = await upload(tech, "broken.jpg", "image/jpeg", fake)
     expect(done.status).toBe(400)
     expect(done.body.error.code).toBe("invalid_request")
     expect(done.body.error.message).toMatch(/cannot be read.*removed/)
-    expect(await rowOf(id)).toBeUndefined()
-    const detail = await tech.get(`/api/jobs/${job.id}`)
+    expect(await storedAttachment(id)).toBeUndefined()
+    const detail = await tech.get(`/api/jobs/${team.job.id}`)
     expect(detail.body.job.attachments.map((a: { id: string }) => a.id)).not.toContain(id)
   })
 
   it("refuses a JPEG cut short in transfer, and removes the object", async () => {
     const cut = landscape.subarray(0, Math.floor(landscape.byteLength * 0.4))
-    const tech = await signedIn(shop.tech)
-    const start = await tech.post("/api/uploads", {
-      jobId: job.id,
+    const tech = await signedIn(team.shop.tech)
+    const start = await startUpload(tech, {
+      jobId: team.job.id,
       filename: "cut.jpg",
       contentType: "image/jpeg",
-      size: cut.byteLength,
+      bytes: cut,
     })
-    await putToPresignedUrl(start.body.uploadUrl, "image/jpeg", cut)
-    const key = (await rowOf(start.body.attachmentId))!.object_key
-    const done = await tech.post(`/api/uploads/${start.body.attachmentId}/complete`)
+    await putToPresignedUrl(start.uploadUrl, "image/jpeg", cut)
+    const key = (await storedAttachment(start.id))!.object_key
+    const done = await completeUpload(tech, start.id)
     expect(done.status).toBe(400)
     expect(await objectExists(key)).toBe(false)
     expect(await objectExists(`${key}.thumb.jpg`)).toBe(false)
-    expect(await rowOf(start.body.attachmentId)).toBeUndefined()
+    expect(await storedAttachment(start.id)).toBeUndefined()
   })
 
   it("keeps a HEIC photo without a thumbnail (no HEVC decoder in the image library) and sends the photo itself", async () => {
@@ -219,11 +202,11 @@ describe("photos that do not decode", () => {
       "base64",
     )
     expect(heic.byteLength).toBe(488)
-    const tech = await signedIn(shop.tech)
-    const { id, done } = await upload(tech, job.id, null, "IMG_0042.HEIC", "image/heic", heic)
+    const tech = await signedIn(team.shop.tech)
+    const { id, done } = await upload(tech, "IMG_0042.HEIC", "image/heic", heic)
     expect(done.status).toBe(200)
-    expect((await rowOf(id))!.thumbnail_key).toBeNull()
-    const thumb = await getBytes(tech, `/api/attachments/${id}?variant=thumbnail`)
+    expect((await storedAttachment(id))!.thumbnail_key).toBeNull()
+    const thumb = await tech.getBytes(`/api/attachments/${id}?variant=thumbnail`)
     expect(thumb.status).toBe(200)
     expect(thumb.bytes.equals(heic)).toBe(true)
     expect(thumb.headers.get("content-disposition")).toMatch(/^attachment; /)
@@ -237,11 +220,10 @@ describe("the drive record PDF", () => {
     const drive = await insertScoredDrive(recordShop, { pattern: "short", seed: 412, job: recordJob })
     const tech = await signedIn(recordShop.tech)
     for (const name of ["front.jpg", "bracket.jpg"]) {
-      expect((await upload(tech, recordJob.jobId, recordJob.taskId, name, "image/jpeg", landscape)).done.status).toBe(
-        200,
-      )
+      const file = { jobId: recordJob.jobId, taskId: recordJob.taskId, filename: name, contentType: "image/jpeg" }
+      expect((await uploadFile(tech, { ...file, bytes: landscape })).done.status).toBe(200)
     }
-    const pdf = await getBytes(tech, `/api/drives/${drive.id}/record`)
+    const pdf = await tech.getBytes(`/api/drives/${drive.id}/record`)
     expect(pdf.status).toBe(200)
     // Two full photos alone would be about 5.9 MB; the whole record stays under a tenth of one photo.
     expect(pdf.bytes.byteLength).toBeLessThan(landscape.byteLength / 10)

@@ -1,50 +1,43 @@
 import { PDFDocument } from "pdf-lib"
-import { beforeAll, describe, expect, it } from "vitest"
-import { createTestShop, testDb, type TestShop } from "../../helpers/db"
-import { testEnv } from "../../helpers/env"
+import { describe, expect, it } from "vitest"
+import { createTestShop } from "../../helpers/db"
 import { type ApiClient, signedIn } from "../../helpers/http"
-import { createJob, JPEG_START, objectExists, putToPresignedUrl, TINY_PNG } from "./helpers"
+import {
+  completeUpload,
+  createJob,
+  JPEG_START,
+  objectExists,
+  putToPresignedUrl,
+  startUpload,
+  storedAttachment,
+  TINY_PNG,
+  uploadFile,
+  setUpShopWithJob,
+} from "./helpers"
 
-let shop: TestShop
-let job: { id: string; tasks: { id: string }[] }
-
-beforeAll(async () => {
-  shop = await createTestShop("Uploads")
-  job = await createJob(await signedIn(shop.lead))
-})
+const team = setUpShopWithJob("Uploads")
 
 const MB = 1024 * 1024
 
-async function download(client: ApiClient, path: string) {
-  const res = await fetch(`${testEnv().baseUrl}${path}`, {
-    headers: { cookie: client.cookie ?? "", "x-forwarded-for": client.address },
-    redirect: "manual",
-  })
-  return { status: res.status, headers: res.headers, bytes: Buffer.from(await res.arrayBuffer()) }
+/** An upload address for `bytes` on the suite's job; nothing is put there yet. */
+function start(client: ApiClient, filename: string, contentType: string, bytes: Uint8Array) {
+  return startUpload(client, { jobId: team.job.id, filename, contentType, bytes })
 }
 
-async function upload(client: ApiClient, filename: string, contentType: string, bytes: Uint8Array) {
-  const start = await client.post("/api/uploads", { jobId: job.id, filename, contentType, size: bytes.byteLength })
-  expect(start.status).toBe(201)
-  await putToPresignedUrl(start.body.uploadUrl, contentType, bytes)
-  const done = await client.post(`/api/uploads/${start.body.attachmentId}/complete`)
-  return { start, done }
+/** A whole upload of `bytes` to the suite's job. */
+function upload(client: ApiClient, filename: string, contentType: string, bytes: Uint8Array) {
+  return uploadFile(client, { jobId: team.job.id, filename, contentType, bytes })
 }
 
 async function objectKeyOf(attachmentId: string) {
-  const row = await testDb()
-    .selectFrom("attachment")
-    .select("object_key")
-    .where("id", "=", attachmentId)
-    .executeTakeFirst()
-  return row?.object_key
+  return (await storedAttachment(attachmentId))?.object_key
 }
 
 describe("POST /api/uploads", () => {
   it("refuses a file over 15 MB with a 413", async () => {
-    const tech = await signedIn(shop.tech)
+    const tech = await signedIn(team.shop.tech)
     const res = await tech.post("/api/uploads", {
-      jobId: job.id,
+      jobId: team.job.id,
       filename: "big.jpg",
       contentType: "image/jpeg",
       size: 15 * MB + 1,
@@ -52,7 +45,7 @@ describe("POST /api/uploads", () => {
     expect(res.status).toBe(413)
     expect(res.body.error.code).toBe("too_large")
     const ok = await tech.post("/api/uploads", {
-      jobId: job.id,
+      jobId: team.job.id,
       filename: "edge.jpg",
       contentType: "image/jpeg",
       size: 15 * MB,
@@ -61,9 +54,9 @@ describe("POST /api/uploads", () => {
   })
 
   it("refuses a type that is not a photo or PDF with a 400", async () => {
-    const tech = await signedIn(shop.tech)
+    const tech = await signedIn(team.shop.tech)
     for (const contentType of ["application/zip", "image/gif", "text/html"]) {
-      const res = await tech.post("/api/uploads", { jobId: job.id, filename: "x.bin", contentType, size: 100 })
+      const res = await tech.post("/api/uploads", { jobId: team.job.id, filename: "x.bin", contentType, size: 100 })
       expect(res.status).toBe(400)
       expect(res.body.error.fields.contentType).toMatch(/must be one of/)
     }
@@ -72,45 +65,44 @@ describe("POST /api/uploads", () => {
   it("refuses another shop's job (404) and co-drivers (403)", async () => {
     const other = await createTestShop("Uploads other")
     const otherJob = await createJob(await signedIn(other.lead))
-    const tech = await signedIn(shop.tech)
+    const tech = await signedIn(team.shop.tech)
     expect(
       (await tech.post("/api/uploads", { jobId: otherJob.id, filename: "a.png", contentType: "image/png", size: 10 }))
         .status,
     ).toBe(404)
-    const codriver = await signedIn(shop.codriver)
+    const codriver = await signedIn(team.shop.codriver)
     expect(
-      (await codriver.post("/api/uploads", { jobId: job.id, filename: "a.png", contentType: "image/png", size: 10 }))
-        .status,
+      (
+        await codriver.post("/api/uploads", {
+          jobId: team.job.id,
+          filename: "a.png",
+          contentType: "image/png",
+          size: 10,
+        })
+      ).status,
     ).toBe(403)
   })
 })
 
 describe("POST /api/uploads/:id/complete", () => {
   it("completes a PNG whose bytes are a PNG, and lists it on the job with a link that serves the file", async () => {
-    const tech = await signedIn(shop.tech)
-    const start = await tech.post("/api/uploads", {
-      jobId: job.id,
-      taskId: job.tasks[0]!.id,
+    const tech = await signedIn(team.shop.tech)
+    const taskId = team.job.tasks[0]!.id
+    const { id, done } = await uploadFile(tech, {
+      jobId: team.job.id,
+      taskId,
       filename: "tires.png",
       contentType: "image/png",
-      size: TINY_PNG.length,
+      bytes: TINY_PNG,
     })
-    expect(start.status).toBe(201)
-    await putToPresignedUrl(start.body.uploadUrl, "image/png", TINY_PNG)
-    const done = await tech.post(`/api/uploads/${start.body.attachmentId}/complete`)
     expect(done.status).toBe(200)
-    expect(done.body.attachment).toMatchObject({
-      id: start.body.attachmentId,
-      taskId: job.tasks[0]!.id,
-      contentType: "image/png",
-      size: TINY_PNG.length,
-    })
-    expect(done.body.attachment.thumbnailUrl).toContain(start.body.attachmentId)
+    expect(done.body.attachment).toMatchObject({ id, taskId, contentType: "image/png", size: TINY_PNG.length })
+    expect(done.body.attachment.thumbnailUrl).toContain(id)
 
-    const detail = await tech.get(`/api/jobs/${job.id}`)
-    expect(detail.body.job.attachments.map((a: { id: string }) => a.id)).toContain(start.body.attachmentId)
+    const detail = await tech.get(`/api/jobs/${team.job.id}`)
+    expect(detail.body.job.attachments.map((a: { id: string }) => a.id)).toContain(id)
 
-    const file = await download(tech, done.body.attachment.url)
+    const file = await tech.getBytes(done.body.attachment.url)
     expect(file.status).toBe(200)
     expect(file.bytes.equals(TINY_PNG)).toBe(true)
     expect(file.headers.get("content-type")).toBe("image/png")
@@ -122,106 +114,78 @@ describe("POST /api/uploads/:id/complete", () => {
   })
 
   it("completes a JPEG whose bytes start FF D8 FF", async () => {
-    const tech = await signedIn(shop.tech)
-    const start = await tech.post("/api/uploads", {
-      jobId: job.id,
-      filename: "face.jpg",
-      contentType: "image/jpeg",
-      size: JPEG_START.length,
-    })
-    await putToPresignedUrl(start.body.uploadUrl, "image/jpeg", JPEG_START)
-    const done = await tech.post(`/api/uploads/${start.body.attachmentId}/complete`)
+    const tech = await signedIn(team.shop.tech)
+    const { done } = await upload(tech, "face.jpg", "image/jpeg", JPEG_START)
     expect(done.status).toBe(200)
     expect(done.body.attachment.contentType).toBe("image/jpeg")
   })
 
   it("refuses a file whose bytes are not the declared type, and removes it from the object store", async () => {
-    const tech = await signedIn(shop.tech)
-    const start = await tech.post("/api/uploads", {
-      jobId: job.id,
-      filename: "scan.pdf",
-      contentType: "application/pdf",
-      size: TINY_PNG.length,
-    })
-    expect(start.status).toBe(201)
-    await putToPresignedUrl(start.body.uploadUrl, "application/pdf", TINY_PNG)
-    const key = (await objectKeyOf(start.body.attachmentId))!
+    const tech = await signedIn(team.shop.tech)
+    const pending = await start(tech, "scan.pdf", "application/pdf", TINY_PNG)
+    await putToPresignedUrl(pending.uploadUrl, "application/pdf", TINY_PNG)
+    const key = (await objectKeyOf(pending.id))!
     expect(await objectExists(key)).toBe(true)
 
-    const done = await tech.post(`/api/uploads/${start.body.attachmentId}/complete`)
+    const done = await completeUpload(tech, pending.id)
     expect(done.status).toBe(400)
     expect(done.body.error.message).toMatch(/image\/png, not application\/pdf/)
     expect(await objectExists(key)).toBe(false) // HeadObject through the S3 SDK: gone
-    expect(await objectKeyOf(start.body.attachmentId)).toBeUndefined()
-    const detail = await tech.get(`/api/jobs/${job.id}`)
-    expect(detail.body.job.attachments.map((a: { id: string }) => a.id)).not.toContain(start.body.attachmentId)
+    expect(await objectKeyOf(pending.id)).toBeUndefined()
+    const detail = await tech.get(`/api/jobs/${team.job.id}`)
+    expect(detail.body.job.attachments.map((a: { id: string }) => a.id)).not.toContain(pending.id)
   })
 
   it("refuses text dressed as a photo", async () => {
-    const tech = await signedIn(shop.tech)
+    const tech = await signedIn(team.shop.tech)
     const bytes = Buffer.from("<html>not a photo</html>")
-    const start = await tech.post("/api/uploads", {
-      jobId: job.id,
-      filename: "photo.webp",
-      contentType: "image/webp",
-      size: bytes.length,
-    })
-    await putToPresignedUrl(start.body.uploadUrl, "image/webp", bytes)
-    const key = (await objectKeyOf(start.body.attachmentId))!
-    const done = await tech.post(`/api/uploads/${start.body.attachmentId}/complete`)
+    const pending = await start(tech, "photo.webp", "image/webp", bytes)
+    await putToPresignedUrl(pending.uploadUrl, "image/webp", bytes)
+    const key = (await objectKeyOf(pending.id))!
+    const done = await completeUpload(tech, pending.id)
     expect(done.status).toBe(400)
     expect(await objectExists(key)).toBe(false)
   })
 
   it("answers 400 while nothing was uploaded yet, and keeps the upload open", async () => {
-    const tech = await signedIn(shop.tech)
-    const start = await tech.post("/api/uploads", {
-      jobId: job.id,
-      filename: "later.png",
-      contentType: "image/png",
-      size: TINY_PNG.length,
-    })
-    const early = await tech.post(`/api/uploads/${start.body.attachmentId}/complete`)
+    const tech = await signedIn(team.shop.tech)
+    const pending = await start(tech, "later.png", "image/png", TINY_PNG)
+    const early = await completeUpload(tech, pending.id)
     expect(early.status).toBe(400)
-    await putToPresignedUrl(start.body.uploadUrl, "image/png", TINY_PNG)
-    expect((await tech.post(`/api/uploads/${start.body.attachmentId}/complete`)).status).toBe(200)
+    await putToPresignedUrl(pending.uploadUrl, "image/png", TINY_PNG)
+    expect((await completeUpload(tech, pending.id)).status).toBe(200)
   })
 })
 
 describe("what is served is what was checked (issue 15)", () => {
   it("a second PUT to a used upload address changes nothing served", async () => {
-    const tech = await signedIn(shop.tech)
-    const { start, done } = await upload(tech, "bumper.png", "image/png", TINY_PNG)
+    const tech = await signedIn(team.shop.tech)
+    const { id, uploadUrl, done } = await upload(tech, "bumper.png", "image/png", TINY_PNG)
     expect(done.status).toBe(200)
     const html = Buffer.from("<html><script>alert(document.cookie)</script></html>")
     // The address may still be inside its few minutes; whatever the store does with the PUT, nothing served changes.
-    await putToPresignedUrl(start.body.uploadUrl, "image/png", html).catch(() => null)
-    const file = await download(tech, done.body.attachment.url)
+    await putToPresignedUrl(uploadUrl, "image/png", html).catch(() => null)
+    const file = await tech.getBytes(done.body.attachment.url)
     expect(file.status).toBe(200)
     expect(file.bytes.equals(TINY_PNG)).toBe(true)
     expect(file.headers.get("content-type")).toBe("image/png")
-    const again = await tech.post(`/api/uploads/${start.body.attachmentId}/complete`)
+    const again = await completeUpload(tech, id)
     expect(again.status).toBe(200)
-    expect((await download(tech, done.body.attachment.url)).bytes.equals(TINY_PNG)).toBe(true)
+    expect((await tech.getBytes(done.body.attachment.url)).bytes.equals(TINY_PNG)).toBe(true)
     // The accepted copy lives under a key no upload address is made for.
-    expect(await objectKeyOf(start.body.attachmentId)).toMatch(/^stored\//)
+    expect(await objectKeyOf(id)).toMatch(/^stored\//)
   })
 
   it("the upload address expires in minutes", async () => {
-    const tech = await signedIn(shop.tech)
-    const start = await tech.post("/api/uploads", {
-      jobId: job.id,
-      filename: "x.png",
-      contentType: "image/png",
-      size: TINY_PNG.length,
-    })
-    const expires = Number(new URL(start.body.uploadUrl).searchParams.get("X-Amz-Expires"))
+    const tech = await signedIn(team.shop.tech)
+    const pending = await start(tech, "x.png", "image/png", TINY_PNG)
+    const expires = Number(new URL(pending.uploadUrl).searchParams.get("X-Amz-Expires"))
     expect(expires).toBeGreaterThan(0)
     expect(expires).toBeLessThanOrEqual(10 * 60)
   })
 
   it("refuses a file that starts with %PDF- but holds HTML, and accepts a real PDF, served as an attachment", async () => {
-    const tech = await signedIn(shop.tech)
+    const tech = await signedIn(team.shop.tech)
     const fake = Buffer.from("%PDF-1.7\n<html><body><script>alert(1)</script></body></html>\n")
     const bad = await upload(tech, "scan.pdf", "application/pdf", fake)
     expect(bad.done.status).toBe(400)
@@ -233,7 +197,7 @@ describe("what is served is what was checked (issue 15)", () => {
     const real = Buffer.from(await doc.save())
     const good = await upload(tech, "alignment printout.pdf", "application/pdf", real)
     expect(good.done.status).toBe(200)
-    const file = await download(tech, good.done.body.attachment.url)
+    const file = await tech.getBytes(good.done.body.attachment.url)
     expect(file.bytes.equals(real)).toBe(true)
     expect(file.headers.get("content-type")).toBe("application/pdf")
     expect(file.headers.get("x-content-type-options")).toBe("nosniff")
@@ -241,11 +205,11 @@ describe("what is served is what was checked (issue 15)", () => {
   })
 
   it("downloads files whose names hold accents, emoji and other scripts with their names intact (RFC 6266, RFC 8187)", async () => {
-    const tech = await signedIn(shop.tech)
+    const tech = await signedIn(team.shop.tech)
     for (const name of ["résumé.png", "🚗 front.png", "車検.png"]) {
       const { done } = await upload(tech, name, "image/png", TINY_PNG)
       expect(done.status).toBe(200)
-      const header = (await download(tech, done.body.attachment.url)).headers.get("content-disposition")!
+      const header = (await tech.getBytes(done.body.attachment.url)).headers.get("content-disposition")!
       const star = /filename\*=UTF-8''([^;]+)$/.exec(header)?.[1]
       expect(decodeURIComponent(star!)).toBe(name)
     }

@@ -7,7 +7,8 @@ import { insertSamples } from "@/db/queries/samples"
 import { storedSample } from "@/lib/drive-file/stored"
 import { scoreDrive } from "@/lib/scoring"
 import { withCheckDigit } from "@/lib/vin"
-import { testDb, testDriveIds, type TestShop } from "../../helpers/db"
+import { checklistBody } from "../../helpers/checklist"
+import { insertDrive, testDb, type TestShop } from "../../helpers/db"
 
 let vinCounter = 0
 /** A VIN with a valid 49 CFR 565 check digit, different on every call. */
@@ -59,16 +60,7 @@ export async function insertJob(shop: TestShop, opts: { vin?: string; tasks?: nu
     .values({
       task_id: tasks[0]!.id,
       shop_id: shop.shopId,
-      data: JSON.stringify({
-        faultCodes: { none: true, expected: [] },
-        tires: { unit: "psi", placard: 35, fl: 35, fr: 35, rl: 34, rr: 35 },
-        loadNormal: true,
-        fuelLevel: "3/4",
-        sensorClean: true,
-        mountUndamaged: true,
-        alignmentChecked: true,
-        notes: "",
-      }),
+      data: JSON.stringify(checklistBody({ tires: { unit: "psi", placard: 35, fl: 35, fr: 35, rl: 34, rr: 35 } })),
       completed_by: shop.tech.id,
     })
     .execute()
@@ -97,27 +89,20 @@ export async function insertScoredDrive(shop: TestShop, opts: InsertDriveOptions
   })
   const file = { ...generated, samples: generated.samples.map(storedSample) } // scored as stored
   const score = scoreDrive(file)
-  const { id, public_id: publicId } = testDriveIds(shop.shopId)
   const status = opts.status ?? "finished"
   const driverId = opts.driverId ?? shop.tech.id
-  await db
-    .insertInto("drive")
-    .values({
-      id,
-      public_id: publicId,
-      shop_id: shop.shopId,
-      job_id: opts.job?.jobId ?? null,
-      task_id: opts.job?.taskId ?? null,
-      vehicle_description: opts.job ? null : "Loaner, unplanned drive",
-      profile: JSON.stringify(score.profile),
-      driver_id: driverId,
-      co_driver_id: opts.coDriverId === undefined ? shop.codriver.id : opts.coDriverId,
-      status,
-      verdict: status === "finished" ? score.verdict : null,
-      review_status: opts.reviewStatus ?? null,
-      finished_at: status === "finished" ? (opts.finishedAt ?? new Date()) : null,
-    })
-    .execute()
+  const { id: publicId, internalId: id } = await insertDrive(shop, {
+    job_id: opts.job?.jobId ?? null,
+    task_id: opts.job?.taskId ?? null,
+    vehicle_description: opts.job ? null : "Loaner, unplanned drive",
+    profile: JSON.stringify(score.profile),
+    driver_id: driverId,
+    co_driver_id: opts.coDriverId === undefined ? shop.codriver.id : opts.coDriverId,
+    status,
+    verdict: status === "finished" ? score.verdict : null,
+    review_status: opts.reviewStatus ?? null,
+    finished_at: status === "finished" ? (opts.finishedAt ?? new Date()) : null,
+  })
   await insertSamples(db, id, shop.shopId, file.samples)
   await db
     .insertInto("mark")

@@ -11,7 +11,7 @@ import type { Verdict } from "@/lib/scoring/types"
 import { listReviewQueue } from "@/db/queries/reviews"
 import { scoreDrive, type Score } from "@/lib/scoring"
 import { generateDrive, PATTERN_MIN_MINUTES, type DrivePattern } from "@/lib/tracks"
-import { createTestProfile, createTestShop, testDb } from "../../helpers/db"
+import { createTestProfile, createTestShop, insertDrive, testDb } from "../../helpers/db"
 
 const harshSql = sql<number>`coalesce((score.result->'harshEvents'->>'accel')::int, 0) + coalesce((score.result->'harshEvents'->>'decel')::int, 0)`
 
@@ -180,22 +180,13 @@ describe("reads from the drive's own columns", () => {
     const harsh = scoreDrive(generateDrive({ seed: 78, pattern: "harsh", minutes: PATTERN_MIN_MINUTES.harsh }))
     expect(met.verdict).toBe("met")
     expect(harsh.harshEvents.accel + harsh.harshEvents.decel).toBeGreaterThan(0)
-    const publicId = randomUUID()
-    const id = internalDriveId(shop.shopId, publicId)
+    const { internalId: id } = await insertDrive(shop, {
+      profile: JSON.stringify(met.profile),
+      status: "finished",
+      verdict: "met",
+      finished_at: new Date(),
+    })
     const db = testDb()
-    await db
-      .insertInto("drive")
-      .values({
-        id,
-        public_id: publicId,
-        shop_id: shop.shopId,
-        profile: JSON.stringify(met.profile),
-        driver_id: shop.tech.id,
-        status: "finished",
-        verdict: "met",
-        finished_at: new Date(),
-      })
-      .execute()
     await db
       .insertInto("score")
       .values({ drive_id: id, shop_id: shop.shopId, verdict: "met", result: JSON.stringify(met) })

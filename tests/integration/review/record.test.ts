@@ -1,36 +1,19 @@
 import { randomUUID } from "node:crypto"
-import { PDFParse } from "pdf-parse"
 import { describe, expect, it } from "vitest"
 import { formatDuration } from "@/lib/format"
 import { createTestShop } from "../../helpers/db"
-import { testEnv } from "../../helpers/env"
 import { ApiClient, signedIn } from "../../helpers/http"
 import { insertJob, insertScoredDrive, waitForMail } from "./fixtures"
-
-async function pdfText(bytes: Uint8Array) {
-  const parser = new PDFParse({ data: Buffer.from(bytes) })
-  try {
-    return (await parser.getText()).text
-  } finally {
-    await parser.destroy()
-  }
-}
-
-async function getPdf(client: ApiClient, path: string) {
-  const res = await fetch(`${testEnv().baseUrl}${path}`, {
-    headers: client.cookie ? { cookie: client.cookie, "x-forwarded-for": client.address } : {},
-  })
-  return { status: res.status, type: res.headers.get("content-type"), bytes: new Uint8Array(await res.arrayBuffer()) }
-}
+import { pdfText } from "../../helpers/pdf"
 
 describe("GET /api/drives/:id/record", () => {
   it("is a PDF whose text holds the VIN, the verdict and the qualifying minutes", async () => {
     const shop = await createTestShop("Record")
     const job = await insertJob(shop)
     const drive = await insertScoredDrive(shop, { pattern: "short", seed: 301, job })
-    const res = await getPdf(await signedIn(shop.tech), `/api/drives/${drive.id}/record`)
+    const res = await (await signedIn(shop.tech)).getBytes(`/api/drives/${drive.id}/record`)
     expect(res.status).toBe(200)
-    expect(res.type).toBe("application/pdf")
+    expect(res.headers.get("content-type")).toBe("application/pdf")
     expect(Buffer.from(res.bytes.subarray(0, 5)).toString()).toBe("%PDF-")
     const text = await pdfText(res.bytes)
     expect(text).toContain(job.vin)
@@ -47,7 +30,7 @@ describe("GET /api/drives/:id/record", () => {
     expect(set.status).toBe(200)
     expect(set.body.settings.timeZone).toBe("Pacific/Auckland")
     expect((await admin.patch("/api/shop/settings", { timeZone: "Mars/Olympus" })).status).toBe(400)
-    const text = await pdfText((await getPdf(await signedIn(shop.tech), `/api/drives/${drive.id}/record`)).bytes)
+    const text = await pdfText((await (await signedIn(shop.tech)).getBytes(`/api/drives/${drive.id}/record`)).bytes)
     // IANA tz database: Pacific/Auckland is UTC+13 (NZDT) in the southern summer, UTC+12 (NZST) in winter.
     const started = new Date(drive.score.startedAtMs ?? Date.now())
     const zoneShort = new Intl.DateTimeFormat("en-US", { timeZone: "Pacific/Auckland", timeZoneName: "short" })
@@ -65,10 +48,10 @@ describe("GET /api/drives/:id/record", () => {
     const shop = await createTestShop("RecordMine")
     const other = await createTestShop("RecordTheirs")
     const theirs = await insertScoredDrive(other, { pattern: "short", seed: 302 })
-    expect((await getPdf(await signedIn(shop.lead), `/api/drives/${theirs.id}/record`)).status).toBe(404)
+    expect((await (await signedIn(shop.lead)).getBytes(`/api/drives/${theirs.id}/record`)).status).toBe(404)
     const notNamed = await insertScoredDrive(shop, { pattern: "short", seed: 303, coDriverId: null })
-    expect((await getPdf(await signedIn(shop.codriver), `/api/drives/${notNamed.id}/record`)).status).toBe(404)
-    expect((await getPdf(new ApiClient(), `/api/drives/${notNamed.id}/record`)).status).toBe(401)
+    expect((await (await signedIn(shop.codriver)).getBytes(`/api/drives/${notNamed.id}/record`)).status).toBe(404)
+    expect((await new ApiClient().getBytes(`/api/drives/${notNamed.id}/record`)).status).toBe(401)
   })
 })
 

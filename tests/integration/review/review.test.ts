@@ -4,6 +4,20 @@ import { createTestShop, testDb } from "../../helpers/db"
 import { ApiClient, signedIn } from "../../helpers/http"
 import { insertJob, insertScoredDrive, waitForMail } from "./fixtures"
 
+async function storedJobStatus(jobId: string) {
+  const row = await testDb().selectFrom("job").select("status").where("id", "=", jobId).executeTakeFirstOrThrow()
+  return row.status
+}
+
+async function storedReviewStatus(internalDriveId: string) {
+  const row = await testDb()
+    .selectFrom("drive")
+    .select("review_status")
+    .where("id", "=", internalDriveId)
+    .executeTakeFirstOrThrow()
+  return row.review_status
+}
+
 describe("POST /api/drives/:id/review", () => {
   it("refuses technicians and co-drivers (403) and signed-out callers (401)", async () => {
     const shop = await createTestShop("ReviewRoles")
@@ -13,12 +27,7 @@ describe("POST /api/drives/:id/review", () => {
       expect(res.status).toBe(403)
     }
     expect((await new ApiClient().post(`/api/drives/${drive.id}/review`, { decision: "approve" })).status).toBe(401)
-    const row = await testDb()
-      .selectFrom("drive")
-      .select("review_status")
-      .where("id", "=", drive.internalId)
-      .executeTakeFirstOrThrow()
-    expect(row.review_status).toBeNull()
+    expect(await storedReviewStatus(drive.internalId)).toBeNull()
   })
 
   it("needs a note to send a drive back (400 naming note) and stores nothing without one", async () => {
@@ -49,12 +58,7 @@ describe("POST /api/drives/:id/review", () => {
     expect(res.status).toBe(200)
     expect(res.body.drive.id).toBe(drive.id)
     expect(res.body.drive.reviewStatus).toBe("redo")
-    const jobRow = await testDb()
-      .selectFrom("job")
-      .select("status")
-      .where("id", "=", job.jobId)
-      .executeTakeFirstOrThrow()
-    expect(jobRow.status).toBe("redo")
+    expect(await storedJobStatus(job.jobId)).toBe("redo")
 
     const queue = await lead.get("/api/review")
     expect(queue.body.drives.map((d: { id: string }) => d.id)).not.toContain(drive.id)
@@ -88,12 +92,7 @@ describe("POST /api/drives/:id/review", () => {
     })
     expect(res.status).toBe(200)
     expect(res.body.drive.reviewStatus).toBe("approved")
-    const jobRow = await testDb()
-      .selectFrom("job")
-      .select("status")
-      .where("id", "=", job.jobId)
-      .executeTakeFirstOrThrow()
-    expect(jobRow.status).toBe("complete")
+    expect(await storedJobStatus(job.jobId)).toBe("complete")
 
     const again = await lead.post(`/api/drives/${drive.id}/review`, { decision: "redo", note: "changed my mind" })
     expect(again.status).toBe(409)
@@ -119,11 +118,6 @@ describe("POST /api/drives/:id/review", () => {
     const lead = await signedIn(shop.lead)
     expect((await lead.post(`/api/drives/${theirs.id}/review`, { decision: "approve" })).status).toBe(404)
     expect((await lead.post(`/api/drives/not-a-uuid/review`, { decision: "approve" })).status).toBe(404)
-    const row = await testDb()
-      .selectFrom("drive")
-      .select("review_status")
-      .where("id", "=", theirs.internalId)
-      .executeTakeFirstOrThrow()
-    expect(row.review_status).toBeNull()
+    expect(await storedReviewStatus(theirs.internalId)).toBeNull()
   })
 })

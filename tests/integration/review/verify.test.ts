@@ -1,28 +1,17 @@
 // Issue "a verifiable record": the PDF names its revision and prints a verification code; the public
 // verify route says which revision of which record a code or a PDF's exact bytes are, and nothing more.
 import { randomUUID } from "node:crypto"
-import { PDFParse } from "pdf-parse"
 import { beforeAll, describe, expect, it } from "vitest"
 import { generateDrive } from "@/lib/tracks"
 import { createTestShop, type TestShop } from "../../helpers/db"
 import { testEnv } from "../../helpers/env"
 import { ApiClient, signedIn } from "../../helpers/http"
-
-async function pdfText(bytes: Uint8Array) {
-  const parser = new PDFParse({ data: Buffer.from(bytes) })
-  try {
-    return (await parser.getText()).text
-  } finally {
-    await parser.destroy()
-  }
-}
+import { pdfText } from "../../helpers/pdf"
 
 async function download(client: ApiClient, driveId: string) {
-  const res = await fetch(`${testEnv().baseUrl}/api/drives/${driveId}/record`, {
-    headers: { cookie: client.cookie!, "x-forwarded-for": client.address },
-  })
+  const res = await client.getBytes(`/api/drives/${driveId}/record`)
   expect(res.status).toBe(200)
-  return new Uint8Array(await res.arrayBuffer())
+  return res.bytes
 }
 
 function postPdf(client: ApiClient, bytes: Uint8Array) {

@@ -1,17 +1,9 @@
 import { describe, expect, it } from "vitest"
 import { alignmentRequired, assessChecklist, checkTires, KPA_PER_PSI, kpaToPsi, psiToKpa } from "@/lib/checklist"
 import { checklistSchema, type ChecklistData } from "@/lib/validation/checklist"
+import { checklistBody } from "../../helpers/checklist"
 
-const base: ChecklistData = {
-  faultCodes: { none: true, expected: [] },
-  tires: { unit: "psi", placard: 35, fl: 35, fr: 35, rl: 35, rr: 35 },
-  loadNormal: true,
-  fuelLevel: "1/2",
-  sensorClean: true,
-  mountUndamaged: true,
-  alignmentChecked: null,
-  notes: "",
-}
+const base: ChecklistData = checklistBody({ fuelLevel: "1/2", alignmentChecked: null })
 const driveTask = { method: "dynamic", reason: "bumper_or_grille_work" }
 
 describe("pressure units", () => {

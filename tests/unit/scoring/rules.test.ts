@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest"
 import type { Sample } from "@/lib/drive-file"
 import { scoreDrive } from "@/lib/scoring"
 import { mphToMps } from "@/lib/units"
+import { ALWAYS_CONDITIONS, SCORE_FIELDS } from "../../helpers/score"
 import { T0, drive, mark, samplesWithSpeeds, steady } from "../helpers/drive"
 
 // Rule numbers refer to /work/shared/specs/drive-file.md "Scoring rules".
@@ -350,27 +351,10 @@ describe("rule 8: verdicts", () => {
     const s = scoreDrive(
       drive(steady(60, FAST), [mark(0, "lead-on"), mark(40, "cleared"), mark(50, "verified")], profile),
     )
-    for (const key of [
-      "verdict",
-      "reasons",
-      "durationSeconds",
-      "distanceMeters",
-      "gapSeconds",
-      "qualifyingSeconds",
-      "followingSeconds",
-      "qualifyingSecondsBeforeClear",
-      "followingSecondsBeforeClear",
-      "clearedAtSeconds",
-      "harshEvents",
-      "samplesUsed",
-      "samplesDropped",
-      "conditions",
-    ]) {
+    for (const key of SCORE_FIELDS) {
       expect(s).toHaveProperty(key)
     }
-    expect(s.conditions.map((c) => c.key)).toEqual(
-      expect.arrayContaining(["qualifying-time", "following-time", "cleared", "verified"]),
-    )
+    expect(s.conditions.map((c) => c.key)).toEqual(expect.arrayContaining([...ALWAYS_CONDITIONS]))
     expect(condition(s, "qualifying-time")).toMatchObject({ met: true, value: 40, required: 30, unit: "s" })
   })
 
