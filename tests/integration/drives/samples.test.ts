@@ -267,24 +267,22 @@ describe("POST /api/drives/:id/samples named in x-batch-id (the app's server ans
   })
 
   it("refuses a replay to a technician who may not record on the drive (403), though the batch is stored", async () => {
-    const drive = await startDrive(tech)
-    const path = `/api/drives/${drive.id}/samples`
-    const raw = JSON.stringify({ batchId: "claimed", samples: sampleRun(3) })
-    expect((await tech.request("POST", path, undefined, { raw, headers: named("claimed") })).status).toBe(200)
-    const tech2 = await signedIn(await addPerson(shop.shopId, "technician", shop.tech))
-    const replay = await tech2.request("POST", path, undefined, { raw, headers: named("claimed") })
+    const drive = await startDrive(team.tech)
+    const samples = sampleRun(3)
+    expect((await postNamedBatch(team.tech, drive.id, "claimed", samples)).status).toBe(200)
+    const tech2 = await signedIn(await addPerson(team.shop.shopId, "technician", team.shop.tech))
+    const replay = await postNamedBatch(tech2, drive.id, "claimed", samples)
     expect(replay.status).toBe(403)
     expect(replay.body.error.code).toBe("forbidden")
   })
 
   it("refuses a replay once a lead has reviewed the drive (409)", async () => {
-    const drive = await startDrive(tech)
-    const path = `/api/drives/${drive.id}/samples`
-    const raw = JSON.stringify({ batchId: "before-review", samples: sampleRun(3) })
-    expect((await tech.request("POST", path, undefined, { raw, headers: named("before-review") })).status).toBe(200)
-    expect((await tech.post(`/api/drives/${drive.id}/finish`)).status).toBe(200)
+    const drive = await startDrive(team.tech)
+    const samples = sampleRun(3)
+    expect((await postNamedBatch(team.tech, drive.id, "before-review", samples)).status).toBe(200)
+    expect((await team.tech.post(`/api/drives/${drive.id}/finish`)).status).toBe(200)
     await testDb().updateTable("drive").set({ review_status: "approved" }).where("public_id", "=", drive.id).execute()
-    const replay = await tech.request("POST", path, undefined, { raw, headers: named("before-review") })
+    const replay = await postNamedBatch(team.tech, drive.id, "before-review", samples)
     expect(replay.status).toBe(409)
     expect(replay.body.error.code).toBe("conflict")
   })
