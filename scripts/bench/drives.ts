@@ -6,7 +6,6 @@
 import { randomUUID } from "node:crypto"
 import pg from "pg"
 import { createDb, type Db } from "@/db/client"
-import { hashPassword } from "@/lib/auth/password"
 import { driveKey } from "@/db/queries/samples"
 import { internalDriveId } from "@/lib/drive-id"
 import type { Sample } from "@/lib/drive-file"
@@ -14,6 +13,7 @@ import { encodeDegrees, encodeMillis } from "@/lib/drive-file/stored"
 import { flushOutbox, makeItem, memoryOutboxStore, type Transport } from "@/lib/recorder/outbox"
 import { SEND_MAX_SAMPLES } from "@/lib/recorder/batching"
 import { hourAt10Hz } from "./scoring"
+import { benchPerson, benchShop, signInCookie } from "./rig"
 import type { BenchContext, BenchFigure } from "./types"
 
 interface Rig {
@@ -29,33 +29,11 @@ async function rig(ctx: BenchContext): Promise<Rig> {
   return ctx.memo("drives-rig", async () => {
     const baseUrl = ctx.env.BASE_URL!
     const db = createDb(ctx.env.DATABASE_URL)
-    const { id: shopId } = await db
-      .insertInto("shop")
-      .values({ name: `Bench shop ${randomUUID().slice(0, 8)}`, settings: "{}" })
-      .returning("id")
-      .executeTakeFirstOrThrow()
-    const userId = randomUUID()
-    const email = `bench-${userId.slice(0, 8)}@bench.invalid`
-    const password = `bench-${randomUUID()}`
-    await db
-      .insertInto("app_user")
-      .values({
-        id: userId,
-        shop_id: shopId,
-        email,
-        name: "Bench technician",
-        role: "technician",
-        password_hash: await hashPassword(password),
-      })
-      .execute()
+    const shopId = await benchShop(db, "shop")
+    const person = await benchPerson(db, shopId, "technician")
+    const userId = person.id
     const address = `bench-${process.pid}-${Date.now()}`
-    const signIn = await fetch(`${baseUrl}/api/session`, {
-      method: "POST",
-      headers: { "content-type": "application/json", "x-forwarded-for": address },
-      body: JSON.stringify({ email, password }),
-    })
-    if (!signIn.ok) throw new Error(`bench sign-in failed: ${signIn.status}`)
-    const cookie = signIn.headers.get("set-cookie")!.split(";")[0]!
+    const cookie = await signInCookie(baseUrl, person, address)
     const transport: Transport = {
       async request(method, path, body) {
         const res = await fetch(`${baseUrl}${path}`, {

@@ -9,9 +9,9 @@ import { randomUUID } from "node:crypto"
 import fs from "node:fs"
 import { createDb } from "@/db/client"
 import { insertSamples } from "@/db/queries/samples"
-import { hashPassword } from "@/lib/auth/password"
 import { resolveProfile } from "@/lib/drive-file/profile"
 import { generateDrive } from "@/lib/tracks"
+import { benchPerson, benchShop, signInCookie } from "./rig"
 import type { BenchFigure } from "./types"
 
 const SAMPLES = 360_000
@@ -45,26 +45,10 @@ export const exportPeakRssMb360k: BenchFigure = {
   async run(ctx) {
     const baseUrl = ctx.env.BASE_URL!
     const db = createDb(ctx.env.DATABASE_URL)
-    const { id: shopId } = await db
-      .insertInto("shop")
-      .values({ name: `Bench exports ${randomUUID().slice(0, 8)}`, settings: "{}" })
-      .returning("id")
-      .executeTakeFirstOrThrow()
+    const shopId = await benchShop(db, "exports")
     try {
-      const password = `bench-${randomUUID()}`
-      const email = `bench-exports-${randomUUID().slice(0, 8)}@bench.invalid`
-      const userId = randomUUID()
-      await db
-        .insertInto("app_user")
-        .values({
-          id: userId,
-          shop_id: shopId,
-          email,
-          name: "Bench",
-          role: "technician",
-          password_hash: await hashPassword(password),
-        })
-        .execute()
+      const person = await benchPerson(db, shopId, "technician")
+      const userId = person.id
       const file = generateDrive({ seed: 360, minutes: SAMPLES / 600, hz: 10, pattern: "met" })
       if (file.samples.length !== SAMPLES) throw new Error(`generated ${file.samples.length} samples, not ${SAMPLES}`)
       const publicId = randomUUID()
@@ -100,13 +84,7 @@ export const exportPeakRssMb360k: BenchFigure = {
         )
         .execute()
 
-      const signIn = await fetch(`${baseUrl}/api/session`, {
-        method: "POST",
-        headers: { "content-type": "application/json", "x-forwarded-for": `bench-exports-${process.pid}` },
-        body: JSON.stringify({ email, password }),
-      })
-      if (!signIn.ok) throw new Error(`bench sign-in failed: ${signIn.status}`)
-      const cookie = signIn.headers.get("set-cookie")!.split(";")[0]!
+      const cookie = await signInCookie(baseUrl, person, `bench-exports-${process.pid}`)
 
       const pids = processTree(Number(ctx.env.BENCH_SERVER_PID))
       let reset = true

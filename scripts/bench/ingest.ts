@@ -14,10 +14,10 @@ import { createDb, type Db } from "@/db/client"
 import type { Database } from "@/db/types"
 import { findDriveAndBatch, ingestSampleBatch } from "@/db/queries/samples"
 import { SessionAdapter, sessionIdFromToken } from "@/lib/auth/lucia"
-import { hashPassword } from "@/lib/auth/password"
 import type { Sample } from "@/lib/drive-file"
 import { BATCH_ID_HEADER, SEND_AT_SAMPLES, SEND_EVERY_MS, SEND_MAX_SAMPLES } from "@/lib/recorder/batching"
 import { hourAt10Hz } from "./scoring"
+import { benchPerson, benchShop, percentileOf, signInCookie } from "./rig"
 import type { BenchContext, BenchFigure } from "./types"
 
 const RECORDERS = 100
@@ -45,33 +45,9 @@ function rig(ctx: BenchContext): Promise<Rig> {
   return ctx.memo("ingest-rig", async () => {
     const baseUrl = ctx.env.BASE_URL!
     const db = createDb(ctx.env.DATABASE_URL)
-    const { id: shopId } = await db
-      .insertInto("shop")
-      .values({ name: `Bench ingest ${randomUUID().slice(0, 8)}`, settings: "{}" })
-      .returning("id")
-      .executeTakeFirstOrThrow()
-    const userId = randomUUID()
-    const email = `ingest-${userId.slice(0, 8)}@bench.invalid`
-    const password = `bench-${randomUUID()}`
-    await db
-      .insertInto("app_user")
-      .values({
-        id: userId,
-        shop_id: shopId,
-        email,
-        name: "Bench technician",
-        role: "technician",
-        password_hash: await hashPassword(password),
-      })
-      .execute()
+    const shopId = await benchShop(db, "ingest")
     const address = `bench-ingest-${process.pid}`
-    const signIn = await fetch(`${baseUrl}/api/session`, {
-      method: "POST",
-      headers: { "content-type": "application/json", "x-forwarded-for": address },
-      body: JSON.stringify({ email, password }),
-    })
-    if (!signIn.ok) throw new Error(`bench sign-in failed: ${signIn.status}`)
-    const cookie = signIn.headers.get("set-cookie")!.split(";")[0]!
+    const cookie = await signInCookie(baseUrl, await benchPerson(db, shopId, "technician"), address)
     const sessionToken = cookie.slice(cookie.indexOf("=") + 1)
     // The time is the HTTP round trip: the body is made before the clock starts. The requests go through node:http
     // with kept-alive connections rather than fetch, which costs about three times the CPU a request: the load
@@ -125,11 +101,6 @@ async function done(r: Rig) {
   await r.db.deleteFrom("shop").where("id", "=", r.shopId).execute()
   await r.db.destroy()
   r.agent.destroy()
-}
-
-function percentileOf(values: number[], p: number) {
-  const sorted = [...values].sort((a, b) => a - b)
-  return sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)]!
 }
 
 /** `n` samples for batch number `k` of a drive: the bench hour's track, moved on in time so each `t` is new. */

@@ -2,9 +2,9 @@
 // (DATABASE_URL), like the drive ingest figures. Each run makes a throwaway shop and deletes it at the end.
 import { randomUUID } from "node:crypto"
 import { createDb, type Db } from "@/db/client"
-import { hashPassword } from "@/lib/auth/password"
 import { SEND_MAX_SAMPLES } from "@/lib/recorder/batching"
 import { hourAt10Hz } from "./scoring"
+import { benchLogin, benchPerson, benchShop, signInCookie } from "./rig"
 import type { BenchContext, BenchFigure } from "./types"
 
 interface Phone {
@@ -25,28 +25,12 @@ async function crew(ctx: BenchContext): Promise<Crew> {
   return ctx.memo("live-crew", async () => {
     const baseUrl = ctx.env.BASE_URL!
     const db = createDb(ctx.env.DATABASE_URL)
-    const { id: shopId } = await db
-      .insertInto("shop")
-      .values({ name: `Bench live ${randomUUID().slice(0, 8)}`, settings: "{}" })
-      .returning("id")
-      .executeTakeFirstOrThrow()
-    const password = `bench-${randomUUID()}`
-    const hash = await hashPassword(password)
+    const shopId = await benchShop(db, "live")
+    const login = await benchLogin()
     const person = async (role: "technician" | "co_driver"): Promise<Phone & { id: string }> => {
-      const id = randomUUID()
-      const email = `bench-${id.slice(0, 8)}@bench.invalid`
-      await db
-        .insertInto("app_user")
-        .values({ id, shop_id: shopId, email, name: `Bench ${role}`, role, password_hash: hash })
-        .execute()
-      const address = `bench-live-${id.slice(0, 8)}`
-      const res = await fetch(`${baseUrl}/api/session`, {
-        method: "POST",
-        headers: { "content-type": "application/json", "x-forwarded-for": address },
-        body: JSON.stringify({ email, password }),
-      })
-      if (!res.ok) throw new Error(`bench sign-in failed: ${res.status}`)
-      return { id, address, cookie: res.headers.get("set-cookie")!.split(";")[0]! }
+      const someone = await benchPerson(db, shopId, role, login)
+      const address = `bench-live-${someone.id.slice(0, 8)}`
+      return { id: someone.id, address, cookie: await signInCookie(baseUrl, someone, address) }
     }
     const driver = await person("technician")
     const codriver = await person("co_driver")

@@ -1,41 +1,17 @@
 // Page weight: the JavaScript a phone downloads to open the recorder the first time, gzip-compressed, in kB of
 // 1000 bytes: every chunk the start screen waits for, as Chromium loads them (issue 10). Needs the running app (BASE_URL) and its
 // database (DATABASE_URL) for a throwaway technician to sign in with.
-import { randomUUID } from "node:crypto"
 import { gzipSync } from "node:zlib"
 import { chromium } from "playwright-core"
 import { createDb } from "@/db/client"
-import { hashPassword } from "@/lib/auth/password"
 import { hourAt10Hz } from "./scoring"
+import { benchPerson, benchShop, signInCookie } from "./rig"
 import type { BenchFigure } from "./types"
 
 export async function signedInCookie(baseUrl: string, databaseUrl: string) {
   const db = createDb(databaseUrl)
-  const { id: shopId } = await db
-    .insertInto("shop")
-    .values({ name: `Bench pages ${randomUUID().slice(0, 8)}`, settings: "{}" })
-    .returning("id")
-    .executeTakeFirstOrThrow()
-  const password = `bench-${randomUUID()}`
-  const email = `bench-pages-${randomUUID().slice(0, 8)}@bench.invalid`
-  await db
-    .insertInto("app_user")
-    .values({
-      id: randomUUID(),
-      shop_id: shopId,
-      email,
-      name: "Bench",
-      role: "technician",
-      password_hash: await hashPassword(password),
-    })
-    .execute()
-  const res = await fetch(`${baseUrl}/api/session`, {
-    method: "POST",
-    headers: { "content-type": "application/json", "x-forwarded-for": `bench-pages-${process.pid}` },
-    body: JSON.stringify({ email, password }),
-  })
-  if (!res.ok) throw new Error(`bench sign-in failed: ${res.status}`)
-  const cookie = res.headers.get("set-cookie")!.split(";")[0]!
+  const shopId = await benchShop(db, "pages")
+  const cookie = await signInCookie(baseUrl, await benchPerson(db, shopId, "technician"), `bench-pages-${process.pid}`)
   return {
     cookie,
     async cleanup() {

@@ -9,32 +9,20 @@ import { createDb, type Db } from "@/db/client"
 import { loadDriveFile } from "@/db/queries/drive-file"
 import { applyDriveContribution, updateRoadModel } from "@/db/queries/roads"
 import { insertSamples } from "@/db/queries/samples"
-import { hashPassword } from "@/lib/auth/password"
 import { resolveProfile } from "@/lib/drive-file/profile"
 import { computeDriveContribution } from "@/lib/roads/aggregate"
 import { scoreDrive } from "@/lib/scoring"
 import { DEMO_ROAD_LAYOUTS, generateRoadDrive } from "@/lib/tracks/roads"
 import { hourAt10Hz } from "./scoring"
+import { benchPerson, benchShop, signInCookie } from "./rig"
 import type { BenchFigure } from "./types"
 
 const HOME = { lat: 43.8731, lon: -91.9187 }
 
-async function benchShop(db: Db, role: "technician" | "shop_lead") {
-  const { id: shopId } = await db
-    .insertInto("shop")
-    .values({
-      name: `Bench roads ${randomUUID().slice(0, 8)}`,
-      settings: JSON.stringify({ location: HOME, timeZone: "America/Chicago" }),
-    })
-    .returning("id")
-    .executeTakeFirstOrThrow()
-  const password = `bench-${randomUUID()}`
-  const email = `bench-roads-${randomUUID().slice(0, 8)}@bench.invalid`
-  const userId = randomUUID()
-  await db
-    .insertInto("app_user")
-    .values({ id: userId, shop_id: shopId, email, name: "Bench", role, password_hash: await hashPassword(password) })
-    .execute()
+/** A shop at HOME with one person of `role`. */
+async function roadsShop(db: Db, role: "technician" | "shop_lead") {
+  const shopId = await benchShop(db, "roads", { location: HOME, timeZone: "America/Chicago" })
+  const { id: userId, email, password } = await benchPerson(db, shopId, role)
   return { shopId, userId, email, password }
 }
 
@@ -64,7 +52,7 @@ export const roadModelUpdateMs: BenchFigure = {
   requiresEnv: ["DATABASE_URL"],
   async run(ctx) {
     const db = createDb(ctx.env.DATABASE_URL)
-    const { shopId, userId } = await benchShop(db, "technician")
+    const { shopId, userId } = await roadsShop(db, "technician")
     try {
       const { file } = hourAt10Hz(ctx)
       const drive = await insertDriveRow(db, shopId, userId, file.samples[0]!.t)
@@ -105,7 +93,7 @@ export const roadModelUpdateMs: BenchFigure = {
 
 /** The roadsPageP95Ms shop: a lead and 2,000 drives over 10 weeks, 07:00-18:59, on the three invented roads, added as scoring adds them. */
 export async function seedRoadsPageShop(db: Db) {
-  const shop = await benchShop(db, "shop_lead")
+  const shop = await roadsShop(db, "shop_lead")
   const day0 = Date.now() - 70 * 86_400_000
   for (let k = 0; k < 2000; k++) {
     const layout = DEMO_ROAD_LAYOUTS[k % 3]!
@@ -141,13 +129,7 @@ export const roadsPageP95Ms: BenchFigure = {
     const db = createDb(ctx.env.DATABASE_URL)
     const { shopId, email, password } = await seedRoadsPageShop(db)
     try {
-      const signIn = await fetch(`${baseUrl}/api/session`, {
-        method: "POST",
-        headers: { "content-type": "application/json", "x-forwarded-for": `bench-roads-${process.pid}` },
-        body: JSON.stringify({ email, password }),
-      })
-      if (!signIn.ok) throw new Error(`bench sign-in failed: ${signIn.status}`)
-      const cookie = signIn.headers.get("set-cookie")!.split(";")[0]!
+      const cookie = await signInCookie(baseUrl, { email, password }, `bench-roads-${process.pid}`)
       const get = async () => {
         const res = await fetch(`${baseUrl}/roads?hour=10&day=all`, { headers: { cookie } })
         const html = await res.text()

@@ -10,11 +10,11 @@ import { internalDriveId } from "@/lib/drive-id"
 import { sql } from "kysely"
 import { createDb } from "@/db/client"
 import { insertSamples } from "@/db/queries/samples"
-import { hashPassword } from "@/lib/auth/password"
 import { resolveProfile } from "@/lib/drive-file/profile"
 import type { Sample } from "@/lib/drive-file/schema"
 import { SEND_MAX_SAMPLES } from "@/lib/recorder/batching"
 import { generateDrive } from "@/lib/tracks"
+import { benchPerson, benchShop } from "./rig"
 import type { BenchFigure } from "./types"
 
 const SAMPLES = 1_000_000
@@ -32,23 +32,8 @@ export const sampleBytes: BenchFigure = {
   requiresEnv: ["DATABASE_URL"],
   async run(ctx) {
     const db = createDb(ctx.env.DATABASE_URL)
-    const { id: shopId } = await db
-      .insertInto("shop")
-      .values({ name: `Bench samples ${randomUUID().slice(0, 8)}`, settings: "{}" })
-      .returning("id")
-      .executeTakeFirstOrThrow()
-    const userId = randomUUID()
-    await db
-      .insertInto("app_user")
-      .values({
-        id: userId,
-        shop_id: shopId,
-        email: `bench-samples-${userId.slice(0, 8)}@bench.invalid`,
-        name: "Bench",
-        role: "technician",
-        password_hash: await hashPassword(randomUUID()),
-      })
-      .execute()
+    const shopId = await benchShop(db, "samples")
+    const userId = (await benchPerson(db, shopId, "technician")).id
     try {
       await db.transaction().execute(async (trx) => {
         await sql`set local timezone to 'UTC'`.execute(trx)
