@@ -22,6 +22,42 @@ export interface NumbersDrive {
   reviewStatus: "approved" | "redo" | null
 }
 
+/** A drive as the database lists it for the numbers (db/queries/numbers.ts listDrivesForNumbers). */
+export interface NumbersDriveRow {
+  public_id: string
+  finished_at: Date | string | null
+  verdict: string | null
+  profile_name: string | null
+  driver_id: string
+  driver_name: string | null
+  cleared_at_seconds: number | string | null
+  duration_seconds: number | string | null
+  qualifying_seconds: number | string | null
+  following_seconds: number | string | null
+  harsh_events: number | string | null
+  unmet_conditions: string[] | null
+  review_status: "approved" | "redo" | null
+}
+
+/** A listed row as the numbers read it: names for people and profiles gone since, numbers from their text. */
+export function numbersDriveFromRow(r: NumbersDriveRow): NumbersDrive {
+  return {
+    driveId: r.public_id,
+    finishedAt: new Date(r.finished_at ?? 0).toISOString(),
+    verdict: (r.verdict ?? "not_met") as Verdict,
+    profileName: r.profile_name ?? "Profile set on the drive",
+    technicianId: r.driver_id,
+    technicianName: r.driver_name ?? "Former staff",
+    clearedAtSeconds: r.cleared_at_seconds == null ? null : Number(r.cleared_at_seconds),
+    durationSeconds: Number(r.duration_seconds),
+    qualifyingSecondsBeforeClear: Number(r.qualifying_seconds),
+    followingSecondsBeforeClear: Number(r.following_seconds),
+    harshEvents: Number(r.harsh_events),
+    unmetConditions: r.unmet_conditions ?? [],
+    reviewStatus: r.review_status,
+  }
+}
+
 export const CONDITION_PROBLEM: Record<string, string> = {
   cleared: "Learn never reported complete",
   "time-limit": "Timed out",

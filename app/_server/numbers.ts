@@ -2,8 +2,7 @@ import "server-only"
 import type { Db } from "@/db/client"
 import { listDrivesForNumbers, loadNumbersSummary } from "@/db/queries/numbers"
 import { queryTimeZone } from "@/db/queries/shop-settings"
-import type { Numbers, NumbersDrive } from "@/lib/numbers"
-import type { Verdict } from "@/lib/scoring/types"
+import { numbersDriveFromRow, type Numbers, type NumbersDrive } from "@/lib/numbers"
 
 export const NUMBERS_DEFAULT_DAYS = 90
 
@@ -11,21 +10,7 @@ export const NUMBERS_DEFAULT_DAYS = 90
 export async function loadNumbersDrives(db: Db, shopId: string, days: number): Promise<NumbersDrive[]> {
   const since = new Date(Date.now() - days * 86_400_000)
   const rows = await listDrivesForNumbers(db, shopId, since)
-  return rows.map((r) => ({
-    driveId: r.public_id,
-    finishedAt: new Date(r.finished_at ?? 0).toISOString(),
-    verdict: (r.verdict ?? "not_met") as Verdict,
-    profileName: r.profile_name ?? "Profile set on the drive",
-    technicianId: r.driver_id,
-    technicianName: r.driver_name ?? "Former staff",
-    clearedAtSeconds: r.cleared_at_seconds == null ? null : Number(r.cleared_at_seconds),
-    durationSeconds: Number(r.duration_seconds),
-    qualifyingSecondsBeforeClear: Number(r.qualifying_seconds),
-    followingSecondsBeforeClear: Number(r.following_seconds),
-    harshEvents: Number(r.harsh_events),
-    unmetConditions: r.unmet_conditions ?? [],
-    reviewStatus: r.review_status,
-  }))
+  return rows.map(numbersDriveFromRow)
 }
 
 type NumbersWithZone = Numbers & {

@@ -6,8 +6,7 @@ import { sql } from "kysely"
 import { describe, expect, it } from "vitest"
 import { listDrivesForNumbers, loadNumbersSummary } from "@/db/queries/numbers"
 import { internalDriveId } from "@/lib/drive-id"
-import { computeNumbers, type NumbersDrive } from "@/lib/numbers"
-import type { Verdict } from "@/lib/scoring/types"
+import { computeNumbers, numbersDriveFromRow } from "@/lib/numbers"
 import { listReviewQueue } from "@/db/queries/reviews"
 import { scoreDrive, type Score } from "@/lib/scoring"
 import { generateDrive, PATTERN_MIN_MINUTES, type DrivePattern } from "@/lib/tracks"
@@ -67,25 +66,6 @@ async function oldNumbers(shopId: string, since: Date) {
     .orderBy("drive.finished_at", "asc")
     .orderBy("drive.id", "asc")
     .execute()
-}
-
-/** As app/_server/numbers.ts loadNumbersDrives shapes a row. */
-function asNumbersDrive(r: Awaited<ReturnType<typeof oldNumbers>>[number]): NumbersDrive {
-  return {
-    driveId: r.public_id,
-    finishedAt: new Date(r.finished_at ?? 0).toISOString(),
-    verdict: (r.verdict ?? "not_met") as Verdict,
-    profileName: r.profile_name ?? "Profile set on the drive",
-    technicianId: r.driver_id,
-    technicianName: r.driver_name ?? "Former staff",
-    clearedAtSeconds: r.cleared_at_seconds == null ? null : Number(r.cleared_at_seconds),
-    durationSeconds: Number(r.duration_seconds),
-    qualifyingSecondsBeforeClear: Number(r.qualifying_seconds),
-    followingSecondsBeforeClear: Number(r.following_seconds),
-    harshEvents: Number(r.harsh_events),
-    unmetConditions: r.unmet_conditions ?? [],
-    reviewStatus: r.review_status,
-  }
 }
 
 const PATTERNS: DrivePattern[] = ["met", "short", "never-cleared", "harsh", "unverified"]
@@ -169,7 +149,7 @@ describe("reads from the drive's own columns", () => {
       for (const zone of ["America/Chicago", "UTC", "Asia/Kolkata"]) {
         const summary = await loadNumbersSummary(testDb(), shop.shopId, since, zone)
         expect(summary.drives).toBe(before.length)
-        expect(summary).toEqual(computeNumbers(before.map(asNumbersDrive), zone))
+        expect(summary).toEqual(computeNumbers(before.map(numbersDriveFromRow), zone))
       }
     }
   })
