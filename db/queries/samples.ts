@@ -33,14 +33,7 @@ export async function insertSampleBatch(
     .returning("batch_id")
     .execute()
   if (claimed.length === 0) {
-    const seen = await trx
-      .selectFrom("sample_batch")
-      .select(["accepted", "duplicates"])
-      .where("drive_id", "=", driveId)
-      .where("batch_id", "=", batchId)
-      .where("shop_id", "=", shopId)
-      .executeTakeFirstOrThrow()
-    return { accepted: seen.accepted, duplicates: seen.duplicates, replayed: true, storedTs: [] }
+    return storedClaim(trx, driveId, shopId, batchId)
   }
   // The insert also announces the stored samples to the live channel (db/queries/drive-events.ts).
   const { accepted, ts: storedTs } = await insertSamplesNotifying(trx, driveId, shopId, samples)
@@ -115,6 +108,18 @@ export interface SampleRow {
 
 export function sampleOfRow(r: SampleRow): Sample {
   return decodeSample(r.t, r.lat, r.lon, r.speed, r.accuracy)
+}
+
+/** The answer a batch already stored gets: its counts, marked as a replay. */
+async function storedClaim(db: Db, driveId: string, shopId: string, batchId: string): Promise<BatchResult> {
+  const seen = await db
+    .selectFrom("sample_batch")
+    .select(["accepted", "duplicates"])
+    .where("drive_id", "=", driveId)
+    .where("batch_id", "=", batchId)
+    .where("shop_id", "=", shopId)
+    .executeTakeFirstOrThrow()
+  return { accepted: seen.accepted, duplicates: seen.duplicates, replayed: true, storedTs: [] }
 }
 
 export type DriveAndBatch = { drive: Drive; claim: BatchResult | null }
@@ -214,13 +219,6 @@ export async function ingestSampleBatch(
   } catch (error) {
     const e = error as { code?: string; constraint?: string }
     if (e.code !== "23505" || e.constraint !== "sample_batch_pk") throw error
-    const seen = await db
-      .selectFrom("sample_batch")
-      .select(["accepted", "duplicates"])
-      .where("drive_id", "=", driveId)
-      .where("batch_id", "=", batchId)
-      .where("shop_id", "=", shopId)
-      .executeTakeFirstOrThrow()
-    return { accepted: seen.accepted, duplicates: seen.duplicates, replayed: true, storedTs: [] }
+    return storedClaim(db, driveId, shopId, batchId)
   }
 }
