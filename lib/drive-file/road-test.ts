@@ -1,17 +1,12 @@
 import { z } from "zod"
+import { SENSORS } from "@/lib/labels"
 
 // Road-test checks: what the crew confirms on the road after any driver-assist calibration. The defaults
 // below are common practice, no published source; the vehicle maker's service information comes first,
 // and a shop lead edits them per condition profile (each edit is a new profile version).
 
-export const ROAD_TEST_SYSTEMS = [
-  "forward_radar",
-  "forward_camera",
-  "corner_radar",
-  "rear_radar",
-  "surround_camera",
-  "other",
-] as const
+/** A check belongs to one of the systems a calibration task names (lib/labels SENSORS). */
+export const ROAD_TEST_SYSTEMS = SENSORS
 export type RoadTestSystem = (typeof ROAD_TEST_SYSTEMS)[number]
 
 export const CHECK_RESULTS = ["pass", "fail", "not_equipped"] as const
