@@ -16,6 +16,7 @@ import { AppError } from "@/lib/errors"
 import { describeVehicle, VERDICT_WORD } from "@/lib/record"
 import { sha256Hex } from "@/lib/record/seal"
 import { BodyTooLargeError, readBodyBytes as readStreamBytes } from "@/lib/validation/json-body"
+import type { VerifyAnswer } from "@/lib/api/types"
 
 const VERIFY_WINDOW_SECONDS = 15 * 60
 /** Per client address in the window: lookups that matched nothing, and lookups in all (like sign-in's limits). */
@@ -25,16 +26,6 @@ const MAX_VERIFY = 100
 export const MAX_VERIFY_PDF_BYTES = 10 * 1024 * 1024
 
 export type VerifyInput = { code: string } | { pdf: Uint8Array }
-
-export type VerifyAnswer =
-  | {
-      result: "matches" | "newer_revision"
-      message: string
-      revision: number
-      latestRevision: number
-      record: { shopName: string; vehicle: string; verdict: string; sealedAt: string }
-    }
-  | { result: "no_match"; message: string }
 
 /** When the revision was sealed, exactly as the PDF prints it: in the shop's time zone, named. */
 async function printedTime(db: Db, shopId: string, at: Date) {

@@ -1,14 +1,7 @@
 import { CircleCheck, CircleX, History } from "lucide-react"
+import type { VerifyAnswer as VerifyAnswerBody } from "@/lib/api/types"
 
-export type VerifyAnswerView =
-  | {
-      result: "matches" | "newer_revision"
-      message: string
-      revision: number
-      latestRevision: number
-      record: { shopName: string; vehicle: string; verdict: string; sealedAt: string }
-    }
-  | { result: "no_match"; message: string }
+export type VerifyAnswerView = VerifyAnswerBody
 
 /** The answer of a check, in words and an icon; only what the PDF itself prints. */
 export function VerifyAnswer({ answer }: { answer: VerifyAnswerView }) {

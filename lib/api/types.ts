@@ -38,3 +38,14 @@ export interface NoticeList {
 export interface SessionBody {
   user: { id: string; email: string; name: string; role: Role; shopId: string }
 }
+
+/** POST /api/verify (and the verify page): only what the record's PDF itself prints. */
+export type VerifyAnswer =
+  | {
+      result: "matches" | "newer_revision"
+      message: string
+      revision: number
+      latestRevision: number
+      record: { shopName: string; vehicle: string; verdict: string; sealedAt: string }
+    }
+  | { result: "no_match"; message: string }
