@@ -2,13 +2,14 @@
 import { ArrowLeft, CarFront, ClipboardList, Users } from "lucide-react"
 import { lazy, Suspense, useEffect, useState } from "react"
 import { SENSOR_LABEL as SENSOR_WORD } from "@/lib/labels"
-import { DEFAULT_PROFILE, resolveProfile, type ResolvedProfile } from "@/lib/drive-file/profile"
+import { DEFAULT_PROFILE, resolveProfile } from "@/lib/drive-file/profile"
 import type { Profile } from "@/lib/drive-file/schema"
 import { profileInWords } from "@/lib/recorder/profile-words"
 import { useFormatPrefs } from "@/components/shell/format-prefs"
 import { AfterIdle, afterIdle } from "@/components/ui/after-idle"
 import { apiFetch } from "@/lib/api/client"
 import { GATE_CHECKS } from "@/lib/recorder/gate-checks"
+import type { DriveStart } from "@/lib/recorder/recorder"
 import type { ChecklistSummary } from "./start-gate"
 
 type JobSummary = { id: string; roNumber: string; label: string }
@@ -21,14 +22,7 @@ type TaskSummary = {
 }
 type Person = { id: string; name: string }
 
-export interface StartChoice {
-  profile: ResolvedProfile
-  label: string
-  vehicleDescription: string | null
-  jobId: string | null
-  taskId: string | null
-  coDriverId: string | null
-}
+export type StartChoice = DriveStart
 
 const OPEN_JOB_STATUSES = new Set(["open", "drive", "redo"])
 

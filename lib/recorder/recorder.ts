@@ -96,6 +96,16 @@ export const fetchTransport: Transport = {
   },
 }
 
+/** What the start screen hands the recorder: the conditions the drive is held to and what it is for. */
+export interface DriveStart {
+  profile: ResolvedProfile
+  label: string
+  vehicleDescription: string | null
+  jobId: string | null
+  taskId: string | null
+  coDriverId: string | null
+}
+
 export function createRecorder(transport: Transport = fetchTransport) {
   const store = createStore<RecorderState>(() => ({
     meta: null,
@@ -496,16 +506,7 @@ export function createRecorder(transport: Transport = fetchTransport) {
     return load(driveId)
   }
 
-  async function start(input: {
-    id: string
-    profile: ResolvedProfile
-    label: string
-    vehicleDescription: string | null
-    jobId: string | null
-    taskId: string | null
-    coDriverId: string | null
-    units?: UnitSystem
-  }) {
+  async function start(input: DriveStart & { id: string; units?: UnitSystem }) {
     const meta: DriveMeta = {
       id: input.id,
       profile: input.profile,
