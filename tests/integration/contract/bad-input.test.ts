@@ -5,7 +5,7 @@ import { beforeAll, describe, expect, it } from "vitest"
 import { withCheckDigit } from "@/lib/vin"
 import { checklistBody } from "../../helpers/checklist"
 import type { ApiClient, ApiResponse } from "../../helpers/http"
-import { inventedVin } from "../jobs/helpers"
+import { inventedVin } from "../../helpers/jobs"
 import { buildWorld, driveFile, expectErrorShape, snapshotShop, type World } from "./world"
 
 let w: World

@@ -6,7 +6,8 @@ import { internalDriveId } from "@/lib/drive-id"
 import { testDb } from "../../helpers/db"
 import { ApiClient, signedIn } from "../../helpers/http"
 import { ALWAYS_CONDITIONS, SCORE_FIELDS } from "../../helpers/score"
-import { completeUpload, createJob, newJobBody, startUpload, TINY_PNG, uploadFile } from "../jobs/helpers"
+import { createJob, newJobBody } from "../../helpers/jobs"
+import { completeUpload, startUpload, TINY_PNG, uploadFile } from "../jobs/helpers"
 import {
   buildWorld,
   countShopRows,

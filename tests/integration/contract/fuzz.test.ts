@@ -10,7 +10,7 @@ import { allowedMethods, isWellFormedPath } from "@/lib/api-route-match"
 import { testDb } from "../../helpers/db"
 import { testEnv } from "../../helpers/env"
 import type { ApiClient } from "../../helpers/http"
-import { inventedVin } from "../jobs/helpers"
+import { inventedVin } from "../../helpers/jobs"
 import { buildWorld, type World } from "./world"
 
 let w: World

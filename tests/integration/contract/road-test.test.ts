@@ -4,7 +4,7 @@ import { randomUUID } from "node:crypto"
 import { beforeAll, describe, expect, it } from "vitest"
 import { createTestShop } from "../../helpers/db"
 import { signedIn, type ApiClient, type ApiResponse } from "../../helpers/http"
-import { createJob } from "../jobs/helpers"
+import { createJob } from "../../helpers/jobs"
 import { clientsFor, countShopRows, expectErrorShape, snapshotShop, type Clients } from "./world"
 import type { TestShop } from "../../helpers/db"
 

@@ -6,7 +6,7 @@ import { randomUUID } from "node:crypto"
 import { beforeAll, describe, expect, it } from "vitest"
 import { checklistBody } from "../../helpers/checklist"
 import { signedIn, type ApiClient, type ApiResponse } from "../../helpers/http"
-import { newJobBody } from "../jobs/helpers"
+import { newJobBody } from "../../helpers/jobs"
 import {
   buildWorld,
   driveFile,

@@ -9,7 +9,8 @@ import { createTestShop, testDb, type TestShop, type TestUser } from "../../help
 import { ApiClient, signedIn, type ApiResponse } from "../../helpers/http"
 import { addPerson } from "../drives/helpers"
 import { PDFDocument } from "pdf-lib"
-import { createJob, putToPresignedUrl } from "../jobs/helpers"
+import { createJob } from "../../helpers/jobs"
+import { putToPresignedUrl } from "../jobs/helpers"
 
 export type RoleName = "technician" | "co_driver" | "shop_lead" | "admin"
 export const ROLE_NAMES: readonly RoleName[] = ["technician", "co_driver", "shop_lead", "admin"]

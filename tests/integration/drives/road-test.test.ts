@@ -9,7 +9,7 @@ import { generateDrive } from "@/lib/tracks"
 import { createTestShop, testDb, type TestShop } from "../../helpers/db"
 import { testEnv } from "../../helpers/env"
 import { signedIn, type ApiClient } from "../../helpers/http"
-import { createJob } from "../jobs/helpers"
+import { createJob } from "../../helpers/jobs"
 
 let shop: TestShop
 let tech: ApiClient

@@ -2,7 +2,7 @@ import { beforeAll, describe, expect, it } from "vitest"
 import { checklistBody } from "../../helpers/checklist"
 import { createTestShop, type TestShop } from "../../helpers/db"
 import { signedIn } from "../../helpers/http"
-import { createJob } from "./helpers"
+import { createJob } from "../../helpers/jobs"
 
 let shop: TestShop
 beforeAll(async () => {

@@ -1,7 +1,7 @@
 import { beforeAll, describe, expect, it } from "vitest"
 import { createTestShop, insertDrive, testDb, type TestShop } from "../../helpers/db"
 import { ApiClient, signedIn } from "../../helpers/http"
-import { createJob, inventedVin, newJobBody } from "./helpers"
+import { createJob, inventedVin, newJobBody } from "../../helpers/jobs"
 
 let shop: TestShop
 let other: TestShop

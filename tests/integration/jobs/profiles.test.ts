@@ -1,7 +1,7 @@
 import { beforeAll, describe, expect, it } from "vitest"
 import { createTestShop, insertDrive, testDb, type TestShop } from "../../helpers/db"
 import { signedIn } from "../../helpers/http"
-import { createJob } from "./helpers"
+import { createJob } from "../../helpers/jobs"
 
 let shop: TestShop
 beforeAll(async () => {

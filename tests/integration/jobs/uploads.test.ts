@@ -2,9 +2,9 @@ import { PDFDocument } from "pdf-lib"
 import { describe, expect, it } from "vitest"
 import { createTestShop } from "../../helpers/db"
 import { type ApiClient, signedIn } from "../../helpers/http"
+import { createJob } from "../../helpers/jobs"
 import {
   completeUpload,
-  createJob,
   JPEG_START,
   objectExists,
   putToPresignedUrl,

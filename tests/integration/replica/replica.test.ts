@@ -11,7 +11,7 @@ import { createDb, READ_APPLICATION_NAME, type Db } from "@/db/client"
 import { generateDrive } from "@/lib/tracks"
 import { createTestShop, testDb, type TestShop } from "../../helpers/db"
 import { ApiClient, signedIn } from "../../helpers/http"
-import { newJobBody } from "../jobs/helpers"
+import { newJobBody } from "../../helpers/jobs"
 
 const replicaBaseUrl = process.env.TEST_REPLICA_BASE_URL
 const standbyUrl = process.env.TEST_REPLICA_DATABASE_URL

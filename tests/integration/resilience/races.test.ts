@@ -5,7 +5,7 @@ import { beforeAll, describe, expect, it } from "vitest"
 import { createTestShop, testDb, type TestShop } from "../../helpers/db"
 import { type ApiClient, signedIn } from "../../helpers/http"
 import { expectErrorShape } from "../contract/world"
-import { inventedVin, newJobBody } from "../jobs/helpers"
+import { inventedVin, newJobBody } from "../../helpers/jobs"
 
 let shop: TestShop
 let admins: ApiClient[]
