@@ -45,6 +45,11 @@ const config = [
     rules: { "@typescript-eslint/no-explicit-any": "off" },
   },
   {
+    // Playwright's fixtures hand their value on through a callback named `use`, which is no React hook.
+    files: ["tests/e2e/**/*.ts"],
+    rules: { "react-hooks/rules-of-hooks": "off" },
+  },
+  {
     // Plain links on purpose: leaving the full-screen recorder is a full page load, and next/link's router code
     // would count against the recorder's first-load budget (recorderFirstLoadKbGzip); the not-found page is part
     // of every page's tree, so it loads no script either.

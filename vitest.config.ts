@@ -21,18 +21,6 @@ export default defineConfig({
           hookTimeout: 60_000,
         },
       },
-      {
-        resolve: { alias },
-        test: {
-          name: "e2e",
-          include: ["tests/e2e/**/*.spec.ts"],
-          environment: "node",
-          globalSetup: ["tests/e2e/global-setup.ts"],
-          fileParallelism: false,
-          testTimeout: 120_000,
-          hookTimeout: 120_000,
-        },
-      },
     ],
   },
 })

@@ -1,16 +1,21 @@
 // `npm test`: installs what the suites need, starts a throwaway database, the local fakes and a production
-// build of the app, then runs the unit, integration and end-to-end suites. Exits non-zero on any failure.
+// build of the app, then runs the unit and integration suites (Vitest) and the browser tests (Playwright's runner,
+// playwright.config.ts). Exits non-zero on any failure.
 // A full run (no arguments) first runs the static checks of scripts/check.mjs: both type checks, ESLint, Prettier's
-// format check and knip; a violation fails the run. Extra arguments go to Vitest and skip the static checks:
-// `npm test -- --project unit` (`npm run check` runs them alone).
+// format check and knip; a violation fails the run. Extra arguments skip the static checks and pick what runs:
+// `npm test -- --project unit`, `npm test -- tests/integration/drives`, `npm test -- --project e2e`,
+// `npm test -- tests/e2e/recorder.spec.ts --repeat-each 20` (files under tests/e2e and --repeat-each go to Playwright,
+// the rest to Vitest; `npm run check` runs the static checks alone).
 import fs from "node:fs"
+import os from "node:os"
+import path from "node:path"
 import { runChecks } from "./check.mjs"
 import { aptInstall } from "./lib/postgres.mjs"
 import { ensurePackages, log, npx, run } from "./lib/shell.mjs"
 import { startStack } from "./lib/stack.mjs"
 
-const vitestArgs = process.argv.slice(2)
-if (vitestArgs.length === 0) {
+const args = process.argv.slice(2)
+if (args.length === 0) {
   ensurePackages()
   if (!runChecks()) process.exit(1)
 }
@@ -40,13 +45,37 @@ const takesValue = new Set([
   "--dir",
   "--exclude",
 ])
-const filters = vitestArgs.filter((a, i) => !a.startsWith("-") && !takesValue.has(vitestArgs[i - 1]))
-const projects = vitestArgs.flatMap((a, i) =>
-  vitestArgs[i - 1] === "--project" ? [a] : a.startsWith("--project=") ? [a.slice(10)] : [],
+const filters = args.filter(
+  (a, i) => !a.startsWith("-") && !takesValue.has(args[i - 1]) && args[i - 1] !== "--repeat-each",
 )
+const projects = args.flatMap((a, i) =>
+  args[i - 1] === "--project" ? [a] : a.startsWith("--project=") ? [a.slice(10)] : [],
+)
+const isBrowserPath = (a) => a.replace(/^\.\//, "").startsWith("tests/e2e")
+const browserFiles = filters.filter(isBrowserPath)
+const repeatAt = args.indexOf("--repeat-each")
+const runBrowser =
+  args.length === 0 || projects.includes("e2e") || browserFiles.length > 0 || (repeatAt >= 0 && filters.length === 0)
+const runVitest =
+  args.length === 0 ||
+  projects.some((p) => p !== "e2e") ||
+  (filters.some((f) => !isBrowserPath(f)) && !projects.includes("e2e")) ||
+  (filters.length === 0 && projects.length === 0 && repeatAt < 0)
+// What Vitest gets: everything but the browser files, the e2e project and Playwright's --repeat-each.
+const vitestArgs = args.filter(
+  (a, i) =>
+    !isBrowserPath(a) &&
+    !(a === "e2e" && args[i - 1] === "--project") &&
+    !(a === "--project" && args[i + 1] === "e2e") &&
+    a !== "--project=e2e" &&
+    i !== repeatAt &&
+    i !== repeatAt + 1,
+)
+const playwrightArgs = [...browserFiles, ...(repeatAt >= 0 ? ["--repeat-each", args[repeatAt + 1]] : [])]
 const wantsReplica =
   process.env.TEST_REPLICA === "1" ||
   (process.env.TEST_REPLICA !== "0" &&
+    runVitest &&
     (projects.length === 0 || projects.includes("integration")) &&
     (filters.length === 0 || filters.some((f) => f.includes("replica"))))
 
@@ -77,7 +106,25 @@ try {
       ? { TEST_REPLICA_BASE_URL: stack.replica.baseUrl, TEST_REPLICA_DATABASE_URL: stack.replica.databaseUrl }
       : {}),
   }
-  code = run(npx("vitest"), ["run", ...vitestArgs], { env, check: false }).status ?? 1
+  // Each runner appends its counts here; the last line of the run adds them up.
+  const summaryFile = path.join(fs.mkdtempSync(path.join(os.tmpdir(), "straightaway-test-")), "summary.jsonl")
+  env.TEST_SUMMARY_FILE = summaryFile
+  code = 0
+  if (runVitest) code = run(npx("vitest"), ["run", ...vitestArgs], { env, check: false }).status ?? 1
+  if (runBrowser) {
+    const browser = run(npx("playwright"), ["test", ...playwrightArgs], { env, check: false }).status ?? 1
+    if (code === 0) code = browser
+  }
+  if (runVitest && runBrowser) {
+    const total = { passed: 0, failed: 0, skipped: 0 }
+    const lines = fs.existsSync(summaryFile) ? fs.readFileSync(summaryFile, "utf8").trim().split("\n") : []
+    for (const line of lines.filter(Boolean)) {
+      const counts = JSON.parse(line)
+      for (const key of Object.keys(total)) total[key] += counts[key]
+    }
+    if (lines.length < 2 && total.failed === 0) total.failed = 1 // a runner that never reported
+    process.stdout.write(`\nAll suites:\n${total.passed} passed, ${total.failed} failed, ${total.skipped} skipped\n`)
+  }
 } catch (error) {
   log(`Test set-up failed: ${error.message}`)
 } finally {

@@ -1,21 +1,16 @@
 import { AxeBuilder } from "@axe-core/playwright"
-import type { Browser, Page } from "playwright-core"
-import { afterAll, beforeAll, describe, expect, it } from "vitest"
-import { launchBrowser, newPhoneContext, signInPage } from "../helpers/browser"
 import { createTestShop, type TestShop, type TestUser } from "../helpers/db"
 import { insertJob, insertScoredDrive } from "../integration/review/fixtures"
+import { expect, signInPage, test, type BrowserContext, type Page } from "./fixtures"
 
 // WCAG 2.0, 2.1 and 2.2 success criteria at levels A and AA, as axe-core tags them (axe-core rule descriptions).
 const WCAG_TAGS = ["wcag2a", "wcag2aa", "wcag21a", "wcag21aa", "wcag22a", "wcag22aa"]
 const BLOCKING = new Set(["serious", "critical"])
-
-let browser: Browser
 let shop: TestShop
 let driveId: string
 let jobId: string
 
-beforeAll(async () => {
-  browser = await launchBrowser()
+test.beforeAll(async () => {
   shop = await createTestShop("E2EA11y")
   const job = await insertJob(shop)
   jobId = job.jobId
@@ -26,9 +21,6 @@ beforeAll(async () => {
     finishedAt: new Date(Date.now() - 3_600_000),
   })
   driveId = drive.id
-})
-afterAll(async () => {
-  await browser?.close()
 })
 
 /** Serious and critical WCAG A/AA problems on the page as it stands, one line each with where they are. */
@@ -46,14 +38,14 @@ async function blockingViolations(page: Page) {
 }
 
 async function check(
+  phone: () => Promise<BrowserContext>,
   user: TestUser | null,
   paths: Array<{ path: string; ready: (page: Page) => Promise<unknown> }>,
   scheme: "light" | "dark" = "light",
 ) {
-  const context = await newPhoneContext(browser)
-  const page = await context.newPage()
+  const page = await (await phone()).newPage()
   await page.emulateMedia({ colorScheme: scheme })
-  if (user) await signInPage(page, user.email, user.password)
+  if (user) await signInPage(page, user)
   const found: Record<string, string[]> = {}
   for (const { path, ready } of paths) {
     await page.goto(path)
@@ -62,18 +54,17 @@ async function check(
     const problems = await blockingViolations(page)
     if (problems.length) found[`${path} (${scheme})`] = problems
   }
-  await context.close()
   return found
 }
 
 const heading = (name: string | RegExp) => (page: Page) => page.getByRole("heading", { level: 1, name }).waitFor()
 
-describe("accessibility of the main pages (axe-core, WCAG 2 A and AA)", () => {
-  it("sign-in has no serious or critical violations", async () => {
-    expect(await check(null, [{ path: "/sign-in", ready: heading("Straightaway") }])).toEqual({})
+test.describe("accessibility of the main pages (axe-core, WCAG 2 A and AA)", () => {
+  test("sign-in has no serious or critical violations", async ({ phone }) => {
+    expect(await check(phone, null, [{ path: "/sign-in", ready: heading("Straightaway") }])).toEqual({})
   })
 
-  it("the shop lead's pages have none, light and dark", async () => {
+  test("the shop lead's pages have none, light and dark", async ({ phone }) => {
     const paths = [
       { path: "/review", ready: heading("Review") },
       { path: `/drives/${driveId}`, ready: (page: Page) => page.getByTestId("speed-chart").waitFor() },
@@ -82,24 +73,24 @@ describe("accessibility of the main pages (axe-core, WCAG 2 A and AA)", () => {
       { path: `/jobs/${jobId}`, ready: (page: Page) => page.getByTestId("task-card-0").waitFor() },
       { path: "/numbers", ready: heading("Numbers") },
     ]
-    expect(await check(shop.lead, paths, "light")).toEqual({})
-    expect(await check(shop.lead, paths, "dark")).toEqual({})
+    expect(await check(phone, shop.lead, paths, "light")).toEqual({})
+    expect(await check(phone, shop.lead, paths, "dark")).toEqual({})
   })
 
-  it("the admin's people page has none", async () => {
-    expect(await check(shop.admin, [{ path: "/admin/users", ready: heading("People") }])).toEqual({})
+  test("the admin's people page has none", async ({ phone }) => {
+    expect(await check(phone, shop.admin, [{ path: "/admin/users", ready: heading("People") }])).toEqual({})
   })
 
-  it("the technician's recorder start page, drives and jobs have none", async () => {
+  test("the technician's recorder start page, drives and jobs have none", async ({ phone }) => {
     const paths = [
       { path: "/record", ready: heading("Start a drive") },
       { path: "/drives", ready: heading("Drives") },
       { path: "/jobs", ready: (page: Page) => page.getByTestId("job-row").first().waitFor() },
     ]
-    expect(await check(shop.tech, paths)).toEqual({})
+    expect(await check(phone, shop.tech, paths)).toEqual({})
   })
 
-  it("the co-driver's drives list has none", async () => {
-    expect(await check(shop.codriver, [{ path: "/drives", ready: heading("Drives") }])).toEqual({})
+  test("the co-driver's drives list has none", async ({ phone }) => {
+    expect(await check(phone, shop.codriver, [{ path: "/drives", ready: heading("Drives") }])).toEqual({})
   })
 })

@@ -1,19 +1,11 @@
 import { deflateSync } from "node:zlib"
-import type { Browser } from "playwright-core"
-import { afterAll, beforeAll, describe, expect, it } from "vitest"
 import { withCheckDigit } from "@/lib/vin"
-import { launchBrowser, newPhoneContext, signInPage } from "../helpers/browser"
 import { createTestShop, testDb, type TestShop } from "../helpers/db"
-
-let browser: Browser
+import { expect, signInPage, test } from "./fixtures"
 let shop: TestShop
 
-beforeAll(async () => {
-  browser = await launchBrowser()
+test.beforeAll(async () => {
   shop = await createTestShop("E2E jobs")
-})
-afterAll(async () => {
-  await browser?.close()
 })
 
 function crc32(bytes: Buffer) {
@@ -50,11 +42,11 @@ function makePng(width: number, height: number, rgb: [number, number, number]) {
   ])
 }
 
-describe("a job on a phone", () => {
-  it("creates a job with a VIN, fills the checklist with a photo, and starts a drive from it", async () => {
-    const context = await newPhoneContext(browser)
+test.describe("a job on a phone", () => {
+  test("creates a job with a VIN, fills the checklist with a photo, and starts a drive from it", async ({ phone }) => {
+    const context = await phone()
     const page = await context.newPage()
-    await signInPage(page, shop.tech.email, shop.tech.password)
+    await signInPage(page, shop.tech)
 
     await page.goto("/jobs/new")
     const ro = `E2E-${Date.now()}`
@@ -140,18 +132,16 @@ describe("a job on a phone", () => {
     await expect
       .poll(() => page.locator(`select[aria-label=Job] option[value="${jobId}"]`).count(), { timeout: 15_000 })
       .toBe(1)
-    await context.close()
   })
 
-  it("lists the job in the table, found by search", async () => {
-    const context = await newPhoneContext(browser)
+  test("lists the job in the table, found by search", async ({ phone }) => {
+    const context = await phone()
     const page = await context.newPage()
-    await signInPage(page, shop.lead.email, shop.lead.password)
+    await signInPage(page, shop.lead)
     await page.goto("/jobs")
     await page.getByLabel("Search jobs").fill("Pennant")
     await expect.poll(() => page.getByTestId("job-row").count()).toBe(1)
     await page.getByTestId("job-row").getByRole("link").click()
     await page.waitForURL(/\/jobs\/[0-9a-f-]{36}$/)
-    await context.close()
   })
 })

@@ -1,30 +1,15 @@
 import { AxeBuilder } from "@axe-core/playwright"
-import type { Browser, Page } from "playwright-core"
-import { afterAll, beforeAll, describe, expect, it } from "vitest"
-import { launchBrowser, newPhoneContext, signInPage } from "../helpers/browser"
-import { createTestShop, type TestShop, type TestUser } from "../helpers/db"
+import { createTestShop, type TestShop } from "../helpers/db"
 import { signedIn } from "../helpers/http"
 import { insertJob, insertScoredDrive } from "../integration/review/fixtures"
-
-let browser: Browser
+import { expect, test, type Page } from "./fixtures"
 let shop: TestShop
 
-beforeAll(async () => {
-  browser = await launchBrowser()
+test.beforeAll(async () => {
   shop = await createTestShop("E2ENav")
   const job = await insertJob(shop)
   await insertScoredDrive(shop, { pattern: "short", seed: 911, job, finishedAt: new Date(Date.now() - 3_600_000) })
 })
-afterAll(async () => {
-  await browser?.close()
-})
-
-async function phonePage(user: TestUser) {
-  const context = await newPhoneContext(browser)
-  const page = await context.newPage()
-  await signInPage(page, user.email, user.password)
-  return page
-}
 
 /** Taps the entry in the phone's bottom bar, or in its "More" sheet when the bar has no room for it. */
 async function tapNav(page: Page, label: string) {
@@ -39,8 +24,7 @@ async function tapNav(page: Page, label: string) {
 }
 
 /** Walks every page of the role from the phone's navigation only: each tap lands on the page with its heading. */
-async function walk(user: TestUser, pages: Array<{ label: string; path: string; heading: RegExp }>) {
-  const page = await phonePage(user)
+async function walk(page: Page, pages: Array<{ label: string; path: string; heading: RegExp }>) {
   const reached: string[] = []
   for (const p of pages) {
     await tapNav(page, p.label)
@@ -53,7 +37,6 @@ async function walk(user: TestUser, pages: Array<{ label: string; path: string; 
       await page.waitForURL((url) => !url.pathname.startsWith("/record"))
     }
   }
-  await page.context().close()
   return reached
 }
 
@@ -80,26 +63,28 @@ const ADMIN = [
   { label: "People", path: "/admin/users", heading: /People/ },
 ]
 
-describe("phone navigation: every page a role may open is a tap or two away", () => {
-  it("the technician reaches drives, the recorder, jobs, roads and profiles", async () => {
-    expect(await walk(shop.tech, TECH)).toEqual(TECH.map((p) => p.path))
+test.describe("phone navigation: every page a role may open is a tap or two away", () => {
+  test("the technician reaches drives, the recorder, jobs, roads and profiles", async ({ phoneAs }) => {
+    expect(await walk(await phoneAs(shop.tech), TECH)).toEqual(TECH.map((p) => p.path))
   })
 
-  it("the co-driver reaches the drives that name them", async () => {
+  test("the co-driver reaches the drives that name them", async ({ phoneAs }) => {
     const co = [{ label: "Drives", path: "/drives", heading: /Drives/ }]
-    expect(await walk(shop.codriver, co)).toEqual(["/drives"])
+    expect(await walk(await phoneAs(shop.codriver), co)).toEqual(["/drives"])
   })
 
-  it("the shop lead reaches review, numbers, profiles and settings, through More where the bar is full", async () => {
-    expect(await walk(shop.lead, LEAD)).toEqual(LEAD.map((p) => p.path))
+  test("the shop lead reaches review, numbers, profiles and settings, through More where the bar is full", async ({
+    phoneAs,
+  }) => {
+    expect(await walk(await phoneAs(shop.lead), LEAD)).toEqual(LEAD.map((p) => p.path))
   })
 
-  it("the admin reaches People, Mail and Profiles on a phone, and gets back to People", async () => {
-    expect(await walk(shop.admin, ADMIN)).toEqual(ADMIN.map((p) => p.path))
+  test("the admin reaches People, Mail and Profiles on a phone, and gets back to People", async ({ phoneAs }) => {
+    expect(await walk(await phoneAs(shop.admin), ADMIN)).toEqual(ADMIN.map((p) => p.path))
   })
 
-  it("goes deeper by taps: a job from the list, a new job, a drive and its job", async () => {
-    const page = await phonePage(shop.lead)
+  test("goes deeper by taps: a job from the list, a new job, a drive and its job", async ({ phoneAs }) => {
+    const page = await phoneAs(shop.lead)
     await tapNav(page, "Jobs")
     await page.getByRole("link", { name: /New job/ }).click()
     await page.waitForURL("**/jobs/new")
@@ -110,23 +95,23 @@ describe("phone navigation: every page a role may open is a tap or two away", ()
     await page.waitForURL(/\/jobs\/[0-9a-f-]{36}$/)
     await tapNav(page, "Profiles")
     await page.getByRole("heading", { level: 1, name: /Condition profiles/ }).waitFor()
-    await page.context().close()
   })
 
-  it("a page that refuses or does not exist has a way back", async () => {
-    const page = await phonePage(shop.codriver)
+  test("a page that refuses or does not exist has a way back", async ({ phoneAs }) => {
+    const page = await phoneAs(shop.codriver)
     await page.goto("/drives/00000000-0000-4000-8000-000000000000")
     await page.getByTestId("way-back").click()
     await page.waitForURL("**/drives")
-    await page.context().close()
   })
 })
 
-describe("the co-driver's way in", () => {
-  it("leads with a Join as co-driver card for a drive being recorded that names them, and it opens the logging screen", async () => {
+test.describe("the co-driver's way in", () => {
+  test("leads with a Join as co-driver card for a drive being recorded that names them, and it opens the logging screen", async ({
+    phoneAs,
+  }) => {
     const job = await insertJob(shop)
     const live = await insertScoredDrive(shop, { pattern: "met", seed: 912, job, status: "recording" })
-    const page = await phonePage(shop.codriver)
+    const page = await phoneAs(shop.codriver)
     const card = page.locator(`[data-testid="join-card"][data-drive-id="${live.id}"]`)
     await card.waitFor()
     expect(await card.textContent()).toContain("Join as co-driver")
@@ -138,18 +123,19 @@ describe("the co-driver's way in", () => {
     expect(await page.getByTestId("location-why").textContent()).toContain("speed")
     await page.getByTestId("mark-cleared").waitFor()
     expect(await page.getByTestId("mark-cleared").textContent()).toContain("Learn complete")
-    await page.context().close()
   })
 })
 
-describe("notices for the lead", () => {
-  it("a drive that finishes short puts a notice under the lead's bell, which opens the drive", async () => {
+test.describe("notices for the lead", () => {
+  test("a drive that finishes short puts a notice under the lead's bell, which opens the drive", async ({
+    phoneAs,
+  }) => {
     const job = await insertJob(shop)
     const drive = await insertScoredDrive(shop, { pattern: "short", seed: 913, job, status: "recording" })
     const finish = await (await signedIn(shop.tech)).post(`/api/drives/${drive.id}/finish`, {})
     expect(finish.status).toBe(200)
     expect(finish.body.drive.verdict).toBe("short")
-    const page = await phonePage(shop.lead)
+    const page = await phoneAs(shop.lead)
     await page.getByTestId("notification-bell").click()
     const notice = page
       .getByTestId("notification-panel")
@@ -159,13 +145,14 @@ describe("notices for the lead", () => {
     expect(await notice.textContent()).toContain("Short")
     await notice.click()
     await page.waitForURL(`**/drives/${drive.id}`)
-    await page.context().close()
   })
 })
 
-describe("the recorder's sun mode", () => {
-  it("passes the axe check, with small text at 7:1 (WCAG 2.2 A/AA rules plus color-contrast-enhanced, SC 1.4.6)", async () => {
-    const page = await phonePage(shop.tech)
+test.describe("the recorder's sun mode", () => {
+  test("passes the axe check, with small text at 7:1 (WCAG 2.2 A/AA rules plus color-contrast-enhanced, SC 1.4.6)", async ({
+    phoneAs,
+  }) => {
+    const page = await phoneAs(shop.tech)
     await page.goto("/record")
     await page.getByRole("heading", { level: 1, name: "Start a drive" }).waitFor()
     await page.getByTestId("sun-toggle").click()
@@ -194,13 +181,14 @@ describe("the recorder's sun mode", () => {
     // The choice stays on the phone.
     await page.reload()
     await page.locator('[data-theme="sun"]').waitFor()
-    await page.context().close()
   })
 })
 
-describe("the settings page's clock", () => {
-  it("hydrates without a mismatch when the phone's clock is not the server's, then shows the phone's time", async () => {
-    const page = await phonePage(shop.admin)
+test.describe("the settings page's clock", () => {
+  test("hydrates without a mismatch when the phone's clock is not the server's, then shows the phone's time", async ({
+    phoneAs,
+  }) => {
+    const page = await phoneAs(shop.admin)
     const problems: string[] = []
     page.on("pageerror", (e) => problems.push(e.message))
     page.on("console", (m) => {
@@ -213,6 +201,5 @@ describe("the settings page's clock", () => {
     // The shop's zone is the product default, America/Chicago (UTC-5 in March 2023 after the 12th: CDT).
     await expect.poll(async () => page.getByText(/^Now: /).textContent()).toBe("Now: Mar 15, 2023, 1:07 PM CDT")
     expect(problems.filter((p) => /hydrat|#418|#423|#425/i.test(p))).toEqual([])
-    await page.context().close()
   })
 })

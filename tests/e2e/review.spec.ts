@@ -1,23 +1,16 @@
 import { PDFParse } from "pdf-parse"
-import type { Browser } from "playwright-core"
-import { afterAll, beforeAll, describe, expect, it } from "vitest"
-import { launchBrowser, newPhoneContext, signInPage } from "../helpers/browser"
 import { createTestShop, testDb, type TestShop } from "../helpers/db"
 import { insertJob, insertScoredDrive } from "../integration/review/fixtures"
+import { expect, test } from "./fixtures"
 
-let browser: Browser
 let shop: TestShop
 
-beforeAll(async () => {
-  browser = await launchBrowser()
+test.beforeAll(async () => {
   shop = await createTestShop("E2EReview")
 })
-afterAll(async () => {
-  await browser?.close()
-})
 
-describe("reviewing a drive on a phone", () => {
-  it("sends a short drive back with a note, sees it leave the queue, and opens the record", async () => {
+test.describe("reviewing a drive on a phone", () => {
+  test("sends a short drive back with a note, sees it leave the queue, and opens the record", async ({ phoneAs }) => {
     const job = await insertJob(shop)
     const short = await insertScoredDrive(shop, {
       pattern: "short",
@@ -32,9 +25,7 @@ describe("reviewing a drive on a phone", () => {
     })
     expect(short.score.verdict).toBe("short")
 
-    const context = await newPhoneContext(browser)
-    const page = await context.newPage()
-    await signInPage(page, shop.lead.email, shop.lead.password)
+    const page = await phoneAs(shop.lead)
     expect(new URL(page.url()).pathname).toBe("/review")
 
     const item = page.locator(`li[data-drive-id="${short.id}"]`)
@@ -71,7 +62,7 @@ describe("reviewing a drive on a phone", () => {
     expect(await page.getByTestId("review-decision").textContent()).toContain(note)
     const href = await page.getByTestId("open-record").getAttribute("href")
     expect(href).toBe(`/api/drives/${short.id}/record`)
-    const pdf = await context.request.get(href!)
+    const pdf = await page.context().request.get(href!)
     expect(pdf.status()).toBe(200)
     expect(pdf.headers()["content-type"]).toBe("application/pdf")
     const parser = new PDFParse({ data: await pdf.body() })
@@ -79,6 +70,5 @@ describe("reviewing a drive on a phone", () => {
     await parser.destroy()
     expect(text).toContain(job.vin)
     expect(text).toContain("Sent back for another drive")
-    await context.close()
   })
 })

@@ -1,60 +1,22 @@
-import { afterAll, beforeAll, describe, expect, it } from "vitest"
-import type { Browser, BrowserContext } from "playwright-core"
 import { internalDriveId } from "@/lib/drive-id"
 import { generateDrive } from "@/lib/tracks"
+import { checklistBody } from "../helpers/checklist"
 import { createTestShop, testDb, type TestShop } from "../helpers/db"
-import { launchBrowser, newPhoneContext, signInPage } from "../helpers/browser"
 import { signedIn } from "../helpers/http"
-import { checklistBody } from "../integration/contract/world"
-import { createJob } from "../integration/jobs/helpers"
+import { createJob } from "../helpers/jobs"
+import { ClockedRoute, expect, signInPage, startOf, test } from "./fixtures"
 
-// An invented route from lib/tracks (cruising at 50 to 62 mph) at 4 fixes a second, stepped in real time so the
+// An invented route from lib/tracks (cruising at 50 to 62 mph) at 4 fixes a second, stepped on the page's clock so the
 // speeds derived from the positions are road speeds.
 const ROUTE = generateDrive({ seed: 4242, hz: 4, minutes: 3, pattern: "never-cleared" }).samples
-const STEP_MS = 250
+/** Two seconds of the route: each mark falls inside a stretch at road speed. */
+const TWO_SECONDS = 8
 
-async function step(context: BrowserContext, from: number, count: number) {
-  for (let i = from; i < from + count; i++) {
-    const s = ROUTE[i]!
-    await context.setGeolocation({ latitude: s.lat, longitude: s.lon, accuracy: 5 })
-    await new Promise((r) => setTimeout(r, STEP_MS))
-  }
-  return from + count
-}
-
-/** Keeps the phone moving along the route while the co-driver taps, so each mark falls inside a stretch at road speed. */
-function driveOn(context: BrowserContext, from: number) {
-  let i = from
-  let on = true
-  const done = (async () => {
-    while (on && i < ROUTE.length) {
-      const s = ROUTE[i++]!
-      await context.setGeolocation({ latitude: s.lat, longitude: s.lon, accuracy: 5 })
-      await new Promise((r) => setTimeout(r, STEP_MS))
-    }
-  })()
-  return {
-    stop: async () => {
-      on = false
-      await done
-      // Parked: one more fix a centimetre on, so the phone's speed falls to about zero (Finish shows only when stopped).
-      const s = ROUTE[i - 1]!
-      await pause(600)
-      await context.setGeolocation({ latitude: s.lat + 1e-7, longitude: s.lon, accuracy: 5 })
-      return i
-    },
-  }
-}
-
-const pause = (ms: number) => new Promise((r) => setTimeout(r, ms))
-
-describe("the road test on a phone", () => {
+test.describe("the road test on a phone", () => {
   let shop: TestShop
-  let browser: Browser
   let job: { id: string; camera: string }
-  beforeAll(async () => {
+  test.beforeAll(async () => {
     shop = await createTestShop("Road test e2e")
-    browser = await launchBrowser()
     const lead = await signedIn(shop.lead)
     const row = await createJob(lead, {
       tasks: [
@@ -73,22 +35,22 @@ describe("the road test on a phone", () => {
     })
     expect(setup.status).toBe(200)
   })
-  afterAll(async () => {
-    await browser?.close()
-  })
 
-  it("the co-driver logs camera and radar checks with big buttons; the finish screen shows the road-test verdict and every check", async () => {
-    const context = await newPhoneContext(browser, { latitude: ROUTE[0]!.lat, longitude: ROUTE[0]!.lon })
-    const page = await context.newPage()
-    await signInPage(page, shop.tech.email, shop.tech.password)
+  test("the co-driver logs camera and radar checks with big buttons; the finish screen shows the road-test verdict and every check", async ({
+    phone,
+  }) => {
+    const page = await (await phone(startOf(ROUTE))).newPage()
+    await signInPage(page, shop.tech)
     await page.goto(`/record?jobId=${job.id}&taskId=${job.camera}`)
+    const route = await ClockedRoute.install(page, ROUTE)
     await page.getByTestId("to-gate").click()
     for (const key of ["codes", "tires", "load", "clean", "mount", "ready"])
       await page.getByTestId(`gate-${key}`).check()
     await page.getByTestId("start-drive").click()
-    await page.getByTestId("recording-screen").waitFor()
+    await expect(page.getByTestId("recording-screen")).toBeVisible()
     const driveId = new URL(page.url()).searchParams.get("drive")!
-    const moving = driveOn(context, await step(context, 1, 120))
+    await route.hold()
+    await route.step(120)
 
     await page.getByTestId("co-driver-mode").click()
     const panel = page.getByTestId("road-test-checks")
@@ -107,7 +69,7 @@ describe("the road test on a phone", () => {
         expect(box!.height).toBeGreaterThanOrEqual(64)
       }
     }
-    await pause(2000)
+    await route.step(TWO_SECONDS)
     for (const [key, result] of [
       ["acc-engages", "pass"],
       ["acc-follows-lead", "pass"],
@@ -116,22 +78,23 @@ describe("the road test on a phone", () => {
       ["sign-display", "not_equipped"],
     ] as const) {
       await page.getByTestId(`check-${key}-${result}`).click()
-      await pause(2000)
+      await route.step(TWO_SECONDS)
     }
-    const i = await moving.stop()
-    await expect.poll(() => page.getByTestId("check-lane-departure-warning").getAttribute("data-result")).toBe("fail")
-    await expect.poll(() => page.getByTestId("mark-count").getAttribute("data-value")).toBe("5")
-    await page.screenshot({ path: "/tmp/roadtest-co-driver.png", fullPage: true })
+    await route.park()
+    await expect(page.getByTestId("check-lane-departure-warning")).toHaveAttribute("data-result", "fail")
+    await expect(page.getByTestId("mark-count")).toHaveAttribute("data-value", "5")
+    if (process.env.SCREENSHOT_DIR)
+      await page.screenshot({ path: `${process.env.SCREENSHOT_DIR}/roadtest-co-driver.png`, fullPage: true })
 
-    await expect
-      .poll(() => page.getByTestId("recording-screen").getAttribute("data-moving"), { timeout: 10_000 })
-      .toBe("false")
+    await expect(page.getByTestId("recording-screen")).toHaveAttribute("data-moving", "false")
+    await route.release()
     await page.getByTestId("finish-drive").click()
     await page.getByTestId("finish-confirm").click()
     await page.getByTestId("finish-screen").waitFor()
     const verdict = page.getByTestId("road-test-verdict")
     await verdict.waitFor({ timeout: 60_000 })
-    await page.screenshot({ path: "/tmp/roadtest-finish.png", fullPage: true })
+    if (process.env.SCREENSHOT_DIR)
+      await page.screenshot({ path: `${process.env.SCREENSHOT_DIR}/roadtest-finish.png`, fullPage: true })
     // a failed required check: the road test is not met, and the reason names it
     expect(await verdict.getAttribute("data-verdict")).toBe("not_met")
     await expect
@@ -165,7 +128,6 @@ describe("the road test on a phone", () => {
       ["check", "lane-departure-warning", "fail"],
       ["check", "sign-display", "not_equipped"],
     ])
-    expect(i).toBeLessThanOrEqual(ROUTE.length)
-    await context.close()
+    expect(route.index).toBeLessThanOrEqual(ROUTE.length)
   })
 })

@@ -1,21 +1,13 @@
 // Issue 15: a content security policy on every page (a fresh nonce each time), no framing, a referrer policy; the
 // recorder, the share page and the record PDF still work in Chromium under it, with no policy violation reported.
-import type { Browser, Page } from "playwright-core"
-import { afterAll, beforeAll, describe, expect, it } from "vitest"
-import { launchBrowser, newPhoneContext, signInPage } from "../helpers/browser"
 import { createTestShop, type TestShop } from "../helpers/db"
 import { signedIn } from "../helpers/http"
 import { insertScoredDrive } from "../integration/review/fixtures"
-
-let browser: Browser
+import { expect, signInPage, test, type Page } from "./fixtures"
 let shop: TestShop
 
-beforeAll(async () => {
-  browser = await launchBrowser()
+test.beforeAll(async () => {
   shop = await createTestShop("E2ECsp")
-})
-afterAll(async () => {
-  await browser?.close()
 })
 
 /** Every CSP violation the page reports (securitypolicyviolation events and console messages). */
@@ -43,14 +35,14 @@ function expectPolicy(headers: Record<string, string>) {
   return /'nonce-([^']+)'/.exec(csp)![1]!
 }
 
-describe("the content security policy", () => {
-  it("gives every page a fresh nonce and the recorder still runs under it", async () => {
-    const context = await newPhoneContext(browser)
+test.describe("the content security policy", () => {
+  test("gives every page a fresh nonce and the recorder still runs under it", async ({ phone }) => {
+    const context = await phone()
     const page = await context.newPage()
     const violations = await watchViolations(page)
     const signIn = await page.goto("/sign-in")
     const first = expectPolicy(signIn!.headers())
-    await signInPage(page, shop.tech.email, shop.tech.password)
+    await signInPage(page, shop.tech)
     const record = await page.goto("/record")
     const second = expectPolicy(record!.headers())
     expect(second).not.toBe(first)
@@ -59,16 +51,15 @@ describe("the content security policy", () => {
     await page.getByTestId("to-gate").click()
     await page.getByTestId("gate-codes").waitFor()
     expect(violations).toEqual([])
-    await context.close()
   })
 
-  it("the share page opens under it and its record PDF downloads", async () => {
+  test("the share page opens under it and its record PDF downloads", async ({ phone }) => {
     const drive = await insertScoredDrive(shop, { pattern: "short", seed: 733 })
     const lead = await signedIn(shop.lead)
     const share = await lead.post(`/api/drives/${drive.id}/share`, {})
     expect(share.status).toBe(201)
     const url = new URL(share.body.url)
-    const context = await newPhoneContext(browser)
+    const context = await phone()
     const page = await context.newPage()
     const violations = await watchViolations(page)
     const res = await page.goto(url.pathname)
@@ -80,6 +71,5 @@ describe("the content security policy", () => {
     expect(pdf.headers()["content-type"]).toBe("application/pdf")
     expect((await pdf.body()).subarray(0, 5).toString()).toBe("%PDF-")
     expect(violations).toEqual([])
-    await context.close()
   })
 })
