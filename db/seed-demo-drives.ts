@@ -10,6 +10,7 @@ import { scoreDrive } from "@/lib/scoring"
 import { generateDrive, type DrivePattern } from "@/lib/tracks"
 import { withCheckDigit } from "@/lib/vin"
 import type { Db } from "./client"
+import { listProfiles } from "./queries/profiles"
 import { insertSamples } from "./queries/samples"
 
 type Outcome = "none" | "approved" | "redo"
@@ -201,18 +202,11 @@ export async function seedDemoJobsAndDrives(db: Db, shopId: string) {
         .execute()
     ).map((r) => r.ro_number),
   )
-  const profiles = await db
-    .selectFrom("condition_profile as p")
-    .innerJoin("condition_profile_version as v", (j) =>
-      j.onRef("v.profile_id", "=", "p.id").onRef("v.version", "=", "p.current_version"),
-    )
-    .select(["p.id", "p.key", "v.id as version_id", "v.settings"])
-    .where("p.shop_id", "=", shopId)
-    .execute()
+  const profiles = await listProfiles(db, shopId)
 
   for (const demo of JOBS.filter((j) => !existing.has(j.ro))) {
     const profile = profiles.find((p) => p.key === demo.task.profileKey)
-    const resolved = resolveProfile((profile?.settings ?? {}) as never)
+    const resolved = profile?.settings ?? resolveProfile()
     await db.transaction().execute(async (trx) => {
       const vehicle = await trx
         .insertInto("vehicle")
@@ -243,7 +237,7 @@ export async function seedDemoJobsAndDrives(db: Db, shopId: string) {
           sensor: demo.task.sensor,
           method: demo.task.method,
           reason: demo.task.reason,
-          profile_id: profile?.id ?? null,
+          profile_id: profile?.profileId ?? null,
         })
         .returning("id")
         .executeTakeFirstOrThrow()
@@ -292,7 +286,7 @@ export async function seedDemoJobsAndDrives(db: Db, shopId: string) {
             job_id: job.id,
             task_id: task.id,
             vehicle_description: null,
-            profile_version_id: profile?.version_id ?? null,
+            profile_version_id: profile?.versionId ?? null,
             profile: JSON.stringify(resolved),
             driver_id: tech.id,
             co_driver_id: codriver?.id ?? null,

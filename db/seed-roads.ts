@@ -13,6 +13,8 @@ import { DEMO_ROAD_LAYOUTS, generateRoadDrive, type RoadLayout } from "@/lib/tra
 import type { Db } from "./client"
 import { applyDriveContribution, bumpRoadModelVersion } from "./queries/roads"
 import { insertSamples } from "./queries/samples"
+import { upsertScore } from "./queries/scores"
+import { selectInShop } from "./queries/shop-scope"
 import { findShopSettings, updateShopSettings } from "./queries/shop-settings"
 
 /** An invented spot in the US Midwest for the invented demo shop. */
@@ -133,10 +135,7 @@ export async function seedRoadHistory(
           })),
         )
         .execute()
-      await trx
-        .insertInto("score")
-        .values({ drive_id: id, shop_id: shopId, verdict: score.verdict, result: JSON.stringify(score) })
-        .execute()
+      await upsertScore(trx, id, shopId, score)
       if (roadKnowledge)
         await applyDriveContribution(trx, drive, score.clearedAtSeconds, computeDriveContribution(file, timeZone))
     })
@@ -147,11 +146,9 @@ export async function seedRoadHistory(
   for (const layout of DEMO_ROAD_LAYOUTS) {
     const driveId = loopNames.get(layout.key)
     if (!driveId) continue
-    const row = await db
-      .selectFrom("road_drive")
+    const row = await selectInShop(db, "road_drive", shopId)
       .select("loop_id")
       .where("drive_id", "=", driveId)
-      .where("shop_id", "=", shopId)
       .executeTakeFirst()
     if (row?.loop_id)
       await db

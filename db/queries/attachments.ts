@@ -1,4 +1,5 @@
 import type { Db } from "../client"
+import { selectInShop, updateInShop } from "./shop-scope"
 
 export function insertPendingAttachment(
   db: Db,
@@ -32,7 +33,7 @@ export function insertPendingAttachment(
 }
 
 export function findAttachmentInShop(db: Db, id: string, shopId: string) {
-  return db.selectFrom("attachment").selectAll().where("id", "=", id).where("shop_id", "=", shopId).executeTakeFirst()
+  return selectInShop(db, "attachment", shopId).selectAll().where("id", "=", id).executeTakeFirst()
 }
 
 export function markAttachmentComplete(
@@ -43,8 +44,7 @@ export function markAttachmentComplete(
   thumbnailKey: string | null = null,
   objectKey?: string,
 ) {
-  return db
-    .updateTable("attachment")
+  return updateInShop(db, "attachment", shopId)
     .set({
       status: "complete",
       size,
@@ -53,7 +53,6 @@ export function markAttachmentComplete(
       ...(objectKey ? { object_key: objectKey } : {}),
     })
     .where("id", "=", id)
-    .where("shop_id", "=", shopId)
     .returningAll()
     .executeTakeFirstOrThrow()
 }
@@ -63,11 +62,9 @@ export function deleteAttachment(db: Db, id: string, shopId: string) {
 }
 
 export function listCompleteAttachmentsForJob(db: Db, jobId: string, shopId: string) {
-  return db
-    .selectFrom("attachment")
+  return selectInShop(db, "attachment", shopId)
     .selectAll()
     .where("job_id", "=", jobId)
-    .where("shop_id", "=", shopId)
     .where("status", "=", "complete")
     .orderBy("created_at")
     .execute()

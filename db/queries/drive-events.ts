@@ -7,6 +7,8 @@ import { sql, type RawBuilder } from "kysely"
 import type { ApiMark, Mark, Sample } from "@/lib/drive-file/schema"
 import { encodeSampleColumns } from "@/lib/drive-file/stored"
 import type { Db } from "../client"
+import { selectDriveMarks } from "./marks"
+import { selectInShop } from "./shop-scope"
 
 export const DRIVE_CHANNEL = "straightaway_drive"
 
@@ -224,11 +226,9 @@ export async function findDriveEvent(
 
 /** The newest event id of the drive (0 when it has none): where a fresh screen starts. */
 export async function lastDriveEventId(db: Db, driveId: string, shopId: string): Promise<number> {
-  const r = await db
-    .selectFrom("drive_event")
+  const r = await selectInShop(db, "drive_event", shopId)
     .select((eb) => eb.fn.max("id").as("id"))
     .where("drive_id", "=", driveId)
-    .where("shop_id", "=", shopId)
     .executeTakeFirst()
   return Number(r?.id ?? 0)
 }
@@ -239,14 +239,7 @@ export async function listMarksWithSeq(
   driveId: string,
   shopId: string,
 ): Promise<Array<Mark & { id: string; seq: number }>> {
-  const rows = await db
-    .selectFrom("mark")
-    .select(["id", "t", "kind", "gap_ft", "text", "seq"])
-    .where("drive_id", "=", driveId)
-    .where("shop_id", "=", shopId)
-    .orderBy("t", "asc")
-    .orderBy("seq", "asc")
-    .execute()
+  const rows = await selectDriveMarks(db, driveId, shopId).select("seq").execute()
   return rows.map((r) => {
     const m: Mark & { id: string; seq: number } = { id: r.id, t: r.t, kind: r.kind as Mark["kind"], seq: Number(r.seq) }
     if (r.gap_ft !== null) m.gapFt = r.gap_ft

@@ -7,6 +7,7 @@
 import { sql } from "kysely"
 import type { Db } from "../client"
 import type { Drive } from "../types"
+import { selectInShop } from "./shop-scope"
 
 export type DriveWithSampleSpan = Drive & { first_sample_t: number | null; last_sample_t: number | null }
 
@@ -17,11 +18,7 @@ export async function findDriveForKeyShare(
   shopId: string,
   opts: { sampleSpan?: boolean } = {},
 ): Promise<DriveWithSampleSpan | undefined> {
-  const q = trx
-    .selectFrom("drive")
-    .selectAll("drive")
-    .where("drive.id", "=", driveId)
-    .where("drive.shop_id", "=", shopId)
+  const q = selectInShop(trx, "drive", shopId).selectAll("drive").where("drive.id", "=", driveId)
   const row = opts.sampleSpan
     ? await q
         .select([
@@ -37,13 +34,7 @@ export async function findDriveForKeyShare(
 
 /** The drive, locked FOR UPDATE until the transaction ends (Finish, review): waits for the writes that hold it FOR KEY SHARE. */
 export async function findDriveForUpdate(trx: Db, driveId: string, shopId: string): Promise<Drive | undefined> {
-  return trx
-    .selectFrom("drive")
-    .selectAll()
-    .where("id", "=", driveId)
-    .where("shop_id", "=", shopId)
-    .forUpdate()
-    .executeTakeFirst()
+  return selectInShop(trx, "drive", shopId).selectAll().where("id", "=", driveId).forUpdate().executeTakeFirst()
 }
 
 /**

@@ -3,6 +3,7 @@ import { sql } from "kysely"
 import type { Db } from "../client"
 import { driveKey } from "./samples"
 import { harshEventCountSql } from "./scores"
+import { selectInShop, updateInShop } from "./shop-scope"
 import type { Drive, DriveStatus, JobStatus, Verdict } from "../types"
 import type { TimeCursor } from "@/lib/validation/drive"
 import { cursorTimeSql, keysetPage } from "./paging"
@@ -10,8 +11,32 @@ import { cursorTimeSql, keysetPage } from "./paging"
 const DRIVE_PAGE_SIZE = 50
 
 export async function findDriveInShop(db: Db, driveId: string, shopId: string): Promise<Drive | undefined> {
-  return db.selectFrom("drive").selectAll().where("id", "=", driveId).where("shop_id", "=", shopId).executeTakeFirst()
+  return selectInShop(db, "drive", shopId).selectAll().where("id", "=", driveId).executeTakeFirst()
 }
+
+/**
+ * The shop's drives with their job, the job's vehicle, the task, the driver and the co-driver, each joined inside the
+ * shop by its key (so no join adds a row; a read that takes nothing from one leaves it to the planner to drop).
+ */
+export function selectDrivesWithJob(db: Db, shopId: string) {
+  return selectInShop(db, "drive", shopId)
+    .leftJoin("job", (j) => j.onRef("job.id", "=", "drive.job_id").on("job.shop_id", "=", shopId))
+    .leftJoin("vehicle", (j) => j.onRef("vehicle.id", "=", "job.vehicle_id").on("vehicle.shop_id", "=", shopId))
+    .leftJoin("job_task as task", (j) => j.onRef("task.id", "=", "drive.task_id").on("task.shop_id", "=", shopId))
+    .leftJoin("app_user as driver", (j) =>
+      j.onRef("driver.id", "=", "drive.driver_id").on("driver.shop_id", "=", shopId),
+    )
+    .leftJoin("app_user as co", (j) => j.onRef("co.id", "=", "drive.co_driver_id").on("co.shop_id", "=", shopId))
+}
+
+/** What a list of drives (or one drive's record) shows of its job, vehicle and driver: columns of selectDrivesWithJob. */
+export const DRIVE_JOB_COLUMNS = [
+  "job.ro_number",
+  "vehicle.year as vehicle_year",
+  "vehicle.make as vehicle_make",
+  "vehicle.model as vehicle_model",
+  "driver.name as driver_name",
+] as const
 
 export interface NewDriveValues {
   /** The internal id, internalDriveId(shopId, publicId) (lib/drive-id.ts; the table's CHECK holds it to that). */
@@ -69,27 +94,14 @@ export interface DriveListFilter {
 
 /** Newest first; the cursor is the last row's `createdAt|id` (see parseDriveCursor). */
 export async function listDrives(db: Db, shopId: string, filter: DriveListFilter) {
-  let q = db
-    .selectFrom("drive")
-    .leftJoin("job", (j) => j.onRef("job.id", "=", "drive.job_id").on("job.shop_id", "=", shopId))
-    .leftJoin("app_user as driver", (j) =>
-      j.onRef("driver.id", "=", "drive.driver_id").on("driver.shop_id", "=", shopId),
-    )
-    .leftJoin("app_user as co", (j) => j.onRef("co.id", "=", "drive.co_driver_id").on("co.shop_id", "=", shopId))
-    .leftJoin("job_task as task", (j) => j.onRef("task.id", "=", "drive.task_id").on("task.shop_id", "=", shopId))
-    .leftJoin("vehicle", (j) => j.onRef("vehicle.id", "=", "job.vehicle_id").on("vehicle.shop_id", "=", shopId))
+  let q = selectDrivesWithJob(db, shopId)
     .selectAll("drive")
     .select([
-      "job.ro_number",
-      "vehicle.year as vehicle_year",
-      "vehicle.make as vehicle_make",
-      "vehicle.model as vehicle_model",
-      "driver.name as driver_name",
+      ...DRIVE_JOB_COLUMNS,
       "co.name as co_driver_name",
       "task.sensor as task_sensor",
       cursorTimeSql("drive.created_at").as("cursor_time"),
     ])
-    .where("drive.shop_id", "=", shopId)
     .orderBy("drive.created_at", "desc")
     .orderBy("drive.id", "desc")
     .limit(DRIVE_PAGE_SIZE + 1)
@@ -110,60 +122,49 @@ export async function countDriveData(db: Db, driveId: string, shopId: string) {
       .select((eb) => eb.fn.countAll<number>().as("n"))
       .where("drive_key", "=", driveKey(driveId, shopId))
       .executeTakeFirstOrThrow(),
-    db
-      .selectFrom("mark")
+    selectInShop(db, "mark", shopId)
       .select((eb) => eb.fn.countAll<number>().as("n"))
       .where("drive_id", "=", driveId)
-      .where("shop_id", "=", shopId)
       .executeTakeFirstOrThrow(),
   ])
   return { samples: Number(samples.n), marks: Number(marks.n) }
 }
 
 export async function markDriveFinished(db: Db, driveId: string, shopId: string, verdict: Verdict): Promise<Drive> {
-  return db
-    .updateTable("drive")
+  return updateInShop(db, "drive", shopId)
     .set({ status: "finished", verdict, finished_at: sql<Date>`coalesce(finished_at, now())` })
     .where("id", "=", driveId)
-    .where("shop_id", "=", shopId)
     .returningAll()
     .executeTakeFirstOrThrow()
 }
 
 export async function setDriveVerdict(db: Db, driveId: string, shopId: string, verdict: Verdict) {
-  await db.updateTable("drive").set({ verdict }).where("id", "=", driveId).where("shop_id", "=", shopId).execute()
+  await updateInShop(db, "drive", shopId).set({ verdict }).where("id", "=", driveId).execute()
 }
 
 // ---- what a drive needs from jobs, tasks, profiles and people (all filtered by shop) ----
 
 export async function findTaskForDrive(db: Db, taskId: string, shopId: string) {
-  return db
-    .selectFrom("job_task")
+  return selectInShop(db, "job_task", shopId)
     .select(["id", "job_id", "sensor", "method", "profile_id"])
     .where("id", "=", taskId)
-    .where("shop_id", "=", shopId)
     .executeTakeFirst()
 }
 
 export async function setJobStatus(db: Db, jobId: string, shopId: string, status: JobStatus) {
-  await db
-    .updateTable("job")
+  await updateInShop(db, "job", shopId)
     .set({ status, updated_at: sql<Date>`now()` })
     .where("id", "=", jobId)
-    .where("shop_id", "=", shopId)
     .execute()
 }
 
 /** Each task of the job with its latest drive (by start) and that drive's harsh-event count. */
 export async function findJobTaskDrives(db: Db, jobId: string, shopId: string) {
-  const tasks = await db
-    .selectFrom("job_task")
+  const tasks = await selectInShop(db, "job_task", shopId)
     .select(["id", "method"])
     .where("job_id", "=", jobId)
-    .where("shop_id", "=", shopId)
     .execute()
-  const drives = await db
-    .selectFrom("drive")
+  const drives = await selectInShop(db, "drive", shopId)
     .leftJoin("score", (j) => j.onRef("score.drive_id", "=", "drive.id").on("score.shop_id", "=", shopId))
     .select([
       "drive.task_id",
@@ -174,7 +175,6 @@ export async function findJobTaskDrives(db: Db, jobId: string, shopId: string) {
       harshEventCountSql.as("harsh_events"),
     ])
     .where("drive.job_id", "=", jobId)
-    .where("drive.shop_id", "=", shopId)
     .orderBy("drive.created_at", "asc")
     .execute()
   return { tasks, drives }

@@ -9,6 +9,7 @@ import { listCompleteAttachmentsForJob } from "./attachments"
 import { listChecklistsForTasks } from "./checklists"
 import { findCurrentProfileVersionById, findDefaultProfileForSensor } from "./profiles"
 import { keysetPage } from "./paging"
+import { selectInShop } from "./shop-scope"
 import { findShopSettings } from "./shop-settings"
 import type { Db } from "../client"
 import type { JobStatus } from "../types"
@@ -137,63 +138,44 @@ export function decodeCursor(cursor: string, sort: JobSort): { value: string; id
 }
 
 export function findJobInShop(db: Db, jobId: string, shopId: string) {
-  return db
-    .selectFrom("job")
+  return selectInShop(db, "job", shopId)
     .innerJoin("vehicle", (j) => j.onRef("vehicle.id", "=", "job.vehicle_id").on("vehicle.shop_id", "=", shopId))
     .select([...JOB_ROW_COLUMNS, "job.customer_email", "job.customer_phone", "job.vehicle_id"])
     .where("job.id", "=", jobId)
-    .where("job.shop_id", "=", shopId)
     .executeTakeFirst()
 }
 
 export function findJobByRoNumber(db: Db, roNumber: string, shopId: string) {
-  return db
-    .selectFrom("job")
-    .select(["id"])
-    .where("ro_number", "=", roNumber)
-    .where("shop_id", "=", shopId)
-    .executeTakeFirst()
+  return selectInShop(db, "job", shopId).select(["id"]).where("ro_number", "=", roNumber).executeTakeFirst()
 }
 
 /** Whether a co-driver is named on any drive of this job (what lets them see it). */
 export async function isCoDriverOnJob(db: Db, jobId: string, shopId: string, userId: string) {
-  const row = await db
-    .selectFrom("drive")
+  const row = await selectInShop(db, "drive", shopId)
     .select("id")
     .where("job_id", "=", jobId)
-    .where("shop_id", "=", shopId)
     .where("co_driver_id", "=", userId)
     .executeTakeFirst()
   return Boolean(row)
 }
 
+/** The job's tasks, the start of both reads of them. */
+function tasksOfJob(db: Db, jobId: string, shopId: string) {
+  return selectInShop(db, "job_task", shopId).selectAll().where("job_id", "=", jobId)
+}
+
 export function listTasksForJob(db: Db, jobId: string, shopId: string) {
-  return db
-    .selectFrom("job_task")
-    .selectAll()
-    .where("job_id", "=", jobId)
-    .where("shop_id", "=", shopId)
-    .orderBy("created_at")
-    .orderBy("id")
-    .execute()
+  return tasksOfJob(db, jobId, shopId).orderBy("created_at").orderBy("id").execute()
 }
 
 export function findTaskInJob(db: Db, taskId: string, jobId: string, shopId: string) {
-  return db
-    .selectFrom("job_task")
-    .selectAll()
-    .where("id", "=", taskId)
-    .where("job_id", "=", jobId)
-    .where("shop_id", "=", shopId)
-    .executeTakeFirst()
+  return tasksOfJob(db, jobId, shopId).where("id", "=", taskId).executeTakeFirst()
 }
 
 function listDrivesForJob(db: Db, jobId: string, shopId: string, onlyCoDriverId?: string) {
-  let q = db
-    .selectFrom("drive")
+  let q = selectInShop(db, "drive", shopId)
     .select(["public_id as id", "task_id", "status", "verdict", "review_status", "created_at", "finished_at"])
     .where("job_id", "=", jobId)
-    .where("shop_id", "=", shopId)
   if (onlyCoDriverId) q = q.where("co_driver_id", "=", onlyCoDriverId)
   return q.orderBy("created_at", "desc").execute()
 }

@@ -1,5 +1,6 @@
 import type { ApiMark, Mark2 as Mark } from "@/lib/drive-file/schema"
 import type { Db } from "../client"
+import { selectInShop } from "./shop-scope"
 
 /** Stores marks by their client-made ids in one statement; an id seen before on this drive is a duplicate. */
 export async function insertMarks(
@@ -32,15 +33,17 @@ export async function insertMarks(
   return { accepted: rows.length, duplicates: marks.length - rows.length }
 }
 
-export async function listMarks(db: Db, driveId: string, shopId: string): Promise<Array<Mark & { id: string }>> {
-  const rows = await db
-    .selectFrom("mark")
-    .select(["id", "t", "kind", "gap_ft", "text", "check_key", "result"])
+/** The drive's marks by time then arrival, with the columns every reader of them takes; each adds its own. */
+export function selectDriveMarks(db: Db, driveId: string, shopId: string) {
+  return selectInShop(db, "mark", shopId)
+    .select(["id", "t", "kind", "gap_ft", "text"])
     .where("drive_id", "=", driveId)
-    .where("shop_id", "=", shopId)
     .orderBy("t", "asc")
     .orderBy("seq", "asc")
-    .execute()
+}
+
+export async function listMarks(db: Db, driveId: string, shopId: string): Promise<Array<Mark & { id: string }>> {
+  const rows = await selectDriveMarks(db, driveId, shopId).select(["check_key", "result"]).execute()
   return rows.map((r) => {
     const m: Mark & { id: string } = { id: r.id, t: r.t, kind: r.kind as Mark["kind"] }
     if (r.gap_ft !== null) m.gapFt = r.gap_ft

@@ -2,15 +2,15 @@ import { sql } from "kysely"
 import { wholeSeconds } from "@/lib/format"
 import { CLEAR_BINS_MIN, CONDITION_PROBLEM, type Numbers } from "@/lib/numbers"
 import type { Db } from "../client"
+import { selectInShop } from "./shop-scope"
 
 /**
- * Finished, scored drives of the shop since a date, with what the numbers page needs from each. The figures
- * are columns of `drive` filled when the drive is scored (migration 2026_12_02_1330), read through the
- * (shop_id, finished_at) index: the cost follows the period shown, not the shop's history.
+ * The shop's finished drives since a date with their driver's and profile's names, oldest first: the rows the
+ * numbers page counts, before it picks its figures (listDrivesForNumbers; the reference query over `score` in
+ * tests/integration/review/read-columns.test.ts reads the same rows).
  */
-export async function listDrivesForNumbers(db: Db, shopId: string, since: Date) {
-  return db
-    .selectFrom("drive")
+export function selectFinishedDrivesWithNames(db: Db, shopId: string, since: Date) {
+  return selectInShop(db, "drive", shopId)
     .leftJoin("app_user as driver", (j) =>
       j.onRef("driver.id", "=", "drive.driver_id").on("driver.shop_id", "=", shopId),
     )
@@ -20,13 +20,28 @@ export async function listDrivesForNumbers(db: Db, shopId: string, since: Date) 
     .leftJoin("condition_profile as p", (j) => j.onRef("p.id", "=", "pv.profile_id").on("p.shop_id", "=", shopId))
     .select([
       "drive.id",
-      "drive.public_id",
+      "drive.public_id", // the id the numbers show (drive ids per shop, migration 2026_12_03_0100)
       "drive.finished_at",
       "drive.verdict",
       "drive.review_status",
       "drive.driver_id",
       "driver.name as driver_name",
       "p.name as profile_name",
+    ])
+    .where("drive.status", "=", "finished")
+    .where("drive.finished_at", ">=", since)
+    .orderBy("drive.finished_at", "asc")
+    .orderBy("drive.id", "asc")
+}
+
+/**
+ * Finished, scored drives of the shop since a date, with what the numbers page needs from each. The figures
+ * are columns of `drive` filled when the drive is scored (migration 2026_12_02_1330), read through the
+ * (shop_id, finished_at) index: the cost follows the period shown, not the shop's history.
+ */
+export async function listDrivesForNumbers(db: Db, shopId: string, since: Date) {
+  return selectFinishedDrivesWithNames(db, shopId, since)
+    .select([
       "drive.cleared_at_seconds",
       "drive.duration_seconds",
       "drive.qualifying_seconds",
@@ -34,12 +49,7 @@ export async function listDrivesForNumbers(db: Db, shopId: string, since: Date) 
       "drive.harsh_events",
       "drive.unmet_conditions",
     ])
-    .where("drive.shop_id", "=", shopId)
-    .where("drive.status", "=", "finished")
-    .where("drive.finished_at", ">=", since)
     .where("drive.scored_at", "is not", null)
-    .orderBy("drive.finished_at", "asc")
-    .orderBy("drive.id", "asc")
     .limit(20_000)
     .execute()
 }

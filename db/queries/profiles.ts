@@ -9,6 +9,7 @@ import {
 import { storedRoadTestChecks } from "@/lib/drive-file/road-test"
 import type { Db } from "../client"
 import type { Database } from "../types"
+import { selectInShop, updateInShop } from "./shop-scope"
 
 /** A profile at one version, settings resolved (every drive-file profile key filled). */
 export type ProfileVersionInfo = {
@@ -24,8 +25,7 @@ export type ProfileVersionInfo = {
 }
 
 function versionQuery(db: Db, shopId: string) {
-  return db
-    .selectFrom("condition_profile as p")
+  return selectInShop(db, "condition_profile as p", shopId)
     .innerJoin("condition_profile_version as v", (j) =>
       j.onRef("v.profile_id", "=", "p.id").onRef("v.version", "=", "p.current_version").on("v.shop_id", "=", shopId),
     )
@@ -39,16 +39,10 @@ function versionQuery(db: Db, shopId: string) {
       "v.settings",
       "v.road_test_checks",
     ])
-    .where("p.shop_id", "=", shopId)
 }
 
-type VersionRow = {
-  profileId: string
-  key: string
-  name: string
-  sensor: string | null
-  version: number
-  versionId: string
+/** A row of versionQuery: the version as stored, before toInfo resolves its settings and checks. */
+type VersionRow = Omit<ProfileVersionInfo, "settings" | "roadTestChecks"> & {
   settings: Profile
   road_test_checks: RoadTestCheck[] | null
 }
@@ -100,8 +94,7 @@ export async function listProfiles(db: Db, shopId: string, { includeArchived = t
 }
 
 export function listProfileVersions(db: Db, profileId: string, shopId: string) {
-  return db
-    .selectFrom("condition_profile_version as v")
+  return selectInShop(db, "condition_profile_version as v", shopId)
     .leftJoin("app_user as u", (j) => j.onRef("u.id", "=", "v.created_by").on("u.shop_id", "=", shopId))
     .select([
       "v.id",
@@ -112,35 +105,22 @@ export function listProfileVersions(db: Db, profileId: string, shopId: string) {
       "u.name as createdByName",
     ])
     .where("v.profile_id", "=", profileId)
-    .where("v.shop_id", "=", shopId)
     .orderBy("v.version", "desc")
     .execute()
 }
 
 export function findProfileInShop(db: Db, profileId: string, shopId: string) {
-  return db
-    .selectFrom("condition_profile")
-    .selectAll()
-    .where("id", "=", profileId)
-    .where("shop_id", "=", shopId)
-    .executeTakeFirst()
+  return selectInShop(db, "condition_profile", shopId).selectAll().where("id", "=", profileId).executeTakeFirst()
 }
 
 export function findProfileByKey(db: Db, key: string, shopId: string) {
-  return db
-    .selectFrom("condition_profile")
-    .select(["id"])
-    .where("key", "=", key)
-    .where("shop_id", "=", shopId)
-    .executeTakeFirst()
+  return selectInShop(db, "condition_profile", shopId).select(["id"]).where("key", "=", key).executeTakeFirst()
 }
 
 /** The profile a new task of this sensor gets by default: the shop's oldest active profile for the sensor. */
 export function findDefaultProfileForSensor(db: Db, sensor: string, shopId: string) {
-  return db
-    .selectFrom("condition_profile")
+  return selectInShop(db, "condition_profile", shopId)
     .select(["id"])
-    .where("shop_id", "=", shopId)
     .where("sensor", "=", sensor)
     .where("archived", "=", false)
     .orderBy("created_at")
@@ -191,11 +171,9 @@ export async function insertProfileVersion(
   userId: string,
   roadTestChecks?: RoadTestCheck[],
 ) {
-  const profile = await db
-    .selectFrom("condition_profile")
+  const profile = await selectInShop(db, "condition_profile", shopId)
     .select(["current_version"])
     .where("id", "=", profileId)
-    .where("shop_id", "=", shopId)
     .forUpdate()
     .executeTakeFirstOrThrow()
   const version = profile.current_version + 1
@@ -210,11 +188,9 @@ export async function insertProfileVersion(
       created_by: userId,
     })
     .execute()
-  await db
-    .updateTable("condition_profile")
+  await updateInShop(db, "condition_profile", shopId)
     .set({ current_version: version })
     .where("id", "=", profileId)
-    .where("shop_id", "=", shopId)
     .execute()
   return version
 }
@@ -225,12 +201,7 @@ export function updateProfileFields(
   shopId: string,
   changes: { name?: string; sensor?: string | null; archived?: boolean },
 ) {
-  return db
-    .updateTable("condition_profile")
-    .set(changes)
-    .where("id", "=", profileId)
-    .where("shop_id", "=", shopId)
-    .execute()
+  return updateInShop(db, "condition_profile", shopId).set(changes).where("id", "=", profileId).execute()
 }
 
 export function isDuplicateProfileKey(error: unknown) {

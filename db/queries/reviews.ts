@@ -1,6 +1,8 @@
 import { sql } from "kysely"
 import type { TimeCursor } from "@/lib/validation/drive"
 import type { Db } from "../client"
+import { DRIVE_JOB_COLUMNS, selectDrivesWithJob } from "./drives"
+import { selectInShop, updateInShop } from "./shop-scope"
 import { cursorTimeSql, keysetPage } from "./paging"
 
 export const REVIEW_PAGE_SIZE = 50
@@ -10,16 +12,10 @@ export const REVIEW_PAGE_SIZE = 50
  * Oldest first; the cursor is the last row's `finishedAt|id` (see parseDriveCursor).
  */
 export async function listReviewQueue(db: Db, shopId: string, cursor?: TimeCursor) {
-  let q = db
-    .selectFrom("drive")
+  let q = selectDrivesWithJob(db, shopId)
     .innerJoin("score", "score.drive_id", "drive.id")
-    .leftJoin("app_user as driver", "driver.id", "drive.driver_id")
-    .leftJoin("job", (j) => j.onRef("job.id", "=", "drive.job_id").on("job.shop_id", "=", shopId))
-    .leftJoin("vehicle", (j) => j.onRef("vehicle.id", "=", "job.vehicle_id").on("vehicle.shop_id", "=", shopId))
     .select([
-      "vehicle.year as vehicle_year",
-      "vehicle.make as vehicle_make",
-      "vehicle.model as vehicle_model",
+      ...DRIVE_JOB_COLUMNS,
       "drive.id",
       "drive.public_id",
       "drive.job_id",
@@ -28,12 +24,9 @@ export async function listReviewQueue(db: Db, shopId: string, cursor?: TimeCurso
       "drive.verdict",
       "drive.finished_at",
       "drive.created_at",
-      "driver.name as driver_name",
-      "job.ro_number",
       "score.result",
       cursorTimeSql("drive.finished_at").as("cursor_time"),
     ])
-    .where("drive.shop_id", "=", shopId)
     .where("drive.status", "=", "finished")
     .where("drive.review_status", "is", null)
     // needs_review (a verdict other than met, or any harsh event) and scored_at are kept on the drive when
@@ -66,11 +59,9 @@ export type ReviewDecisionInput = {
  * Call inside a transaction.
  */
 export async function insertReviewDecision(trx: Db, input: ReviewDecisionInput) {
-  const drive = await trx
-    .updateTable("drive")
+  const drive = await updateInShop(trx, "drive", input.shopId)
     .set({ review_status: input.decision === "approve" ? "approved" : "redo" })
     .where("id", "=", input.driveId)
-    .where("shop_id", "=", input.shopId)
     .where("status", "=", "finished")
     .where("review_status", "is", null)
     .returningAll()
@@ -92,23 +83,19 @@ export async function insertReviewDecision(trx: Db, input: ReviewDecisionInput) 
 
 /** The latest review of a drive with the reviewer's name. */
 export async function findLatestReview(db: Db, driveId: string, shopId: string) {
-  return db
-    .selectFrom("review")
+  return selectInShop(db, "review", shopId)
     .leftJoin("app_user as u", (j) => j.onRef("u.id", "=", "review.reviewer_id").on("u.shop_id", "=", shopId))
     .select(["review.decision", "review.note", "review.created_at", "u.name as reviewer_name"])
     .where("review.drive_id", "=", driveId)
-    .where("review.shop_id", "=", shopId)
     .orderBy("review.created_at", "desc")
     .executeTakeFirst()
 }
 
 /** Name and e-mail of a person in the shop (the technician a redo goes back to). */
 export async function findShopPerson(db: Db, userId: string, shopId: string) {
-  return db
-    .selectFrom("app_user")
+  return selectInShop(db, "app_user", shopId)
     .select(["id", "name", "email", "disabled"])
     .where("id", "=", userId)
-    .where("shop_id", "=", shopId)
     .executeTakeFirst()
 }
 
@@ -116,54 +103,39 @@ export async function findShopPerson(db: Db, userId: string, shopId: string) {
 
 /** The drive with its shop, job, vehicle, task, profile and people, all inside the shop. */
 export async function findDriveRecordHead(db: Db, driveId: string, shopId: string) {
-  return db
-    .selectFrom("drive")
+  return selectDrivesWithJob(db, shopId)
     .innerJoin("shop", "shop.id", "drive.shop_id")
-    .leftJoin("job", (j) => j.onRef("job.id", "=", "drive.job_id").on("job.shop_id", "=", shopId))
-    .leftJoin("vehicle", (j) => j.onRef("vehicle.id", "=", "job.vehicle_id").on("vehicle.shop_id", "=", shopId))
-    .leftJoin("job_task as task", (j) => j.onRef("task.id", "=", "drive.task_id").on("task.shop_id", "=", shopId))
     .leftJoin("condition_profile_version as pv", (j) =>
       j.onRef("pv.id", "=", "drive.profile_version_id").on("pv.shop_id", "=", shopId),
     )
     .leftJoin("condition_profile as p", (j) => j.onRef("p.id", "=", "pv.profile_id").on("p.shop_id", "=", shopId))
-    .leftJoin("app_user as driver", (j) =>
-      j.onRef("driver.id", "=", "drive.driver_id").on("driver.shop_id", "=", shopId),
-    )
-    .leftJoin("app_user as co", (j) => j.onRef("co.id", "=", "drive.co_driver_id").on("co.shop_id", "=", shopId))
     .selectAll("drive")
     .select([
+      ...DRIVE_JOB_COLUMNS,
       "shop.name as shop_name",
       "shop.settings as shop_settings",
-      "job.ro_number",
       "job.customer_name",
       "job.customer_email",
       "job.status as job_status",
       "vehicle.vin",
-      "vehicle.year as vehicle_year",
-      "vehicle.make as vehicle_make",
-      "vehicle.model as vehicle_model",
       "vehicle.plate as vehicle_plate",
       "task.sensor as task_sensor",
       "task.method as task_method",
       "task.reason as task_reason",
       "p.name as profile_name",
       "pv.version as profile_version",
-      "driver.name as driver_name",
       "co.name as co_driver_name",
     ])
     .where("drive.id", "=", driveId)
-    .where("drive.shop_id", "=", shopId)
     .executeTakeFirst()
 }
 
 /** Marks with the name of whoever logged each one, by time then arrival. */
 export async function listMarksWithLoggers(db: Db, driveId: string, shopId: string) {
-  return db
-    .selectFrom("mark")
+  return selectInShop(db, "mark", shopId)
     .leftJoin("app_user as u", (j) => j.onRef("u.id", "=", "mark.created_by").on("u.shop_id", "=", shopId))
     .select(["mark.id", "mark.t", "mark.kind", "mark.gap_ft", "mark.text", "u.name as by_name"])
     .where("mark.drive_id", "=", driveId)
-    .where("mark.shop_id", "=", shopId)
     .orderBy("mark.t")
     .orderBy("mark.created_at")
     .execute()
@@ -171,11 +143,9 @@ export async function listMarksWithLoggers(db: Db, driveId: string, shopId: stri
 
 /** Finished photos of the job that belong to the drive's task (or to the job as a whole). */
 export async function listRecordPhotos(db: Db, jobId: string, taskId: string | null, shopId: string) {
-  let q = db
-    .selectFrom("attachment")
+  let q = selectInShop(db, "attachment", shopId)
     .select(["id", "filename", "content_type", "object_key", "thumbnail_key", "size", "task_id"])
     .where("job_id", "=", jobId)
-    .where("shop_id", "=", shopId)
     .where("status", "=", "complete")
     // the record embeds the JPEG thumbnails made at upload, so every photo type that gets one can go in
     .where("content_type", "in", ["image/jpeg", "image/png", "image/webp"])
@@ -213,11 +183,9 @@ export async function findSharedDriveByToken(db: Db, tokenSha256: string) {
 
 /** Withdraws every share link of the drive made so far; returns the new epoch, or undefined when not in the shop. */
 export async function withdrawShareLinks(db: Db, driveId: string, shopId: string) {
-  const row = await db
-    .updateTable("drive")
+  const row = await updateInShop(db, "drive", shopId)
     .set((eb) => ({ share_epoch: eb("share_epoch", "+", 1) }))
     .where("id", "=", driveId)
-    .where("shop_id", "=", shopId)
     .returning("share_epoch")
     .executeTakeFirst()
   return row?.share_epoch

@@ -1,14 +1,13 @@
 import { sql } from "kysely"
 import type { Score } from "@/lib/scoring/types"
 import type { Db } from "../client"
+import { selectInShop } from "./shop-scope"
 import type { RevisionCause, ReviewDecision, Verdict } from "../types"
 
 export async function findLatestRevision(db: Db, driveId: string, shopId: string) {
-  return db
-    .selectFrom("score_revision")
+  return selectInShop(db, "score_revision", shopId)
     .selectAll()
     .where("drive_id", "=", driveId)
-    .where("shop_id", "=", shopId)
     .orderBy("revision", "desc")
     .limit(1)
     .executeTakeFirst()
@@ -47,8 +46,7 @@ export async function insertRevision(db: Db, r: NewRevision) {
 
 /** Every revision of the drive, newest first, with who caused it. */
 export async function listRevisions(db: Db, driveId: string, shopId: string) {
-  return db
-    .selectFrom("score_revision as r")
+  return selectInShop(db, "score_revision as r", shopId)
     .leftJoin("app_user as u", (j) => j.onRef("u.id", "=", "r.created_by").on("u.shop_id", "=", shopId))
     .select([
       "r.id",
@@ -63,7 +61,6 @@ export async function listRevisions(db: Db, driveId: string, shopId: string) {
       "u.name as by_name",
     ])
     .where("r.drive_id", "=", driveId)
-    .where("r.shop_id", "=", shopId)
     .orderBy("r.revision", "desc")
     .execute()
 }
@@ -133,21 +130,17 @@ export async function insertShareLink(
 }
 
 export async function findShareLink(db: Db, tokenSha256: string, driveId: string, shopId: string) {
-  return db
-    .selectFrom("share_link")
+  return selectInShop(db, "share_link", shopId)
     .select(["revision", "created_at"])
     .where("token_sha256", "=", tokenSha256)
     .where("drive_id", "=", driveId)
-    .where("shop_id", "=", shopId)
     .executeTakeFirst()
 }
 
 /** Active shop leads, who hear when a verdict changes after the finish. */
 export async function listShopLeads(db: Db, shopId: string) {
-  return db
-    .selectFrom("app_user")
+  return selectInShop(db, "app_user", shopId)
     .select(["id", "name", "email"])
-    .where("shop_id", "=", shopId)
     .where("role", "=", "shop_lead")
     .where("disabled", "=", false)
     .execute()

@@ -18,6 +18,7 @@ import {
 } from "@/lib/roads"
 import type { Score } from "@/lib/scoring"
 import type { Db } from "../client"
+import { selectInShop } from "./shop-scope"
 import type { Drive } from "../types"
 import { loadDriveFile } from "./drive-file"
 import { findShopSettings } from "./shop-settings"
@@ -270,10 +271,8 @@ export async function findRoadTracks(
 
 /** The shop's place from where its drives start (median of up to the last 500 starts). */
 export async function findLocationFromStarts(db: Db, shopId: string) {
-  const rows = await db
-    .selectFrom("road_drive")
+  const rows = await selectInShop(db, "road_drive", shopId)
     .select(["start_lat", "start_lon"])
-    .where("shop_id", "=", shopId)
     .orderBy("started_at", "desc")
     .limit(500)
     .execute()
@@ -281,17 +280,14 @@ export async function findLocationFromStarts(db: Db, shopId: string) {
 }
 
 export async function findLoopInShop(db: Db, loopId: string, shopId: string) {
-  return db
-    .selectFrom("road_loop")
+  return selectInShop(db, "road_loop", shopId)
     .select(["id", "number", "name"])
     .where("id", "=", loopId)
-    .where("shop_id", "=", shopId)
     .executeTakeFirst()
 }
 
 export async function listDrivesOfLoop(db: Db, loopId: string, shopId: string) {
-  return db
-    .selectFrom("road_drive")
+  return selectInShop(db, "road_drive", shopId)
     .innerJoin("drive", (j) => j.onRef("drive.id", "=", "road_drive.drive_id").on("drive.shop_id", "=", shopId))
     .select([
       "drive.public_id as drive_id", // the id the shop knows the drive by
@@ -303,17 +299,14 @@ export async function listDrivesOfLoop(db: Db, loopId: string, shopId: string) {
       "road_drive.cleared_seconds",
     ])
     .where("road_drive.loop_id", "=", loopId)
-    .where("road_drive.shop_id", "=", shopId)
     .orderBy("road_drive.started_at", "desc")
     .execute()
 }
 
 /** How many drives the shop's road model holds, and how many of them completed the learn. */
 export async function countRoadDrives(db: Db, shopId: string) {
-  const row = await db
-    .selectFrom("road_drive")
+  const row = await selectInShop(db, "road_drive", shopId)
     .select((e) => [e.fn.countAll<string>().as("drives"), e.fn.count<string>("cleared_seconds").as("completed")])
-    .where("shop_id", "=", shopId)
     .executeTakeFirstOrThrow()
   return { drives: Number(row.drives), completed: Number(row.completed) }
 }

@@ -2,6 +2,7 @@ import { sql } from "kysely"
 import type { Sample } from "@/lib/drive-file/schema"
 import { decodeSample, encodeSampleColumns } from "@/lib/drive-file/stored"
 import type { Db } from "../client"
+import { selectInShop } from "./shop-scope"
 import type { Drive } from "../types"
 import { insertSamplesNotifying, NOTIFY_MAX_SAMPLES, samplesNotice } from "./drive-events"
 
@@ -112,12 +113,10 @@ export function sampleOfRow(r: SampleRow): Sample {
 
 /** The answer a batch already stored gets: its counts, marked as a replay. */
 async function storedClaim(db: Db, driveId: string, shopId: string, batchId: string): Promise<BatchResult> {
-  const seen = await db
-    .selectFrom("sample_batch")
+  const seen = await selectInShop(db, "sample_batch", shopId)
     .select(["accepted", "duplicates"])
     .where("drive_id", "=", driveId)
     .where("batch_id", "=", batchId)
-    .where("shop_id", "=", shopId)
     .executeTakeFirstOrThrow()
   return { accepted: seen.accepted, duplicates: seen.duplicates, replayed: true, storedTs: [] }
 }

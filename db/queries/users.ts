@@ -1,5 +1,6 @@
 import type { Db } from "../client"
 import type { NewAppUser, Role } from "../types"
+import { selectInShop, updateInShop } from "./shop-scope"
 
 const PUBLIC_COLUMNS = ["id", "email", "name", "role", "shop_id", "disabled", "created_at"] as const
 
@@ -8,23 +9,16 @@ export function findUserByEmail(db: Db, email: string) {
 }
 
 export function findUserInShop(db: Db, id: string, shopId: string) {
-  return db
-    .selectFrom("app_user")
-    .select(PUBLIC_COLUMNS)
-    .where("id", "=", id)
-    .where("shop_id", "=", shopId)
-    .executeTakeFirst()
+  return selectInShop(db, "app_user", shopId).select(PUBLIC_COLUMNS).where("id", "=", id).executeTakeFirst()
 }
 
 export function listUsersInShop(db: Db, shopId: string) {
-  return db.selectFrom("app_user").select(PUBLIC_COLUMNS).where("shop_id", "=", shopId).orderBy("name").execute()
+  return selectInShop(db, "app_user", shopId).select(PUBLIC_COLUMNS).orderBy("name").execute()
 }
 
 export function listActiveUsersInShopByRole(db: Db, shopId: string, roles: Role[]) {
-  return db
-    .selectFrom("app_user")
+  return selectInShop(db, "app_user", shopId)
     .select(["id", "name", "role"])
-    .where("shop_id", "=", shopId)
     .where("disabled", "=", false)
     .where("role", "in", roles)
     .orderBy("name")
@@ -45,11 +39,9 @@ export function updateUserInShop(
   shopId: string,
   changes: { role?: Role; disabled?: boolean; name?: string },
 ) {
-  return db
-    .updateTable("app_user")
+  return updateInShop(db, "app_user", shopId)
     .set(changes)
     .where("id", "=", id)
-    .where("shop_id", "=", shopId)
     .returning(PUBLIC_COLUMNS)
     .executeTakeFirst()
 }

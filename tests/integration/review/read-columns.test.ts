@@ -1,10 +1,12 @@
 // The review queue and the numbers page read columns kept on `drive` (migration 2026_12_02_1330) instead
 // of the score's JSON. On a generated shop they must give exactly what the old queries over `score` gave;
-// the old queries are kept here, word for word in what they select and filter, as the reference.
+// the old queries' reads of the score are kept here, word for word, as the reference. The old numbers query takes
+// its rows and names from selectFinishedDrivesWithNames, which it shares with listDrivesForNumbers; the summary
+// aggregated in SQL (loadNumbersSummary) finds its rows and names on its own and is held to the same figures.
 import { randomUUID } from "node:crypto"
 import { sql } from "kysely"
 import { describe, expect, it } from "vitest"
-import { listDrivesForNumbers, loadNumbersSummary } from "@/db/queries/numbers"
+import { listDrivesForNumbers, loadNumbersSummary, selectFinishedDrivesWithNames } from "@/db/queries/numbers"
 import { internalDriveId } from "@/lib/drive-id"
 import { computeNumbers, numbersDriveFromRow } from "@/lib/numbers"
 import { listReviewQueue } from "@/db/queries/reviews"
@@ -30,25 +32,9 @@ async function oldQueue(shopId: string) {
 }
 
 async function oldNumbers(shopId: string, since: Date) {
-  return testDb()
-    .selectFrom("drive")
+  return selectFinishedDrivesWithNames(testDb(), shopId, since)
     .innerJoin("score", (j) => j.onRef("score.drive_id", "=", "drive.id").on("score.shop_id", "=", shopId))
-    .leftJoin("app_user as driver", (j) =>
-      j.onRef("driver.id", "=", "drive.driver_id").on("driver.shop_id", "=", shopId),
-    )
-    .leftJoin("condition_profile_version as pv", (j) =>
-      j.onRef("pv.id", "=", "drive.profile_version_id").on("pv.shop_id", "=", shopId),
-    )
-    .leftJoin("condition_profile as p", (j) => j.onRef("p.id", "=", "pv.profile_id").on("p.shop_id", "=", shopId))
     .select([
-      "drive.id",
-      "drive.public_id", // the id the numbers show (drive ids per shop, migration 2026_12_03_0100)
-      "drive.finished_at",
-      "drive.verdict",
-      "drive.review_status",
-      "drive.driver_id",
-      "driver.name as driver_name",
-      "p.name as profile_name",
       sql<number | null>`(score.result->>'clearedAtSeconds')::float8`.as("cleared_at_seconds"),
       sql<number>`coalesce((score.result->>'durationSeconds')::float8, 0)`.as("duration_seconds"),
       sql<number>`coalesce((score.result->>'qualifyingSecondsBeforeClear')::float8, 0)`.as("qualifying_seconds"),
@@ -60,11 +46,6 @@ async function oldNumbers(shopId: string, since: Date) {
         "unmet_conditions",
       ),
     ])
-    .where("drive.shop_id", "=", shopId)
-    .where("drive.status", "=", "finished")
-    .where("drive.finished_at", ">=", since)
-    .orderBy("drive.finished_at", "asc")
-    .orderBy("drive.id", "asc")
     .execute()
 }
 
