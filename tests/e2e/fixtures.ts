@@ -45,6 +45,15 @@ export async function signInPage(page: Page, user: Pick<TestUser, "email" | "pas
   await page.waitForURL((url) => !url.pathname.startsWith("/sign-in"))
 }
 
+/** From the start screen through the gate (every check ticked) to the recording screen; the new drive's id. */
+export async function startThroughGate(page: Page) {
+  await page.getByTestId("to-gate").click()
+  for (const key of ["codes", "tires", "load", "clean", "mount", "ready"]) await page.getByTestId(`gate-${key}`).check()
+  await page.getByTestId("start-drive").click()
+  await expect(page.getByTestId("recording-screen")).toBeVisible()
+  return new URL(page.url()).searchParams.get("drive")!
+}
+
 /** The first fix a route starts from, as a place for a context's geolocation. */
 export const startOf = (route: readonly Sample[]): Place => ({ latitude: route[0]!.lat, longitude: route[0]!.lon })
 

@@ -2,7 +2,7 @@ import { internalDriveId } from "@/lib/drive-id"
 import { generateDrive } from "@/lib/tracks"
 import { createTestShop, testDb, type TestShop } from "../helpers/db"
 import { signedIn } from "../helpers/http"
-import { ClockedRoute, expect, signInPage, startOf, test, type Page } from "./fixtures"
+import { ClockedRoute, expect, startThroughGate, signInPage, startOf, test, type Page } from "./fixtures"
 
 // An invented route from lib/tracks at a fix a second, stepped on the driver's page clock so derived speeds are road
 // speeds. Long enough that the phone is still on the road when the test is done with it.
@@ -46,12 +46,7 @@ test.describe("one live picture of the drive on two phones", () => {
     const clocked = await ClockedRoute.install(driver, ROUTE)
     await driver.getByTestId("vehicle-description").fill("Invented Corvan 2.0, silver")
     await driver.getByLabel("Co-driver").selectOption(shop.codriver.id)
-    await driver.getByTestId("to-gate").click()
-    for (const key of ["codes", "tires", "load", "clean", "mount", "ready"])
-      await driver.getByTestId(`gate-${key}`).check()
-    await driver.getByTestId("start-drive").click()
-    await expect(driver.getByTestId("recording-screen")).toBeVisible()
-    const driveId = new URL(driver.url()).searchParams.get("drive")!
+    const driveId = await startThroughGate(driver)
     await clocked.hold()
     const route = clocked.driveOn()
     await expect

@@ -2,7 +2,7 @@ import { internalDriveId } from "@/lib/drive-id"
 import { generateDrive } from "@/lib/tracks"
 import { testDb } from "../helpers/db"
 import { signedIn } from "../helpers/http"
-import { ClockedRoute, expect, shopForFile, signInPage, startOf, test, type Page } from "./fixtures"
+import { ClockedRoute, expect, startThroughGate, shopForFile, signInPage, startOf, test, type Page } from "./fixtures"
 
 // An invented route from lib/tracks at 4 fixes a second, stepped on the page's clock so derived speeds are road speeds.
 const ROUTE = generateDrive({ seed: 2718, hz: 4, minutes: 2, pattern: "never-cleared" }).samples
@@ -19,11 +19,7 @@ async function waitForWorker(page: Page) {
 
 async function startUnplanned(page: Page, vehicle: string) {
   await page.getByTestId("vehicle-description").fill(vehicle)
-  await page.getByTestId("to-gate").click()
-  for (const key of ["codes", "tires", "load", "clean", "mount", "ready"]) await page.getByTestId(`gate-${key}`).check()
-  await page.getByTestId("start-drive").click()
-  await expect(page.getByTestId("recording-screen")).toBeVisible()
-  return new URL(page.url()).searchParams.get("drive")!
+  return startThroughGate(page)
 }
 
 /** What this phone holds for the drive, read straight from IndexedDB. */

@@ -30,14 +30,14 @@ test.describe("reviewing a drive on a phone", () => {
 
     const item = page.locator(`li[data-drive-id="${short.id}"]`)
     await item.waitFor()
-    expect(await item.locator("[data-verdict]").getAttribute("data-verdict")).toBe("short")
+    await expect(item.locator("[data-verdict]")).toHaveAttribute("data-verdict", "short")
     expect(await page.locator(`li[data-drive-id="${other.id}"]`).count()).toBe(1)
     await item.getByRole("link").click()
     await page.waitForURL(`**/drives/${short.id}`)
 
     await page.getByTestId("speed-chart").waitFor()
     expect(await page.getByTestId("track-svg").count()).toBe(1)
-    expect(await page.locator('[data-condition="qualifying-time"]').textContent()).toContain("Not met")
+    await expect(page.locator('[data-condition="qualifying-time"]')).toContainText("Not met")
 
     // Sending back without a note is stopped with a plain message.
     await page.getByRole("button", { name: "Send back" }).click()
@@ -59,7 +59,7 @@ test.describe("reviewing a drive on a phone", () => {
 
     // The decision shows on the drive, and the record opens as a PDF holding the VIN.
     await page.goto(`/drives/${short.id}`)
-    expect(await page.getByTestId("review-decision").textContent()).toContain(note)
+    await expect(page.getByTestId("review-decision")).toContainText(note)
     const href = await page.getByTestId("open-record").getAttribute("href")
     expect(href).toBe(`/api/drives/${short.id}/record`)
     const pdf = await page.context().request.get(href!)

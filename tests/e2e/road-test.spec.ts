@@ -4,7 +4,7 @@ import { checklistBody } from "../helpers/checklist"
 import { createTestShop, testDb, type TestShop } from "../helpers/db"
 import { signedIn } from "../helpers/http"
 import { createJob } from "../helpers/jobs"
-import { ClockedRoute, expect, signInPage, startOf, test } from "./fixtures"
+import { ClockedRoute, expect, startThroughGate, signInPage, startOf, test } from "./fixtures"
 
 // An invented route from lib/tracks (cruising at 50 to 62 mph) at 4 fixes a second, stepped on the page's clock so the
 // speeds derived from the positions are road speeds.
@@ -43,12 +43,7 @@ test.describe("the road test on a phone", () => {
     await signInPage(page, shop.tech)
     await page.goto(`/record?jobId=${job.id}&taskId=${job.camera}`)
     const route = await ClockedRoute.install(page, ROUTE)
-    await page.getByTestId("to-gate").click()
-    for (const key of ["codes", "tires", "load", "clean", "mount", "ready"])
-      await page.getByTestId(`gate-${key}`).check()
-    await page.getByTestId("start-drive").click()
-    await expect(page.getByTestId("recording-screen")).toBeVisible()
-    const driveId = new URL(page.url()).searchParams.get("drive")!
+    const driveId = await startThroughGate(page)
     await route.hold()
     await route.step(120)
 
@@ -96,23 +91,22 @@ test.describe("the road test on a phone", () => {
     if (process.env.SCREENSHOT_DIR)
       await page.screenshot({ path: `${process.env.SCREENSHOT_DIR}/roadtest-finish.png`, fullPage: true })
     // a failed required check: the road test is not met, and the reason names it
-    expect(await verdict.getAttribute("data-verdict")).toBe("not_met")
+    await expect(verdict).toHaveAttribute("data-verdict", "not_met")
     await expect
       .poll(() => page.getByTestId("verdict-reasons").textContent())
       .toContain('Road test: "Lane-departure warning on a lane line" failed')
-    expect(await page.getByTestId("result-lane-departure-warning").getAttribute("data-status")).toBe("failed")
-    expect(await page.getByTestId("result-sign-display").getAttribute("data-status")).toBe("not_equipped")
+    await expect(page.getByTestId("result-lane-departure-warning")).toHaveAttribute("data-status", "failed")
+    await expect(page.getByTestId("result-sign-display")).toHaveAttribute("data-status", "not_equipped")
     // the screen shows what the server scored: each check's status and its speed from the track
     const score = (await (await signedIn(shop.tech)).get(`/api/drives/${driveId}/score`)).body
     expect(score.roadTest.checks).toHaveLength(5)
     for (const c of score.roadTest.checks as Array<{ key: string; status: string; speedMph: number | null }>) {
       expect(await page.getByTestId(`result-${c.key}`).getAttribute("data-status")).toBe(c.status)
-      if (c.speedMph !== null)
-        expect(await page.getByTestId(`result-${c.key}`).textContent()).toContain(`at ${c.speedMph} mph`)
+      if (c.speedMph !== null) await expect(page.getByTestId(`result-${c.key}`)).toContainText(`at ${c.speedMph} mph`)
     }
     // cruising at 50 to 62 mph, the adaptive-cruise passes count (25 mph or faster)
-    expect(await page.getByTestId("result-acc-engages").getAttribute("data-status")).toBe("passed")
-    expect(await page.getByTestId("result-acc-follows-lead").getAttribute("data-status")).toBe("passed")
+    await expect(page.getByTestId("result-acc-engages")).toHaveAttribute("data-status", "passed")
+    await expect(page.getByTestId("result-acc-follows-lead")).toHaveAttribute("data-status", "passed")
 
     // what the phone logged is what the server stored: five check marks with their keys and results
     const marks = await testDb()

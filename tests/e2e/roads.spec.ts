@@ -25,7 +25,7 @@ async function expectRoadsPage(page: Page) {
   expect(await page.locator('[data-testid="road-cells"] polygon').count()).toBeGreaterThan(30)
   expect(await page.locator('[data-testid="road-loop-tracks"] polyline').count()).toBeGreaterThanOrEqual(1)
   expect(await page.getByTestId("road-scale").textContent()).toMatch(/mi/)
-  expect(await page.getByTestId("road-legend").textContent()).toContain("Mostly qualifying")
+  await expect(page.getByTestId("road-legend")).toContainText("Mostly qualifying")
   const loops = page.getByTestId("best-loop")
   expect(await loops.count()).toBeGreaterThanOrEqual(1)
   // lib/format formatDuration's one style: "15 min", "15 min 4 s", "48 s", "1 h 2 min"
