@@ -11,6 +11,7 @@ import { generateDrive, type DrivePattern } from "@/lib/tracks"
 import { withCheckDigit } from "@/lib/vin"
 import type { Db } from "./client"
 import { listProfiles } from "./queries/profiles"
+import { markRow } from "./queries/marks"
 import { insertSamples } from "./queries/samples"
 
 type Outcome = "none" | "approved" | "redo"
@@ -302,16 +303,14 @@ export async function seedDemoJobsAndDrives(db: Db, shopId: string) {
         await trx
           .insertInto("mark")
           .values(
-            file.marks.map((m) => ({
-              id: randomUUID(),
-              drive_id: driveId,
-              shop_id: shopId,
-              t: m.t,
-              kind: m.kind,
-              gap_ft: m.gapFt ?? null,
-              text: m.text ?? null,
-              created_by: loggedByCoDriver.has(m.kind) && codriver ? codriver.id : tech.id,
-            })),
+            file.marks.map((m) =>
+              markRow(m, {
+                id: randomUUID(),
+                driveId,
+                shopId,
+                createdBy: loggedByCoDriver.has(m.kind) && codriver ? codriver.id : tech.id,
+              }),
+            ),
           )
           .execute()
         await trx

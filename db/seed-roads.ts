@@ -11,6 +11,7 @@ import { scoreDrive } from "@/lib/scoring"
 import { createRng } from "@/lib/tracks"
 import { DEMO_ROAD_LAYOUTS, generateRoadDrive, type RoadLayout } from "@/lib/tracks/roads"
 import type { Db } from "./client"
+import { markRow } from "./queries/marks"
 import { applyDriveContribution, bumpRoadModelVersion } from "./queries/roads"
 import { insertSamples } from "./queries/samples"
 import { upsertScore } from "./queries/scores"
@@ -123,16 +124,9 @@ export async function seedRoadHistory(
       await trx
         .insertInto("mark")
         .values(
-          file.marks.map((m, i) => ({
-            id: uuidFrom(`${id}:mark:${i}`),
-            drive_id: id,
-            shop_id: shopId,
-            t: m.t,
-            kind: m.kind,
-            gap_ft: "gapFt" in m ? (m.gapFt ?? null) : null,
-            text: "text" in m ? (m.text ?? null) : null,
-            created_by: tech.id,
-          })),
+          file.marks.map((m, i) =>
+            markRow(m, { id: uuidFrom(`${id}:mark:${i}`), driveId: id, shopId, createdBy: tech.id }),
+          ),
         )
         .execute()
       await upsertScore(trx, id, shopId, score)

@@ -1,6 +1,27 @@
 import type { ApiMark, Mark2 as Mark } from "@/lib/drive-file/schema"
+import type { Insertable } from "kysely"
 import type { Db } from "../client"
 import { selectInShop } from "./shop-scope"
+import type { MarkTable } from "../types"
+
+/** A mark as its `mark` row (either file version's, or the API's); what the mark leaves out is stored as null. */
+export function markRow(
+  m: Mark,
+  row: { id: string; driveId: string; shopId: string; createdBy?: string | null },
+): Insertable<MarkTable> {
+  return {
+    id: row.id,
+    drive_id: row.driveId,
+    shop_id: row.shopId,
+    t: m.t,
+    kind: m.kind,
+    gap_ft: m.gapFt ?? null,
+    text: m.text ?? null,
+    check_key: m.checkKey ?? null,
+    result: m.result ?? null,
+    created_by: row.createdBy ?? null,
+  }
+}
 
 /** Stores marks by their client-made ids in one statement; an id seen before on this drive is a duplicate. */
 export async function insertMarks(
@@ -13,20 +34,7 @@ export async function insertMarks(
   if (marks.length === 0) return { accepted: 0, duplicates: 0 }
   const rows = await trx
     .insertInto("mark")
-    .values(
-      marks.map((m) => ({
-        id: m.id,
-        drive_id: driveId,
-        shop_id: shopId,
-        t: m.t,
-        kind: m.kind,
-        gap_ft: m.gapFt ?? null,
-        text: m.text ?? null,
-        check_key: m.checkKey ?? null,
-        result: m.result ?? null,
-        created_by: createdBy,
-      })),
-    )
+    .values(marks.map((m) => markRow(m, { id: m.id, driveId, shopId, createdBy })))
     .onConflict((oc) => oc.columns(["drive_id", "id"]).doNothing())
     .returning("id")
     .execute()

@@ -5,7 +5,6 @@
 // Each run makes a throwaway shop and deletes it (and its drives) at the end.
 import { randomUUID } from "node:crypto"
 import pg from "pg"
-import { createDb, type Db } from "@/db/client"
 import { driveKey } from "@/db/queries/samples"
 import { internalDriveId } from "@/lib/drive-id"
 import type { Sample } from "@/lib/drive-file"
@@ -13,58 +12,31 @@ import { encodeDegrees, encodeMillis } from "@/lib/drive-file/stored"
 import { flushOutbox, makeItem, memoryOutboxStore, type Transport } from "@/lib/recorder/outbox"
 import { SEND_MAX_SAMPLES } from "@/lib/recorder/batching"
 import { hourAt10Hz } from "./scoring"
-import { benchPerson, benchShop, signInCookie } from "./rig"
-import type { BenchContext, BenchFigure } from "./types"
+import { benchPerson, benchStack, phoneRequest, signInCookie, type BenchStack } from "./rig"
+import { APP_ENV, atLeast, below, benchFigure, type BenchContext } from "./types"
 
-interface Rig {
-  db: Db
-  shopId: string
+interface Rig extends BenchStack {
   userId: string
   transport: Transport
-  cleanup(): Promise<void>
 }
 
 /** A throwaway shop with one technician, signed in over HTTP. */
 async function rig(ctx: BenchContext): Promise<Rig> {
   return ctx.memo("drives-rig", async () => {
-    const baseUrl = ctx.env.BASE_URL!
-    const db = createDb(ctx.env.DATABASE_URL)
-    const shopId = await benchShop(db, "shop")
-    const person = await benchPerson(db, shopId, "technician")
+    const stack = await benchStack(ctx.env, "shop")
+    const { baseUrl } = stack
+    const person = await benchPerson(stack.db, stack.shopId, "technician")
     const userId = person.id
     const address = `bench-${process.pid}-${Date.now()}`
     const cookie = await signInCookie(baseUrl, person, address)
+    const phone = { cookie, address }
     const transport: Transport = {
       async request(method, path, body) {
-        const res = await fetch(`${baseUrl}${path}`, {
-          method,
-          headers: {
-            cookie,
-            "x-forwarded-for": address,
-            ...(body === undefined ? {} : { "content-type": "application/json" }),
-          },
-          body: body === undefined ? undefined : JSON.stringify(body),
-        })
-        const text = await res.text()
-        return { status: res.status, body: text ? JSON.parse(text) : null }
+        const { status, text } = await phoneRequest(baseUrl, phone, method, path, body)
+        return { status, body: text ? JSON.parse(text) : null }
       },
     }
-    return {
-      db,
-      shopId,
-      userId,
-      transport,
-      async cleanup() {
-        await db
-          .deleteFrom("sample")
-          .where("drive_key", "in", db.selectFrom("drive").select("sample_key").where("shop_id", "=", shopId))
-          .execute()
-        await db.deleteFrom("drive").where("shop_id", "=", shopId).execute()
-        await db.deleteFrom("app_user").where("shop_id", "=", shopId).execute()
-        await db.deleteFrom("shop").where("id", "=", shopId).execute()
-        await db.destroy()
-      },
-    }
+    return { ...stack, userId, transport }
   })
 }
 
@@ -118,64 +90,51 @@ async function rawInsert(databaseUrl: string, driveId: string, shopId: string, s
   }
 }
 
-export const ingestToRawInsertRatio: BenchFigure = {
-  name: "ingestToRawInsertRatio",
-  target: ">= 0.5",
-  requiresEnv: ["BASE_URL", "DATABASE_URL"],
-  async run(ctx) {
-    const r = await rig(ctx)
-    const { file } = hourAt10Hz(ctx)
-    const apiDrive = await newDrive(r)
-    const t0 = performance.now()
-    let n = 0
-    for (const batch of chunks(file.samples, SEND_MAX_SAMPLES)) {
-      const res = await r.transport.request("POST", `/api/drives/${apiDrive}/samples`, {
-        batchId: `bench-${n++}`,
-        samples: batch,
-      })
-      if (res.status !== 200) throw new Error(`ingest failed: ${res.status} ${JSON.stringify(res.body)}`)
-    }
-    const apiMs = performance.now() - t0
-    const rawDrive = await newDrive(r)
-    const rawMs = await rawInsert(ctx.env.DATABASE_URL!, rawDrive, r.shopId, file.samples)
-    const apiRate = file.samples.length / (apiMs / 1000)
-    const rawRate = file.samples.length / (rawMs / 1000)
-    return apiRate / rawRate
-  },
-  meets: (v) => v >= 0.5,
-}
+export const ingestToRawInsertRatio = benchFigure("ingestToRawInsertRatio", atLeast(0.5), APP_ENV, async (ctx) => {
+  const r = await rig(ctx)
+  const { file } = hourAt10Hz(ctx)
+  const apiDrive = await newDrive(r)
+  const t0 = performance.now()
+  let n = 0
+  for (const batch of chunks(file.samples, SEND_MAX_SAMPLES)) {
+    const res = await r.transport.request("POST", `/api/drives/${apiDrive}/samples`, {
+      batchId: `bench-${n++}`,
+      samples: batch,
+    })
+    if (res.status !== 200) throw new Error(`ingest failed: ${res.status} ${JSON.stringify(res.body)}`)
+  }
+  const apiMs = performance.now() - t0
+  const rawDrive = await newDrive(r)
+  const rawMs = await rawInsert(ctx.env.DATABASE_URL!, rawDrive, r.shopId, file.samples)
+  const apiRate = file.samples.length / (apiMs / 1000)
+  const rawRate = file.samples.length / (rawMs / 1000)
+  return apiRate / rawRate
+})
 
-export const syncSecondsFor36k: BenchFigure = {
-  name: "syncSecondsFor36k",
-  target: "< 10",
-  unit: "s",
-  requiresEnv: ["BASE_URL", "DATABASE_URL"],
-  async run(ctx) {
-    const r = await rig(ctx)
-    const { file } = hourAt10Hz(ctx)
-    // As the recorder leaves it after an hour offline: the drive's start, then one piece per second.
-    const driveId = randomUUID()
-    const store = memoryOutboxStore()
-    let now = 1
-    await store.put([makeItem(driveId, { type: "create-drive", body: { vehicleDescription: "Bench sync" } }, now++)])
-    await store.put(
-      chunks(file.samples, 10).map((piece, i) =>
-        makeItem(driveId, { type: "samples", batchId: `p${i}-${randomUUID().slice(0, 8)}`, samples: piece }, now++),
-      ),
-    )
-    const t0 = performance.now()
-    const outcome = await flushOutbox(store, r.transport)
-    const seconds = (performance.now() - t0) / 1000
-    if (outcome.kind !== "done" || store.items.size !== 0)
-      throw new Error(`sync did not finish: ${JSON.stringify(outcome)}`)
-    const { n } = await r.db
-      .selectFrom("sample")
-      .select((eb) => eb.fn.countAll<string>().as("n"))
-      .where("drive_key", "=", driveKey(internalDriveId(r.shopId, driveId), r.shopId))
-      .executeTakeFirstOrThrow()
-    if (Number(n) !== file.samples.length) throw new Error(`sync stored ${n} of ${file.samples.length} samples`)
-    await r.cleanup()
-    return seconds
-  },
-  meets: (v) => v < 10,
-}
+export const syncSecondsFor36k = benchFigure("syncSecondsFor36k", below(10, "s"), APP_ENV, async (ctx) => {
+  const r = await rig(ctx)
+  const { file } = hourAt10Hz(ctx)
+  // As the recorder leaves it after an hour offline: the drive's start, then one piece per second.
+  const driveId = randomUUID()
+  const store = memoryOutboxStore()
+  let now = 1
+  await store.put([makeItem(driveId, { type: "create-drive", body: { vehicleDescription: "Bench sync" } }, now++)])
+  await store.put(
+    chunks(file.samples, 10).map((piece, i) =>
+      makeItem(driveId, { type: "samples", batchId: `p${i}-${randomUUID().slice(0, 8)}`, samples: piece }, now++),
+    ),
+  )
+  const t0 = performance.now()
+  const outcome = await flushOutbox(store, r.transport)
+  const seconds = (performance.now() - t0) / 1000
+  if (outcome.kind !== "done" || store.items.size !== 0)
+    throw new Error(`sync did not finish: ${JSON.stringify(outcome)}`)
+  const { n } = await r.db
+    .selectFrom("sample")
+    .select((eb) => eb.fn.countAll<string>().as("n"))
+    .where("drive_key", "=", driveKey(internalDriveId(r.shopId, driveId), r.shopId))
+    .executeTakeFirstOrThrow()
+  if (Number(n) !== file.samples.length) throw new Error(`sync stored ${n} of ${file.samples.length} samples`)
+  await r.cleanup()
+  return seconds
+})

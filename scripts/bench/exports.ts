@@ -1,18 +1,14 @@
 // exportPeakRssMb360k: the app server's peak resident memory (MB of 1,000,000 bytes) while one signed-in user
 // downloads a finished 360,000-sample drive (10 h at 10 Hz) as GPX, CSV and the drive file, one after the other.
 // The drive is stored straight into the database (an import would itself raise the server's memory first); the
-import { internalDriveId } from "@/lib/drive-id"
 // server's peak is reset just before the downloads (writing 5 to /proc/PID/clear_refs resets VmHWM) and read
 // after them, with VmRSS polled every 25 ms as a floor. Needs the running app (BASE_URL), its database
 // (DATABASE_URL) and the server's process id (BENCH_SERVER_PID, which `npm run bench` sets for its own stack).
-import { randomUUID } from "node:crypto"
 import fs from "node:fs"
-import { createDb } from "@/db/client"
 import { insertSamples } from "@/db/queries/samples"
-import { resolveProfile } from "@/lib/drive-file/profile"
 import { generateDrive } from "@/lib/tracks"
-import { benchPerson, benchShop, signInCookie } from "./rig"
-import type { BenchFigure } from "./types"
+import { benchDriveRow, benchMarks, benchPerson, benchStack, signInCookie } from "./rig"
+import { APP_ENV, atMost, benchFigure } from "./types"
 
 const SAMPLES = 360_000
 
@@ -37,52 +33,20 @@ function statusKb(pid: number, field: "VmRSS" | "VmHWM"): number {
   }
 }
 
-export const exportPeakRssMb360k: BenchFigure = {
-  name: "exportPeakRssMb360k",
-  target: "<= 300",
-  unit: "MB",
-  requiresEnv: ["BASE_URL", "DATABASE_URL", "BENCH_SERVER_PID"],
-  async run(ctx) {
-    const baseUrl = ctx.env.BASE_URL!
-    const db = createDb(ctx.env.DATABASE_URL)
-    const shopId = await benchShop(db, "exports")
+export const exportPeakRssMb360k = benchFigure(
+  "exportPeakRssMb360k",
+  atMost(300, "MB"),
+  [...APP_ENV, "BENCH_SERVER_PID"],
+  async (ctx) => {
+    const { baseUrl, db, shopId, cleanup } = await benchStack(ctx.env, "exports")
     try {
       const person = await benchPerson(db, shopId, "technician")
-      const userId = person.id
       const file = generateDrive({ seed: 360, minutes: SAMPLES / 600, hz: 10, pattern: "met" })
       if (file.samples.length !== SAMPLES) throw new Error(`generated ${file.samples.length} samples, not ${SAMPLES}`)
-      const publicId = randomUUID()
-      const driveId = internalDriveId(shopId, publicId)
-      const at = new Date(file.samples[0]!.t)
-      await db
-        .insertInto("drive")
-        .values({
-          id: driveId,
-          public_id: publicId,
-          shop_id: shopId,
-          profile: JSON.stringify(resolveProfile(file.profile)),
-          driver_id: userId,
-          status: "finished",
-          created_at: at,
-          finished_at: at,
-        })
-        .execute()
+      const drive = await benchDriveRow(db, shopId, person.id, file.samples[0]!.t, file.profile)
       for (let i = 0; i < SAMPLES; i += 10_000)
-        await insertSamples(db, driveId, shopId, file.samples.slice(i, i + 10_000))
-      await db
-        .insertInto("mark")
-        .values(
-          file.marks.map((m) => ({
-            id: randomUUID(),
-            drive_id: driveId,
-            shop_id: shopId,
-            t: m.t,
-            kind: m.kind,
-            gap_ft: "gapFt" in m ? (m.gapFt ?? null) : null,
-            text: "text" in m ? (m.text ?? null) : null,
-          })),
-        )
-        .execute()
+        await insertSamples(db, drive.id, shopId, file.samples.slice(i, i + 10_000))
+      await benchMarks(db, drive.id, shopId, file.marks)
 
       const cookie = await signInCookie(baseUrl, person, `bench-exports-${process.pid}`)
 
@@ -103,7 +67,9 @@ export const exportPeakRssMb360k: BenchFigure = {
       const sizes: string[] = []
       try {
         for (const format of ["gpx", "csv", "drive"]) {
-          const res = await fetch(`${baseUrl}/api/drives/${publicId}/file?format=${format}`, { headers: { cookie } })
+          const res = await fetch(`${baseUrl}/api/drives/${drive.public_id}/file?format=${format}`, {
+            headers: { cookie },
+          })
           if (!res.ok) throw new Error(`${format} export failed: ${res.status}`)
           let bytes = 0
           let newlines = 0
@@ -126,9 +92,7 @@ export const exportPeakRssMb360k: BenchFigure = {
       )
       return (Math.max(reset ? hwmKb : 0, polledKb) * 1024) / 1e6
     } finally {
-      await db.deleteFrom("shop").where("id", "=", shopId).execute()
-      await db.destroy()
+      await cleanup()
     }
   },
-  meets: (v) => v <= 300,
-}
+)

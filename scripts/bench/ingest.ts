@@ -10,15 +10,14 @@ import http from "node:http"
 import { internalDriveId } from "@/lib/drive-id"
 import { Kysely, PostgresDialect } from "kysely"
 import pg from "pg"
-import { createDb, type Db } from "@/db/client"
 import type { Database } from "@/db/types"
 import { findDriveAndBatch, ingestSampleBatch } from "@/db/queries/samples"
 import { SessionAdapter, sessionIdFromToken } from "@/lib/auth/lucia"
 import type { Sample } from "@/lib/drive-file"
 import { BATCH_ID_HEADER, SEND_AT_SAMPLES, SEND_EVERY_MS, SEND_MAX_SAMPLES } from "@/lib/recorder/batching"
 import { hourAt10Hz } from "./scoring"
-import { benchPerson, benchShop, percentileOf, signInCookie } from "./rig"
-import type { BenchContext, BenchFigure } from "./types"
+import { benchPerson, benchStack, percentileOf, signInCookie, type BenchStack } from "./rig"
+import { APP_ENV, atLeast, atMost, benchFigure, type BenchContext } from "./types"
 
 const RECORDERS = 100
 const CADENCE_MS = Number(process.env.BENCH_CADENCE_SECONDS ?? 120) * 1000
@@ -30,9 +29,7 @@ const WARM_MS = 4_000
 const REPLAY_WARM = 300
 const CEILING_CLIENTS = 8
 
-interface Rig {
-  db: Db
-  shopId: string
+interface Rig extends BenchStack {
   /** The cookie's token (the database keeps its SHA-256 as the session id). */
   sessionToken: string
   post(path: string, body: unknown): Promise<{ status: number; ms: number }>
@@ -43,11 +40,10 @@ interface Rig {
 
 function rig(ctx: BenchContext): Promise<Rig> {
   return ctx.memo("ingest-rig", async () => {
-    const baseUrl = ctx.env.BASE_URL!
-    const db = createDb(ctx.env.DATABASE_URL)
-    const shopId = await benchShop(db, "ingest")
+    const stack = await benchStack(ctx.env, "ingest")
+    const { baseUrl } = stack
     const address = `bench-ingest-${process.pid}`
-    const cookie = await signInCookie(baseUrl, await benchPerson(db, shopId, "technician"), address)
+    const cookie = await signInCookie(baseUrl, await benchPerson(stack.db, stack.shopId, "technician"), address)
     const sessionToken = cookie.slice(cookie.indexOf("=") + 1)
     // The time is the HTTP round trip: the body is made before the clock starts. The requests go through node:http
     // with kept-alive connections rather than fetch, which costs about three times the CPU a request: the load
@@ -78,8 +74,7 @@ function rig(ctx: BenchContext): Promise<Rig> {
       return { status, ms: performance.now() - t0 }
     }
     return {
-      db,
-      shopId,
+      ...stack,
       sessionToken,
       post,
       agent,
@@ -98,8 +93,7 @@ function rig(ctx: BenchContext): Promise<Rig> {
 async function done(r: Rig) {
   r.uses += 1
   if (r.uses < 3) return
-  await r.db.deleteFrom("shop").where("id", "=", r.shopId).execute()
-  await r.db.destroy()
+  await r.cleanup()
   r.agent.destroy()
 }
 
@@ -110,29 +104,22 @@ function batchSamples(all: readonly Sample[], k: number, n: number): Sample[] {
   return all.slice(start, start + n).map((s) => ({ ...s, t: s.t + shift }))
 }
 
-export const replayRefusalP50Ms: BenchFigure = {
-  name: "replayRefusalP50Ms",
-  target: "<= 2",
-  unit: "ms",
-  requiresEnv: ["BASE_URL", "DATABASE_URL"],
-  async run(ctx) {
-    const r = await rig(ctx)
-    const { file } = hourAt10Hz(ctx)
-    const driveId = await r.newDrive()
-    const body = { batchId: `replay-${randomUUID()}`, samples: file.samples.slice(0, SEND_MAX_SAMPLES) }
-    const first = await r.post(`/api/drives/${driveId}/samples`, body)
-    if (first.status !== 200) throw new Error(`first post failed: ${first.status}`)
-    const times: number[] = []
-    for (let i = 0; i < REPLAY_WARM + 100; i++) {
-      const res = await r.post(`/api/drives/${driveId}/samples`, body)
-      if (res.status !== 200) throw new Error(`replay failed: ${res.status}`)
-      if (i >= REPLAY_WARM) times.push(res.ms)
-    }
-    await done(r)
-    return percentileOf(times, 50)
-  },
-  meets: (v) => v <= 2,
-}
+export const replayRefusalP50Ms = benchFigure("replayRefusalP50Ms", atMost(2, "ms"), APP_ENV, async (ctx) => {
+  const r = await rig(ctx)
+  const { file } = hourAt10Hz(ctx)
+  const driveId = await r.newDrive()
+  const body = { batchId: `replay-${randomUUID()}`, samples: file.samples.slice(0, SEND_MAX_SAMPLES) }
+  const first = await r.post(`/api/drives/${driveId}/samples`, body)
+  if (first.status !== 200) throw new Error(`first post failed: ${first.status}`)
+  const times: number[] = []
+  for (let i = 0; i < REPLAY_WARM + 100; i++) {
+    const res = await r.post(`/api/drives/${driveId}/samples`, body)
+    if (res.status !== 200) throw new Error(`replay failed: ${res.status}`)
+    if (i >= REPLAY_WARM) times.push(res.ms)
+  }
+  await done(r)
+  return percentileOf(times, 50)
+})
 
 /**
  * POSTs (or their SQL) a second, from `clients` loops each sending 50-sample batches back to back, timed after
@@ -160,100 +147,93 @@ async function closedLoop(clients: number, ms: number, send: (client: number, k:
   return count / ((performance.now() - t0) / 1000)
 }
 
-export const ingestCeilingRatio: BenchFigure = {
-  name: "ingestCeilingRatio",
-  target: ">= 0.6",
-  requiresEnv: ["BASE_URL", "DATABASE_URL"],
-  async run(ctx) {
-    const r = await rig(ctx)
-    const { file } = hourAt10Hz(ctx)
-    const apiDrives = await Promise.all(Array.from({ length: CEILING_CLIENTS }, () => r.newDrive()))
-    const apiRate = await closedLoop(CEILING_CLIENTS, CEILING_MS, async (c, k) => {
-      const res = await r.post(`/api/drives/${apiDrives[c]}/samples`, {
-        batchId: `api-${k}`,
-        samples: batchSamples(file.samples, k, SEND_AT_SAMPLES),
-      })
-      if (res.status !== 200) throw new Error(`ingest failed: ${res.status}`)
+export const ingestCeilingRatio = benchFigure("ingestCeilingRatio", atLeast(0.6), APP_ENV, async (ctx) => {
+  const r = await rig(ctx)
+  const { file } = hourAt10Hz(ctx)
+  const apiDrives = await Promise.all(Array.from({ length: CEILING_CLIENTS }, () => r.newDrive()))
+  const apiRate = await closedLoop(CEILING_CLIENTS, CEILING_MS, async (c, k) => {
+    const res = await r.post(`/api/drives/${apiDrives[c]}/samples`, {
+      batchId: `api-${k}`,
+      samples: batchSamples(file.samples, k, SEND_AT_SAMPLES),
     })
-    // The same statements the route runs, through a pool of the app's size, without HTTP, Next.js or validation.
-    // The ingest takes the drive's internal id, as the route has it after mapping the public id (lib/drive-id.ts).
-    const sqlDrives = (await Promise.all(Array.from({ length: CEILING_CLIENTS }, () => r.newDrive()))).map((id) => ({
-      publicId: id,
-      id: internalDriveId(r.shopId, id),
-    }))
-    // One pool for both, of the app's size, as the app has (db/client.ts getPool and getDb).
-    const pool = new pg.Pool({ connectionString: ctx.env.DATABASE_URL, max: Number(ctx.env.DATABASE_POOL_MAX ?? 10) })
-    const db = new Kysely<Database>({ dialect: new PostgresDialect({ pool }) })
-    // The app's session adapter, looked up by what the app looks up: the SHA-256 of the cookie's token
-    // (lib/auth/lucia.ts). The raw token would find no session and skip the user's row.
-    const sessions = new SessionAdapter(pool)
-    const sessionId = sessionIdFromToken(r.sessionToken)
-    const sqlRate = await closedLoop(CEILING_CLIENTS, CEILING_MS, async (c, k) => {
-      const batchId = `sql-${k}`
-      // As the route runs them: the session, and the drive with the batch's claim found by that session, at once.
-      const [[session, user]] = await Promise.all([
-        sessions.getSessionAndUser(sessionId),
-        findDriveAndBatch(db, { sessionId, publicId: sqlDrives[c]!.publicId }, batchId),
-      ])
-      if (!session || !user) throw new Error("the straight ingest found no session")
-      const res = await ingestSampleBatch(
-        db,
-        sqlDrives[c]!.id,
-        r.shopId,
-        batchId,
-        batchSamples(file.samples, k, SEND_AT_SAMPLES),
-      )
-      if (!res || res.replayed) throw new Error("the straight ingest did not store")
-    })
-    await db.destroy() // and the pool with it
-    await done(r)
-    console.error(
-      `[bench] ingest ceiling: ${apiRate.toFixed(0)} POSTs/s through the API, ${sqlRate.toFixed(0)}/s straight through pg`,
+    if (res.status !== 200) throw new Error(`ingest failed: ${res.status}`)
+  })
+  // The same statements the route runs, through a pool of the app's size, without HTTP, Next.js or validation.
+  // The ingest takes the drive's internal id, as the route has it after mapping the public id (lib/drive-id.ts).
+  const sqlDrives = (await Promise.all(Array.from({ length: CEILING_CLIENTS }, () => r.newDrive()))).map((id) => ({
+    publicId: id,
+    id: internalDriveId(r.shopId, id),
+  }))
+  // One pool for both, of the app's size, as the app has (db/client.ts getPool and getDb).
+  const pool = new pg.Pool({ connectionString: ctx.env.DATABASE_URL, max: Number(ctx.env.DATABASE_POOL_MAX ?? 10) })
+  const db = new Kysely<Database>({ dialect: new PostgresDialect({ pool }) })
+  // The app's session adapter, looked up by what the app looks up: the SHA-256 of the cookie's token
+  // (lib/auth/lucia.ts). The raw token would find no session and skip the user's row.
+  const sessions = new SessionAdapter(pool)
+  const sessionId = sessionIdFromToken(r.sessionToken)
+  const sqlRate = await closedLoop(CEILING_CLIENTS, CEILING_MS, async (c, k) => {
+    const batchId = `sql-${k}`
+    // As the route runs them: the session, and the drive with the batch's claim found by that session, at once.
+    const [[session, user]] = await Promise.all([
+      sessions.getSessionAndUser(sessionId),
+      findDriveAndBatch(db, { sessionId, publicId: sqlDrives[c]!.publicId }, batchId),
+    ])
+    if (!session || !user) throw new Error("the straight ingest found no session")
+    const res = await ingestSampleBatch(
+      db,
+      sqlDrives[c]!.id,
+      r.shopId,
+      batchId,
+      batchSamples(file.samples, k, SEND_AT_SAMPLES),
     )
-    return apiRate / sqlRate
-  },
-  meets: (v) => v >= 0.6,
-}
+    if (!res || res.replayed) throw new Error("the straight ingest did not store")
+  })
+  await db.destroy() // and the pool with it
+  await done(r)
+  console.error(
+    `[bench] ingest ceiling: ${apiRate.toFixed(0)} POSTs/s through the API, ${sqlRate.toFixed(0)}/s straight through pg`,
+  )
+  return apiRate / sqlRate
+})
 
 let cadenceErrors = 0
 
-export const ingestAtCadenceP95Ms: BenchFigure = {
-  name: "ingestAtCadenceP95Ms",
+const cadenceLimit = {
   target: "<= 100 with 0 errors",
   unit: "ms",
-  requiresEnv: ["BASE_URL", "DATABASE_URL"],
-  async run(ctx) {
-    const r = await rig(ctx)
-    const { file } = hourAt10Hz(ctx)
-    const drives = await Promise.all(Array.from({ length: RECORDERS }, () => r.newDrive()))
-    const times: number[] = []
-    const start = performance.now()
-    await Promise.all(
-      drives.map(async (driveId, i) => {
-        // Each phone started at its own moment within the first send period; 10 Hz, so 50 samples every 5 s.
-        let next = start + (i / RECORDERS) * SEND_EVERY_MS
-        for (let k = 0; next - start < CADENCE_MS; k++) {
-          const wait = next - performance.now()
-          if (wait > 0) await new Promise((res) => setTimeout(res, wait))
-          try {
-            const res = await r.post(`/api/drives/${driveId}/samples`, {
-              batchId: `c-${k}`,
-              samples: batchSamples(file.samples, k, SEND_AT_SAMPLES),
-            })
-            if (res.status === 200) times.push(res.ms)
-            else cadenceErrors++
-          } catch {
-            cadenceErrors++
-          }
-          next += SEND_EVERY_MS
-        }
-      }),
-    )
-    await done(r)
-    console.error(
-      `[bench] ingest at cadence: ${times.length} POSTs, ${cadenceErrors} errors, p50 ${percentileOf(times, 50).toFixed(1)} ms, p99 ${percentileOf(times, 99).toFixed(1)} ms`,
-    )
-    return percentileOf(times, 95)
-  },
-  meets: (v) => v <= 100 && cadenceErrors === 0,
+  meets: (v: number) => v <= 100 && cadenceErrors === 0,
 }
+
+export const ingestAtCadenceP95Ms = benchFigure("ingestAtCadenceP95Ms", cadenceLimit, APP_ENV, async (ctx) => {
+  const r = await rig(ctx)
+  const { file } = hourAt10Hz(ctx)
+  const drives = await Promise.all(Array.from({ length: RECORDERS }, () => r.newDrive()))
+  const times: number[] = []
+  const start = performance.now()
+  await Promise.all(
+    drives.map(async (driveId, i) => {
+      // Each phone started at its own moment within the first send period; 10 Hz, so 50 samples every 5 s.
+      let next = start + (i / RECORDERS) * SEND_EVERY_MS
+      for (let k = 0; next - start < CADENCE_MS; k++) {
+        const wait = next - performance.now()
+        if (wait > 0) await new Promise((res) => setTimeout(res, wait))
+        try {
+          const res = await r.post(`/api/drives/${driveId}/samples`, {
+            batchId: `c-${k}`,
+            samples: batchSamples(file.samples, k, SEND_AT_SAMPLES),
+          })
+          if (res.status === 200) times.push(res.ms)
+          else cadenceErrors++
+        } catch {
+          cadenceErrors++
+        }
+        next += SEND_EVERY_MS
+      }
+    }),
+  )
+  await done(r)
+  console.error(
+    `[bench] ingest at cadence: ${times.length} POSTs, ${cadenceErrors} errors, p50 ${percentileOf(times, 50).toFixed(1)} ms, p99 ${percentileOf(times, 99).toFixed(1)} ms`,
+  )
+  return percentileOf(times, 95)
+})

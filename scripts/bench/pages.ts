@@ -3,22 +3,14 @@
 // database (DATABASE_URL) for a throwaway technician to sign in with.
 import { gzipSync } from "node:zlib"
 import { chromium } from "playwright-core"
-import { createDb } from "@/db/client"
 import { hourAt10Hz } from "./scoring"
-import { benchPerson, benchShop, signInCookie } from "./rig"
-import type { BenchFigure } from "./types"
+import { benchPerson, benchStack, signInCookie } from "./rig"
+import { APP_ENV, atMost, benchFigure } from "./types"
 
-export async function signedInCookie(baseUrl: string, databaseUrl: string) {
-  const db = createDb(databaseUrl)
-  const shopId = await benchShop(db, "pages")
+export async function signedInCookie(env: NodeJS.ProcessEnv) {
+  const { baseUrl, db, shopId, cleanup } = await benchStack(env, "pages")
   const cookie = await signInCookie(baseUrl, await benchPerson(db, shopId, "technician"), `bench-pages-${process.pid}`)
-  return {
-    cookie,
-    async cleanup() {
-      await db.deleteFrom("shop").where("id", "=", shopId).execute()
-      await db.destroy()
-    },
-  }
+  return { cookie, cleanup }
 }
 
 /** Sum of the gzip sizes of the scripts a page's HTML loads (modern browsers skip `nomodule` ones). */
@@ -97,57 +89,43 @@ export async function loadedScriptsGzipBytes(baseUrl: string, path: string, cook
   }
 }
 
-export const recorderFirstLoadKb: BenchFigure = {
-  name: "recorderFirstLoadKbGzip",
-  target: "<= 150",
-  unit: "kB",
-  requiresEnv: ["BASE_URL", "DATABASE_URL"],
-  async run(ctx) {
-    const { cookie, cleanup } = await signedInCookie(ctx.env.BASE_URL!, ctx.env.DATABASE_URL!)
-    try {
-      const { bytes: htmlOnly } = await firstLoadGzipBytes(ctx.env.BASE_URL!, "/record", cookie)
-      // The start screen works once its first step's button is hydrated.
-      const { bytes, scripts, later } = await loadedScriptsGzipBytes(
-        ctx.env.BASE_URL!,
-        "/record",
-        cookie,
-        '[data-testid="to-gate"]',
-      )
-      console.error(
-        `[bench] /record: ${scripts} scripts before the start screen works (${later} after); the HTML's script tags alone: ${(htmlOnly / 1000).toFixed(1)} kB`,
-      )
-      return bytes / 1000
-    } finally {
-      await cleanup()
-    }
-  },
-  meets: (v) => v <= 150,
-}
+export const recorderFirstLoadKb = benchFigure("recorderFirstLoadKbGzip", atMost(150, "kB"), APP_ENV, async (ctx) => {
+  const { cookie, cleanup } = await signedInCookie(ctx.env)
+  try {
+    const { bytes: htmlOnly } = await firstLoadGzipBytes(ctx.env.BASE_URL!, "/record", cookie)
+    // The start screen works once its first step's button is hydrated.
+    const { bytes, scripts, later } = await loadedScriptsGzipBytes(
+      ctx.env.BASE_URL!,
+      "/record",
+      cookie,
+      '[data-testid="to-gate"]',
+    )
+    console.error(
+      `[bench] /record: ${scripts} scripts before the start screen works (${later} after); the HTML's script tags alone: ${(htmlOnly / 1000).toFixed(1)} kB`,
+    )
+    return bytes / 1000
+  } finally {
+    await cleanup()
+  }
+})
 
 /** The detail page of a finished 36,000-sample drive (1 h at 10 Hz, imported), as a signed-in driver gets it. */
-export const detailHtmlKb36k: BenchFigure = {
-  name: "detailHtmlKb36k",
-  target: "<= 300",
-  unit: "kB",
-  requiresEnv: ["BASE_URL", "DATABASE_URL"],
-  async run(ctx) {
-    const baseUrl = ctx.env.BASE_URL!
-    const { cookie, cleanup } = await signedInCookie(baseUrl, ctx.env.DATABASE_URL!)
-    try {
-      const { text } = hourAt10Hz(ctx)
-      const res = await fetch(`${baseUrl}/api/drives/import`, {
-        method: "POST",
-        headers: { cookie, "content-type": "application/json" },
-        body: text,
-      })
-      if (res.status !== 201) throw new Error(`import failed: ${res.status} ${await res.text()}`)
-      const { drive } = (await res.json()) as { drive: { id: string } }
-      const page = await fetch(`${baseUrl}/drives/${drive.id}`, { headers: { cookie } })
-      if (!page.ok) throw new Error(`detail page failed: ${page.status}`)
-      return Buffer.byteLength(await page.text()) / 1000
-    } finally {
-      await cleanup()
-    }
-  },
-  meets: (v) => v <= 300,
-}
+export const detailHtmlKb36k = benchFigure("detailHtmlKb36k", atMost(300, "kB"), APP_ENV, async (ctx) => {
+  const baseUrl = ctx.env.BASE_URL!
+  const { cookie, cleanup } = await signedInCookie(ctx.env)
+  try {
+    const { text } = hourAt10Hz(ctx)
+    const res = await fetch(`${baseUrl}/api/drives/import`, {
+      method: "POST",
+      headers: { cookie, "content-type": "application/json" },
+      body: text,
+    })
+    if (res.status !== 201) throw new Error(`import failed: ${res.status} ${await res.text()}`)
+    const { drive } = (await res.json()) as { drive: { id: string } }
+    const page = await fetch(`${baseUrl}/drives/${drive.id}`, { headers: { cookie } })
+    if (!page.ok) throw new Error(`detail page failed: ${page.status}`)
+    return Buffer.byteLength(await page.text()) / 1000
+  } finally {
+    await cleanup()
+  }
+})

@@ -1,8 +1,13 @@
-// What the figures share: a throwaway shop, its people, signing one in as a phone does, and percentiles.
+// What the figures share: a throwaway shop, its people and drives, signing one in and asking the app as a phone does,
+// deleting the shop again, and percentiles.
 import { randomUUID } from "node:crypto"
-import type { Db } from "@/db/client"
+import { createDb, type Db } from "@/db/client"
+import { markRow } from "@/db/queries/marks"
 import { hashPassword } from "@/lib/auth/password"
 import type { Role } from "@/lib/auth/roles"
+import { internalDriveId } from "@/lib/drive-id"
+import type { Mark2, Profile } from "@/lib/drive-file/schema"
+import { resolveProfile } from "@/lib/drive-file/profile"
 
 /** A throwaway shop ("Bench <label> 1a2b3c4d"); the figure that made it deletes it. */
 export async function benchShop(db: Db, label: string, settings: object = {}): Promise<string> {
@@ -12,6 +17,28 @@ export async function benchShop(db: Db, label: string, settings: object = {}): P
     .returning("id")
     .executeTakeFirstOrThrow()
   return id
+}
+
+/** Deletes a bench shop (its people, drives and all theirs go with it) and closes the figure's connection. */
+export async function dropBenchShop(db: Db, shopId: string) {
+  await db.deleteFrom("shop").where("id", "=", shopId).execute()
+  await db.destroy()
+}
+
+/** Where a figure against the app works: the app's address, a connection to its database and a throwaway shop there. */
+export interface BenchStack {
+  baseUrl: string
+  db: Db
+  shopId: string
+  /** Deletes the shop and closes the connection. */
+  cleanup(): Promise<void>
+}
+
+/** A BenchStack from BASE_URL and DATABASE_URL, its shop named after `label`. */
+export async function benchStack(env: NodeJS.ProcessEnv, label: string): Promise<BenchStack> {
+  const db = createDb(env.DATABASE_URL)
+  const shopId = await benchShop(db, label)
+  return { baseUrl: env.BASE_URL!, db, shopId, cleanup: () => dropBenchShop(db, shopId) }
 }
 
 export type BenchPerson = { id: string; email: string; password: string }
@@ -65,6 +92,54 @@ export async function signInCookie(
   })
   if (!res.ok) throw new Error(`bench sign-in failed: ${res.status}`)
   return res.headers.get("set-cookie")!.split(";")[0]!
+}
+
+/** A phone's session: its cookie (`name=value`) and the address it sends as X-Forwarded-For. */
+export interface Phone {
+  cookie: string
+  address: string
+}
+
+/** One JSON request to the app as `phone`, and what came back (the body as text, parsed by the caller). */
+export async function phoneRequest(baseUrl: string, phone: Phone, method: string, path: string, body?: unknown) {
+  const res = await fetch(`${baseUrl}${path}`, {
+    method,
+    headers: {
+      cookie: phone.cookie,
+      "x-forwarded-for": phone.address,
+      ...(body === undefined ? {} : { "content-type": "application/json" }),
+    },
+    body: body === undefined ? undefined : JSON.stringify(body),
+  })
+  return { status: res.status, text: await res.text() }
+}
+
+/** A finished drive of `driverId`'s row, stored straight into the database, started and finished at `startMs`. */
+export async function benchDriveRow(db: Db, shopId: string, driverId: string, startMs: number, profile?: Profile) {
+  const publicId = randomUUID()
+  const id = internalDriveId(shopId, publicId)
+  await db
+    .insertInto("drive")
+    .values({
+      id,
+      public_id: publicId,
+      shop_id: shopId,
+      profile: JSON.stringify(resolveProfile(profile)),
+      driver_id: driverId,
+      status: "finished",
+      created_at: new Date(startMs),
+      finished_at: new Date(startMs),
+    })
+    .execute()
+  return { id, public_id: publicId, shop_id: shopId, profile_version_id: null }
+}
+
+/** A file's marks stored on a bench drive (by its internal id), each with an id of its own. */
+export async function benchMarks(db: Db, driveId: string, shopId: string, marks: readonly Mark2[]) {
+  await db
+    .insertInto("mark")
+    .values(marks.map((m) => markRow(m, { id: randomUUID(), driveId, shopId })))
+    .execute()
 }
 
 /** The p-th percentile, nearest rank. */

@@ -33,3 +33,28 @@ export function bestOfMs(fn: () => unknown, runs = 15, warmup = 3): number {
   }
   return best
 }
+
+/** What a figure is held to: the target as the report prints it, with the test of a value that goes with it. */
+type Limit = Pick<BenchFigure, "target" | "unit" | "meets">
+
+const limit = (op: string, n: number, meets: (v: number) => boolean, unit?: string): Limit => ({
+  target: `${op} ${n}`,
+  ...(unit ? { unit } : {}),
+  meets,
+})
+export const atMost = (n: number, unit?: string) => limit("<=", n, (v) => v <= n, unit)
+export const below = (n: number, unit?: string) => limit("<", n, (v) => v < n, unit)
+export const atLeast = (n: number, unit?: string) => limit(">=", n, (v) => v >= n, unit)
+
+/** What a figure against the running app needs: the app (BASE_URL) and its database (DATABASE_URL). */
+export const APP_ENV = ["BASE_URL", "DATABASE_URL"]
+
+/** A figure: its name as reported, what it is held to, the environment it needs, and how it is measured. */
+export function benchFigure(
+  name: string,
+  held: Limit,
+  requiresEnv: string[],
+  run: (ctx: BenchContext) => Promise<number>,
+): BenchFigure {
+  return { name, ...held, requiresEnv, run }
+}
