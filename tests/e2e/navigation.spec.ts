@@ -105,12 +105,17 @@ test.describe("phone navigation: every page a role may open is a tap or two away
   })
 })
 
+/** A drive of the shop's technician, on a new job, still being recorded. */
+async function recordingDrive(pattern: "met" | "short", seed: number) {
+  const job = await insertJob(shop)
+  return { job, drive: await insertScoredDrive(shop, { pattern, seed, job, status: "recording" }) }
+}
+
 test.describe("the co-driver's way in", () => {
   test("leads with a Join as co-driver card for a drive being recorded that names them, and it opens the logging screen", async ({
     phoneAs,
   }) => {
-    const job = await insertJob(shop)
-    const live = await insertScoredDrive(shop, { pattern: "met", seed: 912, job, status: "recording" })
+    const { job, drive: live } = await recordingDrive("met", 912)
     const page = await phoneAs(shop.codriver)
     const card = page.locator(`[data-testid="join-card"][data-drive-id="${live.id}"]`)
     await card.waitFor()
@@ -130,8 +135,7 @@ test.describe("notices for the lead", () => {
   test("a drive that finishes short puts a notice under the lead's bell, which opens the drive", async ({
     phoneAs,
   }) => {
-    const job = await insertJob(shop)
-    const drive = await insertScoredDrive(shop, { pattern: "short", seed: 913, job, status: "recording" })
+    const { job, drive } = await recordingDrive("short", 913)
     const finish = await (await signedIn(shop.tech)).post(`/api/drives/${drive.id}/finish`, {})
     expect(finish.status).toBe(200)
     expect(finish.body.drive.verdict).toBe("short")
