@@ -17,6 +17,16 @@ const UpdateOffer = lazy(() => import("./update-offer").then((m) => ({ default: 
 const SIGNED_OUT_PATHS = /^\/(sign-in|share)(\/|$)/
 
 /**
+ * A message to the worker that is active for this page, and its answer. Not `Workbox.messageSW`: that waits for
+ * the worker *this* Workbox instance installed, and a page loaded while an earlier page's worker was still
+ * installing or activating never learns of one, so its message would never go out (and the page never offline-ready).
+ */
+async function askActiveWorker(data: object) {
+  const [{ messageSW }, registration] = await Promise.all([import("workbox-window"), navigator.serviceWorker.ready])
+  return messageSW(registration.active!, data)
+}
+
+/**
  * Registers /sw.js. When a new worker is waiting it offers a reload, but never while a drive is
  * being recorded on this phone (the offer waits until the drive is finished).
  */
@@ -64,7 +74,7 @@ export function ServiceWorkerRegistration() {
     let timer: ReturnType<typeof setTimeout> | undefined
     const ask = async (attempt: number) => {
       const answer = await Promise.race([
-        wb.messageSW({ type: "WARM", urls }) as Promise<{ saved?: string[] } | undefined>,
+        askActiveWorker({ type: "WARM", urls }) as Promise<{ saved?: string[] } | undefined>,
         new Promise<undefined>((resolve) => setTimeout(resolve, WARM_ANSWER_MS)),
       ]).catch(() => undefined)
       if (cancelled) return
