@@ -7,6 +7,7 @@ import type { Profile } from "@/lib/drive-file/schema"
 import { profileInWords } from "@/lib/recorder/profile-words"
 import { useFormatPrefs } from "@/components/shell/format-prefs"
 import { AfterIdle, afterIdle } from "@/components/ui/after-idle"
+import { Bullets } from "@/components/ui/bullets"
 import { apiFetch } from "@/lib/api/client"
 import { GATE_CHECKS } from "@/lib/recorder/gate-checks"
 import type { DriveStart } from "@/lib/recorder/recorder"
@@ -212,11 +213,7 @@ export function StartFlow({ onStart }: { onStart: (choice: StartChoice) => void 
           <h2 className="font-semibold">
             Condition profile{task?.profile ? `: ${task.profile.name}` : ": shop default"}
           </h2>
-          <ul className="mt-2 list-disc space-y-1 pl-5 text-graphite-200">
-            {profileInWords(profile, units).map((line) => (
-              <li key={line}>{line}</li>
-            ))}
-          </ul>
+          <Bullets className="mt-2 list-disc space-y-1 pl-5 text-graphite-200" items={profileInWords(profile, units)} />
         </section>
         <button
           type="button"
