@@ -1,4 +1,4 @@
-import { Logo } from "@/components/shell/logo"
+import { BARE_PAGE_ACTION, BarePage, LineIcon } from "@/components/shell/bare-page"
 
 /**
  * Every refusal and every address that leads nowhere ends here, with a way back. A plain link, not next/link:
@@ -7,35 +7,19 @@ import { Logo } from "@/components/shell/logo"
  */
 export default function NotFound() {
   return (
-    <main className="mx-auto flex min-h-dvh max-w-md flex-col items-start justify-center gap-4 px-4">
-      <Logo className="size-10" />
-      <h1 className="text-2xl font-bold">Nothing to show here</h1>
-      <p>This page does not exist, or it belongs to a drive or job you cannot open.</p>
-      <a
-        href="/"
-        className="inline-flex min-h-12 items-center gap-2 rounded-lg bg-graphite-900 px-4 font-semibold text-white dark:bg-signal-400 dark:text-graphite-950"
-        data-testid="way-back"
-      >
-        <BackArrow /> Back to the start
-      </a>
-    </main>
-  )
-}
-
-function BackArrow() {
-  return (
-    <svg
-      viewBox="0 0 24 24"
-      fill="none"
-      stroke="currentColor"
-      strokeWidth={2}
-      strokeLinecap="round"
-      strokeLinejoin="round"
-      aria-hidden
-      className="size-5"
+    <BarePage
+      title="Nothing to show here"
+      action={
+        <a href="/" className={BARE_PAGE_ACTION} data-testid="way-back">
+          <LineIcon>
+            <path d="m12 19-7-7 7-7" />
+            <path d="M19 12H5" />
+          </LineIcon>{" "}
+          Back to the start
+        </a>
+      }
     >
-      <path d="m12 19-7-7 7-7" />
-      <path d="M19 12H5" />
-    </svg>
+      This page does not exist, or it belongs to a drive or job you cannot open.
+    </BarePage>
   )
 }

@@ -5,29 +5,14 @@
 export const MPS_PER_MPH = 0.44704
 export const STANDARD_GRAVITY_MPS2 = 9.80665
 
-export function mphToMps(mph: number): number {
-  return (mph * 44704) / 100000
+/** Both directions of an exact conversion by an integer ratio: `x * num / den`, and back `x * den / num`. */
+function exactRatio(num: number, den: number): [(x: number) => number, (x: number) => number] {
+  return [(x) => (x * num) / den, (x) => (x * den) / num]
 }
 
-export function mpsToMph(mps: number): number {
-  return (mps * 100000) / 44704
-}
-
-export function ftToM(ft: number): number {
-  return (ft * 3048) / 10000
-}
-
-export function mToFt(m: number): number {
-  return (m * 10000) / 3048
-}
-
-export function miToM(mi: number): number {
-  return (mi * 1609344) / 1000
-}
-
-export function mToMi(m: number): number {
-  return (m * 1000) / 1609344
-}
+export const [mphToMps, mpsToMph] = exactRatio(44704, 100000)
+export const [ftToM, mToFt] = exactRatio(3048, 10000)
+export const [miToM, mToMi] = exactRatio(1609344, 1000)
 
 export function kmhToMps(kmh: number): number {
   return kmh / 3.6

@@ -125,6 +125,22 @@ export function recordFilename(head: Pick<RecordHead, "public_id" | "ro_number">
   return `drive-record-${ro || head.public_id.slice(0, 8)}.pdf`
 }
 
+/** The record PDF as the browser opens it, inline and never cached; `headers` adds to those. */
+export function recordPdfResponse(
+  pdf: Uint8Array,
+  head: Pick<RecordHead, "public_id" | "ro_number">,
+  headers: Record<string, string> = {},
+) {
+  return new Response(Buffer.from(pdf), {
+    headers: {
+      "content-type": "application/pdf",
+      "content-disposition": `inline; filename="${recordFilename(head)}"`,
+      "cache-control": "private, no-store",
+      ...headers,
+    },
+  })
+}
+
 export type SharedRecord =
   | { ok: true; data: RecordData; head: RecordHead; expiresAtMs: number }
   | { ok: false; reason: "malformed" | "bad_signature" | "expired" | "withdrawn" | "gone" | "not_ready" }

@@ -174,6 +174,18 @@ export function SetupForm({
           const s = num(r.specified)
           const t = num(r.tolerance)
           const out = [v, s, t].every(Number.isFinite) && isOutOfTolerance({ value: v, specified: s, tolerance: t })
+          // One text box of the row: its id, its error from the server and its change all follow from its name.
+          const box = (name: Exclude<keyof Row, "key">, label: string, inputMode?: "decimal") => (
+            <Field label={label} htmlFor={id(name, i)} error={fields[`measurements.${i}.${name}`]}>
+              <Input
+                id={id(name, i)}
+                inputMode={inputMode}
+                value={r[name]}
+                disabled={!canEdit}
+                onChange={(e) => update(i, { [name]: e.target.value })}
+              />
+            </Field>
+          )
           return (
             <li
               key={i}
@@ -190,52 +202,12 @@ export function SetupForm({
                     <Options values={SETUP_MEASUREMENT_KEYS} labels={SETUP_MEASUREMENT_LABEL} />
                   </Select>
                 </Field>
-                {r.key === "other" ? (
-                  <Field label="Name" htmlFor={id("label", i)} error={fields[`measurements.${i}.label`]}>
-                    <Input
-                      id={id("label", i)}
-                      value={r.label}
-                      disabled={!canEdit}
-                      onChange={(e) => update(i, { label: e.target.value })}
-                    />
-                  </Field>
-                ) : null}
+                {r.key === "other" ? box("label", "Name") : null}
               </div>
-              <Field label="Measured" htmlFor={id("value", i)} error={fields[`measurements.${i}.value`]}>
-                <Input
-                  id={id("value", i)}
-                  inputMode="decimal"
-                  value={r.value}
-                  disabled={!canEdit}
-                  onChange={(e) => update(i, { value: e.target.value })}
-                />
-              </Field>
-              <Field label="Specified" htmlFor={id("specified", i)} error={fields[`measurements.${i}.specified`]}>
-                <Input
-                  id={id("specified", i)}
-                  inputMode="decimal"
-                  value={r.specified}
-                  disabled={!canEdit}
-                  onChange={(e) => update(i, { specified: e.target.value })}
-                />
-              </Field>
-              <Field label="Tolerance (±)" htmlFor={id("tolerance", i)} error={fields[`measurements.${i}.tolerance`]}>
-                <Input
-                  id={id("tolerance", i)}
-                  inputMode="decimal"
-                  value={r.tolerance}
-                  disabled={!canEdit}
-                  onChange={(e) => update(i, { tolerance: e.target.value })}
-                />
-              </Field>
-              <Field label="Unit" htmlFor={id("unit", i)} error={fields[`measurements.${i}.unit`]}>
-                <Input
-                  id={id("unit", i)}
-                  value={r.unit}
-                  disabled={!canEdit}
-                  onChange={(e) => update(i, { unit: e.target.value })}
-                />
-              </Field>
+              {box("value", "Measured", "decimal")}
+              {box("specified", "Specified", "decimal")}
+              {box("tolerance", "Tolerance (±)", "decimal")}
+              {box("unit", "Unit")}
               <div className="col-span-2 flex items-center justify-between gap-2 sm:col-span-6">
                 <span
                   className={

@@ -1,3 +1,4 @@
+import { Bullets } from "@/components/ui/bullets"
 import { Card } from "@/components/ui/card"
 import type { UnitSystem } from "@/lib/format"
 import {
@@ -76,11 +77,7 @@ export function CalibrationsSection({
           ) : (
             <p className="text-sm">No road test recorded.</p>
           )}
-          <ul className="list-disc pl-5 text-xs text-graphite-600 dark:text-graphite-300">
-            {sys.cautions.map((c) => (
-              <li key={c}>{c}</li>
-            ))}
-          </ul>
+          <Bullets className="list-disc pl-5 text-xs text-graphite-600 dark:text-graphite-300" items={sys.cautions} />
         </Card>
       ))}
     </section>

@@ -1,5 +1,6 @@
 import { CircleCheck, CircleMinus, CircleX } from "lucide-react"
 import { VerdictBadge } from "@/components/drives/verdict-badge"
+import { Bullets } from "@/components/ui/bullets"
 import { Card } from "@/components/ui/card"
 import { cn } from "@/components/ui/cn"
 import type { Score } from "@/lib/scoring"
@@ -53,11 +54,7 @@ export function RecordSummary({
         </div>
         {meaning ? <p className="font-medium">{meaning}</p> : null}
         {reasons.length ? (
-          <ul className="list-disc space-y-1 pl-5" data-testid="verdict-reasons">
-            {reasons.map((r) => (
-              <li key={r}>{r}</li>
-            ))}
-          </ul>
+          <Bullets className="list-disc space-y-1 pl-5" testId="verdict-reasons" items={reasons} />
         ) : (
           <p>Every condition the verdict rests on was met.</p>
         )}

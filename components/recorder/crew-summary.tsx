@@ -6,6 +6,12 @@ const cx = (...parts: Array<string | false | null | undefined>) => parts.filter(
 const minutes = (seconds: number) => (seconds / 60).toFixed(1)
 const clock = (ms: number) => new Date(ms).toLocaleTimeString([], { hour: "2-digit", minute: "2-digit" })
 
+/** The two clocks the learn needs: the time so far (before the learn-complete mark) against the minutes needed. */
+const CLOCKS = [
+  { name: "qualifying", label: "Qualifying", needed: "minQualifyingMinutes" },
+  { name: "following", label: "Following", needed: "minFollowingMinutes" },
+] as const
+
 function Stat({
   label,
   value,
@@ -47,8 +53,6 @@ export function CrewSummary() {
   const p = meta.profile
   const vehicle = info?.vehicleDescription ?? meta.vehicleDescription ?? meta.label
   const elapsedS = Math.max(0, (nowMs - meta.startedAtMs) / 1000)
-  const q = score?.qualifyingSecondsBeforeClear ?? 0
-  const f = score?.followingSecondsBeforeClear ?? 0
   const cleared = score?.clearedAtSeconds ?? null
   const secondPhone = meta.role === "co-driver"
   const offline = live.state === "offline"
@@ -73,20 +77,16 @@ export function CrewSummary() {
       </div>
       <div className="grid grid-cols-4 gap-1">
         <Stat testId="crew-elapsed" raw={elapsedS} label="Elapsed" value={minutes(elapsedS)} />
-        <Stat
-          testId="crew-qualifying"
-          raw={score?.qualifyingSeconds ?? null}
-          label="Qualifying"
-          value={minutes(q)}
-          of={String(p.minQualifyingMinutes)}
-        />
-        <Stat
-          testId="crew-following"
-          raw={score?.followingSeconds ?? null}
-          label="Following"
-          value={minutes(f)}
-          of={String(p.minFollowingMinutes)}
-        />
+        {CLOCKS.map(({ name, label, needed }) => (
+          <Stat
+            key={name}
+            testId={`crew-${name}`}
+            raw={score?.[`${name}Seconds`] ?? null}
+            label={label}
+            value={minutes(score?.[`${name}SecondsBeforeClear`] ?? 0)}
+            of={String(p[needed])}
+          />
+        ))}
         <Stat
           testId="crew-left"
           raw={left?.minutesLeft ?? null}

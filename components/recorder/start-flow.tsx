@@ -7,6 +7,7 @@ import type { Profile } from "@/lib/drive-file/schema"
 import { profileInWords } from "@/lib/recorder/profile-words"
 import { useFormatPrefs } from "@/components/shell/format-prefs"
 import { AfterIdle, afterIdle } from "@/components/ui/after-idle"
+import { Bullets } from "@/components/ui/bullets"
 import { apiFetch } from "@/lib/api/client"
 import { GATE_CHECKS } from "@/lib/recorder/gate-checks"
 import type { DriveStart } from "@/lib/recorder/recorder"
@@ -157,34 +158,24 @@ export function StartFlow({ onStart }: { onStart: (choice: StartChoice) => void 
           ) : jobs.length === 0 ? (
             <p className="text-graphite-300">No open jobs here (or no network). Start an unplanned drive below.</p>
           ) : (
-            <select
-              aria-label="Job"
-              className="min-h-12 w-full rounded-lg bg-asphalt-700 px-3"
+            <Picker
+              label="Job"
               value={jobId}
-              onChange={(e) => setJobId(e.target.value)}
-            >
-              <option value="">Choose a job…</option>
-              {jobs.map((j) => (
-                <option key={j.id} value={j.id}>
-                  {j.label}
-                </option>
-              ))}
-            </select>
+              onChange={setJobId}
+              blank="Choose a job…"
+              items={jobs}
+              word={(j) => j.label}
+            />
           )}
           {tasks.length > 1 ? (
-            <select
-              aria-label="Task"
-              className="min-h-12 w-full rounded-lg bg-asphalt-700 px-3"
+            <Picker
+              label="Task"
               value={taskId}
-              onChange={(e) => setTaskId(e.target.value)}
-            >
-              <option value="">Choose the calibration…</option>
-              {tasks.map((t) => (
-                <option key={t.id} value={t.id}>
-                  {SENSOR_WORD[t.sensor] ?? t.sensor} ({t.method})
-                </option>
-              ))}
-            </select>
+              onChange={setTaskId}
+              blank="Choose the calibration…"
+              items={tasks}
+              word={(t) => `${SENSOR_WORD[t.sensor] ?? t.sensor} (${t.method})`}
+            />
           ) : null}
         </section>
         {!jobId ? (
@@ -208,30 +199,21 @@ export function StartFlow({ onStart }: { onStart: (choice: StartChoice) => void 
             <h2 className="flex items-center gap-2 font-semibold">
               <Users aria-hidden className="size-5" /> Co-driver
             </h2>
-            <select
-              aria-label="Co-driver"
-              className="min-h-12 w-full rounded-lg bg-asphalt-700 px-3"
+            <Picker
+              label="Co-driver"
               value={coDriverId}
-              onChange={(e) => setCoDriverId(e.target.value)}
-            >
-              <option value="">Logs on this phone</option>
-              {coDrivers.map((p) => (
-                <option key={p.id} value={p.id}>
-                  {p.name} (on their own phone)
-                </option>
-              ))}
-            </select>
+              onChange={setCoDriverId}
+              blank="Logs on this phone"
+              items={coDrivers}
+              word={(p) => `${p.name} (on their own phone)`}
+            />
           </section>
         ) : null}
         <section className="rounded-xl bg-asphalt-800 p-3">
           <h2 className="font-semibold">
             Condition profile{task?.profile ? `: ${task.profile.name}` : ": shop default"}
           </h2>
-          <ul className="mt-2 list-disc space-y-1 pl-5 text-graphite-200">
-            {profileInWords(profile, units).map((line) => (
-              <li key={line}>{line}</li>
-            ))}
-          </ul>
+          <Bullets className="mt-2 list-disc space-y-1 pl-5 text-graphite-200" items={profileInWords(profile, units)} />
         </section>
         <button
           type="button"
@@ -276,5 +258,38 @@ export function StartFlow({ onStart }: { onStart: (choice: StartChoice) => void 
         }
       />
     </Suspense>
+  )
+}
+
+/** A start-screen choice: a first blank option saying what to choose, then one option per item. */
+function Picker<T extends { id: string }>({
+  label,
+  value,
+  onChange,
+  blank,
+  items,
+  word,
+}: {
+  label: string
+  value: string
+  onChange: (id: string) => void
+  blank: string
+  items: readonly T[]
+  word: (item: T) => string
+}) {
+  return (
+    <select
+      aria-label={label}
+      className="min-h-12 w-full rounded-lg bg-asphalt-700 px-3"
+      value={value}
+      onChange={(e) => onChange(e.target.value)}
+    >
+      <option value="">{blank}</option>
+      {items.map((item) => (
+        <option key={item.id} value={item.id}>
+          {word(item)}
+        </option>
+      ))}
+    </select>
   )
 }

@@ -1,6 +1,7 @@
 "use client"
 import { ClipboardCheck, ClipboardX, Play, ShieldAlert } from "lucide-react"
 import { useFormatPrefs } from "@/components/shell/format-prefs"
+import { Bullets } from "@/components/ui/bullets"
 import { formatDateTime } from "@/lib/format"
 import { GATE_CHECKS } from "@/lib/recorder/gate-checks"
 
@@ -93,11 +94,7 @@ export function StartGate({
         <h2 className="flex items-center gap-2 font-semibold text-signal-300">
           <ShieldAlert aria-hidden className="size-5" /> Safety
         </h2>
-        <ul className="list-disc space-y-1 pl-5">
-          {CAUTIONS.map((c) => (
-            <li key={c}>{c}</li>
-          ))}
-        </ul>
+        <Bullets className="list-disc space-y-1 pl-5" items={CAUTIONS} />
       </section>
       <label className="flex min-h-12 items-center gap-3 rounded-xl bg-asphalt-800 p-3 font-semibold">
         <input

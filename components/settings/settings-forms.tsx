@@ -152,6 +152,12 @@ export function ShopFormatForm({
   )
 }
 
+/** The shop location's two boxes, in the order the form shows them. */
+const COORDINATES = [
+  { name: "lat", label: "Latitude", hint: "Decimal degrees, north positive", placeholder: "43.8731" },
+  { name: "lon", label: "Longitude", hint: "Decimal degrees, east positive (west is minus)", placeholder: "-91.9187" },
+] as const
+
 /** Where the shop is (admin): the Roads page draws its map around it and takes its loops from drives starting near it. */
 export function ShopLocationForm({
   initial,
@@ -185,33 +191,19 @@ export function ShopLocationForm({
   return (
     <form onSubmit={form.handleSubmit(save)} className="space-y-4" data-testid="shop-location-form" noValidate>
       <div className="grid gap-3 sm:grid-cols-2">
-        <Field label="Latitude" htmlFor="shop-lat" hint="Decimal degrees, north positive" error={errors.lat?.message}>
-          <Input
-            id="shop-lat"
-            inputMode="decimal"
-            autoComplete="off"
-            placeholder="43.8731"
-            disabled={!canEdit}
-            defaultValue={initial ? String(initial.lat) : ""}
-            {...form.register("lat")}
-          />
-        </Field>
-        <Field
-          label="Longitude"
-          htmlFor="shop-lon"
-          hint="Decimal degrees, east positive (west is minus)"
-          error={errors.lon?.message}
-        >
-          <Input
-            id="shop-lon"
-            inputMode="decimal"
-            autoComplete="off"
-            placeholder="-91.9187"
-            disabled={!canEdit}
-            defaultValue={initial ? String(initial.lon) : ""}
-            {...form.register("lon")}
-          />
-        </Field>
+        {COORDINATES.map(({ name, label, hint, placeholder }) => (
+          <Field key={name} label={label} htmlFor={`shop-${name}`} hint={hint} error={errors[name]?.message}>
+            <Input
+              id={`shop-${name}`}
+              inputMode="decimal"
+              autoComplete="off"
+              placeholder={placeholder}
+              disabled={!canEdit}
+              defaultValue={initial ? String(initial[name]) : ""}
+              {...form.register(name)}
+            />
+          </Field>
+        ))}
       </div>
       {canEdit ? (
         <div className="flex flex-wrap gap-2">

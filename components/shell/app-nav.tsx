@@ -39,30 +39,50 @@ function useActive() {
   return (href: string) => pathname === href || pathname.startsWith(`${href}/`)
 }
 
+/** One entry of the menu, wherever it is drawn: the page's icon and word, marked as the current page when it is. */
+function NavLink({
+  item,
+  active,
+  className,
+  activeClassName,
+  iconClassName = "size-5",
+  onClick,
+}: {
+  item: NavItem
+  active: boolean
+  className: string
+  activeClassName: string
+  iconClassName?: string
+  onClick?: () => void
+}) {
+  const Icon = ICONS[item.icon] ?? Route
+  return (
+    <Link
+      href={item.href}
+      aria-current={active ? "page" : undefined}
+      onClick={onClick}
+      className={cn(className, active && activeClassName)}
+    >
+      <Icon aria-hidden className={iconClassName} />
+      {item.label}
+    </Link>
+  )
+}
+
 /** Side rail on wide screens. */
 export function SideNav({ items }: { items: NavItem[] }) {
   const isActive = useActive()
   return (
     <nav aria-label="Main" className="hidden w-56 shrink-0 flex-col gap-1 p-3 md:flex">
-      {items.map((item) => {
-        const Icon = ICONS[item.icon] ?? Route
-        const active = isActive(item.href)
-        return (
-          <Link
-            key={item.href}
-            href={item.href}
-            aria-current={active ? "page" : undefined}
-            className={cn(
-              "flex min-h-12 items-center gap-3 rounded-lg px-3 font-medium text-graphite-700 hover:bg-graphite-100 dark:text-graphite-200 dark:hover:bg-asphalt-700",
-              active &&
-                "bg-graphite-900 text-white hover:bg-graphite-800 dark:bg-signal-400 dark:text-graphite-950 dark:hover:bg-signal-300",
-            )}
-          >
-            <Icon aria-hidden className="size-5" />
-            {item.label}
-          </Link>
-        )
-      })}
+      {items.map((item) => (
+        <NavLink
+          key={item.href}
+          item={item}
+          active={isActive(item.href)}
+          className="flex min-h-12 items-center gap-3 rounded-lg px-3 font-medium text-graphite-700 hover:bg-graphite-100 dark:text-graphite-200 dark:hover:bg-asphalt-700"
+          activeClassName="bg-graphite-900 text-white hover:bg-graphite-800 dark:bg-signal-400 dark:text-graphite-950 dark:hover:bg-signal-300"
+        />
+      ))}
     </nav>
   )
 }
@@ -81,21 +101,16 @@ export function BottomNav({ items }: { items: NavItem[] }) {
     >
       <ul className="grid" style={{ gridTemplateColumns: `repeat(${columns}, minmax(0, 1fr))` }}>
         {shown.map((item) => {
-          const Icon = ICONS[item.icon] ?? Route
           const active = isActive(item.href)
           return (
             <li key={item.href}>
-              <Link
-                href={item.href}
-                aria-current={active ? "page" : undefined}
-                className={cn(
-                  "flex min-h-16 flex-col items-center justify-center gap-1 text-xs font-semibold text-graphite-500 dark:text-graphite-300",
-                  active && "text-graphite-950 dark:text-signal-300",
-                )}
-              >
-                <Icon aria-hidden className={cn("size-6", active && "stroke-[2.5]")} />
-                {item.label}
-              </Link>
+              <NavLink
+                item={item}
+                active={active}
+                className="flex min-h-16 flex-col items-center justify-center gap-1 text-xs font-semibold text-graphite-500 dark:text-graphite-300"
+                activeClassName="text-graphite-950 dark:text-signal-300"
+                iconClassName={cn("size-6", active && "stroke-[2.5]")}
+              />
             </li>
           )
         })}
@@ -155,26 +170,17 @@ function MoreSheet({
           data-testid="more-sheet"
         >
           <ul className="grid gap-1">
-            {items.map((item) => {
-              const Icon = ICONS[item.icon] ?? Route
-              const current = isActive(item.href)
-              return (
-                <li key={item.href}>
-                  <Link
-                    href={item.href}
-                    aria-current={current ? "page" : undefined}
-                    onClick={() => setOpen(false)}
-                    className={cn(
-                      "flex min-h-12 items-center gap-3 rounded-lg px-3 font-medium text-graphite-800 hover:bg-graphite-100 dark:text-graphite-100 dark:hover:bg-asphalt-700",
-                      current && "bg-graphite-900 text-white dark:bg-signal-400 dark:text-graphite-950",
-                    )}
-                  >
-                    <Icon aria-hidden className="size-5" />
-                    {item.label}
-                  </Link>
-                </li>
-              )
-            })}
+            {items.map((item) => (
+              <li key={item.href}>
+                <NavLink
+                  item={item}
+                  active={isActive(item.href)}
+                  onClick={() => setOpen(false)}
+                  className="flex min-h-12 items-center gap-3 rounded-lg px-3 font-medium text-graphite-800 hover:bg-graphite-100 dark:text-graphite-100 dark:hover:bg-asphalt-700"
+                  activeClassName="bg-graphite-900 text-white dark:bg-signal-400 dark:text-graphite-950"
+                />
+              </li>
+            ))}
           </ul>
         </div>
       ) : null}

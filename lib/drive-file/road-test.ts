@@ -66,6 +66,13 @@ const check = (
   need: CheckNeed,
 ): RoadTestCheck => Object.freeze({ key, system, label, minSpeedMph, need })
 
+/** Corner and rear radars watch the same sides and the same cross traffic, so they share their checks. */
+const sideRadarChecks = (system: RoadTestSystem): RoadTestCheck[] => [
+  check(system, "blind-spot-left", "Blind-spot alert, left side, as a vehicle passes", 20, "required"),
+  check(system, "blind-spot-right", "Blind-spot alert, right side, as a vehicle passes", 20, "required"),
+  check(system, "rear-cross-traffic", "Rear cross-traffic alert reversing out of a space", null, "where_equipped"),
+]
+
 /**
  * Default checks per system: common practice, no published source. Speeds are typical engagement
  * speeds (adaptive cruise and lane keeping commonly from about 20 to 40 mph); the maker's figure wins.
@@ -86,28 +93,8 @@ export const DEFAULT_ROAD_TEST_CHECKS: Readonly<Record<RoadTestSystem, readonly 
     check("forward_camera", "lane-departure-warning", "Lane-departure warning on a lane line", 40, "required"),
     check("forward_camera", "sign-display", "Traffic-sign display shows the posted limit", null, "where_equipped"),
   ],
-  corner_radar: [
-    check("corner_radar", "blind-spot-left", "Blind-spot alert, left side, as a vehicle passes", 20, "required"),
-    check("corner_radar", "blind-spot-right", "Blind-spot alert, right side, as a vehicle passes", 20, "required"),
-    check(
-      "corner_radar",
-      "rear-cross-traffic",
-      "Rear cross-traffic alert reversing out of a space",
-      null,
-      "where_equipped",
-    ),
-  ],
-  rear_radar: [
-    check("rear_radar", "blind-spot-left", "Blind-spot alert, left side, as a vehicle passes", 20, "required"),
-    check("rear_radar", "blind-spot-right", "Blind-spot alert, right side, as a vehicle passes", 20, "required"),
-    check(
-      "rear_radar",
-      "rear-cross-traffic",
-      "Rear cross-traffic alert reversing out of a space",
-      null,
-      "where_equipped",
-    ),
-  ],
+  corner_radar: sideRadarChecks("corner_radar"),
+  rear_radar: sideRadarChecks("rear_radar"),
   surround_camera: [
     check(
       "surround_camera",

@@ -67,47 +67,31 @@ const DATE_TIME: Intl.DateTimeFormatOptions = {
   minute: "2-digit",
 }
 
-/** "Dec 2, 2026, 9:42 AM", with the zone's short name after it when `zoneName` ("… 9:42 AM CST"). */
-export function formatDateTime(at: Moment, timeZone?: string | null, opts: { zoneName?: boolean } = {}): string {
+/** A moment in the shop's zone (the default zone when none or an unknown one), "—" for an invalid moment. */
+function formatMoment(at: Moment, timeZone: string | null | undefined, options: Intl.DateTimeFormatOptions): string {
   const d = toDate(at)
   if (Number.isNaN(d.getTime())) return "—"
-  return new Intl.DateTimeFormat("en-US", {
-    ...DATE_TIME,
-    timeZone: zoneOrDefault(timeZone),
-    ...(opts.zoneName ? { timeZoneName: "short" } : {}),
-  }).format(d)
+  return new Intl.DateTimeFormat("en-US", { ...options, timeZone: zoneOrDefault(timeZone) }).format(d)
+}
+
+/** "Dec 2, 2026, 9:42 AM", with the zone's short name after it when `zoneName` ("… 9:42 AM CST"). */
+export function formatDateTime(at: Moment, timeZone?: string | null, opts: { zoneName?: boolean } = {}): string {
+  return formatMoment(at, timeZone, { ...DATE_TIME, ...(opts.zoneName ? { timeZoneName: "short" } : {}) })
 }
 
 /** "Dec 2, 2026" */
 export function formatDate(at: Moment, timeZone?: string | null): string {
-  const d = toDate(at)
-  if (Number.isNaN(d.getTime())) return "—"
-  return new Intl.DateTimeFormat("en-US", {
-    month: "short",
-    day: "numeric",
-    year: "numeric",
-    timeZone: zoneOrDefault(timeZone),
-  }).format(d)
+  return formatMoment(at, timeZone, { month: "short", day: "numeric", year: "numeric" })
 }
 
 /** "Dec 2": a day on a chart axis, where the year is plain from the range. */
 export function formatDay(at: Moment, timeZone?: string | null): string {
-  const d = toDate(at)
-  if (Number.isNaN(d.getTime())) return "—"
-  return new Intl.DateTimeFormat("en-US", { month: "short", day: "numeric", timeZone: zoneOrDefault(timeZone) }).format(
-    d,
-  )
+  return formatMoment(at, timeZone, { month: "short", day: "numeric" })
 }
 
 /** "9:42 AM" */
 export function formatTime(at: Moment, timeZone?: string | null): string {
-  const d = toDate(at)
-  if (Number.isNaN(d.getTime())) return "—"
-  return new Intl.DateTimeFormat("en-US", {
-    hour: "numeric",
-    minute: "2-digit",
-    timeZone: zoneOrDefault(timeZone),
-  }).format(d)
+  return formatMoment(at, timeZone, { hour: "numeric", minute: "2-digit" })
 }
 
 /** An hour of the shop's day (0-23), in formatTime's style: 9 -> "9:00 AM", 0 -> "12:00 AM". */

@@ -260,7 +260,7 @@ function recordContent(data: RecordData, vehicleText: string, images: Record<str
     if (data.checklist.completedBy)
       checks.push({
         label: "Checked by",
-        value: `${data.checklist.completedBy}${data.checklist.completedAt ? `, ${fmtDateTime(data.checklist.completedAt)}` : ""}`,
+        value: whoAndWhen(data.checklist.completedBy, data.checklist.completedAt, fmtDateTime),
       })
     out.push(rows(checks))
   } else out.push({ text: "No checklist was recorded for this drive.", color: MUTED })
@@ -378,6 +378,11 @@ function photoBlocks(data: RecordData, images: Record<string, string>): Content[
 
 const verdictWord = (v: string | null) => (v ? ((VERDICT_WORD as Record<string, string>)[v] ?? v) : "not finished")
 
+/** "Who, when": a name, with the moment after it when it was recorded. */
+function whoAndWhen(who: string, at: string | null | undefined, fmtDateTime: (iso: string) => string): string {
+  return at ? `${who}, ${fmtDateTime(at)}` : who
+}
+
 function calibrationBlocks(data: RecordData, fmtDateTime: (iso: string) => string): Content[] {
   const systems = data.calibrations ?? []
   if (!systems.length) return []
@@ -406,12 +411,12 @@ function calibrationBlocks(data: RecordData, fmtDateTime: (iso: string) => strin
         if (sys.setup.override)
           setup.push({
             label: "Lead's override",
-            value: `${sys.setup.override.note} (${sys.setup.override.by ?? "a shop lead"}${sys.setup.override.at ? `, ${fmtDateTime(sys.setup.override.at)}` : ""})`,
+            value: `${sys.setup.override.note} (${whoAndWhen(sys.setup.override.by ?? "a shop lead", sys.setup.override.at, fmtDateTime)})`,
           })
         if (sys.setup.recordedBy)
           setup.push({
             label: "Recorded by",
-            value: `${sys.setup.recordedBy}${sys.setup.recordedAt ? `, ${fmtDateTime(sys.setup.recordedAt)}` : ""}`,
+            value: whoAndWhen(sys.setup.recordedBy, sys.setup.recordedAt, fmtDateTime),
           })
         block.push(rows(setup))
       } else block.push({ text: "No static set-up was recorded.", color: MUTED })

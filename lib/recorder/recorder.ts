@@ -539,6 +539,13 @@ export function createRecorder(transport: Transport = fetchTransport) {
     return load(input.id)
   }
 
+  /** After this phone's marks changed and the scorer holds them: rescore, refresh the counts, send the outbox. */
+  function marksChanged() {
+    rescore()
+    void refreshSyncCounts()
+    void flush()
+  }
+
   async function addMark(kind: MarkKind, extra: Partial<Pick<ApiMark, "gapFt" | "text" | "checkKey" | "result">> = {}) {
     const meta = store.getState().meta
     if (!meta) return null
@@ -548,9 +555,7 @@ export function createRecorder(transport: Transport = fetchTransport) {
     await saveOutboxItems([makeItem(meta.id, { type: "marks", marks: [mark] }, Date.now())])
     setMarks({ marks })
     scorer?.addMarks([mark])
-    rescore()
-    void refreshSyncCounts()
-    void flush()
+    marksChanged()
     return mark
   }
 
@@ -567,9 +572,7 @@ export function createRecorder(transport: Transport = fetchTransport) {
     await saveMarks(meta.id, rest)
     setMarks({ marks: rest })
     await rebuildScorer()
-    rescore()
-    void refreshSyncCounts()
-    void flush()
+    marksChanged()
     return last
   }
 

@@ -3,6 +3,7 @@ import type { ResolvedProfile } from "@/lib/drive-file/profile"
 import { mphToMps } from "@/lib/units"
 import { reducedLatitudeInto, vincentyFromReduced } from "./geodesy"
 import { applyLeadMark, type LeadState } from "./lead-state"
+import type { DriveSums } from "./types"
 
 /**
  * Half-width of the window used to smooth a speed derived from positions (rule 5, only for samples
@@ -12,20 +13,8 @@ import { applyLeadMark, type LeadState } from "./lead-state"
 const DERIVED_SPEED_HALF_WINDOW_MS = 1000
 
 /** What the verdict needs from the engine, before wording. */
-export interface EngineTotals {
+export interface EngineTotals extends DriveSums {
   samplesReceived: number
-  samplesDroppedForAccuracy: number
-  duplicateSamples: number
-  samplesUsed: number
-  startedAtMs: number | null
-  endedAtMs: number | null
-  durationSeconds: number
-  distanceMeters: number
-  gapSeconds: number
-  qualifyingSeconds: number
-  followingSeconds: number
-  qualifyingSecondsBeforeClear: number
-  followingSecondsBeforeClear: number
   clearedAtMs: number | null
   accelEvents: number
   decelEvents: number

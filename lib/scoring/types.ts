@@ -29,12 +29,8 @@ export interface Condition {
   reason?: string
 }
 
-export interface Score {
-  verdict: Verdict
-  /** One sentence per unmet condition that decides the verdict. */
-  reasons: string[]
-  /** Sentences about advisory conditions (harsh events, data gaps); they never change the verdict. */
-  notes: string[]
+/** The sums over a drive's intervals, as the engine adds them up and as a score reports them. */
+export interface DriveSums {
   durationSeconds: number
   distanceMeters: number
   gapSeconds: number
@@ -42,15 +38,23 @@ export interface Score {
   followingSeconds: number
   qualifyingSecondsBeforeClear: number
   followingSecondsBeforeClear: number
-  clearedAtSeconds: number | null
-  harshEvents: { accel: number; decel: number }
   samplesUsed: number
-  /** Samples not used: over the accuracy limit plus repeated timestamps. */
-  samplesDropped: number
   samplesDroppedForAccuracy: number
   duplicateSamples: number
   startedAtMs: number | null
   endedAtMs: number | null
+}
+
+export interface Score extends DriveSums {
+  verdict: Verdict
+  /** One sentence per unmet condition that decides the verdict. */
+  reasons: string[]
+  /** Sentences about advisory conditions (harsh events, data gaps); they never change the verdict. */
+  notes: string[]
+  clearedAtSeconds: number | null
+  harshEvents: { accel: number; decel: number }
+  /** Samples not used: over the accuracy limit plus repeated timestamps. */
+  samplesDropped: number
   conditions: Condition[]
   profile: ResolvedProfile
   /** Version 2 files only: what the drive was for. */

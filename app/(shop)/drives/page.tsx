@@ -27,6 +27,18 @@ function when(d: Date | string, timeZone: string) {
   return formatDateTime(d, timeZone)
 }
 
+/** " · 2019 Corvane Tallis" after a drive's title: the job's vehicle, else the words typed for an unplanned drive. */
+function vehicleSuffix(d: {
+  vehicle_year: number | null
+  vehicle_make: string | null
+  vehicle_model: string | null
+  vehicle_description: string | null
+}) {
+  if (d.vehicle_make || d.vehicle_model)
+    return ` · ${[d.vehicle_year, d.vehicle_make, d.vehicle_model].filter(Boolean).join(" ")}`
+  return d.vehicle_description ? ` · ${d.vehicle_description}` : ""
+}
+
 export default async function DrivesPage({
   searchParams,
 }: {
@@ -82,11 +94,7 @@ export default async function DrivesPage({
               </span>
               <span className="block font-semibold">
                 {d.ro_number ? roLabel(d.ro_number) : "Unplanned drive"}
-                {d.vehicle_make || d.vehicle_model
-                  ? ` · ${[d.vehicle_year, d.vehicle_make, d.vehicle_model].filter(Boolean).join(" ")}`
-                  : d.vehicle_description
-                    ? ` · ${d.vehicle_description}`
-                    : ""}
+                {vehicleSuffix(d)}
               </span>
               <span className="block text-sm">
                 Driver {d.driver_name ?? "not named"} · started {when(d.created_at, prefs.timeZone)}
@@ -144,11 +152,7 @@ export default async function DrivesPage({
                     <p className="line-clamp-2 font-semibold break-words">
                       {d.ro_number ? roLabel(d.ro_number) : "Unplanned drive"}
                       {d.task_sensor ? ` · ${SENSOR_LABEL[d.task_sensor] ?? d.task_sensor}` : ""}
-                      {d.vehicle_make || d.vehicle_model
-                        ? ` · ${[d.vehicle_year, d.vehicle_make, d.vehicle_model].filter(Boolean).join(" ")}`
-                        : d.vehicle_description
-                          ? ` · ${d.vehicle_description}`
-                          : ""}
+                      {vehicleSuffix(d)}
                     </p>
                     <p className="text-sm break-words text-graphite-600 dark:text-graphite-300">
                       {when(d.created_at, prefs.timeZone)} · {d.driver_name ?? "Unknown driver"}

@@ -3,6 +3,7 @@ import type { Metadata } from "next"
 import Link from "next/link"
 import { requirePageRole } from "@/app/_server/auth"
 import { VerdictBadge } from "@/components/drives/verdict-badge"
+import { Bullets } from "@/components/ui/bullets"
 import { Card } from "@/components/ui/card"
 import { PageHeader } from "@/components/ui/page-header"
 import { getReadDb } from "@/db/client"
@@ -66,11 +67,10 @@ export default async function ReviewPage() {
                           r.vehicle_description,
                         )}
                       </p>
-                      <ul className="list-disc pl-5 text-sm text-graphite-700 dark:text-graphite-200">
-                        {[...words.reasons, ...words.notes].slice(0, 3).map((reason) => (
-                          <li key={reason}>{reason}</li>
-                        ))}
-                      </ul>
+                      <Bullets
+                        className="list-disc pl-5 text-sm text-graphite-700 dark:text-graphite-200"
+                        items={[...words.reasons, ...words.notes].slice(0, 3)}
+                      />
                       <p className="text-sm text-graphite-600 dark:text-graphite-300">
                         {r.driver_name ?? "Unknown driver"} · {waited(r.finished_at)}
                       </p>

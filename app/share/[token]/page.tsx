@@ -6,6 +6,7 @@ import { shareRevisionState } from "@/app/_server/record-seal"
 import { RecordSummary } from "@/components/record/record-summary"
 import { TrackSvg } from "@/components/record/track-svg"
 import { Logo } from "@/components/shell/logo"
+import { Bullets } from "@/components/ui/bullets"
 import { buttonVariants } from "@/components/ui/button"
 import { Card } from "@/components/ui/card"
 import { LocalTime } from "@/components/ui/local-time"
@@ -185,11 +186,7 @@ function SharedRecord({
           <ShieldAlert aria-hidden className="size-5 shrink-0 text-signal-700 dark:text-signal-300" /> Please read: the
           vehicle has the final word
         </h2>
-        <ul className="list-disc space-y-1 pl-5">
-          {RECORD_CAUTIONS.map((c) => (
-            <li key={c}>{c}</li>
-          ))}
-        </ul>
+        <Bullets className="list-disc space-y-1 pl-5" items={RECORD_CAUTIONS} />
       </section>
       <Card className="space-y-1">
         <h2 className="text-lg font-semibold">Shop review</h2>

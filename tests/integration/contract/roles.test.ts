@@ -52,6 +52,25 @@ function nextT() {
   return Date.UTC(2027, 0, 1) + tCounter * 1000
 }
 
+/**
+ * A read of a drive (or of what hangs off it, `suffix`): everyone in the shop reads the drive that names the
+ * co-driver; the co-driver gets a 404 on one that does not name them.
+ */
+function driveReads(suffix: string): Row[] {
+  return [
+    {
+      route: `GET /api/drives/:id${suffix} (names the co-driver)`,
+      expect: allow(EVERYONE, 200),
+      call: (c) => c.get(`/api/drives/${w.finished.id}${suffix}`),
+    },
+    {
+      route: `GET /api/drives/:id${suffix} (does not name them)`,
+      expect: allow(EVERYONE, 200, { co_driver: 404 }),
+      call: (c) => c.get(`/api/drives/${w.foreign.id}${suffix}`),
+    },
+  ]
+}
+
 const ROWS: Row[] = [
   // api.md table
   { route: "GET /api/session", expect: allow(EVERYONE, 200), call: (c) => c.get("/api/session") },
@@ -67,16 +86,7 @@ const ROWS: Row[] = [
     expect: allow(["technician", "shop_lead"], 201),
     call: (c) => c.post("/api/drives", { id: randomUUID() }),
   },
-  {
-    route: "GET /api/drives/:id (names the co-driver)",
-    expect: allow(EVERYONE, 200),
-    call: (c) => c.get(`/api/drives/${w.finished.id}`),
-  },
-  {
-    route: "GET /api/drives/:id (does not name them)",
-    expect: allow(EVERYONE, 200, { co_driver: 404 }),
-    call: (c) => c.get(`/api/drives/${w.foreign.id}`),
-  },
+  ...driveReads(""),
   {
     route: "POST /api/drives/:id/samples (their drive)",
     expect: allow(EVERYONE, 200),
@@ -114,16 +124,7 @@ const ROWS: Row[] = [
     expect: allow(["shop_lead"], 200, { technician: 403, co_driver: 404 }),
     call: (c) => c.post(`/api/drives/${toFinish.foreign}/finish`),
   },
-  {
-    route: "GET /api/drives/:id/score (names the co-driver)",
-    expect: allow(EVERYONE, 200),
-    call: (c) => c.get(`/api/drives/${w.finished.id}/score`),
-  },
-  {
-    route: "GET /api/drives/:id/score (does not name them)",
-    expect: allow(EVERYONE, 200, { co_driver: 404 }),
-    call: (c) => c.get(`/api/drives/${w.foreign.id}/score`),
-  },
+  ...driveReads("/score"),
   {
     route: "GET /api/drives/:id/file (names the co-driver)",
     expect: allow(EVERYONE, 200),
@@ -178,16 +179,7 @@ const ROWS: Row[] = [
     expect: allow(["technician", "shop_lead"], 200),
     call: (c) => c.post(`/api/uploads/${w.attachmentId}/complete`),
   },
-  {
-    route: "GET /api/drives/:id/record (names the co-driver)",
-    expect: allow(EVERYONE, 200),
-    call: (c) => c.get(`/api/drives/${w.finished.id}/record`),
-  },
-  {
-    route: "GET /api/drives/:id/record (does not name them)",
-    expect: allow(EVERYONE, 200, { co_driver: 404 }),
-    call: (c) => c.get(`/api/drives/${w.foreign.id}/record`),
-  },
+  ...driveReads("/record"),
   {
     route: "POST /api/drives/:id/record/email",
     expect: allow(["shop_lead"], 202),
@@ -278,16 +270,7 @@ const ROWS: Row[] = [
   },
   { route: "GET /api/numbers", expect: allow(["shop_lead"], 200), call: (c) => c.get("/api/numbers") },
   // DEVELOPERS.md "Record revisions and verification"
-  {
-    route: "GET /api/drives/:id/revisions (names the co-driver)",
-    expect: allow(EVERYONE, 200),
-    call: (c) => c.get(`/api/drives/${w.finished.id}/revisions`),
-  },
-  {
-    route: "GET /api/drives/:id/revisions (does not name them)",
-    expect: allow(EVERYONE, 200, { co_driver: 404 }),
-    call: (c) => c.get(`/api/drives/${w.foreign.id}/revisions`),
-  },
+  ...driveReads("/revisions"),
   {
     route: "POST /api/verify (public)",
     expect: allow(EVERYONE, 200, { anon: 200 }),

@@ -1,4 +1,4 @@
-import { loadSharedRecord, recordFilename } from "@/app/_server/record-data"
+import { loadSharedRecord, recordPdfResponse } from "@/app/_server/record-data"
 import { route } from "@/app/_server/route"
 import { getDb } from "@/db/client"
 import { AppError } from "@/lib/errors"
@@ -20,12 +20,5 @@ export const GET = route<{ token: string }>(async (_req, ctx) => {
   }
   const issued = await issueRecordPdf(getDb(), shared.head.id, shared.head.shop_id, "share")
   if (!issued?.pdf) throw new AppError("not_found", "This link is not valid.")
-  return new Response(Buffer.from(issued.pdf), {
-    headers: {
-      "content-type": "application/pdf",
-      "content-disposition": `inline; filename="${recordFilename(shared.head)}"`,
-      "cache-control": "private, no-store",
-      "referrer-policy": "no-referrer",
-    },
-  })
+  return recordPdfResponse(issued.pdf, shared.head, { "referrer-policy": "no-referrer" })
 })

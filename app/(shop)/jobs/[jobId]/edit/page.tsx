@@ -1,24 +1,16 @@
 import { ArrowLeft } from "lucide-react"
 import type { Metadata } from "next"
 import Link from "next/link"
-import { notFound } from "next/navigation"
-import { requirePageRole } from "@/app/_server/auth"
+import { loadJobPage } from "@/app/_server/job-page"
 import { JobForm } from "@/components/jobs/job-form"
 import { PageHeader } from "@/components/ui/page-header"
-import { getDb } from "@/db/client"
-import { loadJobDetail } from "@/db/queries/jobs"
 import { roLabel } from "@/lib/record"
 import type { Method, Reason, Sensor } from "@/lib/validation/job"
-import { isUuid } from "@/lib/validation/uuid"
 
 export const metadata: Metadata = { title: "Edit job" }
 
 export default async function EditJobPage({ params }: { params: Promise<{ jobId: string }> }) {
-  const user = await requirePageRole("technician", "shop_lead")
-  const { jobId } = await params
-  if (!isUuid(jobId)) notFound()
-  const job = await loadJobDetail(getDb(), jobId, user.shopId)
-  if (!job) notFound()
+  const { job } = await loadJobPage(params)
   return (
     <div className="mx-auto max-w-3xl">
       <Link
