@@ -3,7 +3,7 @@ import path from "node:path"
 import { appSecret, fakeServiceEnv, startFakes } from "./lib/services.mjs"
 import { ensurePostgresInstalled, isRunning, resolveDataDir, startPostgres, stopPostgres } from "./lib/postgres.mjs"
 import { firstBusyPort } from "./lib/ports.mjs"
-import { ensureBuild, ensurePackages, log, npx, root, run, startChild, stopChild } from "./lib/shell.mjs"
+import { ensureBuild, ensurePackages, log, npx, root, run, SERVER_ARGS, startChild, stopChild } from "./lib/shell.mjs"
 
 const port = Number(process.env.PORT ?? 3000)
 const host = process.env.HOST ?? "127.0.0.1"
@@ -73,7 +73,7 @@ try {
   await shutdown(1)
 }
 
-server = startChild(process.execPath, ["scripts/server.mjs"], {
+server = startChild(process.execPath, SERVER_ARGS, {
   env: { ...env, HOSTNAME: host, PORT: String(port) },
   name: "server",
 })

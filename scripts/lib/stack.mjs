@@ -4,7 +4,7 @@ import fs from "node:fs"
 import path from "node:path"
 import { appSecret, fakeServiceEnv, startFakes } from "./services.mjs"
 import { resolveDataDir, startPostgres, startStandby, stopPostgres } from "./postgres.mjs"
-import { ensureBuild, ensurePackages, log, npx, root, run, startChild, stopChild } from "./shell.mjs"
+import { ensureBuild, ensurePackages, log, npx, root, run, SERVER_ARGS, startChild, stopChild } from "./shell.mjs"
 
 /**
  * `replica: { pgPort, port }` also starts a streaming standby of the cluster and a second `next start` on `port`
@@ -43,7 +43,7 @@ export async function startStack({ name, port, pgPort, s3Port, smtpPort, extraEn
     fakes = await startFakes({ s3Port, smtpPort, dir: path.join(dataRoot, "fakes") })
     run(npx("tsx"), ["db/migrate.ts"], { env })
     ensureBuild()
-    server = startChild(process.execPath, ["scripts/server.mjs"], {
+    server = startChild(process.execPath, SERVER_ARGS, {
       env: { ...env, HOSTNAME: "127.0.0.1", PORT: String(port) },
       name: "server",
     })
@@ -54,7 +54,7 @@ export async function startStack({ name, port, pgPort, s3Port, smtpPort, extraEn
         port: replica.pgPort,
         database: `straightaway_${name}`,
       })
-      replicaServer = startChild(process.execPath, ["scripts/server.mjs"], {
+      replicaServer = startChild(process.execPath, SERVER_ARGS, {
         env: {
           ...env,
           DATABASE_REPLICA_URL: standbyUrl,
