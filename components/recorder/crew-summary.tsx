@@ -1,6 +1,6 @@
 "use client"
-import { CircleCheck, CloudOff, Hourglass, Radio } from "lucide-react"
-import { CLOCKS, learnWords, minutes, useDriveClock } from "./drive-clock"
+import { CloudOff, Radio } from "lucide-react"
+import { CLOCKS, LearnState, minutes, useDriveClock } from "./drive-clock"
 import { useRecorder } from "./use-recorder"
 
 const cx = (...parts: Array<string | false | null | undefined>) => parts.filter(Boolean).join(" ")
@@ -92,12 +92,7 @@ export function CrewSummary() {
           data-testid="crew-learn"
           data-cleared={cleared !== null}
         >
-          {cleared !== null ? (
-            <CircleCheck aria-hidden className="size-4" />
-          ) : (
-            <Hourglass aria-hidden className="size-4" />
-          )}
-          {learnWords(cleared)}
+          <LearnState cleared={cleared} doneIcon="size-4" waitIcon="size-4" />
         </span>
         <span
           className={cx("ml-auto inline-flex items-center gap-1", offline && "text-signal-300")}

@@ -1,10 +1,10 @@
 "use client"
-import { CircleCheck, CloudOff, Gauge, Hourglass, Link2, Radio, Timer, TriangleAlert } from "lucide-react"
+import { CloudOff, Gauge, Hourglass, Link2, Radio, Timer, TriangleAlert } from "lucide-react"
 import type { ReactNode } from "react"
 import { formatDistance, formatLengthRangeFt, formatSpeed, speedUnit } from "@/lib/format"
 import { speedMeterWords } from "@/lib/recorder/profile-words"
 import { mpsToMph } from "@/lib/units"
-import { CLOCKS, learnWords, minutes, useDriveClock } from "./drive-clock"
+import { CLOCKS, LearnState, minutes, useDriveClock } from "./drive-clock"
 import { useRecorder, useRecorderUnits } from "./use-recorder"
 
 const cx = (...parts: Array<string | false | null | undefined>) => parts.filter(Boolean).join(" ")
@@ -148,12 +148,7 @@ export function Meters() {
         data-testid="meter-learn"
         data-cleared={cleared !== null}
       >
-        {cleared !== null ? (
-          <CircleCheck aria-hidden className="size-5 shrink-0 text-teal-300" />
-        ) : (
-          <Hourglass aria-hidden className="size-5 shrink-0" />
-        )}
-        {learnWords(cleared)}
+        <LearnState cleared={cleared} doneIcon="size-5 shrink-0 text-teal-300" waitIcon="size-5 shrink-0" />
         <span
           className="ml-auto inline-flex items-center gap-1 text-sm font-normal text-graphite-300"
           data-testid="meter-live"

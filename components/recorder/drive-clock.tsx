@@ -1,3 +1,4 @@
+import { CircleCheck, Hourglass } from "lucide-react"
 import { useRecorder } from "./use-recorder"
 
 /** Seconds as minutes with one decimal, the way every recorder meter shows time. */
@@ -9,9 +10,27 @@ export const CLOCKS = [
   { name: "following", label: "Following", needed: "minFollowingMinutes" },
 ] as const
 
-/** The line under the meters for the learn-complete mark. */
-export function learnWords(clearedAtSeconds: number | null): string {
-  return clearedAtSeconds !== null ? `Learn complete at ${minutes(clearedAtSeconds)} min` : "Learn not complete yet"
+/** The learn's state in an icon and words: a check and the minute once the learn completed, else an hourglass. */
+export function LearnState({
+  cleared,
+  doneIcon,
+  waitIcon,
+}: {
+  cleared: number | null
+  doneIcon: string
+  waitIcon: string
+}) {
+  return cleared !== null ? (
+    <>
+      <CircleCheck aria-hidden className={doneIcon} />
+      {`Learn complete at ${minutes(cleared)} min`}
+    </>
+  ) : (
+    <>
+      <Hourglass aria-hidden className={waitIcon} />
+      Learn not complete yet
+    </>
+  )
 }
 
 /**
