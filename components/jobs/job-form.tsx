@@ -5,7 +5,7 @@ import { useQuery, useQueryClient } from "@tanstack/react-query"
 import { Plus, Trash2 } from "lucide-react"
 import { useRouter } from "next/navigation"
 import { useState } from "react"
-import { useFieldArray, useForm, useWatch } from "react-hook-form"
+import { useFieldArray, useForm, useWatch, type FieldPath } from "react-hook-form"
 import { Button } from "@/components/ui/button"
 import { Card } from "@/components/ui/card"
 import { apiFetch } from "@/lib/api/client"
@@ -34,6 +34,32 @@ const BLANK: JobFormValues = {
   vehicle: { vin: "", year: "", make: "", model: "", plate: "" },
   tasks: [{ sensor: "forward_radar", method: "dynamic", reason: "bumper_or_grille_work" }],
 }
+
+type TextInput = {
+  id: string
+  label: string
+  hint?: string
+  type?: "email" | "tel"
+  inputMode?: "email" | "tel" | "numeric"
+}
+
+/** The job's plain text inputs by form path: the input's id, its label, a hint, and the keyboard a phone shows. */
+const TEXT_INPUTS = {
+  roNumber: { id: "roNumber", label: "RO number" },
+  "customer.name": { id: "customer-name", label: "Customer name" },
+  "customer.email": {
+    id: "customer-email",
+    label: "Customer e-mail",
+    hint: "For the drive record.",
+    type: "email",
+    inputMode: "email",
+  },
+  "customer.phone": { id: "customer-phone", label: "Customer phone", type: "tel", inputMode: "tel" },
+  "vehicle.year": { id: "vehicle-year", label: "Year", hint: "Blank: from the VIN", inputMode: "numeric" },
+  "vehicle.make": { id: "vehicle-make", label: "Make" },
+  "vehicle.model": { id: "vehicle-model", label: "Model" },
+  "vehicle.plate": { id: "vehicle-plate", label: "Plate" },
+} satisfies Partial<Record<FieldPath<NewJobInput>, TextInput>>
 
 /** New job (POST) or, with `jobId`, an edit of one (PATCH). The same zod schema checks here and on the server. */
 export function JobForm({ jobId, initial }: { jobId?: string; initial?: JobFormValues }) {
@@ -73,43 +99,26 @@ export function JobForm({ jobId, initial }: { jobId?: string; initial?: JobFormV
   }
 
   const err = (path: string) => errorAt(errors, path)
+  const textInput = (name: keyof typeof TEXT_INPUTS) => {
+    const { id, label, hint, type, inputMode }: TextInput = TEXT_INPUTS[name]
+    return (
+      <Field label={label} htmlFor={id} error={err(name)} hint={hint}>
+        <Input id={id} type={type} inputMode={inputMode} autoComplete="off" {...form.register(name)} />
+      </Field>
+    )
+  }
 
   return (
     <form onSubmit={form.handleSubmit(save)} className="space-y-4" noValidate>
       <Card className="space-y-3">
         <h2 className="text-lg font-bold">Repair order</h2>
         <div className="grid gap-3 sm:grid-cols-[minmax(0,1fr)_minmax(0,2fr)]">
-          <Field label="RO number" htmlFor="roNumber" error={err("roNumber")}>
-            <Input id="roNumber" autoComplete="off" {...form.register("roNumber")} />
-          </Field>
-          <Field label="Customer name" htmlFor="customer-name" error={err("customer.name")}>
-            <Input id="customer-name" autoComplete="off" {...form.register("customer.name")} />
-          </Field>
+          {textInput("roNumber")}
+          {textInput("customer.name")}
         </div>
         <div className="grid gap-3 sm:grid-cols-2">
-          <Field
-            label="Customer e-mail"
-            htmlFor="customer-email"
-            error={err("customer.email")}
-            hint="For the drive record."
-          >
-            <Input
-              id="customer-email"
-              type="email"
-              inputMode="email"
-              autoComplete="off"
-              {...form.register("customer.email")}
-            />
-          </Field>
-          <Field label="Customer phone" htmlFor="customer-phone" error={err("customer.phone")}>
-            <Input
-              id="customer-phone"
-              type="tel"
-              inputMode="tel"
-              autoComplete="off"
-              {...form.register("customer.phone")}
-            />
-          </Field>
+          {textInput("customer.email")}
+          {textInput("customer.phone")}
         </div>
       </Card>
 
@@ -123,18 +132,10 @@ export function JobForm({ jobId, initial }: { jobId?: string; initial?: JobFormV
           {...form.register("vehicle.vin")}
         />
         <div className="grid grid-cols-2 gap-3 sm:grid-cols-4">
-          <Field label="Year" htmlFor="vehicle-year" error={err("vehicle.year")} hint="Blank: from the VIN">
-            <Input id="vehicle-year" inputMode="numeric" autoComplete="off" {...form.register("vehicle.year")} />
-          </Field>
-          <Field label="Make" htmlFor="vehicle-make" error={err("vehicle.make")}>
-            <Input id="vehicle-make" autoComplete="off" {...form.register("vehicle.make")} />
-          </Field>
-          <Field label="Model" htmlFor="vehicle-model" error={err("vehicle.model")}>
-            <Input id="vehicle-model" autoComplete="off" {...form.register("vehicle.model")} />
-          </Field>
-          <Field label="Plate" htmlFor="vehicle-plate" error={err("vehicle.plate")}>
-            <Input id="vehicle-plate" autoComplete="off" {...form.register("vehicle.plate")} />
-          </Field>
+          {textInput("vehicle.year")}
+          {textInput("vehicle.make")}
+          {textInput("vehicle.model")}
+          {textInput("vehicle.plate")}
         </div>
       </Card>
 

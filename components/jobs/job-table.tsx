@@ -87,13 +87,15 @@ const PHONE_CELL: Record<string, string> = {
   createdAt: "max-md:col-span-2 max-md:text-graphite-600 max-md:dark:text-graphite-300",
 }
 
-const PHONE_SORTS = [
-  { value: "createdAt:desc", label: "Newest first" },
-  { value: "createdAt:asc", label: "Oldest first" },
-  { value: "roNumber:asc", label: "RO number" },
-  { value: "customer:asc", label: "Customer A–Z" },
-  { value: "status:asc", label: "Status" },
-]
+/** The sort choices on a phone (no column headers there), as `column:direction`. */
+const PHONE_SORTS = ["createdAt:desc", "createdAt:asc", "roNumber:asc", "customer:asc", "status:asc"] as const
+const PHONE_SORT_LABEL: Record<(typeof PHONE_SORTS)[number], string> = {
+  "createdAt:desc": "Newest first",
+  "createdAt:asc": "Oldest first",
+  "roNumber:asc": "RO number",
+  "customer:asc": "Customer A–Z",
+  "status:asc": "Status",
+}
 
 function vehicleText(v: JobRow["vehicle"]) {
   return [v.year, v.make, v.model].filter(Boolean).join(" ") || "Vehicle"
@@ -207,11 +209,7 @@ export function JobTable() {
             setSorting([{ id: id!, desc: d === "desc" }])
           }}
         >
-          {PHONE_SORTS.map((o) => (
-            <option key={o.value} value={o.value}>
-              {o.label}
-            </option>
-          ))}
+          <Options values={PHONE_SORTS} labels={PHONE_SORT_LABEL} />
         </Select>
       </div>
 

@@ -1,16 +1,10 @@
 "use client"
-import { CircleCheck, CloudOff, Hourglass, Radio } from "lucide-react"
+import { CloudOff, Radio } from "lucide-react"
+import { CLOCKS, LearnState, minutes, useDriveClock } from "./drive-clock"
 import { useRecorder } from "./use-recorder"
 
 const cx = (...parts: Array<string | false | null | undefined>) => parts.filter(Boolean).join(" ")
-const minutes = (seconds: number) => (seconds / 60).toFixed(1)
 const clock = (ms: number) => new Date(ms).toLocaleTimeString([], { hour: "2-digit", minute: "2-digit" })
-
-/** The two clocks the learn needs: the time so far (before the learn-complete mark) against the minutes needed. */
-const CLOCKS = [
-  { name: "qualifying", label: "Qualifying", needed: "minQualifyingMinutes" },
-  { name: "following", label: "Following", needed: "minFollowingMinutes" },
-] as const
 
 function Stat({
   label,
@@ -41,19 +35,14 @@ function Stat({
  * and whether this phone is in touch with the rest of the crew (else it shows what it holds).
  */
 export function CrewSummary() {
-  const meta = useRecorder((s) => s.meta)
+  const drive = useDriveClock()
   const info = useRecorder((s) => s.driveInfo)
-  const score = useRecorder((s) => s.score)
-  const left = useRecorder((s) => s.minutesLeft)
-  const nowMs = useRecorder((s) => s.nowMs)
   const live = useRecorder((s) => s.live)
   const waitingMarks = useRecorder((s) => s.sync.waitingOther)
   const scoreAsOf = useRecorder((s) => s.scoreAsOf)
-  if (!meta) return null
-  const p = meta.profile
+  if (!drive) return null
+  const { meta, profile: p, score, left, elapsedS, cleared } = drive
   const vehicle = info?.vehicleDescription ?? meta.vehicleDescription ?? meta.label
-  const elapsedS = Math.max(0, (nowMs - meta.startedAtMs) / 1000)
-  const cleared = score?.clearedAtSeconds ?? null
   const secondPhone = meta.role === "co-driver"
   const offline = live.state === "offline"
   const syncWord =
@@ -103,12 +92,7 @@ export function CrewSummary() {
           data-testid="crew-learn"
           data-cleared={cleared !== null}
         >
-          {cleared !== null ? (
-            <CircleCheck aria-hidden className="size-4" />
-          ) : (
-            <Hourglass aria-hidden className="size-4" />
-          )}
-          {cleared !== null ? `Learn complete at ${minutes(cleared)} min` : "Learn not complete yet"}
+          <LearnState cleared={cleared} doneIcon="size-4" waitIcon="size-4" />
         </span>
         <span
           className={cx("ml-auto inline-flex items-center gap-1", offline && "text-signal-300")}

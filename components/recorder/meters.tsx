@@ -1,9 +1,10 @@
 "use client"
-import { CircleCheck, CloudOff, Gauge, Hourglass, Link2, Radio, Timer, TriangleAlert } from "lucide-react"
+import { CloudOff, Gauge, Hourglass, Link2, Radio, Timer, TriangleAlert } from "lucide-react"
 import type { ReactNode } from "react"
 import { formatDistance, formatLengthRangeFt, formatSpeed, speedUnit } from "@/lib/format"
 import { speedMeterWords } from "@/lib/recorder/profile-words"
 import { mpsToMph } from "@/lib/units"
+import { CLOCKS, LearnState, minutes, useDriveClock } from "./drive-clock"
 import { useRecorder, useRecorderUnits } from "./use-recorder"
 
 const cx = (...parts: Array<string | false | null | undefined>) => parts.filter(Boolean).join(" ")
@@ -13,9 +14,11 @@ function keepUnitsWithNumbers(text: string) {
   return text.replace(/ (mph|km\/h|ft|m)\b/g, "\u00a0$1")
 }
 
-function minutes(seconds: number) {
-  return (seconds / 60).toFixed(1)
-}
+/** How each learn clock looks on the driver's meters; a clock that has its minutes takes its colour. */
+const CLOCK_LOOK = {
+  qualifying: { icon: Timer, done: "signal" },
+  following: { icon: Link2, done: "teal" },
+} as const
 
 function Meter({
   label,
@@ -63,24 +66,18 @@ function Meter({
 
 /** The live meters: big numerals, readable at arm's length, every state with a word and an icon. */
 export function Meters() {
-  const meta = useRecorder((s) => s.meta)
-  const score = useRecorder((s) => s.score)
+  const drive = useDriveClock()
   const speedMps = useRecorder((s) => s.speedMps)
-  const left = useRecorder((s) => s.minutesLeft)
-  const nowMs = useRecorder((s) => s.nowMs)
   const live = useRecorder((s) => s.live.state)
   const markCount = useRecorder((s) => s.knownMarks.length)
   const units = useRecorderUnits()
-  if (!meta) return null
-  const cleared = score?.clearedAtSeconds ?? null
-  const p = meta.profile
+  if (!drive) return null
+  const { profile: p, score, left, elapsedS, cleared } = drive
   const mph = speedMps === null ? null : mpsToMph(speedMps)
   // The band decision stays in mph against the profile's stored mph; only the words are in the shop's units.
   const inBand = mph !== null && mph >= p.minSpeedMph && (p.maxSpeedMph === null || mph <= p.maxSpeedMph)
-  const elapsedS = Math.max(0, (nowMs - meta.startedAtMs) / 1000)
   const harsh = (score?.harshEvents.accel ?? 0) + (score?.harshEvents.decel ?? 0)
-  const q = score?.qualifyingSecondsBeforeClear ?? 0
-  const f = score?.followingSecondsBeforeClear ?? 0
+  const gap = `, gap ${formatLengthRangeFt(p.leadGapFt.min, p.leadGapFt.max, units)}`
   return (
     <div className="grid grid-cols-2 gap-2">
       <Meter
@@ -93,28 +90,23 @@ export function Meters() {
         detail={keepUnitsWithNumbers(speedMeterWords(p, mph, units))}
         tone={inBand ? "signal" : "plain"}
       />
-      <Meter
-        testId="meter-qualifying"
-        raw={score?.qualifyingSeconds ?? 0}
-        label="Qualifying"
-        icon={<Timer aria-hidden className="size-4" />}
-        value={minutes(q)}
-        unit="min"
-        detail={`of ${p.minQualifyingMinutes} min`}
-        tone={q >= p.minQualifyingMinutes * 60 ? "signal" : "plain"}
-      />
-      <Meter
-        testId="meter-following"
-        raw={score?.followingSeconds ?? 0}
-        label="Following"
-        icon={<Link2 aria-hidden className="size-4" />}
-        value={minutes(f)}
-        unit="min"
-        detail={keepUnitsWithNumbers(
-          `of ${p.minFollowingMinutes} min, gap ${formatLengthRangeFt(p.leadGapFt.min, p.leadGapFt.max, units)}`,
-        )}
-        tone={f >= p.minFollowingMinutes * 60 ? "teal" : "plain"}
-      />
+      {CLOCKS.map(({ name, label, needed }) => {
+        const { icon: Icon, done } = CLOCK_LOOK[name]
+        const before = score?.[`${name}SecondsBeforeClear`] ?? 0
+        return (
+          <Meter
+            key={name}
+            testId={`meter-${name}`}
+            raw={score?.[`${name}Seconds`] ?? 0}
+            label={label}
+            icon={<Icon aria-hidden className="size-4" />}
+            value={minutes(before)}
+            unit="min"
+            detail={keepUnitsWithNumbers(`of ${p[needed]} min${name === "following" ? gap : ""}`)}
+            tone={before >= p[needed] * 60 ? done : "plain"}
+          />
+        )
+      })}
       <Meter
         testId="meter-elapsed"
         raw={elapsedS}
@@ -156,12 +148,7 @@ export function Meters() {
         data-testid="meter-learn"
         data-cleared={cleared !== null}
       >
-        {cleared !== null ? (
-          <CircleCheck aria-hidden className="size-5 shrink-0 text-teal-300" />
-        ) : (
-          <Hourglass aria-hidden className="size-5 shrink-0" />
-        )}
-        {cleared !== null ? `Learn complete at ${minutes(cleared)} min` : "Learn not complete yet"}
+        <LearnState cleared={cleared} doneIcon="size-5 shrink-0 text-teal-300" waitIcon="size-5 shrink-0" />
         <span
           className="ml-auto inline-flex items-center gap-1 text-sm font-normal text-graphite-300"
           data-testid="meter-live"

@@ -18,27 +18,32 @@ export function showApiProblem<T extends FieldValues>(
   return error instanceof Error ? error.message : fallback
 }
 
-/** A form's problem after a save: word, icon and colour, announced to screen readers. */
-export function FormProblem({ children, className }: { children: ReactNode; className?: string }) {
-  if (!children) return null
-  return (
-    <p role="alert" className={cn("flex items-start gap-2 font-medium text-stop-600 dark:text-stop-400", className)}>
-      <CircleAlert aria-hidden className="mt-0.5 size-5 shrink-0" />
-      <span>{children}</span>
-    </p>
-  )
+/** A line after a save: an icon and the words, announced to screen readers by `role`; nothing when empty. */
+function saveLine(role: "alert" | "status", look: string, icon: ReactNode) {
+  return function SaveLine({ children, className }: { children: ReactNode; className?: string }) {
+    if (!children) return null
+    return (
+      <p role={role} className={cn(look, className)}>
+        {icon}
+        <span>{children}</span>
+      </p>
+    )
+  }
 }
 
+/** A form's problem after a save: word, icon and colour, announced to screen readers. */
+export const FormProblem = saveLine(
+  "alert",
+  "flex items-start gap-2 font-medium text-stop-600 dark:text-stop-400",
+  <CircleAlert aria-hidden className="mt-0.5 size-5 shrink-0" />,
+)
+
 /** A quiet "done" line after a save. */
-export function FormDone({ children, className }: { children: ReactNode; className?: string }) {
-  if (!children) return null
-  return (
-    <p role="status" className={cn("flex items-center gap-1.5 font-medium", className)}>
-      <CircleCheck aria-hidden className="size-5 shrink-0 text-teal-600 dark:text-teal-300" />
-      <span>{children}</span>
-    </p>
-  )
-}
+export const FormDone = saveLine(
+  "status",
+  "flex items-center gap-1.5 font-medium",
+  <CircleCheck aria-hidden className="size-5 shrink-0 text-teal-600 dark:text-teal-300" />,
+)
 
 /** `<option>`s for a list of codes and their words. */
 export function Options<T extends string>({ values, labels }: { values: readonly T[]; labels: Record<T, string> }) {

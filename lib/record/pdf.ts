@@ -257,11 +257,7 @@ function recordContent(data: RecordData, vehicleText: string, images: Record<str
       mark: r.ok === null ? undefined : r.ok ? "OK" : "NO",
     }))
     if (data.checklist.notes) checks.push({ label: "Notes", value: data.checklist.notes })
-    if (data.checklist.completedBy)
-      checks.push({
-        label: "Checked by",
-        value: whoAndWhen(data.checklist.completedBy, data.checklist.completedAt, fmtDateTime),
-      })
+    checks.push(...whoRow("Checked by", data.checklist.completedBy, data.checklist.completedAt, fmtDateTime))
     out.push(rows(checks))
   } else out.push({ text: "No checklist was recorded for this drive.", color: MUTED })
   out.push(...photoBlocks(data, images))
@@ -383,6 +379,16 @@ function whoAndWhen(who: string, at: string | null | undefined, fmtDateTime: (is
   return at ? `${who}, ${fmtDateTime(at)}` : who
 }
 
+/** The "Checked by" or "Recorded by" row, when someone is named; no row otherwise. */
+function whoRow(
+  label: string,
+  who: string | null | undefined,
+  at: string | null | undefined,
+  fmtDateTime: (iso: string) => string,
+): Row[] {
+  return who ? [{ label, value: whoAndWhen(who, at, fmtDateTime) }] : []
+}
+
 function calibrationBlocks(data: RecordData, fmtDateTime: (iso: string) => string): Content[] {
   const systems = data.calibrations ?? []
   if (!systems.length) return []
@@ -413,11 +419,7 @@ function calibrationBlocks(data: RecordData, fmtDateTime: (iso: string) => strin
             label: "Lead's override",
             value: `${sys.setup.override.note} (${whoAndWhen(sys.setup.override.by ?? "a shop lead", sys.setup.override.at, fmtDateTime)})`,
           })
-        if (sys.setup.recordedBy)
-          setup.push({
-            label: "Recorded by",
-            value: whoAndWhen(sys.setup.recordedBy, sys.setup.recordedAt, fmtDateTime),
-          })
+        setup.push(...whoRow("Recorded by", sys.setup.recordedBy, sys.setup.recordedAt, fmtDateTime))
         block.push(rows(setup))
       } else block.push({ text: "No static set-up was recorded.", color: MUTED })
     }

@@ -1,17 +1,11 @@
-import { requireRole } from "@/app/_server/auth"
-import { parseJson, parseParams, route } from "@/app/_server/route"
-import { saveTaskChecklist, taskChecklist, taskParams, type TaskParams } from "@/app/_server/services/tasks"
+import { saveTaskChecklist, taskChecklist } from "@/app/_server/services/tasks"
+import { taskRecordRoutes } from "@/app/_server/task-record-routes"
 import { checklistSchema } from "@/lib/validation/checklist"
 
-export const GET = route<TaskParams>(async (_req, { params }) => {
-  const { user } = await requireRole()
-  const path = await parseParams(params, taskParams)
-  return Response.json({ checklist: await taskChecklist(user, path) })
-})
+const checklist = taskRecordRoutes("checklist", checklistSchema, taskChecklist, saveTaskChecklist)
 
-export const PUT = route<TaskParams>(async (req, { params }) => {
-  const { user } = await requireRole("technician", "shop_lead")
-  const path = await parseParams(params, taskParams)
-  const data = await parseJson(req, checklistSchema)
-  return Response.json({ checklist: await saveTaskChecklist(user, path, data) })
-})
+/** The task's pre-drive checklist; `checklist: null` until someone fills it in. */
+export const GET = checklist.GET
+
+/** Fills in (or corrects) the checklist. */
+export const PUT = checklist.PUT

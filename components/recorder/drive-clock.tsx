@@ -1,0 +1,54 @@
+import { CircleCheck, Hourglass } from "lucide-react"
+import { useRecorder } from "./use-recorder"
+
+/** Seconds as minutes with one decimal, the way every recorder meter shows time. */
+export const minutes = (seconds: number) => (seconds / 60).toFixed(1)
+
+/** The two clocks the learn needs: the time so far (before the learn-complete mark) against the minutes needed. */
+export const CLOCKS = [
+  { name: "qualifying", label: "Qualifying", needed: "minQualifyingMinutes" },
+  { name: "following", label: "Following", needed: "minFollowingMinutes" },
+] as const
+
+/** The learn's state in an icon and words: a check and the minute once the learn completed, else an hourglass. */
+export function LearnState({
+  cleared,
+  doneIcon,
+  waitIcon,
+}: {
+  cleared: number | null
+  doneIcon: string
+  waitIcon: string
+}) {
+  return cleared !== null ? (
+    <>
+      <CircleCheck aria-hidden className={doneIcon} />
+      {`Learn complete at ${minutes(cleared)} min`}
+    </>
+  ) : (
+    <>
+      <Hourglass aria-hidden className={waitIcon} />
+      Learn not complete yet
+    </>
+  )
+}
+
+/**
+ * What the driver's meters and the co-driver's summary both read off the recorder: the drive's profile, the live
+ * score, the predicted minutes left, the time since the start and when the learn completed. Null before a drive.
+ */
+export function useDriveClock() {
+  const meta = useRecorder((s) => s.meta)
+  const score = useRecorder((s) => s.score)
+  const left = useRecorder((s) => s.minutesLeft)
+  const nowMs = useRecorder((s) => s.nowMs)
+  if (!meta) return null
+  return {
+    meta,
+    profile: meta.profile,
+    score,
+    left,
+    elapsedS: Math.max(0, (nowMs - meta.startedAtMs) / 1000),
+    cleared: score?.clearedAtSeconds ?? null,
+  }
+}
