@@ -116,7 +116,7 @@ export function ensureBuild() {
 /**
  * How the app's server is started (`node ...SERVER_ARGS`). A young generation of at most 2 MB a half (V8's default
  * grows to 16): the server's garbage is short-lived rows and strings, and a 360,000-sample export then peaks about
- * 25 MB lower (exportPeakRssMb360k: 287 to 292 MB against 310 to 317 MB measured side by side) for more minor
+ * 25 MB lower (exportPeakRssMb360k: 291 to 293 MB against 310 to 317 MB without it, measured the same way) for more minor
  * collections, with no change in the ingest figures beyond their run-to-run spread.
  */
 export const SERVER_ARGS = ["--max-semi-space-size=2", "scripts/server.mjs"]
