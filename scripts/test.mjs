@@ -6,12 +6,13 @@
 // `npm test -- --project unit`, `npm test -- tests/integration/drives`, `npm test -- --project e2e`,
 // `npm test -- tests/e2e/recorder.spec.ts --repeat-each 20` (files under tests/e2e and --repeat-each go to Playwright,
 // the rest to Vitest; `npm run check` runs the static checks alone).
+import { spawn } from "node:child_process"
 import fs from "node:fs"
 import os from "node:os"
 import path from "node:path"
 import { runChecks } from "./check.mjs"
 import { aptInstall } from "./lib/postgres.mjs"
-import { ensurePackages, log, npx, run } from "./lib/shell.mjs"
+import { ensurePackages, log, npx, root } from "./lib/shell.mjs"
 import { startStack } from "./lib/stack.mjs"
 
 const args = process.argv.slice(2)
@@ -83,6 +84,28 @@ const port = Number(process.env.TEST_PORT ?? 3100)
 const pgPort = Number(process.env.TEST_PGPORT ?? 54339)
 let code = 1
 let stack = null
+let runner = null
+// Ctrl-C or a kill stops the runner and then the stack (database, fakes, app), as `npm start` does.
+let stopping = false
+for (const signal of ["SIGINT", "SIGTERM"]) {
+  process.on(signal, async () => {
+    if (stopping) return
+    stopping = true
+    runner?.kill(signal)
+    await stack?.stop()
+    process.exit(130)
+  })
+}
+
+/** Runs a test runner as a child this script can stop; its exit code. */
+function runSuite(bin, args, env) {
+  return new Promise((resolve) => {
+    runner = spawn(npx(bin), args, { cwd: root, env, stdio: "inherit" })
+    runner.on("exit", (status) => resolve(status ?? 1))
+    runner.on("error", () => resolve(1))
+  })
+}
+
 try {
   stack = await startStack({
     name: "test",
@@ -110,9 +133,9 @@ try {
   const summaryFile = path.join(fs.mkdtempSync(path.join(os.tmpdir(), "straightaway-test-")), "summary.jsonl")
   env.TEST_SUMMARY_FILE = summaryFile
   code = 0
-  if (runVitest) code = run(npx("vitest"), ["run", ...vitestArgs], { env, check: false }).status ?? 1
+  if (runVitest) code = await runSuite("vitest", ["run", ...vitestArgs], env)
   if (runBrowser) {
-    const browser = run(npx("playwright"), ["test", ...playwrightArgs], { env, check: false }).status ?? 1
+    const browser = await runSuite("playwright", ["test", ...playwrightArgs], env)
     if (code === 0) code = browser
   }
   if (runVitest && runBrowser) {
