@@ -69,8 +69,7 @@ const vitestArgs = args.filter(
     !(a === "e2e" && args[i - 1] === "--project") &&
     !(a === "--project" && args[i + 1] === "e2e") &&
     a !== "--project=e2e" &&
-    i !== repeatAt &&
-    i !== repeatAt + 1,
+    !(repeatAt >= 0 && (i === repeatAt || i === repeatAt + 1)),
 )
 const playwrightArgs = [...browserFiles, ...(repeatAt >= 0 ? ["--repeat-each", args[repeatAt + 1]] : [])]
 const wantsReplica =
