@@ -1,7 +1,7 @@
 import "server-only"
 import { z } from "zod"
 import { parseParams, readRequestText, route, uuidParam } from "@/app/_server/route"
-import { addSampleBatch, lookAheadForBatch } from "@/app/_server/services/recording"
+import { addSampleBatch, lookUpNamedBatch } from "@/app/_server/services/recording"
 import { sessionForToken, tokenFromCookieHeader } from "@/app/_server/session-token"
 import { AppError } from "@/lib/errors"
 import { BATCH_ID_HEADER } from "@/lib/recorder/batching"
@@ -17,11 +17,14 @@ const params = z.object({ driveId: uuidParam })
 export const postSampleBatch = route<{ driveId: string }>(async (req, ctx) => {
   const token = tokenFromCookieHeader(req.headers.get("cookie"))
   const batchId = req.headers.get(BATCH_ID_HEADER)
-  const lookedAhead = lookAheadForBatch(token, ctx.params, batchId)
-  const { current, cookie } = await sessionForToken(token)
+  // A named batch with a settled session: the session, the drive and the batch's claim in one statement.
+  const named = await lookUpNamedBatch(token, ctx.params, batchId)
+  const { current, cookie } = named?.user
+    ? { current: { user: named.user }, cookie: null }
+    : await sessionForToken(token)
   const setCookie = cookie ? { "set-cookie": cookie.serialize() } : undefined
   if (!current.user) throw new AppError("not_signed_in", "Sign in first.", undefined, setCookie)
   const { driveId } = await parseParams(ctx.params, params)
-  const result = await addSampleBatch(current.user, driveId, batchId, () => readRequestText(req), lookedAhead)
+  const result = await addSampleBatch(current.user, driveId, batchId, () => readRequestText(req), named?.found)
   return Response.json(result, { headers: setCookie })
 })

@@ -1,4 +1,6 @@
 import { sql } from "kysely"
+import type pg from "pg"
+import type { Role } from "@/lib/auth/roles"
 import type { Sample } from "@/lib/drive-file/schema"
 import { decodeSample, encodeSampleColumns } from "@/lib/drive-file/stored"
 import type { Db } from "../client"
@@ -123,20 +125,16 @@ async function storedClaim(db: Db, driveId: string, shopId: string, batchId: str
 
 export type DriveAndBatch = { drive: Drive; claim: BatchResult | null }
 
-/** Where a drive is looked up: by its internal id and shop, or by its public id in the shop of a session's user. */
-export type DriveLocator = { driveId: string; shopId: string } | { sessionId: string; publicId: string }
-
 /**
  * The drive and, when `batchId` was stored before, that batch's claim: one statement, so a replayed batch is
- * answered before its body is validated (app/_server/services/recording.ts). Located by session, it can run while
- * the session itself is being checked; only a caller that then holds the session valid may use what it found.
+ * answered before its body is validated (app/_server/services/recording.ts).
  */
 export async function findDriveAndBatch(
   db: Db,
-  at: DriveLocator,
+  at: { driveId: string; shopId: string },
   batchId: string | null,
 ): Promise<DriveAndBatch | undefined> {
-  let query = db
+  const row = await db
     .selectFrom("drive")
     .leftJoin("sample_batch as b", (j) =>
       j
@@ -146,22 +144,92 @@ export async function findDriveAndBatch(
     )
     .selectAll("drive")
     .select(["b.accepted as batch_accepted", "b.duplicates as batch_duplicates"])
-  query =
-    "sessionId" in at
-      ? query
-          .innerJoin("app_user as u", "u.shop_id", "drive.shop_id")
-          .innerJoin("user_session as s", "s.user_id", "u.id")
-          .where("s.id", "=", at.sessionId)
-          .where("drive.public_id", "=", at.publicId)
-      : query.where("drive.id", "=", at.driveId).where("drive.shop_id", "=", at.shopId)
-  const row = await query.executeTakeFirst()
-  if (!row) return undefined
-  const { batch_accepted, batch_duplicates, ...drive } = row
+    .where("drive.id", "=", at.driveId)
+    .where("drive.shop_id", "=", at.shopId)
+    .executeTakeFirst()
+  return row && driveAndClaim(row, batchId)
+}
+
+function driveAndClaim(
+  {
+    batch_accepted,
+    batch_duplicates,
+    ...drive
+  }: Drive & { batch_accepted: number | null; batch_duplicates: number | null },
+  batchId: string | null,
+): DriveAndBatch {
   const claim: BatchResult | null =
     batchId !== null && batch_accepted !== null && batch_duplicates !== null
       ? { accepted: batch_accepted, duplicates: batch_duplicates, replayed: true, storedTs: [] }
       : null
   return { drive, claim }
+}
+
+/** A session with its user, read with the drive it names (see findSessionDriveAndBatch). */
+export type SessionDriveAndBatch = {
+  session: { id: string; userId: string; expiresAt: Date }
+  user: { email: string; name: string; role: Role; shopId: string; disabled: boolean }
+  /** Undefined when the user's shop has no drive of that public id. */
+  found: DriveAndBatch | undefined
+}
+
+/**
+ * A session, its user, and in that user's shop the drive of a public id with a batch's claim: one prepared
+ * statement, the whole database work of a replayed sample batch. The session is returned as stored: the caller
+ * decides whether it is valid (app/_server/session-token.ts settledSession) before using anything else.
+ */
+export async function findSessionDriveAndBatch(
+  pool: pg.Pool,
+  sessionId: string,
+  publicId: string,
+  batchId: string,
+): Promise<SessionDriveAndBatch | undefined> {
+  const { rows } = await pool.query<SessionDriveRow>({
+    name: "session-drive-and-batch",
+    text: SESSION_DRIVE_AND_BATCH,
+    values: [sessionId, publicId, batchId],
+  })
+  const row = rows[0]
+  if (!row) return undefined
+  const {
+    session_user_id,
+    session_expires_at,
+    user_email,
+    user_name,
+    user_role,
+    user_shop_id,
+    user_disabled,
+    ...rest
+  } = row
+  return {
+    session: { id: sessionId, userId: session_user_id, expiresAt: session_expires_at },
+    user: { email: user_email, name: user_name, role: user_role, shopId: user_shop_id, disabled: user_disabled },
+    // No drive of that id in the shop: the left join gave nulls for all its columns.
+    found: rest.id === null ? undefined : driveAndClaim(rest, batchId),
+  }
+}
+
+// `drive.*` last: the session's and user's columns carry prefixes no drive column has.
+const SESSION_DRIVE_AND_BATCH = `
+  select s.user_id as session_user_id, s.expires_at as session_expires_at,
+    u.email as user_email, u.name as user_name, u.role as user_role, u.shop_id as user_shop_id,
+    u.disabled as user_disabled, b.accepted as batch_accepted, b.duplicates as batch_duplicates, d.*
+  from user_session s
+  join app_user u on u.id = s.user_id
+  left join drive d on d.shop_id = u.shop_id and d.public_id = $2::uuid
+  left join sample_batch b on b.drive_id = d.id and b.shop_id = d.shop_id and b.batch_id = $3
+  where s.id = $1`
+
+type SessionDriveRow = Drive & {
+  session_user_id: string
+  session_expires_at: Date
+  user_email: string
+  user_name: string
+  user_role: Role
+  user_shop_id: string
+  user_disabled: boolean
+  batch_accepted: number | null
+  batch_duplicates: number | null
 }
 
 /**

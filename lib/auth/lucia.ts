@@ -12,7 +12,7 @@ export type SessionUser = { id: string; email: string; name: string; role: Role;
  * each on its own pooled connection). Every signed-in request starts here, the recorder's sample POST included.
  * Only the user columns getUserAttributes maps are read (never the password hash).
  */
-export class SessionAdapter extends NodePostgresAdapter {
+class SessionAdapter extends NodePostgresAdapter {
   constructor(private readonly pool: pg.Pool) {
     super(pool, { user: "app_user", session: "user_session" })
   }
@@ -51,9 +51,21 @@ type SessionRow = {
   disabled: boolean
 }
 
+/** How long a session lasts without use; Lucia slides it once less than half of this is left. */
+const SESSION_HOURS = 12
+
+/**
+ * Whether Lucia would take a session stored with this expiry as it is: still valid and not yet due to slide (Lucia
+ * v3's validateSession deletes an expired session and extends one past half its life, each a write). A caller that
+ * read the session with other data may then skip Lucia's own lookup; any other session goes through Lucia.
+ */
+export function sessionIsSettled(expiresAt: Date, now = Date.now()): boolean {
+  return expiresAt.getTime() - (SESSION_HOURS * 3_600_000) / 2 > now
+}
+
 export function createLucia(pool: pg.Pool, { secure }: { secure: boolean }) {
   return new Lucia(new SessionAdapter(pool), {
-    sessionExpiresIn: new TimeSpan(12, "h"),
+    sessionExpiresIn: new TimeSpan(SESSION_HOURS, "h"),
     // expires: the cookie lasts as long as the session (12 h, renewed when the session slides), not 400 days.
     sessionCookie: { name: "straightaway_session", expires: true, attributes: { secure, sameSite: "lax", path: "/" } },
     getUserAttributes: (row) => ({

@@ -2,8 +2,8 @@
 // (DATABASE_URL); `npm run bench` starts both. One throwaway shop, deleted at the end.
 //   replayRefusalP50Ms     a replayed 2,000-sample batch answered from its claim, HTTP round trip, p50
 //   ingestCeilingRatio     closed-loop 50-sample POSTs through the API, against the same SQL sent straight
-//                          through pg (the session read as the app reads it, the drive with the claim, the ingest
-//                          statement)
+//                          through pg (the session, its user and the drive with the claim in one statement, then
+//                          the ingest statement)
 //   ingestAtCadenceP95Ms   100 simulated recorders sending every 5 s or 50 samples for 2 minutes, p95, 0 errors
 import { randomUUID } from "node:crypto"
 import http from "node:http"
@@ -11,8 +11,8 @@ import { internalDriveId } from "@/lib/drive-id"
 import { Kysely, PostgresDialect } from "kysely"
 import pg from "pg"
 import type { Database } from "@/db/types"
-import { findDriveAndBatch, ingestSampleBatch } from "@/db/queries/samples"
-import { SessionAdapter, sessionIdFromToken } from "@/lib/auth/lucia"
+import { findSessionDriveAndBatch, ingestSampleBatch } from "@/db/queries/samples"
+import { sessionIdFromToken } from "@/lib/auth/lucia"
 import type { Sample } from "@/lib/drive-file"
 import { BATCH_ID_HEADER, SEND_AT_SAMPLES, SEND_EVERY_MS, SEND_MAX_SAMPLES } from "@/lib/recorder/batching"
 import { hourAt10Hz } from "./scoring"
@@ -167,18 +167,14 @@ export const ingestCeilingRatio = benchFigure("ingestCeilingRatio", atLeast(0.6)
   // One pool for both, of the app's size, as the app has (db/client.ts getPool and getDb).
   const pool = new pg.Pool({ connectionString: ctx.env.DATABASE_URL, max: Number(ctx.env.DATABASE_POOL_MAX ?? 10) })
   const db = new Kysely<Database>({ dialect: new PostgresDialect({ pool }) })
-  // The app's session adapter, looked up by what the app looks up: the SHA-256 of the cookie's token
-  // (lib/auth/lucia.ts). The raw token would find no session and skip the user's row.
-  const sessions = new SessionAdapter(pool)
+  // Looked up by what the app looks up: the SHA-256 of the cookie's token (lib/auth/lucia.ts). The raw token would
+  // find no session and skip the user's row.
   const sessionId = sessionIdFromToken(r.sessionToken)
   const sqlRate = await closedLoop(CEILING_CLIENTS, CEILING_MS, async (c, k) => {
     const batchId = `sql-${k}`
-    // As the route runs them: the session, and the drive with the batch's claim found by that session, at once.
-    const [[session, user]] = await Promise.all([
-      sessions.getSessionAndUser(sessionId),
-      findDriveAndBatch(db, { sessionId, publicId: sqlDrives[c]!.publicId }, batchId),
-    ])
-    if (!session || !user) throw new Error("the straight ingest found no session")
+    // As the route runs them: the session with its user, and the drive with the batch's claim, in one statement.
+    const found = await findSessionDriveAndBatch(pool, sessionId, sqlDrives[c]!.publicId, batchId)
+    if (!found?.found || found.found.claim) throw new Error("the straight ingest found no session, drive or new batch")
     const res = await ingestSampleBatch(
       db,
       sqlDrives[c]!.id,

@@ -12,17 +12,18 @@ import {
   rescoreFinishedDrive,
   shopDriveId,
 } from "@/app/_server/services/drives"
-import { getDb } from "@/db/client"
+import { getDb, getPool } from "@/db/client"
 import { insertMarksNotifying } from "@/db/queries/drive-events"
 import {
   findDriveAndBatch,
+  findSessionDriveAndBatch,
   ingestSampleBatch,
   insertSampleBatch,
   type BatchResult,
   type DriveAndBatch,
 } from "@/db/queries/samples"
 import { marksOutsideDrive } from "@/lib/access/mark-window"
-import { sessionIdFromToken, type SessionUser } from "@/lib/auth/lucia"
+import { sessionIdFromToken, sessionIsSettled, type SessionUser } from "@/lib/auth/lucia"
 import type { ApiMark } from "@/lib/drive-file/schema"
 import { AppError, validationFailed } from "@/lib/errors"
 import { BATCH_ID_HEADER } from "@/lib/recorder/batching"
@@ -32,30 +33,30 @@ import { unstorableTextProblem } from "@/lib/validation/storable"
 
 // POST /api/drives/:id/samples. The recorder sends a batch every 5 s or 50 samples (lib/recorder/batching.ts), so
 // this is the hot path.
-// Statements for a new batch: the session with its user (one, lib/auth/lucia.ts), the drive with the batch's claim (one),
-// then claim + insert + record + the live channel's notice in one statement (db/queries/samples.ts
-// ingestSampleBatch), which holds the drive FOR SHARE so that Finish (FOR UPDATE) waits for it or it for
-// Finish. A replayed batch is answered from its claim before its body is validated. A batch that arrives
+// Statements for a new batch named in the x-batch-id header, as the recorder sends it: the session with its user and
+// the drive with the batch's claim (one, lookUpNamedBatch), then claim + insert + record + the live channel's notice
+// in one statement (db/queries/samples.ts ingestSampleBatch), which holds the drive FOR SHARE so that Finish (FOR UPDATE) waits for it or it for
+// Finish. A replayed batch is answered from its claim, by the first statement, before its body is read. A batch that arrives
 // after Finish goes through one transaction that stores it and scores the drive again (a new revision),
 // until a lead has reviewed the drive (see lib/access/drive.ts recordingIsOpen). The whole body is
 // validated before anything is written: one bad sample is a 400 naming it (`samples.3.lat`) and the batch
 // is stored not at all.
 //
 // `headerBatchId`: the x-batch-id header; `readText`: reads the body (only when it is needed); `lookedAhead`: the
-// drive and claim lookAheadForBatch started while the session was checked.
+// drive and claim lookUpNamedBatch found with the session.
 export async function addSampleBatch(
   user: SessionUser,
   publicDriveId: string,
   headerBatchId: string | null,
   readText: () => Promise<string>,
-  lookedAhead?: Promise<DriveAndBatch | undefined>,
+  lookedAhead?: DriveAndBatch,
 ): Promise<Omit<BatchResult, "storedTs">> {
   const db = getDb()
   // The recorder names the batch in a header: a batch already stored is answered before its body is read.
   const named = batchIdFromHeader(headerBatchId)
   const text = named === null ? await readText() : null
   const at = { driveId: shopDriveId(user, publicDriveId), shopId: user.shopId }
-  const ahead = named !== null ? await lookedAhead : undefined
+  const ahead = named !== null ? lookedAhead : undefined
   const found = ahead?.drive.id === at.driveId ? ahead : await findDriveAndBatch(db, at, named ?? peekBatchId(text!))
   const drive = assertDriveAccess(found?.drive, user, "record")
   assertRecordingOpen(drive)
@@ -84,25 +85,24 @@ export async function addSampleBatch(
 }
 
 /**
- * The drive and claim of a batch named in the x-batch-id header, looked up by the session's token while the session
- * is being checked (two queries at once rather than one after the other). addSampleBatch uses it only for the user
- * that check gives; anything that goes wrong here is left to addSampleBatch's own lookup.
+ * For a batch named in the x-batch-id header: the session, its user, and the drive with the batch's claim, in one
+ * statement (db/queries/samples.ts findSessionDriveAndBatch). `user` is set only for a session Lucia would take as
+ * it is (lib/auth/lucia.ts sessionIsSettled) whose user is not disabled; otherwise the caller checks the session
+ * through Lucia, and addSampleBatch uses `found` only when it is the drive of the user that check gives.
  */
-export function lookAheadForBatch(
+export async function lookUpNamedBatch(
   sessionToken: string | null,
   params: Promise<{ driveId: string }>,
   headerBatchId: string | null,
-): Promise<DriveAndBatch | undefined> | undefined {
+): Promise<{ user: SessionUser | null; found: DriveAndBatch | undefined } | undefined> {
   const named = batchIdFromHeader(headerBatchId)
   if (!sessionToken || named === null) return undefined
-  const sessionId = sessionIdFromToken(sessionToken)
-  return params
-    .then(({ driveId }) =>
-      uuidSchema.safeParse(driveId).success
-        ? findDriveAndBatch(getDb(), { sessionId, publicId: driveId }, named)
-        : undefined,
-    )
-    .catch(() => undefined)
+  const { driveId } = await params
+  if (!uuidSchema.safeParse(driveId).success) return undefined
+  const row = await findSessionDriveAndBatch(getPool(), sessionIdFromToken(sessionToken), driveId, named)
+  if (!row) return undefined
+  const settled = sessionIsSettled(row.session.expiresAt) && !row.user.disabled
+  return { user: settled ? { id: row.session.userId, ...row.user } : null, found: row.found }
 }
 
 function withoutStoredTs({ storedTs: _storedTs, ...body }: BatchResult) {

@@ -1,6 +1,7 @@
 import { randomUUID } from "node:crypto"
 import http from "node:http"
 import { describe, expect, it } from "vitest"
+import { sessionIdFromToken } from "@/lib/auth/lucia"
 import { storedSample } from "@/lib/drive-file/stored"
 import { createTestShop, testDb } from "../../helpers/db"
 import { testEnv } from "../../helpers/env"
@@ -246,6 +247,58 @@ describe("POST /api/drives/:id/samples named in x-batch-id (the app's server ans
       expect(res.headers.get("set-cookie")).toMatch(new RegExp(`^${cookie.split("=")[0]}=;`))
     }
     expect(await storedSamples(drive.id)).toHaveLength(0)
+  })
+
+  it("checks the session as Lucia does: slides one past half its life, and refuses a disabled user", async () => {
+    const person = await addPerson(team.shop.shopId, "technician", team.shop.tech)
+    const client = await signedIn(person)
+    const drive = await startDrive(client)
+    const token = client.cookie!.slice(client.cookie!.indexOf("=") + 1)
+    const session = () => testDb().selectFrom("user_session").selectAll().where("id", "=", sessionIdFromToken(token))
+    const expireIn = (ms: number) =>
+      testDb()
+        .updateTable("user_session")
+        .set({ expires_at: new Date(Date.now() + ms) })
+        .where("id", "=", sessionIdFromToken(token))
+        .execute()
+    // Three hours left of twelve: the batch is stored and the session slides, with a fresh cookie.
+    await expireIn(3 * 3_600_000)
+    const slid = await postNamedBatch(client, drive.id, "slid", sampleRun(3))
+    expect(slid.status).toBe(200)
+    expect(slid.headers.get("set-cookie")).toContain(token)
+    const renewed = (await session().executeTakeFirstOrThrow()).expires_at.getTime()
+    expect(renewed).toBeGreaterThan(Date.now() + 11 * 3_600_000)
+    // Settled (more than half its life left): no cookie is sent again.
+    const settled = await postNamedBatch(client, drive.id, "settled", sampleRun(3, 8, Date.UTC(2026, 0, 1, 11)))
+    expect(settled.status).toBe(200)
+    expect(settled.headers.get("set-cookie")).toBeNull()
+    // Disabled: refused, and the user's sessions end.
+    await testDb().updateTable("app_user").set({ disabled: true }).where("id", "=", person.id).execute()
+    const disabled = await postNamedBatch(client, drive.id, "disabled", sampleRun(3, 9, Date.UTC(2026, 0, 1, 12)))
+    expect(disabled.status).toBe(401)
+    expect(await session().executeTakeFirst()).toBeUndefined()
+    expect(await storedSamples(drive.id)).toHaveLength(6)
+  })
+
+  it("refuses a batch on an expired session (401), clears the cookie and deletes the session", async () => {
+    const client = await signedIn(await addPerson(team.shop.shopId, "technician", team.shop.tech))
+    const drive = await startDrive(client)
+    const sessionId = sessionIdFromToken(client.cookie!.slice(client.cookie!.indexOf("=") + 1))
+    const samples = sampleRun(3)
+    expect((await postNamedBatch(client, drive.id, "before", samples)).status).toBe(200)
+    await testDb()
+      .updateTable("user_session")
+      .set({ expires_at: new Date(Date.now() - 1000) })
+      .where("id", "=", sessionId)
+      .execute()
+    // Even the replay of a stored batch: its claim is not answered to an expired session.
+    const replay = await postNamedBatch(client, drive.id, "before", samples)
+    expect(replay.status).toBe(401)
+    expect(replay.body.error.code).toBe("not_signed_in")
+    expect(replay.headers.get("set-cookie")).toMatch(/^straightaway_session=;/)
+    expect(
+      await testDb().selectFrom("user_session").select("id").where("id", "=", sessionId).executeTakeFirst(),
+    ).toBeUndefined()
   })
 
   it("refuses a write from another site (403) and a path that is no drive id (404), storing nothing", async () => {
