@@ -1,7 +1,7 @@
 import type { Mark2 as Mark, Sample } from "@/lib/drive-file/schema"
 import type { ResolvedProfile } from "@/lib/drive-file/profile"
 import { mphToMps } from "@/lib/units"
-import { reducedLatitudeInto, vincentyFromReduced } from "./geodesy"
+import { intervalDistanceInto } from "./geodesy"
 import { applyLeadMark, type LeadState } from "./lead-state"
 import type { DriveSums } from "./types"
 
@@ -41,8 +41,6 @@ export class ScoringEngine {
   private lat = new Float64Array(0)
   private lon = new Float64Array(0)
   private speed = new Float64Array(0) // NaN = the device gave none
-  private sinU = new Float64Array(0)
-  private cosU = new Float64Array(0)
   private dist = new Float64Array(0) // interval i: sample i -> i+1
   private cum = new Float64Array(0) // cum[i] = distance from sample 0 to sample i
 
@@ -183,12 +181,11 @@ export class ScoringEngine {
   }
 
   private computeGeometry(i: number): void {
-    reducedLatitudeInto(this.lat[i]!, this.sinU, this.cosU, i)
     if (i === 0) {
       this.cum[0] = 0
       return
     }
-    vincentyFromReduced(this.sinU, this.cosU, this.lon, i - 1, i, this.dist, i - 1)
+    intervalDistanceInto(this.lat, this.lon, i - 1, i, this.dist, i - 1)
     this.cum[i] = this.cum[i - 1]! + this.dist[i - 1]!
   }
 
@@ -202,8 +199,6 @@ export class ScoringEngine {
     this.lat = new Float64Array(total)
     this.lon = new Float64Array(total)
     this.speed = new Float64Array(total)
-    this.sinU = new Float64Array(total)
-    this.cosU = new Float64Array(total)
     this.dist = new Float64Array(total)
     this.cum = new Float64Array(total)
     this.n = 0
@@ -245,8 +240,6 @@ export class ScoringEngine {
     this.lat = grow(this.lat)
     this.lon = grow(this.lon)
     this.speed = grow(this.speed)
-    this.sinU = grow(this.sinU)
-    this.cosU = grow(this.cosU)
     this.dist = grow(this.dist)
     this.cum = grow(this.cum)
   }

@@ -2,6 +2,7 @@ import { getPreciseDistance } from "geolib"
 import fc from "fast-check"
 import { describe, expect, it } from "vitest"
 import { geodesicDistanceM, scoreDrive } from "@/lib/scoring"
+import { intervalDistanceInto } from "@/lib/scoring/geodesy"
 import { T0, drive } from "../helpers/drive"
 
 const dms = (d: number, m: number, s: number) => Math.sign(d) * (Math.abs(d) + m / 60 + s / 3600)
@@ -86,5 +87,59 @@ describe("geodesic distance (Vincenty, WGS-84)", () => {
     const d = geodesicDistanceM(0, 0, 0.5, 179.7)
     expect(d).toBeGreaterThan(19_900_000)
     expect(d).toBeLessThan(20_040_000)
+  })
+})
+
+describe("a step between consecutive fixes (the scorer's intervalDistanceInto)", () => {
+  const step = (a: { lat: number; lon: number }, b: { lat: number; lon: number }) => {
+    const out = new Float64Array(1)
+    intervalDistanceInto(Float64Array.of(a.lat, b.lat), Float64Array.of(a.lon, b.lon), 0, 1, out, 0)
+    return out[0]!
+  }
+
+  it("stays within 3e-6 of geolib's Vincenty (getPreciseDistance) for steps under 100 m, at any latitude and across 180°", () => {
+    fc.assert(
+      fc.property(
+        fc.integer({ min: -899_000_000, max: 899_000_000 }).map((x) => x / 1e7),
+        fc.integer({ min: -1_800_000_000, max: 1_800_000_000 }).map((x) => x / 1e7),
+        fc.double({ min: 0, max: 2 * Math.PI, noNaN: true }),
+        fc.double({ min: 0.5, max: 99, noNaN: true }),
+        (lat, lon, bearing, metres) => {
+          // About `metres` apart: ~111 km a degree of latitude, less of longitude by cos(lat).
+          const dLat = (metres * Math.cos(bearing)) / 111_000
+          const dLon = (metres * Math.sin(bearing)) / (111_000 * Math.cos((lat * Math.PI) / 180))
+          let lon2 = lon + dLon
+          if (lon2 > 180) lon2 -= 360
+          if (lon2 < -180) lon2 += 360
+          const a = { lat, lon }
+          const b = { lat: lat + dLat, lon: lon2 }
+          const reference = geolibM(a, b)
+          if (reference >= 100) return // measured by Vincenty itself, below
+          expect(Math.abs(step(a, b) - reference)).toBeLessThanOrEqual(3e-6 * reference + 1e-6)
+        },
+      ),
+      { numRuns: 2000 },
+    )
+  })
+
+  it("measures 0.001° of latitude at 45° and of longitude at 40° as Karney's oracle does, to 0.1 mm", () => {
+    // The same short oracles as above (111.1318 m and 85.3939 m), now through the scorer's short-step path.
+    expect(step({ lat: 45, lon: 0 }, { lat: 45.001, lon: 0 })).toBeCloseTo(111.1318, 3)
+    expect(step({ lat: 40, lon: -75 }, { lat: 40, lon: -74.999 })).toBeCloseTo(85.3939, 3)
+  })
+
+  it("measures a step of 100 m or more (a gap in the data) by Vincenty", () => {
+    for (const [a, b] of [
+      [FLINDERS_PEAK, BUNINYONG],
+      [
+        { lat: 10, lon: 179.9995 },
+        { lat: 10, lon: -179.9995 },
+      ],
+      [
+        { lat: 0, lon: 0 },
+        { lat: 0.001, lon: 0 },
+      ],
+    ] as const)
+      expect(step(a, b)).toBe(geodesicDistanceM(a.lat, a.lon, b.lat, b.lon))
   })
 })
