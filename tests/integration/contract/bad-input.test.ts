@@ -38,9 +38,10 @@ const RAW_BODIES: Array<[string, string]> = [
 ]
 
 type BodyRoute = {
-  name: string
-  method: "POST" | "PATCH" | "PUT"
-  path: () => string
+  /** "METHOD /path", `:name` standing for an id; the method is read from it, and the path unless `path` is given. */
+  name: `${"POST" | "PATCH" | "PUT"} /${string}`
+  /** The path to call when it is not the one in the name: its ids filled in, or a query added. */
+  path?: () => string
   client: () => ApiClient
   /** Bodies that must be refused with a 4xx. */
   bad: () => Array<[string, unknown]>
@@ -111,9 +112,10 @@ function toRaw(body: unknown): string {
 }
 
 async function send(route: BodyRoute, raw: string): Promise<ApiResponse> {
-  return route
-    .client()
-    .request(route.method, route.path(), undefined, { raw, headers: { "content-type": "application/json" } })
+  const [method, namedPath] = route.name.split(" ") as [string, string]
+  if (!route.path && namedPath.includes(":")) throw new Error(`${route.name}: a path with ids needs path()`)
+  const path = route.path?.() ?? namedPath
+  return route.client().request(method, path, undefined, { raw, headers: { "content-type": "application/json" } })
 }
 
 function sample(t: number) {
@@ -123,8 +125,6 @@ function sample(t: number) {
 const ROUTES: BodyRoute[] = [
   {
     name: "POST /api/session",
-    method: "POST",
-    path: () => "/api/session",
     client: () => w.c.anon,
     bad: () => {
       const base = { email: w.shop.tech.email, password: "whatever-wrong-1" }
@@ -137,8 +137,6 @@ const ROUTES: BodyRoute[] = [
   },
   {
     name: "POST /api/drives",
-    method: "POST",
-    path: () => "/api/drives",
     client: () => w.c.technician,
     emptyObjectOk: true,
     emptyBodyOk: true,
@@ -166,7 +164,6 @@ const ROUTES: BodyRoute[] = [
   },
   {
     name: "POST /api/drives/:id/samples",
-    method: "POST",
     path: () => `/api/drives/${w.recording.id}/samples`,
     client: () => w.c.technician,
     bad: () => {
@@ -192,7 +189,6 @@ const ROUTES: BodyRoute[] = [
   },
   {
     name: "POST /api/drives/:id/marks",
-    method: "POST",
     path: () => `/api/drives/${w.recording.id}/marks`,
     client: () => w.c.co_driver,
     bad: () => {
@@ -231,7 +227,6 @@ const ROUTES: BodyRoute[] = [
   },
   {
     name: "POST /api/drives/import",
-    method: "POST",
     path: () => `/api/drives/import?jobId=${w.job.id}&taskId=${w.job.taskId}`,
     client: () => w.c.technician,
     bad: () => {
@@ -258,8 +253,6 @@ const ROUTES: BodyRoute[] = [
   },
   {
     name: "POST /api/score",
-    method: "POST",
-    path: () => "/api/score",
     client: () => w.c.co_driver,
     bad: () => {
       const base = driveFile(4)
@@ -272,7 +265,6 @@ const ROUTES: BodyRoute[] = [
   },
   {
     name: "POST /api/drives/:id/review",
-    method: "POST",
     path: () => `/api/drives/${w.finished.id}/review`,
     client: () => w.c.shop_lead,
     bad: () => {
@@ -287,7 +279,6 @@ const ROUTES: BodyRoute[] = [
   },
   {
     name: "POST /api/drives/:id/record/email",
-    method: "POST",
     path: () => `/api/drives/${w.finished.id}/record/email`,
     client: () => w.c.shop_lead,
     bad: () => {
@@ -302,7 +293,6 @@ const ROUTES: BodyRoute[] = [
   },
   {
     name: "POST /api/drives/:id/share",
-    method: "POST",
     path: () => `/api/drives/${w.finished.id}/share`,
     client: () => w.c.shop_lead,
     emptyObjectOk: true,
@@ -310,8 +300,6 @@ const ROUTES: BodyRoute[] = [
   },
   {
     name: "POST /api/jobs",
-    method: "POST",
-    path: () => "/api/jobs",
     client: () => w.c.shop_lead,
     bad: () => {
       const base = {
@@ -345,7 +333,6 @@ const ROUTES: BodyRoute[] = [
   },
   {
     name: "PATCH /api/jobs/:id",
-    method: "PATCH",
     path: () => `/api/jobs/${w.job.id}`,
     client: () => w.c.shop_lead,
     bad: () => {
@@ -367,7 +354,6 @@ const ROUTES: BodyRoute[] = [
   },
   {
     name: "PUT /api/jobs/:id/tasks/:taskId/checklist",
-    method: "PUT",
     path: () => `/api/jobs/${w.job.id}/tasks/${w.job.taskId}/checklist`,
     client: () => w.c.technician,
     bad: () => {
@@ -388,8 +374,6 @@ const ROUTES: BodyRoute[] = [
   },
   {
     name: "POST /api/profiles",
-    method: "POST",
-    path: () => "/api/profiles",
     client: () => w.c.shop_lead,
     bad: () => {
       const base = {
@@ -410,7 +394,6 @@ const ROUTES: BodyRoute[] = [
   },
   {
     name: "PATCH /api/profiles/:id",
-    method: "PATCH",
     path: () => `/api/profiles/${w.profileId}`,
     client: () => w.c.shop_lead,
     bad: () => {
@@ -425,8 +408,6 @@ const ROUTES: BodyRoute[] = [
   },
   {
     name: "POST /api/users",
-    method: "POST",
-    path: () => "/api/users",
     client: () => w.c.admin,
     bad: () => {
       const base = {
@@ -446,7 +427,6 @@ const ROUTES: BodyRoute[] = [
   },
   {
     name: "PATCH /api/users/:id",
-    method: "PATCH",
     path: () => `/api/users/${w.shop.tech.id}`,
     client: () => w.c.admin,
     bad: () => {
@@ -460,8 +440,6 @@ const ROUTES: BodyRoute[] = [
   },
   {
     name: "PATCH /api/shop/settings",
-    method: "PATCH",
-    path: () => "/api/shop/settings",
     client: () => w.c.admin,
     bad: () => [
       ...badEnum({ units: "metric" }, "units"),
@@ -470,8 +448,6 @@ const ROUTES: BodyRoute[] = [
   },
   {
     name: "PATCH /api/notifications",
-    method: "PATCH",
-    path: () => "/api/notifications",
     client: () => w.c.technician,
     bad: () => [
       ["all false", { all: false }],
@@ -483,8 +459,6 @@ const ROUTES: BodyRoute[] = [
   },
   {
     name: "POST /api/uploads",
-    method: "POST",
-    path: () => "/api/uploads",
     client: () => w.c.technician,
     bad: () => {
       const base = { jobId: w.job.id, filename: "photo.jpg", contentType: "image/jpeg", size: 1000 }

@@ -103,12 +103,14 @@ describe("road-test verdict (lib/drive-file/FORMAT-2.md)", () => {
   })
 
   it("the latest counted result decides, in time order whatever the order in the file", () => {
-    const file = roadTest([
-      check(90, "acc-engages", "pass"),
-      check(50, "lane-keeping-engages", "pass"),
+    // the fail at 40 s is followed by a pass at 90 s
+    const inTimeOrder = [
       check(40, "acc-engages", "fail"),
-    ])
-    expect(scoreDrive(file).verdict).toBe("met")
+      check(50, "lane-keeping-engages", "pass"),
+      check(90, "acc-engages", "pass"),
+    ]
+    for (const marks of [inTimeOrder, [...inTimeOrder].reverse()])
+      expect(scoreDrive(roadTest(marks)).verdict).toBe("met")
   })
 
   it("a drive that is learn and road test gets the worse verdict of the two, with both sets of reasons", () => {
