@@ -23,7 +23,6 @@ const config = [
       ".bench-data/**",
       "public/sw.js",
       "public/workbox-*.js",
-      "app/_server/api-routes.generated.ts",
       "next-env.d.ts",
       "test-results/**",
       "coverage/**",

@@ -1,6 +1,6 @@
 // One place in front of every route (Next 16's proxy, formerly middleware):
 // - /api answers stay in the error shape: 405 with `Allow` for a method the route file does not export (from the
-//   generated table, app/_server/api-routes.generated.ts), a JSON 404 for /API/… spelt in another case, a 400
+//   generated table, app/_server/api-routes.generated.json), a JSON 404 for /API/… spelt in another case, a 400
 //   for a path whose %-escapes are not UTF-8 text;
 // - pages with such a path get the app's 404 page instead of a 500;
 // - a page asked for while the database is not answering gets a calm page with a 503 and Retry-After (one probe
@@ -8,9 +8,9 @@
 // - every page gets a content security policy with a fresh nonce (lib/http/security-headers.ts), and HSTS over HTTPS
 //   (so do API answers, but for the sample batches that skip the proxy: see the matcher at the end).
 import { NextResponse, type NextRequest } from "next/server"
-import { API_ROUTES } from "@/app/_server/api-routes.generated"
+import apiRoutes from "@/app/_server/api-routes.generated.json"
 import { probeDatabase } from "@/db/availability"
-import { allowedMethods, isWellFormedPath, matchApiRoute } from "@/lib/api-route-match"
+import { allowedMethods, isWellFormedPath, matchApiRoute, type ApiRoute } from "@/lib/api-route-match"
 import { methodNotAllowed } from "@/lib/http/method-not-allowed"
 import {
   contentSecurityPolicy,
@@ -19,6 +19,8 @@ import {
   STRICT_TRANSPORT_SECURITY,
 } from "@/lib/http/security-headers"
 import { unavailablePageHtml } from "@/lib/http/unavailable-page"
+
+const API_ROUTES: readonly ApiRoute[] = apiRoutes.routes
 
 function apiError(status: number, code: string, message: string, headers: Record<string, string> = {}) {
   return Response.json({ error: { code, message } }, { status, headers: { "cache-control": "no-store", ...headers } })

@@ -1,4 +1,4 @@
-// Which methods an API path answers, from the generated route table (app/_server/api-routes.generated.ts).
+// Which methods an API path answers, from the generated route table (app/_server/api-routes.generated.json).
 // Next's own order decides which file serves a path: static segments before [dynamic] before [...catchAll].
 
 export type ApiRoute = { pattern: string; methods: readonly string[] }

@@ -1,4 +1,4 @@
-// Writes app/_server/api-routes.generated.ts: the methods each API route file exports (see scripts/lib/api-routes.mjs).
+// Writes app/_server/api-routes.generated.json: the methods each API route file exports (see scripts/lib/api-routes.mjs).
 import fs from "node:fs"
 import path from "node:path"
 import { GENERATED_PATH, renderApiRoutes, scanApiRoutes } from "./lib/api-routes.mjs"

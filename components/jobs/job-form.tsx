@@ -99,27 +99,26 @@ export function JobForm({ jobId, initial }: { jobId?: string; initial?: JobFormV
   }
 
   const err = (path: string) => errorAt(errors, path)
-  const textInput = (name: keyof typeof TEXT_INPUTS) => {
-    const { id, label, hint, type, inputMode }: TextInput = TEXT_INPUTS[name]
-    return (
-      <Field label={label} htmlFor={id} error={err(name)} hint={hint}>
-        <Input id={id} type={type} inputMode={inputMode} autoComplete="off" {...form.register(name)} />
-      </Field>
-    )
-  }
+  /** A grid of the job's plain text inputs, in the order named. */
+  const textInputs = (className: string, names: (keyof typeof TEXT_INPUTS)[]) => (
+    <div className={className}>
+      {names.map((name) => {
+        const { id, label, hint, type, inputMode }: TextInput = TEXT_INPUTS[name]
+        return (
+          <Field key={name} label={label} htmlFor={id} error={err(name)} hint={hint}>
+            <Input id={id} type={type} inputMode={inputMode} autoComplete="off" {...form.register(name)} />
+          </Field>
+        )
+      })}
+    </div>
+  )
 
   return (
     <form onSubmit={form.handleSubmit(save)} className="space-y-4" noValidate>
       <Card className="space-y-3">
         <h2 className="text-lg font-bold">Repair order</h2>
-        <div className="grid gap-3 sm:grid-cols-[minmax(0,1fr)_minmax(0,2fr)]">
-          {textInput("roNumber")}
-          {textInput("customer.name")}
-        </div>
-        <div className="grid gap-3 sm:grid-cols-2">
-          {textInput("customer.email")}
-          {textInput("customer.phone")}
-        </div>
+        {textInputs("grid gap-3 sm:grid-cols-[minmax(0,1fr)_minmax(0,2fr)]", ["roNumber", "customer.name"])}
+        {textInputs("grid gap-3 sm:grid-cols-2", ["customer.email", "customer.phone"])}
       </Card>
 
       <Card className="space-y-3">
@@ -131,12 +130,12 @@ export function JobForm({ jobId, initial }: { jobId?: string; initial?: JobFormV
           onChooseYear={(y) => form.setValue("vehicle.year", String(y), { shouldDirty: true })}
           {...form.register("vehicle.vin")}
         />
-        <div className="grid grid-cols-2 gap-3 sm:grid-cols-4">
-          {textInput("vehicle.year")}
-          {textInput("vehicle.make")}
-          {textInput("vehicle.model")}
-          {textInput("vehicle.plate")}
-        </div>
+        {textInputs("grid grid-cols-2 gap-3 sm:grid-cols-4", [
+          "vehicle.year",
+          "vehicle.make",
+          "vehicle.model",
+          "vehicle.plate",
+        ])}
       </Card>
 
       <Card className="space-y-3">

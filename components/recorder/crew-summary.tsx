@@ -4,6 +4,11 @@ import { CLOCKS, LearnState, minutes, useDriveClock } from "./drive-clock"
 import { useRecorder } from "./use-recorder"
 
 const cx = (...parts: Array<string | false | null | undefined>) => parts.filter(Boolean).join(" ")
+/** The learn's words on the co-driver's summary: teal once the learn completed. */
+const LEARN_LOOK = {
+  done: { box: "text-teal-300", icon: "size-4" },
+  waiting: { box: "text-graphite-300", icon: "size-4" },
+}
 const clock = (ms: number) => new Date(ms).toLocaleTimeString([], { hour: "2-digit", minute: "2-digit" })
 
 function Stat({
@@ -84,16 +89,13 @@ export function CrewSummary() {
         />
       </div>
       <div className="flex flex-wrap items-center gap-x-3 gap-y-0.5 text-sm">
-        <span
-          className={cx(
-            "inline-flex items-center gap-1 font-semibold",
-            cleared !== null ? "text-teal-300" : "text-graphite-300",
-          )}
-          data-testid="crew-learn"
-          data-cleared={cleared !== null}
-        >
-          <LearnState cleared={cleared} doneIcon="size-4" waitIcon="size-4" />
-        </span>
+        <LearnState
+          as="span"
+          testId="crew-learn"
+          cleared={cleared}
+          className="inline-flex items-center gap-1 font-semibold"
+          look={LEARN_LOOK}
+        />
         <span
           className={cx("ml-auto inline-flex items-center gap-1", offline && "text-signal-300")}
           data-testid="crew-sync"

@@ -1,4 +1,5 @@
 import { CircleCheck, Hourglass } from "lucide-react"
+import type { ReactNode } from "react"
 import { useRecorder } from "./use-recorder"
 
 /** Seconds as minutes with one decimal, the way every recorder meter shows time. */
@@ -10,26 +11,41 @@ export const CLOCKS = [
   { name: "following", label: "Following", needed: "minFollowingMinutes" },
 ] as const
 
-/** The learn's state in an icon and words: a check and the minute once the learn completed, else an hourglass. */
+/**
+ * The learn's state in a box of its own, an icon and words: a check and the minute once the learn completed, else an
+ * hourglass. `look` styles the box and the icon for each state; `data-cleared` tells the tests which one shows.
+ */
 export function LearnState({
+  as: Box = "div",
+  testId,
   cleared,
-  doneIcon,
-  waitIcon,
+  className,
+  look,
+  children,
 }: {
+  as?: "div" | "span"
+  testId: string
   cleared: number | null
-  doneIcon: string
-  waitIcon: string
+  className: string
+  look: Record<"done" | "waiting", { box: string; icon: string }>
+  children?: ReactNode
 }) {
-  return cleared !== null ? (
-    <>
-      <CircleCheck aria-hidden className={doneIcon} />
-      {`Learn complete at ${minutes(cleared)} min`}
-    </>
-  ) : (
-    <>
-      <Hourglass aria-hidden className={waitIcon} />
-      Learn not complete yet
-    </>
+  const { box, icon } = cleared !== null ? look.done : look.waiting
+  return (
+    <Box className={`${className} ${box}`} data-testid={testId} data-cleared={cleared !== null}>
+      {cleared !== null ? (
+        <>
+          <CircleCheck aria-hidden className={icon} />
+          {`Learn complete at ${minutes(cleared)} min`}
+        </>
+      ) : (
+        <>
+          <Hourglass aria-hidden className={icon} />
+          Learn not complete yet
+        </>
+      )}
+      {children}
+    </Box>
   )
 }
 

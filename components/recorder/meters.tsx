@@ -20,6 +20,12 @@ const CLOCK_LOOK = {
   following: { icon: Link2, done: "teal" },
 } as const
 
+/** The learn's box on the driver's meters: teal once the learn completed. */
+const LEARN_LOOK = {
+  done: { box: "border-teal-400", icon: "size-5 shrink-0 text-teal-300" },
+  waiting: { box: "border-asphalt-700", icon: "size-5 shrink-0" },
+}
+
 function Meter({
   label,
   icon,
@@ -140,15 +146,12 @@ export function Meters() {
         detail={`${score?.harshEvents.accel ?? 0} speeding up · ${score?.harshEvents.decel ?? 0} braking`}
         tone={harsh > 0 ? "signal" : "plain"}
       />
-      <div
-        className={cx(
-          "col-span-2 flex items-center gap-2 rounded-xl border-2 bg-asphalt-800 px-3 py-2 text-lg font-semibold",
-          cleared !== null ? "border-teal-400" : "border-asphalt-700",
-        )}
-        data-testid="meter-learn"
-        data-cleared={cleared !== null}
+      <LearnState
+        testId="meter-learn"
+        cleared={cleared}
+        className="col-span-2 flex items-center gap-2 rounded-xl border-2 bg-asphalt-800 px-3 py-2 text-lg font-semibold"
+        look={LEARN_LOOK}
       >
-        <LearnState cleared={cleared} doneIcon="size-5 shrink-0 text-teal-300" waitIcon="size-5 shrink-0" />
         <span
           className="ml-auto inline-flex items-center gap-1 text-sm font-normal text-graphite-300"
           data-testid="meter-live"
@@ -161,7 +164,7 @@ export function Meters() {
               ? "Connecting…"
               : "Crew marks live"}
         </span>
-      </div>
+      </LearnState>
       <div
         className="col-span-2 text-xs text-graphite-400"
         data-testid="live-score"

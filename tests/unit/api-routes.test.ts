@@ -1,12 +1,13 @@
 import fs from "node:fs"
 import path from "node:path"
 import { describe, expect, it } from "vitest"
-import { API_ROUTES } from "@/app/_server/api-routes.generated"
-import { allowedMethods, isWellFormedPath, matchApiRoute } from "@/lib/api-route-match"
+import apiRoutes from "@/app/_server/api-routes.generated.json"
+import { allowedMethods, isWellFormedPath, matchApiRoute, type ApiRoute } from "@/lib/api-route-match"
 // @ts-expect-error: a plain .mjs build script without types
 import { GENERATED_PATH, renderApiRoutes, scanApiRoutes } from "../../scripts/lib/api-routes.mjs"
 
 const root = path.resolve(import.meta.dirname, "..", "..")
+const API_ROUTES: readonly ApiRoute[] = apiRoutes.routes
 
 describe("the API method table", () => {
   it("is current with the route files (regenerate: node scripts/gen-api-routes.mjs)", () => {

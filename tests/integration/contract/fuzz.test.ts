@@ -5,13 +5,15 @@
 import net from "node:net"
 import { sql } from "kysely"
 import { afterAll, beforeAll, describe, expect, it } from "vitest"
-import { API_ROUTES } from "@/app/_server/api-routes.generated"
-import { allowedMethods, isWellFormedPath } from "@/lib/api-route-match"
+import apiRoutes from "@/app/_server/api-routes.generated.json"
+import { allowedMethods, isWellFormedPath, type ApiRoute } from "@/lib/api-route-match"
 import { testDb } from "../../helpers/db"
 import { testEnv } from "../../helpers/env"
 import type { ApiClient } from "../../helpers/http"
 import { inventedVin } from "../../helpers/jobs"
 import { buildWorld, type World } from "./world"
+
+const API_ROUTES: readonly ApiRoute[] = apiRoutes.routes
 
 let w: World
 
