@@ -27,31 +27,29 @@ function reducedLatitudeInto(latDeg: number, sinU: Float64Array, cosU: Float64Ar
   cosU[i] = x / r
 }
 
+/** sin and cos of the two points' reduced latitudes (slots 0 and 1), filled by vincentyInto. */
+const pairSinU = new Float64Array(2)
+const pairCosU = new Float64Array(2)
+
+/** A difference of longitudes in degrees, taken the short way round (across 180° too). */
+function lonDelta(lon1: number, lon2: number): number {
+  const d = lon2 - lon1
+  return d > 180 ? d - 360 : d < -180 ? d + 360 : d
+}
+
 /**
- * Geodesic distance in metres between points `a` and `b` given by their reduced-latitude sine/cosine and
- * longitude in degrees, written to `out[k]`. Gives the great-circle distance on the mean sphere when the iteration
- * fails to converge (only for nearly antipodal points, never between consecutive GPS fixes).
+ * Vincenty's geodesic distance in metres between two points in degrees, written to `out[k]`. Gives the
+ * great-circle distance on the mean sphere when the iteration fails to converge (only for nearly antipodal
+ * points, never between consecutive GPS fixes).
  */
-function vincentyFromReduced(
-  sinU: Float64Array,
-  cosU: Float64Array,
-  lonDeg: Float64Array,
-  a: number,
-  b: number,
-  out: Float64Array,
-  k: number,
-): void {
-  // The points come as slots of the scorer's arrays and the distance goes into `out[k]`, not as numbers in and
-  // out: the function is too big to be inlined, and a call passes doubles boxed; seven per sample pair were most
-  // of what scoring a drive allocated.
-  const sinU1 = sinU[a]!
-  const cosU1 = cosU[a]!
-  const sinU2 = sinU[b]!
-  const cosU2 = cosU[b]!
-  let dLon = lonDeg[b]! - lonDeg[a]!
-  if (dLon > 180) dLon -= 360
-  else if (dLon < -180) dLon += 360
-  const L = dLon * DEG
+function vincentyInto(lat1: number, lon1: number, lat2: number, lon2: number, out: Float64Array, k: number): void {
+  reducedLatitudeInto(lat1, pairSinU, pairCosU, 0)
+  reducedLatitudeInto(lat2, pairSinU, pairCosU, 1)
+  const sinU1 = pairSinU[0]!
+  const cosU1 = pairCosU[0]!
+  const sinU2 = pairSinU[1]!
+  const cosU2 = pairCosU[1]!
+  const L = lonDelta(lon1, lon2) * DEG
   let lambda = L
   let sinSigma = 0
   let cosSigma = 0
@@ -105,18 +103,11 @@ function greatCircleFromReduced(sinU1: number, cosU1: number, sinU2: number, cos
   return MEAN_EARTH_RADIUS_M * Math.acos(Math.max(-1, Math.min(1, c)))
 }
 
-const pairSinU = new Float64Array(2)
-const pairCosU = new Float64Array(2)
-const pairLon = new Float64Array(2)
 const pairOut = new Float64Array(1)
 
 /** Geodesic (Vincenty, WGS-84) distance in metres between two points in decimal degrees. */
 export function geodesicDistanceM(lat1: number, lon1: number, lat2: number, lon2: number): number {
-  reducedLatitudeInto(lat1, pairSinU, pairCosU, 0)
-  reducedLatitudeInto(lat2, pairSinU, pairCosU, 1)
-  pairLon[0] = lon1
-  pairLon[1] = lon2
-  vincentyFromReduced(pairSinU, pairCosU, pairLon, 0, 1, pairOut, 0)
+  vincentyInto(lat1, lon1, lat2, lon2, pairOut, 0)
   return pairOut[0]!
 }
 
@@ -127,10 +118,11 @@ const LOCAL_METRIC_MAX_M = 100
 
 /**
  * Geodesic distance in metres between slots `a` and `b` of two arrays of latitude and longitude in degrees, written
- * to `out[k]` (slots in and out, as vincentyFromReduced, so nothing is boxed). A step under LOCAL_METRIC_MAX_M is
- * measured with the WGS-84 ellipsoid's metric at its mid-latitude: ds² = (M dφ)² + (N cos φ dλ)², M and N the
- * meridian and prime-vertical radii of curvature, M = a (1 - e²) / W³ and N = a / W with W² = 1 - e² sin² φ (the
- * textbook radii, written from memory; tests/unit/scoring/geodesy.test.ts holds the result to geolib's Vincenty).
+ * to `out[k]` (slots in and out: the scorer calls it per sample pair, and doubles passed to a function too big to
+ * inline are boxed). A step under LOCAL_METRIC_MAX_M is measured with the WGS-84 ellipsoid's metric at its
+ * mid-latitude: ds² = (M dφ)² + (N cos φ dλ)², M and N the meridian and prime-vertical radii of curvature,
+ * M = a (1 - e²) / W³ and N = a / W with W² = 1 - e² sin² φ (the textbook radii, written from memory;
+ * tests/unit/scoring/geodesy.test.ts holds the result to geolib's Vincenty).
  */
 export function intervalDistanceInto(
   latDeg: Float64Array,
@@ -142,9 +134,7 @@ export function intervalDistanceInto(
 ): void {
   const lat1 = latDeg[a]!
   const lat2 = latDeg[b]!
-  let dLon = lonDeg[b]! - lonDeg[a]!
-  if (dLon > 180) dLon -= 360
-  else if (dLon < -180) dLon += 360
+  const dLon = lonDelta(lonDeg[a]!, lonDeg[b]!)
   const phi = (lat1 + lat2) * 0.5 * DEG
   const sinPhi = Math.sin(phi)
   const w2 = 1 - WGS84_E2 * sinPhi * sinPhi
@@ -156,9 +146,5 @@ export function intervalDistanceInto(
     out[k] = d
     return
   }
-  reducedLatitudeInto(lat1, pairSinU, pairCosU, 0)
-  reducedLatitudeInto(lat2, pairSinU, pairCosU, 1)
-  pairLon[0] = lonDeg[a]!
-  pairLon[1] = lonDeg[b]!
-  vincentyFromReduced(pairSinU, pairCosU, pairLon, 0, 1, out, k)
+  vincentyInto(lat1, lonDeg[a]!, lat2, lonDeg[b]!, out, k)
 }
