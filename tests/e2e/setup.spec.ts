@@ -154,4 +154,34 @@ test.describe("the set-up form on a phone", () => {
     expect(stored?.override_note).toBe("Offset measured twice against the printout; target stand re-squared.")
     expect(stored?.override_by).toBe(file.shop.lead.id)
   })
+
+  test("a problem only the server finds shows beside its box on the right row, blank rows counted", async ({
+    phoneAs,
+  }) => {
+    const job = await staticJob()
+    const page = await phoneAs(file.shop.tech)
+    await page.goto(`/jobs/${job.id}`)
+    const { form, rows } = setupForm(page)
+    // The first row stays blank (it is not sent); the second carries text PostgreSQL cannot store (a NUL character),
+    // which the API refuses before any schema, naming the second measurement it was sent as its first.
+    await form.getByRole("button", { name: "Add a measurement" }).click()
+    await rows.nth(1).getByLabel("Measured").fill("1003")
+    await rows.nth(1).getByLabel("Specified").fill("1000")
+    await rows.nth(1).getByLabel("Tolerance (±)").fill("5")
+    const unit = rows.nth(1).getByLabel("Unit")
+    await unit.fill("m\u0000m")
+    await page.getByTestId("setup-save-0").click()
+    await expect(unit.locator("xpath=..").getByRole("alert")).toHaveText("must not contain the NUL character")
+    await expect(rows.nth(0).getByRole("alert")).toHaveCount(0)
+    await expect(form.getByRole("alert").last()).toHaveText("measurements.0.unit: must not contain the NUL character")
+    expect(await storedSetup(job.taskId)).toBeUndefined()
+
+    await unit.fill("mm")
+    await page.getByTestId("setup-save-0").click()
+    await expect(form.getByRole("status")).toHaveText("Set-up saved.")
+    await expect(unit.locator("xpath=..").getByRole("alert")).toHaveCount(0)
+    expect((await storedSetup(job.taskId))?.measurements).toEqual([
+      { key: "target_height", value: 1003, specified: 1000, tolerance: 5, unit: "mm" },
+    ])
+  })
 })
