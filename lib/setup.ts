@@ -63,6 +63,74 @@ export const setupInputSchema = z.object({
 })
 export type SetupInput = z.output<typeof setupInputSchema>
 
+/** A figure as typed in a box: blank is no number; a decimal comma reads as a point. */
+export function typedNumber(text: string): number {
+  return text.trim() === "" ? Number.NaN : Number(text.replace(",", "."))
+}
+
+/** One measurement row of the set-up form: the text in its boxes. */
+const setupFormRowSchema = z.object({
+  key: setupMeasurementSchema.shape.key,
+  label: z.string(),
+  value: z.string(),
+  specified: z.string(),
+  tolerance: z.string(),
+  unit: z.string(),
+})
+export type SetupFormRow = z.output<typeof setupFormRowSchema>
+
+/** The rows of the form that go to the API, by index: those with a figure typed (blank rows are left out). */
+export function sentRows(rows: readonly Pick<SetupFormRow, "value" | "specified" | "tolerance">[]): number[] {
+  return rows.flatMap((r, i) => (r.value || r.specified || r.tolerance ? [i] : []))
+}
+
+/** A path in the API's body (`measurements.1.value`) as the path in the form, whose rows include blank ones. */
+function onFormRows(path: readonly PropertyKey[], sent: readonly number[]): PropertyKey[] {
+  const row = path[0] === "measurements" ? sent[Number(path[1])] : undefined
+  return row === undefined ? [...path] : ["measurements", row, ...path.slice(2)]
+}
+
+/** The API's field problems (`fields` of its error shape, dotted paths) on the form's rows. */
+export function setupFieldsOnFormRows(fields: Record<string, string>, sent: readonly number[]): Record<string, string> {
+  return Object.fromEntries(
+    Object.entries(fields).map(([path, message]) => [onFormRows(path.split("."), sent).join("."), message]),
+  )
+}
+
+/**
+ * The set-up form's values (text boxes) to the API's body, checked by setupInputSchema itself: the same rules and
+ * words as the API, each problem on the row it belongs to.
+ */
+export const setupFormSchema = z
+  .object({
+    measurements: z.array(setupFormRowSchema),
+    scanResult: setupInputSchema.shape.scanResult,
+    scanNotes: z.string(),
+  })
+  .transform((form, ctx) => {
+    const sent = sentRows(form.measurements)
+    const body = setupInputSchema.safeParse({
+      measurements: sent.map((i) => {
+        const { key, label, value, specified, tolerance, unit } = form.measurements[i]!
+        return {
+          key,
+          ...(label.trim() ? { label } : {}),
+          value: typedNumber(value),
+          specified: typedNumber(specified),
+          tolerance: typedNumber(tolerance),
+          unit,
+        }
+      }),
+      scanResult: form.scanResult,
+      scanNotes: form.scanNotes,
+    })
+    if (body.success) return body.data
+    for (const issue of body.error.issues)
+      ctx.addIssue({ code: "custom", message: issue.message, path: onFormRows(issue.path, sent) })
+    return z.NEVER
+  })
+export type SetupFormValues = z.input<typeof setupFormSchema>
+
 export const setupOverrideSchema = z.object({
   note: z
     .string({ error: "is required: say why the road test may go ahead" })

@@ -1,19 +1,29 @@
 "use client"
 
+import { zodResolver } from "@hookform/resolvers/zod"
 import { useQuery, useQueryClient } from "@tanstack/react-query"
 import { Plus, ShieldAlert, Trash2, TriangleAlert } from "lucide-react"
-import { useState } from "react"
+import { useEffect, useState } from "react"
+import { useFieldArray, useForm, useWatch } from "react-hook-form"
 import { apiFetch, ApiError } from "@/lib/api/client"
 import { Button } from "@/components/ui/button"
 import { Field, Input, Select, Textarea } from "@/components/ui/field"
-import { FormDone, FormProblem, Options } from "@/components/ui/form"
+import { errorAt, FormDone, FormProblem, Options, showApiProblem } from "@/components/ui/form"
 import {
   SCAN_RESULT_LABEL,
   SCAN_RESULTS,
   SETUP_MEASUREMENT_KEYS,
   SETUP_MEASUREMENT_LABEL,
   isOutOfTolerance,
+  sentRows,
+  setupFieldsOnFormRows,
+  setupFormSchema,
+  setupOverrideSchema,
+  typedNumber,
   type ScanResult,
+  type SetupFormRow,
+  type SetupFormValues,
+  type SetupInput,
   type SetupMeasurementKey,
 } from "@/lib/setup"
 
@@ -36,16 +46,8 @@ export type SetupView = {
   updatedBy: string | null
   updatedAt: string
 }
-type Row = {
-  key: SetupMeasurementKey
-  label: string
-  value: string
-  specified: string
-  tolerance: string
-  unit: string
-}
 
-const emptyRow = (key: SetupMeasurementKey = "target_distance"): Row => ({
+const emptyRow = (key: SetupMeasurementKey = "target_distance"): SetupFormRow => ({
   key,
   label: "",
   value: "",
@@ -53,7 +55,7 @@ const emptyRow = (key: SetupMeasurementKey = "target_distance"): Row => ({
   tolerance: "",
   unit: "mm",
 })
-const toRow = (m: MeasurementView): Row => ({
+const toRow = (m: MeasurementView): SetupFormRow => ({
   key: m.key,
   label: m.label ?? "",
   value: String(m.value),
@@ -61,7 +63,12 @@ const toRow = (m: MeasurementView): Row => ({
   tolerance: String(m.tolerance),
   unit: m.unit,
 })
-const num = (s: string) => (s.trim() === "" ? Number.NaN : Number(s.replace(",", ".")))
+/** The form's values for a stored set-up, or a blank form. */
+const formValues = (setup: SetupView | null | undefined): SetupFormValues => ({
+  measurements: setup?.measurements.length ? setup.measurements.map(toRow) : [emptyRow()],
+  scanResult: setup?.scanResult ?? "not_run",
+  scanNotes: setup?.scanNotes ?? "",
+})
 
 /** The static set-up of one task: figures typed from the maker's service information, scan tool result, a lead's override. */
 export function SetupForm({
@@ -83,68 +90,40 @@ export function SetupForm({
     queryKey: ["setup", taskId],
     queryFn: async () => (await apiFetch<{ setup: SetupView | null }>(url)).setup,
   })
-  const [rows, setRows] = useState<Row[]>([emptyRow()])
-  const [scanResult, setScanResult] = useState<ScanResult>("not_run")
-  const [scanNotes, setScanNotes] = useState("")
-  const [note, setNote] = useState("")
   const [problem, setProblem] = useState<string | null>(null)
-  const [fields, setFields] = useState<Record<string, string>>({})
   const [done, setDone] = useState<string | null>(null)
-  // A stored set-up fills the form when it arrives (or changes), during render: React's "adjusting state when a prop
-  // changes" pattern, without a second render pass from an effect.
-  const [shownSetup, setShownSetup] = useState<SetupView | null>(null)
-  if (setup && setup !== shownSetup) {
-    setShownSetup(setup)
-    setRows(setup.measurements.length ? setup.measurements.map(toRow) : [emptyRow()])
-    setScanResult(setup.scanResult)
-    setScanNotes(setup.scanNotes)
-  }
+  const form = useForm<SetupFormValues, unknown, SetupInput>({
+    resolver: zodResolver(setupFormSchema),
+    defaultValues: formValues(setup),
+  })
+  const rows = useFieldArray({ control: form.control, name: "measurements" })
+  const typed = useWatch({ control: form.control, name: "measurements" })
+  const { errors } = form.formState
+  // Each stored set-up that arrives (the first load, a save, an override) fills the form with what is on record.
+  const { reset } = form
+  useEffect(() => {
+    if (setup) reset(formValues(setup))
+  }, [setup, reset])
 
   const refresh = async (fresh: SetupView) => {
     queryClient.setQueryData(["setup", taskId], fresh)
     await queryClient.invalidateQueries({ queryKey: ["job", jobId] })
   }
-  const save = async () => {
-    setProblem(null)
-    setFields({})
-    setDone(null)
+  const save = async (body: SetupInput) => {
+    // The API numbers the measurements it was sent; the form's rows also count the blank ones left out.
+    const sent = sentRows(form.getValues("measurements"))
     try {
-      const body = {
-        measurements: rows
-          .filter((r) => r.value || r.specified || r.tolerance)
-          .map((r) => ({
-            key: r.key,
-            ...(r.label.trim() ? { label: r.label.trim() } : {}),
-            value: num(r.value),
-            specified: num(r.specified),
-            tolerance: num(r.tolerance),
-            unit: r.unit,
-          })),
-        scanResult,
-        scanNotes,
-      }
       const res = await apiFetch<{ setup: SetupView }>(url, { method: "PUT", body })
       await refresh(res.setup)
       setDone(res.setup.blocksRoadTest ? "Saved. Out-of-tolerance figures hold the road test." : "Set-up saved.")
     } catch (e) {
-      setProblem(e instanceof Error ? e.message : "That did not save.")
-      if (e instanceof ApiError && e.fields) setFields(e.fields)
+      const onRows =
+        e instanceof ApiError && e.fields ? new ApiError(e.message, e.status, setupFieldsOnFormRows(e.fields, sent)) : e
+      setProblem(showApiProblem(form, onRows, "That did not save."))
     }
   }
-  const override = async () => {
-    setProblem(null)
-    try {
-      const res = await apiFetch<{ setup: SetupView }>(`${url}/override`, { method: "POST", body: { note } })
-      await refresh(res.setup)
-      setNote("")
-      setDone("Override saved: the road test may start.")
-    } catch (e) {
-      setProblem(e instanceof Error ? e.message : "That did not save.")
-    }
-  }
-  const update = (i: number, patch: Partial<Row>) =>
-    setRows((rs) => rs.map((r, j) => (j === i ? { ...r, ...patch } : r)))
   const id = (what: string, i?: number) => `setup-${index}-${what}${i === undefined ? "" : `-${i}`}`
+  const err = (path: string) => errorAt(errors, path)
 
   return (
     <div className="space-y-3" data-testid={`setup-form-${index}`}>
@@ -168,123 +147,175 @@ export function SetupForm({
           Overridden by {setup.override.by ?? "a shop lead"}: {setup.override.note}
         </p>
       ) : null}
-      <ul className="space-y-3">
-        {rows.map((r, i) => {
-          const v = num(r.value)
-          const s = num(r.specified)
-          const t = num(r.tolerance)
-          const out = [v, s, t].every(Number.isFinite) && isOutOfTolerance({ value: v, specified: s, tolerance: t })
-          // One text box of the row: its id, its error from the server and its change all follow from its name.
-          const box = (name: Exclude<keyof Row, "key">, label: string, inputMode?: "decimal") => (
-            <Field label={label} htmlFor={id(name, i)} error={fields[`measurements.${i}.${name}`]}>
-              <Input
-                id={id(name, i)}
-                inputMode={inputMode}
-                value={r[name]}
-                disabled={!canEdit}
-                onChange={(e) => update(i, { [name]: e.target.value })}
-              />
-            </Field>
-          )
-          return (
-            <li
-              key={i}
-              className="grid grid-cols-2 gap-2 rounded-lg border border-graphite-200 p-2 sm:grid-cols-6 dark:border-asphalt-700"
-            >
-              <div className="col-span-2">
-                <Field label="Measurement" htmlFor={id("key", i)}>
-                  <Select
-                    id={id("key", i)}
-                    value={r.key}
-                    disabled={!canEdit}
-                    onChange={(e) => update(i, { key: e.target.value as SetupMeasurementKey })}
-                  >
-                    <Options values={SETUP_MEASUREMENT_KEYS} labels={SETUP_MEASUREMENT_LABEL} />
-                  </Select>
-                </Field>
-                {r.key === "other" ? box("label", "Name") : null}
-              </div>
-              {box("value", "Measured", "decimal")}
-              {box("specified", "Specified", "decimal")}
-              {box("tolerance", "Tolerance (±)", "decimal")}
-              {box("unit", "Unit")}
-              <div className="col-span-2 flex items-center justify-between gap-2 sm:col-span-6">
-                <span
-                  className={
-                    out
-                      ? "flex items-center gap-1 font-semibold text-stop-700 dark:text-stop-400"
-                      : "text-sm text-graphite-600 dark:text-graphite-300"
-                  }
-                >
-                  {out ? (
-                    <>
-                      <TriangleAlert aria-hidden className="size-4" /> Out of tolerance
-                    </>
-                  ) : [v, s, t].every(Number.isFinite) ? (
-                    "In tolerance"
-                  ) : (
-                    ""
-                  )}
-                </span>
-                {canEdit && rows.length > 1 ? (
-                  <Button
-                    variant="ghost"
-                    size="sm"
-                    onClick={() => setRows((rs) => rs.filter((_, j) => j !== i))}
-                    aria-label={`Remove measurement ${i + 1}`}
-                  >
-                    <Trash2 aria-hidden className="size-4" />
-                  </Button>
-                ) : null}
-              </div>
-            </li>
-          )
-        })}
-      </ul>
-      {canEdit ? (
-        <Button variant="outline" size="sm" onClick={() => setRows((rs) => [...rs, emptyRow("target_height")])}>
-          <Plus aria-hidden className="size-4" /> Add a measurement
-        </Button>
-      ) : null}
-      <Field label="Scan tool result" htmlFor={id("scan")}>
-        <Select
-          id={id("scan")}
-          value={scanResult}
-          disabled={!canEdit}
-          onChange={(e) => setScanResult(e.target.value as ScanResult)}
-        >
-          <Options values={SCAN_RESULTS} labels={SCAN_RESULT_LABEL} />
-        </Select>
-      </Field>
-      <Field
-        label="Scan tool notes"
-        htmlFor={id("scan-notes")}
-        hint="Codes read, the tool's own wording. Photos of the set-up and printouts go under Photos and printouts."
+      <form
+        className="space-y-3"
+        noValidate
+        onSubmit={(e) => {
+          setProblem(null)
+          setDone(null)
+          return form.handleSubmit(save)(e)
+        }}
       >
-        <Textarea
-          id={id("scan-notes")}
-          value={scanNotes}
-          disabled={!canEdit}
-          onChange={(e) => setScanNotes(e.target.value)}
-        />
-      </Field>
-      {canEdit ? (
-        <Button onClick={() => void save()} data-testid={`setup-save-${index}`}>
-          Save the set-up
-        </Button>
-      ) : null}
-      {isLead && setup?.blocksRoadTest ? (
-        <div className="space-y-2 rounded-lg border border-graphite-200 p-2 dark:border-asphalt-700">
-          <Field label="Lead's override: why the road test may go ahead" htmlFor={id("override")}>
-            <Textarea id={id("override")} value={note} onChange={(e) => setNote(e.target.value)} />
-          </Field>
-          <Button variant="danger" disabled={!note.trim()} onClick={() => void override()}>
-            Override with this note
+        <FormProblem className="text-sm">{err("measurements.root") ?? err("measurements")}</FormProblem>
+        <ul className="space-y-3">
+          {rows.fields.map((field, i) => {
+            const r = typed?.[i] ?? field
+            const v = typedNumber(r.value)
+            const s = typedNumber(r.specified)
+            const t = typedNumber(r.tolerance)
+            const figures = [v, s, t].every(Number.isFinite)
+            const out = figures && isOutOfTolerance({ value: v, specified: s, tolerance: t })
+            // One text box of the row: its id, its error and its value all follow from its name.
+            const box = (name: Exclude<keyof SetupFormRow, "key">, label: string, inputMode?: "decimal") => (
+              <Field label={label} htmlFor={id(name, i)} error={err(`measurements.${i}.${name}`)}>
+                <Input
+                  id={id(name, i)}
+                  inputMode={inputMode}
+                  disabled={!canEdit}
+                  {...form.register(`measurements.${i}.${name}`)}
+                />
+              </Field>
+            )
+            return (
+              <li
+                key={field.id}
+                className="grid grid-cols-2 gap-2 rounded-lg border border-graphite-200 p-2 sm:grid-cols-6 dark:border-asphalt-700"
+              >
+                <div className="col-span-2">
+                  <Field label="Measurement" htmlFor={id("key", i)} error={err(`measurements.${i}.key`)}>
+                    <Select id={id("key", i)} disabled={!canEdit} {...form.register(`measurements.${i}.key`)}>
+                      <Options values={SETUP_MEASUREMENT_KEYS} labels={SETUP_MEASUREMENT_LABEL} />
+                    </Select>
+                  </Field>
+                  {r.key === "other" ? box("label", "Name") : null}
+                </div>
+                {box("value", "Measured", "decimal")}
+                {box("specified", "Specified", "decimal")}
+                {box("tolerance", "Tolerance (±)", "decimal")}
+                {box("unit", "Unit")}
+                <div className="col-span-2 flex items-center justify-between gap-2 sm:col-span-6">
+                  <span
+                    className={
+                      out
+                        ? "flex items-center gap-1 font-semibold text-stop-700 dark:text-stop-400"
+                        : "text-sm text-graphite-600 dark:text-graphite-300"
+                    }
+                  >
+                    {out ? (
+                      <>
+                        <TriangleAlert aria-hidden className="size-4" /> Out of tolerance
+                      </>
+                    ) : figures ? (
+                      "In tolerance"
+                    ) : (
+                      ""
+                    )}
+                  </span>
+                  {canEdit && rows.fields.length > 1 ? (
+                    <Button
+                      variant="ghost"
+                      size="sm"
+                      onClick={() => rows.remove(i)}
+                      aria-label={`Remove measurement ${i + 1}`}
+                    >
+                      <Trash2 aria-hidden className="size-4" />
+                    </Button>
+                  ) : null}
+                </div>
+              </li>
+            )
+          })}
+        </ul>
+        {canEdit ? (
+          <Button
+            variant="outline"
+            size="sm"
+            onClick={() => rows.append(emptyRow("target_height"), { shouldFocus: false })}
+          >
+            <Plus aria-hidden className="size-4" /> Add a measurement
           </Button>
-        </div>
+        ) : null}
+        <Field label="Scan tool result" htmlFor={id("scan")} error={err("scanResult")}>
+          <Select id={id("scan")} disabled={!canEdit} {...form.register("scanResult")}>
+            <Options values={SCAN_RESULTS} labels={SCAN_RESULT_LABEL} />
+          </Select>
+        </Field>
+        <Field
+          label="Scan tool notes"
+          htmlFor={id("scan-notes")}
+          error={err("scanNotes")}
+          hint="Codes read, the tool's own wording. Photos of the set-up and printouts go under Photos and printouts."
+        >
+          <Textarea id={id("scan-notes")} disabled={!canEdit} {...form.register("scanNotes")} />
+        </Field>
+        {canEdit ? (
+          <Button type="submit" data-testid={`setup-save-${index}`}>
+            Save the set-up
+          </Button>
+        ) : null}
+      </form>
+      {isLead && setup?.blocksRoadTest ? (
+        <OverrideForm
+          url={`${url}/override`}
+          id={id("override")}
+          onStart={() => setProblem(null)}
+          onProblem={setProblem}
+          onSaved={async (fresh) => {
+            await refresh(fresh)
+            setDone("Override saved: the road test may start.")
+          }}
+        />
       ) : null}
       <FormProblem>{problem}</FormProblem>
       <FormDone>{done}</FormDone>
     </div>
+  )
+}
+
+/** A shop lead's override of figures out of tolerance: the note says why the road test may go ahead. */
+function OverrideForm({
+  url,
+  id,
+  onStart,
+  onProblem,
+  onSaved,
+}: {
+  url: string
+  id: string
+  onStart: () => void
+  onProblem: (problem: string) => void
+  onSaved: (fresh: SetupView) => Promise<void>
+}) {
+  const form = useForm<{ note: string }>({ resolver: zodResolver(setupOverrideSchema), defaultValues: { note: "" } })
+  const note = useWatch({ control: form.control, name: "note" })
+  const override = async ({ note }: { note: string }) => {
+    try {
+      const res = await apiFetch<{ setup: SetupView }>(url, { method: "POST", body: { note } })
+      form.reset()
+      await onSaved(res.setup)
+    } catch (e) {
+      onProblem(showApiProblem(form, e, "That did not save."))
+    }
+  }
+  return (
+    <form
+      className="space-y-2 rounded-lg border border-graphite-200 p-2 dark:border-asphalt-700"
+      noValidate
+      onSubmit={(e) => {
+        onStart()
+        return form.handleSubmit(override)(e)
+      }}
+    >
+      <Field
+        label="Lead's override: why the road test may go ahead"
+        htmlFor={id}
+        error={errorAt(form.formState.errors, "note")}
+      >
+        <Textarea id={id} {...form.register("note")} />
+      </Field>
+      <Button type="submit" variant="danger" disabled={!note.trim()}>
+        Override with this note
+      </Button>
+    </form>
   )
 }

@@ -1,5 +1,13 @@
 import { describe, expect, it } from "vitest"
-import { describeMeasurement, isOutOfTolerance, setupInputSchema, setupOverrideSchema } from "@/lib/setup"
+import {
+  describeMeasurement,
+  isOutOfTolerance,
+  setupFieldsOnFormRows,
+  setupFormSchema,
+  setupInputSchema,
+  setupOverrideSchema,
+  type SetupFormRow,
+} from "@/lib/setup"
 
 // Set-up figures are the shop's entries from the maker's service information; these checks use invented values.
 describe("static set-up measurements", () => {
@@ -38,5 +46,76 @@ describe("static set-up measurements", () => {
     expect(paths).toEqual(expect.arrayContaining(["measurements.0.tolerance", "measurements.0.label"]))
     expect(setupOverrideSchema.safeParse({ note: "  " }).success).toBe(false)
     expect(setupOverrideSchema.safeParse({ note: "Checked against the printout" }).success).toBe(true)
+  })
+
+  describe("the set-up form's text boxes", () => {
+    const row = (figures: Partial<SetupFormRow> = {}): SetupFormRow => ({
+      key: "target_distance",
+      label: "",
+      value: "",
+      specified: "",
+      tolerance: "",
+      unit: "mm",
+      ...figures,
+    })
+
+    it("reads the figures into the API's body: blank rows left out, a decimal comma read as a point", () => {
+      const r = setupFormSchema.safeParse({
+        measurements: [
+          row(),
+          row({ value: "1502,5", specified: "1500", tolerance: " 10 ", unit: " mm " }),
+          row({ key: "other", label: " Bracket angle ", value: "-0.4", specified: "0", tolerance: "0.5", unit: "°" }),
+        ],
+        scanResult: "pass",
+        scanNotes: "  none stored ",
+      })
+      expect(r.success && r.data).toEqual({
+        measurements: [
+          { key: "target_distance", value: 1502.5, specified: 1500, tolerance: 10, unit: "mm" },
+          { key: "other", label: "Bracket angle", value: -0.4, specified: 0, tolerance: 0.5, unit: "°" },
+        ],
+        scanResult: "pass",
+        scanNotes: "none stored",
+      })
+      // The output is a body the API takes as it is.
+      expect(r.success && setupInputSchema.parse(r.data)).toEqual(r.success && r.data)
+    })
+
+    it("puts the API's own problems on the form's rows, counting the blank ones", () => {
+      const r = setupFormSchema.safeParse({
+        measurements: [
+          row(),
+          row({ value: "15o2", specified: "1500", tolerance: "10" }),
+          row({ key: "other", value: "1", specified: "1", tolerance: "-1" }),
+        ],
+        scanResult: "fail",
+        scanNotes: "",
+      })
+      expect(r.success).toBe(false)
+      const problems = r.success ? {} : Object.fromEntries(r.error.issues.map((i) => [i.path.join("."), i.message]))
+      expect(problems).toEqual({
+        "measurements.1.value": "must be a number",
+        "measurements.2.tolerance": "must be 0 or more",
+        "measurements.2.label": "is required for an other measurement",
+      })
+    })
+
+    it("moves the API's field problems from the body's measurements to the form's rows", () => {
+      // Rows 1 and 3 of the form were sent as measurements 0 and 1.
+      expect(
+        setupFieldsOnFormRows(
+          {
+            "measurements.1.unit": "must not contain the NUL character",
+            measurements: "must hold at most 30",
+            scanNotes: "x",
+          },
+          [1, 3],
+        ),
+      ).toEqual({
+        "measurements.3.unit": "must not contain the NUL character",
+        measurements: "must hold at most 30",
+        scanNotes: "x",
+      })
+    })
   })
 })
