@@ -25,20 +25,19 @@ function storedSetup(taskId: string) {
     .executeTakeFirst()
 }
 
-/** The set-up form of the job's first calibration, and its measurement rows. */
-function setupForm(page: Page) {
+/** The job's page opened on `page`, with the set-up form of its first calibration and the form's measurement rows. */
+async function openSetupForm<J extends { id: string }>(page: Page, job: J) {
+  await page.goto(`/jobs/${job.id}`)
   const form = page.getByTestId("setup-form-0")
-  return { form, rows: form.getByRole("listitem") }
+  return { job, form, rows: form.getByRole("listitem") }
 }
 
 test.describe("the set-up form on a phone", () => {
   test("a technician types the figures, one out of tolerance, saves, and sees the road test held; a bad number is refused beside its box", async ({
     phoneAs,
   }) => {
-    const job = await staticJob()
     const page = await phoneAs(file.shop.tech)
-    await page.goto(`/jobs/${job.id}`)
-    const { form, rows } = setupForm(page)
+    const { job, form, rows } = await openSetupForm(page, await staticJob())
 
     await expect(rows).toHaveCount(1)
     await expect(rows.nth(0).getByLabel("Measurement", { exact: true })).toHaveValue("target_distance")
@@ -129,8 +128,7 @@ test.describe("the set-up form on a phone", () => {
     expect(put.status).toBe(200)
 
     const page = await phoneAs(file.shop.lead)
-    await page.goto(`/jobs/${job.id}`)
-    const { form, rows } = setupForm(page)
+    const { form, rows } = await openSetupForm(page, job)
     await expect(page.getByTestId("setup-blocks")).toContainText("1 out of tolerance")
     await expect(rows.nth(0).getByLabel("Measured")).toHaveValue("14")
     await expect(rows.nth(0)).toContainText("Out of tolerance")
@@ -158,10 +156,8 @@ test.describe("the set-up form on a phone", () => {
   test("a problem only the server finds shows beside its box on the right row, blank rows counted", async ({
     phoneAs,
   }) => {
-    const job = await staticJob()
     const page = await phoneAs(file.shop.tech)
-    await page.goto(`/jobs/${job.id}`)
-    const { form, rows } = setupForm(page)
+    const { job, form, rows } = await openSetupForm(page, await staticJob())
     // The first row stays blank (it is not sent); the second carries text PostgreSQL cannot store (a NUL character),
     // which the API refuses before any schema, naming the second measurement it was sent as its first.
     await form.getByRole("button", { name: "Add a measurement" }).click()
