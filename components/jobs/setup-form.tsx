@@ -98,7 +98,7 @@ export function SetupForm({
   })
   const rows = useFieldArray({ control: form.control, name: "measurements" })
   const typed = useWatch({ control: form.control, name: "measurements" })
-  const { errors } = form.formState
+  const { errors, isSubmitting } = form.formState
   // Each stored set-up that arrives (the first load, a save, an override) fills the form with what is on record.
   const { reset } = form
   useEffect(() => {
@@ -249,8 +249,8 @@ export function SetupForm({
           <Textarea id={id("scan-notes")} disabled={!canEdit} {...form.register("scanNotes")} />
         </Field>
         {canEdit ? (
-          <Button type="submit" data-testid={`setup-save-${index}`}>
-            Save the set-up
+          <Button type="submit" data-testid={`setup-save-${index}`} disabled={isSubmitting}>
+            {isSubmitting ? "Saving…" : "Save the set-up"}
           </Button>
         ) : null}
       </form>
@@ -313,7 +313,7 @@ function OverrideForm({
       >
         <Textarea id={id} {...form.register("note")} />
       </Field>
-      <Button type="submit" variant="danger" disabled={!note.trim()}>
+      <Button type="submit" variant="danger" disabled={!note.trim() || form.formState.isSubmitting}>
         Override with this note
       </Button>
     </form>
