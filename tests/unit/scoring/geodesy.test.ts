@@ -15,6 +15,22 @@ const GA_DISTANCE_M = 54972.271
 const geolibM = (a: { lat: number; lon: number }, b: { lat: number; lon: number }) =>
   getPreciseDistance({ latitude: a.lat, longitude: a.lon }, { latitude: b.lat, longitude: b.lon }, 1e-6)
 
+/**
+ * A step from (lat, lon) by (dLat, dLon) degrees, its longitude wrapped across 180°, with geolib's distance for it.
+ * geolib gives NaN for some steps of a centimetre or so (e.g. 1e-7° of longitude at 1e-7° of latitude): there is no
+ * reference there, so fast-check skips the case.
+ */
+function stepWithReference(lat: number, lon: number, dLat: number, dLon: number) {
+  let lon2 = lon + dLon
+  if (lon2 > 180) lon2 -= 360
+  if (lon2 < -180) lon2 += 360
+  const a = { lat, lon }
+  const b = { lat: lat + dLat, lon: lon2 }
+  const reference = geolibM(a, b)
+  fc.pre(Number.isFinite(reference))
+  return { a, b, reference }
+}
+
 describe("geodesic distance (Vincenty, WGS-84)", () => {
   it("matches the Geoscience Australia example Flinders Peak -> Buninyong, 54 972.271 m, to 1 mm", () => {
     expect(
@@ -66,15 +82,7 @@ describe("geodesic distance (Vincenty, WGS-84)", () => {
         fc.integer({ min: -100_000, max: 100_000 }).map((x) => x / 1e7),
         fc.integer({ min: 1, max: 100_000 }).map((x) => x / 1e7),
         (lat, lon, dLat, dLon) => {
-          let lon2 = lon + dLon
-          if (lon2 > 180) lon2 -= 360
-          if (lon2 < -180) lon2 += 360
-          const a = { lat, lon }
-          const b = { lat: lat + dLat, lon: lon2 }
-          // geolib gives NaN for some steps of a centimetre or so (e.g. 1e-7° of longitude at 1e-7° of latitude):
-          // no reference there, so no check.
-          const reference = geolibM(a, b)
-          fc.pre(Number.isFinite(reference))
+          const { a, b, reference } = stepWithReference(lat, lon, dLat, dLon)
           expect(Math.abs(geodesicDistanceM(a.lat, a.lon, b.lat, b.lon) - reference)).toBeLessThan(2e-6)
         },
       ),
@@ -112,13 +120,7 @@ describe("a step between consecutive fixes (the scorer's intervalDistanceInto)",
           // About `metres` apart: ~111 km a degree of latitude, less of longitude by cos(lat).
           const dLat = (metres * Math.cos(bearing)) / 111_000
           const dLon = (metres * Math.sin(bearing)) / (111_000 * Math.cos((lat * Math.PI) / 180))
-          let lon2 = lon + dLon
-          if (lon2 > 180) lon2 -= 360
-          if (lon2 < -180) lon2 += 360
-          const a = { lat, lon }
-          const b = { lat: lat + dLat, lon: lon2 }
-          const reference = geolibM(a, b)
-          fc.pre(Number.isFinite(reference)) // geolib's NaN for some centimetre steps, as above
+          const { a, b, reference } = stepWithReference(lat, lon, dLat, dLon)
           if (reference >= 100) return // measured by Vincenty itself, below
           // Plus 10 µm: Vincenty itself stops iterating at 1e-12 rad of longitude, a few µm (see the equator below).
           expect(Math.abs(step(a, b) - reference)).toBeLessThanOrEqual(1e-7 * reference + 1e-5)
