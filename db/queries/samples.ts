@@ -1,5 +1,6 @@
 import { sql } from "kysely"
 import type pg from "pg"
+import type { SessionUser } from "@/lib/auth/lucia"
 import type { Role } from "@/lib/auth/roles"
 import type { Sample } from "@/lib/drive-file/schema"
 import { decodeSample, encodeSampleColumns } from "@/lib/drive-file/stored"
@@ -167,8 +168,8 @@ function driveAndClaim(
 
 /** A session with its user, read with the drive it names (see findSessionDriveAndBatch). */
 export type SessionDriveAndBatch = {
-  session: { id: string; userId: string; expiresAt: Date }
-  user: { email: string; name: string; role: Role; shopId: string; disabled: boolean }
+  sessionExpiresAt: Date
+  user: SessionUser
   /** Undefined when the user's shop has no drive of that public id. */
   found: DriveAndBatch | undefined
 }
@@ -176,7 +177,7 @@ export type SessionDriveAndBatch = {
 /**
  * A session, its user, and in that user's shop the drive of a public id with a batch's claim: one prepared
  * statement, the whole database work of a replayed sample batch. The session is returned as stored: the caller
- * decides whether it is valid (app/_server/session-token.ts settledSession) before using anything else.
+ * decides whether it is valid (lib/auth/lucia.ts sessionIsSettled) before using anything else.
  */
 export async function findSessionDriveAndBatch(
   pool: pg.Pool,
@@ -202,8 +203,15 @@ export async function findSessionDriveAndBatch(
     ...rest
   } = row
   return {
-    session: { id: sessionId, userId: session_user_id, expiresAt: session_expires_at },
-    user: { email: user_email, name: user_name, role: user_role, shopId: user_shop_id, disabled: user_disabled },
+    sessionExpiresAt: session_expires_at,
+    user: {
+      id: session_user_id,
+      email: user_email,
+      name: user_name,
+      role: user_role,
+      shopId: user_shop_id,
+      disabled: user_disabled,
+    },
     // No drive of that id in the shop: the left join gave nulls for all its columns.
     found: rest.id === null ? undefined : driveAndClaim(rest, batchId),
   }

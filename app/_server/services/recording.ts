@@ -101,8 +101,8 @@ export async function lookUpNamedBatch(
   if (!uuidSchema.safeParse(driveId).success) return undefined
   const row = await findSessionDriveAndBatch(getPool(), sessionIdFromToken(sessionToken), driveId, named)
   if (!row) return undefined
-  const settled = sessionIsSettled(row.session.expiresAt) && !row.user.disabled
-  return { user: settled ? { id: row.session.userId, ...row.user } : null, found: row.found }
+  const settled = sessionIsSettled(row.sessionExpiresAt) && !row.user.disabled
+  return { user: settled ? row.user : null, found: row.found }
 }
 
 function withoutStoredTs({ storedTs: _storedTs, ...body }: BatchResult) {
