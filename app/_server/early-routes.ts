@@ -6,8 +6,10 @@
 // Only batches that name themselves in the x-batch-id header come here, which are exactly the requests that already
 // skip the proxy (proxy.ts matcher), so nothing the proxy does is lost. Anything else goes on to Next.
 import type { IncomingMessage, ServerResponse } from "node:http"
-import { postSampleBatch } from "@/app/_server/sample-batch"
+import { MAX_JSON_BYTES, bodyTextAnswering } from "@/app/_server/route"
+import { answerSampleBatch } from "@/app/_server/sample-batch"
 import { BATCH_ID_HEADER } from "@/lib/recorder/batching"
+import { BodyTooLargeError } from "@/lib/validation/json-body"
 
 const SAMPLE_BATCH_PATH = /^\/api\/drives\/([0-9A-Za-z-]+)\/samples$/
 
@@ -30,43 +32,67 @@ export function answerEarly(req: IncomingMessage, res: ServerResponse): boolean 
 }
 
 async function answer(req: IncomingMessage, res: ServerResponse, driveId: string) {
-  // The body is handed over only if the handler reads it: a replayed batch is answered from its claim, and its body
-  // then drained unread, which keeps the connection for the next request.
+  // The body is read only if the handler asks for it: a replayed batch is answered from its claim, and its body then
+  // drained unread, which keeps the connection for the next request.
   let reading = false
-  const body = new ReadableStream<Uint8Array>({
-    pull(controller) {
-      if (reading) return
-      reading = true
-      req.on("data", (chunk: Buffer) =>
-        controller.enqueue(new Uint8Array(chunk.buffer, chunk.byteOffset, chunk.length)),
-      )
-      req.on("end", () => controller.close())
-      req.on("error", (error) => controller.error(error))
-    },
-  })
   try {
-    const headers = new Headers()
-    const raw = req.rawHeaders
-    for (let i = 0; i < raw.length; i += 2) headers.append(raw[i]!, raw[i + 1]!)
-    const request = new Request(`http://${req.headers.host ?? "localhost"}${req.url}`, {
-      method: "POST",
-      headers,
-      body,
-      duplex: "half",
-    } as RequestInit)
-    const response = await postSampleBatch(request, { params: Promise.resolve({ driveId }) })
-    const text = Buffer.from(await response.arrayBuffer())
+    const answer = await answerSampleBatch(
+      {
+        method: "POST",
+        // Only its path is read (for the log); the path matched SAMPLE_BATCH_PATH.
+        url: `http://localhost${req.url}`,
+        // Node joins a repeated header with ", " (Set-Cookie aside, which a request has not), as Headers.get does.
+        header: (name) => {
+          const value = req.headers[name]
+          return value === undefined ? null : Array.isArray(value) ? value.join(", ") : value
+        },
+        readText: () => {
+          reading = true
+          return bodyTextAnswering(() => readBody(req, MAX_JSON_BYTES))
+        },
+      },
+      driveId,
+    )
     if (!reading) req.resume()
-    // Flat name, value, name, value (Node's writeHead); the Headers iterator gives each Set-Cookie on its own.
-    const out: string[] = ["content-length", String(text.length)]
-    for (const [name, value] of CONFIG_HEADERS) if (!response.headers.has(name)) out.push(name, value)
-    response.headers.forEach((value, name) => out.push(name, value))
-    res.writeHead(response.status, out)
+    const text = Buffer.from(JSON.stringify(answer.body))
+    // Flat name, value, name, value (Node's writeHead).
+    const out: string[] = ["content-type", "application/json", "content-length", String(text.length)]
+    const own = answer.headers ?? {}
+    const ownNames = new Set(Object.keys(own).map((name) => name.toLowerCase()))
+    for (const [name, value] of CONFIG_HEADERS) if (!ownNames.has(name)) out.push(name, value)
+    for (const [name, value] of Object.entries(own)) out.push(name.toLowerCase(), value)
+    res.writeHead(answer.status, out)
     res.end(text)
   } catch (error) {
-    // route() answers every error in the error shape; this is only for a failure outside it (a broken socket).
+    // answerSampleBatch answers every error in the error shape; this is only for a failure outside it (a broken socket).
     console.error("[straightaway] a sample batch could not be answered", error)
     if (!res.headersSent) res.writeHead(500, { "content-type": "application/json" })
     res.end(JSON.stringify({ error: { code: "internal_error", message: "Something went wrong on our side." } }))
   }
+}
+
+/**
+ * The request's body as text, counted as it arrives whatever Content-Length says (lib/validation/json-body.ts
+ * readBodyBytes does the same for a web stream): over `maxBytes` refused, the rest of the body then read and
+ * dropped so that the answer still reaches the client.
+ */
+function readBody(req: IncomingMessage, maxBytes: number): Promise<string> {
+  const declared = Number(req.headers["content-length"])
+  if (Number.isFinite(declared) && declared > maxBytes) return Promise.reject(new BodyTooLargeError(maxBytes))
+  return new Promise((resolve, reject) => {
+    const chunks: Buffer[] = []
+    let total = 0
+    const onData = (chunk: Buffer) => {
+      total += chunk.length
+      if (total > maxBytes) {
+        req.off("data", onData).off("end", onEnd)
+        req.resume()
+        reject(new BodyTooLargeError(maxBytes))
+      } else chunks.push(chunk)
+    }
+    const onEnd = () => resolve(Buffer.concat(chunks, total).toString("utf8"))
+    // A client gone before the end: "close" without "end" (after it, the promise is settled and this does nothing).
+    const onClose = () => reject(new Error("The request closed before its body ended."))
+    req.on("data", onData).on("end", onEnd).on("error", reject).on("close", onClose)
+  })
 }

@@ -13,47 +13,60 @@ import { uuidSchema } from "@/lib/validation/uuid"
 type Ctx<P> = { params: Promise<P> }
 type Handler<P> = (req: Request, ctx: Ctx<P>) => Promise<Response>
 
+/** An answer in the API's JSON shape, before it is a Response (the app's server writes it to node:http itself). */
+export interface JsonAnswer {
+  status: number
+  body: unknown
+  headers?: Record<string, string>
+}
+
 /**
  * Every route handler goes through here: the Origin check for writes, AppError -> its status and the
- * API's error shape, and anything unexpected -> a generic 500 logged with a request id.
+ * API's error shape, and anything unexpected -> a generic 500 logged with a request id (errorAnswer).
  */
 export function route<P = Record<string, string>>(handler: Handler<P>): Handler<P> {
   return async (req, ctx) => {
     try {
-      assertSameOrigin(req)
+      assertSameOrigin(req.method, req.headers.get("origin"))
       return await handler(req, ctx)
     } catch (error) {
-      if (error instanceof AppError) {
-        return Response.json(error.toBody(), { status: error.status, headers: error.headers })
-      }
-      if (isNextControlFlow(error)) throw error
-      if (isDatabaseUnavailable(error)) {
-        console.error(
-          `[straightaway] ${req.method} ${new URL(req.url).pathname}: the database is unavailable`,
-          (error as Error).message,
-        )
-        return Response.json(
-          {
-            error: {
-              code: "service_unavailable",
-              message: "The database is not answering right now; try again shortly.",
-            },
-          },
-          { status: 503, headers: { "Retry-After": String(DATABASE_RETRY_AFTER_SECONDS) } },
-        )
-      }
-      if (isUniqueViolation(error)) {
-        // Two requests made the same thing at once and the database kept one: the other is a conflict, not a bug.
-        const { message, fields } = uniqueViolationAnswer(error)
-        return Response.json({ error: { code: "conflict", message, ...(fields ? { fields } : {}) } }, { status: 409 })
-      }
-      const requestId = randomUUID()
-      console.error(`[straightaway] request ${requestId} ${req.method} ${new URL(req.url).pathname} failed`, error)
-      return Response.json(
-        { error: { code: "internal_error", message: `Something went wrong on our side (request ${requestId}).` } },
-        { status: 500 },
-      )
+      const answer = errorAnswer(error, req.method, req.url)
+      return Response.json(answer.body, { status: answer.status, headers: answer.headers })
     }
+  }
+}
+
+/**
+ * What route() answers for an error a handler threw: an AppError in its status and the error shape, the database
+ * down a 503, a unique violation a 409, anything else a 500 logged with a request id. Next's own control flow
+ * (redirect(), notFound()) is thrown on.
+ */
+export function errorAnswer(error: unknown, method: string, url: string): JsonAnswer {
+  if (error instanceof AppError) return { status: error.status, body: error.toBody(), headers: error.headers }
+  if (isNextControlFlow(error)) throw error
+  if (isDatabaseUnavailable(error)) {
+    console.error(
+      `[straightaway] ${method} ${new URL(url).pathname}: the database is unavailable`,
+      (error as Error).message,
+    )
+    return {
+      status: 503,
+      body: {
+        error: { code: "service_unavailable", message: "The database is not answering right now; try again shortly." },
+      },
+      headers: { "Retry-After": String(DATABASE_RETRY_AFTER_SECONDS) },
+    }
+  }
+  if (isUniqueViolation(error)) {
+    // Two requests made the same thing at once and the database kept one: the other is a conflict, not a bug.
+    const { message, fields } = uniqueViolationAnswer(error)
+    return { status: 409, body: { error: { code: "conflict", message, ...(fields ? { fields } : {}) } } }
+  }
+  const requestId = randomUUID()
+  console.error(`[straightaway] request ${requestId} ${method} ${new URL(url).pathname} failed`, error)
+  return {
+    status: 500,
+    body: { error: { code: "internal_error", message: `Something went wrong on our side (request ${requestId}).` } },
   }
 }
 
@@ -80,9 +93,8 @@ const DATABASE_RETRY_AFTER_SECONDS = 5
 const SAFE_METHODS = new Set(["GET", "HEAD", "OPTIONS"])
 
 /** Writes from a browser must come from the app's own public address (APP_URL); proxy headers are not consulted. */
-function assertSameOrigin(req: Request) {
-  if (SAFE_METHODS.has(req.method)) return
-  const origin = req.headers.get("origin")
+export function assertSameOrigin(method: string, origin: string | null) {
+  if (SAFE_METHODS.has(method)) return
   if (!origin) return // not a browser form or fetch across sites (curl, integrations with a cookie they hold)
   let sent: string
   try {
@@ -93,7 +105,7 @@ function assertSameOrigin(req: Request) {
   if (sent !== new URL(env().APP_URL).origin) throw new AppError("forbidden", "Requests from other sites are refused.")
 }
 
-const MAX_JSON_BYTES = 8 * 1024 * 1024
+export const MAX_JSON_BYTES = 8 * 1024 * 1024
 
 /** Reads a JSON body and validates it; malformed JSON and schema failures are 400s naming the fields. */
 export async function parseJson<S extends z.ZodType>(
@@ -115,12 +127,17 @@ export async function readJson(req: Request, maxBytes = MAX_JSON_BYTES, emptyAs?
  * over `maxBytes` a 413. For routes that look at the text before parsing it.
  */
 export async function readRequestText(req: Request, maxBytes = MAX_JSON_BYTES): Promise<string> {
+  const declared = req.headers.get("content-length")
+  return bodyTextAnswering(() => readBodyText(req.body, maxBytes, declared === null ? undefined : Number(declared)))
+}
+
+/** A body's text as `read` gives it, its failures as the API answers them: too large a 413, unreadable a 400. */
+export async function bodyTextAnswering(read: () => Promise<string>): Promise<string> {
   try {
-    const declared = req.headers.get("content-length")
-    return await readBodyText(req.body, maxBytes, declared === null ? undefined : Number(declared))
+    return await read()
   } catch (error) {
     if (error instanceof BodyTooLargeError)
-      throw new AppError("too_large", `The body is over ${Math.round(maxBytes / 1024 / 1024)} MB.`)
+      throw new AppError("too_large", `The body is over ${Math.round(error.maxBytes / 1024 / 1024)} MB.`)
     throw new AppError("invalid_request", "The request body could not be read.")
   }
 }

@@ -92,12 +92,11 @@ export async function addSampleBatch(
  */
 export async function lookUpNamedBatch(
   sessionToken: string | null,
-  params: Promise<{ driveId: string }>,
+  driveId: string,
   headerBatchId: string | null,
 ): Promise<{ user: SessionUser | null; found: DriveAndBatch | undefined } | undefined> {
   const named = batchIdFromHeader(headerBatchId)
   if (!sessionToken || named === null) return undefined
-  const { driveId } = await params
   if (!uuidSchema.safeParse(driveId).success) return undefined
   const row = await findSessionDriveAndBatch(getPool(), sessionIdFromToken(sessionToken), driveId, named)
   if (!row) return undefined

@@ -231,6 +231,58 @@ describe("POST /api/drives/:id/samples named in x-batch-id (the app's server ans
     }
   })
 
+  it("refuses a body over the API's 8 MB limit 413, declared or chunked, answers the client and stores nothing", async () => {
+    const drive = await startDrive(team.tech)
+    // Over app/_server/route.ts MAX_JSON_BYTES; the batch is new, so its body is read (and counted) after the lookup.
+    const over = Buffer.alloc(8 * 1024 * 1024 + 1, 0x20)
+    const send = (batchId: string, declared: boolean) =>
+      new Promise<{ status: number; body: any }>((resolve, reject) => {
+        const req = http.request(
+          `${testEnv().baseUrl}/api/drives/${drive.id}/samples`,
+          {
+            method: "POST",
+            headers: {
+              ...namedBatchHeaders(batchId),
+              ...(declared ? { "content-length": over.length } : {}),
+              cookie: team.tech.cookie!,
+              "x-forwarded-for": team.tech.address,
+            },
+          },
+          (res) => {
+            let data = ""
+            res.on("data", (chunk) => (data += chunk))
+            res.on("end", () => resolve({ status: res.statusCode!, body: JSON.parse(data) }))
+          },
+        )
+        req.on("error", reject)
+        // Without a Content-Length, node:http sends the pieces chunked: the server counts them as they come.
+        for (let at = 0; at < over.length; at += 1024 * 1024) req.write(over.subarray(at, at + 1024 * 1024))
+        req.end()
+      })
+    for (const declared of [true, false]) {
+      const res = await send(declared ? "declared" : "chunked", declared)
+      expect([declared, res.status, res.body.error.code]).toEqual([declared, 413, "too_large"])
+    }
+    expect(await storedSamples(drive.id)).toHaveLength(0)
+  })
+
+  it("refuses a batch sent from another site 403, as every write is", async () => {
+    const drive = await startDrive(team.tech)
+    const res = await fetch(`${testEnv().baseUrl}/api/drives/${drive.id}/samples`, {
+      method: "POST",
+      headers: {
+        ...namedBatchHeaders("elsewhere"),
+        origin: "https://elsewhere.example",
+        cookie: team.tech.cookie!,
+        "x-forwarded-for": team.tech.address,
+      },
+      body: JSON.stringify({ batchId: "elsewhere", samples: sampleRun(3) }),
+    })
+    expect(res.status).toBe(403)
+    expect((await res.json()).error.code).toBe("forbidden")
+    expect(await storedSamples(drive.id)).toHaveLength(0)
+  })
+
   it("answers a signed-out cookie 401 in the error shape and clears it, as Next does", async () => {
     const client = await signedIn(team.shop.tech)
     const drive = await startDrive(client)
