@@ -91,8 +91,10 @@ function readBody(req: IncomingMessage, maxBytes: number): Promise<string> {
       } else chunks.push(chunk)
     }
     const onEnd = () => resolve(Buffer.concat(chunks, total).toString("utf8"))
-    // A client gone before the end: "close" without "end" (after it, the promise is settled and this does nothing).
-    const onClose = () => reject(new Error("The request closed before its body ended."))
+    // A client gone before the end: "close" without "end".
+    const onClose = () => {
+      if (!req.complete) reject(new Error("The request closed before its body ended."))
+    }
     req.on("data", onData).on("end", onEnd).on("error", reject).on("close", onClose)
   })
 }
