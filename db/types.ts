@@ -440,6 +440,8 @@ export type JobTask = Selectable<JobTaskTable>
 export type Checklist = Selectable<ChecklistTable>
 export type Attachment = Selectable<AttachmentTable>
 export type Drive = Selectable<DriveTable>
+/** What the access rules read of a drive (app/_server/services/drives.ts accessFacts), with its internal id. */
+export type DriveAccess = Pick<Drive, "id" | "shop_id" | "driver_id" | "co_driver_id" | "status" | "review_status">
 export type NewDrive = Insertable<DriveTable>
 export type SampleRow = Selectable<SampleTable>
 export type MarkRow = Selectable<MarkTable>

@@ -73,14 +73,12 @@ export async function insertSamplesNotifying(
   samples: readonly Sample[],
 ): Promise<SamplesInserted> {
   if (samples.length === 0) return { accepted: 0, ts: [] }
-  const { t, lat, lon, speed, accuracy } = encodeSampleColumns(samples)
   const result = await sql<{ n: number; ts: number[] }>`
     with ins as (
       insert into sample (drive_key, t, lat, lon, speed, accuracy)
       select d.sample_key, u.t, u.lat, u.lon, u.speed, u.accuracy
       from (select sample_key from drive where id = ${driveId}::uuid and shop_id = ${shopId}::uuid) d,
-        unnest(${t}::bigint[], ${lat}::int4[], ${lon}::int4[], ${speed}::int4[], ${accuracy}::int4[])
-        with ordinality as u(t, lat, lon, speed, accuracy, ord)
+        ${unnestSamples(samples)}
       order by u.ord
       on conflict (drive_key, t) do nothing
       returning t, lat, lon, speed, accuracy
@@ -93,6 +91,27 @@ export async function insertSamplesNotifying(
     from agg where n > 0`.execute(trx)
   const row = result.rows[0]
   return row ? { accepted: row.n, ts: row.ts.map(Number) } : { accepted: 0, ts: [] }
+}
+
+/**
+ * A batch's samples as the rows `u(t, lat, lon, speed, accuracy, ord)` for an insert, in the order sent: one array
+ * parameter per column in the stored units (lib/drive-file/stored.ts encodeSampleColumns). The arrays go as
+ * PostgreSQL array literals written here; pg's own array encoder would quote and escape every number.
+ */
+export function unnestSamples(samples: readonly Sample[]) {
+  const c = encodeSampleColumns(samples)
+  return sql`unnest(${arrayLiteral(c.t)}::bigint[], ${arrayLiteral(c.lat)}::int4[], ${arrayLiteral(c.lon)}::int4[],
+    ${arrayLiteral(c.speed)}::int4[], ${arrayLiteral(c.accuracy)}::int4[]) with ordinality as u(t, lat, lon, speed, accuracy, ord)`
+}
+
+/** `{1,2,NULL}`: integers only (no quoting needed), null as NULL. */
+function arrayLiteral(values: ReadonlyArray<number | null>): string {
+  let text = "{"
+  for (let i = 0; i < values.length; i++) {
+    const v = values[i]
+    text += (i === 0 ? "" : ",") + (v === null ? "NULL" : String(v))
+  }
+  return text + "}"
 }
 
 const eventNotice = (driveId: string, shopId: string) => {

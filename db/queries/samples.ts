@@ -3,11 +3,11 @@ import type pg from "pg"
 import type { SessionUser } from "@/lib/auth/lucia"
 import type { Role } from "@/lib/auth/roles"
 import type { Sample } from "@/lib/drive-file/schema"
-import { decodeSample, encodeSampleColumns } from "@/lib/drive-file/stored"
+import { decodeSample } from "@/lib/drive-file/stored"
 import type { Db } from "../client"
 import { selectInShop } from "./shop-scope"
-import type { Drive } from "../types"
-import { insertSamplesNotifying, NOTIFY_MAX_SAMPLES, samplesNotice } from "./drive-events"
+import type { DriveAccess } from "../types"
+import { insertSamplesNotifying, NOTIFY_MAX_SAMPLES, samplesNotice, unnestSamples } from "./drive-events"
 
 export interface BatchResult {
   accepted: number
@@ -64,16 +64,22 @@ export async function insertSamples(
   samples: readonly Sample[],
 ): Promise<number> {
   if (samples.length === 0) return 0
-  const { t, lat, lon, speed, accuracy } = encodeSampleColumns(samples)
   const result = await sql`
     insert into sample (drive_key, t, lat, lon, speed, accuracy)
     select d.sample_key, u.t, u.lat, u.lon, u.speed, u.accuracy
-    from (${driveKeyQuery(driveId, shopId)}) d,
-      unnest(${t}::bigint[], ${lat}::int4[], ${lon}::int4[], ${speed}::int4[], ${accuracy}::int4[])
-      with ordinality as u(t, lat, lon, speed, accuracy, ord)
+    from (${driveKeyQuery(driveId, shopId)}) d, ${unnestSamples(samples)}
     order by u.ord
     on conflict (drive_key, t) do nothing`.execute(trx)
   return Number(result.numAffectedRows ?? 0)
+}
+
+/**
+ * The t of each sample stored: all of them when none was a duplicate (the usual batch, for which the statement sends
+ * no list back), else the list the statement returned.
+ */
+function storedTs(row: { accepted: number; ts: Array<number | string> | null }, samples: readonly Sample[]) {
+  if (row.ts) return row.ts.map(Number)
+  return row.accepted === samples.length ? samples.map((s) => s.t) : []
 }
 
 /** The drive's key in `sample`, found by its id and shop: every read and write of samples goes through it. */
@@ -124,7 +130,8 @@ async function storedClaim(db: Db, driveId: string, shopId: string, batchId: str
   return { accepted: seen.accepted, duplicates: seen.duplicates, replayed: true, storedTs: [] }
 }
 
-export type DriveAndBatch = { drive: Drive; claim: BatchResult | null }
+/** The drive as the sample path needs it (who may record, whether it is open), not its whole row. */
+export type DriveAndBatch = { drive: DriveAccess; claim: BatchResult | null }
 
 /**
  * The drive and, when `batchId` was stored before, that batch's claim: one statement, so a replayed batch is
@@ -143,8 +150,16 @@ export async function findDriveAndBatch(
         .onRef("b.shop_id", "=", "drive.shop_id")
         .on("b.batch_id", "=", batchId ?? ""),
     )
-    .selectAll("drive")
-    .select(["b.accepted as batch_accepted", "b.duplicates as batch_duplicates"])
+    .select([
+      "drive.id",
+      "drive.shop_id",
+      "drive.driver_id",
+      "drive.co_driver_id",
+      "drive.status",
+      "drive.review_status",
+      "b.accepted as batch_accepted",
+      "b.duplicates as batch_duplicates",
+    ])
     .where("drive.id", "=", at.driveId)
     .where("drive.shop_id", "=", at.shopId)
     .executeTakeFirst()
@@ -156,7 +171,7 @@ function driveAndClaim(
     batch_accepted,
     batch_duplicates,
     ...drive
-  }: Drive & { batch_accepted: number | null; batch_duplicates: number | null },
+  }: DriveAccess & { batch_accepted: number | null; batch_duplicates: number | null },
   batchId: string | null,
 ): DriveAndBatch {
   const claim: BatchResult | null =
@@ -217,18 +232,19 @@ export async function findSessionDriveAndBatch(
   }
 }
 
-// `drive.*` last: the session's and user's columns carry prefixes no drive column has.
+// The drive's columns last, unprefixed (DriveAccess): the session's and user's carry prefixes no drive column has.
 const SESSION_DRIVE_AND_BATCH = `
   select s.user_id as session_user_id, s.expires_at as session_expires_at,
     u.email as user_email, u.name as user_name, u.role as user_role, u.shop_id as user_shop_id,
-    u.disabled as user_disabled, b.accepted as batch_accepted, b.duplicates as batch_duplicates, d.*
+    u.disabled as user_disabled, b.accepted as batch_accepted, b.duplicates as batch_duplicates,
+    d.id, d.shop_id, d.driver_id, d.co_driver_id, d.status, d.review_status
   from user_session s
   join app_user u on u.id = s.user_id
   left join drive d on d.shop_id = u.shop_id and d.public_id = $2::uuid
   left join sample_batch b on b.drive_id = d.id and b.shop_id = d.shop_id and b.batch_id = $3
   where s.id = $1`
 
-type SessionDriveRow = Drive & {
+type SessionDriveRow = DriveAccess & {
   session_user_id: string
   session_expires_at: Date
   user_email: string
@@ -257,7 +273,6 @@ export async function ingestSampleBatch(
   batchId: string,
   samples: readonly Sample[],
 ): Promise<BatchResult | null> {
-  const c = encodeSampleColumns(samples)
   try {
     const { rows } = await sql<{ accepted: number; duplicates: number; ts: Array<number | string> | null }>`
       with d as (
@@ -268,14 +283,13 @@ export async function ingestSampleBatch(
       ins as (
         insert into sample (drive_key, t, lat, lon, speed, accuracy)
         select d.sample_key, u.t, u.lat, u.lon, u.speed, u.accuracy
-        from d, unnest(${c.t}::bigint[], ${c.lat}::int4[], ${c.lon}::int4[], ${c.speed}::int4[], ${c.accuracy}::int4[])
-          with ordinality as u(t, lat, lon, speed, accuracy, ord)
+        from d, ${unnestSamples(samples)}
         order by u.ord
         on conflict (drive_key, t) do nothing
         returning t, lat, lon, speed, accuracy
       ),
       n as (
-        select count(*)::int as accepted, array_agg(t) as ts,
+        select count(*)::int as accepted, case when count(*) < ${samples.length}::int then array_agg(t) end as ts,
           case when count(*) <= ${NOTIFY_MAX_SAMPLES} then json_agg(json_build_array(t, lat / 1e7::float8, lon / 1e7::float8, speed / 1000::float8, accuracy / 1000::float8)) end as rows
         from ins
       ),
@@ -289,7 +303,7 @@ export async function ingestSampleBatch(
       from b, n`.execute(db)
     const row = rows[0]
     return row
-      ? { accepted: row.accepted, duplicates: row.duplicates, replayed: false, storedTs: (row.ts ?? []).map(Number) }
+      ? { accepted: row.accepted, duplicates: row.duplicates, replayed: false, storedTs: storedTs(row, samples) }
       : null
   } catch (error) {
     const e = error as { code?: string; constraint?: string }

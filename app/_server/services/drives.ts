@@ -16,7 +16,7 @@ import {
 } from "@/db/queries/drives"
 import { updateRoadModel } from "@/db/queries/roads"
 import { upsertScore } from "@/db/queries/scores"
-import type { Drive, RevisionCause } from "@/db/types"
+import type { Drive, DriveAccess, RevisionCause } from "@/db/types"
 import { noticeVerdictChange, sealRevision, type FollowUp } from "@/app/_server/revisions"
 import {
   canFinishDrive,
@@ -32,7 +32,7 @@ import { internalDriveId } from "@/lib/drive-id"
 import { AppError, notFound } from "@/lib/errors"
 import { scoreDrive, type Score } from "@/lib/scoring"
 
-export function accessFacts(drive: Drive): DriveAccessFacts {
+export function accessFacts(drive: DriveAccess): DriveAccessFacts {
   return {
     shopId: drive.shop_id,
     driverId: drive.driver_id,
@@ -66,7 +66,7 @@ export async function lockDriveFor(
 }
 
 /** loadDriveFor's rules for a drive read some other way (undefined: not in the actor's shop). */
-export function assertDriveAccess<D extends Drive>(drive: D | undefined, actor: DriveActor, need: DriveNeed): D {
+export function assertDriveAccess<D extends DriveAccess>(drive: D | undefined, actor: DriveActor, need: DriveNeed): D {
   if (!drive || !canSeeDrive(actor, accessFacts(drive))) notFound("That drive")
   if (need === "record" && !canRecordOnDrive(actor, accessFacts(drive))) {
     throw new AppError("forbidden", "Only the drive's driver, its co-driver or a shop lead can record on it.")
@@ -116,7 +116,7 @@ export async function driveForRoute<P extends { driveId: string } = { driveId: s
 }
 
 /** Samples and marks are taken until a lead has reviewed the drive (see recordingIsOpen). */
-export function assertRecordingOpen(drive: Drive): void {
+export function assertRecordingOpen(drive: Pick<DriveAccess, "review_status">): void {
   if (!recordingIsOpen({ reviewStatus: drive.review_status })) {
     throw new AppError("conflict", "This drive has been reviewed; its record is closed.")
   }
