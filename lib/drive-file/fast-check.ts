@@ -10,7 +10,7 @@ import { DRIVE_FORMAT, markSchema, profileSchema, type DriveFile, type Sample } 
 
 const marksSchema = z.array(markSchema)
 
-function isPlainObject(x: unknown): x is Record<string, unknown> {
+export function isPlainObject(x: unknown): x is Record<string, unknown> {
   return typeof x === "object" && x !== null && !Array.isArray(x)
 }
 
@@ -39,18 +39,11 @@ function checkSample(s: unknown): Sample | null {
   return out
 }
 
-export function fastParseDriveFile(input: unknown): DriveFile | null {
-  if (!isPlainObject(input) || input.format !== DRIVE_FORMAT) return null
-  const { samples, marks, profile } = input
-  if (!Array.isArray(samples) || !Array.isArray(marks)) return null
-  let profileOut: DriveFile["profile"]
-  if (profile !== undefined) {
-    const p = profileSchema.safeParse(profile)
-    if (!p.success) return null
-    profileOut = p.data
-  } else if ("profile" in input) return null
-  const m = marksSchema.safeParse(marks)
-  if (!m.success) return null
+/**
+ * An array of samples as z.array(sampleSchema) outputs it, or null (then zod decides, and names the problem).
+ * The array itself is reused when every sample is.
+ */
+export function fastCheckSamples(samples: unknown[]): Sample[] | null {
   const n = samples.length
   let out: Sample[] | null = null
   for (let i = 0; i < n; i++) {
@@ -63,7 +56,24 @@ export function fastParseDriveFile(input: unknown): DriveFile | null {
     if (out) out.push(checked)
   }
   if (!out && !(Object.getPrototypeOf(samples) === Array.prototype)) out = [...(samples as Sample[])]
-  const file: DriveFile = { format: DRIVE_FORMAT, samples: out ?? (samples as Sample[]), marks: m.data }
+  return out ?? (samples as Sample[])
+}
+
+export function fastParseDriveFile(input: unknown): DriveFile | null {
+  if (!isPlainObject(input) || input.format !== DRIVE_FORMAT) return null
+  const { samples, marks, profile } = input
+  if (!Array.isArray(samples) || !Array.isArray(marks)) return null
+  let profileOut: DriveFile["profile"]
+  if (profile !== undefined) {
+    const p = profileSchema.safeParse(profile)
+    if (!p.success) return null
+    profileOut = p.data
+  } else if ("profile" in input) return null
+  const m = marksSchema.safeParse(marks)
+  if (!m.success) return null
+  const checked = fastCheckSamples(samples)
+  if (!checked) return null
+  const file: DriveFile = { format: DRIVE_FORMAT, samples: checked, marks: m.data }
   if (profile !== undefined) file.profile = profileOut
   return file
 }

@@ -1,5 +1,6 @@
 import { z } from "zod"
 import { DRIVE_KINDS, roadTestChecksSchema } from "@/lib/drive-file/road-test"
+import { fastCheckSamples, isPlainObject } from "@/lib/drive-file/fast-check"
 import { apiMarkSchema, profileSchema, sampleSchema } from "@/lib/drive-file/schema"
 import { isTimestampText } from "@/lib/validation/storable"
 import { isUuid } from "@/lib/validation/uuid"
@@ -37,6 +38,22 @@ export const sampleBatchSchema = z.object({
     .array(sampleSchema, { error: "must be an array" })
     .max(MAX_SAMPLES_PER_BATCH, { error: `must hold at most ${MAX_SAMPLES_PER_BATCH} samples` }),
 })
+
+export type SampleBatch = z.output<typeof sampleBatchSchema>
+
+/**
+ * A sample batch as sampleBatchSchema outputs it, checked in one plain loop (lib/drive-file/fast-check.ts), or null
+ * for anything it does not say yes to: then the schema decides, and names the problem in its usual words. The recorder
+ * sends one every few seconds a phone; zod's object parse of each of its samples was most of its validation's cost.
+ */
+export function fastParseSampleBatch(input: unknown): SampleBatch | null {
+  if (!isPlainObject(input)) return null
+  const { batchId, samples } = input
+  if (typeof batchId !== "string" || batchId.length < 1 || batchId.length > 100) return null
+  if (!Array.isArray(samples) || samples.length > MAX_SAMPLES_PER_BATCH) return null
+  const checked = fastCheckSamples(samples)
+  return checked && { batchId, samples: checked }
+}
 
 export const markBatchSchema = z.object({
   marks: z

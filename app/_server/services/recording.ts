@@ -27,7 +27,7 @@ import { sessionIdFromToken, sessionIsSettled, type SessionUser } from "@/lib/au
 import type { ApiMark } from "@/lib/drive-file/schema"
 import { AppError, validationFailed } from "@/lib/errors"
 import { BATCH_ID_HEADER } from "@/lib/recorder/batching"
-import { sampleBatchSchema } from "@/lib/validation/drive"
+import { fastParseSampleBatch, sampleBatchSchema } from "@/lib/validation/drive"
 import { uuidSchema } from "@/lib/validation/uuid"
 import { unstorableTextProblem } from "@/lib/validation/storable"
 
@@ -62,7 +62,8 @@ export async function addSampleBatch(
   assertRecordingOpen(drive)
   if (found!.claim) return withoutStoredTs(found!.claim)
 
-  const { batchId, samples } = parseWith(sampleBatchSchema, jsonFromText(text ?? (await readText())))
+  const body = jsonFromText(text ?? (await readText()))
+  const { batchId, samples } = fastParseSampleBatch(body) ?? parseWith(sampleBatchSchema, body)
   if (named !== null && batchId !== named) {
     throw new AppError("validation_failed", `batchId: is not the ${BATCH_ID_HEADER} header's batch id`, {
       batchId: `is not the ${BATCH_ID_HEADER} header's batch id`,

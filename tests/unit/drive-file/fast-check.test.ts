@@ -3,6 +3,7 @@ import { describe, expect, it } from "vitest"
 import { driveFileSchema, parseDriveFile } from "@/lib/drive-file"
 import { fastParseDriveFile } from "@/lib/drive-file/fast-check"
 import { generateDrive } from "@/lib/tracks"
+import { fastParseSampleBatch, sampleBatchSchema } from "@/lib/validation/drive"
 
 const base = generateDrive({ seed: 5, hz: 1, minutes: 8, pattern: "short" })
 
@@ -66,5 +67,55 @@ describe("fastParseDriveFile", () => {
     if (!r.ok) expect(r.path).toBe(`marks[${base.marks.length}].gapFt`)
     expect(fastParseDriveFile({ ...base, format: "other" })).toBeNull()
     expect(fastParseDriveFile({ ...base, profile: { minSpeedMph: -1 } })).toBeNull()
+  })
+})
+
+describe("fastParseSampleBatch", () => {
+  const batch = { batchId: "b-1", samples: base.samples.slice(0, 50) }
+
+  it("accepts the recorder's batch and returns what the schema returns (unknown keys dropped alike)", () => {
+    const sent = JSON.parse(
+      JSON.stringify({ ...batch, sentAt: 1, samples: batch.samples.map((s) => ({ ...s, heading: 90 })) }),
+    )
+    const fast = fastParseSampleBatch(sent)
+    expect(fast).not.toBeNull()
+    expect(fast).toEqual(sampleBatchSchema.parse(sent))
+  })
+
+  it("never accepts what the schema refuses, and when it accepts, gives the schema's output", () => {
+    const batchId = fc.oneof(
+      fc.string({ maxLength: 120 }),
+      fc.constantFrom("", "x".repeat(100), "x".repeat(101), null, 7, undefined),
+    )
+    fc.assert(
+      fc.property(
+        fc.nat(batch.samples.length - 1),
+        fieldName,
+        value,
+        fc.boolean(),
+        batchId,
+        fc.boolean(),
+        (i, field, v, drop, id, notArray) => {
+          const samples = batch.samples.map((s) => ({ ...s })) as Record<string, unknown>[]
+          if (drop) delete samples[i]![field]
+          else samples[i]![field] = v
+          const sent = { batchId: id, samples: notArray ? { 0: samples[0] } : samples }
+          const zod = sampleBatchSchema.safeParse(sent)
+          const fast = fastParseSampleBatch(sent)
+          if (!zod.success) expect(fast).toBeNull()
+          if (fast) expect(fast).toEqual(zod.data)
+        },
+      ),
+      { numRuns: 400 },
+    )
+  }, 60_000)
+
+  it("leaves too many samples and a body that is not an object to the schema", () => {
+    // 10,000 samples a POST at most (lib/validation/drive.ts); the schema names it.
+    const many = { batchId: "many", samples: Array.from({ length: 10_001 }, (_, i) => ({ t: i, lat: 0, lon: 0 })) }
+    expect(sampleBatchSchema.safeParse(many).success).toBe(false)
+    expect(fastParseSampleBatch(many)).toBeNull()
+    expect(fastParseSampleBatch([batch])).toBeNull()
+    expect(fastParseSampleBatch(null)).toBeNull()
   })
 })
