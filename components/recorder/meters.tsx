@@ -1,6 +1,5 @@
 "use client"
-import { CloudOff, Gauge, Hourglass, Link2, Radio, Timer, TriangleAlert } from "lucide-react"
-import type { ReactNode } from "react"
+import { CloudOff, Gauge, Hourglass, Link2, Radio, Timer, TriangleAlert, type LucideIcon } from "lucide-react"
 import { formatDistance, formatLengthRangeFt, formatSpeed, speedUnit } from "@/lib/format"
 import { speedMeterWords } from "@/lib/recorder/profile-words"
 import { mpsToMph } from "@/lib/units"
@@ -26,39 +25,47 @@ const LEARN_LOOK = {
   waiting: { box: "border-asphalt-700", icon: "size-5 shrink-0" },
 }
 
+/** The meters after the learn clocks, in their order: their words and icons (what each reads is worked out live). */
+const DRIVE_METERS = [
+  { name: "elapsed", label: "Elapsed", icon: Hourglass },
+  { name: "left", label: "Predicted left", icon: Hourglass },
+  { name: "harsh", label: "Harsh events", icon: TriangleAlert },
+] as const
+
+const TONES = {
+  plain: "border-asphalt-700",
+  signal: "border-signal-400",
+  teal: "border-teal-400",
+  stop: "border-stop-400",
+}
+
+/** What a meter reads now; `raw` is the unrounded figure behind `value` (data-value, for the tests). */
+interface Reading {
+  value: string
+  unit: string
+  detail?: string
+  tone?: keyof typeof TONES
+  raw?: number | null
+}
+
 function Meter({
   label,
-  icon,
+  icon: Icon,
   value,
   unit,
   detail,
   tone = "plain",
   testId,
   raw,
-}: {
-  label: string
-  icon: ReactNode
-  value: string
-  unit: string
-  detail?: string
-  tone?: "plain" | "signal" | "teal" | "stop"
-  testId: string
-  raw?: number | null
-}) {
-  const tones = {
-    plain: "border-asphalt-700",
-    signal: "border-signal-400",
-    teal: "border-teal-400",
-    stop: "border-stop-400",
-  }
+}: Reading & { label: string; icon: LucideIcon; testId: string }) {
   return (
     <div
-      className={cx("rounded-xl border-2 bg-asphalt-800 p-3", tones[tone])}
+      className={cx("rounded-xl border-2 bg-asphalt-800 p-3", TONES[tone])}
       data-testid={testId}
       data-value={raw ?? ""}
     >
       <div className="flex items-center gap-1.5 text-sm font-semibold text-graphite-300">
-        {icon}
+        <Icon aria-hidden className="size-4" />
         {label}
       </div>
       <div className="tabular text-5xl leading-tight font-bold text-white">
@@ -82,22 +89,50 @@ export function Meters() {
   const mph = speedMps === null ? null : mpsToMph(speedMps)
   // The band decision stays in mph against the profile's stored mph; only the words are in the shop's units.
   const inBand = mph !== null && mph >= p.minSpeedMph && (p.maxSpeedMph === null || mph <= p.maxSpeedMph)
-  const harsh = (score?.harshEvents.accel ?? 0) + (score?.harshEvents.decel ?? 0)
   const gap = `, gap ${formatLengthRangeFt(p.leadGapFt.min, p.leadGapFt.max, units)}`
+  const timedOut = elapsedS >= p.maxDriveMinutes * 60
+  const minutesLeft = left?.minutesLeft ?? null
+  const accel = score?.harshEvents.accel ?? 0
+  const decel = score?.harshEvents.decel ?? 0
+  const harsh = accel + decel
+  const readings: Record<(typeof DRIVE_METERS)[number]["name"], Reading> = {
+    elapsed: {
+      raw: elapsedS,
+      value: minutes(elapsedS),
+      unit: "min",
+      detail: timedOut
+        ? `Past the ${p.maxDriveMinutes} min limit: the drive has timed out`
+        : `limit ${p.maxDriveMinutes} min`,
+      tone: timedOut ? "stop" : "plain",
+    },
+    left: {
+      raw: minutesLeft,
+      value: minutesLeft === null ? "—" : minutesLeft.toFixed(0),
+      unit: "min",
+      detail: minutesLeft === null ? "after some qualifying time" : "at the rate so far",
+    },
+    harsh: {
+      raw: harsh,
+      value: String(harsh),
+      unit: harsh === 1 ? "event" : "events",
+      detail: `${accel} speeding up · ${decel} braking`,
+      tone: harsh > 0 ? "signal" : "plain",
+    },
+  }
   return (
     <div className="grid grid-cols-2 gap-2">
       <Meter
         testId="meter-speed"
         raw={speedMps}
         label={inBand ? "Speed: qualifying" : "Speed: paused"}
-        icon={<Gauge aria-hidden className="size-4" />}
+        icon={Gauge}
         value={speedMps === null ? "—" : formatSpeed(speedMps, units).split(" ")[0]!}
         unit={speedUnit(units)}
         detail={keepUnitsWithNumbers(speedMeterWords(p, mph, units))}
         tone={inBand ? "signal" : "plain"}
       />
       {CLOCKS.map(({ name, label, needed }) => {
-        const { icon: Icon, done } = CLOCK_LOOK[name]
+        const { icon, done } = CLOCK_LOOK[name]
         const before = score?.[`${name}SecondsBeforeClear`] ?? 0
         return (
           <Meter
@@ -105,7 +140,7 @@ export function Meters() {
             testId={`meter-${name}`}
             raw={score?.[`${name}Seconds`] ?? 0}
             label={label}
-            icon={<Icon aria-hidden className="size-4" />}
+            icon={icon}
             value={minutes(before)}
             unit="min"
             detail={keepUnitsWithNumbers(`of ${p[needed]} min${name === "following" ? gap : ""}`)}
@@ -113,39 +148,9 @@ export function Meters() {
           />
         )
       })}
-      <Meter
-        testId="meter-elapsed"
-        raw={elapsedS}
-        label="Elapsed"
-        icon={<Hourglass aria-hidden className="size-4" />}
-        value={minutes(elapsedS)}
-        unit="min"
-        detail={
-          elapsedS >= p.maxDriveMinutes * 60
-            ? `Past the ${p.maxDriveMinutes} min limit: the drive has timed out`
-            : `limit ${p.maxDriveMinutes} min`
-        }
-        tone={elapsedS >= p.maxDriveMinutes * 60 ? "stop" : "plain"}
-      />
-      <Meter
-        testId="meter-left"
-        raw={left?.minutesLeft ?? null}
-        label="Predicted left"
-        icon={<Hourglass aria-hidden className="size-4" />}
-        value={left?.minutesLeft === null || left === null ? "—" : left.minutesLeft.toFixed(0)}
-        unit="min"
-        detail={left?.minutesLeft === null || left === null ? "after some qualifying time" : "at the rate so far"}
-      />
-      <Meter
-        testId="meter-harsh"
-        raw={harsh}
-        label="Harsh events"
-        icon={<TriangleAlert aria-hidden className="size-4" />}
-        value={String(harsh)}
-        unit={harsh === 1 ? "event" : "events"}
-        detail={`${score?.harshEvents.accel ?? 0} speeding up · ${score?.harshEvents.decel ?? 0} braking`}
-        tone={harsh > 0 ? "signal" : "plain"}
-      />
+      {DRIVE_METERS.map(({ name, label, icon }) => (
+        <Meter key={name} testId={`meter-${name}`} label={label} icon={icon} {...readings[name]} />
+      ))}
       <LearnState
         testId="meter-learn"
         cleared={cleared}

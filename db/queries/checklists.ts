@@ -1,12 +1,13 @@
 import { sql } from "kysely"
 import type { Db } from "../client"
+import { personName } from "./shop-scope"
 
 /** Checklists of the shop with the name of whoever saved each one. */
 function checklistQuery(db: Db, shopId: string) {
   return db
     .selectFrom("checklist as c")
-    .leftJoin("app_user as u", (j) => j.onRef("u.id", "=", "c.completed_by").on("u.shop_id", "=", shopId))
-    .select(["c.task_id", "c.data", "c.completed_by", "c.completed_at", "u.name as completed_by_name"])
+    .select(["c.task_id", "c.data", "c.completed_by", "c.completed_at"])
+    .select((eb) => personName(db, eb.ref("c.completed_by"), shopId).as("completed_by_name"))
     .where("c.shop_id", "=", shopId)
 }
 

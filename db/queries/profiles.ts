@@ -9,7 +9,7 @@ import {
 import { storedRoadTestChecks } from "@/lib/drive-file/road-test"
 import type { Db } from "../client"
 import type { Database } from "../types"
-import { selectInShop, updateInShop } from "./shop-scope"
+import { personName, selectInShop, updateInShop } from "./shop-scope"
 
 /** A profile at one version, settings resolved (every drive-file profile key filled). */
 export type ProfileVersionInfo = {
@@ -95,15 +95,8 @@ export async function listProfiles(db: Db, shopId: string, { includeArchived = t
 
 export function listProfileVersions(db: Db, profileId: string, shopId: string) {
   return selectInShop(db, "condition_profile_version as v", shopId)
-    .leftJoin("app_user as u", (j) => j.onRef("u.id", "=", "v.created_by").on("u.shop_id", "=", shopId))
-    .select([
-      "v.id",
-      "v.version",
-      "v.settings",
-      "v.road_test_checks",
-      "v.created_at as createdAt",
-      "u.name as createdByName",
-    ])
+    .select(["v.id", "v.version", "v.settings", "v.road_test_checks", "v.created_at as createdAt"])
+    .select((eb) => personName(db, eb.ref("v.created_by"), shopId).as("createdByName"))
     .where("v.profile_id", "=", profileId)
     .orderBy("v.version", "desc")
     .execute()

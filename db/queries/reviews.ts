@@ -2,7 +2,7 @@ import { sql } from "kysely"
 import type { TimeCursor } from "@/lib/validation/drive"
 import type { Db } from "../client"
 import { DRIVE_JOB_COLUMNS, selectDrivesWithJob } from "./drives"
-import { selectInShop, updateInShop } from "./shop-scope"
+import { personName, selectInShop, updateInShop } from "./shop-scope"
 import { cursorTimeSql, keysetPage } from "./paging"
 
 export const REVIEW_PAGE_SIZE = 50
@@ -84,8 +84,8 @@ export async function insertReviewDecision(trx: Db, input: ReviewDecisionInput) 
 /** The latest review of a drive with the reviewer's name. */
 export async function findLatestReview(db: Db, driveId: string, shopId: string) {
   return selectInShop(db, "review", shopId)
-    .leftJoin("app_user as u", (j) => j.onRef("u.id", "=", "review.reviewer_id").on("u.shop_id", "=", shopId))
-    .select(["review.decision", "review.note", "review.created_at", "u.name as reviewer_name"])
+    .select(["review.decision", "review.note", "review.created_at"])
+    .select((eb) => personName(db, eb.ref("review.reviewer_id"), shopId).as("reviewer_name"))
     .where("review.drive_id", "=", driveId)
     .orderBy("review.created_at", "desc")
     .executeTakeFirst()
@@ -133,8 +133,8 @@ export async function findDriveRecordHead(db: Db, driveId: string, shopId: strin
 /** Marks with the name of whoever logged each one, by time then arrival. */
 export async function listMarksWithLoggers(db: Db, driveId: string, shopId: string) {
   return selectInShop(db, "mark", shopId)
-    .leftJoin("app_user as u", (j) => j.onRef("u.id", "=", "mark.created_by").on("u.shop_id", "=", shopId))
-    .select(["mark.id", "mark.t", "mark.kind", "mark.gap_ft", "mark.text", "u.name as by_name"])
+    .select(["mark.id", "mark.t", "mark.kind", "mark.gap_ft", "mark.text"])
+    .select((eb) => personName(db, eb.ref("mark.created_by"), shopId).as("by_name"))
     .where("mark.drive_id", "=", driveId)
     .orderBy("mark.t")
     .orderBy("mark.created_at")

@@ -1,7 +1,7 @@
 import { sql } from "kysely"
 import type { Score } from "@/lib/scoring/types"
 import type { Db } from "../client"
-import { selectInShop } from "./shop-scope"
+import { personName, selectInShop } from "./shop-scope"
 import type { RevisionCause, ReviewDecision, Verdict } from "../types"
 
 export async function findLatestRevision(db: Db, driveId: string, shopId: string) {
@@ -47,7 +47,6 @@ export async function insertRevision(db: Db, r: NewRevision) {
 /** Every revision of the drive, newest first, with who caused it. */
 export async function listRevisions(db: Db, driveId: string, shopId: string) {
   return selectInShop(db, "score_revision as r", shopId)
-    .leftJoin("app_user as u", (j) => j.onRef("u.id", "=", "r.created_by").on("u.shop_id", "=", shopId))
     .select([
       "r.id",
       "r.revision",
@@ -58,8 +57,8 @@ export async function listRevisions(db: Db, driveId: string, shopId: string) {
       "r.digest",
       "r.code",
       "r.created_at",
-      "u.name as by_name",
     ])
+    .select((eb) => personName(db, eb.ref("r.created_by"), shopId).as("by_name"))
     .where("r.drive_id", "=", driveId)
     .orderBy("r.revision", "desc")
     .execute()

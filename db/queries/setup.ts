@@ -1,15 +1,17 @@
 import { sql } from "kysely"
 import { isOutOfTolerance, type SetupInput } from "@/lib/setup"
 import type { Db } from "../client"
+import { personName } from "./shop-scope"
 
 /** The shop's set-up records with the names of who last changed and who overrode them. */
 function setupRecords(db: Db, shopId: string) {
   return db
     .selectFrom("setup_record as s")
-    .leftJoin("app_user as o", (j) => j.onRef("o.id", "=", "s.override_by").on("o.shop_id", "=", shopId))
-    .leftJoin("app_user as u", (j) => j.onRef("u.id", "=", "s.updated_by").on("u.shop_id", "=", shopId))
     .selectAll("s")
-    .select(["o.name as override_by_name", "u.name as updated_by_name"])
+    .select((eb) => [
+      personName(db, eb.ref("s.override_by"), shopId).as("override_by_name"),
+      personName(db, eb.ref("s.updated_by"), shopId).as("updated_by_name"),
+    ])
     .where("s.shop_id", "=", shopId)
 }
 

@@ -1,4 +1,4 @@
-import { sql, type SelectQueryBuilder, type UpdateQueryBuilder } from "kysely"
+import { sql, type Expression, type SelectQueryBuilder, type UpdateQueryBuilder } from "kysely"
 import type { Db } from "../client"
 import type { Database } from "../types"
 
@@ -31,4 +31,12 @@ export function updateInShop<T extends ShopTable>(db: Db, table: T, shopId: stri
   return (q as unknown as UpdateQueryBuilder<Database, ShopTable, ShopTable, object>).where(
     ofShop(table, shopId),
   ) as unknown as typeof q
+}
+
+/**
+ * The name of the shop's person an id column names (who made, saved, reviewed or logged a row), as a scalar subquery
+ * to select `.as(...)`: null when the column is null or names no one of the shop, as a shop-scoped left join gives.
+ */
+export function personName(db: Db, id: Expression<string | null>, shopId: string) {
+  return selectInShop(db, "app_user", shopId).select("app_user.name").where("app_user.id", "=", id)
 }
