@@ -1,5 +1,6 @@
 import fc from "fast-check"
 import { describe, expect, it } from "vitest"
+import type { z } from "zod"
 import { driveFileSchema, parseDriveFile } from "@/lib/drive-file"
 import { fastParseDriveFile } from "@/lib/drive-file/fast-check"
 import { generateDrive } from "@/lib/tracks"
@@ -30,6 +31,22 @@ const value = fc.oneof(
 )
 const fieldName = fc.constantFrom("t", "lat", "lon", "speed", "accuracy", "extra")
 
+/** The fast check never accepts what the schema refuses, and when it accepts, gives the schema's output. */
+function expectAgreement(schema: z.ZodType, fast: (input: unknown) => unknown, input: unknown) {
+  const zod = schema.safeParse(input)
+  const out = fast(input)
+  if (!zod.success) expect(out).toBeNull()
+  if (out) expect(out).toEqual(zod.data)
+}
+
+/** Copies of `samples`, sample `i`'s `field` set to `v` or, with `drop`, taken out. */
+function withOneFieldChanged(samples: readonly object[], i: number, field: string, v: unknown, drop: boolean) {
+  const out = samples.map((s) => ({ ...s })) as Record<string, unknown>[]
+  if (drop) delete out[i]![field]
+  else out[i]![field] = v
+  return out
+}
+
 describe("fastParseDriveFile", () => {
   it("accepts a good file and returns what the schema returns", () => {
     const text = JSON.stringify({ ...base, extraTop: 1 })
@@ -41,14 +58,8 @@ describe("fastParseDriveFile", () => {
   it("never accepts what the schema refuses, and when it accepts, gives the schema's output", () => {
     fc.assert(
       fc.property(fc.nat(base.samples.length - 1), fieldName, value, fc.boolean(), (i, field, v, drop) => {
-        const samples = base.samples.map((s) => ({ ...s })) as Record<string, unknown>[]
-        if (drop) delete samples[i]![field]
-        else samples[i]![field] = v
-        const file = { ...base, samples }
-        const zod = driveFileSchema.safeParse(file)
-        const fast = fastParseDriveFile(file)
-        if (!zod.success) expect(fast).toBeNull()
-        if (fast) expect(fast).toEqual(zod.data)
+        const file = { ...base, samples: withOneFieldChanged(base.samples, i, field, v, drop) }
+        expectAgreement(driveFileSchema, fastParseDriveFile, file)
       }),
       { numRuns: 300 },
     )
@@ -96,14 +107,9 @@ describe("fastParseSampleBatch", () => {
         batchId,
         fc.boolean(),
         (i, field, v, drop, id, notArray) => {
-          const samples = batch.samples.map((s) => ({ ...s })) as Record<string, unknown>[]
-          if (drop) delete samples[i]![field]
-          else samples[i]![field] = v
+          const samples = withOneFieldChanged(batch.samples, i, field, v, drop)
           const sent = { batchId: id, samples: notArray ? { 0: samples[0] } : samples }
-          const zod = sampleBatchSchema.safeParse(sent)
-          const fast = fastParseSampleBatch(sent)
-          if (!zod.success) expect(fast).toBeNull()
-          if (fast) expect(fast).toEqual(zod.data)
+          expectAgreement(sampleBatchSchema, fastParseSampleBatch, sent)
         },
       ),
       { numRuns: 400 },
