@@ -106,12 +106,7 @@ export function unnestSamples(samples: readonly Sample[]) {
 
 /** `{1,2,NULL}`: integers only (no quoting needed), null as NULL. */
 function arrayLiteral(values: ReadonlyArray<number | null>): string {
-  let text = "{"
-  for (let i = 0; i < values.length; i++) {
-    const v = values[i]
-    text += (i === 0 ? "" : ",") + (v === null ? "NULL" : String(v))
-  }
-  return text + "}"
+  return `{${(values.includes(null) ? values.map((v) => v ?? "NULL") : values).join(",")}}`
 }
 
 const eventNotice = (driveId: string, shopId: string) => {
