@@ -1,6 +1,6 @@
 // The app's server: Next.js behind a plain node:http server (Next's "custom server"), which answers the recorder's
 // sample batches itself (app/_server/early-routes.ts, bundled into the build by scripts/build-early.mjs) and hands
-// every other request to Next. `npm start` and `npm test` run it as `node --max-semi-space-size=2 scripts/server.mjs`
+// every other request to Next. `npm start` and `npm test` run it as `node --max-semi-space-size=16 --heap-growing-percent=50 scripts/server.mjs`
 // (SERVER_ARGS in scripts/lib/shell.mjs) with PORT and HOSTNAME.
 import http from "node:http"
 import path from "node:path"
