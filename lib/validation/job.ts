@@ -73,7 +73,7 @@ const taskSchema = z.object({
   reason: z.enum(REASONS, { error: "must be one of " + REASONS.join(", ") }),
   // "" (a form's blank choice) = not named: the current or the sensor's default profile.
   profileId: z
-    .union([z.uuid("must be a condition profile id"), z.literal("")])
+    .union([z.uuid(), z.literal("")], { error: "must be a condition profile id" })
     .optional()
     .nullable()
     .transform((v) => (v === "" ? undefined : v)),

@@ -45,12 +45,15 @@ export const shareSchema = z.object({
     .optional(),
 })
 
-export const markReadSchema = z.union([
-  z.object({ all: z.literal(true) }),
-  z.object({
-    ids: z
-      .array(z.uuid({ error: "must be a notice id" }))
-      .min(1)
-      .max(100),
-  }),
-])
+export const markReadSchema = z.union(
+  [
+    z.object({ all: z.literal(true) }),
+    z.object({
+      ids: z
+        .array(z.uuid({ error: "must be a notice id" }))
+        .min(1)
+        .max(100),
+    }),
+  ],
+  { error: 'must be {"all": true} or {"ids": [...]} with 1 to 100 notice ids' },
+)

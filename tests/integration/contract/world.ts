@@ -178,6 +178,9 @@ export function expectErrorShape(res: ApiResponse, status?: number) {
     expect(typeof error.fields).toBe("object")
     for (const v of Object.values(error.fields)) expect(typeof v).toBe("string")
   }
+  // In the API's own words ("is required", "must be text"), never a validation library's stock sentence.
+  for (const text of [error.message, ...Object.values(error.fields ?? {})])
+    expect(text, res.text.slice(0, 300)).not.toMatch(/Invalid input|expected \w+, received/)
 }
 
 const SHOP_TABLES = [
