@@ -1,7 +1,6 @@
-import { finished } from "node:stream/promises"
 import { sql, type CompiledQuery, type RawBuilder } from "kysely"
 import pg from "pg"
-import { to as copyTo, type CopyToStreamQuery } from "pg-copy-streams"
+import { to as copyTo } from "pg-copy-streams"
 import { crlfLineEnds } from "@/lib/export/csv"
 import { wholeSeconds } from "@/lib/format"
 import { CLEAR_BINS_MIN, CONDITION_PROBLEM, type Numbers } from "@/lib/numbers"
@@ -79,9 +78,12 @@ function csvText(text: RawBuilder<string>, first: RawBuilder<string | null> = te
   return sql<string>`nullif(case when ascii(${first}) in (61, 43, 45, 64, 9, 13) then '''' || ${text} else ${text} end, '')`
 }
 
-/** lib/format wholeSeconds in float8 (the same IEEE arithmetic as JS): down to whole seconds, never below 0; NULL stays NULL. */
+/**
+ * lib/format wholeSeconds in float8 (the same IEEE arithmetic as JS): down to whole seconds, never below 0. A NULL
+ * is 0, as numbersDriveFromRow's Number(null) makes it (GREATEST skips NULLs); wrap it for a cell that stays empty.
+ */
 function wholeSecondsCell(seconds: RawBuilder<number | null>) {
-  return sql<number>`case when ${seconds} is not null then greatest(floor(${seconds} + 1e-6::float8), 0)::bigint end`
+  return sql<number>`greatest(floor(${seconds} + 1e-6::float8), 0)::bigint`
 }
 
 /**
@@ -98,7 +100,8 @@ function numbersCsvCopy(db: Db, shopId: string, since: Date): string {
            ${csvText(sql`coalesce(d.driver_name, 'Former staff')`)} as technician,
            ${csvText(sql`coalesce(d.profile_name, 'Profile set on the drive')`)} as profile,
            coalesce(d.verdict, 'not_met') as verdict,
-           ${wholeSecondsCell(sql`d.cleared_at_seconds`)} as time_to_learn_complete_seconds,
+           case when d.cleared_at_seconds is not null then ${wholeSecondsCell(sql`d.cleared_at_seconds`)} end
+             as time_to_learn_complete_seconds,
            ${wholeSecondsCell(sql`d.qualifying_seconds`)} as qualifying_time_before_learn_complete_seconds,
            ${wholeSecondsCell(sql`d.following_seconds`)} as following_time_before_learn_complete_seconds,
            ${wholeSecondsCell(sql`d.duration_seconds`)} as drive_time_seconds,
@@ -122,20 +125,29 @@ function inlineParameters({ sql: text, parameters }: CompiledQuery): string {
 }
 
 export interface NumbersCsv {
-  /** The CSV's bytes as PostgreSQL sends them, lines ended with CRLF; returns the connection when read to the end. */
+  /** The CSV's bytes as PostgreSQL sends them, lines ended with CRLF. */
   chunks: AsyncGenerator<Uint8Array>
-  /** Returns the connection (the rest of the COPY read and dropped first); safe to call more than once. */
+  /** Ends the download early and waits for the connection to go back; safe to call more than once. */
   close(): Promise<void>
 }
 
 /**
+ * What Node may hold of one CSV before it stops reading from PostgreSQL: more than NUMBERS_DRIVES_LIMIT rows take
+ * (about 130 bytes a row, 2.6 MB; long names make it more), so the COPY ends at once and its connection goes back
+ * while a slow reader is still downloading. Memory stays under what the CSV built in JS took (its rows, then its text).
+ */
+const NUMBERS_CSV_BUFFER_BYTES = 8 * 1024 * 1024
+
+/**
  * The numbers CSV of the shop's drives since a date (numbersToCsv over listDrivesForNumbers, byte for byte),
  * streamed out of PostgreSQL by `COPY (select ...) TO STDOUT` (pg-copy-streams) on one connection of
- * `connections`, its session's time zone set to `timeZone` (a zone PostgreSQL knows: queryTimeZone) for the COPY
- * and reset after it: Node only changes line ends. A failing statement throws here, before any byte. The connection
- * goes back when the chunks are read to the end or close() is called: COPY cannot be stopped half-way but by
- * dropping the connection, so close() reads what is left (at most NUMBERS_DRIVES_LIMIT rows) and drops it, and the
- * connection goes back whole; one that failed is released with its error, and the pool drops it.
+ * `connections`, its session's time zone set to `timeZone` (a zone PostgreSQL knows: queryTimeZone) for the COPY:
+ * Node only changes line ends. A failing statement throws here, before any byte.
+ *
+ * The connection goes back as soon as PostgreSQL has sent the last row (after `reset time zone`, queued behind the
+ * COPY), whether or not the reader has taken it all; one that failed goes back with its error, and the pool drops
+ * it. A COPY cannot be stopped half-way but by dropping the connection, so close() (a reader gone) reads what is
+ * left, drops it and waits for the connection to go back whole.
  */
 export async function openNumbersCsv(
   db: Db,
@@ -147,39 +159,40 @@ export async function openNumbersCsv(
   const statement = numbersCsvCopy(db, shopId, since)
   const client = await connections.connect()
   let failure: Error | undefined
-  let ended = false
+  const fail = (error: Error) => void (failure ??= error)
+  try {
+    await client.query("select set_config('TimeZone', $1, false)", [timeZone])
+  } catch (error) {
+    client.release(error as Error)
+    throw error
+  }
+  const stream = client.query(copyTo(statement, { highWaterMark: NUMBERS_CSV_BUFFER_BYTES }))
+  // pg-copy-streams emits the statement's error, or the connection's loss, as an "error" event, also after close.
+  stream.on("error", fail)
+  const returned = client
+    .query("reset time zone")
+    .then(() => undefined, fail)
+    .finally(() => client.release(failure))
+  const rows = stream.iterator({ destroyOnReturn: false })
   let open = true
   const close = async () => {
     if (!open) return
     open = false
-    await rows?.return?.().catch(() => {})
-    if (stream && !ended && !failure) {
-      stream.resume()
-      await finished(stream).catch((error: Error) => (failure ??= error))
-    }
-    if (!failure) await client.query("reset time zone").catch((error: Error) => (failure ??= error))
-    client.release(failure)
+    await rows.return?.().catch(() => {})
+    if (!stream.readableEnded && !failure) stream.resume() // the rest of the COPY, read and dropped
+    await returned
   }
-  let stream: CopyToStreamQuery | undefined
-  let rows: AsyncIterator<Buffer> | undefined
   let first: IteratorResult<Buffer>
   try {
-    await client.query("select set_config('TimeZone', $1, false)", [timeZone])
-    stream = client.query(copyTo(statement))
-    // pg-copy-streams emits the statement's error, or the connection's loss, as an "error" event, also after close.
-    stream.on("error", (error: Error) => (failure ??= error))
-    stream.once("end", () => (ended = true))
-    rows = stream.iterator({ destroyOnReturn: false })
     first = await rows.next()
   } catch (error) {
-    failure ??= error as Error
     await close()
     throw error
   }
   const crlf = crlfLineEnds()
   async function* chunks(): AsyncGenerator<Uint8Array> {
     try {
-      for (let r = first; !r.done; r = await rows!.next()) yield crlf(r.value)
+      for (let r = first; !r.done; r = await rows.next()) yield crlf(r.value)
     } finally {
       await close()
     }
