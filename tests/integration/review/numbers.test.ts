@@ -256,7 +256,7 @@ describe("GET /api/numbers?format=csv, streamed out of PostgreSQL", () => {
 describe("the streamed CSV's connection", () => {
   it("leaves the app its connections, and no COPY running, however many readers stall or go away part-way", async () => {
     const shop = await createTestShop("NumbersCsvAbort")
-    // 20,000 drives, the CSV's limit: 2.6 MB, more than the sockets between PostgreSQL and the reader hold.
+    // 20,000 drives, the CSV's limit: 2.6 MB.
     await sql`
       insert into drive (id, public_id, shop_id, profile, driver_id, status, verdict, finished_at, scored_at)
       select drive_internal_id(${shop.shopId}::uuid, g.pid), g.pid, ${shop.shopId}::uuid, '{}'::jsonb, ${shop.tech.id},
