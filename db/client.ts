@@ -12,6 +12,7 @@ const globalForDb = globalThis as unknown as {
   straightawayPool?: pg.Pool
   straightawayDb?: Db
   straightawayReadDb?: Db
+  straightawayReadPool?: ReturnType<typeof readPool>
   straightawayExportDb?: Db
 }
 
@@ -71,9 +72,32 @@ export function getReadDb(): Db {
   const replicaUrl = process.env.DATABASE_REPLICA_URL
   if (!replicaUrl) return getDb()
   globalForDb.straightawayReadDb ??= new Kysely<Database>({
-    dialect: new PostgresDialect({ pool: readPool(replicaUrl, getPool) }),
+    dialect: new PostgresDialect({ pool: replicaReadPool(replicaUrl) }),
   })
   return globalForDb.straightawayReadDb
+}
+
+/** getReadDb's pool when DATABASE_REPLICA_URL is set: one per process, shared with readConnections. */
+function replicaReadPool(replicaUrl: string) {
+  globalForDb.straightawayReadPool ??= readPool(replicaUrl, getPool)
+  return globalForDb.straightawayReadPool
+}
+
+/** Where a raw pg connection comes from: a pool, or readPool's replica-or-primary. The taker must release it. */
+export interface ConnectionSource {
+  connect(): Promise<pg.PoolClient>
+}
+
+/**
+ * Raw connections of getReadDb()'s pool, for what Kysely cannot say (COPY ... TO STDOUT: db/queries/numbers.ts
+ * openNumbersCsv), with the same replica-or-primary choice. Release each with `release()`, or `release(error)`
+ * when it may be broken (the pool then drops it).
+ */
+export const readConnections: ConnectionSource = {
+  connect() {
+    const replicaUrl = process.env.DATABASE_REPLICA_URL
+    return replicaUrl ? replicaReadPool(replicaUrl).connect() : getPool().connect()
+  },
 }
 
 /** How long reads stay on the primary after the replica could not be reached, before it is tried again. */

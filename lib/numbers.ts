@@ -227,7 +227,8 @@ const NUMBERS_CSV_COLUMNS = [
 /**
  * One line per drive (RFC 4180, CRLF), for a spreadsheet. Times of day are ISO 8601 in the shop's zone with
  * its UTC offset; durations are whole seconds rounded down (the same figure formatDuration writes on the pages),
- * and each duration's header ends in `_seconds`.
+ * and each duration's header ends in `_seconds`. The download itself is written by PostgreSQL (db/queries/numbers.ts
+ * openNumbersCsv, COPY): this is its definition, which tests hold it to byte for byte; change both together.
  */
 export function numbersToCsv(drives: readonly NumbersDrive[], timeZone: string): string {
   const lines = [NUMBERS_CSV_COLUMNS.join(",")]

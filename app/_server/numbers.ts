@@ -1,16 +1,27 @@
 import "server-only"
-import type { Db } from "@/db/client"
-import { listDrivesForNumbers, loadNumbersSummary } from "@/db/queries/numbers"
+import { textStream } from "@/app/_server/text-stream"
+import type { ConnectionSource, Db } from "@/db/client"
+import { loadNumbersSummary, openNumbersCsv } from "@/db/queries/numbers"
 import { queryTimeZone } from "@/db/queries/shop-settings"
-import { numbersDriveFromRow, type Numbers, type NumbersDrive } from "@/lib/numbers"
+import type { Numbers } from "@/lib/numbers"
 
 export const NUMBERS_DEFAULT_DAYS = 90
 
-/** The shop's finished drives of the last `days` days as plain rows for lib/numbers. */
-export async function loadNumbersDrives(db: Db, shopId: string, days: number): Promise<NumbersDrive[]> {
-  const since = new Date(Date.now() - days * 86_400_000)
-  const rows = await listDrivesForNumbers(db, shopId, since)
-  return rows.map(numbersDriveFromRow)
+/**
+ * The CSV of the shop's finished drives of the last `days` days, streamed out of PostgreSQL (openNumbersCsv on a
+ * connection of `connections`). Times are in `timeZone` (the shop's) if PostgreSQL knows it, else in UTC, as the
+ * weeks of loadNumbers; every time carries its UTC offset. A failing statement throws before the first byte.
+ */
+export async function numbersCsvBody(
+  db: Db,
+  connections: ConnectionSource,
+  shopId: string,
+  days: number,
+  timeZone: string,
+): Promise<ReadableStream<Uint8Array>> {
+  const zone = await queryTimeZone(db, timeZone)
+  const csv = await openNumbersCsv(db, connections, shopId, new Date(Date.now() - days * 86_400_000), zone.timeZone)
+  return textStream(csv.chunks, { close: csv.close })
 }
 
 type NumbersWithZone = Numbers & {

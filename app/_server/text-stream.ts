@@ -4,13 +4,14 @@ import "server-only"
 const STREAM_IDLE_MS = 60_000
 
 /**
- * A response body from text chunks, made as the reader asks for them: nothing is made ahead of the reader, so a
- * slow client holds back the database cursor behind it instead of filling memory. `close` runs once whatever
- * happens: the last chunk sent, a failure part-way (the connection is cut, so the reader sees an incomplete
- * download), the reader gone, or a reader that takes nothing for `idleMs` (also before the first chunk).
+ * A response body from text chunks (strings, or bytes already in UTF-8), made as the reader asks for them: nothing
+ * is made ahead of the reader, so a slow client holds back the database cursor (or COPY) behind it instead of
+ * filling memory. `close` runs once whatever happens: the last chunk sent, a failure part-way (the connection is
+ * cut, so the reader sees an incomplete download), the reader gone, or a reader that takes nothing for `idleMs`
+ * (also before the first chunk).
  */
 export function textStream(
-  chunks: AsyncGenerator<string>,
+  chunks: AsyncGenerator<string | Uint8Array>,
   { close, idleMs = STREAM_IDLE_MS }: { close: () => Promise<void>; idleMs?: number },
 ): ReadableStream<Uint8Array> {
   const encoder = new TextEncoder()
@@ -51,7 +52,7 @@ export function textStream(
             }
             if (value.length === 0) continue
             if (cancelled) return
-            controller.enqueue(encoder.encode(value))
+            controller.enqueue(typeof value === "string" ? encoder.encode(value) : value)
             break
           }
         } catch (error) {

@@ -1,7 +1,10 @@
-import { sql } from "kysely"
+import { sql, type CompiledQuery, type RawBuilder } from "kysely"
+import pg from "pg"
+import { to as copyTo } from "pg-copy-streams"
+import { crlfLineEnds } from "@/lib/export/csv"
 import { wholeSeconds } from "@/lib/format"
 import { CLEAR_BINS_MIN, CONDITION_PROBLEM, type Numbers } from "@/lib/numbers"
-import type { Db } from "../client"
+import type { ConnectionSource, Db } from "../client"
 import { selectInShop } from "./shop-scope"
 
 /**
@@ -34,12 +37,15 @@ export function selectFinishedDrivesWithNames(db: Db, shopId: string, since: Dat
     .orderBy("drive.id", "asc")
 }
 
+/** At most this many drives in the numbers CSV (and in listDrivesForNumbers). */
+const NUMBERS_DRIVES_LIMIT = 20_000
+
 /**
  * Finished, scored drives of the shop since a date, with what the numbers page needs from each. The figures
  * are columns of `drive` filled when the drive is scored (migration 2026_12_02_1330), read through the
  * (shop_id, finished_at) index: the cost follows the period shown, not the shop's history.
  */
-export async function listDrivesForNumbers(db: Db, shopId: string, since: Date) {
+function selectDrivesForNumbers(db: Db, shopId: string, since: Date) {
   return selectFinishedDrivesWithNames(db, shopId, since)
     .select([
       "drive.cleared_at_seconds",
@@ -50,8 +56,148 @@ export async function listDrivesForNumbers(db: Db, shopId: string, since: Date) 
       "drive.unmet_conditions",
     ])
     .where("drive.scored_at", "is not", null)
-    .limit(20_000)
-    .execute()
+    .limit(NUMBERS_DRIVES_LIMIT)
+}
+
+/**
+ * The numbers CSV's drives as rows (selectDrivesForNumbers): lib/numbers numbersToCsv over these is what
+ * openNumbersCsv streams, byte for byte (tests/integration/review/numbers.test.ts).
+ */
+export async function listDrivesForNumbers(db: Db, shopId: string, since: Date) {
+  return selectDrivesForNumbers(db, shopId, since).execute()
+}
+
+// ---- the numbers CSV, written by PostgreSQL ---------------------------------------------------------------
+
+/**
+ * A text cell as csvField (lib/export/csv.ts) writes it, for COPY's CSV to quote: a leading = + - @ tab or CR
+ * (code points 61 43 45 64 9 13) gets a ' before it, and an empty text is NULL (COPY writes a NULL as nothing and an
+ * empty text as ""). `first`: a cheaper expression that starts with the same character, when there is one.
+ */
+function csvText(text: RawBuilder<string>, first: RawBuilder<string | null> = text) {
+  return sql<string>`nullif(case when ascii(${first}) in (61, 43, 45, 64, 9, 13) then '''' || ${text} else ${text} end, '')`
+}
+
+/**
+ * lib/format wholeSeconds in float8 (the same IEEE arithmetic as JS): down to whole seconds, never below 0. A NULL
+ * is 0, as numbersDriveFromRow's Number(null) makes it (GREATEST skips NULLs); wrap it for a cell that stays empty.
+ */
+function wholeSecondsCell(seconds: RawBuilder<number | null>) {
+  return sql<number>`greatest(floor(${seconds} + 1e-6::float8), 0)::bigint`
+}
+
+/**
+ * The CSV of lib/numbers numbersToCsv as one COPY statement: the same rows (selectDrivesForNumbers), columns and
+ * cells; times as lib/format isoLocalDateTime writes them, in the session's time zone (openNumbersCsv sets the
+ * shop's), with its UTC offset at that instant (to_char's TZH:TZM: one conversion a row, a fifth of the cost of
+ * `at time zone` twice). COPY takes no bind parameters: Kysely's are written in as literals (inlineParameters).
+ * COPY ends lines with LF; openNumbersCsv makes them CRLF.
+ */
+function numbersCsvCopy(db: Db, shopId: string, since: Date): string {
+  const query = sql`
+    select d.public_id as drive_id,
+           to_char(d.finished_at, 'YYYY-MM-DD"T"HH24:MI:SSTZH:TZM') as finished_at,
+           ${csvText(sql`coalesce(d.driver_name, 'Former staff')`)} as technician,
+           ${csvText(sql`coalesce(d.profile_name, 'Profile set on the drive')`)} as profile,
+           coalesce(d.verdict, 'not_met') as verdict,
+           case when d.cleared_at_seconds is not null then ${wholeSecondsCell(sql`d.cleared_at_seconds`)} end
+             as time_to_learn_complete_seconds,
+           ${wholeSecondsCell(sql`d.qualifying_seconds`)} as qualifying_time_before_learn_complete_seconds,
+           ${wholeSecondsCell(sql`d.following_seconds`)} as following_time_before_learn_complete_seconds,
+           ${wholeSecondsCell(sql`d.duration_seconds`)} as drive_time_seconds,
+           d.harsh_events as harsh_events,
+           d.review_status as review,
+           ${csvText(sql`array_to_string(d.unmet_conditions, ' ', '')`, sql`d.unmet_conditions[1]`)} as unmet_conditions
+    from ${selectDrivesForNumbers(db, shopId, since)} as d
+    order by d.finished_at, d.id`
+  return inlineParameters(sql`copy (${query}) to stdout with (format csv, header true)`.compile(db))
+}
+
+/** A compiled statement with its parameters written in as literals: numbers, dates (ISO 8601 UTC) and escaped text only. */
+function inlineParameters({ sql: text, parameters }: CompiledQuery): string {
+  return text.replace(/\$(\d+)/g, (_, n: string) => {
+    const value = parameters[Number(n) - 1]
+    if (typeof value === "number" && Number.isSafeInteger(value)) return String(value)
+    if (value instanceof Date && !Number.isNaN(value.getTime())) return pg.escapeLiteral(value.toISOString())
+    if (typeof value === "string") return pg.escapeLiteral(value)
+    throw new Error(`no literal for parameter $${n} (${typeof value})`)
+  })
+}
+
+export interface NumbersCsv {
+  /** The CSV's bytes as PostgreSQL sends them, lines ended with CRLF. */
+  chunks: AsyncGenerator<Uint8Array>
+  /** Ends the download early and waits for the connection to go back; safe to call more than once. */
+  close(): Promise<void>
+}
+
+/**
+ * What Node may hold of one CSV before it stops reading from PostgreSQL: more than NUMBERS_DRIVES_LIMIT rows take
+ * (about 130 bytes a row, 2.6 MB; long names make it more), so the COPY ends at once and its connection goes back
+ * while a slow reader is still downloading. Memory stays under what the CSV built in JS took (its rows, then its text).
+ */
+const NUMBERS_CSV_BUFFER_BYTES = 8 * 1024 * 1024
+
+/**
+ * The numbers CSV of the shop's drives since a date (numbersToCsv over listDrivesForNumbers, byte for byte),
+ * streamed out of PostgreSQL by `COPY (select ...) TO STDOUT` (pg-copy-streams) on one connection of
+ * `connections`, its session's time zone set to `timeZone` (a zone PostgreSQL knows: queryTimeZone) for the COPY:
+ * Node only changes line ends. A failing statement throws here, before any byte.
+ *
+ * The connection goes back as soon as PostgreSQL has sent the last row (after `reset time zone`, queued behind the
+ * COPY), whether or not the reader has taken it all; one that failed goes back with its error, and the pool drops
+ * it. A COPY cannot be stopped half-way but by dropping the connection, so close() (a reader gone) reads what is
+ * left, drops it and waits for the connection to go back whole.
+ */
+export async function openNumbersCsv(
+  db: Db,
+  connections: ConnectionSource,
+  shopId: string,
+  since: Date,
+  timeZone: string,
+): Promise<NumbersCsv> {
+  const statement = numbersCsvCopy(db, shopId, since)
+  const client = await connections.connect()
+  let failure: Error | undefined
+  const fail = (error: Error) => void (failure ??= error)
+  try {
+    await client.query("select set_config('TimeZone', $1, false)", [timeZone])
+  } catch (error) {
+    client.release(error as Error)
+    throw error
+  }
+  const stream = client.query(copyTo(statement, { highWaterMark: NUMBERS_CSV_BUFFER_BYTES }))
+  // pg-copy-streams emits the statement's error, or the connection's loss, as an "error" event, also after close.
+  stream.on("error", fail)
+  const returned = client
+    .query("reset time zone")
+    .then(() => undefined, fail)
+    .finally(() => client.release(failure))
+  const rows = stream.iterator({ destroyOnReturn: false })
+  let open = true
+  const close = async () => {
+    if (!open) return
+    open = false
+    await rows.return?.().catch(() => {})
+    if (!stream.readableEnded && !failure) stream.resume() // the rest of the COPY, read and dropped
+    await returned
+  }
+  let first: IteratorResult<Buffer>
+  try {
+    first = await rows.next()
+  } catch (error) {
+    await close()
+    throw error
+  }
+  const crlf = crlfLineEnds()
+  async function* chunks(): AsyncGenerator<Uint8Array> {
+    try {
+      for (let r = first; !r.done; r = await rows.next()) yield crlf(r.value)
+    } finally {
+      await close()
+    }
+  }
+  return { chunks: chunks(), close }
 }
 
 /**

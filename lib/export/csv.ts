@@ -68,3 +68,53 @@ export function csvField(value: string): string {
   if (/^[=+\-@\t\r]/.test(v)) v = `'${v}`
   return /[",\r\n]/.test(v) ? `"${v.replace(/"/g, '""')}"` : v
 }
+
+const LF = 0x0a
+const CR = 0x0d
+const QUOTE = 0x22
+
+/**
+ * CSV text whose writer ends lines with LF (PostgreSQL's COPY ... CSV) with RFC 4180's CRLF instead, chunk by chunk:
+ * feed it the chunks in order (the quoting carries across them). A LF inside a quoted field (a name with a line
+ * break) is data and stays as it is, as csvField leaves it.
+ */
+export function crlfLineEnds(): (chunk: Uint8Array) => Uint8Array {
+  let quoted = false
+  return (chunk) => {
+    const ends: number[] = []
+    let nextQuote = -2 // -2: not looked for yet; -1: none left in the chunk
+    let nextLf = -2
+    let i = 0
+    while (i < chunk.length) {
+      if (quoted) {
+        const q = chunk.indexOf(QUOTE, i)
+        if (q < 0) break
+        quoted = false // a doubled quote inside the field closes and opens again, with no line end between
+        i = q + 1
+        continue
+      }
+      if (nextQuote !== -1 && nextQuote < i) nextQuote = chunk.indexOf(QUOTE, i)
+      if (nextLf !== -1 && nextLf < i) nextLf = chunk.indexOf(LF, i)
+      if (nextQuote >= 0 && (nextLf < 0 || nextQuote < nextLf)) {
+        quoted = true // also after the chunk's last line end: the next chunk starts inside the field
+        i = nextQuote + 1
+        continue
+      }
+      if (nextLf < 0) break
+      ends.push(nextLf)
+      i = nextLf + 1
+    }
+    if (ends.length === 0) return chunk
+    const out = new Uint8Array(chunk.length + ends.length)
+    let from = 0
+    let to = 0
+    for (const lf of ends) {
+      out.set(chunk.subarray(from, lf), to)
+      to += lf - from
+      out[to++] = CR
+      from = lf // the LF goes with the next piece
+    }
+    out.set(chunk.subarray(from), to)
+    return out
+  }
+}

@@ -1,10 +1,9 @@
 import { z } from "zod"
 import { requireRole } from "@/app/_server/auth"
 import { getFormatPrefs } from "@/app/_server/format-prefs"
-import { loadNumbers, loadNumbersDrives, NUMBERS_DEFAULT_DAYS } from "@/app/_server/numbers"
+import { loadNumbers, NUMBERS_DEFAULT_DAYS, numbersCsvBody } from "@/app/_server/numbers"
 import { parseQuery, route } from "@/app/_server/route"
-import { getReadDb } from "@/db/client"
-import { numbersToCsv } from "@/lib/numbers"
+import { getReadDb, readConnections } from "@/db/client"
 
 const query = z.object({
   days: z.coerce
@@ -21,8 +20,7 @@ export const GET = route(async (req) => {
   const { days, format } = parseQuery(req, query)
   const { timeZone } = await getFormatPrefs(user.shopId)
   if (format === "csv") {
-    const drives = await loadNumbersDrives(getReadDb(), user.shopId, days)
-    return new Response(numbersToCsv(drives, timeZone), {
+    return new Response(await numbersCsvBody(getReadDb(), readConnections, user.shopId, days, timeZone), {
       headers: {
         "content-type": "text/csv; charset=utf-8",
         "content-disposition": `attachment; filename="straightaway-drives-${days}d.csv"`,

@@ -129,6 +129,9 @@ describe("reads with a replica configured", () => {
       expect((await replicaApp.get("/api/numbers?days=730")).text).not.toBe(
         (await primaryApp.get("/api/numbers?days=730")).text,
       )
+      // The CSV (a COPY on a raw connection of the read pool) too.
+      expect((await primaryApp.get("/api/numbers?days=730&format=csv")).text).toContain(id)
+      expect((await replicaApp.get("/api/numbers?days=730&format=csv")).text).not.toContain(id)
       // The pages read the same way: the review page of the app on the standby does not link the new drive yet.
       expect((await primaryApp.get("/review")).text).toContain(`/drives/${id}`)
       expect((await replicaApp.get("/review")).text).not.toContain(`/drives/${id}`)

@@ -1,4 +1,6 @@
 import { describe, expect, it } from "vitest"
+import { listDrivesForNumbers } from "@/db/queries/numbers"
+import { numbersDriveFromRow, numbersToCsv } from "@/lib/numbers"
 import { createTestShop, testDb } from "../../helpers/db"
 import { signedIn } from "../../helpers/http"
 import { insertScoredDrive } from "./fixtures"
@@ -62,7 +64,12 @@ describe("the shop's time zone and the database's zone data", () => {
     expect(page.status).toBe(200)
     expect(page.text).toContain("Weeks are counted in UTC")
     expect(page.text).toContain("US/Pacific-New")
-    expect((await lead.get("/api/numbers?format=csv&days=30")).status).toBe(200)
+    // The CSV's times fall back the same way (PostgreSQL writes them): UTC, each with its offset, +00:00.
+    const csv = await lead.get("/api/numbers?format=csv&days=30")
+    expect(csv.status).toBe(200)
+    const rows = await listDrivesForNumbers(testDb(), shop.shopId, new Date(Date.now() - 30 * 86_400_000))
+    expect(csv.text).toBe(numbersToCsv(rows.map(numbersDriveFromRow), "UTC"))
+    expect(csv.text).toContain(`,${new Date(monday).toISOString().slice(0, 10)}T02:00:00+00:00,`)
 
     // a shop with a zone the database knows says nothing about it
     const known = await createTestShop("ZoneKnown")

@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest"
 import { SAMPLE_CSV_COLUMNS, csvField, toCsv, toMarksCsv } from "@/lib/export"
+import { crlfLineEnds } from "@/lib/export/csv"
 import { T0, drive, mark } from "../helpers/drive"
 
 /** Minimal RFC 4180 reader for the round-trip checks. */
@@ -81,5 +82,38 @@ describe("toMarksCsv and RFC 4180 quoting", () => {
       ["2026-01-01T10:00:01.000Z", String(T0 + 1000), "gap", "140", ""],
       ["2026-01-01T10:00:05.000Z", String(T0 + 5000), "note", "", 'Lead "grey van", 140 ft'],
     ])
+  })
+})
+
+describe("crlfLineEnds", () => {
+  // Lines as PostgreSQL's COPY ... CSV writes them (LF after each row), with fields quoted as csvField quotes them.
+  const rows = [
+    ["drive_id", "technician", "unmet"],
+    ["a1", 'Ana, "Bo" Díaz', "cleared time-limit"],
+    ["b2", "Line one\nLine two", ""],
+    ["c3", "Carriage\r\nreturn", '""'],
+    ["d4", '"\n"', "山田\n"],
+    ["e5", "", "plain"],
+  ].map((r) => r.map(csvField).join(","))
+  const lf = new TextEncoder().encode(rows.map((r) => `${r}\n`).join(""))
+  const crlf = rows.map((r) => `${r}\r\n`).join("")
+  const run = (chunks: Uint8Array[]) => {
+    const convert = crlfLineEnds()
+    return Buffer.concat(chunks.map((c) => convert(c))).toString("utf8")
+  }
+
+  it("ends each row with CRLF and leaves line breaks inside quoted fields as they are", () => {
+    expect(run([lf])).toBe(crlf)
+    expect(parseCsv(run([lf]))[3]).toEqual(["c3", "Carriage\r\nreturn", '""'])
+  })
+
+  it("gives the same bytes however the text is cut into chunks", () => {
+    for (let cut = 0; cut <= lf.length; cut++) expect(run([lf.subarray(0, cut), lf.subarray(cut)])).toBe(crlf)
+    expect(run(Array.from(lf, (b) => Uint8Array.of(b)))).toBe(crlf)
+  })
+
+  it("hands back a chunk without a line end as it is", () => {
+    const chunk = new TextEncoder().encode("no line end here")
+    expect(crlfLineEnds()(chunk)).toBe(chunk)
   })
 })
