@@ -2,7 +2,8 @@
 // the scoring path does: Finish has already loaded the drive's file to score it and hands that file on
 // (app/api/drives/_service.ts), so what is timed is aggregating it into cells and the upsert: the median of 5 runs.
 // roadsPageP95Ms: the Roads page (server-rendered, 10:00, any day) for a lead, with 2,000 drives in the shop's history:
-// the 95th percentile of 30 requests. Both need DATABASE_URL; the page also BASE_URL.
+// the 95th percentile of 30 requests after 10 untimed. Both need DATABASE_URL; the page also BASE_URL.
+import { sql } from "kysely"
 import { createDb, type Db } from "@/db/client"
 import { loadDriveFile } from "@/db/queries/drive-file"
 import { applyDriveContribution, updateRoadModel } from "@/db/queries/roads"
@@ -80,6 +81,9 @@ export const roadsPageP95Ms = benchFigure("roadsPageP95Ms", atMost(100, "ms"), A
   const baseUrl = ctx.env.BASE_URL!
   const db = createDb(ctx.env.DATABASE_URL)
   const { shopId, email, password } = await seedRoadsPageShop(db)
+  // A shop's history is not 2,000 rows written a moment ago: the statistics are brought up to date now, as
+  // autovacuum would have, rather than by an auto-analyze that happens to start among the timed requests.
+  await sql`analyze`.execute(db)
   try {
     const cookie = await signInCookie(baseUrl, { email, password }, `bench-roads-${process.pid}`)
     const get = async () => {
@@ -87,7 +91,7 @@ export const roadsPageP95Ms = benchFigure("roadsPageP95Ms", atMost(100, "ms"), A
       const html = await res.text()
       if (!res.ok || !html.includes('data-testid="road-map"')) throw new Error(`roads page: ${res.status}`)
     }
-    for (let i = 0; i < 3; i++) await get()
+    for (let i = 0; i < 10; i++) await get()
     const times: number[] = []
     for (let i = 0; i < 30; i++) {
       const t0 = performance.now()
