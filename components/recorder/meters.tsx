@@ -1,6 +1,6 @@
 "use client"
 import { CloudOff, Gauge, Hourglass, Link2, Radio, Timer, TriangleAlert, type LucideIcon } from "lucide-react"
-import { formatDistance, formatLengthRangeFt, formatSpeed, speedUnit } from "@/lib/format"
+import { formatDistance, formatLengthRangeFt, formatSpeed, plural, speedUnit } from "@/lib/format"
 import { speedMeterWords } from "@/lib/recorder/profile-words"
 import { mpsToMph } from "@/lib/units"
 import { CLOCKS, LearnState, minutes, useDriveClock } from "./drive-clock"
@@ -178,7 +178,7 @@ export function Meters() {
         data-verdict={score?.verdict ?? ""}
         data-marks={markCount}
       >
-        {score?.samplesUsed ?? 0} samples used · {formatDistance(score?.distanceMeters ?? 0, units)}
+        {plural(score?.samplesUsed ?? 0, "sample")} used · {formatDistance(score?.distanceMeters ?? 0, units)}
       </div>
     </div>
   )

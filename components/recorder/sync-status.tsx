@@ -1,5 +1,6 @@
 "use client"
 import { CloudOff, CloudUpload, CircleCheck, TriangleAlert } from "lucide-react"
+import { plural } from "@/lib/format"
 import { getRecorder, useRecorder } from "./use-recorder"
 
 function clock(ms: number | null) {
@@ -38,7 +39,7 @@ export function SyncStatus() {
         <Icon aria-hidden className="size-5 shrink-0" />
         <span className="font-semibold whitespace-nowrap">{word}</span>
         <span className="ml-auto tabular">
-          {marksOnly ? `${sync.waitingOther} marks waiting` : `${sync.waitingSamples} samples waiting`} · last synced{" "}
+          {marksOnly ? plural(sync.waitingOther, "mark") : plural(sync.waitingSamples, "sample")} waiting · last synced{" "}
           {clock(sync.lastSyncedAt)}
         </span>
       </div>
