@@ -8,6 +8,7 @@
 import type { IncomingMessage, ServerResponse } from "node:http"
 import { MAX_JSON_BYTES, bodyTextAnswering } from "@/app/_server/route"
 import { answerSampleBatch } from "@/app/_server/sample-batch"
+import { servedOverHttps, STRICT_TRANSPORT_SECURITY } from "@/lib/http/security-headers"
 import { BATCH_ID_HEADER } from "@/lib/recorder/batching"
 import { BodyTooLargeError } from "@/lib/validation/json-body"
 
@@ -35,17 +36,18 @@ async function answer(req: IncomingMessage, res: ServerResponse, driveId: string
   // The body is read only if the handler asks for it: a replayed batch is answered from its claim, and its body then
   // drained unread, which keeps the connection for the next request.
   let reading = false
+  // Node joins a repeated header with ", " (Set-Cookie aside, which a request has not), as Headers.get does.
+  const header = (name: string) => {
+    const value = req.headers[name.toLowerCase()]
+    return value === undefined ? null : Array.isArray(value) ? value.join(", ") : value
+  }
   try {
     const answer = await answerSampleBatch(
       {
         method: "POST",
         // Only its path is read (for the log); the path matched SAMPLE_BATCH_PATH.
         url: `http://localhost${req.url}`,
-        // Node joins a repeated header with ", " (Set-Cookie aside, which a request has not), as Headers.get does.
-        header: (name) => {
-          const value = req.headers[name]
-          return value === undefined ? null : Array.isArray(value) ? value.join(", ") : value
-        },
+        header,
         readText: () => {
           reading = true
           return bodyTextAnswering(() => readBody(req, MAX_JSON_BYTES))
@@ -60,6 +62,10 @@ async function answer(req: IncomingMessage, res: ServerResponse, driveId: string
     const own = answer.headers ?? {}
     const ownNames = new Set(Object.keys(own).map((name) => name.toLowerCase()))
     for (const [name, value] of CONFIG_HEADERS) if (!ownNames.has(name)) out.push(name, value)
+    // As proxy.ts adds to every other API answer: HSTS when the request came over HTTPS (the app's server itself
+    // speaks plain HTTP; a trusted proxy's X-Forwarded-Proto or an https APP_URL says so).
+    if (servedOverHttps(`http://localhost${req.url}`, { get: header }, process.env))
+      out.push("strict-transport-security", STRICT_TRANSPORT_SECURITY)
     for (const [name, value] of Object.entries(own)) out.push(name.toLowerCase(), value)
     res.writeHead(answer.status, out)
     res.end(text)

@@ -35,7 +35,11 @@ export const STRICT_TRANSPORT_SECURITY = "max-age=31536000; includeSubDomains"
  * Whether a request came over HTTPS: the request itself, a proxy that says so (only when proxies are trusted,
  * TRUST_PROXY), or an https APP_URL.
  */
-export function servedOverHttps(url: string, headers: Headers, env: Record<string, string | undefined>): boolean {
+export function servedOverHttps(
+  url: string,
+  headers: Pick<Headers, "get">,
+  env: Record<string, string | undefined>,
+): boolean {
   if (url.startsWith("https:")) return true
   if (env.TRUST_PROXY && env.TRUST_PROXY !== "0" && headers.get("x-forwarded-proto")?.split(",")[0]?.trim() === "https")
     return true

@@ -194,6 +194,28 @@ describe("POST /api/drives/:id/samples named in x-batch-id (the app's server ans
     expect(await storedSamples(drive.id)).toHaveLength(40)
   })
 
+  it("adds HSTS when a trusted proxy says the request came over HTTPS, as Next's proxy does, and not otherwise", async () => {
+    const drive = await startDrive(team.tech)
+    const send = (batchId: string, proto: string | null, named: boolean) =>
+      fetch(`${testEnv().baseUrl}/api/drives/${drive.id}/samples`, {
+        method: "POST",
+        headers: {
+          ...(named ? namedBatchHeaders(batchId) : { "content-type": "application/json" }),
+          ...(proto ? { "x-forwarded-proto": proto } : {}),
+          cookie: team.tech.cookie!,
+          "x-forwarded-for": team.tech.address,
+        },
+        body: JSON.stringify({ batchId, samples: sampleRun(2, 0, Date.UTC(2026, 0, 2, batchId.length)) }),
+      })
+    // The test stack trusts its proxy (TRUST_PROXY=1) and its APP_URL is plain http.
+    const early = await send("https-early", "https", true)
+    const viaNext = await send("https-via-next", "https", false)
+    expect(early.status).toBe(200)
+    expect(early.headers.get("strict-transport-security")).toMatch(/^max-age=\d+/)
+    expect(early.headers.get("strict-transport-security")).toBe(viaNext.headers.get("strict-transport-security"))
+    expect((await send("plain-early", null, true)).headers.get("strict-transport-security")).toBeNull()
+  })
+
   it("keeps the connection for the next request after a replay whose body it did not read", async () => {
     const drive = await startDrive(team.tech)
     const path = `/api/drives/${drive.id}/samples`
