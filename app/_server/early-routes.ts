@@ -41,12 +41,13 @@ async function answer(req: IncomingMessage, res: ServerResponse, driveId: string
     const value = req.headers[name.toLowerCase()]
     return value === undefined ? null : Array.isArray(value) ? value.join(", ") : value
   }
+  // The app's server speaks plain HTTP; only the path is read from it (the log), and it matched SAMPLE_BATCH_PATH.
+  const url = `http://localhost${req.url}`
   try {
     const answer = await answerSampleBatch(
       {
         method: "POST",
-        // Only its path is read (for the log); the path matched SAMPLE_BATCH_PATH.
-        url: `http://localhost${req.url}`,
+        url,
         header,
         readText: () => {
           reading = true
@@ -62,9 +63,9 @@ async function answer(req: IncomingMessage, res: ServerResponse, driveId: string
     const own = answer.headers ?? {}
     const ownNames = new Set(Object.keys(own).map((name) => name.toLowerCase()))
     for (const [name, value] of CONFIG_HEADERS) if (!ownNames.has(name)) out.push(name, value)
-    // As proxy.ts adds to every other API answer: HSTS when the request came over HTTPS (the app's server itself
-    // speaks plain HTTP; a trusted proxy's X-Forwarded-Proto or an https APP_URL says so).
-    if (servedOverHttps(`http://localhost${req.url}`, { get: header }, process.env))
+    // As proxy.ts adds to every other API answer: HSTS when the request came over HTTPS (a trusted proxy's
+    // X-Forwarded-Proto or an https APP_URL says so).
+    if (servedOverHttps(url, { get: header }, process.env))
       out.push("strict-transport-security", STRICT_TRANSPORT_SECURITY)
     for (const [name, value] of Object.entries(own)) out.push(name.toLowerCase(), value)
     res.writeHead(answer.status, out)
