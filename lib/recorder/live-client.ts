@@ -74,6 +74,7 @@ export function connectLive(driveId: string, h: LiveHandlers, options: LiveOptio
     setState(via)
     h.connection(state, lastContactAt)
   }
+  const browserOffline = () => typeof navigator !== "undefined" && navigator.onLine === false
   const noteId = (id: number | null | undefined) => {
     if (id === null || id === undefined || !Number.isFinite(id)) return
     if (lastEventId === null || id > lastEventId) {
@@ -100,6 +101,7 @@ export function connectLive(driveId: string, h: LiveHandlers, options: LiveOptio
     source = es
     for (const kind of ["snapshot", "mark", "unmark", "status", "score", "heartbeat"]) {
       es.addEventListener(kind, (e) => {
+        if (source !== es) return // a stream this phone has let go of (offline, or reopened) speaks no more
         const me = e as MessageEvent<string>
         streamFailures = 0
         contact("live")
@@ -116,7 +118,7 @@ export function connectLive(driveId: string, h: LiveHandlers, options: LiveOptio
         es.close()
         source = null
         void poll()
-      } else if (typeof navigator !== "undefined" && navigator.onLine === false) setState("offline")
+      } else if (browserOffline()) setState("offline")
     }
   }
 
@@ -124,6 +126,13 @@ export function connectLive(driveId: string, h: LiveHandlers, options: LiveOptio
     if (closed) return
     if (pollTimer) clearTimeout(pollTimer)
     pollTimer = null
+    // The browser says there is no network: nothing to ask until it says otherwise (its online event reconnects; the
+    // next poll looks again in case that event never comes).
+    if (browserOffline()) {
+      setState("offline")
+      pollTimer = setTimeout(() => void poll(), pollMs)
+      return
+    }
     try {
       const res = await doFetch(`${base}?after=${lastEventId ?? 0}`, { cache: "no-store" })
       if (res.ok) {
@@ -160,12 +169,21 @@ export function connectLive(driveId: string, h: LiveHandlers, options: LiveOptio
     /** The network is back: open the stream again now, from the last event id. */
     reconnect() {
       if (closed) return
+      if (pollTimer) clearTimeout(pollTimer)
+      pollTimer = null
       streamFailures = 0
       openStream()
     },
-    /** The network went away: say so at once (the stream notices on its own only later). */
+    /**
+     * The network went away: say so at once, and let go of the stream (it notices on its own only later, and what it
+     * still delivers must not say the phone is live). Polling looks for the network again until the online event.
+     */
     offline() {
+      if (closed) return
+      source?.close()
+      source = null
       setState("offline")
+      void poll()
     },
     get lastEventId() {
       return lastEventId

@@ -107,4 +107,66 @@ describe("the live client", () => {
     await vi.waitFor(() => expect(fetchImpl).toHaveBeenCalledWith("/api/drives/d3/live?after=0", expect.anything()))
     link.close()
   })
+
+  it("lets go of the stream when the network goes away, and asks again only once the browser is back online", async () => {
+    const { h, seen } = handlers()
+    const onLine = { onLine: true }
+    vi.stubGlobal("navigator", onLine)
+    try {
+      const fetchImpl = vi.fn().mockImplementation(
+        async () =>
+          new Response(JSON.stringify({ lastEventId: 3, events: [], status: { status: "recording" }, score: {} }), {
+            headers: { "content-type": "application/json" },
+          }),
+      )
+      const link = connectLive("d4", h, { EventSourceImpl: ES, fetchImpl, pollMs: 1000 })
+      const first = FakeSource.made[0]!
+      first.emit("heartbeat", { at: 1 }, "2")
+      expect(seen.at(-1)).toBe("connection:live")
+
+      onLine.onLine = false
+      link.offline()
+      expect(first.closed).toBe(true)
+      expect(seen.at(-1)).toBe("connection:offline")
+      // An event the old stream still hands on (already on its way) does not make the phone say it is live.
+      first.emit("score", {}, "3")
+      expect(seen.at(-1)).toBe("connection:offline")
+      expect(seen.filter((s) => s === "score")).toHaveLength(0)
+      // While the browser says offline, a minute of polls asks nothing.
+      await vi.advanceTimersByTimeAsync(60_000)
+      expect(fetchImpl).not.toHaveBeenCalled()
+      expect(FakeSource.made).toHaveLength(1)
+      expect(seen.at(-1)).toBe("connection:offline")
+
+      // Back online without the online event reaching the page: the next poll finds the server and reopens the stream.
+      onLine.onLine = true
+      await vi.advanceTimersByTimeAsync(1000)
+      await vi.waitFor(() => expect(seen).toContain("connection:polling"))
+      expect(fetchImpl.mock.calls[0]![0]).toBe("/api/drives/d4/live?after=2")
+      expect(FakeSource.made).toHaveLength(2)
+      expect(FakeSource.made[1]!.url).toBe("/api/drives/d4/live?lastEventId=3")
+      link.close()
+    } finally {
+      vi.unstubAllGlobals()
+    }
+  })
+
+  it("opens one stream, not two, when the online event comes while a poll waits", async () => {
+    const { h } = handlers()
+    vi.stubGlobal("navigator", { onLine: false })
+    try {
+      const fetchImpl = vi.fn()
+      const link = connectLive("d5", h, { EventSourceImpl: ES, fetchImpl, pollMs: 1000 })
+      link.offline()
+      vi.stubGlobal("navigator", { onLine: true })
+      link.reconnect()
+      expect(FakeSource.made).toHaveLength(2)
+      await vi.advanceTimersByTimeAsync(5000)
+      expect(fetchImpl).not.toHaveBeenCalled()
+      expect(FakeSource.made).toHaveLength(2)
+      link.close()
+    } finally {
+      vi.unstubAllGlobals()
+    }
+  })
 })
