@@ -4,6 +4,7 @@ import { z } from "zod"
 import { isDatabaseUnavailable, isUniqueViolation, uniqueViolationAnswer } from "@/lib/db-errors"
 import { env } from "@/lib/env"
 import { AppError } from "@/lib/errors"
+import { isAppOrigin } from "@/lib/http/app-origin"
 import { methodNotAllowed } from "@/lib/http/method-not-allowed"
 import { BodyTooLargeError, jsonNestsDeeperThan, MAX_JSON_DEPTH, readBodyText } from "@/lib/validation/json-body"
 import { findUnstorableText, unstorableTextProblem } from "@/lib/validation/storable"
@@ -92,17 +93,14 @@ const DATABASE_RETRY_AFTER_SECONDS = 5
 
 const SAFE_METHODS = new Set(["GET", "HEAD", "OPTIONS"])
 
-/** Writes from a browser must come from the app's own public address (APP_URL); proxy headers are not consulted. */
+/**
+ * Writes from a browser must come from the app's own public address (APP_URL, or its other loopback names when it is
+ * served on one: lib/http/app-origin.ts); proxy headers are not consulted.
+ */
 export function assertSameOrigin(method: string, origin: string | null) {
   if (SAFE_METHODS.has(method)) return
   if (!origin) return // not a browser form or fetch across sites (curl, integrations with a cookie they hold)
-  let sent: string
-  try {
-    sent = new URL(origin).origin
-  } catch {
-    throw new AppError("forbidden", "Requests from other sites are refused.")
-  }
-  if (sent !== new URL(env().APP_URL).origin) throw new AppError("forbidden", "Requests from other sites are refused.")
+  if (!isAppOrigin(origin, env().APP_URL)) throw new AppError("forbidden", "Requests from other sites are refused.")
 }
 
 export const MAX_JSON_BYTES = 8 * 1024 * 1024

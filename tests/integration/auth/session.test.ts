@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest"
 import { MAX_FAILURES_PER_ADDRESS, MAX_FAILURES_PER_EMAIL } from "@/lib/auth/throttle"
 import { createTestShop, testDb } from "../../helpers/db"
+import { testEnv } from "../../helpers/env"
 import { ApiClient, signedIn } from "../../helpers/http"
 
 describe("POST /api/session", () => {
@@ -98,6 +99,22 @@ describe("POST /api/session", () => {
     })
     expect(res.status).toBe(403)
     expect(res.body.error.code).toBe("forbidden")
+  })
+
+  it("signs in from the server's other loopback name (localhost for 127.0.0.1), and no other port", async () => {
+    const shop = await createTestShop()
+    // The suites' server runs with APP_URL at its own 127.0.0.1 address (scripts/lib/stack.mjs).
+    const app = new URL(testEnv().baseUrl)
+    expect(app.hostname).toBe("127.0.0.1")
+    const from = async (origin: string) =>
+      new ApiClient().request("POST", "/api/session", undefined, {
+        raw: JSON.stringify({ email: shop.tech.email, password: shop.tech.password }),
+        headers: { "content-type": "application/json", origin },
+      })
+    expect((await from(`http://localhost:${app.port}`)).status).toBe(200)
+    const otherPort = await from(`http://localhost:${Number(app.port) + 1}`)
+    expect(otherPort.status).toBe(403)
+    expect(otherPort.body.error.code).toBe("forbidden")
   })
 })
 
