@@ -1,7 +1,7 @@
+import { clsx } from "clsx"
 import { CircleAlert, CircleCheck, CircleHelp, CircleX, Radio } from "lucide-react"
 
 // Plain class joining (no tailwind-merge) keeps this badge light enough for the recorder bundle.
-const cx = (...parts: Array<string | false | null | undefined>) => parts.filter(Boolean).join(" ")
 
 import type { Verdict } from "@/lib/scoring/types"
 
@@ -52,7 +52,7 @@ export function VerdictBadge({
     return (
       <span
         data-verdict="recording"
-        className={cx(
+        className={clsx(
           "inline-flex items-center rounded-full border-2 border-dashed border-graphite-400 font-semibold text-graphite-700 dark:text-graphite-200",
           sizing,
           className,
@@ -67,7 +67,7 @@ export function VerdictBadge({
   return (
     <span
       data-verdict={verdict}
-      className={cx("inline-flex items-center rounded-full border-2 font-semibold", sizing, look, className)}
+      className={clsx("inline-flex items-center rounded-full border-2 font-semibold", sizing, look, className)}
     >
       <Icon aria-hidden className={iconSize} />
       {word}

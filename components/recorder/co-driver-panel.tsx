@@ -1,4 +1,5 @@
 "use client"
+import { clsx } from "clsx"
 import {
   CircleCheck,
   CircleStop,
@@ -19,8 +20,6 @@ import { formatLengthFt } from "@/lib/format"
 import { roundGapFt, timeGap, typedGapFt, type TimeGap } from "@/lib/recorder/time-gap"
 import { RoadTestChecks } from "./road-test-checks"
 import { getRecorder, useRecorder, useRecorderUnits } from "./use-recorder"
-
-const cx = (...parts: Array<string | false | null | undefined>) => parts.filter(Boolean).join(" ")
 
 const buzz = (pattern: number | number[] = 40) => {
   try {
@@ -53,7 +52,7 @@ function Big({
       data-testid={testId}
       disabled={disabled}
       onClick={onClick}
-      className={cx(
+      className={clsx(
         "flex min-h-16 items-center justify-center gap-2 rounded-xl px-3 text-lg font-bold disabled:opacity-40",
         tones[tone],
       )}

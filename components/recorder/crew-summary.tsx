@@ -1,9 +1,9 @@
 "use client"
+import { clsx } from "clsx"
 import { CloudOff, Radio } from "lucide-react"
 import { CLOCKS, LearnState, minutes, useDriveClock } from "./drive-clock"
 import { useRecorder } from "./use-recorder"
 
-const cx = (...parts: Array<string | false | null | undefined>) => parts.filter(Boolean).join(" ")
 /** The learn's words on the co-driver's summary: teal once the learn completed. */
 const LEARN_LOOK = {
   done: { box: "text-teal-300", icon: "size-4" },
@@ -97,7 +97,7 @@ export function CrewSummary() {
           look={LEARN_LOOK}
         />
         <span
-          className={cx("ml-auto inline-flex items-center gap-1", offline && "text-signal-300")}
+          className={clsx("ml-auto inline-flex items-center gap-1", offline && "text-signal-300")}
           data-testid="crew-sync"
           data-state={live.state}
         >

@@ -1,12 +1,11 @@
 "use client"
+import { clsx } from "clsx"
 import { CloudOff, Gauge, Hourglass, Link2, Radio, Timer, TriangleAlert, type LucideIcon } from "lucide-react"
 import { formatDistance, formatLengthRangeFt, formatSpeed, plural, speedUnit } from "@/lib/format"
 import { speedMeterWords } from "@/lib/recorder/profile-words"
 import { mpsToMph } from "@/lib/units"
 import { CLOCKS, LearnState, minutes, useDriveClock } from "./drive-clock"
 import { useRecorder, useRecorderUnits } from "./use-recorder"
-
-const cx = (...parts: Array<string | false | null | undefined>) => parts.filter(Boolean).join(" ")
 
 /** A no-break space before each unit, so a narrow meter never puts "56+" and "km/h" on two lines. */
 function keepUnitsWithNumbers(text: string) {
@@ -60,7 +59,7 @@ function Meter({
 }: Reading & { label: string; icon: LucideIcon; testId: string }) {
   return (
     <div
-      className={cx("rounded-xl border-2 bg-asphalt-800 p-3", TONES[tone])}
+      className={clsx("rounded-xl border-2 bg-asphalt-800 p-3", TONES[tone])}
       data-testid={testId}
       data-value={raw ?? ""}
     >

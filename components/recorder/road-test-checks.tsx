@@ -1,4 +1,5 @@
 "use client"
+import { clsx } from "clsx"
 import { Ban, CircleCheck, CircleX, ClipboardCheck } from "lucide-react"
 import { useEffect, useState } from "react"
 import type { CheckResult, RoadTestCheck } from "@/lib/drive-file/road-test"
@@ -7,7 +8,6 @@ import { CHECK_RESULT_LABEL, checkSpeedWords, checkTooSlowWords } from "@/lib/ro
 import { mpsToMph } from "@/lib/units"
 import { getRecorder, useRecorder, useRecorderUnits } from "./use-recorder"
 
-const cx = (...parts: Array<string | false | null | undefined>) => parts.filter(Boolean).join(" ")
 const cacheKey = (driveId: string) => `straightaway.road-test.${driveId}`
 
 /**
@@ -136,7 +136,7 @@ export function RoadTestChecks() {
                       aria-pressed={done === r}
                       data-testid={`check-${c.key}-${r}`}
                       onClick={() => void log(c, r)}
-                      className={cx(
+                      className={clsx(
                         "flex min-h-16 items-center justify-center gap-1.5 rounded-xl px-2 text-base leading-tight font-bold disabled:opacity-40",
                         done === r ? on : "bg-asphalt-700 text-white",
                       )}
