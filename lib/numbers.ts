@@ -146,6 +146,23 @@ export function verdictMixByWeek(drives: readonly NumbersDrive[], timeZone: stri
   return [...rows.values()].sort((a, b) => a.weekStart.localeCompare(b.weekStart))
 }
 
+/**
+ * The weeks from the first row's to the last's, each one there: a week without finished drives is a row of zeros, so
+ * a chart of them spaces time evenly (weeks start on Monday, as YYYY-MM-DD; counted on the calendar, no zone).
+ */
+export function everyWeek(rows: readonly VerdictMixRow[]): VerdictMixRow[] {
+  if (rows.length === 0) return []
+  const byWeek = new Map(rows.map((r) => [r.weekStart, r]))
+  const sorted = [...byWeek.keys()].sort()
+  const out: VerdictMixRow[] = []
+  const last = Date.parse(`${sorted.at(-1)}T00:00:00Z`)
+  for (let at = Date.parse(`${sorted[0]}T00:00:00Z`); at <= last; at += 7 * 86_400_000) {
+    const weekStart = new Date(at).toISOString().slice(0, 10)
+    out.push(byWeek.get(weekStart) ?? { weekStart, total: 0, met: 0, short: 0, not_met: 0, unverified: 0 })
+  }
+  return out
+}
+
 export type ReasonCount = { key: string; label: string; drives: number; share: number }
 
 export function topReasons(drives: readonly NumbersDrive[], limit = 7): ReasonCount[] {

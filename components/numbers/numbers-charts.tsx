@@ -2,8 +2,8 @@
 
 import { Bar, BarChart, CartesianGrid, Legend, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts"
 import { Card } from "@/components/ui/card"
-import { CLEAR_BINS_MIN, clearBinLabel, type Numbers } from "@/lib/numbers"
-import { formatDay, formatDuration } from "@/lib/format"
+import { CLEAR_BINS_MIN, clearBinLabel, everyWeek, type Numbers } from "@/lib/numbers"
+import { formatDate, formatDay, formatDuration } from "@/lib/format"
 
 // Mid tones that keep 3:1 against both the light and the dark card (WCAG 1.4.11); the legend names each one.
 const PROFILE_COLOURS = ["#f5a30a", "#14a89a", "#7d8794", "#c98000", "#2fcbbb", "#aab1ba"]
@@ -64,7 +64,10 @@ export function TimeToClearChart({ data }: { data: Numbers["timeToClear"] }) {
   )
 }
 
-export function VerdictMixChart({ data }: { data: Numbers["verdictMix"] }) {
+export function VerdictMixChart({ data: withDrives }: { data: Numbers["verdictMix"] }) {
+  const data = everyWeek(withDrives)
+  // Weeks from more than one year (the 365-day range, or a range over New Year) name their year on the axis too.
+  const week = new Set(data.map((d) => d.weekStart.slice(0, 4))).size > 1 ? formatDate : formatDay
   return (
     <Card>
       <h2 className="text-lg font-semibold">Verdicts week by week</h2>
@@ -73,7 +76,8 @@ export function VerdictMixChart({ data }: { data: Numbers["verdictMix"] }) {
       </p>
       <div className="h-64 text-graphite-800 dark:text-graphite-100" data-testid="chart-verdict-mix">
         <ResponsiveContainer width="100%" height="100%">
-          <BarChart data={data} margin={{ top: 8, right: 8, bottom: 4, left: -16 }}>
+          {/* Labels with a year are longer: the first, angled, needs room on the left. */}
+          <BarChart data={data} margin={{ top: 8, right: 8, bottom: 4, left: week === formatDate ? 12 : -16 }}>
             <CartesianGrid strokeDasharray="3 3" stroke="currentColor" strokeOpacity={0.2} />
             {/* Angled week labels, every nth one evenly (recharts works out n from the width) so they never overlap. */}
             <XAxis
@@ -82,15 +86,15 @@ export function VerdictMixChart({ data }: { data: Numbers["verdictMix"] }) {
               minTickGap={2}
               angle={-45}
               textAnchor="end"
-              height={48}
+              height={week === formatDate ? 68 : 48}
               tick={{ fontSize: 12, fill: "currentColor" }}
               stroke="currentColor"
-              tickFormatter={(v: string) => formatDay(`${v}T12:00:00Z`, "UTC")}
+              tickFormatter={(v: string) => week(`${v}T12:00:00Z`, "UTC")}
             />
             <YAxis allowDecimals={false} tick={{ fontSize: 12, fill: "currentColor" }} stroke="currentColor" />
             <Tooltip
               contentStyle={TOOLTIP_STYLE}
-              labelFormatter={(v) => `Week of ${formatDay(`${v}T12:00:00Z`, "UTC")}`}
+              labelFormatter={(v) => `Week of ${formatDate(`${v}T12:00:00Z`, "UTC")}`}
             />
             <Legend formatter={legendText} />
             {VERDICT_SERIES.map((s) => (

@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest"
 import {
+  everyWeek,
   isoWeekStart,
   numbersToCsv,
   percentile,
@@ -164,5 +165,34 @@ describe("numbers CSV", () => {
     // IANA tz database: Chicago is UTC-6 in March before daylight saving starts (2026-03-08).
     expect(lines[1]).toContain(",2026-03-04T06:00:00-06:00,")
     expect(lines).toHaveLength(3)
+  })
+})
+
+describe("every week on the chart", () => {
+  it("puts a row of zeros in each week without drives, over New Year, keeping the weeks with drives as they are", () => {
+    const mix = verdictMixByWeek(
+      [
+        drive({ finishedAt: "2025-12-16T15:00:00Z", verdict: "met" }),
+        drive({ finishedAt: "2026-01-07T15:00:00Z", verdict: "not_met" }),
+      ],
+      "America/Chicago",
+    )
+    const weeks = everyWeek(mix)
+    // Calendar, hand-counted: Mondays Dec 15, 22, 29 (2025), Jan 5 (2026).
+    expect(weeks.map((w) => w.weekStart)).toEqual(["2025-12-15", "2025-12-22", "2025-12-29", "2026-01-05"])
+    expect(weeks[0]).toBe(mix[0])
+    expect(weeks[3]).toBe(mix[1])
+    expect(weeks[1]).toEqual({ weekStart: "2025-12-22", total: 0, met: 0, short: 0, not_met: 0, unverified: 0 })
+    expect(weeks.reduce((sum, w) => sum + w.total, 0)).toBe(2)
+  })
+
+  it("steps whole weeks across a daylight-saving change, and has nothing to show for no drives", () => {
+    // 2026-03-08 is the US change to daylight saving (IANA tz database): Mondays Mar 2, 9, 16.
+    const weeks = everyWeek([
+      { weekStart: "2026-03-02", total: 1, met: 1, short: 0, not_met: 0, unverified: 0 },
+      { weekStart: "2026-03-16", total: 1, met: 0, short: 1, not_met: 0, unverified: 0 },
+    ])
+    expect(weeks.map((w) => w.weekStart)).toEqual(["2026-03-02", "2026-03-09", "2026-03-16"])
+    expect(everyWeek([])).toEqual([])
   })
 })
