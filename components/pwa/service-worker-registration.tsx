@@ -10,10 +10,13 @@ const WARM_URLS = ["/record", "/drives"]
 /** How long the worker may take to answer one request to save the pages (it fetches them first). */
 const WARM_ANSWER_MS = 10_000
 
-/** Pages where nobody is signed in yet: warming there would only save the sign-in redirect. */
+/** How long after the page's `load` the worker is registered (then at the next idle moment). */
+const AFTER_LOAD_MS = 1500
+
 /** The offer to reload into a new version: loaded only when there is one. */
 const UpdateOffer = lazy(() => import("./update-offer").then((m) => ({ default: m.UpdateOffer })))
 
+/** Pages where nobody is signed in yet: warming there would only save the sign-in redirect. */
 const SIGNED_OUT_PATHS = /^\/(sign-in|share)(\/|$)/
 
 /**
@@ -51,12 +54,24 @@ export function ServiceWorkerRegistration() {
           if (!gone) setWb(workbox)
         })
       })
-    const whenIdle = () =>
-      "requestIdleCallback" in window ? requestIdleCallback(register, { timeout: 2000 }) : setTimeout(register, 200)
+    // A page's first screen may still be on its way after `load` (the recorder's waits on IndexedDB to know whether a
+    // drive is to be resumed), and the main thread is idle meanwhile: the worker waits a little past `load` too, so
+    // its script and registration never compete with that screen on a slow phone.
+    let timer: ReturnType<typeof setTimeout> | undefined
+    const whenIdle = () => {
+      timer = setTimeout(
+        () =>
+          "requestIdleCallback" in window
+            ? requestIdleCallback(register, { timeout: 2000 })
+            : setTimeout(register, 200),
+        AFTER_LOAD_MS,
+      )
+    }
     if (document.readyState === "complete") whenIdle()
     else window.addEventListener("load", whenIdle, { once: true })
     return () => {
       gone = true
+      clearTimeout(timer)
       window.removeEventListener("load", whenIdle)
     }
   }, [])

@@ -80,7 +80,9 @@ export async function loadedScriptsGzipBytes(baseUrl: string, path: string, cook
     let scripts = 0
     for (const [url, body] of bodies) {
       if (!asked.includes(url)) continue
-      bytes += gzipSync(await body, { level: 9 }).length
+      const n = gzipSync(await body, { level: 9 }).length
+      if (process.env.BENCH_LIST) console.error(`[bench]   ${url.slice(-60)} ${n}`)
+      bytes += n
       scripts++
     }
     return { bytes, scripts, later: bodies.size - scripts }
