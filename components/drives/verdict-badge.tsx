@@ -1,8 +1,6 @@
+// Plain class joining (clsx, no tailwind-merge) keeps this badge light enough for the recorder bundle.
 import { clsx } from "clsx"
 import { CircleAlert, CircleCheck, CircleHelp, CircleX, Radio } from "lucide-react"
-
-// Plain class joining (no tailwind-merge) keeps this badge light enough for the recorder bundle.
-
 import type { Verdict } from "@/lib/scoring/types"
 
 export type { Verdict }

@@ -67,7 +67,8 @@ export function TimeToClearChart({ data }: { data: Numbers["timeToClear"] }) {
 export function VerdictMixChart({ data: withDrives }: { data: Numbers["verdictMix"] }) {
   const data = everyWeek(withDrives)
   // Weeks from more than one year (the 365-day range, or a range over New Year) name their year on the axis too.
-  const week = new Set(data.map((d) => d.weekStart.slice(0, 4))).size > 1 ? formatDate : formatDay
+  const spansYears = new Set(data.map((d) => d.weekStart.slice(0, 4))).size > 1
+  const week = spansYears ? formatDate : formatDay
   return (
     <Card>
       <h2 className="text-lg font-semibold">Verdicts week by week</h2>
@@ -77,7 +78,7 @@ export function VerdictMixChart({ data: withDrives }: { data: Numbers["verdictMi
       <div className="h-64 text-graphite-800 dark:text-graphite-100" data-testid="chart-verdict-mix">
         <ResponsiveContainer width="100%" height="100%">
           {/* Labels with a year are longer: the first, angled, needs room on the left. */}
-          <BarChart data={data} margin={{ top: 8, right: 8, bottom: 4, left: week === formatDate ? 12 : -16 }}>
+          <BarChart data={data} margin={{ top: 8, right: 8, bottom: 4, left: spansYears ? 12 : -16 }}>
             <CartesianGrid strokeDasharray="3 3" stroke="currentColor" strokeOpacity={0.2} />
             {/* Angled week labels, every nth one evenly (recharts works out n from the width) so they never overlap. */}
             <XAxis
@@ -86,7 +87,7 @@ export function VerdictMixChart({ data: withDrives }: { data: Numbers["verdictMi
               minTickGap={2}
               angle={-45}
               textAnchor="end"
-              height={week === formatDate ? 68 : 48}
+              height={spansYears ? 68 : 48}
               tick={{ fontSize: 12, fill: "currentColor" }}
               stroke="currentColor"
               tickFormatter={(v: string) => week(`${v}T12:00:00Z`, "UTC")}
