@@ -1,4 +1,7 @@
 import type { z } from "zod"
+// The API's words for a wrong or missing value ("must be a number", "is required") for every schema without its
+// own, so the CLI and an import say what the API says (zod's global config, set once by that module).
+import "@/lib/validation/zod-fields"
 import { fastParseDriveFile } from "./fast-check"
 import {
   DRIVE_FORMAT,
@@ -33,17 +36,10 @@ export function formatFieldKey(path: ReadonlyArray<PropertyKey>): string {
 
 /** zod's generic wording turned into the plain kind used across the drive file. */
 function issueMessage(issue: z.core.$ZodIssue): string {
-  // Our schemas give every check its own message; this only catches zod's stock wording.
-  if (!issue.message.startsWith("Invalid")) return issue.message
-  switch (issue.code) {
-    case "unrecognized_keys":
-      return `has unknown keys: ${issue.keys.join(", ")}`
-    case "invalid_type":
-      if (issue.input === undefined) return "is required"
-      return issue.expected === "int" ? "must be a whole number" : `must be of type ${issue.expected}`
-    default:
-      return issue.message
-  }
+  // Our schemas give every check its own message, and zod-fields words every wrong type; this catches the rest.
+  if (issue.code === "unrecognized_keys" && issue.message.startsWith("Invalid"))
+    return `has unknown keys: ${issue.keys.join(", ")}`
+  return issue.message
 }
 
 /** One line for the CLI and the API: `samples[3].lat: must be between -90 and 90`. */

@@ -1,4 +1,5 @@
 import { describe, expect, it } from "vitest"
+import { z } from "zod"
 import {
   DEFAULT_PROFILE,
   apiMarkSchema,
@@ -112,6 +113,20 @@ describe("parseDriveFile", () => {
     expect(zodIssuesToFields(r.error!.issues)).toEqual({
       "samples.0.accuracy": "must be 0 m or more",
       "samples.3.lat": "must be between -90 and 90",
+    })
+  })
+
+  it("words a wrong type as the API does (must be a number, not zod's stock sentence), and a missing one as required", () => {
+    const stock = z.object({ n: z.number(), list: z.array(z.string()), box: z.object({}), on: z.boolean() })
+    const r = stock.safeParse({ n: "7", list: 1, box: [], on: "yes" })
+    expect(zodIssuesToFields(r.error!.issues)).toEqual({
+      n: "must be a number",
+      list: "must be a list",
+      box: "must be an object",
+      on: "must be true or false",
+    })
+    expect(zodIssuesToFields(stock.safeParse({ list: [], box: {}, on: true }).error!.issues)).toEqual({
+      n: "is required",
     })
   })
 })
