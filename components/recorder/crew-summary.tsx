@@ -1,7 +1,9 @@
 "use client"
 import { clsx } from "clsx"
 import { CloudOff, Radio } from "lucide-react"
-import { CLOCKS, LearnState, minutes, useDriveClock } from "./drive-clock"
+import { useFormatPrefs } from "@/components/shell/format-prefs"
+import { formatClock, formatTime } from "@/lib/format"
+import { CLOCKS, LearnState, useDriveClock } from "./drive-clock"
 import { useRecorder } from "./use-recorder"
 
 /** The learn's words on the co-driver's summary: teal once the learn completed. */
@@ -9,7 +11,6 @@ const LEARN_LOOK = {
   done: { box: "text-teal-300", icon: "size-4" },
   waiting: { box: "text-graphite-300", icon: "size-4" },
 }
-const clock = (ms: number) => new Date(ms).toLocaleTimeString([], { hour: "2-digit", minute: "2-digit" })
 
 function Stat({
   label,
@@ -45,6 +46,7 @@ export function CrewSummary() {
   const live = useRecorder((s) => s.live)
   const waitingMarks = useRecorder((s) => s.sync.waitingOther)
   const scoreAsOf = useRecorder((s) => s.scoreAsOf)
+  const { timeZone } = useFormatPrefs()
   if (!drive) return null
   const { meta, profile: p, score, left, elapsedS, cleared } = drive
   const vehicle = info?.vehicleDescription ?? meta.vehicleDescription ?? meta.label
@@ -70,15 +72,15 @@ export function CrewSummary() {
         </span>
       </div>
       <div className="grid grid-cols-4 gap-1">
-        <Stat testId="crew-elapsed" raw={elapsedS} label="Elapsed" value={minutes(elapsedS)} />
+        <Stat testId="crew-elapsed" raw={elapsedS} label="Elapsed" value={formatClock(elapsedS)} />
         {CLOCKS.map(({ name, label, needed }) => (
           <Stat
             key={name}
             testId={`crew-${name}`}
             raw={score?.[`${name}Seconds`] ?? null}
             label={label}
-            value={minutes(score?.[`${name}SecondsBeforeClear`] ?? 0)}
-            of={String(p[needed])}
+            value={formatClock(score?.[`${name}SecondsBeforeClear`] ?? 0)}
+            of={formatClock(p[needed] * 60)}
           />
         ))}
         <Stat
@@ -107,7 +109,9 @@ export function CrewSummary() {
         </span>
       </div>
       {secondPhone && offline && scoreAsOf ? (
-        <p className="text-xs text-graphite-300">Minutes as of {clock(scoreAsOf)}, the last word from the server.</p>
+        <p className="text-xs text-graphite-300">
+          Minutes as of {formatTime(scoreAsOf, timeZone)}, the last word from the server.
+        </p>
       ) : null}
     </section>
   )

@@ -1,9 +1,7 @@
 import { CircleCheck, Hourglass } from "lucide-react"
 import type { ReactNode } from "react"
+import { formatDuration } from "@/lib/format"
 import { useRecorder } from "./use-recorder"
-
-/** Seconds as minutes with one decimal, the way every recorder meter shows time. */
-export const minutes = (seconds: number) => (seconds / 60).toFixed(1)
 
 /** The two clocks the learn needs: the time so far (before the learn-complete mark) against the minutes needed. */
 export const CLOCKS = [
@@ -36,7 +34,7 @@ export function LearnState({
       {cleared !== null ? (
         <>
           <CircleCheck aria-hidden className={icon} />
-          {`Learn complete at ${minutes(cleared)} min`}
+          {`Learn complete at ${formatDuration(cleared)}`}
         </>
       ) : (
         <>

@@ -1,10 +1,10 @@
 "use client"
 import { clsx } from "clsx"
 import { CloudOff, Gauge, Hourglass, Link2, Radio, Timer, TriangleAlert, type LucideIcon } from "lucide-react"
-import { formatDistance, formatLengthRangeFt, formatSpeed, plural, speedUnit } from "@/lib/format"
+import { formatClock, formatDistance, formatLengthRangeFt, formatSpeed, plural, speedUnit } from "@/lib/format"
 import { speedMeterWords } from "@/lib/recorder/profile-words"
 import { mpsToMph } from "@/lib/units"
-import { CLOCKS, LearnState, minutes, useDriveClock } from "./drive-clock"
+import { CLOCKS, LearnState, useDriveClock } from "./drive-clock"
 import { useRecorder, useRecorderUnits } from "./use-recorder"
 
 /** A no-break space before each unit, so a narrow meter never puts "56+" and "km/h" on two lines. */
@@ -97,7 +97,7 @@ export function Meters() {
   const readings: Record<(typeof DRIVE_METERS)[number]["name"], Reading> = {
     elapsed: {
       raw: elapsedS,
-      value: minutes(elapsedS),
+      value: formatClock(elapsedS),
       unit: "min",
       detail: timedOut
         ? `Past the ${p.maxDriveMinutes} min limit: the drive has timed out`
@@ -140,7 +140,7 @@ export function Meters() {
             raw={score?.[`${name}Seconds`] ?? 0}
             label={label}
             icon={icon}
-            value={minutes(before)}
+            value={formatClock(before)}
             unit="min"
             detail={keepUnitsWithNumbers(`of ${p[needed]} min${name === "following" ? gap : ""}`)}
             tone={before >= p[needed] * 60 ? done : "plain"}

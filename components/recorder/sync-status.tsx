@@ -1,15 +1,14 @@
 "use client"
 import { CloudOff, CloudUpload, CircleCheck, TriangleAlert } from "lucide-react"
-import { plural } from "@/lib/format"
+import { useFormatPrefs } from "@/components/shell/format-prefs"
+import { formatTimeWithSeconds, plural } from "@/lib/format"
 import { getRecorder, useRecorder } from "./use-recorder"
-
-function clock(ms: number | null) {
-  return ms ? new Date(ms).toLocaleTimeString([], { hour: "2-digit", minute: "2-digit", second: "2-digit" }) : "not yet"
-}
 
 /** Samples waiting, last synced, and any write the server refused (kept here until someone looks). */
 export function SyncStatus() {
   const sync = useRecorder((s) => s.sync)
+  // In the shop's time zone, as every other time in the product, whatever the phone's own locale and zone.
+  const { timeZone } = useFormatPrefs()
   // a co-driver's own phone sends marks only
   const marksOnly = useRecorder((s) => s.meta?.role === "co-driver")
   const waiting = sync.waitingSamples + sync.waitingOther
@@ -40,7 +39,7 @@ export function SyncStatus() {
         <span className="font-semibold whitespace-nowrap">{word}</span>
         <span className="ml-auto tabular">
           {marksOnly ? plural(sync.waitingOther, "mark") : plural(sync.waitingSamples, "sample")} waiting · last synced{" "}
-          {clock(sync.lastSyncedAt)}
+          {sync.lastSyncedAt ? formatTimeWithSeconds(sync.lastSyncedAt, timeZone) : "not yet"}
         </span>
       </div>
       {sync.failed.map((f) => (

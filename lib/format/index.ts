@@ -32,6 +32,19 @@ export function formatDuration(seconds: number | null | undefined): string {
   return parts.length ? parts.join(" ") : "0 s"
 }
 
+/**
+ * A running clock for the recorder's meters: minutes and seconds, "7:05", and hours once past one, "1:02:05"; whole
+ * seconds rounded down as formatDuration rounds them, so a clock never shows a second not yet driven.
+ */
+export function formatClock(seconds: number | null | undefined): string {
+  if (seconds == null || !Number.isFinite(seconds)) return "—"
+  const total = Math.max(0, Math.floor(seconds + 1e-6))
+  const h = Math.floor(total / 3600)
+  const m = Math.floor((total % 3600) / 60)
+  const s = String(total % 60).padStart(2, "0")
+  return h ? `${h}:${String(m).padStart(2, "0")}:${s}` : `${m}:${s}`
+}
+
 /** A requirement or limit given in whole minutes in a profile: the same style as formatDuration. */
 export function formatMinutesSetting(minutes: number): string {
   return formatDuration(minutes * 60)
@@ -92,6 +105,11 @@ export function formatDay(at: Moment, timeZone?: string | null): string {
 /** "9:42 AM" */
 export function formatTime(at: Moment, timeZone?: string | null): string {
   return formatMoment(at, timeZone, { hour: "numeric", minute: "2-digit" })
+}
+
+/** "9:42:19 AM": formatTime to the second, for what happened moments ago (the recorder's last sync). */
+export function formatTimeWithSeconds(at: Moment, timeZone?: string | null): string {
+  return formatMoment(at, timeZone, { hour: "numeric", minute: "2-digit", second: "2-digit" })
 }
 
 /** An hour of the shop's day (0-23), in formatTime's style: 9 -> "9:00 AM", 0 -> "12:00 AM". */

@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest"
 import {
   describeTimeZone,
   formatAcceleration,
+  formatClock,
   formatDate,
   formatDateTime,
   formatDay,
@@ -13,6 +14,7 @@ import {
   formatSpeed,
   formatSpeedMph,
   formatTime,
+  formatTimeWithSeconds,
   isoDay,
   isoLocalDateTime,
   isTimeZone,
@@ -48,6 +50,16 @@ describe("durations: one style, whole seconds rounded down", () => {
     expect(formatDuration(wholeSeconds(708.96))).toBe(formatDuration(708.96))
   })
 
+  it("runs the recorder's clocks as minutes and seconds, rounded down the same way", () => {
+    // hand-worked: 425 s = 7 × 60 + 5; 3725 s = 3600 + 2 × 60 + 5
+    expect(formatClock(425)).toBe("7:05")
+    expect(formatClock(599.9)).toBe("9:59")
+    expect(formatClock(0)).toBe("0:00")
+    expect(formatClock(3725)).toBe("1:02:05")
+    expect(formatClock(707.9999999999)).toBe("11:48")
+    expect(formatClock(null)).toBe("—")
+  })
+
   it("says a missing duration with a dash", () => {
     expect(formatDuration(null)).toBe("—")
     expect(formatDuration(Number.NaN)).toBe("—")
@@ -76,6 +88,8 @@ describe("dates: one style, in the shop's time zone", () => {
     expect(isoDay("2026-12-02T03:00:00Z", "UTC")).toBe("2026-12-02")
     expect(formatDay("2026-11-30T18:00:00Z", "America/Chicago")).toBe("Nov 30")
     expect(formatTime(noonish, "America/Chicago")).toBe("9:42 AM")
+    expect(formatTimeWithSeconds(noonish, "America/Chicago")).toBe("9:42:19 AM")
+    expect(formatTimeWithSeconds(noonish, "Europe/Berlin")).toBe("4:42:19 PM")
   })
 
   it("writes an hour of the shop's day in formatTime's style (12-hour clock, en-US)", () => {
