@@ -19,6 +19,10 @@ const RecordingScreen = lazy(() => import("./recording-screen").then((m) => ({ d
 const FinishScreen = lazy(() => import("./finish-screen").then((m) => ({ default: m.FinishScreen })))
 const opening = <p className="text-graphite-300">Opening the recorder…</p>
 
+/** How often, and how many times, a co-driver's phone looks for a drive the server does not have yet (5 min). */
+const CO_DRIVER_LOOK_EVERY_MS = 5_000
+const CO_DRIVER_LOOKS = 60
+
 /** The drive id lives in the address (`/record?drive=...`) so that a reload, online or not, finds the drive. */
 function driveIdFromLocation(): string | null {
   const url = new URL(window.location.href)
@@ -30,7 +34,7 @@ function driveIdFromLocation(): string | null {
 
 export function RecorderApp({ coDriver = false }: { coDriver?: boolean }) {
   const [meta, setMeta] = useState<DriveMeta | null>(null)
-  const [phase, setPhase] = useState<"loading" | "start" | "drive" | "missing">("loading")
+  const [phase, setPhase] = useState<"loading" | "start" | "drive" | "looking" | "missing">("loading")
   const { units, timeZone } = useFormatPrefs()
 
   useEffect(() => {
@@ -66,15 +70,23 @@ export function RecorderApp({ coDriver = false }: { coDriver?: boolean }) {
         return
       }
       if (coDriver && id) {
-        const body = await apiFetch<{ drive?: { profile: ResolvedProfile; vehicleDescription: string | null } }>(
-          `/api/drives/${id}`,
-        ).catch(() => null)
-        if (body?.drive) {
-          await recorder.joinAsCoDriver(id, body.drive.profile, body.drive.vehicleDescription ?? "Drive", units)
-          setPhase("drive")
-          return
+        // The driver's phone may still be sending the drive (started in the bay on a weak signal, or a moment ago):
+        // a drive the server does not have yet is looked for again every few seconds, for a while.
+        for (let attempt = 0; !gone; attempt++) {
+          const body = await apiFetch<{ drive?: { profile: ResolvedProfile; vehicleDescription: string | null } }>(
+            `/api/drives/${id}`,
+          ).catch(() => null)
+          if (gone) return
+          if (body?.drive) {
+            await recorder.joinAsCoDriver(id, body.drive.profile, body.drive.vehicleDescription ?? "Drive", units)
+            setPhase("drive")
+            return
+          }
+          const lookingAgain = attempt + 1 < CO_DRIVER_LOOKS
+          setPhase(lookingAgain ? "looking" : "missing")
+          if (!lookingAgain) return
+          await new Promise((resolve) => setTimeout(resolve, CO_DRIVER_LOOK_EVERY_MS))
         }
-        setPhase("missing")
         return
       }
       void recorder.flush() // anything left from an earlier drive goes out on app start
@@ -113,6 +125,16 @@ export function RecorderApp({ coDriver = false }: { coDriver?: boolean }) {
   }
 
   if (phase === "loading") return <p className="text-graphite-300">Opening the recorder…</p>
+  if (phase === "looking")
+    return (
+      <p className="text-graphite-300" data-testid="looking-for-drive" role="status">
+        Waiting for this drive to reach the server from the driver&apos;s phone. This phone looks again every few
+        seconds; keep it open.{" "}
+        <a href="/drives" className="font-semibold text-graphite-50 underline">
+          Back to drives
+        </a>
+      </p>
+    )
   if (phase === "missing")
     return (
       <p className="text-graphite-300" data-testid="not-yours">

@@ -1,3 +1,4 @@
+import { randomUUID } from "node:crypto"
 import { internalDriveId } from "@/lib/drive-id"
 import { generateDrive } from "@/lib/tracks"
 import { createTestShop, testDb, type TestShop } from "../helpers/db"
@@ -191,5 +192,28 @@ test.describe("one live picture of the drive on two phones", () => {
     expect(await co.getByTestId("mark-lead-on").count()).toBe(0) // no more marks invited
     // The lead's page turns into the finished drive's record.
     await expect.poll(() => lead.getByTestId("live-drive").count(), { timeout: 15_000 }).toBe(0)
+  })
+
+  test("a co-driver who opens the drive before the driver's phone has sent it waits, then joins it", async ({
+    phoneAs,
+  }) => {
+    const co = await phoneAs(shop.codriver)
+    await co.clock.install()
+    const driveId = randomUUID()
+    await co.goto(`/record/${driveId}/co-driver`)
+    await expect(co.getByTestId("looking-for-drive")).toBeVisible()
+    // The driver's phone gets through: the drive reaches the server, naming this co-driver.
+    const created = await (
+      await signedIn(shop.tech)
+    ).post("/api/drives", {
+      id: driveId,
+      vehicleDescription: "Invented Brellan 1.6, grey",
+      coDriverId: shop.codriver.id,
+    })
+    expect(created.status).toBe(201)
+    await expect(co.getByTestId("co-driver-panel")).toHaveCount(0)
+    await co.clock.runFor(5_000)
+    await expect(co.getByTestId("co-driver-panel")).toBeVisible()
+    await expect(co.getByTestId("crew-job")).toContainText("Invented Brellan 1.6, grey")
   })
 })
