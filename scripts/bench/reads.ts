@@ -70,10 +70,6 @@ function bigShop(ctx: BenchContext): Promise<BigShop> {
     // As autovacuum leaves a table that has settled (the trigger rewrote each drive row once).
     await sql`vacuum analyze drive`.execute(db)
     await sql`vacuum analyze score`.execute(db)
-    // And with the seed's writes (and the earlier figures' samples) on disk, as a database's checkpoints leave history
-    // that is days old: otherwise a checkpoint writes them out during the timed reads. In one full run the numbers
-    // p95 was 45.6 ms and the CSV's 71.7 ms, against 33.5 and 38.2 ms when the same figures ran on their own.
-    await sql`checkpoint`.execute(db)
     return { db, pool: new pg.Pool({ connectionString: ctx.env.DATABASE_URL, max: 2 }), shopId, done: 0 }
   })
 }
