@@ -3,4 +3,4 @@ export type { AnyDriveFile, ApiMark, DriveFile, DriveFile2, Mark, Mark2, Profile
 export * from "./road-test"
 export { DEFAULT_PROFILE, resolveProfile } from "./profile"
 export type { ResolvedProfile } from "./profile"
-export { formatFieldKey, formatParseError, parseAnyDriveFile, parseDriveFile, zodIssuesToFields } from "./parse"
+export { formatFieldKey, formatParseError, parseAnyDriveFile, parseDriveFile } from "./parse"

@@ -1,6 +1,6 @@
-import type { z } from "zod"
-// The API's words for a wrong or missing value ("must be a number", "is required") for every schema without its
-// own, so the CLI and an import say what the API says (zod's global config, set once by that module).
+// Every check in the drive file's schemas has its own words; the API's words for a wrong or missing value ("must be
+// a number", "is required") cover any without, so the CLI and an import say what the API says (zod's global config,
+// set once by that module).
 import "@/lib/validation/zod-fields"
 import { fastParseDriveFile } from "./fast-check"
 import {
@@ -34,27 +34,9 @@ export function formatFieldKey(path: ReadonlyArray<PropertyKey>): string {
   return path.length === 0 ? ROOT_PATH : path.map(String).join(".")
 }
 
-/** zod's generic wording turned into the plain kind used across the drive file. */
-function issueMessage(issue: z.core.$ZodIssue): string {
-  // Our schemas give every check its own message, and zod-fields words every wrong type; this catches the rest.
-  if (issue.code === "unrecognized_keys" && issue.message.startsWith("Invalid"))
-    return `has unknown keys: ${issue.keys.join(", ")}`
-  return issue.message
-}
-
 /** One line for the CLI and the API: `samples[3].lat: must be between -90 and 90`. */
 export function formatParseError(error: { path: string; message: string }): string {
   return `${error.path}: ${error.message}`
-}
-
-/** Zod issues -> `{ "samples.3.lat": "must be between -90 and 90" }` (first message per field). */
-export function zodIssuesToFields(issues: ReadonlyArray<z.core.$ZodIssue>): Record<string, string> {
-  const fields: Record<string, string> = {}
-  for (const issue of issues) {
-    const key = formatFieldKey(issue.path)
-    if (!(key in fields)) fields[key] = issueMessage(issue)
-  }
-  return fields
 }
 
 export function parseDriveFile(input: unknown): ParseDriveFileResult {
@@ -63,7 +45,7 @@ export function parseDriveFile(input: unknown): ParseDriveFileResult {
   const result = driveFileSchema.safeParse(input)
   if (result.success) return { ok: true, file: result.data }
   const issue = result.error.issues[0]!
-  return { ok: false, path: formatIssuePath(issue.path), message: issueMessage(issue) }
+  return { ok: false, path: formatIssuePath(issue.path), message: issue.message }
 }
 
 /**
@@ -77,7 +59,7 @@ export function parseAnyDriveFile(input: unknown): ParseAnyDriveFileResult {
     const result = driveFileSchema2.safeParse(input)
     if (result.success) return { ok: true, file: result.data }
     const issue = result.error.issues[0]!
-    return { ok: false, path: formatIssuePath(issue.path), message: issueMessage(issue) }
+    return { ok: false, path: formatIssuePath(issue.path), message: issue.message }
   }
   const r = parseDriveFile(input)
   if (!r.ok && r.path === "format" && format !== DRIVE_FORMAT) {

@@ -17,17 +17,18 @@ export const DEFAULT_PREFS: Readonly<FormatPrefs> = Object.freeze({ units: "impe
 
 // ---- durations ----------------------------------------------------------------------------------
 
+function hoursMinutesSeconds(total: number): [number, number, number] {
+  return [Math.floor(total / 3600), Math.floor((total % 3600) / 60), total % 60]
+}
+
 /**
  * One style and one rounding for every duration: whole seconds, always rounded down (a shortfall of
  * 9 min 59.6 s never reads as 10 min), parts that are zero left out: "48 s", "11 min 48 s", "10 min", "1 h 2 min 5 s".
  */
 export function formatDuration(seconds: number | null | undefined): string {
-  if (seconds == null || !Number.isFinite(seconds)) return "—"
-  // The epsilon keeps 0.1 + 0.2 style float dust from losing a whole second (708.0000001 and 707.9999999 both read 11 min 48 s).
-  const total = Math.max(0, Math.floor(seconds + 1e-6))
-  const h = Math.floor(total / 3600)
-  const m = Math.floor((total % 3600) / 60)
-  const s = total % 60
+  const total = wholeSeconds(seconds)
+  if (total === null) return "—"
+  const [h, m, s] = hoursMinutesSeconds(total)
   const parts = [h ? `${h} h` : "", m ? `${m} min` : "", s ? `${s} s` : ""].filter(Boolean)
   return parts.length ? parts.join(" ") : "0 s"
 }
@@ -37,12 +38,11 @@ export function formatDuration(seconds: number | null | undefined): string {
  * seconds rounded down as formatDuration rounds them, so a clock never shows a second not yet driven.
  */
 export function formatClock(seconds: number | null | undefined): string {
-  if (seconds == null || !Number.isFinite(seconds)) return "—"
-  const total = Math.max(0, Math.floor(seconds + 1e-6))
-  const h = Math.floor(total / 3600)
-  const m = Math.floor((total % 3600) / 60)
-  const s = String(total % 60).padStart(2, "0")
-  return h ? `${h}:${String(m).padStart(2, "0")}:${s}` : `${m}:${s}`
+  const total = wholeSeconds(seconds)
+  if (total === null) return "—"
+  const [h, m, s] = hoursMinutesSeconds(total)
+  const two = (n: number) => String(n).padStart(2, "0")
+  return h ? `${h}:${two(m)}:${two(s)}` : `${m}:${two(s)}`
 }
 
 /** A requirement or limit given in whole minutes in a profile: the same style as formatDuration. */
@@ -131,11 +131,12 @@ export function isoDay(at: Moment, timeZone?: string | null): string {
   return `${get("year")}-${get("month")}-${get("day")}`
 }
 
-/** Whole seconds for a machine-readable column (CSV, JSON): the same rounding as formatDuration, down, float dust kept out. */
+/** Whole seconds, rounded down with float dust kept out: what formatDuration and formatClock show, and a machine-readable column (CSV, JSON) holds. */
 export function wholeSeconds(seconds: number): number
 export function wholeSeconds(seconds: number | null | undefined): number | null
 export function wholeSeconds(seconds: number | null | undefined): number | null {
   if (seconds == null || !Number.isFinite(seconds)) return null
+  // The epsilon keeps 0.1 + 0.2 style float dust from losing a whole second (708.0000001 and 707.9999999 both read 11 min 48 s).
   return Math.max(0, Math.floor(seconds + 1e-6))
 }
 

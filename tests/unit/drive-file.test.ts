@@ -9,8 +9,8 @@ import {
   parseDriveFile,
   resolveProfile,
   sampleSchema,
-  zodIssuesToFields,
 } from "@/lib/drive-file"
+import { issuesToFields } from "@/lib/validation/zod-fields"
 
 const valid = () => ({
   format: "straightaway.drive/1",
@@ -110,7 +110,7 @@ describe("parseDriveFile", () => {
     f.samples[0]!.accuracy = -1
     const r = driveFileSchema.safeParse(f)
     expect(r.success).toBe(false)
-    expect(zodIssuesToFields(r.error!.issues)).toEqual({
+    expect(issuesToFields(r.error!.issues)).toEqual({
       "samples.0.accuracy": "must be 0 m or more",
       "samples.3.lat": "must be between -90 and 90",
     })
@@ -119,13 +119,13 @@ describe("parseDriveFile", () => {
   it("words a wrong type as the API does (must be a number, not zod's stock sentence), and a missing one as required", () => {
     const stock = z.object({ n: z.number(), list: z.array(z.string()), box: z.object({}), on: z.boolean() })
     const r = stock.safeParse({ n: "7", list: 1, box: [], on: "yes" })
-    expect(zodIssuesToFields(r.error!.issues)).toEqual({
+    expect(issuesToFields(r.error!.issues)).toEqual({
       n: "must be a number",
       list: "must be a list",
       box: "must be an object",
       on: "must be true or false",
     })
-    expect(zodIssuesToFields(stock.safeParse({ list: [], box: {}, on: true }).error!.issues)).toEqual({
+    expect(issuesToFields(stock.safeParse({ list: [], box: {}, on: true }).error!.issues)).toEqual({
       n: "is required",
     })
   })
