@@ -158,14 +158,9 @@ function closedLoop(clients: number, send: (client: number, k: number) => Promis
  * on the freshly filled sample table, another process) falls on both alike. The ratio is the median of each round's
  * own A/B; the rates printed are the medians of each loop's rounds.
  */
-async function sideBySide(
-  a: (ms: number) => Promise<number>,
-  b: (ms: number) => Promise<number>,
-  afterWarm: () => Promise<unknown>,
-) {
+async function sideBySide(a: (ms: number) => Promise<number>, b: (ms: number) => Promise<number>) {
   await a(WARM_MS)
   await b(WARM_MS)
-  await afterWarm()
   const rounds: Array<{ a: number; b: number }> = []
   for (let r = 0; r < CEILING_ROUNDS; r++) {
     if (r % 2 === 0) {
@@ -221,13 +216,7 @@ export const ingestCeilingRatio = benchFigure("ingestCeilingRatio", atLeast(0.6)
     )
     if (!res || res.replayed) throw new Error("the straight ingest did not store")
   })
-  // The warm-up filled sample_batch from next to nothing in seconds, before autovacuum's round (a minute) sees it.
-  // A connection that planned the claim lookup (a prepared statement, planned once per connection) while the
-  // statistics said the table was empty reads the whole table for every batch, more with each one: seen on a stack
-  // whose sample_batch a cleanup had just emptied. A database in service is in that state for its first minute at
-  // most. ANALYZE gives it the statistics autovacuum keeps on a database that has been up a while, and makes every
-  // connection, the app's and this pool's alike, plan the statement again.
-  const { ratio, a: apiRate, b: sqlRate } = await sideBySide(api, straight, () => pool.query("analyze sample_batch"))
+  const { ratio, a: apiRate, b: sqlRate } = await sideBySide(api, straight)
   await db.destroy() // and the pool with it
   await done(r)
   console.error(
